@@ -1,0 +1,9 @@
+import type { Migration } from "kysely";
+import * as m001 from "./2026_12_01_001_foundation";
+
+// Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
+// A static list works the same under tsx, vitest and the Next server, where a folder scan of
+// .ts files would not.
+export const migrations: Record<string, Migration> = {
+  "2026_12_01_001_foundation": m001,
+};

@@ -1,0 +1,51 @@
+// Roles and what each may reach. Pure: used by pages, route handlers and the sync merge alike.
+export const ROLES = ["mechanic", "supervisor", "office", "customer"] as const;
+export type Role = (typeof ROLES)[number];
+
+// Areas of the product. A page or route handler names its area; `canReach` decides.
+export type Area =
+  | "bench" // scan tags, step through procedures, record work (mechanics; supervisors also work the bench)
+  | "review" // review sign-offs and out-of-tolerance readings
+  | "decide" // approve / send back
+  | "office" // customers, bikes, work orders, quotes, templates
+  | "customer-contact" // see customers' e-mail and phone
+  | "users" // manage user accounts
+  | "audit" // view and export the audit log
+  | "my-bikes"; // a customer's own bikes
+
+const AREAS: Record<Area, readonly Role[]> = {
+  bench: ["mechanic", "supervisor"],
+  review: ["supervisor", "office"],
+  decide: ["supervisor", "office"],
+  office: ["office"],
+  "customer-contact": ["office", "supervisor"],
+  users: ["office"],
+  audit: ["office", "supervisor"],
+  "my-bikes": ["customer"],
+};
+
+export function canReach(role: Role, area: Area): boolean {
+  return AREAS[area].includes(role);
+}
+
+export function rolesFor(area: Area): readonly Role[] {
+  return AREAS[area];
+}
+
+// Where each role lands after sign-in.
+export function homePathFor(role: Role): string {
+  switch (role) {
+    case "mechanic":
+      return "/bench";
+    case "supervisor":
+      return "/review";
+    case "office":
+      return "/office";
+    case "customer":
+      return "/my-bikes";
+  }
+}
+
+export function isRole(value: unknown): value is Role {
+  return typeof value === "string" && (ROLES as readonly string[]).includes(value);
+}

@@ -1,0 +1,124 @@
+import { z } from "zod";
+
+// Benchtag's own procedure-template document ("benchtag-template", format version 1).
+// The office imports and exports templates in this shape; the seed writes the demo ones from it.
+// Units: torque in the named unit, lengths in the named unit, durations in seconds.
+
+export const CAUTION_KINDS = ["hot", "boost", "fuel", "lifting", "torque-to-yield", "chemical", "general"] as const;
+export type CautionKind = (typeof CAUTION_KINDS)[number];
+
+const key = z
+  .string()
+  .regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "use lower-case letters, digits and dashes (max 63)");
+
+export const cautionSchema = z.object({
+  kind: z.enum(CAUTION_KINDS),
+  text: z.string().trim().min(3).max(500),
+});
+
+export const torquePassSchema = z.union([
+  z.object({ percent: z.number().gt(0).max(100) }).strict(),
+  z.object({ value: z.number().positive() }).strict(),
+]);
+
+export const torqueSpecSchema = z
+  .object({
+    label: z.string().trim().min(1).max(120),
+    finalValue: z.number().positive(),
+    unit: z.enum(["N·m", "lbf·ft", "lbf·in", "kgf·m"]),
+    passes: z.array(torquePassSchema).max(8).default([]),
+    anglePasses: z.array(z.number().gt(0).max(360)).max(4).default([]),
+    pattern: z.enum(["cross", "spiral-out", "linear"]),
+    boltCount: z.number().int().min(1).max(64),
+    lubricant: z.string().max(200).default(""),
+    torqueToYield: z.boolean().default(false),
+  })
+  .strict();
+
+export const measurementSpecSchema = z
+  .object({
+    key,
+    label: z.string().trim().min(1).max(120),
+    nominal: z.number().nullable().default(null),
+    min: z.number(),
+    max: z.number(),
+    unit: z.enum(["mm", "in", "µm"]),
+    readingLabels: z.array(z.string().trim().min(1).max(40)).max(64).default([]),
+    geometry: z.enum(["bore", "oil-clearance"]).nullable().default(null),
+  })
+  .strict()
+  .refine((m) => m.min <= m.max, { message: "min must not exceed max", path: ["min"] })
+  .refine((m) => m.nominal === null || (m.nominal >= m.min && m.nominal <= m.max), {
+    message: "nominal must lie between min and max",
+    path: ["nominal"],
+  });
+
+export const timerSpecSchema = z
+  .object({
+    label: z.string().trim().min(1).max(120),
+    durationS: z.number().int().positive().max(7 * 24 * 3600),
+    blocksStepKey: key.nullable().default(null),
+  })
+  .strict();
+
+export const stepSchema = z
+  .object({
+    key,
+    title: z.string().trim().min(1).max(160),
+    instructions: z.string().max(4000).default(""),
+    cautions: z.array(cautionSchema).max(10).default([]),
+    requiresPhoto: z.boolean().default(false),
+    torque: z.array(torqueSpecSchema).max(6).default([]),
+    measurements: z.array(measurementSpecSchema).max(20).default([]),
+    timer: timerSpecSchema.nullable().default(null),
+  })
+  .strict();
+
+export const stageSchema = z
+  .object({
+    key,
+    title: z.string().trim().min(1).max(120),
+    steps: z.array(stepSchema).min(1).max(100),
+  })
+  .strict();
+
+export const templateDocumentSchema = z
+  .object({
+    format: z.literal("benchtag-template"),
+    formatVersion: z.literal(1),
+    key,
+    name: z.string().trim().min(1).max(160),
+    summary: z.string().max(2000).default(""),
+    exampleOnly: z.boolean().default(false),
+    stages: z.array(stageSchema).min(1).max(30),
+  })
+  .strict()
+  .superRefine((doc, ctx) => {
+    const stepKeys = new Set<string>();
+    doc.stages.forEach((stage, si) =>
+      stage.steps.forEach((step, pi) => {
+        if (stepKeys.has(step.key)) {
+          ctx.addIssue({ code: "custom", message: `step key "${step.key}" is used twice`, path: ["stages", si, "steps", pi, "key"] });
+        }
+        stepKeys.add(step.key);
+      }),
+    );
+    doc.stages.forEach((stage, si) =>
+      stage.steps.forEach((step, pi) => {
+        const blocks = step.timer?.blocksStepKey;
+        if (blocks && !stepKeys.has(blocks)) {
+          ctx.addIssue({ code: "custom", message: `timer blocks unknown step "${blocks}"`, path: ["stages", si, "steps", pi, "timer", "blocksStepKey"] });
+        }
+      }),
+    );
+    const stageKeys = doc.stages.map((s) => s.key);
+    if (new Set(stageKeys).size !== stageKeys.length) {
+      ctx.addIssue({ code: "custom", message: "stage keys must be unique", path: ["stages"] });
+    }
+  });
+
+export type TemplateDocument = z.output<typeof templateDocumentSchema>;
+export type TemplateDocumentInput = z.input<typeof templateDocumentSchema>;
+export type TemplateStep = z.output<typeof stepSchema>;
+export type TorqueSpecDoc = z.output<typeof torqueSpecSchema>;
+export type MeasurementSpecDoc = z.output<typeof measurementSpecSchema>;
