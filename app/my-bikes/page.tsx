@@ -1,0 +1,36 @@
+import type { Metadata } from "next";
+import { db } from "@/db/client";
+import { bikesOfCustomer } from "@/db/bikes";
+import { requirePageArea } from "../_server/session";
+import { AppFrame } from "../ui/app-frame";
+import { StatusBadge } from "../ui/status-badge";
+
+export const metadata: Metadata = { title: "My bikes" };
+
+export default async function MyBikesPage() {
+  const user = await requirePageArea("my-bikes");
+  const bikes = user.customerId ? await bikesOfCustomer(db(), user.shopId, user.customerId) : [];
+  return (
+    <AppFrame user={user} current="/my-bikes">
+      <h1 className="text-3xl font-bold">My bikes</h1>
+      {bikes.length === 0 && <p className="mt-4 text-lg">No bikes on record yet.</p>}
+      <ul className="mt-6 grid gap-4 md:grid-cols-2">
+        {bikes.map((b) => (
+          <li key={b.id} className="rounded-xl border-2 border-steel-700 bg-white p-5" data-testid="my-bike">
+            <h2 className="text-2xl font-bold">
+              {b.make} {b.model} {b.year ? `(${b.year})` : ""}
+            </h2>
+            <p className="font-mono text-steel-700">Tag {b.tagCode}</p>
+            <ul className="mt-3 space-y-2">
+              {b.workOrders.map((w) => (
+                <li key={w.id} className="flex flex-wrap items-center gap-3 text-lg">
+                  <span className="font-mono">#{w.number}</span> {w.title} <StatusBadge status={w.status} />
+                </li>
+              ))}
+            </ul>
+          </li>
+        ))}
+      </ul>
+    </AppFrame>
+  );
+}

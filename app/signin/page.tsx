@@ -1,0 +1,20 @@
+import type { Metadata } from "next";
+import { redirect } from "next/navigation";
+import { homePathFor } from "@/lib/auth/roles";
+import { currentUser } from "../_server/session";
+import { SignInForm } from "./sign-in-form";
+
+export const metadata: Metadata = { title: "Sign in" };
+
+export default async function SignInPage() {
+  const user = await currentUser();
+  if (user) redirect(homePathFor(user.role));
+  return (
+    <main className="mx-auto flex min-h-screen max-w-lg flex-col justify-center px-6 py-12">
+      <p className="text-lg font-bold tracking-wide text-steel-700">BENCHTAG</p>
+      <h1 className="mt-2 text-4xl font-bold">Sign in</h1>
+      <p className="mt-2 text-lg text-steel-700">Workshop records from intake to handover.</p>
+      <SignInForm />
+    </main>
+  );
+}
