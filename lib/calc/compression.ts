@@ -7,6 +7,7 @@
  */
 import { CalcInputError, requireFinite, requireNonNegative, requireObject, requirePositive } from "./errors";
 import { STANDARD_ATMOSPHERE_KPA } from "./units";
+import { pressureRatioFromBoost } from "./charge-air";
 
 /** Volume in cc (cm³) of a cylinder of diameter `diameterMm` and height `heightMm`: π/4·d²·h / 1000. */
 function discVolumeCc(diameterMm: number, heightMm: number): number {
@@ -107,11 +108,5 @@ export function boostedCompressionRatio(
 ): number {
   requireFinite("staticCr", staticCr);
   if (!(staticCr > 1)) throw new CalcInputError("staticCr", staticCr, "must be > 1");
-  requireFinite("boostKpa", boostKpa);
-  requirePositive("ambientKpa", ambientKpa);
-  const absoluteKpa = ambientKpa + boostKpa;
-  if (!(absoluteKpa > 0)) {
-    throw new CalcInputError("boostKpa", boostKpa, `must leave an absolute manifold pressure > 0 (ambient ${ambientKpa} kPa)`);
-  }
-  return (staticCr * absoluteKpa) / ambientKpa;
+  return staticCr * pressureRatioFromBoost(boostKpa, ambientKpa);
 }

@@ -112,23 +112,6 @@ const LENGTH_IN_MM: Record<LengthUnit, number> = {
   "µm": 0.001,
 };
 
-/** Type guard: is `u` one of {@link TORQUE_UNITS}? */
-export function isTorqueUnit(u: unknown): u is TorqueUnit {
-  return typeof u === "string" && (TORQUE_UNITS as readonly string[]).includes(u);
-}
-/** Type guard: is `u` one of {@link PRESSURE_UNITS}? */
-export function isPressureUnit(u: unknown): u is PressureUnit {
-  return typeof u === "string" && (PRESSURE_UNITS as readonly string[]).includes(u);
-}
-/** Type guard: is `u` one of {@link POWER_UNITS}? */
-export function isPowerUnit(u: unknown): u is PowerUnit {
-  return typeof u === "string" && (POWER_UNITS as readonly string[]).includes(u);
-}
-/** Type guard: is `u` one of {@link LENGTH_UNITS}? */
-export function isLengthUnit(u: unknown): u is LengthUnit {
-  return typeof u === "string" && (LENGTH_UNITS as readonly string[]).includes(u);
-}
-
 function convertLinear<U extends string>(
   table: Record<U, number>,
   units: readonly U[],
