@@ -1,5 +1,7 @@
 import { defineConfig, devices } from "@playwright/test";
 
+const port = Number(process.env.E2E_PORT ?? 3100);
+
 // Debian's Chromium (installed by db/scripts/install-deps.sh --test); Playwright never downloads one.
 export default defineConfig({
   testDir: "tests/e2e",
@@ -11,7 +13,7 @@ export default defineConfig({
   reporter: [["list"]],
   outputDir: "test-results",
   use: {
-    baseURL: "http://localhost:3100",
+    baseURL: `http://localhost:${port}`,
     viewport: { width: 1024, height: 768 },
     trace: "off",
     screenshot: "only-on-failure",
@@ -30,7 +32,7 @@ export default defineConfig({
   projects: [{ name: "tablet-chromium", use: { ...devices["Desktop Chrome"], viewport: { width: 1024, height: 768 } } }],
   webServer: {
     command: "bash tests/e2e/serve.sh",
-    url: "http://localhost:3100/signin",
+    url: `http://localhost:${port}/signin`,
     timeout: 180_000,
     reuseExistingServer: false,
     stdout: "pipe",

@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Playwright's web server: a fresh e2e database on the test cluster, migrated and seeded with the
-# demo workshop, then the production build served on port 3100.
+# demo workshop, then the production build served on $E2E_PORT (default 3100).
 set -euo pipefail
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
 cd "$root"
@@ -9,6 +9,7 @@ export DATABASE_URL="${E2E_DATABASE_URL:-$(bash db/scripts/pg.sh url test)/bench
 npx tsx db/cli/reset-database.ts
 npx tsx db/cli/migrate.ts
 npx tsx db/cli/seed.ts
-export NEXTAUTH_URL=http://localhost:3100
+port=${E2E_PORT:-3100}
+export NEXTAUTH_URL=http://localhost:$port
 export NEXTAUTH_SECRET=${NEXTAUTH_SECRET:-e2e-only-secret-not-for-production}
-exec npx next start -p 3100
+exec npx next start -p "$port"
