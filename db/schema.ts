@@ -249,6 +249,8 @@ export interface ReviewDecisionsTable {
   reopened_step_ids: ColumnType<string[], string[] | undefined, string[]>;
   decided_by: string;
   decided_at: Generated<Timestamp>;
+  /** Place in the change sequence shared with operations.seq (set by a trigger; migration 002). */
+  change_seq: Generated<number>;
 }
 
 export interface PartsFittedTable {
@@ -279,6 +281,29 @@ export interface AttachmentsTable {
   caption: Generated<string>;
   uploaded_by: string | null;
   created_at: Generated<Timestamp>;
+  /** Queued on a tablet, bytes not uploaded yet (migration 002). */
+  awaiting_upload: Generated<boolean>;
+}
+
+/** View: the current reading of each (job, spec, reading index) — latest stamp, not superseded (migration 002). */
+export interface CurrentMeasurementsView {
+  id: string;
+  work_order_id: string;
+  step_id: string;
+  spec_id: string;
+  reading_index: number;
+  value: string;
+  unit: "mm" | "in" | "µm";
+  verdict: "in" | "low" | "high";
+  note: string;
+  supersedes_id: string | null;
+  recorded_by: string;
+  device_id: string;
+  device_time: Date;
+  stamp: string;
+  received_at: Date;
+  flagged: boolean;
+  flag_reason: string | null;
 }
 
 export interface AuditLogTable {
@@ -328,6 +353,7 @@ export interface Database {
   attachments: AttachmentsTable;
   audit_log: AuditLogTable;
   sign_in_attempts: SignInAttemptsTable;
+  current_measurements: CurrentMeasurementsView;
 }
 
 export type User = Selectable<UsersTable>;

@@ -14,7 +14,7 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
 const ROLE_LABEL = { mechanic: "Mechanic", supervisor: "Supervisor", office: "Office", customer: "Customer" } as const;
 
 // The frame around every signed-in page: who you are, where you can go, sign out.
-export function AppFrame({ user, current, children }: { user: SessionUser; current: string; children: ReactNode }) {
+export function AppFrame({ user, current, children, flush = false }: { user: SessionUser; current: string; children: ReactNode; flush?: boolean }) {
   const links = NAV.filter((n) => canReach(user.role, n.area));
   return (
     <div className="flex min-h-screen flex-col">
@@ -37,7 +37,7 @@ export function AppFrame({ user, current, children }: { user: SessionUser; curre
         </span>
         <SignOutButton />
       </header>
-      <main className="flex-1 px-4 py-6 md:px-8">{children}</main>
+      <main className={flush ? "flex flex-1 flex-col" : "flex-1 px-4 py-6 md:px-8"}>{children}</main>
     </div>
   );
 }

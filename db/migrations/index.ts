@@ -6,4 +6,5 @@ import * as m001 from "./2026_12_01_001_foundation";
 // .ts files would not.
 export const migrations: Record<string, Migration> = {
   "2026_12_01_001_foundation": m001,
+  "2026_12_02_002_sync": { up: (db) => import("./2026_12_02_002_sync").then((m) => m.up(db)), down: (db) => import("./2026_12_02_002_sync").then((m) => m.down(db)) },
 };

@@ -1,0 +1,64 @@
+"use client";
+
+import { useEffect, useState } from "react";
+import type { StepView } from "@/lib/bench/job-view";
+import { recordOperation } from "@/lib/client/outbox";
+import { PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
+import { useBench } from "./bench-context";
+import { useLive } from "./use-live";
+
+/** Take or pick a photo at a step. Kept in IndexedDB until it is sent with the next sync. */
+export function PhotoPanel({ jobId, view }: { jobId: string; view: StepView }) {
+  const { db, user, deviceId, syncNow } = useBench();
+  const [error, setError] = useState<string | null>(null);
+  const photos = useLive(() => db.photos.where("stepId").equals(view.step.id).toArray(), [db, view.step.id], []);
+  const [urls, setUrls] = useState<Array<{ id: string; url: string; uploaded: boolean }>>([]);
+  useEffect(() => {
+    const made = photos.map((p) => ({ id: p.id, url: URL.createObjectURL(p.blob), uploaded: p.uploaded === 1 }));
+    setUrls(made);
+    return () => made.forEach((m) => URL.revokeObjectURL(m.url));
+  }, [photos]);
+
+  async function onFile(file: File | undefined) {
+    setError(null);
+    if (!file) return;
+    if (!(PHOTO_CONTENT_TYPES as readonly string[]).includes(file.type)) {
+      setError(`That file is ${file.type || "of an unknown type"}; take a JPEG, PNG or WebP photo.`);
+      return;
+    }
+    const id = crypto.randomUUID();
+    await db.photos.add({ id, workOrderId: jobId, stepId: view.step.id, blob: file, contentType: file.type, byteSize: file.size, caption: "", uploaded: 0, createdAt: Date.now() });
+    await recordOperation(db, { userId: user.id, deviceId }, jobId, "photo.queued", {
+      attachmentId: id,
+      stepId: view.step.id,
+      contentType: file.type as (typeof PHOTO_CONTENT_TYPES)[number],
+      byteSize: file.size,
+    });
+    syncNow();
+  }
+
+  return (
+    <section aria-label="Photos" className="rounded-xl border-4 border-steel-700 bg-white p-4">
+      <h3 className="text-2xl font-bold">Photos{view.step.requiresPhoto ? " (at least one needed)" : ""}</h3>
+      <label className="mt-2 flex min-h-target cursor-pointer items-center justify-center rounded-xl border-4 border-steel-900 bg-steel-900 px-5 text-xl font-bold text-white">
+        Take or add a photo
+        <input type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => void onFile(e.target.files?.[0])} data-testid="photo-input" />
+      </label>
+      {error && (
+        <p role="alert" className="mt-2 text-lg font-bold text-fail">
+          {error}
+        </p>
+      )}
+      <ul className="mt-3 flex flex-wrap gap-3">
+        {urls.map((u) => (
+          <li key={u.id} className="text-center">
+            {/* eslint-disable-next-line @next/next/no-img-element */}
+            <img src={u.url} alt="Step photo" className="h-28 w-28 rounded-lg border-2 border-steel-700 object-cover" />
+            <span className="text-sm">{u.uploaded ? "sent" : "on tablet"}</span>
+          </li>
+        ))}
+      </ul>
+      {view.photoCount > photos.length && <p className="mt-2 text-base">{view.photoCount - photos.length} more on record from other tablets.</p>}
+    </section>
+  );
+}

@@ -1,0 +1,67 @@
+"use client";
+
+import { useEffect, useRef, useState } from "react";
+import { useBench } from "./bench-context";
+import { BigButton } from "./big-button";
+import { go } from "./hash-route";
+import { lookUpTag } from "./tag-lookup";
+
+const READER_ID = "tag-reader";
+
+/** Reads a bike's QR tag with the tablet camera (html5-qrcode) and opens its job. */
+export function ScanScreen() {
+  const { db } = useBench();
+  const [message, setMessage] = useState<string>("Starting the camera…");
+  const [failed, setFailed] = useState(false);
+  const done = useRef(false);
+
+  useEffect(() => {
+    let scanner: import("html5-qrcode").Html5Qrcode | null = null;
+    let cancelled = false;
+    (async () => {
+      const { Html5Qrcode } = await import("html5-qrcode");
+      if (cancelled) return;
+      scanner = new Html5Qrcode(READER_ID, false);
+      try {
+        await scanner.start(
+          { facingMode: "environment" },
+          { fps: 10 },
+          async (text) => {
+            if (done.current) return;
+            done.current = true;
+            setMessage(`Read tag ${text}`);
+            await scanner?.stop().catch(() => undefined);
+            const r = await lookUpTag(db, text);
+            if (r.ok) go({ screen: "job", jobId: r.jobId });
+            else {
+              setFailed(true);
+              setMessage(r.message);
+            }
+          },
+          () => undefined,
+        );
+        if (!cancelled) setMessage("Hold the tag in front of the camera.");
+      } catch (e) {
+        setFailed(true);
+        setMessage(`The camera could not start (${e instanceof Error ? e.message : String(e)}). Type the tag code instead.`);
+      }
+    })();
+    return () => {
+      cancelled = true;
+      if (scanner?.isScanning) void scanner.stop().catch(() => undefined);
+    };
+  }, [db]);
+
+  return (
+    <div className="flex flex-col gap-4 p-4">
+      <h1 className="text-3xl font-bold">Scan a tag</h1>
+      <div id={READER_ID} className="mx-auto w-full max-w-xl overflow-hidden rounded-xl border-4 border-steel-900 bg-black" />
+      <p role="status" data-testid="scan-message" className={`text-xl font-bold ${failed ? "text-fail" : ""}`}>
+        {message}
+      </p>
+      <BigButton tone="plain" onClick={() => go({ screen: "home" })}>
+        Type the tag code instead
+      </BigButton>
+    </div>
+  );
+}

@@ -1,0 +1,133 @@
+"use client";
+
+import { useEffect, useRef, useState } from "react";
+import { recordOperation } from "@/lib/client/outbox";
+import { useBench } from "./bench-context";
+import { BigButton } from "./big-button";
+import { Cautions } from "./cautions";
+import { go } from "./hash-route";
+import { useJob } from "./job-data";
+import { MeasurementPanel } from "./measurement-panel";
+import { PhotoPanel } from "./photo-panel";
+import { ProgressBar } from "./progress-bar";
+import { clock, TimerPanel } from "./timer-panel";
+import { TorquePanel } from "./torque-panel";
+
+const SWIPE_PX = 90;
+
+/** One step per screen: big previous/next at the screen edges, swipe to move, the step's
+ * cautions, instructions and what must be recorded, then one large "done" button. */
+export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: number }) {
+  const { db, user, deviceId, syncNow } = useBench();
+  const { data, loading, error } = useJob(jobId);
+  const [acknowledged, setAcknowledged] = useState<Set<string>>(new Set());
+  const touch = useRef<{ x: number; y: number } | null>(null);
+  useEffect(() => {
+    window.scrollTo(0, 0);
+  }, [stepIndex]);
+
+  if (loading) return <p className="p-6 text-xl">Loading the job…</p>;
+  if (!data) return <p className="p-6 text-xl font-bold text-fail">{error ?? "Job not found."}</p>;
+  const { view } = data;
+  const total = view.steps.length;
+  const sv = view.steps[Math.min(Math.max(stepIndex, 0), total - 1)];
+  if (!sv) return <p className="p-6 text-xl">This job has no steps.</p>;
+  const stage = view.stages.find((s) => s.jobProcedureId === sv.jobProcedureId && s.key === sv.stageKey)!;
+  const hasPrev = sv.index > 0;
+  const hasNext = sv.index < total - 1;
+  const move = (d: number) => go({ screen: "step", jobId, stepIndex: sv.index + d });
+  const cautionsOk = sv.step.cautions.length === 0 || acknowledged.has(sv.step.id) || sv.done;
+  const canComplete = !sv.done && cautionsOk && sv.missing.length === 0 && !sv.blockedBy;
+
+  async function complete() {
+    await recordOperation(db, { userId: user.id, deviceId }, jobId, "step.completed", { stepId: sv.step.id });
+    syncNow();
+    if (hasNext) move(1);
+    else go({ screen: "job", jobId });
+  }
+
+  // The side buttons run the full height of the screen at both edges, within a thumb's reach.
+  const edge = "no-print sticky top-0 flex h-[100dvh] w-20 shrink-0 items-center justify-center bg-steel-900 text-4xl font-bold text-white disabled:bg-steel-300 disabled:text-steel-700 md:w-24";
+  return (
+    <div
+      className="flex items-start"
+      onPointerDown={(e) => (touch.current = { x: e.clientX, y: e.clientY })}
+      onPointerUp={(e) => {
+        const t = touch.current;
+        touch.current = null;
+        if (!t) return;
+        const dx = e.clientX - t.x;
+        if (Math.abs(dx) > SWIPE_PX && Math.abs(e.clientY - t.y) < SWIPE_PX) {
+          if (dx < 0 && hasNext) move(1);
+          if (dx > 0 && hasPrev) move(-1);
+        }
+      }}
+    >
+      <button type="button" aria-label="Previous step" disabled={!hasPrev} onClick={() => move(-1)} className={edge}>
+        <span aria-hidden="true">◀</span>
+      </button>
+
+      <div className="flex min-w-0 flex-1 flex-col gap-4 p-4">
+        <div className="flex flex-wrap items-center gap-3">
+          <BigButton tone="plain" onClick={() => go({ screen: "job", jobId })}>
+            All steps
+          </BigButton>
+          <p className="text-lg">
+            <span className="font-bold">
+              Step {sv.index + 1} of {total}
+            </span>{" "}
+            · {stage.procedureName} · {stage.title}
+          </p>
+        </div>
+        <ProgressBar done={view.doneCount} total={view.totalCount} />
+        <h1 className="text-4xl font-bold" data-testid="step-title">
+          {sv.step.title}
+        </h1>
+        {sv.reopened && (
+          <p role="alert" data-testid="reopened-reason" className="rounded-xl border-4 border-fail bg-fail-light p-4 text-xl font-bold text-fail">
+            ↺ Sent back by the supervisor: {sv.reopened.reason}
+          </p>
+        )}
+        {sv.flagged && <p className="rounded-xl border-4 border-warn bg-warn-light p-3 text-lg font-bold text-warn">Flagged for review: {sv.flagged}</p>}
+        <Cautions cautions={sv.step.cautions} acknowledged={cautionsOk} onAcknowledge={() => setAcknowledged((s) => new Set(s).add(sv.step.id))} />
+        {sv.step.instructions && <p className="max-w-4xl whitespace-pre-line text-2xl leading-snug">{sv.step.instructions}</p>}
+        {sv.step.torqueSpecs.length > 0 && <TorquePanel jobId={jobId} view={sv} />}
+        {sv.step.measurementSpecs.length > 0 && <MeasurementPanel jobId={jobId} view={sv} />}
+        {sv.step.timerSpecs.length > 0 && <TimerPanel jobId={jobId} view={sv} />}
+        <PhotoPanel jobId={jobId} view={sv} />
+
+        <section aria-label="Finish the step" className="rounded-xl border-4 border-steel-900 bg-white p-4">
+          {sv.done ? (
+            <p className="text-2xl font-bold text-pass" data-testid="step-done">
+              ✔ Done{sv.donePending ? " — waiting to send" : ""}
+            </p>
+          ) : (
+            <>
+              {sv.blockedBy && (
+                <p className="mb-3 text-xl font-bold text-warn" data-testid="step-blocked">
+                  Waiting for “{sv.blockedBy.label}”:{" "}
+                  {sv.blockedBy.started ? `${clock(sv.blockedBy.remainingMs)} left` : "its timer has not been started yet"}. A supervisor can override it from the review screen.
+                </p>
+              )}
+              {!cautionsOk && <p className="mb-3 text-xl font-bold">Read the cautions above first.</p>}
+              {sv.missing.length > 0 && (
+                <ul className="mb-3 list-inside list-disc text-xl" data-testid="step-missing">
+                  {sv.missing.map((m) => (
+                    <li key={m}>{m}</li>
+                  ))}
+                </ul>
+              )}
+              <BigButton tone="go" disabled={!canComplete} onClick={complete} className="min-h-24 w-full text-2xl">
+                Step done
+              </BigButton>
+            </>
+          )}
+        </section>
+      </div>
+
+      <button type="button" aria-label="Next step" disabled={!hasNext} onClick={() => move(1)} className={edge}>
+        <span aria-hidden="true">▶</span>
+      </button>
+    </div>
+  );
+}

@@ -1,0 +1,67 @@
+/**
+ * What POST /api/sync answers: the outcome of each operation sent, and what changed elsewhere
+ * since the device's cursor. Pure; shared with the client.
+ */
+import { z } from "zod";
+import { formatStamp } from "./hlc";
+import { cursorSchema, operationSchema, stampSchema } from "./operations";
+
+/** The device id the server uses in stamps it makes (review decisions). Tablets never use it. */
+export const SERVER_DEVICE_ID = "server";
+
+/** An operation another device sent, as stored (flagged ones included, with why). */
+export const operationChangeSchema = z.object({
+  type: z.literal("operation"),
+  seq: cursorSchema,
+  operation: operationSchema,
+  flagged: z.boolean(),
+  flagReason: z.string().nullable(),
+});
+
+/** A supervisor's decision on a sign-off. `reopenedStepIds` are steps the tablet must open again. */
+export const reviewChangeSchema = z.object({
+  type: z.literal("review"),
+  seq: cursorSchema,
+  /** Server-made clock stamp at the decision time: pass it to the device clock's `receive`. */
+  stamp: stampSchema,
+  decisionId: z.uuid(),
+  workOrderId: z.uuid(),
+  signOffId: z.uuid(),
+  jobProcedureId: z.uuid(),
+  stageKey: z.string(),
+  decision: z.enum(["approved", "sent_back"]),
+  reason: z.string(),
+  reopenedStepIds: z.array(z.uuid()),
+  decidedBy: z.uuid(),
+  decidedAt: z.iso.datetime({ offset: true }),
+});
+
+export const changeSchema = z.discriminatedUnion("type", [operationChangeSchema, reviewChangeSchema]);
+export type Change = z.output<typeof changeSchema>;
+export type OperationChange = z.output<typeof operationChangeSchema>;
+export type ReviewChange = z.output<typeof reviewChangeSchema>;
+
+export const outcomeWithReasonSchema = z.object({ id: z.uuid(), reason: z.string() });
+
+export const syncResponseSchema = z.object({
+  /** Stored by this request: remove from the outbox. Includes the flagged ones. */
+  accepted: z.array(z.uuid()),
+  /** Already stored before this request (a resend): remove from the outbox. */
+  duplicates: z.array(z.uuid()),
+  /** Not stored, with why (written to the audit log, whole operation in its detail). */
+  refused: z.array(outcomeWithReasonSchema),
+  /** Accepted and stored, but marked for a supervisor to look at, with why. Subset of `accepted`. */
+  flagged: z.array(outcomeWithReasonSchema),
+  /** Changes from elsewhere after the request's cursor, in seq order. */
+  changes: z.array(changeSchema),
+  /** Send this as `cursor` next time. */
+  cursor: cursorSchema,
+  /** True when more changes are waiting: sync again (with no operations if the outbox is empty). */
+  more: z.boolean(),
+});
+export type SyncResponse = z.output<typeof syncResponseSchema>;
+
+/** The stamp the server gives a decision made at `decidedAtMs`. */
+export function serverStamp(decidedAtMs: number): string {
+  return formatStamp({ wallMs: decidedAtMs, counter: 0, deviceId: SERVER_DEVICE_ID });
+}

@@ -1,0 +1,266 @@
+/**
+ * The merge rules, as pure functions. db/sync.ts loads the facts, calls `decideOperation` for each
+ * operation in stamp order (calling `noteAccepted` after each one it keeps), and writes the result.
+ * The rules in plain words are in ./README.md.
+ */
+import { canReach, type Role } from "@/lib/auth/roles";
+import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { compareStamps, parseStamp } from "./hlc";
+import type { Operation } from "./operations";
+
+/** A stamp further ahead of the server's clock than this is kept but flagged (the tablet's clock is likely wrong). */
+export const MAX_CLOCK_AHEAD_MS = 5 * 60_000;
+
+export interface Actor {
+  id: string;
+  shopId: string;
+  role: Role;
+}
+
+export interface StepFacts {
+  key: string;
+  title: string;
+  jobProcedureId: string;
+  stageKey: string;
+}
+export interface MeasurementSpecFacts {
+  stepId: string;
+  label: string;
+  /** How many readings the spec takes (its reading labels; 1 when it has none). */
+  readingCount: number;
+}
+export interface TorqueSpecFacts {
+  stepId: string;
+  label: string;
+  boltCount: number;
+  /** Torque passes (1 when the spec lists none) plus angle passes. */
+  passCount: number;
+}
+export interface TimerSpecFacts {
+  stepId: string;
+}
+/** A supervisor's send-back decision on this job. */
+export interface SendBackFacts {
+  decisionId: string;
+  stepIds: readonly string[];
+  /** Its place in the change sequence (shared with operations.seq). */
+  seq: number;
+  decidedAtMs: number;
+  reason: string;
+}
+
+/** What the merge knows about one work order: the job, and the procedures pinned on it. */
+export interface JobFacts {
+  id: string;
+  shopId: string;
+  number: number;
+  status: WorkOrderStatus;
+  assignedMechanicId: string | null;
+  steps: ReadonlyMap<string, StepFacts>;
+  measurementSpecs: ReadonlyMap<string, MeasurementSpecFacts>;
+  torqueSpecs: ReadonlyMap<string, TorqueSpecFacts>;
+  timerSpecs: ReadonlyMap<string, TimerSpecFacts>;
+  sendBacks: readonly SendBackFacts[];
+}
+
+/** Records operations may refer to: those on file that the batch names, plus those accepted earlier in it. */
+export interface MergeState {
+  readings: Map<string, { workOrderId: string; specId: string; readingIndex: number }>;
+  timers: Map<string, { workOrderId: string; startedAtMs: number; stoppedAtMs: number | null }>;
+  attachmentIds: Set<string>;
+}
+
+export function emptyMergeState(): MergeState {
+  return { readings: new Map(), timers: new Map(), attachmentIds: new Set() };
+}
+
+export interface DecisionInput {
+  actor: Actor;
+  /** The device the batch came from. */
+  batchDeviceId: string;
+  /** The cursor the batch was sent with (null: the device had never synced). */
+  cursor: number | null;
+  /** The server's clock, ms. */
+  nowMs: number;
+  /** The work order the operation names; undefined when there is none. */
+  job: JobFacts | undefined;
+  state: MergeState;
+}
+
+export type Decision =
+  | { outcome: "accept" }
+  | { outcome: "flag"; reason: string }
+  | { outcome: "refuse"; reason: string };
+
+const accept: Decision = { outcome: "accept" };
+const refuse = (reason: string): Decision => ({ outcome: "refuse", reason });
+
+/**
+ * Who may record bench work on a job: a user whose role reaches the bench, in the job's shop;
+ * a supervisor on any job of the shop; a mechanic on a job assigned to them or assigned to nobody.
+ */
+export function mayWorkJob(actor: Actor, job: { shopId: string; assignedMechanicId: string | null }): boolean {
+  if (actor.shopId !== job.shopId || !canReach(actor.role, "bench")) return false;
+  if (actor.role !== "mechanic") return true;
+  return job.assignedMechanicId === null || job.assignedMechanicId === actor.id;
+}
+
+/** Operations in the order the merge applies them: by stamp, then by id. */
+export function sortByStamp<T extends { stamp: string; id: string }>(ops: readonly T[]): T[] {
+  return [...ops].sort((a, b) => compareStamps(a.stamp, b.stamp) || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+}
+
+/** Whether the device could not have known of a send-back when it made an operation. */
+export function sendBackUnseen(sendBack: SendBackFacts, opWallMs: number, cursor: number | null): boolean {
+  return cursor === null || sendBack.seq > cursor || opWallMs < sendBack.decidedAtMs;
+}
+
+/** Decides one operation: accept it, accept it flagged for review, or refuse it. */
+export function decideOperation(op: Operation, input: DecisionInput): Decision {
+  const { actor, job } = input;
+  if (op.authorId !== actor.id) {
+    return refuse(`The operation names author ${op.authorId}, who is not the signed-in user: a tablet may only send its own user's work.`);
+  }
+  if (op.deviceId !== input.batchDeviceId) {
+    return refuse(`The operation was made on device "${op.deviceId}" but sent in a batch from device "${input.batchDeviceId}".`);
+  }
+  const stamp = parseStamp(op.stamp);
+  if (stamp.deviceId !== op.deviceId) {
+    return refuse(`The operation's stamp was made by device "${stamp.deviceId}", not by "${op.deviceId}".`);
+  }
+  if (!canReach(actor.role, "bench")) return refuse(`Your role (${actor.role}) may not record bench work.`);
+  if (!job || job.shopId !== actor.shopId) return refuse(`Work order ${op.workOrderId} is not in your shop.`);
+  if (!mayWorkJob(actor, job)) return refuse(`Work order #${job.number} is assigned to another mechanic.`);
+
+  const problem = checkReferences(op, job, input.state);
+  if (problem) return refuse(problem);
+
+  const flags = jobFlags(job);
+  if (stamp.wallMs > input.nowMs + MAX_CLOCK_AHEAD_MS) {
+    const minutes = Math.round((stamp.wallMs - input.nowMs) / 60_000);
+    flags.push(`Its stamp is ${minutes} min ahead of the server clock: check the tablet's clock.`);
+  }
+  flags.push(...sendBackFlags(op, job, stamp.wallMs, input.cursor));
+  return flags.length ? { outcome: "flag", reason: flags.join(" ") } : accept;
+}
+
+function jobFlags(job: JobFacts): string[] {
+  const label = STATUS_LABELS[job.status] ?? job.status;
+  if (isClosed(job.status)) return [`Work order #${job.number} is closed (${label}); kept for review.`];
+  if (!isOpenForBenchWork(job.status)) return [`Work order #${job.number} is not open for bench work (${label}); kept for review.`];
+  return [];
+}
+
+function sendBackFlags(op: Operation, job: JobFacts, opWallMs: number, cursor: number | null): string[] {
+  if (op.kind === "step.completed") {
+    const step = job.steps.get(op.payload.stepId)!;
+    const hit = job.sendBacks.find((s) => s.stepIds.includes(op.payload.stepId) && sendBackUnseen(s, opWallMs, cursor));
+    return hit
+      ? [`Step "${step.title}" was sent back by the supervisor (${new Date(hit.decidedAtMs).toISOString()}: ${hit.reason}) and this completion was made before the tablet knew; check the step was redone.`]
+      : [];
+  }
+  if (op.kind === "stage.signed-off") {
+    const { jobProcedureId, stageKey } = op.payload;
+    const hit = job.sendBacks.find(
+      (s) =>
+        sendBackUnseen(s, opWallMs, cursor) &&
+        s.stepIds.some((id) => {
+          const step = job.steps.get(id);
+          return step?.jobProcedureId === jobProcedureId && step.stageKey === stageKey;
+        }),
+    );
+    return hit
+      ? [`Stage "${stageKey}" had steps sent back by the supervisor (${new Date(hit.decidedAtMs).toISOString()}: ${hit.reason}) that the tablet did not know of when signing off.`]
+      : [];
+  }
+  return [];
+}
+
+/** The refusal reason when the operation names something that is not on the job, else null. */
+function checkReferences(op: Operation, job: JobFacts, state: MergeState): string | null {
+  const onJob = `on work order #${job.number}`;
+  const stepMissing = (stepId: string) =>
+    job.steps.has(stepId) ? null : `Step ${stepId} is not part of a procedure ${onJob}.`;
+  switch (op.kind) {
+    case "step.completed":
+      return stepMissing(op.payload.stepId);
+    case "measurement.recorded": {
+      const p = op.payload;
+      const spec = job.measurementSpecs.get(p.specId);
+      if (!spec || spec.stepId !== p.stepId) return stepMissing(p.stepId) ?? `Measurement spec ${p.specId} is not a spec of step ${p.stepId} ${onJob}.`;
+      if (p.readingIndex >= spec.readingCount) {
+        return `Reading index ${p.readingIndex} is out of range: "${spec.label}" takes ${spec.readingCount} reading${spec.readingCount === 1 ? "" : "s"} (index 0–${spec.readingCount - 1}).`;
+      }
+      if (p.supersedesId !== undefined) {
+        const old = state.readings.get(p.supersedesId);
+        if (!old || old.workOrderId !== job.id) return `Reading ${p.supersedesId} that this corrects is not on record ${onJob}.`;
+        if (old.specId !== p.specId || old.readingIndex !== p.readingIndex) {
+          return `Reading ${p.supersedesId} that this corrects is for another spec or reading index; a correction must be for the same reading.`;
+        }
+      }
+      return null;
+    }
+    case "torque.bolt-confirmed": {
+      const p = op.payload;
+      const spec = job.torqueSpecs.get(p.torqueSpecId);
+      if (!spec || spec.stepId !== p.stepId) return stepMissing(p.stepId) ?? `Torque spec ${p.torqueSpecId} is not a spec of step ${p.stepId} ${onJob}.`;
+      if (p.passIndex > spec.passCount) return `Pass ${p.passIndex} is out of range: "${spec.label}" has ${spec.passCount} pass${spec.passCount === 1 ? "" : "es"}.`;
+      if (p.bolt > spec.boltCount) return `Bolt ${p.bolt} is out of range: "${spec.label}" has ${spec.boltCount} bolt${spec.boltCount === 1 ? "" : "s"}.`;
+      return null;
+    }
+    case "timer.started": {
+      const p = op.payload;
+      const missing = stepMissing(p.stepId);
+      if (missing) return missing;
+      if (p.timerSpecId !== undefined && job.timerSpecs.get(p.timerSpecId)?.stepId !== p.stepId) {
+        return `Timer spec ${p.timerSpecId} is not a timer of step ${p.stepId} ${onJob}.`;
+      }
+      if (state.timers.has(p.timerId)) return `Timer ${p.timerId} is already on record.`;
+      return null;
+    }
+    case "timer.stopped": {
+      const timer = state.timers.get(op.payload.timerId);
+      if (!timer || timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
+      if (Date.parse(op.payload.stoppedAt) < timer.startedAtMs) return `Timer ${op.payload.timerId} cannot stop before it started.`;
+      return null;
+    }
+    case "photo.queued": {
+      const missing = stepMissing(op.payload.stepId);
+      if (missing) return missing;
+      if (state.attachmentIds.has(op.payload.attachmentId)) return `Photo ${op.payload.attachmentId} is already on record.`;
+      return null;
+    }
+    case "stage.signed-off": {
+      const { jobProcedureId, stageKey } = op.payload;
+      const steps = [...job.steps.values()];
+      if (!steps.some((s) => s.jobProcedureId === jobProcedureId)) return `Procedure ${jobProcedureId} is not ${onJob}.`;
+      if (!steps.some((s) => s.jobProcedureId === jobProcedureId && s.stageKey === stageKey)) {
+        return `Stage "${stageKey}" is not a stage of procedure ${jobProcedureId} ${onJob}.`;
+      }
+      return null;
+    }
+  }
+}
+
+/** Adds what an accepted operation created to the state, so later operations in the batch can name it. */
+export function noteAccepted(op: Operation, state: MergeState): void {
+  switch (op.kind) {
+    case "measurement.recorded":
+      state.readings.set(op.id, { workOrderId: op.workOrderId, specId: op.payload.specId, readingIndex: op.payload.readingIndex });
+      return;
+    case "timer.started":
+      state.timers.set(op.payload.timerId, { workOrderId: op.workOrderId, startedAtMs: Date.parse(op.payload.startedAt), stoppedAtMs: null });
+      return;
+    case "timer.stopped": {
+      const t = state.timers.get(op.payload.timerId);
+      const at = Date.parse(op.payload.stoppedAt);
+      if (t) t.stoppedAtMs = t.stoppedAtMs === null ? at : Math.min(t.stoppedAtMs, at);
+      return;
+    }
+    case "photo.queued":
+      state.attachmentIds.add(op.payload.attachmentId);
+      return;
+    default:
+      return;
+  }
+}

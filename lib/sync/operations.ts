@@ -1,0 +1,152 @@
+/**
+ * The sync wire format, defined once: the tablets' outbox (IndexedDB) and POST /api/sync both use
+ * these zod schemas. Pure (no DB, no React): safe to import in the browser.
+ *
+ * Numbering conventions:
+ * - `readingIndex` counts from 0 (the position in the spec's reading labels; 0 for a single reading);
+ * - `passIndex` and `bolt` count from 1, as the torque pass list and the tightening order do.
+ */
+import { z } from "zod";
+import { LENGTH_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
+import { DEVICE_ID_PATTERN, STAMP_PATTERN } from "./hlc";
+
+/** Limits of one POST /api/sync. A bigger outbox is sent as several batches (see ./batching.ts). */
+export const SYNC_LIMITS = {
+  /** Operations in one batch. */
+  maxOperations: 10_000,
+  /** Bytes of the JSON body (8 MiB): 10,000 typical operations take about 4 MB, so both limits hold together. */
+  maxBodyBytes: 8 * 1024 * 1024,
+  /** Entries in `changes` of one response; when there are more, `more` is true and the client asks again. */
+  maxChanges: 5_000,
+} as const;
+
+export const OPERATION_KINDS = [
+  "step.completed",
+  "measurement.recorded",
+  "torque.bolt-confirmed",
+  "timer.started",
+  "timer.stopped",
+  "photo.queued",
+  "stage.signed-off",
+] as const;
+export type OperationKind = (typeof OPERATION_KINDS)[number];
+
+export const PHOTO_CONTENT_TYPES = ["image/jpeg", "image/png", "image/webp", "image/heic", "image/heif"] as const;
+/** Largest photo a tablet may queue (bytes). */
+export const MAX_PHOTO_BYTES = 50 * 1024 * 1024;
+
+const id = () => z.uuid({ error: "must be a UUID" });
+const isoTime = () => z.iso.datetime({ offset: true, error: "must be an ISO 8601 date-time with a time zone (e.g. 2026-12-02T09:30:00.000Z)" });
+const stageKey = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "must be a stage key (lower-case letters, digits and dashes)");
+
+export const deviceIdSchema = z
+  .string()
+  .regex(DEVICE_ID_PATTERN, "must be 1–64 letters, digits or . _ : - starting with a letter or digit");
+export const stampSchema = z
+  .string()
+  .regex(STAMP_PATTERN, "must be a clock stamp: 15-digit ms, 6-digit counter and the device id, joined by \"-\"");
+/** The server's cursor: a decimal sequence number. */
+export const cursorSchema = z.string().regex(/^(0|[1-9]\d{0,17})$/, "must be a cursor returned by the server (digits)");
+
+// ---------------------------------------------------------------------------------------------
+// Payloads, one per kind
+// ---------------------------------------------------------------------------------------------
+
+export const stepCompletedPayload = z.object({ stepId: id() }).strict();
+
+export const measurementRecordedPayload = z
+  .object({
+    stepId: id(),
+    specId: id(),
+    readingIndex: z.number().int().min(0).max(63),
+    /** As read off the instrument: kept exactly, never rounded. */
+    value: z.number(),
+    unit: z.enum(LENGTH_UNITS),
+    note: z.string().max(1000).optional(),
+    /** The reading this one corrects (it stays on record). */
+    supersedesId: id().optional(),
+  })
+  .strict();
+
+export const torqueBoltConfirmedPayload = z
+  .object({
+    stepId: id(),
+    torqueSpecId: id(),
+    passIndex: z.number().int().min(1).max(16),
+    bolt: z.number().int().min(1).max(1024),
+    /** What a reading wrench showed, when one was used. */
+    wrenchReading: z.number().positive().optional(),
+    wrenchUnit: z.enum(TORQUE_UNITS).optional(),
+  })
+  .strict()
+  .refine((p) => (p.wrenchReading === undefined) === (p.wrenchUnit === undefined), {
+    message: "give wrenchReading and wrenchUnit together, or neither",
+    path: ["wrenchUnit"],
+  });
+
+export const timerStartedPayload = z
+  .object({
+    timerId: id(),
+    stepId: id(),
+    timerSpecId: id().optional(),
+    label: z.string().trim().min(1).max(120),
+    durationS: z.number().int().positive().max(7 * 24 * 3600),
+    startedAt: isoTime(),
+  })
+  .strict();
+
+export const timerStoppedPayload = z.object({ timerId: id(), stoppedAt: isoTime() }).strict();
+
+export const photoQueuedPayload = z
+  .object({
+    attachmentId: id(),
+    stepId: id(),
+    contentType: z.enum(PHOTO_CONTENT_TYPES),
+    byteSize: z.number().int().positive().max(MAX_PHOTO_BYTES),
+    caption: z.string().max(500).optional(),
+  })
+  .strict();
+
+export const stageSignedOffPayload = z.object({ jobProcedureId: id(), stageKey }).strict();
+
+// ---------------------------------------------------------------------------------------------
+// Operation and batch
+// ---------------------------------------------------------------------------------------------
+
+const common = {
+  /** Made on the device (UUID v4 or v7); the same operation sent twice has the same id. */
+  id: id(),
+  workOrderId: id(),
+  authorId: id(),
+  deviceId: deviceIdSchema,
+  /** The tablet's wall clock when the operation was made (for people; ordering uses `stamp`). */
+  deviceTime: isoTime(),
+  stamp: stampSchema,
+};
+
+const op = <K extends OperationKind, P extends z.ZodType>(kind: K, payload: P) =>
+  z.object({ ...common, kind: z.literal(kind), payload }).strict();
+
+export const operationSchema = z.discriminatedUnion("kind", [
+  op("step.completed", stepCompletedPayload),
+  op("measurement.recorded", measurementRecordedPayload),
+  op("torque.bolt-confirmed", torqueBoltConfirmedPayload),
+  op("timer.started", timerStartedPayload),
+  op("timer.stopped", timerStoppedPayload),
+  op("photo.queued", photoQueuedPayload),
+  op("stage.signed-off", stageSignedOffPayload),
+]);
+
+export type Operation = z.output<typeof operationSchema>;
+export type OperationOf<K extends OperationKind> = Extract<Operation, { kind: K }>;
+
+export const syncBatchSchema = z
+  .object({
+    deviceId: deviceIdSchema,
+    /** The cursor from the last response this device got, or null before its first sync. */
+    cursor: cursorSchema.nullable(),
+    operations: z.array(operationSchema).max(SYNC_LIMITS.maxOperations),
+  })
+  .strict();
+
+export type SyncBatch = z.output<typeof syncBatchSchema>;

@@ -1,0 +1,52 @@
+/**
+ * Readings (measurements) are append-only. A correction is a new reading naming the one it
+ * supersedes; both stay on record. Two tablets reading the same spot offline both keep theirs.
+ *
+ * The current reading for a spot (job, spec, reading index) is the one with the latest stamp among
+ * those no other reading supersedes. The database view `current_measurements` states the same rule.
+ */
+import { evaluateTolerance, type ToleranceStatus } from "@/lib/calc/tolerance";
+import type { LengthUnit } from "@/lib/calc/units";
+import { compareStamps } from "./hlc";
+
+export interface ReadingLike {
+  id: string;
+  workOrderId?: string;
+  specId: string;
+  readingIndex: number;
+  stamp: string;
+  supersedesId: string | null;
+}
+
+/** The current reading of every spot, in input order of first appearance of the spot. */
+export function currentReadings<T extends ReadingLike>(readings: readonly T[]): T[] {
+  const superseded = new Set(readings.map((r) => r.supersedesId).filter((id): id is string => id !== null));
+  const best = new Map<string, T>();
+  for (const r of readings) {
+    if (superseded.has(r.id)) continue;
+    const spot = `${r.workOrderId ?? ""}|${r.specId}|${r.readingIndex}`;
+    const held = best.get(spot);
+    if (!held || isLater(r, held)) best.set(spot, r);
+  }
+  return [...best.values()];
+}
+
+function isLater(a: ReadingLike, b: ReadingLike): boolean {
+  const byStamp = compareStamps(a.stamp, b.stamp);
+  return byStamp !== 0 ? byStamp > 0 : a.id > b.id;
+}
+
+export interface ReadingSpec {
+  unit: LengthUnit;
+  min: number;
+  max: number;
+  nominal: number | null;
+}
+
+/** "low" below min, "high" above max, else "in" (limits are in); exact across mm/in/µm. */
+export function readingVerdict(value: number, unit: LengthUnit, spec: ReadingSpec): ToleranceStatus {
+  return evaluateTolerance(
+    { value, unit },
+    { unit: spec.unit, min: spec.min, max: spec.max, ...(spec.nominal === null ? {} : { nominal: spec.nominal }) },
+  ).status;
+}

@@ -1,0 +1,240 @@
+/**
+ * What the bench read endpoints return, for the client to fill IndexedDB. Pure zod schemas and
+ * types, shared by db/bench-jobs.ts (which builds them) and the client (which can check them).
+ * Numbers from numeric columns (specs, readings) come as JSON numbers, exactly as entered.
+ */
+import { z } from "zod";
+import { LENGTH_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
+import { cautionSchema, torquePassSchema } from "@/lib/procedures/template-schema";
+import { WORK_ORDER_STATUSES } from "@/lib/work-orders/status";
+import { cursorSchema } from "./operations";
+
+const id = z.uuid();
+const time = z.iso.datetime({ offset: true });
+const person = z.object({ id, name: z.string() });
+
+export const benchBikeSchema = z.object({
+  id,
+  make: z.string(),
+  model: z.string(),
+  year: z.number().int().nullable(),
+  tagCode: z.string(),
+  colour: z.string().nullable(),
+  displacementCc: z.number().int().nullable(),
+});
+
+/** One line of GET /api/bench/jobs. */
+export const benchJobSummarySchema = z.object({
+  id,
+  number: z.number().int(),
+  title: z.string(),
+  status: z.enum(WORK_ORDER_STATUSES),
+  statusLabel: z.string(),
+  assignedMechanic: person.nullable(),
+  assignedToMe: z.boolean(),
+  /** Whether the signed-in user may record work on it (see lib/sync/merge-rules mayWorkJob). */
+  mayWork: z.boolean(),
+  bike: benchBikeSchema,
+  updatedAt: time,
+});
+export const benchJobListSchema = z.object({ jobs: z.array(benchJobSummarySchema) });
+
+/** GET /api/bench/tags/[code]. */
+export const tagLookupSchema = z.object({
+  workOrderId: id,
+  number: z.number().int(),
+  bike: z.object({ id, tagCode: z.string(), make: z.string(), model: z.string() }),
+});
+
+export const torqueSpecSnapshotSchema = z.object({
+  id,
+  label: z.string(),
+  finalValue: z.number(),
+  unit: z.enum(TORQUE_UNITS),
+  passes: z.array(torquePassSchema),
+  anglePasses: z.array(z.number()),
+  pattern: z.enum(["cross", "spiral-out", "linear"]),
+  boltCount: z.number().int(),
+  lubricant: z.string(),
+  torqueToYield: z.boolean(),
+});
+
+export const measurementSpecSnapshotSchema = z.object({
+  id,
+  key: z.string(),
+  label: z.string(),
+  nominal: z.number().nullable(),
+  min: z.number(),
+  max: z.number(),
+  unit: z.enum(LENGTH_UNITS),
+  readingLabels: z.array(z.string()),
+  geometry: z.enum(["bore", "oil-clearance"]).nullable(),
+});
+
+export const timerSpecSnapshotSchema = z.object({
+  id,
+  label: z.string(),
+  durationS: z.number().int(),
+  blocksStepKey: z.string().nullable(),
+});
+
+export const stepSnapshotSchema = z.object({
+  id,
+  key: z.string(),
+  title: z.string(),
+  position: z.number().int(),
+  instructions: z.string(),
+  cautions: z.array(cautionSchema),
+  requiresPhoto: z.boolean(),
+  waitsForStepKey: z.string().nullable(),
+  torqueSpecs: z.array(torqueSpecSnapshotSchema),
+  measurementSpecs: z.array(measurementSpecSnapshotSchema),
+  timerSpecs: z.array(timerSpecSnapshotSchema),
+});
+
+export const stageSnapshotSchema = z.object({
+  key: z.string(),
+  title: z.string(),
+  position: z.number().int(),
+  steps: z.array(stepSnapshotSchema),
+});
+
+export const procedureSnapshotSchema = z.object({
+  jobProcedureId: id,
+  position: z.number().int(),
+  templateVersionId: id,
+  templateKey: z.string(),
+  name: z.string(),
+  version: z.number().int(),
+  exampleOnly: z.boolean(),
+  stages: z.array(stageSnapshotSchema),
+});
+
+export const completionSnapshotSchema = z.object({
+  id,
+  stepId: id,
+  completedBy: id,
+  deviceTime: time,
+  receivedAt: time,
+  flagged: z.boolean(),
+  flagReason: z.string().nullable(),
+  seq: cursorSchema,
+});
+
+export const readingSnapshotSchema = z.object({
+  id,
+  stepId: id,
+  specId: id,
+  readingIndex: z.number().int(),
+  value: z.number(),
+  unit: z.enum(LENGTH_UNITS),
+  verdict: z.enum(["in", "low", "high"]),
+  note: z.string(),
+  supersedesId: id.nullable(),
+  /** The current reading of its spot (latest stamp, not superseded). */
+  current: z.boolean(),
+  recordedBy: id,
+  deviceId: z.string(),
+  deviceTime: time,
+  stamp: z.string(),
+  flagged: z.boolean(),
+  flagReason: z.string().nullable(),
+});
+
+export const torqueRecordSnapshotSchema = z.object({
+  id,
+  stepId: id,
+  torqueSpecId: id,
+  passIndex: z.number().int(),
+  bolt: z.number().int(),
+  wrenchReading: z.number().nullable(),
+  wrenchUnit: z.string().nullable(),
+  recordedBy: id,
+  deviceTime: time,
+});
+
+export const timerSnapshotSchema = z.object({
+  id,
+  stepId: id,
+  timerSpecId: id.nullable(),
+  label: z.string(),
+  durationS: z.number().int(),
+  startedAt: time,
+  startedBy: id,
+  stoppedAt: time.nullable(),
+  overrideBy: id.nullable(),
+  overrideReason: z.string().nullable(),
+});
+
+export const signOffSnapshotSchema = z.object({
+  id,
+  jobProcedureId: id,
+  stageKey: z.string(),
+  signedBy: id,
+  deviceTime: time,
+  receivedAt: time,
+  seq: cursorSchema,
+});
+
+/** The latest decision on each sign-off. */
+export const reviewDecisionSnapshotSchema = z.object({
+  id,
+  signOffId: id,
+  jobProcedureId: id,
+  stageKey: z.string(),
+  decision: z.enum(["approved", "sent_back"]),
+  reason: z.string(),
+  reopenedStepIds: z.array(id),
+  decidedBy: id,
+  decidedAt: time,
+  seq: cursorSchema,
+});
+
+export const photoSnapshotSchema = z.object({
+  id,
+  stepId: id.nullable(),
+  contentType: z.string(),
+  byteSize: z.number().int(),
+  caption: z.string(),
+  awaitingUpload: z.boolean(),
+  createdAt: time,
+});
+
+/** GET /api/bench/jobs/[id]: everything the bench needs for one job, and the cursor it is current to. */
+export const jobSnapshotSchema = z.object({
+  workOrder: z.object({
+    id,
+    number: z.number().int(),
+    title: z.string(),
+    complaint: z.string(),
+    status: z.enum(WORK_ORDER_STATUSES),
+    statusLabel: z.string(),
+    openForBenchWork: z.boolean(),
+    assignedMechanic: person.nullable(),
+    assignedToMe: z.boolean(),
+    mayWork: z.boolean(),
+  }),
+  bike: benchBikeSchema,
+  /** Bench users of the shop, to show who did what. */
+  people: z.array(person.extend({ role: z.enum(["mechanic", "supervisor"]) })),
+  procedures: z.array(procedureSnapshotSchema),
+  state: z.object({
+    completions: z.array(completionSnapshotSchema),
+    readings: z.array(readingSnapshotSchema),
+    torqueRecords: z.array(torqueRecordSnapshotSchema),
+    timers: z.array(timerSnapshotSchema),
+    signOffs: z.array(signOffSnapshotSchema),
+    reviewDecisions: z.array(reviewDecisionSnapshotSchema),
+    photos: z.array(photoSnapshotSchema),
+  }),
+  /**
+   * The shop's change cursor the snapshot is current to. A device with no cursor yet starts syncing
+   * from it; a device that has one keeps its own (changes are keyed by id, so one seen twice is harmless).
+   */
+  cursor: cursorSchema,
+});
+
+export type BenchJobSummary = z.output<typeof benchJobSummarySchema>;
+export type BenchJobList = z.output<typeof benchJobListSchema>;
+export type TagLookup = z.output<typeof tagLookupSchema>;
+export type JobSnapshot = z.output<typeof jobSnapshotSchema>;
