@@ -6,3 +6,4 @@ export * from "./curve-rows";
 export * from "./curve-csv";
 export * from "./run-input";
 export * from "./plot-scale";
+export * from "./run-summary";
