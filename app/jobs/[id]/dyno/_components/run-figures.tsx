@@ -49,9 +49,9 @@ export function RunFigures({
                 {r.notes && <span className="block text-base text-steel-700">{r.notes}</span>}
               </td>
               <td className="py-2 pr-3 font-mono text-base">
-                {r.pressureKpa} kPa
-                <br />
-                {r.temperatureC} °C · {r.humidityPercent} %
+                <span className="block whitespace-nowrap">{r.pressureKpa} kPa</span>
+                <span className="block whitespace-nowrap">{r.temperatureC} °C</span>
+                <span className="block whitespace-nowrap">{r.humidityPercent} % RH</span>
               </td>
               <td className="py-2 pr-3 text-base">
                 {r.standardLabel}
