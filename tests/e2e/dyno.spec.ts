@@ -168,6 +168,8 @@ test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing save
   await page.getByLabel("Air pressure (kPa)").fill("100.1");
   await page.getByRole("button", { name: "Save run" }).click();
   await expect(page.getByTestId("form-message")).toContainText("saved");
-  await expect(page.getByRole("button", { name: /11 psi, baffle out/ })).toBeVisible();
+  await expect(page.getByRole("button", { name: /11 psi, baffle out/ })).toHaveAttribute("aria-pressed", "true");
+  await expect(page.getByTestId("curve-chart").locator("path.recharts-line-curve")).toHaveCount(6);
+  await expect(page.getByRole("row", { name: /11 psi, baffle out/ })).toBeVisible();
   await page.screenshot({ path: `${SHOTS}/dyno-after-upload.png`, fullPage: true });
 });

@@ -1,6 +1,6 @@
 "use client";
 
-import { useMemo, useRef, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { convertPower, convertTorque, type PowerUnit } from "@/lib/calc";
 import { compareRuns, powerGainPerBoost, summariseRun, type StoredDynoRun } from "@/lib/dyno";
 import { downloadPng, downloadSvg, type ExportLegendItem } from "./chart-export";
@@ -24,6 +24,13 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
   const [kind, setKind] = useState<CurveKind>("corrected");
   const [exportError, setExportError] = useState<string | null>(null);
   const chartRef = useRef<HTMLDivElement>(null);
+  // a run saved here joins the plot at once
+  const known = useRef(new Set(runs.map((r) => r.id)));
+  useEffect(() => {
+    const fresh = runs.filter((r) => !known.current.has(r.id)).map((r) => r.id);
+    fresh.forEach((id) => known.current.add(id));
+    if (fresh.length) setChosen((c) => [...c, ...fresh]);
+  }, [runs]);
 
   const indexOf = (id: string) => runs.findIndex((r) => r.id === id);
   const shown = summaries.filter((s) => chosen.includes(s.id));
