@@ -5,6 +5,7 @@
  */
 import { z } from "zod";
 import { convertTorque } from "@/lib/calc";
+import { numberFromText } from "./number-text";
 
 /** Torque units a curve may be recorded in. */
 export const CURVE_TORQUE_UNITS = ["N·m", "lbf·ft"] as const;
@@ -22,34 +23,10 @@ export interface CurveRowError {
   message: string;
 }
 
-/** A cell as text (from a file or an input box) or already a number. */
-const cell = (name: string, min: number, max: number, unit: string) =>
-  z
-    .union([z.number(), z.string()])
-    .transform((v, ctx) => {
-      const text = typeof v === "number" ? String(v) : v.trim();
-      if (text === "") {
-        ctx.addIssue({ code: "custom", message: `${name} is empty` });
-        return z.NEVER;
-      }
-      const n = Number(text);
-      if (!Number.isFinite(n)) {
-        ctx.addIssue({ code: "custom", message: `${name} must be a number; got "${text}"` });
-        return z.NEVER;
-      }
-      return n;
-    })
-    .pipe(
-      z
-        .number()
-        .min(min, { message: `${name} must be at least ${min} ${unit}` })
-        .max(max, { message: `${name} must be at most ${max} ${unit}` }),
-    );
-
 /** One row: rpm and torque (in the curve's unit). */
 export const curveRowSchema = z.object({
-  rpm: cell("Engine speed", 1, MAX_RPM, "rpm"),
-  torque: cell("Torque", 0, 5000, "in the curve's unit"),
+  rpm: numberFromText("Engine speed", 1, MAX_RPM, "rpm", { quoteBadValue: true }),
+  torque: numberFromText("Torque", 0, 5000, "in the curve's unit", { quoteBadValue: true }),
 });
 
 export interface RawCurveRow {

@@ -6,34 +6,20 @@
 import { z } from "zod";
 import { POWER_CORRECTION_STANDARD_IDS } from "@/lib/calc";
 import { parseCurveCsv } from "./curve-csv";
+import { numberFromText } from "./number-text";
 import { CURVE_TORQUE_UNITS, validateCurveRows, type CurveRowError, type CurveTorqueUnit } from "./curve-rows";
 
 export const BOOST_UNITS = ["psi", "kPa", "bar"] as const;
 export type BoostUnit = (typeof BOOST_UNITS)[number];
 
-/** A number typed in a form (text) or sent as a number, within [min, max]. */
-const numberField = (label: string, min: number, max: number, unit: string) =>
-  z
-    .union([z.number(), z.string()])
-    .transform((v, ctx) => {
-      const text = typeof v === "number" ? String(v) : v.trim();
-      const n = text === "" ? NaN : Number(text);
-      if (!Number.isFinite(n)) {
-        ctx.addIssue({ code: "custom", message: text === "" ? `${label} is required` : `${label} must be a number` });
-        return z.NEVER;
-      }
-      return n;
-    })
-    .pipe(z.number().min(min, `${label} must be at least ${min} ${unit}`).max(max, `${label} must be at most ${max} ${unit}`));
-
 export const dynoRunFieldsSchema = z.object({
   label: z.string().trim().min(1, "Name the run (e.g. “Baseline 7 psi”)").max(80, "Run name: at most 80 characters"),
   ranOn: z.iso.date({ message: "Date must be a date (YYYY-MM-DD)" }),
-  boostTarget: numberField("Boost target", 0, 60, "(gauge)"),
+  boostTarget: numberFromText("Boost target", 0, 60, "(gauge)"),
   boostUnit: z.enum(BOOST_UNITS, { message: "Boost unit must be psi, kPa or bar" }),
-  pressureKpa: numberField("Air pressure", 60, 110, "kPa"),
-  temperatureC: numberField("Air temperature", -20, 55, "°C"),
-  humidityPercent: numberField("Humidity", 0, 100, "%"),
+  pressureKpa: numberFromText("Air pressure", 60, 110, "kPa"),
+  temperatureC: numberFromText("Air temperature", -20, 55, "°C"),
+  humidityPercent: numberFromText("Humidity", 0, 100, "%"),
   standard: z.enum(POWER_CORRECTION_STANDARD_IDS, { message: "Choose a correction standard" }),
   notes: z.string().max(2000, "Notes: at most 2000 characters").default(""),
 });

@@ -173,3 +173,33 @@ test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing save
   await expect(page.getByRole("row", { name: /11 psi, baffle out/ })).toBeVisible();
   await page.screenshot({ path: `${SHOTS}/dyno-after-upload.png`, fullPage: true });
 });
+
+test("a supervisor types a curve into the table; a bad cell is named by row and column", async ({ page }) => {
+  await signIn(page, "supervisor");
+  await openDemoTurboJob(page);
+  await page.getByRole("button", { name: "Typed in" }).click();
+  await page.getByLabel("Run name").fill("Typed check");
+  await page.getByLabel("Boost target").fill("0");
+  await page.getByLabel("Air pressure (kPa)").fill("101");
+  await page.getByLabel("Air temperature (°C)").fill("20");
+  await page.getByLabel("Humidity (%)").fill("40");
+  const rows = [
+    ["5000", "90"],
+    ["7000", "1OO"], // letter O typed for zero
+    ["9000", "95"],
+  ];
+  for (const [i, [rpm, torque]] of rows.entries()) {
+    await page.getByLabel(`Row ${i + 1} engine speed`).fill(rpm);
+    await page.getByLabel(`Row ${i + 1} torque`).fill(torque);
+  }
+  await page.getByRole("button", { name: "Save run" }).click();
+  await expect(page.getByTestId("curve-errors")).toContainText('Row 2, Torque (N·m): Torque must be a number; got "1OO"');
+  await expect(page.getByLabel("Row 2 torque")).toHaveAttribute("aria-invalid", "true");
+  await page.getByLabel("Row 2 torque").fill("100");
+  await page.getByRole("button", { name: "Save run" }).click();
+  await expect(page.getByTestId("form-message")).toContainText("Typed check");
+  const row = page.getByRole("row", { name: /Typed check/ });
+  // 100 N·m at 7000 rpm, corrected with SAE J1349 at 101 kPa, 20 °C, 40 % RH; no boost → no per-psi figure
+  await expect(row).toContainText("no boost");
+  await expect(row.getByTestId("peak-torque")).toContainText("at 7000");
+});

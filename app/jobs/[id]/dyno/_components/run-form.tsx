@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState, type ReactNode } from "react";
 import { POWER_CORRECTION_STANDARD_IDS, POWER_CORRECTION_STANDARDS } from "@/lib/calc";
 import { BOOST_UNITS, CURVE_TORQUE_UNITS, type CurveRowError } from "@/lib/dyno";
+import { ToggleGroup } from "./toggle-group";
 
 type Row = { rpm: string; torque: string };
 const blankRows = (n: number): Row[] => Array.from({ length: n }, () => ({ rpm: "", torque: "" }));
@@ -141,24 +142,15 @@ export function RunForm({ workOrderId }: { workOrderId: string }) {
 
         <fieldset className="flex flex-col gap-3">
           <legend className="text-lg font-bold">Curve</legend>
-          <div className="flex flex-wrap gap-2">
-            {(
-              [
-                ["csv", "From a CSV file"],
-                ["table", "Type the points"],
-              ] as const
-            ).map(([v, l]) => (
-              <button
-                key={v}
-                type="button"
-                aria-pressed={source === v}
-                onClick={() => setSource(v)}
-                className={`min-h-target rounded-lg border-2 px-4 text-lg font-bold ${source === v ? "border-ink bg-ink text-white" : "border-steel-700 bg-white"}`}
-              >
-                {l}
-              </button>
-            ))}
-          </div>
+          <ToggleGroup
+            label="Curve points"
+            options={[
+              { value: "csv", label: "From a CSV file" },
+              { value: "table", label: "Typed in" },
+            ]}
+            value={source}
+            onChange={setSource}
+          />
           {source === "csv" ? (
             <div className="flex flex-col gap-2">
               <label htmlFor="curve-file" className="text-base">
