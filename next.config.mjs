@@ -2,6 +2,8 @@
 const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
+  // pdfkit reads its standard-font metrics from its own folder at run time: keep it unbundled.
+  serverExternalPackages: ["pdfkit"],
   // The service worker (public/sw.js) is built by `serwist build` after `next build`.
   async headers() {
     return [

@@ -1,4 +1,5 @@
 import type { ColumnType, Generated, Insertable, Selectable } from "kysely";
+import type { DynoTables } from "./schema-dyno";
 
 // Table types for Kysely. numeric columns come back from pg as strings (never silently rounded).
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
@@ -328,7 +329,7 @@ export interface SignInAttemptsTable {
   at: Generated<Timestamp>;
 }
 
-export interface Database {
+export interface Database extends DynoTables {
   shops: ShopsTable;
   customers: CustomersTable;
   users: UsersTable;

@@ -25,6 +25,7 @@ export default async function MyBikesPage() {
               {b.workOrders.map((w) => (
                 <li key={w.id} className="flex flex-wrap items-center gap-3 text-lg">
                   <span className="font-mono">#{w.number}</span> {w.title} <StatusBadge status={w.status} />
+                  <a href={`/api/jobs/${w.id}/build-report`} download className="flex min-h-12 items-center rounded-lg border-2 border-ink px-3 text-base font-bold" data-testid="my-build-report">Build report (PDF)</a>
                 </li>
               ))}
             </ul>

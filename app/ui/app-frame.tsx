@@ -8,6 +8,7 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
   { href: "/bench", label: "Bench", area: "bench" },
   { href: "/review", label: "Review", area: "review" },
   { href: "/office", label: "Work orders", area: "office" },
+  { href: "/dyno", label: "Dyno", area: "dyno" },
   { href: "/my-bikes", label: "My bikes", area: "my-bikes" },
 ];
 

@@ -1,10 +1,13 @@
 import type { Migration } from "kysely";
 import * as m001 from "./2026_12_01_001_foundation";
+import * as m002 from "./2026_12_02_002_sync";
+import * as m004 from "./2026_12_02_004_dyno";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
 // .ts files would not.
 export const migrations: Record<string, Migration> = {
   "2026_12_01_001_foundation": m001,
-  "2026_12_02_002_sync": { up: (db) => import("./2026_12_02_002_sync").then((m) => m.up(db)), down: (db) => import("./2026_12_02_002_sync").then((m) => m.down(db)) },
+  "2026_12_02_002_sync": m002,
+  "2026_12_02_004_dyno": m004,
 };

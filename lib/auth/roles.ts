@@ -11,7 +11,9 @@ export type Area =
   | "customer-contact" // see customers' e-mail and phone
   | "users" // manage user accounts
   | "audit" // view and export the audit log
-  | "my-bikes"; // a customer's own bikes
+  | "my-bikes" // a customer's own bikes
+  | "dyno" // record and compare dyno runs on a work order
+  | "build-report"; // download a work order's handover build report (customers: their own bikes only)
 
 const AREAS: Record<Area, readonly Role[]> = {
   bench: ["mechanic", "supervisor"],
@@ -22,6 +24,8 @@ const AREAS: Record<Area, readonly Role[]> = {
   users: ["office"],
   audit: ["office", "supervisor"],
   "my-bikes": ["customer"],
+  dyno: ["office", "supervisor", "mechanic"],
+  "build-report": ["office", "supervisor", "customer"],
 };
 
 export function canReach(role: Role, area: Area): boolean {

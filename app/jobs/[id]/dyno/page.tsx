@@ -1,0 +1,52 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { parseWorkOrderId } from "@/app/_server/route-params";
+import { requirePageArea } from "@/app/_server/session";
+import { AppFrame } from "@/app/ui/app-frame";
+import { StatusBadge } from "@/app/ui/status-badge";
+import { db } from "@/db/client";
+import { findDynoJob, listDynoRuns } from "@/db/dyno";
+import { canReach } from "@/lib/auth/roles";
+import { DynoWorkspace } from "./_components/dyno-workspace";
+
+export const metadata: Metadata = { title: "Dyno runs" };
+
+export default async function JobDynoPage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requirePageArea("dyno");
+  const id = parseWorkOrderId((await params).id);
+  if (!id) notFound();
+  const job = await findDynoJob(db(), user.shopId, id);
+  if (!job) notFound();
+  const runs = await listDynoRuns(db(), user.shopId, id);
+  const bikeName = `${job.make} ${job.model}`;
+  return (
+    <AppFrame user={user} current="/dyno">
+      <div className="flex flex-wrap items-start justify-between gap-4">
+        <div>
+          <p className="text-lg">
+            <Link href="/dyno" className="underline">
+              Dyno
+            </Link>{" "}
+            › #{job.number}
+          </p>
+          <h1 className="text-3xl font-bold">{bikeName}</h1>
+          <p className="mt-1 flex flex-wrap items-center gap-3 text-lg">
+            <span className="font-mono">{job.tagCode}</span> · {job.title} <StatusBadge status={job.status} />
+          </p>
+        </div>
+        {canReach(user.role, "build-report") && (
+          <a
+            href={`/api/jobs/${job.id}/build-report`}
+            download
+            className="flex min-h-target items-center rounded-xl bg-signal px-6 text-xl font-bold text-ink"
+            data-testid="download-report"
+          >
+            Download build report (PDF)
+          </a>
+        )}
+      </div>
+      <DynoWorkspace workOrderId={job.id} bikeName={bikeName} runs={runs} />
+    </AppFrame>
+  );
+}

@@ -1,0 +1,143 @@
+import { sql, type Kysely } from "kysely";
+import type { DynoRunInput, StoredDynoRun } from "@/lib/dyno";
+import type { Database } from "./schema";
+
+// Dyno runs by work order. Every query is scoped by the signed-in user's shop.
+
+/** The work order with its bike and customer, or null when it is not this shop's. */
+export async function findDynoJob(db: Kysely<Database>, shopId: string, workOrderId: string) {
+  const row = await db
+    .selectFrom("work_orders as w")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .innerJoin("customers as c", "c.id", "b.customer_id")
+    .select([
+      "w.id",
+      "w.number",
+      "w.title",
+      "w.status",
+      "b.make",
+      "b.model",
+      "b.year",
+      "b.tag_code as tagCode",
+      "b.displacement_cc as displacementCc",
+      "b.customer_id as customerId",
+      "c.name as customerName",
+    ])
+    .where("w.shop_id", "=", shopId)
+    .where("w.id", "=", workOrderId)
+    .executeTakeFirst();
+  return row ?? null;
+}
+
+/** Work orders a dyno run may be recorded on (on the bench or later), with their run counts. */
+export async function listDynoJobs(db: Kysely<Database>, shopId: string) {
+  return db
+    .selectFrom("work_orders as w")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .select((eb) => [
+      "w.id",
+      "w.number",
+      "w.title",
+      "w.status",
+      "b.make",
+      "b.model",
+      "b.tag_code as tagCode",
+      eb.selectFrom("dyno_runs as r").select(eb.fn.countAll<number>().as("n")).whereRef("r.work_order_id", "=", "w.id").as("runCount"),
+    ])
+    .where("w.shop_id", "=", shopId)
+    .where("w.status", "in", ["in_build", "in_review", "on_dyno", "ready", "handed_over"])
+    .orderBy("w.number", "desc")
+    .execute();
+}
+
+/** A work order's runs, oldest first, with their points (numbers parsed, units as stored). */
+export async function listDynoRuns(db: Kysely<Database>, shopId: string, workOrderId: string): Promise<StoredDynoRun[]> {
+  const runs = await db
+    .selectFrom("dyno_runs")
+    .select([
+      "id",
+      "label",
+      sql<string>`ran_on::text`.as("ranOn"),
+      "boost_target",
+      "boost_unit",
+      "pressure_kpa",
+      "temperature_c",
+      "humidity_percent",
+      "correction_standard",
+      "torque_unit",
+      "notes",
+    ])
+    .where("shop_id", "=", shopId)
+    .where("work_order_id", "=", workOrderId)
+    .orderBy("ran_on")
+    .orderBy("created_at")
+    .execute();
+  if (runs.length === 0) return [];
+  const points = await db
+    .selectFrom("dyno_points")
+    .select(["run_id", "rpm", "torque"])
+    .where(
+      "run_id",
+      "in",
+      runs.map((r) => r.id),
+    )
+    .orderBy("run_id")
+    .orderBy("position")
+    .execute();
+  return runs.map((r) => ({
+    id: r.id,
+    label: r.label,
+    ranOn: r.ranOn,
+    boostTarget: Number(r.boost_target),
+    boostUnit: r.boost_unit,
+    pressureKpa: Number(r.pressure_kpa),
+    temperatureC: Number(r.temperature_c),
+    humidityPercent: Number(r.humidity_percent),
+    standard: r.correction_standard,
+    torqueUnit: r.torque_unit,
+    notes: r.notes,
+    points: points.filter((p) => p.run_id === r.id).map((p) => ({ rpm: Number(p.rpm), torque: Number(p.torque) })),
+  }));
+}
+
+/**
+ * Stores a checked run and its points in one transaction (all or nothing). Returns the new id, or
+ * null when the work order is not this shop's.
+ */
+export async function saveDynoRun(
+  db: Kysely<Database>,
+  shopId: string,
+  workOrderId: string,
+  userId: string | null,
+  run: DynoRunInput,
+): Promise<string | null> {
+  return db.transaction().execute(async (trx) => {
+    const job = await trx.selectFrom("work_orders").select("id").where("shop_id", "=", shopId).where("id", "=", workOrderId).executeTakeFirst();
+    if (!job) return null;
+    const { id } = await trx
+      .insertInto("dyno_runs")
+      .values({
+        shop_id: shopId,
+        work_order_id: workOrderId,
+        label: run.label,
+        ran_on: run.ranOn,
+        boost_target: run.boostTarget,
+        boost_unit: run.boostUnit,
+        pressure_kpa: run.pressureKpa,
+        temperature_c: run.temperatureC,
+        humidity_percent: run.humidityPercent,
+        correction_standard: run.standard,
+        torque_unit: run.torqueUnit,
+        notes: run.notes,
+        source: run.source,
+        created_by: userId,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await trx
+      .insertInto("dyno_points")
+      .values(run.points.map((p, position) => ({ run_id: id, position, rpm: p.rpm, torque: p.torque })))
+      .execute();
+    return id;
+  });
+}
