@@ -1,6 +1,8 @@
 import { randomUUID } from "node:crypto";
 import { sql, type Kysely } from "kysely";
 import { evaluateTolerance } from "@/lib/calc";
+import { formatStamp } from "@/lib/sync/hlc";
+import type { Operation } from "@/lib/sync/operations";
 import type { Database } from "../schema";
 import { saveDynoRun } from "../dyno";
 
@@ -23,7 +25,7 @@ const DEVICE = "demo-tablet-1";
 const ts = (d: Date) => sql<never>`${d.toISOString()}::timestamptz`;
 
 /** One operation row (the append-only record every bench row points at); returns its id. */
-async function operation(db: Kysely<Database>, ctx: BuildRecordContext, kind: string, at: Date, counter: number, payload: Record<string, unknown>) {
+async function operation<K extends Operation["kind"]>(db: Kysely<Database>, ctx: BuildRecordContext, kind: K, at: Date, counter: number, payload: Extract<Operation, { kind: K }>["payload"]) {
   const id = randomUUID();
   await db
     .insertInto("operations")
@@ -32,10 +34,10 @@ async function operation(db: Kysely<Database>, ctx: BuildRecordContext, kind: st
       shop_id: ctx.shopId,
       work_order_id: ctx.workOrderId,
       kind,
-      author_id: kind === "review" ? ctx.supervisorId : ctx.mechanicId,
+      author_id: ctx.mechanicId,
       device_id: DEVICE,
       device_time: at,
-      stamp: `${String(at.getTime()).padStart(13, "0")}:${String(counter).padStart(4, "0")}:${DEVICE}`,
+      stamp: formatStamp({ wallMs: at.getTime(), counter, deviceId: DEVICE }),
       payload: JSON.stringify(payload),
     })
     .execute();
@@ -91,20 +93,21 @@ export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecord
           for (const [i, value] of (READINGS[spec.key] ?? []).entries()) {
             const when = at();
             const verdict = evaluateTolerance(value, { unit: spec.unit, nominal: spec.nominal === null ? undefined : Number(spec.nominal), min: Number(spec.min), max: Number(spec.max) }).status;
-            const id = await operation(db, ctx, "reading", when, counter++, { specId: spec.id, readingIndex: i, value, unit: spec.unit });
+            const stamp = formatStamp({ wallMs: when.getTime(), counter, deviceId: DEVICE });
+            const id = await operation(db, ctx, "measurement.recorded", when, counter++, { stepId: step.id, specId: spec.id, readingIndex: i, value, unit: spec.unit });
             await db
               .insertInto("measurements")
-              .values({ id, work_order_id: ctx.workOrderId, step_id: step.id, spec_id: spec.id, reading_index: i, value, unit: spec.unit, verdict, recorded_by: ctx.mechanicId, device_id: DEVICE, device_time: when, stamp: String(counter) })
+              .values({ id, work_order_id: ctx.workOrderId, step_id: step.id, spec_id: spec.id, reading_index: i, value, unit: spec.unit, verdict, recorded_by: ctx.mechanicId, device_id: DEVICE, device_time: when, stamp })
               .execute();
           }
         }
         const torqueSpecs = await db.selectFrom("torque_specs").selectAll().where("step_id", "=", step.id).execute();
         for (const spec of torqueSpecs) {
           const passes = (spec.passes as unknown[]).length + (spec.angle_passes as unknown[]).length;
-          for (let pass = 0; pass < passes; pass++) {
+          for (let pass = 1; pass <= passes; pass++) {
             for (let bolt = 1; bolt <= spec.bolt_count; bolt++) {
               const when = at();
-              const id = await operation(db, ctx, "torque", when, counter++, { torqueSpecId: spec.id, passIndex: pass, bolt });
+              const id = await operation(db, ctx, "torque.bolt-confirmed", when, counter++, { stepId: step.id, torqueSpecId: spec.id, passIndex: pass, bolt });
               await db
                 .insertInto("torque_records")
                 .values({ id, work_order_id: ctx.workOrderId, step_id: step.id, torque_spec_id: spec.id, pass_index: pass, bolt, wrench_reading: null, wrench_unit: null, recorded_by: ctx.mechanicId, device_time: when })
@@ -113,11 +116,11 @@ export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecord
           }
         }
         const when = at();
-        const id = await operation(db, ctx, "step-done", when, counter++, { stepId: step.id });
+        const id = await operation(db, ctx, "step.completed", when, counter++, { stepId: step.id });
         await db.insertInto("step_completions").values({ id, work_order_id: ctx.workOrderId, step_id: step.id, completed_by: ctx.mechanicId, device_time: when }).execute();
       }
       const when = at();
-      const signOffId = await operation(db, ctx, "stage-sign-off", when, counter++, { jobProcedureId: proc.id, stageKey: stage });
+      const signOffId = await operation(db, ctx, "stage.signed-off", when, counter++, { jobProcedureId: proc.id, stageKey: stage });
       await db.insertInto("sign_offs").values({ id: signOffId, work_order_id: ctx.workOrderId, job_procedure_id: proc.id, stage_key: stage, signed_by: ctx.mechanicId, device_time: when }).execute();
       if (stage !== "head-prep") {
         await db.insertInto("review_decisions").values({ sign_off_id: signOffId, decision: "approved", decided_by: ctx.supervisorId, decided_at: ts(at()) }).execute();

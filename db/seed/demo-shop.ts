@@ -32,6 +32,7 @@ const BIKES = [
   { key: "ostrava", customer: "ruth", make: "Ostrava", model: "S4 Street", year: 2008, cc: 1052, colour: "White", tag: "GSW-0003" },
   { key: "marlin", customer: "sam", make: "Marlin", model: "Sixty Sport", year: 2015, cc: 636, colour: "Blue", tag: "GSW-0004" },
   { key: "corvid2", customer: "sam", make: "Corvid", model: "RX1000", year: 2013, cc: 998, colour: "Black", tag: "GSW-0005" },
+  { key: "vireo", customer: "sam", make: "Vireo", model: "Nine Fifty", year: 2014, cc: 948, colour: "Green", tag: "GSW-0006" },
 ];
 
 const WORK_ORDERS: Array<{
@@ -64,6 +65,15 @@ const WORK_ORDERS: Array<{
   { bike: "halden", title: "Intake and exhaust upgrade, dyno tune", status: "quoted", complaint: "Wants more midrange.", odometer: 12040, templates: [] },
   { bike: "marlin", title: "Rattle from top end at idle", status: "booked_in", complaint: "Tapping noise from the cam cover when warm.", odometer: 30110, templates: [] },
   { bike: "corvid2", title: "Annual service and dyno check", status: "handed_over", complaint: "Routine service.", odometer: 22300, mechanic: "mechanic", templates: [] },
+  {
+    bike: "vireo",
+    title: "Bottom-end refresh and head service",
+    status: "in_build",
+    complaint: "Knock from the bottom end under load; wants it freshened before track days.",
+    odometer: 36400,
+    mechanic: "mechanic",
+    templates: ["bottom-end-assembly", "cylinder-head-installation"],
+  },
 ];
 
 export async function demoShopExists(db: Kysely<Database>): Promise<boolean> {

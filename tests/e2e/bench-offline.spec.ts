@@ -3,7 +3,7 @@ import { query } from "./support/e2e-db";
 import { typeNumber, typeTag, waitForServiceWorker, waitForSynced } from "./support/bench-pad";
 import { signIn } from "./support/demo-users";
 
-// Demo job #1001 (tag GSW-0001) is in build and assigned to the mechanic Tomas Reyes.
+// Demo job #1006 (tag GSW-0006) is in build and assigned to the mechanic Tomas Reyes.
 // Its first step reads cylinder 1's bore at six places.
 const BORE = ["76.004", "76.006", "76.003", "76.005", "76.002", "76.004"];
 
@@ -13,13 +13,13 @@ test("a mechanic records a step offline, reloads offline, and every entry reache
   await expect(page).toHaveURL(/\/bench$/);
   await waitForServiceWorker(page);
   await waitForSynced(page);
-  await expect(page.getByText("Corvid RX1000 Turbo").first()).toBeVisible();
+  await expect(page.getByText("Vireo Nine Fifty").first()).toBeVisible();
 
   await context.setOffline(true);
   await expect(page.getByTestId("net-state")).toHaveText(/Offline/);
-  await typeTag(page, "GSW-0001");
+  await typeTag(page, "GSW-0006");
   await page.getByRole("button", { name: "Open this bike's job" }).click();
-  await expect(page.getByRole("heading", { name: "Corvid RX1000 Turbo" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Vireo Nine Fifty" })).toBeVisible();
   await page.getByRole("button", { name: /Carry on: step 1/ }).click();
   await expect(page.getByTestId("step-title")).toHaveText("Bore gauge cylinder 1");
   await page.getByRole("button", { name: "I have read these cautions" }).click();
@@ -40,7 +40,7 @@ test("a mechanic records a step offline, reloads offline, and every entry reache
   await expect(page.getByTestId("waiting-count")).toHaveText("7 waiting to send");
   await expect(page.getByTestId("step-title")).toHaveText("Piston-to-wall clearance");
 
-  const before = await query("SELECT count(*)::int AS n FROM measurements m JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1001");
+  const before = await query("SELECT count(*)::int AS n FROM measurements m JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1006");
   expect(before[0].n).toBe(0);
 
   await context.setOffline(false);
@@ -50,13 +50,13 @@ test("a mechanic records a step offline, reloads offline, and every entry reache
   await waitForSynced(page);
 
   const readings = await query<{ value: string; reading_index: number; verdict: string }>(
-    "SELECT m.value::text, m.reading_index, m.verdict FROM measurements m JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1001 ORDER BY m.reading_index",
+    "SELECT m.value::text, m.reading_index, m.verdict FROM measurements m JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1006 ORDER BY m.reading_index",
   );
   expect(readings.map((r) => r.value)).toEqual(BORE);
   expect(readings.map((r) => r.reading_index)).toEqual([0, 1, 2, 3, 4, 5]);
   expect(readings.every((r) => r.verdict === "in")).toBe(true);
-  const done = await query("SELECT count(*)::int AS n FROM step_completions c JOIN work_orders w ON w.id = c.work_order_id WHERE w.number = 1001");
+  const done = await query("SELECT count(*)::int AS n FROM step_completions c JOIN work_orders w ON w.id = c.work_order_id WHERE w.number = 1006");
   expect(done[0].n).toBe(1);
-  const ops = await query("SELECT count(*)::int AS n, count(DISTINCT o.id)::int AS d FROM operations o JOIN work_orders w ON w.id = o.work_order_id WHERE w.number = 1001");
+  const ops = await query("SELECT count(*)::int AS n, count(DISTINCT o.id)::int AS d FROM operations o JOIN work_orders w ON w.id = o.work_order_id WHERE w.number = 1006");
   expect(ops[0]).toEqual({ n: 7, d: 7 });
 });

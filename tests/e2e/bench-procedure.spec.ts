@@ -4,7 +4,7 @@ import { query } from "./support/e2e-db";
 import { typeNumber, typeTag, waitForServiceWorker, waitForSynced } from "./support/bench-pad";
 import { signIn } from "./support/demo-users";
 
-// Demo job #1001 (tag GSW-0001), assigned to the mechanic Tomas Reyes. Step numbers below are the
+// Demo job #1006 (tag GSW-0006), assigned to the mechanic Tomas Reyes. Step numbers below are the
 // job's step list (1-based on screen): 3 top ring gap, 5 rod bolts (2 bolts: 50 %, 100 %, +120°),
 // 6 case sealant with a 30-minute cure timer that blocks step 7, the case bolts.
 
@@ -24,7 +24,7 @@ test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer 
   await waitForSynced(page);
   await context.setOffline(true);
 
-  await typeTag(page, "GSW-0001");
+  await typeTag(page, "GSW-0006");
   await page.getByRole("button", { name: "Open this bike's job" }).click();
   await page.getByRole("button", { name: /Carry on/ }).click();
 
@@ -79,15 +79,15 @@ test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer 
   await context.setOffline(false);
   await waitForSynced(page);
   const torque = await query<{ pass_index: number; bolt: number }>(
-    "SELECT t.pass_index, t.bolt FROM torque_records t JOIN work_orders w ON w.id = t.work_order_id WHERE w.number = 1001 ORDER BY t.pass_index, t.bolt",
+    "SELECT t.pass_index, t.bolt FROM torque_records t JOIN work_orders w ON w.id = t.work_order_id WHERE w.number = 1006 ORDER BY t.pass_index, t.bolt",
   );
   expect(torque.map((t) => `${t.pass_index}:${t.bolt}`)).toEqual(["1:1", "1:2", "2:1", "2:2", "3:1", "3:2"]);
   const high = await query<{ value: string; verdict: string; note: string }>(
-    "SELECT m.value::text, m.verdict, m.note FROM measurements m JOIN measurement_specs s ON s.id = m.spec_id JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1001 AND s.key = 'top-ring-gap'",
+    "SELECT m.value::text, m.verdict, m.note FROM measurements m JOIN measurement_specs s ON s.id = m.spec_id JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1006 AND s.key = 'top-ring-gap'",
   );
   expect(high).toEqual([{ value: "0.52", verdict: "high", note: "gap opened up after honing" }]);
   const timers = await query<{ label: string; duration_s: number }>(
-    "SELECT t.label, t.duration_s FROM timers t JOIN work_orders w ON w.id = t.work_order_id WHERE w.number = 1001",
+    "SELECT t.label, t.duration_s FROM timers t JOIN work_orders w ON w.id = t.work_order_id WHERE w.number = 1006",
   );
   expect(timers).toEqual([{ label: "Sealant cure before torquing cases", duration_s: 1800 }]);
 });
@@ -135,9 +135,9 @@ for (const viewport of [
     await signIn(page, "mechanic");
     await waitForSynced(page);
     const screens: string[] = [];
-    await typeTag(page, "GSW-0001");
+    await typeTag(page, "GSW-0006");
     await page.getByRole("button", { name: "Open this bike's job" }).click();
-    await expect(page.getByRole("heading", { name: "Corvid RX1000 Turbo" })).toBeVisible();
+    await expect(page.getByRole("heading", { name: "Vireo Nine Fifty" })).toBeVisible();
     screens.push("job");
     const scan = async (name: string) => {
       const result = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21aa", "wcag22aa"]).analyze();
