@@ -1,15 +1,27 @@
+import path from "node:path";
 import { defineConfig, devices } from "@playwright/test";
 
 const port = Number(process.env.E2E_PORT ?? 3100);
+const chromiumArgs = [
+  "--no-sandbox",
+  "--disable-gpu",
+  "--disable-background-networking",
+  "--disable-component-update",
+  "--disable-sync",
+  "--no-first-run",
+];
+// Written by tests/e2e/global-setup.ts before any browser starts.
+const fakeCamera = path.resolve(import.meta.dirname, "tests/e2e/.generated/tag-camera.y4m");
 
 // Debian's Chromium (installed by db/scripts/install-deps.sh --test); Playwright never downloads one.
 export default defineConfig({
   testDir: "tests/e2e",
+  globalSetup: "./tests/e2e/global-setup.ts",
   fullyParallel: false,
   workers: 1,
   retries: 0,
-  timeout: 60_000,
-  expect: { timeout: 10_000 },
+  timeout: 90_000,
+  expect: { timeout: 15_000 },
   reporter: [["list"]],
   outputDir: "test-results",
   use: {
@@ -17,19 +29,28 @@ export default defineConfig({
     viewport: { width: 1024, height: 768 },
     trace: "off",
     screenshot: "only-on-failure",
-    launchOptions: {
-      executablePath: "/usr/bin/chromium",
-      args: [
-        "--no-sandbox",
-        "--disable-gpu",
-        "--disable-background-networking",
-        "--disable-component-update",
-        "--disable-sync",
-        "--no-first-run",
-      ],
-    },
   },
-  projects: [{ name: "tablet-chromium", use: { ...devices["Desktop Chrome"], viewport: { width: 1024, height: 768 } } }],
+  projects: [
+    {
+      name: "tablet-chromium",
+      testIgnore: /camera\.spec\.ts/,
+      use: { ...devices["Desktop Chrome"], viewport: { width: 1024, height: 768 }, launchOptions: { executablePath: "/usr/bin/chromium", args: chromiumArgs } },
+    },
+    {
+      // Chromium's fake camera plays a QR tag; only the scan tests run here.
+      name: "tablet-camera",
+      testMatch: /camera\.spec\.ts/,
+      use: {
+        ...devices["Desktop Chrome"],
+        viewport: { width: 1024, height: 768 },
+        permissions: ["camera"],
+        launchOptions: {
+          executablePath: "/usr/bin/chromium",
+          args: [...chromiumArgs, "--use-fake-ui-for-media-stream", "--use-fake-device-for-media-stream", `--use-file-for-fake-video-capture=${fakeCamera}`],
+        },
+      },
+    },
+  ],
   webServer: {
     command: "bash tests/e2e/serve.sh",
     url: `http://localhost:${port}/signin`,
