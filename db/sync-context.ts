@@ -140,7 +140,7 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
   const attachmentIds = new Set<string>();
   for (const op of ops) {
     if (op.kind === "measurement.recorded" && op.payload.supersedesId) readingIds.add(op.payload.supersedesId);
-    else if (op.kind === "timer.started" || op.kind === "timer.stopped") timerIds.add(op.payload.timerId);
+    else if (op.kind === "timer.started" || op.kind === "timer.stopped" || op.kind === "timer.overridden") timerIds.add(op.payload.timerId);
     else if (op.kind === "photo.queued") attachmentIds.add(op.payload.attachmentId);
   }
   const [readings, timers, attachments] = await Promise.all([

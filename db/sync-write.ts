@@ -114,10 +114,28 @@ export async function writeKept(
       FROM y x WHERE x.kind = 'torque.bolt-confirmed'
     ),
     timer_starts AS (
-      INSERT INTO timers (id, work_order_id, step_id, timer_spec_id, label, duration_s, started_at, started_by, stopped_at)
+      INSERT INTO timers (id, work_order_id, step_id, timer_spec_id, label, duration_s, started_at, started_by, stopped_at,
+        override_by, override_reason)
       SELECT ${p("timerId", "uuid")}, x.work_order_id, ${p("stepId", "uuid")}, ${p("timerSpecId", "uuid")}, x.payload->>'label',
-        ${p("durationS", "int")}, ${p("startedAt", "timestamptz")}, x.author_id, x.timer_stopped_at
-      FROM y x WHERE x.kind = 'timer.started'
+        ${p("durationS", "int")}, ${p("startedAt", "timestamptz")}, x.author_id, x.timer_stopped_at, o.author_id, o.payload->>'reason'
+      FROM y x
+      LEFT JOIN LATERAL (
+        SELECT s.author_id, s.payload FROM y s
+        WHERE s.kind = 'timer.overridden' AND s.payload->>'timerId' = x.payload->>'timerId' ORDER BY s.ord LIMIT 1
+      ) o ON true
+      WHERE x.kind = 'timer.started'
+    ),
+    timer_overrides AS (
+      -- The first override of a timer stands; later ones stay in the operations and the audit log.
+      UPDATE timers t SET override_by = o.author_id, override_reason = o.reason
+      FROM (
+        SELECT DISTINCT ON (x.payload->>'timerId') ${p("timerId", "uuid")} AS timer_id, x.author_id, x.payload->>'reason' AS reason
+        FROM y x
+        WHERE x.kind = 'timer.overridden'
+          AND NOT EXISTS (SELECT 1 FROM y s WHERE s.kind = 'timer.started' AND s.payload->>'timerId' = x.payload->>'timerId')
+        ORDER BY x.payload->>'timerId', x.ord
+      ) o
+      WHERE t.id = o.timer_id AND t.override_by IS NULL
     ),
     timer_stops AS (
       UPDATE timers t SET stopped_at = LEAST(COALESCE(t.stopped_at, s.at), s.at)

@@ -76,7 +76,7 @@ export interface StepView {
   torque: TorqueProgress[];
   timers: TimerView[];
   /** A timer on another step that must run out before this step may be done. */
-  blockedBy: { label: string; remainingMs: number; started: boolean } | null;
+  blockedBy: { label: string; remainingMs: number; started: boolean; timerId: string | null; timerSpecId: string; stepId: string; durationS: number } | null;
   photoCount: number;
   /** What must still be recorded before the step can be completed (empty when it can). */
   missing: string[];
@@ -142,10 +142,12 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
 
   const stopped = new Map<string, number>();
   for (const o of ofKind("timer.stopped")) stopped.set(o.payload.timerId, Date.parse(o.payload.stoppedAt));
+  const overridden = new Map<string, string>();
+  for (const o of ofKind("timer.overridden")) if (!overridden.has(o.payload.timerId)) overridden.set(o.payload.timerId, o.payload.reason);
   const timers: TimerView[] = [
-    ...snapshot.state.timers.map((t) => timerView(t.id, t.stepId, t.timerSpecId, t.label, t.durationS, Date.parse(t.startedAt), t.stoppedAt ? Date.parse(t.stoppedAt) : (stopped.get(t.id) ?? null), t.overrideReason, false, nowMs)),
+    ...snapshot.state.timers.map((t) => timerView(t.id, t.stepId, t.timerSpecId, t.label, t.durationS, Date.parse(t.startedAt), t.stoppedAt ? Date.parse(t.stoppedAt) : (stopped.get(t.id) ?? null), t.overrideReason ?? overridden.get(t.id) ?? null, false, nowMs)),
     ...ofKind("timer.started").map((o) =>
-      timerView(o.payload.timerId, o.payload.stepId, o.payload.timerSpecId ?? null, o.payload.label, o.payload.durationS, Date.parse(o.payload.startedAt), stopped.get(o.payload.timerId) ?? null, null, true, nowMs),
+      timerView(o.payload.timerId, o.payload.stepId, o.payload.timerSpecId ?? null, o.payload.label, o.payload.durationS, Date.parse(o.payload.startedAt), stopped.get(o.payload.timerId) ?? null, overridden.get(o.payload.timerId) ?? null, true, nowMs),
     ),
   ];
 
@@ -234,8 +236,9 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
           const target = stageSteps.find((s) => s.step.id === blockedId) ?? null;
           if (!target) continue;
           const t = sv.timers.filter((x) => x.timerSpecId === spec.id).sort((a, b) => b.startedAtMs - a.startedAtMs)[0];
-          if (!t) target.blockedBy = { label: spec.label, remainingMs: spec.durationS * 1000, started: false };
-          else if (!t.done) target.blockedBy = { label: t.label, remainingMs: t.remainingMs, started: true };
+          const on = { timerSpecId: spec.id, stepId: sv.step.id, durationS: spec.durationS };
+          if (!t) target.blockedBy = { label: spec.label, remainingMs: spec.durationS * 1000, started: false, timerId: null, ...on };
+          else if (!t.done) target.blockedBy = { label: t.label, remainingMs: t.remainingMs, started: true, timerId: t.id, ...on };
         }
       }
       const latestSignOff = [...snapshot.state.signOffs]

@@ -132,6 +132,10 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
   if (!job || job.shopId !== actor.shopId) return refuse(`Work order ${op.workOrderId} is not in your shop.`);
   if (!mayWorkJob(actor, job)) return refuse(`Work order #${job.number} is assigned to another mechanic.`);
 
+  if (op.kind === "timer.overridden" && actor.role !== "supervisor") {
+    return refuse("Only a supervisor may override a timer.");
+  }
+
   const problem = checkReferences(op, job, input.state);
   if (problem) return refuse(problem);
 
@@ -222,6 +226,11 @@ function checkReferences(op: Operation, job: JobFacts, state: MergeState): strin
       const timer = state.timers.get(op.payload.timerId);
       if (!timer || timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
       if (Date.parse(op.payload.stoppedAt) < timer.startedAtMs) return `Timer ${op.payload.timerId} cannot stop before it started.`;
+      return null;
+    }
+    case "timer.overridden": {
+      const timer = state.timers.get(op.payload.timerId);
+      if (!timer || timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
       return null;
     }
     case "photo.queued": {

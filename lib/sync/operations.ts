@@ -26,6 +26,7 @@ export const OPERATION_KINDS = [
   "torque.bolt-confirmed",
   "timer.started",
   "timer.stopped",
+  "timer.overridden",
   "photo.queued",
   "stage.signed-off",
 ] as const;
@@ -97,6 +98,11 @@ export const timerStartedPayload = z
 
 export const timerStoppedPayload = z.object({ timerId: id(), stoppedAt: isoTime() }).strict();
 
+/** A supervisor lets the step a timer holds back go ahead before the time is up, saying why. */
+export const timerOverriddenPayload = z
+  .object({ timerId: id(), reason: z.string().trim().min(3, "give the reason in a few words").max(500) })
+  .strict();
+
 export const photoQueuedPayload = z
   .object({
     attachmentId: id(),
@@ -133,6 +139,7 @@ export const operationSchema = z.discriminatedUnion("kind", [
   op("torque.bolt-confirmed", torqueBoltConfirmedPayload),
   op("timer.started", timerStartedPayload),
   op("timer.stopped", timerStoppedPayload),
+  op("timer.overridden", timerOverriddenPayload),
   op("photo.queued", photoQueuedPayload),
   op("stage.signed-off", stageSignedOffPayload),
 ]);

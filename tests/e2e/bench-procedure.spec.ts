@@ -155,3 +155,25 @@ for (const viewport of [
     await context.close();
   });
 }
+
+test("a supervisor at the bench overrides a cure wait with a reason; the mechanic's step is no longer held", async ({ browser }) => {
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await signIn(page, "supervisor");
+  await page.goto("/bench");
+  await waitForSynced(page);
+  await typeTag(page, "GSW-0006");
+  await page.getByRole("button", { name: "Open this bike's job" }).click();
+  await expect(page.getByRole("heading", { name: "Vireo Nine Fifty" })).toBeVisible();
+  await openStep(page, 7);
+  await expect(page.getByTestId("step-blocked")).toContainText("Sealant cure before torquing cases");
+  await page.getByLabel("Supervisor: reason to go ahead without waiting").fill("Fast-cure sealant; maker allows 10 minutes");
+  await page.getByRole("button", { name: "Override the wait" }).click();
+  await expect(page.getByTestId("step-blocked")).toHaveCount(0);
+  await waitForSynced(page);
+  const rows = await query<{ override_reason: string }>(
+    "SELECT t.override_reason FROM timers t JOIN work_orders w ON w.id = t.work_order_id WHERE w.number = 1006",
+  );
+  expect(rows).toEqual([{ override_reason: "Fast-cure sealant; maker allows 10 minutes" }]);
+  await context.close();
+});

@@ -11,6 +11,7 @@ import { MeasurementPanel } from "./measurement-panel";
 import { PhotoPanel } from "./photo-panel";
 import { ProgressBar } from "./progress-bar";
 import { clock, TimerPanel } from "./timer-panel";
+import { TimerOverride } from "./timer-override";
 import { TorquePanel } from "./torque-panel";
 
 const SWIPE_PX = 90;
@@ -106,9 +107,10 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
               {sv.blockedBy && (
                 <p className="mb-3 text-xl font-bold text-warn" data-testid="step-blocked">
                   Waiting for “{sv.blockedBy.label}”:{" "}
-                  {sv.blockedBy.started ? `${clock(sv.blockedBy.remainingMs)} left` : "its timer has not been started yet"}. A supervisor can override it from the review screen.
+                  {sv.blockedBy.started ? `${clock(sv.blockedBy.remainingMs)} left` : "its timer has not been started yet"}. Only a supervisor can let it go ahead sooner.
                 </p>
               )}
+              {sv.blockedBy && <TimerOverride jobId={jobId} blocked={sv.blockedBy} />}
               {!cautionsOk && <p className="mb-3 text-xl font-bold">Read the cautions above first.</p>}
               {sv.missing.length > 0 && (
                 <ul className="mb-3 list-inside list-disc text-xl" data-testid="step-missing">
