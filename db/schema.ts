@@ -1,4 +1,5 @@
 import type { ColumnType, Generated, Insertable, Selectable } from "kysely";
+import type { OfficeTables } from "./schema-office";
 
 // Table types for Kysely. numeric columns come back from pg as strings (never silently rounded).
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
@@ -278,6 +279,7 @@ export interface AttachmentsTable {
   byte_size: number;
   caption: Generated<string>;
   uploaded_by: string | null;
+  note_id: Generated<string | null>;
   created_at: Generated<Timestamp>;
 }
 
@@ -303,7 +305,7 @@ export interface SignInAttemptsTable {
   at: Generated<Timestamp>;
 }
 
-export interface Database {
+export interface Database extends OfficeTables {
   shops: ShopsTable;
   customers: CustomersTable;
   users: UsersTable;

@@ -1,9 +1,11 @@
 import type { Migration } from "kysely";
 import * as m001 from "./2026_12_01_001_foundation";
+import * as m003 from "./2026_12_02_003_office";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
 // .ts files would not.
 export const migrations: Record<string, Migration> = {
   "2026_12_01_001_foundation": m001,
+  "2026_12_02_003_office": m003,
 };
