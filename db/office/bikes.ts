@@ -19,7 +19,12 @@ export async function nextTagCode(db: Kysely<Database>, shopId: string): Promise
     const shop = await db.selectFrom("shops").select("slug").where("id", "=", shopId).executeTakeFirstOrThrow();
     prefix = shop.slug.replace(/[^a-z]/gi, "").slice(0, 3).toUpperCase() || "TAG";
   }
-  return `${prefix}-${String(max + 1).padStart(4, "0")}`;
+  // Tags are unique across shops (a scanned tag finds one bike): step past any taken elsewhere.
+  for (let n = max + 1; ; n++) {
+    const tag = `${prefix}-${String(n).padStart(4, "0")}`;
+    const taken = await db.selectFrom("bikes").select("id").where("tag_code", "=", tag).executeTakeFirst();
+    if (!taken) return tag;
+  }
 }
 
 export async function createBike(db: Kysely<Database>, shopId: string, input: BikeInput) {
