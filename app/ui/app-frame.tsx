@@ -8,6 +8,10 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
   { href: "/bench", label: "Bench", area: "bench" },
   { href: "/review", label: "Review", area: "review" },
   { href: "/office", label: "Work orders", area: "office" },
+  { href: "/office/customers", label: "Customers", area: "office" },
+  { href: "/office/templates", label: "Templates", area: "templates" },
+  { href: "/office/parts", label: "Parts search", area: "office" },
+  { href: "/office/labels", label: "Tag labels", area: "office" },
   { href: "/my-bikes", label: "My bikes", area: "my-bikes" },
 ];
 

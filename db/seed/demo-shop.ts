@@ -4,6 +4,7 @@ import { DEMO_TEMPLATES } from "@/lib/procedures/demo-templates";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database, Role } from "../schema";
 import { createTemplateVersion } from "../templates";
+import { seedDemoOffice } from "./demo-office";
 
 // An invented workshop for the demo and the browser tests. All names are made up.
 export const DEMO_SHOP_SLUG = "gannet-street";
@@ -156,5 +157,6 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
       await db.insertInto("job_procedures").values({ work_order_id: id, template_version_id: versionIds.get(key)!, position }).execute();
     }
   }
+  await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
   return { shopId };
 }
