@@ -1,0 +1,101 @@
+import { expect, test, type Page } from "@playwright/test";
+import { signIn } from "./support/demo-users";
+
+// Templates import/export, parts search, tag labels, and a look at each office page at the two
+// tablet sizes (screenshots kept in test-results/office-screens for a person to look at).
+
+async function noSideScroll(page: Page) {
+  const over = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+  expect(over).toBeLessThanOrEqual(0);
+}
+
+test("templates: export, a bad import refused with path and message, a good import makes a new version", async ({ page }) => {
+  await signIn(page, "office");
+  await page.getByRole("link", { name: "Templates" }).click();
+  await expect(page.getByTestId("template")).toHaveCount(4);
+  await expect(page.getByTestId("template").filter({ hasText: "First start and run-in" })).toContainText("Example figures");
+
+  const exported = await (await page.request.get("/api/office/templates/turbo-kit-intercooler")).json();
+  expect(exported).toMatchObject({ format: "benchtag-template", formatVersion: 1, key: "turbo-kit-intercooler", exampleOnly: true });
+
+  const bad = structuredClone(exported);
+  bad.stages[1].steps[0].torque[0].boltCount = 0;
+  await page.getByLabel("Template file (.json)").setInputFiles({ name: "bad.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(bad)) });
+  await page.getByRole("button", { name: "Import" }).click();
+  await expect(page.getByTestId("form-error")).toHaveText("The file was not imported: nothing was written.");
+  await expect(page.getByTestId("import-problems")).toContainText("stages[1].steps[0].torque[0].boltCount:");
+
+  const good = { ...exported, name: "Turbo kit and intercooler fitting (shop edition)" };
+  await page.getByLabel("Template file (.json)").setInputFiles({ name: "good.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(good)) });
+  await page.getByRole("button", { name: "Import" }).click();
+  await expect(page.getByTestId("form-ok")).toHaveText("✔ Imported: turbo-kit-intercooler (version 2).");
+  await expect(page.getByRole("heading", { name: "Turbo kit and intercooler fitting (shop edition)" })).toBeVisible();
+});
+
+test("template editor checks the document as it is typed", async ({ page }) => {
+  await signIn(page, "office");
+  await page.goto("/office/templates/edit?key=first-start-run-in");
+  await expect(page.getByTestId("template-valid")).toContainText("3 stages, 11 steps");
+  const box = page.getByTestId("template-json");
+  const text = await box.inputValue();
+  await box.fill(text.replace('"durationS": 7200', '"durationS": -5'));
+  await expect(page.getByTestId("template-problems")).toContainText("stages[1].steps[1].timer.durationS:");
+  await expect(page.getByRole("button", { name: "Save as a new version" })).toBeDisabled();
+  await box.fill(text.replace('"name": "First start and run-in"', '"name": "First start and run-in (our shop)"'));
+  await page.getByRole("button", { name: "Save as a new version" }).click();
+  await expect(page.getByTestId("form-ok")).toHaveText("✔ Saved as version 2.");
+});
+
+test("parts search answers which bikes got a batch", async ({ page }) => {
+  await signIn(page, "office");
+  await page.getByRole("link", { name: "Parts search" }).click();
+  await page.getByLabel("Code").fill("rs-24-0412");
+  await page.getByRole("button", { name: "Find bikes" }).click();
+  const results = page.getByTestId("parts-results");
+  await expect(results).toContainText("2 bikes, 2 fittings");
+  await expect(results).toContainText("GSW-0001");
+  await expect(results).toContainText("GSW-0005");
+});
+
+test("tag labels: a printable A4 sheet with a QR code and the tag code per bike", async ({ page }) => {
+  await signIn(page, "office");
+  await page.getByRole("link", { name: "Tag labels" }).click();
+  const labels = page.getByTestId("tag-label");
+  expect(await labels.count()).toBeGreaterThanOrEqual(5);
+  await expect(labels.first()).toContainText("GSW-0001");
+  await expect(labels.first().locator("svg")).toHaveCount(1);
+  // the sheet is 210 mm wide: at 96 px per inch that is ~794 px
+  const width = await page.getByTestId("label-sheet").first().evaluate((el) => el.getBoundingClientRect().width);
+  expect(Math.round(width)).toBe(794);
+  await page.emulateMedia({ media: "print" });
+  await expect(page.getByRole("button", { name: "Print the sheet" })).toBeHidden();
+  await page.screenshot({ path: "test-results/office-screens/labels-print.png", fullPage: true });
+});
+
+for (const size of [
+  { width: 1024, height: 768 },
+  { width: 768, height: 1024 },
+]) {
+  test(`office pages fit a ${size.width}×${size.height} screen`, async ({ page }) => {
+    await page.setViewportSize(size);
+    await signIn(page, "office");
+    const list = await (await page.request.get("/api/office/work-orders?q=1001")).json();
+    const woId = list.workOrders[0].id as string;
+    const bikeId = list.workOrders[0].bikeId as string;
+    for (const [name, path] of [
+      ["work-orders", "/office"],
+      ["work-order", `/office/work-orders/${woId}`],
+      ["intake", "/office/work-orders/new"],
+      ["customers", "/office/customers"],
+      ["bike", `/office/bikes/${bikeId}`],
+      ["templates", "/office/templates"],
+      ["parts", "/office/parts"],
+    ] as const) {
+      await page.goto(path);
+      await expect(page.getByRole("heading", { level: 1 })).toBeVisible();
+      await page.waitForLoadState("networkidle");
+      await noSideScroll(page);
+      await page.screenshot({ path: `test-results/office-screens/${name}-${size.width}x${size.height}.png`, fullPage: true });
+    }
+  });
+}
