@@ -10,8 +10,8 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
   { href: "/office", label: "Work orders", area: "office" },
   { href: "/office/customers", label: "Customers", area: "office" },
   { href: "/office/templates", label: "Templates", area: "templates" },
-  { href: "/office/parts", label: "Parts search", area: "office" },
-  { href: "/office/labels", label: "Tag labels", area: "office" },
+  { href: "/office/parts", label: "Parts", area: "office" },
+  { href: "/office/labels", label: "Labels", area: "office" },
   { href: "/my-bikes", label: "My bikes", area: "my-bikes" },
 ];
 

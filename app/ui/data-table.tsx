@@ -57,9 +57,11 @@ export function DataTable<Row>({
   });
   const rows = (query.data?.[rowsKey] as Row[] | undefined) ?? [];
   const total = query.data?.total ?? 0;
+  // Sorting happens on the server: a sortable column needs an accessor for TanStack to offer it.
+  const cols = columns.map((c) => (c.enableSorting === false || "accessorFn" in c ? c : { ...c, accessorFn: () => null, sortDescFirst: false }));
   const table = useReactTable({
     data: rows,
-    columns,
+    columns: cols,
     state: { sorting, pagination },
     onSortingChange: setSorting,
     onPaginationChange: setPagination,

@@ -35,7 +35,8 @@ test("templates: export, a bad import refused with path and message, a good impo
 test("template editor checks the document as it is typed", async ({ page }) => {
   await signIn(page, "office");
   await page.goto("/office/templates/edit?key=first-start-run-in");
-  await expect(page.getByTestId("template-valid")).toContainText("3 stages, 11 steps");
+  // the demo template has 2 + 5 + 2 steps, one torque spec, one measurement spec, three timers
+  await expect(page.getByTestId("template-valid")).toContainText("3 stages, 9 steps, 1 torque specs, 1 measurement specs, 3 timers");
   const box = page.getByTestId("template-json");
   const text = await box.inputValue();
   await box.fill(text.replace('"durationS": 7200', '"durationS": -5'));
@@ -46,9 +47,39 @@ test("template editor checks the document as it is typed", async ({ page }) => {
   await expect(page.getByTestId("form-ok")).toHaveText("✔ Saved as version 2.");
 });
 
+test("work-order table: sorting, filtering and paging come from the server", async ({ page }) => {
+  // other specs in the run may add work orders, so this checks order and consistency, not counts
+  await signIn(page, "office");
+  const table = page.getByTestId("work-orders-table");
+  const rows = table.locator("tbody tr");
+  await expect(rows.first()).toContainText("10");
+  const numbers = (await rows.locator("td:first-child").allInnerTexts()).map(Number);
+  expect(numbers).toEqual([...numbers].sort((a, b) => b - a)); // newest first
+  await table.getByRole("button", { name: /Customer/ }).click();
+  await expect(table.locator("th[aria-sort=ascending]")).toContainText("Customer");
+  const names = await rows.locator("td:nth-child(3)").allInnerTexts();
+  expect(names).toEqual([...names].sort((a, b) => a.localeCompare(b)));
+  await table.getByLabel("Status").selectOption("in_build");
+  await expect(rows.filter({ hasText: "Handed over" })).toHaveCount(0);
+  await expect(rows.filter({ hasText: "In build" }).first()).toBeVisible();
+  await table.getByLabel(/Search/).fill("ostrava");
+  await expect(rows).toHaveCount(1);
+  await expect(rows).toContainText("1002");
+  // pages of two, put together, are the whole list in the same order
+  const all = await (await page.request.get("/api/office/work-orders?size=100&sort=number&dir=asc")).json();
+  const pieces: number[] = [];
+  for (let p = 0; p * 2 < all.total; p++) {
+    const part = await (await page.request.get(`/api/office/work-orders?size=2&page=${p}&sort=number&dir=asc`)).json();
+    expect(part.workOrders.length).toBeLessThanOrEqual(2);
+    pieces.push(...part.workOrders.map((w: { number: number }) => w.number));
+  }
+  expect(all.total).toBeGreaterThanOrEqual(5);
+  expect(pieces).toEqual(all.workOrders.map((w: { number: number }) => w.number));
+});
+
 test("parts search answers which bikes got a batch", async ({ page }) => {
   await signIn(page, "office");
-  await page.getByRole("link", { name: "Parts search" }).click();
+  await page.getByRole("link", { name: "Parts", exact: true }).click();
   await page.getByLabel("Code").fill("rs-24-0412");
   await page.getByRole("button", { name: "Find bikes" }).click();
   const results = page.getByTestId("parts-results");
@@ -59,7 +90,8 @@ test("parts search answers which bikes got a batch", async ({ page }) => {
 
 test("tag labels: a printable A4 sheet with a QR code and the tag code per bike", async ({ page }) => {
   await signIn(page, "office");
-  await page.getByRole("link", { name: "Tag labels" }).click();
+  await page.getByRole("link", { name: "Labels" }).click();
+  await expect(page.getByRole("heading", { level: 1, name: "Tag labels" })).toBeVisible();
   const labels = page.getByTestId("tag-label");
   expect(await labels.count()).toBeGreaterThanOrEqual(5);
   await expect(labels.first()).toContainText("GSW-0001");

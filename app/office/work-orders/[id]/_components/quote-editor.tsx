@@ -172,9 +172,7 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
           {wo.status === "booked_in" && <p className="mt-2">Move the job to Inspected before sending the quote.</p>}
         </div>
       ) : (
-        <div className="mt-3">
-          <FormMessage error={message.error} ok={message.ok} />
-        </div>
+        current && <QuoteLines q={current} />
       )}
       {data.invoice && (
         <div className="mt-4 rounded-lg border-2 border-pass bg-pass-light p-3" data-testid="invoice">
@@ -185,6 +183,36 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
         </div>
       )}
     </section>
+  );
+}
+
+function QuoteLines({ q }: { q: Quote }) {
+  const c = q.currency;
+  return (
+    <table className="mt-3 w-full border-collapse text-left" data-testid="quote-lines">
+      <tbody>
+        {q.lines.map((l) => (
+          <tr key={l.id} className="border-b border-steel-300">
+            <td className="py-1 pr-2">{l.kind === "labour" ? "Labour" : "Part"}</td>
+            <td className="py-1 pr-2">
+              {l.description} {l.part_number && <span className="font-mono text-steel-700">{l.part_number}</span>}
+            </td>
+            <td className="py-1 pr-2 font-mono">
+              {(l.quantity_hundredths / 100).toFixed(2)} × {formatMinor(l.unit_price_minor, c)}
+            </td>
+            <td className="py-1 text-right font-mono">{formatMinor(l.line_total_minor, c)}</td>
+          </tr>
+        ))}
+        <tr>
+          <td colSpan={3} className="pt-2 text-right">
+            Subtotal · tax {(q.tax_rate_bp / 100).toFixed(2)} % · total
+          </td>
+          <td className="pt-2 text-right font-mono">
+            {formatMinor(q.subtotal_minor, c)} · {formatMinor(q.tax_minor, c)} · <strong>{formatMinor(q.total_minor, c)}</strong>
+          </td>
+        </tr>
+      </tbody>
+    </table>
   );
 }
 
