@@ -55,10 +55,16 @@ test("work-order table: sorting, filtering and paging come from the server", asy
   await expect(rows.first()).toContainText("10");
   const numbers = (await rows.locator("td:first-child").allInnerTexts()).map(Number);
   expect(numbers).toEqual([...numbers].sort((a, b) => b - a)); // newest first
+  const sorted = page.waitForResponse((r) => r.url().includes("sort=customer") && r.url().includes("dir=asc"));
   await table.getByRole("button", { name: /Customer/ }).click();
+  await sorted;
   await expect(table.locator("th[aria-sort=ascending]")).toContainText("Customer");
-  const names = await rows.locator("td:nth-child(3)").allInnerTexts();
-  expect(names).toEqual([...names].sort((a, b) => a.localeCompare(b)));
+  await expect
+    .poll(async () => {
+      const names = await rows.locator("td:nth-child(3)").allInnerTexts();
+      return names.length > 1 && names.join("|") === [...names].sort((a, b) => a.localeCompare(b)).join("|");
+    })
+    .toBe(true);
   await table.getByLabel("Status").selectOption("in_build");
   await expect(rows.filter({ hasText: "Handed over" })).toHaveCount(0);
   await expect(rows.filter({ hasText: "In build" }).first()).toBeVisible();
@@ -131,3 +137,19 @@ for (const size of [
     }
   });
 }
+
+test("the customer's own page shows the quote to approve, at both tablet sizes", async ({ page }) => {
+  await signIn(page, "customer");
+  const card = page.getByTestId("my-work-order").filter({ hasText: "#1003" });
+  // work order 1003's demo quote: £385.00 + £210.00 + 4.5 h × £68.00 = £901.00; VAT 20 % = £180.20; total £1,081.20
+  await expect(card.getByTestId("customer-quote-total")).toHaveText("£1,081.20");
+  await expect(card.getByRole("button", { name: "Approve this quote" })).toBeVisible();
+  for (const size of [
+    { width: 1024, height: 768 },
+    { width: 768, height: 1024 },
+  ]) {
+    await page.setViewportSize(size);
+    await noSideScroll(page);
+    await page.screenshot({ path: `test-results/office-screens/my-bikes-${size.width}x${size.height}.png`, fullPage: true });
+  }
+});
