@@ -145,6 +145,7 @@ for (const size of [
       ["customers", "/office/customers"],
       ["bike", `/office/bikes/${bikeId}`],
       ["templates", "/office/templates"],
+      ["template-edit", "/office/templates/edit?key=turbo-kit-intercooler"],
       ["parts", "/office/parts"],
     ] as const) {
       await page.goto(path);
