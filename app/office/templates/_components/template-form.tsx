@@ -56,11 +56,11 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
 
   return (
     <div className="grid gap-4" data-testid="template-form">
-      <div className="grid gap-3 md:grid-cols-3">
+      <div className="grid gap-3 md:grid-cols-[1fr_2fr]">
         {text("Template key", ["key"], doc.key, { mono: true })}
-        {text("Name", ["name"], doc.name, { wide: true })}
+        {text("Name", ["name"], doc.name)}
       </div>
-      {text("Summary", ["summary"], doc.summary, { area: true, wide: true })}
+      {text("Summary", ["summary"], doc.summary, { area: true })}
       <label className="flex min-h-11 items-center gap-3 font-bold">
         <input type="checkbox" className="h-6 w-6" checked={Boolean(doc.exampleOnly)} onChange={(e) => set(["exampleOnly"], e.target.checked)} />
         Example figures only (to be replaced by the maker&apos;s service data)
@@ -86,7 +86,7 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
                   {text("Step key", [...sp, "key"], step.key, { mono: true })}
                   {text("Step title", [...sp, "title"], step.title)}
                 </div>
-                <div className="mt-2">{text("Instructions", [...sp, "instructions"], step.instructions, { area: true, wide: true })}</div>
+                <div className="mt-2">{text("Instructions", [...sp, "instructions"], step.instructions, { area: true })}</div>
                 <label className="mt-2 flex min-h-11 items-center gap-3 font-bold">
                   <input type="checkbox" className="h-6 w-6" checked={Boolean(step.requiresPhoto)} onChange={(e) => set([...sp, "requiresPhoto"], e.target.checked)} />
                   A photo is required
