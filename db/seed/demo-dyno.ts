@@ -64,7 +64,7 @@ const PARTS = [
 ];
 
 /** Completes the bottom-end procedure and the head prep stage with readings, torque, parts and reviews. */
-export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecordContext): Promise<void> {
+export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecordContext, parts: readonly (typeof PARTS)[number][] = PARTS): Promise<void> {
   const procedures = await db
     .selectFrom("job_procedures as jp")
     .innerJoin("template_versions as tv", "tv.id", "jp.template_version_id")
@@ -127,7 +127,7 @@ export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecord
       }
     }
   }
-  for (const p of PARTS) {
+  for (const p of parts) {
     await db
       .insertInto("parts_fitted")
       .values({ shop_id: ctx.shopId, work_order_id: ctx.workOrderId, part_number: p.part, description: p.description, supplier: p.supplier, serial: p.serial, batch: p.batch, fitted_by: ctx.mechanicId, fitted_at: ts(at()) })
@@ -187,6 +187,7 @@ export async function seedDemoDyno(db: Kysely<Database>, shopId: string): Promis
   const job = await db.selectFrom("work_orders").select(["id", "assigned_mechanic_id"]).where("shop_id", "=", shopId).where("number", "=", 1001).executeTakeFirstOrThrow();
   const supervisor = await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("role", "=", "supervisor").orderBy("email").executeTakeFirstOrThrow();
   const ctx = { shopId, workOrderId: job.id, mechanicId: job.assigned_mechanic_id!, supervisorId: supervisor.id, start: new Date("2026-11-10T08:30:00Z") };
-  await seedDemoBuildRecord(db, ctx);
+  // The office demo data already lists the pistons, rings and rod bolts of this job; add the rest.
+  await seedDemoBuildRecord(db, ctx, PARTS.filter((p) => ["MLS-998-070", "CA-IC-320"].includes(p.part)));
   await seedDemoDynoRuns(db, ctx);
 }

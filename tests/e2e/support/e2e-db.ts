@@ -1,6 +1,8 @@
+import bcrypt from "bcryptjs";
 import pg from "pg";
 
-// The database tests/e2e/serve.sh made for this run (fresh, seeded with the demo workshop).
+// Direct access to the e2e database (the one tests/e2e/serve.sh makes fresh and seeds), to check
+// what reached PostgreSQL and for set-up the product has no screen for yet.
 export function e2eDatabaseUrl(): string {
   return process.env.E2E_DATABASE_URL ?? `postgres://benchtag@127.0.0.1:${process.env.BENCHTAG_TEST_PG_PORT ?? "54339"}/benchtag_e2e`;
 }
@@ -13,4 +15,15 @@ export async function query<T extends pg.QueryResultRow = pg.QueryResultRow>(tex
   } finally {
     await client.end();
   }
+}
+
+/** Gives a customer created in the browser a sign-in (there is no screen for it yet). */
+export async function giveCustomerSignIn(email: string, password: string): Promise<void> {
+  const hash = await bcrypt.hash(password, 4);
+  const rows = await query(
+    `INSERT INTO users (shop_id, email, name, role, password_hash, customer_id)
+     SELECT shop_id, email, name, 'customer', $2, id FROM customers WHERE email = $1 RETURNING id`,
+    [email, hash],
+  );
+  if (rows.length !== 1) throw new Error(`no single customer with e-mail ${email}`);
 }
