@@ -60,3 +60,35 @@ test("a mechanic records a step offline, reloads offline, and every entry reache
   const ops = await query("SELECT count(*)::int AS n, count(DISTINCT o.id)::int AS d FROM operations o JOIN work_orders w ON w.id = o.work_order_id WHERE w.number = 1006");
   expect(ops[0]).toEqual({ n: 7, d: 7 });
 });
+
+test("a photo taken offline stays on the tablet, then reaches object storage when the network returns", async ({ page, context }) => {
+  // A small PNG made here (1×1 pixel, valid file) stands in for the camera picture.
+  const png = Buffer.from("iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==", "base64");
+  await signIn(page, "mechanic");
+  await waitForServiceWorker(page);
+  await waitForSynced(page);
+  await context.setOffline(true);
+  await typeTag(page, "GSW-0006");
+  await page.getByRole("button", { name: "Open this bike's job" }).click();
+  await page.getByRole("button", { name: /9\. Head face flatness/ }).click();
+  await expect(page.getByTestId("step-title")).toHaveText("Head face flatness");
+  await expect(page.getByTestId("step-missing")).toContainText("Take at least one photo");
+  await page.getByTestId("photo-input").setInputFiles({ name: "deck.png", mimeType: "image/png", buffer: png });
+  await expect(page.getByAltText("Step photo")).toHaveCount(1);
+  await expect(page.getByText("on tablet", { exact: true })).toBeVisible();
+  await expect(page.getByTestId("step-missing")).not.toContainText("Take at least one photo");
+
+  await context.setOffline(false);
+  await waitForSynced(page);
+  await page.getByRole("button", { name: "Sync now" }).click();
+  await expect(page.getByText("sent", { exact: true })).toBeVisible({ timeout: 30_000 });
+  const rows = await query<{ id: string; awaiting_upload: boolean; byte_size: number }>(
+    "SELECT a.id, a.awaiting_upload, a.byte_size FROM attachments a JOIN work_orders w ON w.id = a.work_order_id WHERE w.number = 1006 AND a.purpose = 'step'",
+  );
+  expect(rows).toHaveLength(1);
+  expect(rows[0]).toMatchObject({ awaiting_upload: false, byte_size: png.byteLength });
+  const res = await page.request.get(`/api/bench/photos/${rows[0].id}`);
+  expect(res.status()).toBe(200);
+  expect(res.headers()["content-type"]).toBe("image/png");
+  expect(Buffer.from(await res.body()).equals(png)).toBe(true);
+});

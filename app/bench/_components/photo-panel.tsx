@@ -4,14 +4,17 @@ import { useEffect, useState } from "react";
 import type { StepView } from "@/lib/bench/job-view";
 import { recordOperation } from "@/lib/client/outbox";
 import { PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
+import type { JobSnapshot } from "@/lib/sync/snapshot";
 import { useBench } from "./bench-context";
 import { useLive } from "./use-live";
 
 /** Take or pick a photo at a step. Kept in IndexedDB until it is sent with the next sync. */
-export function PhotoPanel({ jobId, view }: { jobId: string; view: StepView }) {
+export function PhotoPanel({ jobId, view, snapshotPhotos }: { jobId: string; view: StepView; snapshotPhotos: JobSnapshot["state"]["photos"] }) {
   const { db, user, deviceId, syncNow } = useBench();
   const [error, setError] = useState<string | null>(null);
   const photos = useLive(() => db.photos.where("stepId").equals(view.step.id).toArray(), [db, view.step.id], []);
+  const localIds = new Set(photos.map((p) => p.id));
+  const others = snapshotPhotos.filter((p) => p.stepId === view.step.id && !localIds.has(p.id));
   const [urls, setUrls] = useState<Array<{ id: string; url: string; uploaded: boolean }>>([]);
   useEffect(() => {
     const made = photos.map((p) => ({ id: p.id, url: URL.createObjectURL(p.blob), uploaded: p.uploaded === 1 }));
@@ -58,7 +61,20 @@ export function PhotoPanel({ jobId, view }: { jobId: string; view: StepView }) {
           </li>
         ))}
       </ul>
-      {view.photoCount > photos.length && <p className="mt-2 text-base">{view.photoCount - photos.length} more on record from other tablets.</p>}
+      {others.length > 0 && (
+        <ul className="mt-3 flex flex-wrap gap-3" aria-label="Photos from other tablets">
+          {others.map((p) => (
+            <li key={p.id} className="text-center">
+              {p.awaitingUpload ? (
+                <span className="flex h-28 w-28 items-center justify-center rounded-lg border-2 border-dashed border-steel-700 p-2 text-sm">still on the tablet that took it</span>
+              ) : (
+                // eslint-disable-next-line @next/next/no-img-element
+                <img src={`/api/bench/photos/${p.id}`} alt="Step photo from another tablet" className="h-28 w-28 rounded-lg border-2 border-steel-700 object-cover" />
+              )}
+            </li>
+          ))}
+        </ul>
+      )}
     </section>
   );
 }

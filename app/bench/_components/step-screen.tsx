@@ -95,7 +95,7 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
         {sv.step.torqueSpecs.length > 0 && <TorquePanel jobId={jobId} view={sv} />}
         {sv.step.measurementSpecs.length > 0 && <MeasurementPanel jobId={jobId} view={sv} />}
         {sv.step.timerSpecs.length > 0 && <TimerPanel jobId={jobId} view={sv} />}
-        <PhotoPanel jobId={jobId} view={sv} />
+        <PhotoPanel jobId={jobId} view={sv} snapshotPhotos={data.snapshot.state.photos} />
 
         <section aria-label="Finish the step" className="rounded-xl border-4 border-steel-900 bg-white p-4">
           {sv.done ? (

@@ -1,0 +1,78 @@
+import { randomUUID } from "node:crypto";
+import { describe, expect, it } from "vitest";
+import { photoBytesResponse, uploadPhotoResponse, type PhotoStore } from "@/app/api/bench/photos/handlers";
+import { mergeBatch } from "@/db/sync";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { fixtureSpecs, Tablet } from "../bench/sync-ops";
+import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
+import { useTestDb } from "./support/test-db";
+
+const db = useTestDb();
+const asUser = (u: ShopFixture["users"]["mechanic"]): SessionUser => ({ ...u, role: u.role, customerId: null });
+
+// An in-memory object store standing in for S3 here; the browser test uses the real SDK and s3rver.
+function memoryStore(): PhotoStore & { objects: Map<string, { body: Buffer; contentType: string }> } {
+  const objects = new Map<string, { body: Buffer; contentType: string }>();
+  return {
+    objects,
+    put: async (key, body, contentType) => void objects.set(key, { body, contentType }),
+    get: async (key) => {
+      const o = objects.get(key);
+      if (!o) throw new Error(`no object ${key}`);
+      return { body: new Uint8Array(o.body), contentType: o.contentType };
+    },
+  };
+}
+
+const upload = (id: string, body: Buffer, type = "image/jpeg") =>
+  new Request(`http://x/api/bench/photos/${id}`, { method: "POST", headers: { "content-type": type, "content-length": String(body.byteLength) }, body: new Uint8Array(body) });
+
+describe("step photo bytes", () => {
+  async function queued(bytes: Buffer) {
+    const fx = await createShopFixture(db);
+    const specs = await fixtureSpecs(db, fx);
+    const mech = asUser(fx.users.mechanic);
+    const tablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, mech.id, fx.workOrderId);
+    const photoId = randomUUID();
+    await mergeBatch(db, mech, tablet.batch([tablet.make("photo.queued", { attachmentId: photoId, stepId: specs.boreStepId, contentType: "image/jpeg", byteSize: bytes.byteLength })]));
+    return { fx, mech, photoId };
+  }
+
+  it("stores the bytes once the entry is on record, marks it uploaded, and serves them back", async () => {
+    const bytes = Buffer.from("not really a jpeg, but bytes are bytes");
+    const { fx, mech, photoId } = await queued(bytes);
+    const store = memoryStore();
+    const res = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes));
+    expect(res.status).toBe(200);
+    expect(await res.json()).toEqual({ stored: true, already: false });
+    const row = await db.selectFrom("attachments").select(["object_key", "awaiting_upload"]).where("id", "=", photoId).executeTakeFirstOrThrow();
+    expect(row.awaiting_upload).toBe(false);
+    expect(store.objects.get(row.object_key)?.body.equals(bytes)).toBe(true);
+    // sending again changes nothing
+    expect(await (await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes))).json()).toEqual({ stored: true, already: true });
+    const back = await photoBytesResponse(asUser(fx.users.supervisor), db, store, photoId);
+    expect(back.status).toBe(200);
+    expect(Buffer.from(await back.arrayBuffer()).equals(bytes)).toBe(true);
+  });
+
+  it("refuses a wrong type, a wrong size, an unknown photo, another shop and the wrong roles, with reasons", async () => {
+    const bytes = Buffer.from("twelve bytes");
+    const { fx, mech, photoId } = await queued(bytes);
+    const store = memoryStore();
+    const wrongType = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes, "image/png"));
+    expect([wrongType.status, (await wrongType.json()).error]).toEqual([415, "The photo was queued as image/jpeg but image/png was sent."]);
+    const wrongSize = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, Buffer.from("eleven byte")));
+    expect([wrongSize.status, (await wrongSize.json()).error]).toEqual([422, `The photo was queued as ${bytes.byteLength} bytes but 11 arrived.`]);
+    const unknown = randomUUID();
+    expect((await uploadPhotoResponse(mech, db, store, unknown, upload(unknown, bytes))).status).toBe(404);
+    expect((await uploadPhotoResponse(mech, db, store, "not-a-uuid", upload(photoId, bytes))).status).toBe(400);
+    const other = await createShopFixture(db);
+    expect((await uploadPhotoResponse(asUser(other.users.mechanic), db, store, photoId, upload(photoId, bytes))).status).toBe(404);
+    expect((await uploadPhotoResponse(asUser(fx.users.customer), db, store, photoId, upload(photoId, bytes))).status).toBe(403);
+    expect((await uploadPhotoResponse(null, db, store, photoId, upload(photoId, bytes))).status).toBe(401);
+    expect((await photoBytesResponse(asUser(fx.users.customer), db, store, photoId)).status).toBe(403);
+    // not uploaded yet: nothing to serve
+    expect((await photoBytesResponse(mech, db, store, photoId)).status).toBe(404);
+    expect(store.objects.size).toBe(0);
+  });
+});
