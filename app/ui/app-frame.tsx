@@ -13,6 +13,7 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
   { href: "/office/templates", label: "Templates", area: "templates" },
   { href: "/office/parts", label: "Parts", area: "office" },
   { href: "/office/labels", label: "Labels", area: "office" },
+  { href: "/office/users", label: "Sign-ins", area: "users" },
   { href: "/my-bikes", label: "My bikes", area: "my-bikes" },
 ];
 

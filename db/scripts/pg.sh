@@ -72,7 +72,8 @@ case "$cmd" in
     if "${RUNAS[@]}" "$PGBIN/pg_ctl" -D "$PGDATA" status >/dev/null 2>&1; then
       log "already running on 127.0.0.1:$port"
     else
-      "${RUNAS[@]}" "$PGBIN/pg_ctl" -D "$PGDATA" -l "$PGDATA/server.log" -w -t 60 start >/dev/null
+      # The port is given at every start, so BENCHTAG_*PG_PORT wins over the one written at init.
+      "${RUNAS[@]}" "$PGBIN/pg_ctl" -D "$PGDATA" -l "$PGDATA/server.log" -o "-p $port" -w -t 60 start >/dev/null
       log "started on 127.0.0.1:$port"
     fi
     ;;

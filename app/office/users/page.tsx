@@ -1,0 +1,56 @@
+import type { Metadata } from "next";
+import { requirePageArea } from "@/app/_server/session";
+import { AppFrame } from "@/app/ui/app-frame";
+import { db } from "@/db/client";
+import { listCustomers } from "@/db/customers";
+import { listShopUsers } from "@/db/office/users";
+import { ActiveToggle } from "./_components/active-toggle";
+import { UserForm } from "./_components/user-form";
+
+export const metadata: Metadata = { title: "Sign-ins" };
+
+const ROLE_LABELS = { mechanic: "Mechanic", supervisor: "Supervisor", office: "Office", customer: "Customer" } as const;
+
+export default async function UsersPage() {
+  const user = await requirePageArea("users");
+  const [users, customers] = await Promise.all([listShopUsers(db(), user.shopId), listCustomers(db(), user.shopId)]);
+  return (
+    <AppFrame user={user} current="/office/users">
+      <h1 className="text-3xl font-bold">Sign-ins</h1>
+      <p className="mt-2 text-lg text-steel-700">Who can sign in to this shop, and as what.</p>
+      <table className="mt-6 w-full border-collapse text-left text-lg" data-testid="users-table">
+        <thead>
+          <tr className="border-b-2 border-steel-700">
+            <th className="py-2 pr-4">Name</th>
+            <th className="py-2 pr-4">E-mail</th>
+            <th className="py-2 pr-4">Role</th>
+            <th className="py-2 pr-4">Status</th>
+            <th className="py-2 pr-4">
+              <span className="sr-only">Change</span>
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {users.map((u) => (
+            <tr key={u.id} className="border-b border-steel-300" data-testid="user-row">
+              <td className="py-2 pr-4">{u.name}</td>
+              <td className="py-2 pr-4 font-mono text-base">{u.email}</td>
+              <td className="py-2 pr-4">
+                {ROLE_LABELS[u.role]}
+                {u.customerName ? ` (${u.customerName})` : ""}
+              </td>
+              <td className="py-2 pr-4 font-bold">{u.active ? "Active" : "Turned off"}</td>
+              <td className="py-2 pr-4">{u.id !== user.id && <ActiveToggle userId={u.id} active={u.active} name={u.name} />}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <section className="mt-8 rounded-xl border-2 border-steel-300 bg-white p-4">
+        <h2 className="text-xl font-bold">Give someone a sign-in</h2>
+        <div className="mt-4">
+          <UserForm customers={customers.map((c) => ({ id: c.id, name: c.name }))} />
+        </div>
+      </section>
+    </AppFrame>
+  );
+}

@@ -1,0 +1,20 @@
+import { z } from "zod";
+import { ROLES } from "@/lib/auth/roles";
+
+// A sign-in for someone in the shop. A customer's sign-in is tied to their customer record, so they
+// see only their own bikes; staff sign-ins are tied to none.
+export const newUserSchema = z
+  .object({
+    name: z.string().trim().min(2, "give the person's name").max(120),
+    email: z.string().trim().toLowerCase().email("enter an e-mail address they can sign in with"),
+    role: z.enum(ROLES, { error: "choose a role" }),
+    password: z.string().min(10, "at least 10 characters").max(200, "at most 200 characters"),
+    customerId: z.union([z.uuid("choose the customer"), z.literal(""), z.null()]).transform((v) => v || null),
+  })
+  .superRefine((u, ctx) => {
+    if (u.role === "customer" && !u.customerId) ctx.addIssue({ code: "custom", path: ["customerId"], message: "a customer sign-in needs the customer it belongs to" });
+    if (u.role !== "customer" && u.customerId) ctx.addIssue({ code: "custom", path: ["customerId"], message: "only customer sign-ins belong to a customer" });
+  });
+export type NewUserInput = z.input<typeof newUserSchema>;
+
+export const userActiveSchema = z.object({ active: z.boolean({ error: "say whether the sign-in is active" }) }).strict();
