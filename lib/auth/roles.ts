@@ -15,7 +15,8 @@ export type Area =
   | "audit" // view and export the audit log
   | "my-bikes" // a customer's own bikes
   | "dyno" // record and compare dyno runs on a work order
-  | "build-report"; // download a work order's handover build report (customers: their own bikes only)
+  | "build-report" // download a work order's handover build report (customers: their own bikes only)
+  | "calculators"; // engine numbers: compression, charge air, ring gaps, oil clearance, torque units
 
 const AREAS: Record<Area, readonly Role[]> = {
   bench: ["mechanic", "supervisor"],
@@ -29,6 +30,7 @@ const AREAS: Record<Area, readonly Role[]> = {
   audit: ["office", "supervisor"],
   "my-bikes": ["customer"],
   dyno: ["office", "supervisor", "mechanic"],
+  calculators: ["mechanic", "supervisor", "office"],
   "build-report": ["office", "supervisor", "customer"],
 };
 
