@@ -1,5 +1,6 @@
 import type { ColumnType, Generated, Insertable, Selectable } from "kysely";
 import type { DynoTables } from "./schema-dyno";
+import type { OfficeTables } from "./schema-office";
 
 // Table types for Kysely. numeric columns come back from pg as strings (never silently rounded).
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
@@ -281,6 +282,7 @@ export interface AttachmentsTable {
   byte_size: number;
   caption: Generated<string>;
   uploaded_by: string | null;
+  note_id: Generated<string | null>;
   created_at: Generated<Timestamp>;
   /** Queued on a tablet, bytes not uploaded yet (migration 002). */
   awaiting_upload: Generated<boolean>;
@@ -329,7 +331,7 @@ export interface SignInAttemptsTable {
   at: Generated<Timestamp>;
 }
 
-export interface Database extends DynoTables {
+export interface Database extends DynoTables, OfficeTables {
   shops: ShopsTable;
   customers: CustomersTable;
   users: UsersTable;

@@ -7,13 +7,14 @@ type Db = Kysely<Database> | Transaction<Database>;
 // Writes a template document as a new immutable version (version 1 for a new key).
 // Validates first; writes everything in one transaction so nothing is half-imported.
 export async function createTemplateVersion(
-  db: Kysely<Database>,
+  db: Db,
   shopId: string,
   input: TemplateDocumentInput,
   createdBy: string | null,
 ): Promise<{ templateId: string; versionId: string; version: number }> {
   const doc = templateDocumentSchema.parse(input);
-  return db.transaction().execute(async (trx) => {
+  // Inside a caller's transaction (a bundle import) the version joins it; otherwise it has its own.
+  const run = async (trx: Transaction<Database>) => {
     const existing = await trx
       .selectFrom("procedure_templates")
       .select("id")
@@ -51,7 +52,8 @@ export async function createTemplateVersion(
       .executeTakeFirstOrThrow();
     await writeSteps(trx, versionId, doc.stages);
     return { templateId, versionId, version };
-  });
+  };
+  return db.isTransaction ? run(db as Transaction<Database>) : (db as Kysely<Database>).transaction().execute(run);
 }
 
 async function writeSteps(

@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { db } from "@/db/client";
 import { bikesOfCustomer } from "@/db/bikes";
+import { quotesForCustomer } from "@/db/office/quotes";
+import { CustomerQuote, type CustomerQuoteData } from "./_components/customer-quote";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { StatusBadge } from "../ui/status-badge";
@@ -10,6 +12,9 @@ export const metadata: Metadata = { title: "My bikes" };
 export default async function MyBikesPage() {
   const user = await requirePageArea("my-bikes");
   const bikes = user.customerId ? await bikesOfCustomer(db(), user.shopId, user.customerId) : [];
+  const quotes = user.customerId ? await quotesForCustomer(db(), user.shopId, user.customerId) : [];
+  // the newest quote the customer may see, per work order
+  const quoteOf = (workOrderId: string) => quotes.find((q) => q.workOrderId === workOrderId && q.status !== "superseded");
   return (
     <AppFrame user={user} current="/my-bikes">
       <h1 className="text-3xl font-bold">My bikes</h1>
@@ -23,9 +28,12 @@ export default async function MyBikesPage() {
             <p className="font-mono text-steel-700">Tag {b.tagCode}</p>
             <ul className="mt-3 space-y-2">
               {b.workOrders.map((w) => (
-                <li key={w.id} className="flex flex-wrap items-center gap-3 text-lg">
-                  <span className="font-mono">#{w.number}</span> {w.title} <StatusBadge status={w.status} />
-                  <a href={`/api/jobs/${w.id}/build-report`} download className="flex min-h-12 items-center rounded-lg border-2 border-ink px-3 text-base font-bold" data-testid="my-build-report">Build report (PDF)</a>
+                <li key={w.id} className="text-lg" data-testid="my-work-order">
+                  <div className="flex flex-wrap items-center gap-3">
+                    <span className="font-mono">#{w.number}</span> {w.title} <StatusBadge status={w.status} />
+                    <a href={`/api/jobs/${w.id}/build-report`} download className="flex min-h-12 items-center rounded-lg border-2 border-ink px-3 text-base font-bold" data-testid="my-build-report">Build report (PDF)</a>
+                  </div>
+                  {quoteOf(w.id) && <CustomerQuote quote={JSON.parse(JSON.stringify(quoteOf(w.id))) as CustomerQuoteData} />}
                 </li>
               ))}
             </ul>

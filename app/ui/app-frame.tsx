@@ -9,6 +9,10 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
   { href: "/review", label: "Review", area: "review" },
   { href: "/office", label: "Work orders", area: "office" },
   { href: "/dyno", label: "Dyno", area: "dyno" },
+  { href: "/office/customers", label: "Customers", area: "office" },
+  { href: "/office/templates", label: "Templates", area: "templates" },
+  { href: "/office/parts", label: "Parts", area: "office" },
+  { href: "/office/labels", label: "Labels", area: "office" },
   { href: "/my-bikes", label: "My bikes", area: "my-bikes" },
 ];
 

@@ -1,6 +1,7 @@
 import type { Migration } from "kysely";
 import * as m001 from "./2026_12_01_001_foundation";
 import * as m002 from "./2026_12_02_002_sync";
+import * as m003 from "./2026_12_02_003_office";
 import * as m004 from "./2026_12_02_004_dyno";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
@@ -9,5 +10,6 @@ import * as m004 from "./2026_12_02_004_dyno";
 export const migrations: Record<string, Migration> = {
   "2026_12_01_001_foundation": m001,
   "2026_12_02_002_sync": m002,
+  "2026_12_02_003_office": m003,
   "2026_12_02_004_dyno": m004,
 };

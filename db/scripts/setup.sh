@@ -10,6 +10,7 @@ cd "$root"
 bash db/scripts/install-deps.sh "$@"
 bash db/scripts/pg.sh start dev
 if [ "${1:-}" = "--test" ]; then bash db/scripts/pg.sh start test; fi
+FAKE_PAYMENTS_WEBHOOK_URL=${FAKE_PAYMENTS_WEBHOOK_URL:-http://localhost:${PORT:-3000}/api/payments/webhook} bash tests/fakes/start-fakes.sh
 npx tsx db/cli/migrate.ts
 npx tsx db/cli/seed.ts
 

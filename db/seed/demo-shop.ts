@@ -5,6 +5,7 @@ import type { WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database, Role } from "../schema";
 import { createTemplateVersion } from "../templates";
 import { seedDemoDyno } from "./demo-dyno";
+import { seedDemoOffice } from "./demo-office";
 
 // An invented workshop for the demo and the browser tests. All names are made up.
 export const DEMO_SHOP_SLUG = "gannet-street";
@@ -168,5 +169,6 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
     }
   }
   await seedDemoDyno(db, shopId);
+  await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
   return { shopId };
 }

@@ -7,7 +7,9 @@ export type Area =
   | "bench" // scan tags, step through procedures, record work (mechanics; supervisors also work the bench)
   | "review" // review sign-offs and out-of-tolerance readings
   | "decide" // approve / send back
-  | "office" // customers, bikes, work orders, quotes, templates
+  | "office" // customers, bikes, work orders, quotes, deposits, parts search, tag labels
+  | "templates" // author procedure templates, import and export them
+  | "bike-records" // a bike's history: work orders, parts fitted, readings (contact details only with customer-contact)
   | "customer-contact" // see customers' e-mail and phone
   | "users" // manage user accounts
   | "audit" // view and export the audit log
@@ -20,6 +22,8 @@ const AREAS: Record<Area, readonly Role[]> = {
   review: ["supervisor", "office"],
   decide: ["supervisor", "office"],
   office: ["office"],
+  templates: ["office", "supervisor"],
+  "bike-records": ["office", "supervisor", "mechanic"],
   "customer-contact": ["office", "supervisor"],
   users: ["office"],
   audit: ["office", "supervisor"],

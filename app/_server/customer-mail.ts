@@ -1,0 +1,52 @@
+import type { Kysely } from "kysely";
+import { emailContext } from "@/db/office/emails";
+import type { Database } from "@/db/schema";
+import { formatMinor } from "@/lib/money/quote-totals";
+import { bikeReadyAttachment } from "./bike-ready-attachment";
+import { sendMail } from "./mail";
+import { officeConfig } from "./office-config";
+
+// The three e-mails a customer gets about a job. Each returns quietly when the customer has no
+// e-mail address on file (the work order page shows that nothing was sent).
+
+export async function mailQuoteReady(db: Kysely<Database>, shopId: string, workOrderId: string, totalMinor: number, depositMinor: number) {
+  const c = await emailContext(db, shopId, workOrderId);
+  if (!c?.email) return { ok: false, error: "no e-mail address" };
+  const link = `${officeConfig().NEXTAUTH_URL}/my-bikes`;
+  return sendMail(db, {
+    shopId,
+    workOrderId,
+    kind: "quote_ready",
+    to: c.email,
+    subject: `Your quote for work order ${c.number} is ready`,
+    text: `Hello ${c.customerName},\n\nYour quote for the ${c.make} ${c.model} (${c.tagCode}) — "${c.title}" — is ready: ${formatMinor(totalMinor, c.currency)} including tax${depositMinor ? `, with a deposit of ${formatMinor(depositMinor, c.currency)}` : ""}.\n\nSign in to look at it and approve it: ${link}\n\n${c.shopName}`,
+  });
+}
+
+export async function mailDepositReceived(db: Kysely<Database>, shopId: string, workOrderId: string, amountMinor: number) {
+  const c = await emailContext(db, shopId, workOrderId);
+  if (!c?.email) return { ok: false, error: "no e-mail address" };
+  return sendMail(db, {
+    shopId,
+    workOrderId,
+    kind: "deposit_received",
+    to: c.email,
+    subject: `Deposit received for work order ${c.number}`,
+    text: `Hello ${c.customerName},\n\nThank you: we have received your deposit of ${formatMinor(amountMinor, c.currency)} for the ${c.make} ${c.model} (${c.tagCode}). Work can start.\n\n${c.shopName}`,
+  });
+}
+
+export async function mailBikeReady(db: Kysely<Database>, shopId: string, workOrderId: string) {
+  const c = await emailContext(db, shopId, workOrderId);
+  if (!c?.email) return { ok: false, error: "no e-mail address" };
+  const pdf = await bikeReadyAttachment(db, shopId, workOrderId);
+  return sendMail(db, {
+    shopId,
+    workOrderId,
+    kind: "bike_ready",
+    to: c.email,
+    subject: `Your ${c.make} ${c.model} is ready to collect`,
+    text: `Hello ${c.customerName},\n\nThe work on your ${c.make} ${c.model} (${c.tagCode}) is done and the bike is ready to collect. The handover summary is attached.\n\n${c.shopName}`,
+    attachments: [{ filename: `work-order-${c.number}-handover.pdf`, content: pdf, contentType: "application/pdf" }],
+  });
+}

@@ -1,0 +1,46 @@
+import type { Kysely } from "kysely";
+import type Stripe from "stripe";
+import { applyPaymentEvent } from "@/db/office/deposits";
+import { appendAudit } from "@/db/audit";
+import type { Database } from "@/db/schema";
+import { mailDepositReceived } from "./customer-mail";
+import { verifyPaymentWebhook } from "./payments";
+
+export interface WebhookAnswer {
+  status: number;
+  body: { received?: boolean; outcome?: string; error?: string };
+}
+
+// The payment webhook, apart from Next so the integration tests drive it with a real database:
+// verify the signature (refuse unsigned, wrongly signed and stale), apply the event once (refuse
+// a replayed event id), mark the deposit paid and write to the customer.
+export async function handlePaymentWebhook(
+  db: Kysely<Database>,
+  rawBody: string,
+  signature: string | null,
+  opts: { secret?: string; sendMail?: boolean } = {},
+): Promise<WebhookAnswer> {
+  let event: Stripe.Event;
+  try {
+    event = verifyPaymentWebhook(rawBody, signature, opts.secret);
+  } catch (e) {
+    const reason = (e as Error).message.split("\n")[0].slice(0, 200);
+    await appendAudit(db, [{ shopId: null, actorId: null, action: "payment.webhook", entity: "payment_event", outcome: "refused", reason }]);
+    return { status: 400, body: { error: `Webhook refused: ${reason}` } };
+  }
+  const obj = event.data?.object as Partial<Stripe.PaymentIntent> | undefined;
+  const outcome = await applyPaymentEvent(db, {
+    id: event.id,
+    type: event.type,
+    paymentIntentId: obj?.object === "payment_intent" ? (obj.id ?? null) : null,
+    amount: typeof obj?.amount === "number" ? obj.amount : null,
+    currency: typeof obj?.currency === "string" ? obj.currency : null,
+  });
+  if (outcome.kind === "replayed") {
+    await appendAudit(db, [{ shopId: null, actorId: null, action: "payment.webhook", entity: "payment_event", entityId: event.id, outcome: "refused", reason: "event already processed" }]);
+    return { status: 409, body: { error: "Webhook refused: event already processed" } };
+  }
+  if (outcome.kind === "ignored") return { status: 200, body: { received: true, outcome: `ignored: ${outcome.reason}` } };
+  if (opts.sendMail !== false) await mailDepositReceived(db, outcome.shopId, outcome.workOrderId, (obj?.amount as number) ?? 0);
+  return { status: 200, body: { received: true, outcome: "deposit paid" } };
+}

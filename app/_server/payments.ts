@@ -1,0 +1,45 @@
+import Stripe from "stripe";
+import { officeConfig } from "./office-config";
+
+// The payment provider through the Stripe SDK, pointed by STRIPE_API_BASE at the real API or at
+// the local fake (tests/fakes/fake-payments.ts).
+export function paymentsClient(): Stripe {
+  const cfg = officeConfig();
+  const base = new URL(cfg.STRIPE_API_BASE);
+  return new Stripe(cfg.STRIPE_SECRET_KEY, {
+    host: base.hostname,
+    port: base.port || (base.protocol === "https:" ? 443 : 80),
+    protocol: base.protocol === "https:" ? "https" : "http",
+    maxNetworkRetries: 1,
+    timeout: 10_000,
+    telemetry: false,
+  });
+}
+
+// Creates the PaymentIntent for a deposit (idempotent per deposit) and, in test mode, confirms it
+// with the configured test payment method; the provider then reports success by webhook.
+export async function startDepositPayment(d: { depositId: string; amountMinor: number; currency: string; shopId: string; workOrderId: string; description: string }) {
+  const cfg = officeConfig();
+  const stripe = paymentsClient();
+  const intent = await stripe.paymentIntents.create(
+    {
+      amount: d.amountMinor,
+      currency: d.currency.toLowerCase(),
+      description: d.description,
+      metadata: { deposit_id: d.depositId, shop_id: d.shopId, work_order_id: d.workOrderId },
+    },
+    { idempotencyKey: `deposit-${d.depositId}` },
+  );
+  if (intent.status !== "succeeded" && intent.status !== "processing" && cfg.STRIPE_TEST_PAYMENT_METHOD) {
+    const confirmed = await stripe.paymentIntents.confirm(intent.id, { payment_method: cfg.STRIPE_TEST_PAYMENT_METHOD }, { idempotencyKey: `deposit-confirm-${d.depositId}` });
+    return { id: confirmed.id, status: confirmed.status };
+  }
+  return { id: intent.id, status: intent.status };
+}
+
+// Verifies a webhook's signature (Stripe's scheme: HMAC-SHA256 over "timestamp.body", 5-minute
+// tolerance) and returns the event; throws when unsigned, wrongly signed or stale.
+export function verifyPaymentWebhook(rawBody: string, signature: string | null, secret = officeConfig().STRIPE_WEBHOOK_SECRET, toleranceS = 300): Stripe.Event {
+  if (!signature) throw new Error("missing Stripe-Signature header");
+  return Stripe.webhooks.constructEvent(rawBody, signature, secret, toleranceS);
+}

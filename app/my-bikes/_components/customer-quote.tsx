@@ -1,0 +1,126 @@
+"use client";
+
+import { useMutation, useQuery } from "@tanstack/react-query";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { formatMinor } from "@/lib/money/quote-totals";
+import { api } from "@/app/ui/api-client";
+import { buttonClass, FormMessage } from "@/app/ui/form-field";
+
+export interface CustomerQuoteData {
+  id: string;
+  version: number;
+  status: "sent" | "approved";
+  currency: string;
+  tax_rate_bp: number;
+  subtotal_minor: number;
+  tax_minor: number;
+  total_minor: number;
+  deposit_minor: number;
+  note: string;
+  lines: Array<{ id: string; kind: string; description: string; quantity_hundredths: number; unit_price_minor: number; line_total_minor: number }>;
+  deposits: Array<{ id: string; status: string; amountMinor: number }>;
+}
+
+const qty = (h: number) => (h % 100 === 0 ? String(h / 100) : (h / 100).toFixed(2));
+
+// The customer's view of a quote: the lines, the totals, approve, then pay the deposit.
+export function CustomerQuote({ quote }: { quote: CustomerQuoteData }) {
+  const router = useRouter();
+  const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
+  const open = quote.deposits.find((d) => d.status === "pending" || d.status === "paid");
+  const [depositId, setDepositId] = useState<string | null>(open?.id ?? null);
+  const c = quote.currency;
+
+  const approve = useMutation({
+    mutationFn: () => api("POST", `/api/my-bikes/quotes/${quote.id}/approve`),
+    onSuccess: () => {
+      setMessage({ ok: "Thank you — quote approved." });
+      router.refresh();
+    },
+    onError: (e) => setMessage({ error: (e as Error).message }),
+  });
+  const pay = useMutation({
+    mutationFn: () => api<{ depositId: string }>("POST", `/api/my-bikes/quotes/${quote.id}/deposit`),
+    onSuccess: (r) => {
+      setDepositId(r.depositId);
+      setMessage({});
+    },
+    onError: (e) => setMessage({ error: (e as Error).message }),
+  });
+  const deposit = useQuery({
+    queryKey: ["deposit", depositId],
+    enabled: Boolean(depositId),
+    queryFn: async () => (await api<{ deposit: { status: string; amountMinor: number } }>("GET", `/api/my-bikes/deposits/${depositId}`)).deposit,
+    refetchInterval: (q) => (q.state.data?.status === "paid" ? false : 1000),
+  });
+  const depositStatus = deposit.data?.status ?? open?.status;
+
+  return (
+    <div className="mt-3 rounded-lg border-2 border-steel-300 p-3" data-testid="customer-quote">
+      <h3 className="text-xl font-bold">
+        Quote (version {quote.version}) — {quote.status === "approved" ? "approved" : "waiting for your approval"}
+      </h3>
+      <table className="mt-2 w-full border-collapse text-left">
+        <tbody>
+          {quote.lines.map((l) => (
+            <tr key={l.id} className="border-b border-steel-300">
+              <td className="py-1 pr-2">{l.description}</td>
+              <td className="py-1 pr-2 font-mono">
+                {qty(l.quantity_hundredths)} × {formatMinor(l.unit_price_minor, c)}
+              </td>
+              <td className="py-1 text-right font-mono">{formatMinor(l.line_total_minor, c)}</td>
+            </tr>
+          ))}
+          <tr>
+            <td colSpan={2} className="pt-2 text-right">
+              Subtotal
+            </td>
+            <td className="pt-2 text-right font-mono">{formatMinor(quote.subtotal_minor, c)}</td>
+          </tr>
+          <tr>
+            <td colSpan={2} className="text-right">
+              Tax ({(quote.tax_rate_bp / 100).toFixed(2)} %)
+            </td>
+            <td className="text-right font-mono">{formatMinor(quote.tax_minor, c)}</td>
+          </tr>
+          <tr>
+            <td colSpan={2} className="text-right font-bold">
+              Total
+            </td>
+            <td className="text-right font-mono font-bold" data-testid="customer-quote-total">
+              {formatMinor(quote.total_minor, c)}
+            </td>
+          </tr>
+        </tbody>
+      </table>
+      {quote.note && <p className="mt-2 italic">{quote.note}</p>}
+      {quote.deposit_minor > 0 && <p className="mt-2 text-lg">Deposit to start the work: {formatMinor(quote.deposit_minor, c)}</p>}
+      <div className="mt-3 flex flex-wrap items-center gap-3">
+        {quote.status === "sent" && (
+          <button type="button" className={buttonClass} disabled={approve.isPending} onClick={() => approve.mutate()}>
+            Approve this quote
+          </button>
+        )}
+        {quote.status === "approved" && quote.deposit_minor > 0 && depositStatus !== "paid" && !depositId && (
+          <button type="button" className={buttonClass} disabled={pay.isPending} onClick={() => pay.mutate()}>
+            Pay the deposit ({formatMinor(quote.deposit_minor, c)})
+          </button>
+        )}
+        {depositId && depositStatus !== "paid" && (
+          <p role="status" className="text-lg font-bold text-warn" data-testid="deposit-status">
+            … Payment sent; waiting for the payment service to confirm.
+          </p>
+        )}
+        {depositStatus === "paid" && (
+          <p role="status" className="text-lg font-bold text-pass" data-testid="deposit-status">
+            ✔ Deposit paid. Thank you.
+          </p>
+        )}
+      </div>
+      <div className="mt-2">
+        <FormMessage error={message.error} ok={message.ok} />
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,40 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requirePageArea } from "@/app/_server/session";
+import { AppFrame } from "@/app/ui/app-frame";
+import { db } from "@/db/client";
+import { loadTemplateDocument } from "@/db/office/template-documents";
+import { TemplateEditor } from "../_components/template-editor";
+
+export const metadata: Metadata = { title: "Edit template" };
+
+const STARTER = {
+  format: "benchtag-template",
+  formatVersion: 1,
+  key: "new-procedure",
+  name: "New procedure",
+  summary: "",
+  exampleOnly: false,
+  stages: [{ key: "stage-1", title: "First stage", steps: [{ key: "step-1", title: "First step", instructions: "", cautions: [], requiresPhoto: false, torque: [], measurements: [], timer: null }] }],
+};
+
+export default async function EditTemplatePage({ searchParams }: { searchParams: Promise<{ key?: string }> }) {
+  const user = await requirePageArea("templates");
+  const { key } = await searchParams;
+  const doc = key ? await loadTemplateDocument(db(), user.shopId, key.slice(0, 80)) : STARTER;
+  if (!doc) notFound();
+  return (
+    <AppFrame user={user} current="/office/templates">
+      <p>
+        <Link href="/office/templates" className="underline">
+          ◀ Templates
+        </Link>
+      </p>
+      <h1 className="mt-2 text-3xl font-bold">{key ? `Edit ${doc.name}` : "New template"}</h1>
+      <div className="mt-4">
+        <TemplateEditor key={key ?? "new"} initial={JSON.stringify(doc, null, 2)} isNew={!key} />
+      </div>
+    </AppFrame>
+  );
+}

@@ -1,0 +1,111 @@
+"use client";
+
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useState } from "react";
+import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { api } from "@/app/ui/api-client";
+import { FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
+import type { WorkOrderData } from "./types";
+
+// Move the job on: one button per move the flow allows; the server gives the reason when a move
+// is refused. Going in build pins the chosen procedure templates (their current versions).
+export function StatusPanel({ data }: { data: WorkOrderData }) {
+  const qc = useQueryClient();
+  const wo = data.workOrder;
+  const [note, setNote] = useState("");
+  const [pins, setPins] = useState<string[]>([]);
+  const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
+  const move = useMutation({
+    mutationFn: (to: string) => api<{ mail?: { ok: boolean; error?: string } }>("POST", `/api/office/work-orders/${wo.id}/status`, { to, note, templateVersionIds: to === "in_build" ? pins : [] }),
+    onSuccess: (r, to) => {
+      setMessage({ ok: `Moved to ${STATUS_LABELS[to as WorkOrderStatus]}.${r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : ""}` });
+      setNote("");
+      setPins([]);
+      void qc.invalidateQueries({ queryKey: ["work-order", wo.id] });
+    },
+    onError: (e) => setMessage({ error: (e as Error).message }),
+  });
+  const moves = data.next.filter((s) => s !== "approved");
+  const goesInBuild = data.next.includes("in_build");
+  return (
+    <section className="rounded-xl border-2 border-steel-700 bg-white p-4" aria-labelledby="status-heading">
+      <h2 id="status-heading" className="text-2xl font-bold">
+        Move the job on
+      </h2>
+      {data.next.includes("approved") && <p className="mt-2 text-lg">Waiting for the customer to approve the quote from their own sign-in.</p>}
+      {goesInBuild && (
+        <fieldset className="mt-3">
+          <legend className="text-base font-bold">Procedures to pin when it goes in build</legend>
+          {wo.procedures.length > 0 && <p className="text-sm">Already pinned: {wo.procedures.map((p) => `${p.name} v${p.version}`).join(", ")}</p>}
+          <div className="mt-2 grid gap-2 md:grid-cols-2">
+            {data.templates.map((t) => (
+              <label key={t.versionId} className="flex min-h-12 items-center gap-3 rounded-lg border-2 border-steel-300 px-3">
+                <input type="checkbox" className="h-6 w-6" checked={pins.includes(t.versionId)} onChange={(e) => setPins((p) => (e.target.checked ? [...p, t.versionId] : p.filter((x) => x !== t.versionId)))} />
+                <span>
+                  {t.name} <span className="text-steel-700">v{t.version}</span>
+                </span>
+              </label>
+            ))}
+          </div>
+        </fieldset>
+      )}
+      {moves.length > 0 && (
+        <>
+          <label className="mt-3 flex flex-col gap-1 font-bold">
+            Note for the record (optional)
+            <input value={note} onChange={(e) => setNote(e.target.value)} className={`${inputClass} font-normal`} maxLength={1000} />
+          </label>
+          <div className="mt-3 flex flex-wrap gap-3">
+            {moves.map((s) => (
+              <button key={s} type="button" className={quietButtonClass} disabled={move.isPending} onClick={() => move.mutate(s)}>
+                → {STATUS_LABELS[s as WorkOrderStatus]}
+              </button>
+            ))}
+          </div>
+        </>
+      )}
+      {data.next.length === 0 && <p className="mt-2 text-lg">This work order is closed.</p>}
+      <div className="mt-3">
+        <FormMessage error={message.error} ok={message.ok} />
+      </div>
+    </section>
+  );
+}
+
+export function AssignPanel({ data }: { data: WorkOrderData }) {
+  const qc = useQueryClient();
+  const [mechanicId, setMechanicId] = useState(data.workOrder.mechanicId ?? "");
+  const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
+  const save = useMutation({
+    mutationFn: () => api("POST", `/api/office/work-orders/${data.workOrder.id}/assign`, { mechanicId: mechanicId || null }),
+    onSuccess: () => {
+      setMessage({ ok: "Mechanic saved." });
+      void qc.invalidateQueries({ queryKey: ["work-order", data.workOrder.id] });
+    },
+    onError: (e) => setMessage({ error: (e as Error).message }),
+  });
+  return (
+    <section className="rounded-xl border-2 border-steel-300 bg-white p-4">
+      <h2 className="text-xl font-bold">Mechanic</h2>
+      <div className="mt-2 flex flex-wrap items-center gap-3">
+        <label htmlFor="mechanic" className="sr-only">
+          Mechanic
+        </label>
+        <select id="mechanic" value={mechanicId} onChange={(e) => setMechanicId(e.target.value)} className={inputClass}>
+          <option value="">Nobody yet</option>
+          {data.mechanics.map((m) => (
+            <option key={m.id} value={m.id}>
+              {m.name}
+            </option>
+          ))}
+        </select>
+        <button type="button" className={quietButtonClass} onClick={() => save.mutate()} disabled={save.isPending}>
+          Assign
+        </button>
+      </div>
+      <div className="mt-2">
+        <FormMessage error={message.error} ok={message.ok} />
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,112 @@
+"use client";
+
+import { useQuery } from "@tanstack/react-query";
+import Link from "next/link";
+import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { dayTime } from "@/app/ui/dates";
+import { StatusBadge } from "@/app/ui/status-badge";
+import { NotesPanel } from "./notes-panel";
+import { PartsPanel } from "./parts-panel";
+import { QuoteEditor } from "./quote-editor";
+import { AssignPanel, StatusPanel } from "./status-panel";
+import type { WorkOrderData } from "./types";
+
+const MAIL_KIND = { quote_ready: "Quote ready", deposit_received: "Deposit received", bike_ready: "Bike ready" } as const;
+
+export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string; currency: string; taxRateBp: number; warning?: string }) {
+  const q = useQuery({
+    queryKey: ["work-order", id],
+    queryFn: async () => {
+      const res = await fetch(`/api/office/work-orders/${id}`);
+      const data = await res.json();
+      if (!res.ok) throw new Error(data.error ?? `Failed (${res.status})`);
+      return data as WorkOrderData;
+    },
+  });
+  if (q.isLoading) return <p className="text-lg">Loading…</p>;
+  if (q.isError || !q.data) return <p role="alert" className="text-lg font-bold text-fail">{(q.error as Error)?.message ?? "Not found"}</p>;
+  const data = q.data;
+  const wo = data.workOrder;
+  return (
+    <div className="grid gap-6">
+      <header className="flex flex-wrap items-start gap-4">
+        <div className="flex-1">
+          <p>
+            <Link href="/office" className="underline">
+              ◀ Work orders
+            </Link>
+          </p>
+          <h1 className="mt-1 text-3xl font-bold">
+            <span className="font-mono">#{wo.number}</span> {wo.title}
+          </h1>
+          <p className="mt-2 flex flex-wrap items-center gap-3 text-lg">
+            <span data-testid="work-order-status">
+              <StatusBadge status={wo.status} />
+            </span>
+            <Link href={`/office/bikes/${wo.bikeId}`} className="underline">
+              {wo.make} {wo.model} {wo.year ? `(${wo.year})` : ""} · <span className="font-mono">{wo.tagCode}</span>
+            </Link>
+            <span>
+              Owner{" "}
+              <Link href={`/office/customers/${wo.customerId}`} className="underline">
+                {wo.customerName}
+              </Link>
+              {wo.customerEmail ? ` · ${wo.customerEmail}` : ""} {wo.customerPhone ? ` · ${wo.customerPhone}` : ""}
+            </span>
+          </p>
+          <p className="mt-2 text-lg">
+            <span className="font-bold">Complaint or goal:</span> {wo.complaint} {wo.odometerKm !== null && <span className="font-mono">· {wo.odometerKm.toLocaleString("en-GB")} km at intake</span>}
+          </p>
+        </div>
+      </header>
+      {warning && (
+        <p role="alert" className="rounded-lg border-2 border-warn bg-warn-light p-3 font-bold text-warn">
+          {warning}
+        </p>
+      )}
+      <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
+        <StatusPanel data={data} />
+        <AssignPanel data={data} />
+      </div>
+      <QuoteEditor key={data.quotes.map((x) => `${x.id}${x.status}`).join()} data={data} currency={currency} taxRateBp={taxRateBp} />
+      <NotesPanel data={data} />
+      <PartsPanel data={data} />
+      <section className="rounded-xl border-2 border-steel-300 bg-white p-4">
+        <h2 className="text-2xl font-bold">History</h2>
+        <ol className="mt-2 space-y-1" data-testid="transitions">
+          {wo.transitions.map((t) => (
+            <li key={t.id} className="text-lg">
+              {dayTime(t.at)} · {t.from ? `${STATUS_LABELS[t.from as WorkOrderStatus] ?? t.from} → ` : ""}
+              <span className="font-bold">{STATUS_LABELS[t.to as WorkOrderStatus] ?? t.to}</span> · {t.byName ?? "—"}
+              {t.note ? ` · “${t.note}”` : ""}
+            </li>
+          ))}
+        </ol>
+        <h3 className="mt-4 text-xl font-bold">E-mails to the customer</h3>
+        {wo.emails.length === 0 ? (
+          <p>None sent yet.</p>
+        ) : (
+          <ul className="mt-1 space-y-1" data-testid="emails">
+            {wo.emails.map((m) => (
+              <li key={m.id}>
+                {dayTime(m.at)} · {MAIL_KIND[m.kind as keyof typeof MAIL_KIND] ?? m.kind} to {m.recipient} {m.error ? <span className="font-bold text-fail">✖ not sent: {m.error}</span> : <span className="text-pass">✔ sent</span>}
+              </li>
+            ))}
+          </ul>
+        )}
+        {wo.procedures.length > 0 && (
+          <>
+            <h3 className="mt-4 text-xl font-bold">Procedures pinned</h3>
+            <ul data-testid="pinned-procedures">
+              {wo.procedures.map((p) => (
+                <li key={p.id}>
+                  {p.name} — version {p.version}
+                </li>
+              ))}
+            </ul>
+          </>
+        )}
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,42 @@
+"use client";
+
+// Browser-side calls to our route handlers. A refusal arrives as { error, issues[] } and is thrown
+// as ApiError so forms can show the message and each field's problem beside the field.
+export interface FieldIssue {
+  path: string;
+  message: string;
+}
+
+export class ApiError extends Error {
+  constructor(
+    message: string,
+    readonly status: number,
+    readonly issues: FieldIssue[] = [],
+    readonly problems: FieldIssue[] = [],
+  ) {
+    super(message);
+  }
+}
+
+export async function api<T>(method: "GET" | "POST" | "PUT", url: string, body?: unknown): Promise<T> {
+  const init: RequestInit = { method, headers: {} };
+  if (body instanceof FormData) init.body = body;
+  else if (typeof body === "string") {
+    init.body = body;
+    (init.headers as Record<string, string>)["content-type"] = "application/json";
+  } else if (body !== undefined) {
+    init.body = JSON.stringify(body);
+    (init.headers as Record<string, string>)["content-type"] = "application/json";
+  }
+  const res = await fetch(url, init);
+  const data = await res.json().catch(() => ({}));
+  if (!res.ok) throw new ApiError(data.error ?? `Request failed (${res.status})`, res.status, data.issues ?? [], data.problems ?? []);
+  return data as T;
+}
+
+// Field → first message, from zod issues (client side) or the server's issues.
+export function fieldErrors(issues: FieldIssue[]): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const i of issues) out[i.path] ??= i.message;
+  return out;
+}

@@ -1,0 +1,84 @@
+import type { Kysely } from "kysely";
+import { Refusal } from "@/lib/office/refusal";
+import { appendAudit } from "../audit";
+import type { Database } from "../schema";
+
+// Starts a deposit for the customer's approved quote: a pending row the payment provider's
+// intent is then tied to. A pending or paid deposit is reused, so a double click pays once.
+export async function openDeposit(db: Kysely<Database>, user: { id: string; shopId: string; customerId: string | null }, quoteId: string) {
+  return db.transaction().execute(async (trx) => {
+    const q = await trx
+      .selectFrom("quotes as q")
+      .innerJoin("work_orders as w", "w.id", "q.work_order_id")
+      .innerJoin("bikes as b", "b.id", "w.bike_id")
+      .select(["q.id", "q.status", "q.deposit_minor as depositMinor", "q.currency", "q.work_order_id as workOrderId", "b.customer_id as customerId", "q.shop_id as shopId", "w.number"])
+      .where("q.id", "=", quoteId)
+      .forUpdate("q")
+      .executeTakeFirst();
+    if (!q || q.shopId !== user.shopId || q.customerId !== user.customerId) throw new Refusal("This quote is not yours.", 403);
+    if (q.status !== "approved") throw new Refusal("Approve the quote before paying the deposit.", 409);
+    if (q.depositMinor <= 0) throw new Refusal("No deposit is asked for this quote.", 409);
+    const existing = await trx.selectFrom("deposits").selectAll().where("quote_id", "=", quoteId).where("status", "in", ["pending", "paid"]).executeTakeFirst();
+    if (existing?.status === "paid") throw new Refusal("The deposit is already paid.", 409);
+    const deposit =
+      existing ??
+      (await trx
+        .insertInto("deposits")
+        .values({ shop_id: q.shopId, work_order_id: q.workOrderId, quote_id: q.id, amount_minor: q.depositMinor, currency: q.currency, status: "pending", payment_intent_id: null, paid_at: null })
+        .returningAll()
+        .executeTakeFirstOrThrow());
+    return { deposit, workOrderNumber: q.number };
+  });
+}
+
+export async function attachPaymentIntent(db: Kysely<Database>, depositId: string, paymentIntentId: string) {
+  await db.updateTable("deposits").set({ payment_intent_id: paymentIntentId }).where("id", "=", depositId).where("payment_intent_id", "is", null).execute();
+}
+
+export type PaymentOutcome =
+  | { kind: "paid"; depositId: string; shopId: string; workOrderId: string }
+  | { kind: "replayed" }
+  | { kind: "ignored"; reason: string };
+
+// Applies a verified payment event exactly once. A second delivery of the same event id is
+// "replayed" (and changes nothing). Amount and currency must match the deposit.
+export async function applyPaymentEvent(
+  db: Kysely<Database>,
+  event: { id: string; type: string; paymentIntentId: string | null; amount: number | null; currency: string | null },
+): Promise<PaymentOutcome> {
+  return db.transaction().execute(async (trx) => {
+    const seen = await trx.selectFrom("payment_events").select("event_id").where("event_id", "=", event.id).executeTakeFirst();
+    if (seen) return { kind: "replayed" } as const;
+    if (event.type !== "payment_intent.succeeded" || !event.paymentIntentId) return { kind: "ignored", reason: `event type ${event.type} is not used` } as const;
+    const dep = await trx.selectFrom("deposits").selectAll().where("payment_intent_id", "=", event.paymentIntentId).forUpdate().executeTakeFirst();
+    if (!dep) return { kind: "ignored", reason: "no deposit for this payment" } as const;
+    const inserted = await trx
+      .insertInto("payment_events")
+      .values({ event_id: event.id, type: event.type, payment_intent_id: event.paymentIntentId })
+      .onConflict((oc) => oc.column("event_id").doNothing())
+      .returning("event_id")
+      .executeTakeFirst();
+    if (!inserted) return { kind: "replayed" } as const;
+    if (event.amount !== dep.amount_minor || (event.currency ?? "").toUpperCase() !== dep.currency.toUpperCase()) {
+      await appendAudit(trx, [{ shopId: dep.shop_id, actorId: null, action: "deposit.paid", entity: "deposit", entityId: dep.id, workOrderId: dep.work_order_id, outcome: "refused", reason: "amount or currency does not match", detail: { eventId: event.id } }]);
+      return { kind: "ignored", reason: "amount or currency does not match the deposit" } as const;
+    }
+    if (dep.status !== "paid") {
+      await trx.updateTable("deposits").set({ status: "paid", paid_at: new Date() }).where("id", "=", dep.id).execute();
+      await appendAudit(trx, [{ shopId: dep.shop_id, actorId: null, action: "deposit.paid", entity: "deposit", entityId: dep.id, workOrderId: dep.work_order_id, outcome: "accepted", detail: { eventId: event.id, paymentIntentId: event.paymentIntentId } }]);
+    }
+    return { kind: "paid", depositId: dep.id, shopId: dep.shop_id, workOrderId: dep.work_order_id } as const;
+  });
+}
+
+export async function depositForCustomer(db: Kysely<Database>, user: { shopId: string; customerId: string | null }, depositId: string) {
+  return db
+    .selectFrom("deposits as d")
+    .innerJoin("work_orders as w", "w.id", "d.work_order_id")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .select(["d.id", "d.status", "d.amount_minor as amountMinor", "d.currency", "d.paid_at as paidAt"])
+    .where("d.id", "=", depositId)
+    .where("d.shop_id", "=", user.shopId)
+    .where("b.customer_id", "=", user.customerId ?? "00000000-0000-0000-0000-000000000000")
+    .executeTakeFirst();
+}

@@ -1,0 +1,47 @@
+import type { Kysely, Transaction } from "kysely";
+import { Refusal } from "@/lib/office/refusal";
+import type { Database } from "../schema";
+
+// The final invoice at handover: the approved quote's totals less the deposits paid. One per job.
+export async function createFinalInvoice(trx: Kysely<Database> | Transaction<Database>, shopId: string, userId: string, workOrderId: string) {
+  const existing = await trx.selectFrom("invoices").selectAll().where("work_order_id", "=", workOrderId).executeTakeFirst();
+  if (existing) return existing;
+  const q = await trx
+    .selectFrom("quotes")
+    .selectAll()
+    .where("work_order_id", "=", workOrderId)
+    .where("shop_id", "=", shopId)
+    .where("status", "=", "approved")
+    .orderBy("version", "desc")
+    .executeTakeFirst();
+  if (!q) throw new Refusal("There is no approved quote to invoice.", 409);
+  const paid = await trx
+    .selectFrom("deposits")
+    .select((eb) => eb.fn.coalesce(eb.fn.sum<number>("amount_minor"), eb.lit(0)).as("s"))
+    .where("quote_id", "=", q.id)
+    .where("status", "=", "paid")
+    .executeTakeFirstOrThrow();
+  const last = await trx.selectFrom("invoices").select((eb) => eb.fn.max("number").as("n")).where("shop_id", "=", shopId).executeTakeFirst();
+  const depositsPaid = Number(paid.s);
+  return trx
+    .insertInto("invoices")
+    .values({
+      shop_id: shopId,
+      work_order_id: workOrderId,
+      quote_id: q.id,
+      number: (last?.n ?? 5000) + 1,
+      currency: q.currency,
+      subtotal_minor: q.subtotal_minor,
+      tax_minor: q.tax_minor,
+      total_minor: q.total_minor,
+      deposits_paid_minor: depositsPaid,
+      balance_due_minor: q.total_minor - depositsPaid,
+      created_by: userId,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
+export async function invoiceOf(db: Kysely<Database>, shopId: string, workOrderId: string) {
+  return db.selectFrom("invoices").selectAll().where("work_order_id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
+}

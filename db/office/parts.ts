@@ -1,0 +1,70 @@
+import type { Kysely } from "kysely";
+import { partFittedSchema } from "@/lib/office/schemas";
+import { Refusal } from "@/lib/office/refusal";
+import type { z } from "zod";
+import type { Database } from "../schema";
+
+export async function addPartFitted(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, input: z.input<typeof partFittedSchema>) {
+  const p = partFittedSchema.parse(input);
+  const wo = await db.selectFrom("work_orders").select("id").where("id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
+  if (!wo) throw new Refusal("No such work order in this shop.", 404);
+  if (p.stepId) {
+    const step = await db
+      .selectFrom("template_steps as s")
+      .innerJoin("job_procedures as j", "j.template_version_id", "s.template_version_id")
+      .select("s.id")
+      .where("s.id", "=", p.stepId)
+      .where("j.work_order_id", "=", workOrderId)
+      .executeTakeFirst();
+    if (!step) throw new Refusal("That step is not part of this job's procedures.", 422, [{ path: "stepId", message: "not a step of this job" }]);
+  }
+  return db
+    .insertInto("parts_fitted")
+    .values({ shop_id: shopId, work_order_id: workOrderId, step_id: p.stepId, part_number: p.partNumber, description: p.description, supplier: p.supplier, serial: p.serial, batch: p.batch, quantity: p.quantity, fitted_by: userId })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+}
+
+// "Which bikes got batch X?" — one query: every fitting of a part whose batch or serial matches
+// exactly (case-insensitive), with the bike, its owner and the work order.
+export async function bikesWithPart(db: Kysely<Database>, shopId: string, code: string, field: "batch" | "serial" | "part_number" = "batch") {
+  return db
+    .selectFrom("parts_fitted as p")
+    .innerJoin("work_orders as w", "w.id", "p.work_order_id")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .innerJoin("customers as c", "c.id", "b.customer_id")
+    .select([
+      "p.id",
+      "p.part_number as partNumber",
+      "p.description",
+      "p.supplier",
+      "p.serial",
+      "p.batch",
+      "p.fitted_at as fittedAt",
+      "w.id as workOrderId",
+      "w.number as workOrderNumber",
+      "b.id as bikeId",
+      "b.tag_code as tagCode",
+      "b.make",
+      "b.model",
+      "c.name as customerName",
+    ])
+    .where("p.shop_id", "=", shopId)
+    .where((eb) => eb(eb.fn("lower", [`p.${field}`]), "=", code.trim().toLowerCase()))
+    .orderBy("b.tag_code")
+    .orderBy("p.fitted_at")
+    .execute();
+}
+
+// Steps of the job's pinned procedures, for "which step fitted this part".
+export async function stepsOfJob(db: Kysely<Database>, workOrderId: string) {
+  return db
+    .selectFrom("template_steps as s")
+    .innerJoin("job_procedures as j", "j.template_version_id", "s.template_version_id")
+    .select(["s.id", "s.title", "s.stage_title as stageTitle", "j.position"])
+    .where("j.work_order_id", "=", workOrderId)
+    .orderBy("j.position")
+    .orderBy("s.stage_position")
+    .orderBy("s.position")
+    .execute();
+}

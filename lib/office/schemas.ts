@@ -1,0 +1,148 @@
+import { z } from "zod";
+import { MAX_MINOR } from "../money/quote-totals";
+import { WORK_ORDER_STATUSES } from "../work-orders/status";
+
+// zod schemas for every office form and route body. Messages name the field's problem in
+// plain words; the forms show them beside the field.
+
+const optionalText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `keep it under ${max} characters`)
+    .transform((v) => (v === "" ? null : v))
+    .nullable()
+    .default(null);
+
+export const customerSchema = z.object({
+  name: z.string().trim().min(2, "enter the customer's name").max(120, "keep the name under 120 characters"),
+  email: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .max(200)
+    .refine((v) => v === "" || z.email().safeParse(v).success, "enter a valid e-mail address, or leave it empty")
+    .transform((v) => (v === "" ? null : v))
+    .nullable()
+    .default(null),
+  phone: z
+    .string()
+    .trim()
+    .max(40, "keep the phone number under 40 characters")
+    .refine((v) => v === "" || /^[+0-9 ()-]{5,}$/.test(v), "use digits, spaces, +, ( ) and - only")
+    .transform((v) => (v === "" ? null : v))
+    .nullable()
+    .default(null),
+  notes: z.string().trim().max(2000).default(""),
+});
+export type CustomerInput = z.input<typeof customerSchema>;
+
+const currentYear = new Date().getUTCFullYear();
+const optionalInt = (label: string, min: number, max: number) =>
+  z
+    .union([z.number(), z.string()])
+    .transform((v, ctx) => {
+      if (v === "" || v === null) return null;
+      const n = typeof v === "number" ? v : Number(v);
+      if (!Number.isInteger(n) || n < min || n > max) {
+        ctx.addIssue({ code: "custom", message: `${label} must be a whole number from ${min} to ${max}` });
+        return z.NEVER;
+      }
+      return n;
+    })
+    .nullable()
+    .default(null);
+
+export const TAG_CODE_PATTERN = /^[A-Z0-9][A-Z0-9-]{2,19}$/;
+
+export const bikeSchema = z.object({
+  customerId: z.uuid("choose the owner"),
+  make: z.string().trim().min(1, "enter the make").max(60),
+  model: z.string().trim().min(1, "enter the model").max(80),
+  year: optionalInt("year", 1900, currentYear + 1),
+  vin: optionalText(40),
+  engineNumber: optionalText(40),
+  displacementCc: optionalInt("displacement", 30, 5000),
+  colour: optionalText(40),
+  tagCode: z
+    .string()
+    .trim()
+    .toUpperCase()
+    .refine((v) => v === "" || TAG_CODE_PATTERN.test(v), "a tag code is 3–20 capital letters, digits and dashes")
+    .default(""), // empty: the next free shop tag is given
+  notes: z.string().trim().max(2000).default(""),
+});
+export type BikeInput = z.input<typeof bikeSchema>;
+
+export const intakeSchema = z.object({
+  bikeId: z.uuid("choose the bike"),
+  title: z.string().trim().min(3, "say in a few words what the job is").max(160),
+  complaint: z.string().trim().min(3, "write down the customer's complaint or goal").max(4000),
+  odometerKm: z
+    .union([z.number(), z.string()])
+    .transform((v, ctx) => {
+      const n = typeof v === "number" ? v : v.trim() === "" ? NaN : Number(v);
+      if (!Number.isInteger(n) || n < 0 || n > 2_000_000) {
+        ctx.addIssue({ code: "custom", message: "enter the odometer reading in km as a whole number" });
+        return z.NEVER;
+      }
+      return n;
+    }),
+});
+export type IntakeInput = z.input<typeof intakeSchema>;
+
+export const transitionSchema = z.object({
+  to: z.enum(WORK_ORDER_STATUSES, "unknown status"),
+  note: z.string().trim().max(1000).default(""),
+  templateVersionIds: z.array(z.uuid()).max(10).default([]),
+});
+
+export const assignSchema = z.object({ mechanicId: z.uuid("choose a mechanic").nullable() });
+
+export const noteSchema = z.object({
+  kind: z.enum(["intake", "teardown", "general"]),
+  body: z.string().trim().min(2, "write the finding").max(4000),
+});
+
+export const quoteLineSchema = z.object({
+  kind: z.enum(["part", "labour"], "choose part or labour"),
+  description: z.string().trim().min(2, "describe the line").max(200),
+  partNumber: optionalText(60),
+  quantityHundredths: z.number().int("quantity may have two decimals at most").min(1, "quantity must be more than 0").max(100_000_00),
+  unitPriceMinor: z.number().int("price may have two decimals at most").min(0, "price cannot be negative").max(MAX_MINOR),
+});
+
+export const quoteDraftSchema = z.object({
+  lines: z.array(quoteLineSchema).min(1, "add at least one line").max(200),
+  depositMinor: z.number().int().min(0, "the deposit cannot be negative").max(MAX_MINOR),
+  note: z.string().trim().max(2000).default(""),
+});
+export type QuoteDraftInput = z.input<typeof quoteDraftSchema>;
+
+export const partFittedSchema = z.object({
+  partNumber: z.string().trim().min(1, "enter the part number").max(60),
+  description: z.string().trim().max(200).default(""),
+  supplier: z.string().trim().max(120).default(""),
+  serial: optionalText(80),
+  batch: optionalText(80),
+  quantity: z.number().int().min(1).max(1000).default(1),
+  stepId: z.uuid().nullable().default(null),
+});
+
+export const pageQuerySchema = z.object({
+  page: z.coerce.number().int().min(0).max(100_000).default(0),
+  size: z.coerce.number().int().min(1).max(100).default(20),
+  q: z.string().trim().max(100).default(""),
+  sort: z.string().max(40).default(""),
+  dir: z.enum(["asc", "desc"]).default("desc"),
+  status: z.enum(WORK_ORDER_STATUSES).optional(),
+});
+
+// Flat list of problems for a form: `path` is the field ("lines.2.unitPriceMinor"), `message` the problem.
+export interface FieldIssue {
+  path: string;
+  message: string;
+}
+export function issuesOf(error: z.ZodError): FieldIssue[] {
+  return error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message }));
+}

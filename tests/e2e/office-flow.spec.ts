@@ -1,0 +1,99 @@
+import { expect, test } from "@playwright/test";
+import { demoUser, signIn } from "./support/demo-users";
+import { expectMail, paymentEvents, TINY_PNG, webhookDeliveries } from "./support/fakes";
+
+// The whole office journey on the demo workshop: a new bike for a customer, intake with a photo,
+// inspection, a quote, the customer's approval and deposit through the fake payment service,
+// then the job goes in build with a mechanic and a pinned template.
+test("intake → quote → customer approval → deposit paid → in build", async ({ browser }) => {
+  test.setTimeout(120_000);
+  const felix = demoUser("customer");
+  const office = await (await browser.newContext()).newPage();
+  await signIn(office, "office");
+
+  // a new bike for Felix; the form checks fields inline first
+  await office.getByRole("link", { name: "Customers" }).click();
+  await office.getByRole("link", { name: felix.name }).click();
+  await office.getByText("Add a bike").click();
+  await office.getByRole("button", { name: "Add bike" }).click();
+  await expect(office.getByTestId("error-bike-make")).toHaveText("✖ enter the make");
+  await office.getByLabel("Make").fill("Marlin");
+  await office.getByLabel("Model").fill("Sixty Sport");
+  await office.getByLabel("Year").fill("20x9");
+  await office.getByRole("button", { name: "Add bike" }).click();
+  await expect(office.getByTestId("error-bike-year")).toContainText("year must be a whole number");
+  await office.getByLabel("Year").fill("2019");
+  await office.getByRole("button", { name: "Add bike" }).click();
+  await expect(office.getByTestId("form-ok")).toContainText("Bike added with tag GSW-0006");
+
+  // book it in, with a condition photo; an empty form is refused field by field
+  await office.getByTestId("customer-bike").filter({ hasText: "GSW-0006" }).getByRole("link", { name: "Book in" }).click();
+  await office.getByRole("button", { name: "Book in" }).click();
+  await expect(office.getByTestId("error-title")).toBeVisible();
+  await expect(office.getByTestId("error-odometerKm")).toHaveText("✖ enter the odometer reading in km as a whole number");
+  await office.getByLabel("Job in a few words").fill("Turbo conversion and intercooler");
+  await office.getByLabel("Customer's complaint or goal").fill("Wants a reliable 9 psi road build with an intercooler.");
+  await office.getByLabel("Odometer (km)").fill("18250");
+  await office.getByLabel("Condition photos").setInputFiles({ name: "left-side.png", mimeType: "image/png", buffer: TINY_PNG });
+  await office.getByRole("button", { name: "Book in" }).click();
+  await expect(office.getByRole("heading", { level: 1 })).toContainText("#1006 Turbo conversion and intercooler");
+  await expect(office.getByTestId("work-order-status")).toContainText("Booked in");
+  const photo = office.getByTestId("note-photo").first();
+  await expect(photo).toBeVisible();
+  expect(await photo.evaluate((img: HTMLImageElement) => img.naturalWidth)).toBe(8);
+
+  // the flow offers only legal moves; inspect
+  await expect(office.getByRole("button", { name: "→ In build" })).toHaveCount(0);
+  await office.getByRole("button", { name: "→ Inspected" }).click();
+  await expect(office.getByTestId("work-order-status")).toContainText("Inspected");
+
+  // the quote: labour 2.5 h × £68.00 = £170.00, gasket set £45.99 → subtotal £215.99,
+  // VAT 20 % = £43.198 → £43.20 (half-up), total £259.19
+  await office.getByLabel("Line 1 type").selectOption("labour");
+  await office.getByLabel("Line 1 description").fill("Strip, inspect and fit the kit");
+  await office.getByLabel("Line 1 quantity").fill("2.5");
+  await office.getByLabel("Line 1 unit price").fill("68.00");
+  await office.getByRole("button", { name: "+ Add a line" }).click();
+  await office.getByLabel("Line 2 description").fill("Gasket set");
+  await office.getByLabel("Line 2 unit price").fill("45.99");
+  await office.getByLabel("Deposit asked").fill("50.00");
+  await expect(office.getByTestId("quote-totals")).toContainText("£215.99");
+  await expect(office.getByTestId("quote-totals")).toContainText("£43.20");
+  await expect(office.getByTestId("quote-total")).toHaveText("£259.19");
+  await office.getByRole("button", { name: "Send to the customer" }).click();
+  await expect(office.getByTestId("work-order-status")).toContainText("Quoted");
+  await expect(office.getByTestId("quote-version").first()).toContainText("Sent — waiting for the customer");
+  await expectMail(felix.email, "Your quote for work order 1006 is ready");
+
+  // the customer approves and pays the deposit from their own sign-in
+  const customer = await (await browser.newContext()).newPage();
+  await signIn(customer, "customer");
+  const card = customer.getByTestId("my-work-order").filter({ hasText: "#1006" });
+  await expect(card.getByTestId("customer-quote-total")).toHaveText("£259.19");
+  await card.getByRole("button", { name: "Approve this quote" }).click();
+  await card.getByRole("button", { name: "Pay the deposit (£50.00)" }).click();
+  await expect(card.getByTestId("deposit-status")).toHaveText("✔ Deposit paid. Thank you.", { timeout: 15_000 });
+
+  // the payment event is in the fake, and its signed webhook reached the app and was accepted
+  const events = await paymentEvents();
+  const paid = events.find((e) => e.type === "payment_intent.succeeded" && e.data.object.amount === 5000 && e.data.object.currency === "gbp");
+  expect(paid).toBeTruthy();
+  const delivery = (await webhookDeliveries()).find((d) => d.eventId === paid!.id && d.url.endsWith("/api/payments/webhook") && d.url.includes(`:${process.env.E2E_PORT ?? 3100}/`));
+  expect(delivery?.status).toBe(200);
+  await expectMail(felix.email, "Deposit received for work order 1006");
+
+  // back in the office: the deposit shows paid; assign, pin a template, start the build
+  await office.reload();
+  await expect(office.getByTestId("deposit-state").first()).toContainText("✔ Deposit £50.00 paid");
+  await office.getByRole("button", { name: "→ In build" }).click();
+  await expect(office.getByTestId("form-error")).toContainText("Assign a mechanic before the job goes in build.");
+  await office.locator("#mechanic").selectOption({ label: "Tomas Reyes" });
+  await office.getByRole("button", { name: "Assign" }).click();
+  await expect(office.getByText("Mechanic saved.")).toBeVisible();
+  await office.getByLabel(/Turbo kit and intercooler fitting/).check();
+  await office.getByRole("button", { name: "→ In build" }).click();
+  await expect(office.getByTestId("work-order-status")).toContainText("In build");
+  await expect(office.getByTestId("pinned-procedures")).toContainText("Turbo kit and intercooler fitting — version 1");
+  await expect(office.getByTestId("transitions")).toContainText("Approved → In build · Maren Ostby");
+  await expect(office.getByTestId("transitions")).toContainText("Quoted → Approved · Felix Amadi");
+});

@@ -1,0 +1,140 @@
+import http from "node:http";
+import type { AddressInfo } from "node:net";
+import Stripe from "stripe";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { handlePaymentWebhook } from "@/app/_server/payment-webhook";
+import { paymentsClient, startDepositPayment } from "@/app/_server/payments";
+import { createBike } from "@/db/office/bikes";
+import { attachPaymentIntent, openDeposit } from "@/db/office/deposits";
+import { approveQuoteAsCustomer, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
+import { bookIn, moveWorkOrder } from "@/db/office/work-orders";
+import { createShopFixture } from "./support/shop-fixture";
+import { mailTo, useFakes } from "./support/fakes";
+import { useTestDb } from "./support/test-db";
+
+const db = useTestDb();
+const SECRET = "whsec_benchtag_local";
+let ports: ReturnType<typeof useFakes>;
+beforeAll(() => {
+  ports = useFakes();
+});
+
+// A job with an approved quote and a pending deposit of 5000 (GBP pence) tied to payment intent `pi`.
+async function jobWithPendingDeposit(pi: string) {
+  const fx = await createShopFixture(db, { status: "handed_over" });
+  await db.updateTable("shops").set({ currency: "GBP" }).where("id", "=", fx.shopId).execute();
+  const bike = await createBike(db, fx.shopId, { customerId: fx.customerId, make: "Corvid", model: "RX1000" });
+  const wo = await bookIn(db, fx.shopId, fx.users.office.id, { bikeId: bike.id, title: "Rebuild", complaint: "Smoke", odometerKm: 10 });
+  await moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "inspected");
+  await saveQuoteDraft(db, fx.shopId, fx.users.office.id, wo.id, { lines: [{ kind: "labour", description: "Rebuild", quantityHundredths: 1000, unitPriceMinor: 7000 }], depositMinor: 5000 });
+  const { quoteId } = await sendQuote(db, fx.shopId, fx.users.office.id, wo.id);
+  const cust = { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId };
+  await approveQuoteAsCustomer(db, cust, quoteId);
+  const { deposit } = await openDeposit(db, cust, quoteId);
+  if (pi) await attachPaymentIntent(db, deposit.id, pi);
+  return { fx, wo, deposit, quoteId, cust };
+}
+
+function succeededEvent(pi: string, amount = 5000, id = `evt_test_${Math.random().toString(36).slice(2)}`) {
+  return JSON.stringify({ id, object: "event", type: "payment_intent.succeeded", created: Math.floor(Date.now() / 1000), data: { object: { id: pi, object: "payment_intent", amount, currency: "gbp", status: "succeeded" } } });
+}
+const sign = (payload: string, secret = SECRET, timestamp?: number) => Stripe.webhooks.generateTestHeaderString({ payload, secret, timestamp });
+const depositStatus = async (id: string) => (await db.selectFrom("deposits").select("status").where("id", "=", id).executeTakeFirstOrThrow()).status;
+
+describe("payment webhook signature checks", () => {
+  it("accepts a correctly signed event and marks the deposit paid", async () => {
+    const pi = `pi_test_${Date.now()}a`;
+    const { deposit } = await jobWithPendingDeposit(pi);
+    const body = succeededEvent(pi);
+    const answer = await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
+    expect(answer).toEqual({ status: 200, body: { received: true, outcome: "deposit paid" } });
+    expect(await depositStatus(deposit.id)).toBe("paid");
+  });
+
+  it("refuses an unsigned event", async () => {
+    const pi = `pi_test_${Date.now()}b`;
+    const { deposit } = await jobWithPendingDeposit(pi);
+    const answer = await handlePaymentWebhook(db, succeededEvent(pi), null, { secret: SECRET, sendMail: false });
+    expect(answer.status).toBe(400);
+    expect(answer.body.error).toMatch(/missing Stripe-Signature/);
+    expect(await depositStatus(deposit.id)).toBe("pending");
+  });
+
+  it("refuses an event signed with another secret, and one whose body was altered after signing", async () => {
+    const pi = `pi_test_${Date.now()}c`;
+    const { deposit } = await jobWithPendingDeposit(pi);
+    const body = succeededEvent(pi);
+    const wrong = await handlePaymentWebhook(db, body, sign(body, "whsec_someone_else"), { secret: SECRET, sendMail: false });
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.error).toMatch(/signature/i);
+    const altered = await handlePaymentWebhook(db, body.replace('"amount":5000', '"amount":1'), sign(body), { secret: SECRET, sendMail: false });
+    expect(altered.status).toBe(400);
+    expect(await depositStatus(deposit.id)).toBe("pending");
+  });
+
+  it("refuses a stale event (signed more than five minutes ago)", async () => {
+    const pi = `pi_test_${Date.now()}d`;
+    const { deposit } = await jobWithPendingDeposit(pi);
+    const body = succeededEvent(pi);
+    const answer = await handlePaymentWebhook(db, body, sign(body, SECRET, Math.floor(Date.now() / 1000) - 600), { secret: SECRET, sendMail: false });
+    expect(answer.status).toBe(400);
+    expect(answer.body.error).toMatch(/tolerance/i);
+    expect(await depositStatus(deposit.id)).toBe("pending");
+  });
+
+  it("refuses a replayed event id, even re-signed, and changes nothing more", async () => {
+    const pi = `pi_test_${Date.now()}e`;
+    const { deposit } = await jobWithPendingDeposit(pi);
+    const body = succeededEvent(pi, 5000, `evt_replay_${Date.now()}`);
+    expect((await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false })).status).toBe(200);
+    const paidAt = (await db.selectFrom("deposits").select("paid_at").where("id", "=", deposit.id).executeTakeFirstOrThrow()).paid_at;
+    const again = await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
+    expect(again).toEqual({ status: 409, body: { error: "Webhook refused: event already processed" } });
+    const after = (await db.selectFrom("deposits").select("paid_at").where("id", "=", deposit.id).executeTakeFirstOrThrow()).paid_at;
+    expect(after).toEqual(paidAt);
+  });
+
+  it("does not mark a deposit paid when the amount differs", async () => {
+    const pi = `pi_test_${Date.now()}f`;
+    const { deposit } = await jobWithPendingDeposit(pi);
+    const body = succeededEvent(pi, 4999);
+    const answer = await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
+    expect(answer.body.outcome).toMatch(/amount or currency does not match/);
+    expect(await depositStatus(deposit.id)).toBe("pending");
+  });
+});
+
+describe("deposit through the SDK against the local fake payment service", () => {
+  let server: http.Server;
+  let url: string;
+  beforeAll(async () => {
+    server = http.createServer(async (req, res) => {
+      const chunks: Buffer[] = [];
+      for await (const c of req) chunks.push(c as Buffer);
+      const a = await handlePaymentWebhook(db, Buffer.concat(chunks).toString("utf8"), (req.headers["stripe-signature"] as string) ?? null);
+      res.writeHead(a.status, { "content-type": "application/json" }).end(JSON.stringify(a.body));
+    });
+    await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
+    url = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/payments/webhook`;
+    await paymentsClient().webhookEndpoints.create({ url, enabled_events: ["payment_intent.succeeded"] });
+  });
+  afterAll(() => new Promise<void>((r) => server.close(() => r())));
+
+  it("creates and confirms a PaymentIntent; the fake's signed webhook marks the deposit paid and the customer is e-mailed", async () => {
+    const { fx, wo, deposit } = await jobWithPendingDeposit("");
+    const intent = await startDepositPayment({ depositId: deposit.id, amountMinor: 5000, currency: "GBP", shopId: fx.shopId, workOrderId: wo.id, description: "deposit" });
+    expect(intent.status).toBe("succeeded");
+    await attachPaymentIntent(db, deposit.id, intent.id);
+    // the fake delivers the event shortly after confirming; wait for the deposit to turn paid
+    const until = Date.now() + 5000;
+    while ((await depositStatus(deposit.id)) !== "paid" && Date.now() < until) await new Promise((r) => setTimeout(r, 100));
+    expect(await depositStatus(deposit.id)).toBe("paid");
+    const events = await paymentsClient().events.list({ limit: 20 });
+    expect(events.data.some((e) => e.type === "payment_intent.succeeded" && (e.data.object as { id: string }).id === intent.id)).toBe(true);
+    const retrieved = await paymentsClient().paymentIntents.retrieve(intent.id);
+    expect(retrieved).toMatchObject({ amount: 5000, currency: "gbp", status: "succeeded", metadata: { deposit_id: deposit.id } });
+    const customer = await db.selectFrom("customers").select("email").where("id", "=", fx.customerId).executeTakeFirstOrThrow();
+    const mails = await mailTo(ports.mailWeb, customer.email!);
+    expect(mails.map((m) => m.subject)).toContain(`Deposit received for work order ${wo.number}`);
+  });
+});
