@@ -85,7 +85,7 @@ export async function stageOutOfTolerance(db: Db, workOrderId: string, templateV
     readingId: x.id,
     stepId: x.step_id,
     stepTitle: x.step_title,
-    description: `${x.label}, ${readingLabelOf(x.reading_labels, x.reading_index)}: ${x.value} ${x.unit} (${x.verdict}; limits ${x.min}–${x.max} ${x.unit})`,
+    description: `${x.reading_labels.length ? `${x.label}, ${readingLabelOf(x.reading_labels, x.reading_index)}` : x.label}: ${x.value} ${x.unit} (${x.verdict}; limits ${x.min}–${x.max} ${x.unit})`,
     value: x.value,
     unit: x.unit,
     verdict: x.verdict,

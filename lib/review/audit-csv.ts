@@ -64,5 +64,6 @@ export function auditCsvChunk(rows: readonly AuditCsvSource[], header: boolean):
     { fields: [...AUDIT_CSV_COLUMNS], data },
     { header, newline: "\r\n", quotes: false, escapeFormulae: true },
   );
-  return text ? `${text}\r\n` : "";
+  if (!text) return "";
+  return text.endsWith("\r\n") ? text : `${text}\r\n`;
 }
