@@ -29,7 +29,7 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
       onDecided(
         r.decision === "approved"
           ? "Approved. The decision is on record."
-          : `Sent back. ${r.reopenedStepIds.length} step${r.reopenedStepIds.length === 1 ? "" : "s"} reopen on the mechanic's tablet at its next sync.`,
+          : `Sent back. ${r.reopenedStepIds.length === 1 ? "1 step reopens" : `${r.reopenedStepIds.length} steps reopen`} on the mechanic's tablet at its next sync.`,
       );
       window.dispatchEvent(new Event(REVIEW_COUNT_EVENT));
     },

@@ -92,7 +92,7 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
       {standing && !changing ? (
         r.mayDecide && (
           <button type="button" className={`${quietButtonClass} self-start`} onClick={() => { setMessage(null); setChanging(true); }}>
-            Make a new decision (it replaces the one above)
+            Make a new decision (it replaces the standing one)
           </button>
         )
       ) : (
