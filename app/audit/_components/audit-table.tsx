@@ -26,12 +26,16 @@ const columns: ColumnDef<AuditRow, unknown>[] = [
     cell: ({ row }) => (
       <span>
         {row.original.actorName ?? "Benchtag"}
-        {row.original.actorRole && <span className="block text-sm text-steel-700">{row.original.actorRole}</span>}
+        {(row.original.actorRole || row.original.deviceId) && (
+          <span className="block text-sm text-steel-700">
+            {row.original.actorRole}
+            {row.original.deviceId && <span className="block font-mono">tablet {row.original.deviceId}</span>}
+          </span>
+        )}
       </span>
     ),
   },
-  { id: "device", header: "Tablet", enableSorting: false, cell: ({ row }) => <span className="font-mono text-sm">{row.original.deviceId ?? "—"}</span> },
-  { id: "action", header: "What", cell: ({ row }) => <span className="font-mono text-sm">{row.original.action}</span> },
+  { id: "action", header: "What", cell: ({ row }) => <span className="break-all font-mono text-sm">{row.original.action}</span> },
   {
     id: "outcome",
     header: "Outcome",

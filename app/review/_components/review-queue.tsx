@@ -26,7 +26,7 @@ const columns: ColumnDef<QueueRow, unknown>[] = [
     header: "Bike",
     cell: ({ row }) => (
       <span>
-        {row.original.make} {row.original.model} <span className="font-mono text-steel-700">{row.original.tagCode}</span>
+        {row.original.make} {row.original.model} <span className="block whitespace-nowrap font-mono text-steel-700">{row.original.tagCode}</span>
       </span>
     ),
   },
