@@ -41,6 +41,7 @@ export async function handlePaymentWebhook(
     return { status: 409, body: { error: "Webhook refused: event already processed" } };
   }
   if (outcome.kind === "ignored") return { status: 200, body: { received: true, outcome: `ignored: ${outcome.reason}` } };
+  if (outcome.kind === "failed") return { status: 200, body: { received: true, outcome: "deposit payment failed" } };
   if (opts.sendMail !== false) await mailDepositReceived(db, outcome.shopId, outcome.workOrderId, (obj?.amount as number) ?? 0);
   return { status: 200, body: { received: true, outcome: "deposit paid" } };
 }

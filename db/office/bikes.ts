@@ -98,10 +98,22 @@ export async function bikeRecord(db: Kysely<Database>, shopId: string, bikeId: s
     .selectFrom("measurements as m")
     .innerJoin("work_orders as w", "w.id", "m.work_order_id")
     .innerJoin("measurement_specs as ms", "ms.id", "m.spec_id")
-    .select(["m.id", "w.number as workOrderNumber", "ms.label", "m.reading_index as readingIndex", "m.value", "m.unit", "m.verdict", "m.device_time as at", "ms.min", "ms.max"])
+    .select(({ exists, selectFrom }) => [
+      "m.id",
+      "w.number as workOrderNumber",
+      "ms.label",
+      "m.reading_index as readingIndex",
+      "m.value",
+      "m.unit",
+      "m.verdict",
+      "m.device_time as at",
+      "ms.min",
+      "ms.max",
+      // every reading ever taken is kept; a corrected one is marked, not hidden
+      exists(selectFrom("measurements as later").select("later.id").whereRef("later.supersedes_id", "=", "m.id")).as("superseded"),
+    ])
     .where("w.bike_id", "=", bikeId)
     .where("w.shop_id", "=", shopId)
-    .where(({ not, exists, selectFrom }) => not(exists(selectFrom("measurements as later").select("later.id").whereRef("later.supersedes_id", "=", "m.id"))))
     .orderBy("m.device_time", "desc")
     .limit(500)
     .execute();

@@ -3,6 +3,7 @@ import type { CustomerInput } from "@/lib/office/schemas";
 import { customerSchema } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/office/refusal";
 import type { Database } from "../schema";
+import { containsPattern } from "./search";
 
 export interface PageOpts {
   page: number;
@@ -18,7 +19,7 @@ const CUSTOMER_SORTS = { name: "c.name", created: "c.created_at", bikes: "bikeCo
 export async function pageCustomers(db: Kysely<Database>, shopId: string, o: PageOpts) {
   let base = db.selectFrom("customers as c").where("c.shop_id", "=", shopId);
   if (o.q) {
-    const like = `%${o.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+    const like = containsPattern(o.q);
     base = base.where((eb) =>
       eb.or([
         eb("c.name", "ilike", like),

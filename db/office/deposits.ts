@@ -37,6 +37,7 @@ export async function attachPaymentIntent(db: Kysely<Database>, depositId: strin
 
 export type PaymentOutcome =
   | { kind: "paid"; depositId: string; shopId: string; workOrderId: string }
+  | { kind: "failed"; depositId: string }
   | { kind: "replayed" }
   | { kind: "ignored"; reason: string };
 
@@ -49,7 +50,8 @@ export async function applyPaymentEvent(
   return db.transaction().execute(async (trx) => {
     const seen = await trx.selectFrom("payment_events").select("event_id").where("event_id", "=", event.id).executeTakeFirst();
     if (seen) return { kind: "replayed" } as const;
-    if (event.type !== "payment_intent.succeeded" || !event.paymentIntentId) return { kind: "ignored", reason: `event type ${event.type} is not used` } as const;
+    const used = event.type === "payment_intent.succeeded" || event.type === "payment_intent.payment_failed";
+    if (!used || !event.paymentIntentId) return { kind: "ignored", reason: `event type ${event.type} is not used` } as const;
     const dep = await trx.selectFrom("deposits").selectAll().where("payment_intent_id", "=", event.paymentIntentId).forUpdate().executeTakeFirst();
     if (!dep) return { kind: "ignored", reason: "no deposit for this payment" } as const;
     const inserted = await trx
@@ -59,6 +61,14 @@ export async function applyPaymentEvent(
       .returning("event_id")
       .executeTakeFirst();
     if (!inserted) return { kind: "replayed" } as const;
+    if (event.type === "payment_intent.payment_failed") {
+      // a declined card: the deposit can be paid again (a new deposit row and payment intent)
+      if (dep.status === "pending") {
+        await trx.updateTable("deposits").set({ status: "failed" }).where("id", "=", dep.id).execute();
+        await appendAudit(trx, [{ shopId: dep.shop_id, actorId: null, action: "deposit.failed", entity: "deposit", entityId: dep.id, workOrderId: dep.work_order_id, outcome: "accepted", detail: { eventId: event.id } }]);
+      }
+      return { kind: "failed", depositId: dep.id } as const;
+    }
     if (event.amount !== dep.amount_minor || (event.currency ?? "").toUpperCase() !== dep.currency.toUpperCase()) {
       await appendAudit(trx, [{ shopId: dep.shop_id, actorId: null, action: "deposit.paid", entity: "deposit", entityId: dep.id, workOrderId: dep.work_order_id, outcome: "refused", reason: "amount or currency does not match", detail: { eventId: event.id } }]);
       return { kind: "ignored", reason: "amount or currency does not match the deposit" } as const;

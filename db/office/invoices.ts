@@ -1,6 +1,15 @@
 import type { Kysely, Transaction } from "kysely";
 import { Refusal } from "@/lib/office/refusal";
 import type { Database } from "../schema";
+import { moveWorkOrder } from "./work-orders";
+
+// Handover: the move to "handed over" and the final invoice, together or not at all.
+export async function handOver(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, note = "") {
+  return db.transaction().execute(async (trx) => {
+    await moveWorkOrder(trx, shopId, userId, workOrderId, "handed_over", { note });
+    return createFinalInvoice(trx, shopId, userId, workOrderId);
+  });
+}
 
 // The final invoice at handover: the approved quote's totals less the deposits paid. One per job.
 export async function createFinalInvoice(trx: Kysely<Database> | Transaction<Database>, shopId: string, userId: string, workOrderId: string) {

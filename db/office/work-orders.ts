@@ -5,6 +5,7 @@ import { checkTransition } from "@/lib/work-orders/transition-rules";
 import { isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit";
 import type { Database } from "../schema";
+import { containsPattern } from "./search";
 import type { PageOpts } from "./customers";
 
 type Trx = Transaction<Database>;
@@ -20,7 +21,7 @@ export async function pageWorkOrders(db: Kysely<Database>, shopId: string, o: Pa
     .where("w.shop_id", "=", shopId);
   if (o.status) base = base.where("w.status", "=", o.status);
   if (o.q) {
-    const like = `%${o.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+    const like = containsPattern(o.q);
     base = base.where((eb) =>
       eb.or([
         eb("w.title", "ilike", like),

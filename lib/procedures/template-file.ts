@@ -29,7 +29,7 @@ export type TemplateFileResult = { ok: true; documents: TemplateDocument[] } | {
 
 export const MAX_TEMPLATE_FILE_BYTES = 1_000_000;
 
-function pathText(path: ReadonlyArray<PropertyKey>): string {
+export function pathText(path: ReadonlyArray<PropertyKey>): string {
   if (!path.length) return "(file)";
   return path.reduce<string>((acc, p) => (typeof p === "number" ? `${acc}[${p}]` : acc ? `${acc}.${String(p)}` : String(p)), "");
 }

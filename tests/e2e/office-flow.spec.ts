@@ -1,19 +1,32 @@
 import { expect, test } from "@playwright/test";
-import { demoUser, signIn } from "./support/demo-users";
+import { signIn } from "./support/demo-users";
+import { giveCustomerSignIn } from "./support/e2e-db";
 import { expectMail, paymentEvents, TINY_PNG, webhookDeliveries } from "./support/fakes";
 
-// The whole office journey on the demo workshop: a new bike for a customer, intake with a photo,
+// The whole office journey on the demo workshop: a new customer and bike, intake with a photo,
 // inspection, a quote, the customer's approval and deposit through the fake payment service,
 // then the job goes in build with a mechanic and a pinned template.
 test("intake → quote → customer approval → deposit paid → in build", async ({ browser }) => {
   test.setTimeout(120_000);
-  const felix = demoUser("customer");
+  // a customer of our own, so the demo customers' records stay as other tests expect them
+  const rider = { name: "Nadia Brandt", email: `nadia.brandt.${Date.now()}@example.test`, password: "journey-pass-1" };
   const office = await (await browser.newContext()).newPage();
   await signIn(office, "office");
 
-  // a new bike for Felix; the form checks fields inline first
+  // a new customer, then a new bike; the forms check fields inline first
   await office.getByRole("link", { name: "Customers" }).click();
-  await office.getByRole("link", { name: felix.name }).click();
+  await office.getByText("Add a customer").click();
+  await office.getByLabel("Name", { exact: true }).fill("N");
+  await office.getByLabel("E-mail", { exact: true }).fill("nadia at example");
+  await office.getByRole("button", { name: "Add customer" }).click();
+  await expect(office.getByTestId("error-name")).toHaveText("✖ enter the customer's name");
+  await expect(office.getByTestId("error-email")).toHaveText("✖ enter a valid e-mail address, or leave it empty");
+  await office.getByLabel("Name", { exact: true }).fill(rider.name);
+  await office.getByLabel("E-mail", { exact: true }).fill(rider.email);
+  await office.getByLabel("Phone", { exact: true }).fill("+44 7700 900404");
+  await office.getByRole("button", { name: "Add customer" }).click();
+  await expect(office.getByRole("heading", { level: 1, name: rider.name })).toBeVisible();
+  await giveCustomerSignIn(rider.email, rider.password);
   await office.getByText("Add a bike").click();
   await office.getByRole("button", { name: "Add bike" }).click();
   await expect(office.getByTestId("error-bike-make")).toHaveText("✖ enter the make");
@@ -63,11 +76,15 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByRole("button", { name: "Send to the customer" }).click();
   await expect(office.getByTestId("work-order-status")).toContainText("Quoted");
   await expect(office.getByTestId("quote-version").first()).toContainText("Sent — waiting for the customer");
-  await expectMail(felix.email, "Your quote for work order 1006 is ready");
+  await expectMail(rider.email, "Your quote for work order 1006 is ready");
 
   // the customer approves and pays the deposit from their own sign-in
   const customer = await (await browser.newContext()).newPage();
-  await signIn(customer, "customer");
+  await customer.goto("/signin");
+  await customer.getByLabel("E-mail").fill(rider.email);
+  await customer.getByLabel("Password").fill(rider.password);
+  await customer.getByRole("button", { name: "Sign in" }).click();
+  await expect(customer.getByTestId("whoami")).toContainText(rider.name);
   const card = customer.getByTestId("my-work-order").filter({ hasText: "#1006" });
   await expect(card.getByTestId("customer-quote-total")).toHaveText("£259.19");
   await card.getByRole("button", { name: "Approve this quote" }).click();
@@ -80,7 +97,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   expect(paid).toBeTruthy();
   const delivery = (await webhookDeliveries()).find((d) => d.eventId === paid!.id && d.url.endsWith("/api/payments/webhook") && d.url.includes(`:${process.env.E2E_PORT ?? 3100}/`));
   expect(delivery?.status).toBe(200);
-  await expectMail(felix.email, "Deposit received for work order 1006");
+  await expectMail(rider.email, "Deposit received for work order 1006");
 
   // back in the office: the deposit shows paid; assign, pin a template, start the build
   await office.reload();
@@ -95,5 +112,5 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await expect(office.getByTestId("work-order-status")).toContainText("In build");
   await expect(office.getByTestId("pinned-procedures")).toContainText("Turbo kit and intercooler fitting — version 1");
   await expect(office.getByTestId("transitions")).toContainText("Approved → In build · Maren Ostby");
-  await expect(office.getByTestId("transitions")).toContainText("Quoted → Approved · Felix Amadi");
+  await expect(office.getByTestId("transitions")).toContainText(`Quoted → Approved · ${rider.name}`);
 });

@@ -32,19 +32,37 @@ test("templates: export, a bad import refused with path and message, a good impo
   await expect(page.getByRole("heading", { name: "Turbo kit and intercooler fitting (shop edition)" })).toBeVisible();
 });
 
-test("template editor checks the document as it is typed", async ({ page }) => {
+test("template editor: the structured form and the JSON view are checked as they are edited", async ({ page }) => {
   await signIn(page, "office");
   await page.goto("/office/templates/edit?key=first-start-run-in");
   // the demo template has 2 + 5 + 2 steps, one torque spec, one measurement spec, three timers
   await expect(page.getByTestId("template-valid")).toContainText("3 stages, 9 steps, 1 torque specs, 1 measurement specs, 3 timers");
+
+  // form: a negative timer is named beside the field and in the list, and blocks saving
+  const step = page.locator("details").filter({ hasText: "Step 2: Heat cycle 1" });
+  await step.locator("summary").click();
+  await step.getByLabel("Duration (seconds)").fill("-5");
+  await expect(page.getByTestId("template-problems")).toContainText("stages[1].steps[1].timer.durationS:");
+  await expect(step.getByText("✖ Too small")).toBeVisible();
+  await expect(page.getByRole("button", { name: "Save as a new version" })).toBeDisabled();
+  await step.getByLabel("Duration (seconds)").fill("5400");
+  await page.getByLabel("Name", { exact: true }).fill("First start and run-in (our shop)");
+  await expect(page.getByTestId("template-valid")).toBeVisible();
+
+  // JSON view of the same document; a bad edit is refused with its path
+  await page.getByRole("tab", { name: "JSON" }).click();
   const box = page.getByTestId("template-json");
   const text = await box.inputValue();
-  await box.fill(text.replace('"durationS": 7200', '"durationS": -5'));
-  await expect(page.getByTestId("template-problems")).toContainText("stages[1].steps[1].timer.durationS:");
-  await expect(page.getByRole("button", { name: "Save as a new version" })).toBeDisabled();
-  await box.fill(text.replace('"name": "First start and run-in"', '"name": "First start and run-in (our shop)"'));
+  expect(JSON.parse(text).stages[1].steps[1].timer.durationS).toBe(5400);
+  await box.fill(text.replace('"unit": "N·m"', '"unit": "ft-lb"'));
+  await expect(page.getByTestId("template-problems")).toContainText("stages[1].steps[4].torque[0].unit:");
+  await box.fill(text);
+  await page.getByRole("tab", { name: "Form" }).click();
   await page.getByRole("button", { name: "Save as a new version" }).click();
   await expect(page.getByTestId("form-ok")).toHaveText("✔ Saved as version 2.");
+  const saved = await (await page.request.get("/api/office/templates/first-start-run-in?version=2")).json();
+  expect(saved.name).toBe("First start and run-in (our shop)");
+  expect(saved.stages[1].steps[1].timer.durationS).toBe(5400);
 });
 
 test("work-order table: sorting, filtering and paging come from the server", async ({ page }) => {
@@ -127,6 +145,7 @@ for (const size of [
       ["customers", "/office/customers"],
       ["bike", `/office/bikes/${bikeId}`],
       ["templates", "/office/templates"],
+      ["template-edit", "/office/templates/edit?key=turbo-kit-intercooler"],
       ["parts", "/office/parts"],
     ] as const) {
       await page.goto(path);

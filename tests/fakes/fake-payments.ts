@@ -56,7 +56,7 @@ async function emit(type: string, object: Obj) {
   for (const ep of endpoints) {
     const header = Stripe.webhooks.generateTestHeaderString({ payload, secret });
     try {
-      const r = await fetch(ep.url, { method: "POST", headers: { "content-type": "application/json", "stripe-signature": header }, body: payload });
+      const r = await fetch(ep.url, { method: "POST", headers: { "content-type": "application/json", "stripe-signature": header }, body: payload, signal: AbortSignal.timeout(5000) });
       deliveries.unshift({ eventId: event.id, url: ep.url, status: r.status, answer: (await r.text()).slice(0, 300), at: new Date().toISOString() });
     } catch (e) {
       deliveries.unshift({ eventId: event.id, url: ep.url, status: null, answer: (e as Error).message, at: new Date().toISOString() });

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { bookIn, moveWorkOrder, assignMechanic, workOrderDetail } from "@/db/office/work-orders";
 import { saveQuoteDraft, sendQuote, approveQuoteAsCustomer } from "@/db/office/quotes";
 import { createBike } from "@/db/office/bikes";
+import { handOver } from "@/db/office/invoices";
 import { Refusal } from "@/lib/office/refusal";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
@@ -111,5 +112,31 @@ describe("customer approval", () => {
     await approveQuoteAsCustomer(db, { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId }, quoteId);
     const after = await db.selectFrom("quotes").select(["status", "approved_by"]).where("id", "=", quoteId).executeTakeFirstOrThrow();
     expect(after).toEqual({ status: "approved", approved_by: fx.users.customer.id });
+  });
+});
+
+describe("handover", () => {
+  it("writes the final invoice (total less the deposit paid) with the move, numbered per shop", async () => {
+    const { fx, wo } = await freshJob();
+    const office = fx.users.office.id;
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "inspected");
+    // by hand: 4 h × £70.00 = £280.00; tax 20 % = £56.00; total £336.00; deposit £100.00 → balance £236.00
+    await saveQuoteDraft(db, fx.shopId, office, wo.id, { lines: [{ kind: "labour", description: "Rebuild", quantityHundredths: 400, unitPriceMinor: 7000 }], depositMinor: 10000 });
+    const { quoteId } = await sendQuote(db, fx.shopId, office, wo.id);
+    const cust = { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId };
+    await approveQuoteAsCustomer(db, cust, quoteId);
+    await db.insertInto("deposits").values({ shop_id: fx.shopId, work_order_id: wo.id, quote_id: quoteId, amount_minor: 10000, currency: "EUR", payment_intent_id: null, status: "paid", paid_at: new Date() }).execute();
+    await assignMechanic(db, fx.shopId, office, wo.id, fx.users.mechanic.id);
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [fx.templates.bottom.versionId] });
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "in_review");
+    await expect(handOver(db, fx.shopId, office, wo.id)).rejects.toThrow('A work order cannot go from "In review" to "Handed over".');
+    expect(await db.selectFrom("invoices").select("id").where("work_order_id", "=", wo.id).execute()).toHaveLength(0);
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "ready");
+    const inv = await handOver(db, fx.shopId, office, wo.id);
+    expect(inv).toMatchObject({ number: 5001, subtotal_minor: 28000, tax_minor: 5600, total_minor: 33600, deposits_paid_minor: 10000, balance_due_minor: 23600 });
+    const d = (await workOrderDetail(db, fx.shopId, wo.id))!;
+    expect(d.status).toBe("handed_over");
+    const closed = await db.selectFrom("work_orders").select("closed_at").where("id", "=", wo.id).executeTakeFirstOrThrow();
+    expect(closed.closed_at).toBeInstanceOf(Date);
   });
 });

@@ -138,3 +138,34 @@ describe("deposit through the SDK against the local fake payment service", () =>
     expect(mails.map((m) => m.subject)).toContain(`Deposit received for work order ${wo.number}`);
   });
 });
+
+describe("a declined deposit", () => {
+  it("is marked failed by the fake's signed payment_failed event, and can be paid again", async () => {
+    // the webhook server of the previous block is closed, so run one for this block
+    const server = http.createServer(async (req, res) => {
+      const chunks: Buffer[] = [];
+      for await (const c of req) chunks.push(c as Buffer);
+      const a = await handlePaymentWebhook(db, Buffer.concat(chunks).toString("utf8"), (req.headers["stripe-signature"] as string) ?? null, { sendMail: false });
+      res.writeHead(a.status, { "content-type": "application/json" }).end(JSON.stringify(a.body));
+    });
+    await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
+    try {
+      await paymentsClient().webhookEndpoints.create({ url: `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/payments/webhook`, enabled_events: ["payment_intent.payment_failed"] });
+      const { fx, wo, deposit, quoteId, cust } = await jobWithPendingDeposit("");
+      process.env.STRIPE_TEST_PAYMENT_METHOD = "pm_card_chargeDeclined";
+      const intent = await startDepositPayment({ depositId: deposit.id, amountMinor: 5000, currency: "GBP", shopId: fx.shopId, workOrderId: wo.id, description: "deposit" }).finally(() => {
+        delete process.env.STRIPE_TEST_PAYMENT_METHOD;
+      });
+      expect(intent.status).toBe("requires_payment_method");
+      await attachPaymentIntent(db, deposit.id, intent.id);
+      const until = Date.now() + 5000;
+      while ((await depositStatus(deposit.id)) !== "failed" && Date.now() < until) await new Promise((r) => setTimeout(r, 100));
+      expect(await depositStatus(deposit.id)).toBe("failed");
+      const again = await openDeposit(db, cust, quoteId);
+      expect(again.deposit.id).not.toBe(deposit.id);
+      expect(again.deposit.status).toBe("pending");
+    } finally {
+      await new Promise<void>((r) => server.close(() => r()));
+    }
+  });
+});

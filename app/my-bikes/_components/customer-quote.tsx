@@ -52,9 +52,10 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteData }) {
     queryKey: ["deposit", depositId],
     enabled: Boolean(depositId),
     queryFn: async () => (await api<{ deposit: { status: string; amountMinor: number } }>("GET", `/api/my-bikes/deposits/${depositId}`)).deposit,
-    refetchInterval: (q) => (q.state.data?.status === "paid" ? false : 1000),
+    refetchInterval: (q) => (q.state.data?.status === "pending" || !q.state.data ? 1000 : false),
   });
   const depositStatus = deposit.data?.status ?? open?.status;
+  const failed = depositStatus === "failed";
 
   return (
     <div className="mt-3 rounded-lg border-2 border-steel-300 p-3" data-testid="customer-quote">
@@ -102,12 +103,17 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteData }) {
             Approve this quote
           </button>
         )}
-        {quote.status === "approved" && quote.deposit_minor > 0 && depositStatus !== "paid" && !depositId && (
+        {quote.status === "approved" && quote.deposit_minor > 0 && depositStatus !== "paid" && (!depositId || failed) && (
           <button type="button" className={buttonClass} disabled={pay.isPending} onClick={() => pay.mutate()}>
             Pay the deposit ({formatMinor(quote.deposit_minor, c)})
           </button>
         )}
-        {depositId && depositStatus !== "paid" && (
+        {failed && (
+          <p role="alert" className="text-lg font-bold text-fail" data-testid="deposit-status">
+            ✖ The payment was declined; nothing was taken. You can try again.
+          </p>
+        )}
+        {depositId && depositStatus === "pending" && (
           <p role="status" className="text-lg font-bold text-warn" data-testid="deposit-status">
             … Payment sent; waiting for the payment service to confirm.
           </p>

@@ -43,7 +43,7 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
             <div key={l.id} className="tag-label" data-testid="tag-label">
               <div dangerouslySetInnerHTML={{ __html: l.svg }} aria-label={`QR code for ${l.tagCode}`} role="img" />
               <div className="min-w-0">
-                <p className="font-mono text-2xl font-bold leading-tight tracking-wider">{l.tagCode}</p>
+                <p className="font-mono text-lg font-bold leading-tight whitespace-nowrap">{l.tagCode}</p>
                 <p className="truncate text-sm">
                   {l.make} {l.model}
                   {l.year ? ` ${l.year}` : ""}

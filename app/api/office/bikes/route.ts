@@ -1,3 +1,4 @@
+import { containsPattern } from "@/db/office/search";
 import { NextResponse } from "next/server";
 import { guarded, readJson } from "@/app/_server/route-helpers";
 import { db } from "@/db/client";
@@ -13,7 +14,7 @@ export const GET = guarded("office", async ({ req, user }) => {
     .select(["b.id", "b.make", "b.model", "b.year", "b.tag_code as tagCode", "c.name as customerName"])
     .where("b.shop_id", "=", user.shopId);
   if (q) {
-    const like = `%${q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+    const like = containsPattern(q);
     query = query.where((eb) => eb.or([eb("b.tag_code", "ilike", like), eb("b.make", "ilike", like), eb("b.model", "ilike", like), eb("c.name", "ilike", like)]));
   }
   return NextResponse.json({ bikes: await query.orderBy("b.tag_code").limit(50).execute() });

@@ -144,7 +144,9 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
                   <td className="py-1 pr-3 font-mono">
                     {m.min}–{m.max}
                   </td>
-                  <td className="py-1 pr-3 font-bold">{VERDICT[m.verdict]}</td>
+                  <td className="py-1 pr-3 font-bold">
+                    {VERDICT[m.verdict]} {m.superseded && <span className="font-normal text-steel-700">(corrected by a later reading)</span>}
+                  </td>
                 </tr>
               ))}
             </tbody>

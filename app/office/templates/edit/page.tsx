@@ -5,11 +5,12 @@ import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
 import { db } from "@/db/client";
 import { loadTemplateDocument } from "@/db/office/template-documents";
+import type { TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import { TemplateEditor } from "../_components/template-editor";
 
 export const metadata: Metadata = { title: "Edit template" };
 
-const STARTER = {
+const STARTER: TemplateDocumentInput = {
   format: "benchtag-template",
   formatVersion: 1,
   key: "new-procedure",
@@ -33,7 +34,7 @@ export default async function EditTemplatePage({ searchParams }: { searchParams:
       </p>
       <h1 className="mt-2 text-3xl font-bold">{key ? `Edit ${doc.name}` : "New template"}</h1>
       <div className="mt-4">
-        <TemplateEditor key={key ?? "new"} initial={JSON.stringify(doc, null, 2)} isNew={!key} />
+        <TemplateEditor key={key ?? "new"} initial={doc} isNew={!key} />
       </div>
     </AppFrame>
   );

@@ -2,7 +2,7 @@ import { NextResponse } from "next/server";
 import { mailBikeReady } from "@/app/_server/customer-mail";
 import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
 import { db } from "@/db/client";
-import { createFinalInvoice } from "@/db/office/invoices";
+import { handOver } from "@/db/office/invoices";
 import { moveWorkOrder } from "@/db/office/work-orders";
 import { transitionSchema } from "@/lib/office/schemas";
 
@@ -13,12 +13,7 @@ export const POST = guarded<{ id: string }>("office", async ({ req, user, params
   const body = await readJson(req, transitionSchema);
   const opts = { note: body.note, templateVersionIds: body.to === "in_build" ? body.templateVersionIds : [] };
   if (body.to === "handed_over") {
-    await db()
-      .transaction()
-      .execute(async (trx) => {
-        await moveWorkOrder(trx, user.shopId, user.id, id, "handed_over", opts);
-        await createFinalInvoice(trx, user.shopId, user.id, id);
-      });
+    await handOver(db(), user.shopId, user.id, id, opts.note);
   } else {
     await moveWorkOrder(db(), user.shopId, user.id, id, body.to, opts);
   }

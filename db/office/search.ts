@@ -1,0 +1,4 @@
+// A user's search text as an ILIKE pattern that matches it anywhere, with % _ \ taken literally.
+export function containsPattern(q: string): string {
+  return `%${q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+}
