@@ -1,6 +1,7 @@
 import type { ColumnType, Generated, Insertable, Selectable } from "kysely";
 import type { DynoTables } from "./schema-dyno";
 import type { OfficeTables } from "./schema-office";
+import type { ReviewTables } from "./schema-review";
 
 // Table types for Kysely. numeric columns come back from pg as strings (never silently rounded).
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
@@ -331,7 +332,7 @@ export interface SignInAttemptsTable {
   at: Generated<Timestamp>;
 }
 
-export interface Database extends DynoTables, OfficeTables {
+export interface Database extends DynoTables, OfficeTables, ReviewTables {
   shops: ShopsTable;
   customers: CustomersTable;
   users: UsersTable;

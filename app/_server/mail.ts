@@ -7,7 +7,7 @@ import { officeConfig } from "./office-config";
 export interface OutgoingMail {
   shopId: string;
   workOrderId: string | null;
-  kind: "quote_ready" | "deposit_received" | "bike_ready";
+  kind: "quote_ready" | "deposit_received" | "bike_ready" | "review_needed";
   to: string;
   subject: string;
   text: string;

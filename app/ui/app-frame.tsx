@@ -2,6 +2,7 @@ import Link from "next/link";
 import type { ReactNode } from "react";
 import { canReach, type Area } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";
+import { ReviewCount } from "./review-count";
 import { SignOutButton } from "./sign-out-button";
 
 const NAV: Array<{ href: string; label: string; area: Area }> = [
@@ -16,6 +17,7 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
   { href: "/office/users", label: "Sign-ins", area: "users" },
   { href: "/calculators", label: "Numbers", area: "calculators" },
   { href: "/my-bikes", label: "My bikes", area: "my-bikes" },
+  { href: "/audit", label: "Audit log", area: "audit" },
 ];
 
 const ROLE_LABEL = { mechanic: "Mechanic", supervisor: "Supervisor", office: "Office", customer: "Customer" } as const;
@@ -36,6 +38,7 @@ export function AppFrame({ user, current, children, flush = false }: { user: Ses
               className={`flex min-h-12 items-center rounded-lg px-4 text-base font-bold ${current === l.href ? "bg-signal text-ink" : "text-white underline-offset-4 hover:underline"}`}
             >
               {l.label}
+              {l.href === "/review" && <ReviewCount />}
             </Link>
           ))}
         </nav>

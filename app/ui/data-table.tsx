@@ -16,6 +16,7 @@ export function DataTable<Row>({
   toolbar,
   testId,
   pageSize = 15,
+  onSearchChange,
 }: {
   endpoint: string;
   rowsKey: string;
@@ -26,6 +27,8 @@ export function DataTable<Row>({
   toolbar?: ReactNode;
   testId: string;
   pageSize?: number;
+  /** Told the search text the table sends (after the typing pause), e.g. for an export link. */
+  onSearchChange?: (q: string) => void;
 }) {
   const [sorting, setSorting] = useState<SortingState>(initialSort);
   const [pagination, setPagination] = useState({ pageIndex: 0, pageSize });
@@ -35,6 +38,7 @@ export function DataTable<Row>({
     const t = setTimeout(() => setQ(search.trim()), 250);
     return () => clearTimeout(t);
   }, [search]);
+  useEffect(() => onSearchChange?.(q), [q, onSearchChange]);
   const filterKey = JSON.stringify(filters ?? {});
   useEffect(() => setPagination((p) => ({ ...p, pageIndex: 0 })), [q, filterKey]);
 

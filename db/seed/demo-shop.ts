@@ -6,6 +6,7 @@ import type { Database, Role } from "../schema";
 import { createTemplateVersion } from "../templates";
 import { seedDemoDyno } from "./demo-dyno";
 import { seedDemoOffice } from "./demo-office";
+import { seedDemoReview } from "./demo-review";
 
 // An invented workshop for the demo and the browser tests. All names are made up.
 export const DEMO_SHOP_SLUG = "gannet-street";
@@ -168,7 +169,8 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
       await db.insertInto("job_procedures").values({ work_order_id: id, template_version_id: versionIds.get(key)!, position }).execute();
     }
   }
-  await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
   await seedDemoDyno(db, shopId);
+  await seedDemoReview(db, shopId);
+  await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
   return { shopId };
 }

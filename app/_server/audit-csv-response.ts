@@ -1,0 +1,40 @@
+import type { Kysely } from "kysely";
+import { auditLogBatches } from "@/db/audit-log";
+import type { Database } from "@/db/schema";
+import { auditCsvChunk } from "@/lib/review/audit-csv";
+import type { AuditFilter } from "@/lib/review/list-queries";
+
+/** The shop's audit log as a streamed CSV download, oldest entry first, 500 rows per database read. */
+export function auditCsvResponse(db: Kysely<Database>, shopId: string, f: AuditFilter, now = new Date()): Response {
+  const encoder = new TextEncoder();
+  const batches = auditLogBatches(db, shopId, f);
+  let header = true;
+  const stream = new ReadableStream<Uint8Array>({
+    async pull(controller) {
+      try {
+        const next = await batches.next();
+        if (next.done) {
+          if (header) controller.enqueue(encoder.encode(auditCsvChunk([], true)));
+          controller.close();
+          return;
+        }
+        controller.enqueue(encoder.encode(auditCsvChunk(next.value, header)));
+        header = false;
+      } catch (e) {
+        console.error("[audit] export failed", e);
+        controller.error(e);
+      }
+    },
+    async cancel() {
+      await batches.return(undefined);
+    },
+  });
+  const name = `audit-log-${f.job !== undefined ? `job-${f.job}` : "all"}-${now.toISOString().slice(0, 10)}.csv`;
+  return new Response(stream, {
+    headers: {
+      "content-type": "text/csv; charset=utf-8",
+      "content-disposition": `attachment; filename="${name}"`,
+      "cache-control": "no-store",
+    },
+  });
+}

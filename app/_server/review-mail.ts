@@ -1,0 +1,62 @@
+import type { Kysely } from "kysely";
+import { claimNotices, finishNotice, noticeFacts, type NoticeFacts } from "@/db/review-notices";
+import type { Database } from "@/db/schema";
+import { sendMail } from "./mail";
+import { officeConfig } from "./office-config";
+
+// Sends the supervisors' e-mail for sign-offs whose stage has readings out of tolerance. Runs after
+// a sync merge has committed (app/api/sync/route.ts) and whenever the review queue is read, so a
+// notice left waiting by a failed send goes out on a later run.
+
+export function noticeMail(f: NoticeFacts, signOffId: string, baseUrl: string) {
+  const count = f.outOfTolerance.length;
+  const subject = `Work order ${f.number}: "${f.stageTitle}" signed off with ${count} reading${count === 1 ? "" : "s"} out of tolerance`;
+  const lines = f.outOfTolerance.map((o) => `  - ${o.stepTitle} — ${o.description}`);
+  const text = [
+    `${f.signedBy.name} signed off "${f.stageTitle}" on work order ${f.number} (${f.bike}, tag ${f.tagCode}) at ${f.signedAt.toISOString().replace("T", " ").slice(0, 16)} UTC.`,
+    "",
+    "Readings out of tolerance:",
+    ...lines,
+    "",
+    `Review it: ${baseUrl}/review/${signOffId}`,
+    "",
+    "Approve only with a written reason for each reading, or send the steps back to the bench.",
+  ].join("\n");
+  return { subject, text };
+}
+
+export async function deliverReviewNotices(db: Kysely<Database>): Promise<{ sent: number; skipped: number; failed: number }> {
+  const tally = { sent: 0, skipped: 0, failed: 0 };
+  for (;;) {
+    const claimed = await claimNotices(db);
+    if (!claimed.length) return tally;
+    for (const n of claimed) {
+      try {
+        const facts = await noticeFacts(db, n);
+        if (!facts || facts.decided || facts.outOfTolerance.length === 0 || facts.recipients.length === 0) {
+          await finishNotice(db, n, { state: "not_needed" });
+          tally.skipped++;
+          continue;
+        }
+        const { subject, text } = noticeMail(facts, n.signOffId, officeConfig().NEXTAUTH_URL);
+        const errors: string[] = [];
+        for (const r of facts.recipients) {
+          const sent = await sendMail(db, { shopId: n.shopId, workOrderId: n.workOrderId, kind: "review_needed", to: r.email, subject, text });
+          if (!sent.ok) errors.push(`${r.email}: ${sent.error}`);
+        }
+        if (errors.length) {
+          await finishNotice(db, n, { state: "retry", error: errors.join("; ") });
+          tally.failed++;
+        } else {
+          await finishNotice(db, n, { state: "sent" }, { recipients: facts.recipients.map((r) => r.email), subject });
+          tally.sent++;
+        }
+      } catch (e) {
+        await finishNotice(db, n, { state: "retry", error: (e as Error).message }).catch(() => undefined);
+        tally.failed++;
+      }
+    }
+    // A failed send waits for the next run rather than being tried again at once.
+    if (tally.failed) return tally;
+  }
+}

@@ -1,0 +1,126 @@
+"use client";
+
+import type { ColumnDef } from "@tanstack/react-table";
+import { useCallback, useState } from "react";
+import { DataTable } from "@/app/ui/data-table";
+import type { AuditRow } from "@/db/audit-log";
+
+const selectClass = "min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal";
+
+const ACTIONS = [
+  { value: "", label: "Anything" },
+  { value: "review.", label: "Review decisions and e-mails" },
+  { value: "sync.", label: "Bench work from tablets" },
+  { value: "sync.measurement", label: "Readings" },
+  { value: "sync.stage.signed-off", label: "Sign-offs" },
+];
+
+const time = (v: string) => new Date(v).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" });
+
+const columns: ColumnDef<AuditRow, unknown>[] = [
+  { id: "at", header: "When", cell: ({ row }) => <span className="whitespace-nowrap">{time(row.original.at)}</span> },
+  { id: "job", header: "Job", cell: ({ row }) => (row.original.workOrderNumber === null ? "—" : <span className="font-mono font-bold">#{row.original.workOrderNumber}</span>) },
+  {
+    id: "actor",
+    header: "Who",
+    cell: ({ row }) => (
+      <span>
+        {row.original.actorName ?? "Benchtag"}
+        {(row.original.actorRole || row.original.deviceId) && (
+          <span className="block text-sm text-steel-700">
+            {row.original.actorRole}
+            {row.original.deviceId && <span className="block font-mono">tablet {row.original.deviceId}</span>}
+          </span>
+        )}
+      </span>
+    ),
+  },
+  { id: "action", header: "What", cell: ({ row }) => <span className="break-all font-mono text-sm">{row.original.action}</span> },
+  {
+    id: "outcome",
+    header: "Outcome",
+    cell: ({ row }) =>
+      row.original.outcome === "accepted" ? (
+        <span className="font-bold text-pass">✔ accepted</span>
+      ) : (
+        <span className="font-bold text-fail" data-testid="audit-refused">
+          ✖ refused
+        </span>
+      ),
+  },
+  {
+    id: "reason",
+    header: "Why / details",
+    enableSorting: false,
+    cell: ({ row }) => (
+      <span className="block max-w-md text-sm">
+        {row.original.reason && <span className="block">{row.original.reason}</span>}
+        <details>
+          <summary className="cursor-pointer text-steel-700">details</summary>
+          <pre className="whitespace-pre-wrap break-all text-xs">{JSON.stringify(row.original.detail, null, 1)}</pre>
+        </details>
+      </span>
+    ),
+  },
+];
+
+/** The shop's audit log, paged and sorted on the server, with a CSV download of what the filters select. */
+export function AuditTable({ initialJob }: { initialJob: string }) {
+  const [job, setJob] = useState(initialJob);
+  const [outcome, setOutcome] = useState("");
+  const [action, setAction] = useState("");
+  const [q, setQ] = useState("");
+  const onSearch = useCallback((v: string) => setQ(v), []);
+  const jobOk = /^\d*$/.test(job.trim());
+  const filters = { job: jobOk ? job.trim() : "", outcome, action };
+  const exportUrl = `/api/audit/export?${new URLSearchParams({ ...filters, q })}`;
+  return (
+    <DataTable<AuditRow>
+      endpoint="/api/audit"
+      rowsKey="entries"
+      columns={columns}
+      initialSort={[{ id: "at", desc: true }]}
+      filters={filters}
+      searchLabel="Person, tablet or reason"
+      testId="audit-table"
+      pageSize={25}
+      onSearchChange={onSearch}
+      toolbar={
+        <>
+          <label className="flex flex-col gap-1 text-base font-bold">
+            Job number
+            <input
+              inputMode="numeric"
+              value={job}
+              onChange={(e) => setJob(e.target.value)}
+              aria-invalid={!jobOk}
+              className="min-h-12 w-32 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal aria-[invalid=true]:border-fail"
+            />
+            {!jobOk && <span className="text-sm text-fail">✖ digits only</span>}
+          </label>
+          <label className="flex flex-col gap-1 text-base font-bold">
+            What
+            <select value={action} onChange={(e) => setAction(e.target.value)} className={selectClass}>
+              {ACTIONS.map((a) => (
+                <option key={a.value} value={a.value}>
+                  {a.label}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="flex flex-col gap-1 text-base font-bold">
+            Outcome
+            <select value={outcome} onChange={(e) => setOutcome(e.target.value)} className={selectClass}>
+              <option value="">Either</option>
+              <option value="accepted">Accepted</option>
+              <option value="refused">Refused</option>
+            </select>
+          </label>
+          <a href={exportUrl} download className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 text-lg font-bold text-white" data-testid="audit-export">
+            Download CSV
+          </a>
+        </>
+      }
+    />
+  );
+}

@@ -1,0 +1,129 @@
+"use client";
+
+import type { ColumnDef } from "@tanstack/react-table";
+import Link from "next/link";
+import { useState } from "react";
+import { DataTable } from "@/app/ui/data-table";
+import { dayTime } from "@/app/ui/dates";
+import type { QueueRow } from "@/db/review-queue";
+
+const selectClass = "min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal";
+
+const columns: ColumnDef<QueueRow, unknown>[] = [
+  {
+    id: "signed",
+    header: "Signed off",
+    cell: ({ row }) => (
+      <span>
+        {dayTime(row.original.deviceTime)}
+        {row.original.resubmitted && <span className="block text-sm font-bold">↺ after a send-back</span>}
+      </span>
+    ),
+  },
+  { id: "job", header: "Job", cell: ({ row }) => <span className="font-mono font-bold">#{row.original.number}</span> },
+  {
+    id: "bike",
+    header: "Bike",
+    cell: ({ row }) => (
+      <span>
+        {row.original.make} {row.original.model} <span className="block whitespace-nowrap font-mono text-steel-700">{row.original.tagCode}</span>
+      </span>
+    ),
+  },
+  {
+    id: "stage",
+    header: "Stage",
+    enableSorting: false,
+    cell: ({ row }) => (
+      <span>
+        <span className="font-bold">{row.original.stageTitle}</span>
+        <span className="block text-sm text-steel-700">{row.original.procedureName}</span>
+      </span>
+    ),
+  },
+  { id: "mechanic", header: "Signed by", cell: ({ row }) => row.original.mechanicName },
+  {
+    id: "outOfTolerance",
+    header: "Out of tolerance",
+    cell: ({ row }) =>
+      row.original.outOfTolerance > 0 ? (
+        <span className="inline-flex items-center gap-1 rounded border-2 border-fail bg-fail-light px-2 font-bold text-fail" data-testid="queue-oot">
+          <span aria-hidden="true">▲</span>
+          {row.original.outOfTolerance} reading{row.original.outOfTolerance === 1 ? "" : "s"}
+        </span>
+      ) : (
+        <span className="text-steel-700">none</span>
+      ),
+  },
+  {
+    id: "open",
+    header: "",
+    enableSorting: false,
+    cell: ({ row }) => (
+      <span className="flex flex-col items-start gap-1">
+        <Link href={`/review/${row.original.signOffId}`} className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 font-bold text-white" aria-label={`Review #${row.original.number} ${row.original.stageTitle}`}>
+          Review
+        </Link>
+        {row.original.flagReason && <span className="text-sm font-bold text-warn">⚑ flagged by the sync</span>}
+      </span>
+    ),
+  },
+];
+
+/** The queue: server-side paged and sorted; filters by job, bike (search box), mechanic and readings out of tolerance. */
+export function ReviewQueue({ people }: { people: Array<{ id: string; name: string }> }) {
+  const [job, setJob] = useState("");
+  const [mechanic, setMechanic] = useState("");
+  const [outOfTolerance, setOutOfTolerance] = useState("");
+  const jobOk = /^\d*$/.test(job.trim());
+  return (
+    <DataTable<QueueRow>
+      endpoint="/api/review/queue"
+      rowsKey="signOffs"
+      columns={columns}
+      initialSort={[{ id: "signed", desc: true }]}
+      filters={{ job: jobOk ? job.trim() : "", mechanic, outOfTolerance }}
+      searchLabel="Bike (tag, make or model)"
+      testId="review-queue"
+      toolbar={
+        <>
+          <label className="flex flex-col gap-1 text-base font-bold">
+            Job number
+            <input
+              inputMode="numeric"
+              value={job}
+              onChange={(e) => setJob(e.target.value)}
+              aria-invalid={!jobOk}
+              aria-describedby={jobOk ? undefined : "job-error"}
+              className="min-h-12 w-32 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal aria-[invalid=true]:border-fail"
+            />
+            {!jobOk && (
+              <span id="job-error" className="text-sm text-fail">
+                ✖ digits only
+              </span>
+            )}
+          </label>
+          <label className="flex flex-col gap-1 text-base font-bold">
+            Signed by
+            <select value={mechanic} onChange={(e) => setMechanic(e.target.value)} className={selectClass}>
+              <option value="">Anyone</option>
+              {people.map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.name}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="flex flex-col gap-1 text-base font-bold">
+            Readings
+            <select value={outOfTolerance} onChange={(e) => setOutOfTolerance(e.target.value)} className={selectClass}>
+              <option value="">All</option>
+              <option value="yes">With readings out of tolerance</option>
+              <option value="no">All readings in tolerance</option>
+            </select>
+          </label>
+        </>
+      }
+    />
+  );
+}

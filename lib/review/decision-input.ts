@@ -1,0 +1,44 @@
+/**
+ * What a supervisor sends to decide on a sign-off, checked with zod at the route. Pure; the review
+ * screen checks its form with the same schema before sending.
+ */
+import { z } from "zod";
+
+export const JUSTIFICATION_MIN = 10;
+export const REASON_MIN = 5;
+
+export const acceptanceInputSchema = z.object({
+  readingId: z.uuid("not a reading id"),
+  justification: z
+    .string("write why this reading may stand")
+    .trim()
+    .min(JUSTIFICATION_MIN, `Write at least ${JUSTIFICATION_MIN} characters: why may this reading stand?`)
+    .max(2000, "Keep it under 2000 characters."),
+});
+
+const common = {
+  /** The decision the supervisor saw as the latest on this sign-off (null: none). Guards against two people deciding at once. */
+  expectedDecisionId: z.uuid("not a decision id").nullable(),
+  acceptances: z.array(acceptanceInputSchema).max(200, "At most 200 acceptances at once.").default([]),
+};
+
+export const decisionInputSchema = z.discriminatedUnion(
+  "decision",
+  [
+    z.object({ decision: z.literal("approved"), ...common }),
+    z.object({
+      decision: z.literal("sent_back"),
+      ...common,
+      reason: z
+        .string("say why it goes back")
+        .trim()
+        .min(REASON_MIN, `Say why it goes back (at least ${REASON_MIN} characters); the mechanic sees this on the step.`)
+        .max(2000, "Keep the reason under 2000 characters."),
+      reopenStepIds: z.array(z.uuid("not a step id")).min(1, "Choose at least one step to reopen.").max(100),
+    }),
+  ],
+  { error: 'decision must be "approved" or "sent_back"' },
+);
+
+export type DecisionInput = z.output<typeof decisionInputSchema>;
+export type AcceptanceInput = z.output<typeof acceptanceInputSchema>;

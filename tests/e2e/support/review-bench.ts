@@ -1,0 +1,75 @@
+import { expect, type Locator, type Page } from "@playwright/test";
+
+// Driving the bench through a stage for the review tests. Tolerant of work already on the job
+// (other test files may have read some spots): only spots still "not read" are read.
+
+/** Types a number on the keypad inside `scope` (a step with two specs has two keypads). */
+async function typeIn(scope: Locator, value: string) {
+  for (const ch of value) {
+    const name = ch === "." ? "Decimal point" : ch === "-" ? "Minus" : `Digit ${ch}`;
+    await scope.getByRole("button", { name, exact: true }).click();
+  }
+}
+
+/** Opens step n (1-based) of the job on screen. */
+export async function openStep(page: Page, n: number) {
+  const job = new URL(page.url()).hash.match(/job\/([0-9a-f-]{36})/)?.[1];
+  if (!job) throw new Error(`not on a job: ${page.url()}`);
+  await page.evaluate(([j, i]) => (window.location.hash = `#/job/${j}/step/${i}`), [job, String(n - 1)] as const);
+  await expect(page.getByText(new RegExp(`^Step ${n} of \\d+$`))).toBeVisible();
+}
+
+export async function acknowledgeCautions(page: Page) {
+  const ack = page.getByRole("button", { name: "I have read these cautions" });
+  if (await ack.isVisible()) await ack.click();
+}
+
+/**
+ * Reads every spot of the step that is not read yet; `values` gives the value per spec label,
+ * or per "label|slot label" for one spot.
+ */
+export async function readOpenSpots(page: Page, values: Record<string, string>) {
+  const sections = page.getByRole("region", { name: /^Measure / });
+  const count = await sections.count();
+  for (let s = 0; s < count; s++) {
+    const section = sections.nth(s);
+    const label = (await section.getAttribute("aria-label"))!.replace(/^Measure /, "");
+    const open = section.getByRole("button").filter({ hasText: "not read" });
+    while ((await open.count()) > 0) {
+      const slot = open.first();
+      const slotName = (await slot.locator("span").first().textContent())!.trim();
+      await slot.click();
+      const value = values[`${label}|${slotName}`] ?? values[label];
+      if (!value) throw new Error(`no value for ${label} ${slotName}`);
+      await typeIn(section, value);
+      await section.getByRole("button", { name: "Save reading" }).click();
+      await expect(section.getByRole("status").filter({ hasText: "saved" })).toContainText(`${slotName}: ${value}`);
+    }
+  }
+}
+
+/** Replaces every reading out of tolerance shown on the step with `value` (a correction). */
+export async function correctOutOfTolerance(page: Page, value: string) {
+  const sections = page.getByRole("region", { name: /^Measure / });
+  const count = await sections.count();
+  for (let s = 0; s < count; s++) {
+    const section = sections.nth(s);
+    const bad = section.getByRole("button").filter({ hasText: /High|Low/ });
+    while ((await bad.count()) > 0) {
+      await bad.first().click();
+      await typeIn(section, value);
+      await section.getByRole("button", { name: "Save reading" }).click();
+      await expect(section.getByRole("status").filter({ hasText: "saved" })).toContainText("correction");
+    }
+  }
+}
+
+export async function finishStep(page: Page) {
+  const done = page.getByRole("button", { name: "Step done" });
+  if (await done.isVisible()) {
+    await expect(done).toBeEnabled();
+    await done.click();
+  } else {
+    await expect(page.getByTestId("step-done")).toBeVisible();
+  }
+}
