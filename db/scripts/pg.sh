@@ -69,6 +69,10 @@ case "$cmd" in
         if [ "$name" = test ]; then echo "fsync = off"; echo "synchronous_commit = off"; echo "full_page_writes = off"; fi
       } >> "$PGDATA/postgresql.conf"
     fi
+    if "${RUNAS[@]}" "$PGBIN/pg_ctl" -D "$PGDATA" status >/dev/null 2>&1 && [ "$(sed -n 4p "$PGDATA/postmaster.pid" 2>/dev/null)" != "$port" ]; then
+      log "running on another port; restarting on $port"
+      "${RUNAS[@]}" "$PGBIN/pg_ctl" -D "$PGDATA" -m fast -w stop >/dev/null
+    fi
     if "${RUNAS[@]}" "$PGBIN/pg_ctl" -D "$PGDATA" status >/dev/null 2>&1; then
       log "already running on 127.0.0.1:$port"
     else
