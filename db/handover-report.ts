@@ -2,6 +2,7 @@ import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { listDynoRuns } from "./dyno";
 import type { Database } from "./schema";
+import { workOrdersWithBike } from "./work-orders";
 
 // Everything the handover build report shows, read for one work order of one shop.
 
@@ -24,12 +25,8 @@ export async function reportWorkOrderFor(db: Kysely<Database>, user: SessionUser
 }
 
 export async function loadHandoverReport(db: Kysely<Database>, shopId: string, workOrderId: string) {
-  const job = await db
-    .selectFrom("work_orders as w")
+  const job = await workOrdersWithBike(db)
     .innerJoin("shops as s", "s.id", "w.shop_id")
-    .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .innerJoin("customers as c", "c.id", "b.customer_id")
-    .leftJoin("users as m", "m.id", "w.assigned_mechanic_id")
     .select([
       "w.id",
       "w.number",

@@ -5,6 +5,7 @@ import { checkTransition } from "@/lib/work-orders/transition-rules";
 import { isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit";
 import type { Database } from "../schema";
+import { workOrdersWithBike } from "../work-orders";
 import { containsPattern } from "./search";
 import type { PageOpts } from "./customers";
 
@@ -13,12 +14,7 @@ type Trx = Transaction<Database>;
 const SORTS = { number: "w.number", updated: "w.updated_at", status: "w.status", customer: "c.name", tag: "b.tag_code" } as const;
 
 export async function pageWorkOrders(db: Kysely<Database>, shopId: string, o: PageOpts & { status?: WorkOrderStatus }) {
-  let base = db
-    .selectFrom("work_orders as w")
-    .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .innerJoin("customers as c", "c.id", "b.customer_id")
-    .leftJoin("users as m", "m.id", "w.assigned_mechanic_id")
-    .where("w.shop_id", "=", shopId);
+  let base = workOrdersWithBike(db).where("w.shop_id", "=", shopId);
   if (o.status) base = base.where("w.status", "=", o.status);
   if (o.q) {
     const like = containsPattern(o.q);
@@ -197,11 +193,7 @@ export async function assignMechanic(db: Kysely<Database>, shopId: string, userI
 }
 
 export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: string) {
-  const wo = await db
-    .selectFrom("work_orders as w")
-    .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .innerJoin("customers as c", "c.id", "b.customer_id")
-    .leftJoin("users as m", "m.id", "w.assigned_mechanic_id")
+  const wo = await workOrdersWithBike(db)
     .select([
       "w.id",
       "w.number",
