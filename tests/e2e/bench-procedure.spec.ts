@@ -5,7 +5,7 @@ import { typeNumber, typeTag, waitForServiceWorker, waitForSynced } from "./supp
 import { signIn } from "./support/demo-users";
 
 // Demo job #1006 (tag GSW-0006), assigned to the mechanic Tomas Reyes. Step numbers below are the
-// job's step list (1-based on screen): 3 top ring gap, 5 rod bolts (2 bolts: 50 %, 100 %, +120°),
+// job's step list (1-based on screen): 8 piston deck clearance, 5 rod bolts (2 bolts: 50 %, 100 %, +120°),
 // 6 case sealant with a 30-minute cure timer that blocks step 7, the case bolts.
 
 async function openStep(page: Page, n: number) {
@@ -28,9 +28,9 @@ test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer 
   await page.getByRole("button", { name: "Open this bike's job" }).click();
   await page.getByRole("button", { name: /Carry on/ }).click();
 
-  // Out of tolerance: a top ring gap over the maximum is flagged in colour, mark and words.
-  await openStep(page, 3);
-  await page.getByRole("button", { name: "I have read these cautions" }).click();
+  // Out of tolerance: a deck clearance over the maximum is flagged in colour, mark and words.
+  // (Step 8, in the head procedure, so the review test's bottom-end stage starts clean.)
+  await openStep(page, 8);
   await typeNumber(page, "0.52");
   await expect(page.locator('[data-verdict="high"]').first()).toContainText("High — over maximum");
   await page.getByLabel("Note for the supervisor (optional)").fill("gap opened up after honing");
@@ -83,7 +83,7 @@ test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer 
   );
   expect(torque.map((t) => `${t.pass_index}:${t.bolt}`)).toEqual(["1:1", "1:2", "2:1", "2:2", "3:1", "3:2"]);
   const high = await query<{ value: string; verdict: string; note: string }>(
-    "SELECT m.value::text, m.verdict, m.note FROM measurements m JOIN measurement_specs s ON s.id = m.spec_id JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1006 AND s.key = 'top-ring-gap'",
+    "SELECT m.value::text, m.verdict, m.note FROM measurements m JOIN measurement_specs s ON s.id = m.spec_id JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1006 AND s.key = 'deck-clearance'",
   );
   expect(high).toEqual([{ value: "0.52", verdict: "high", note: "gap opened up after honing" }]);
   const timers = await query<{ label: string; duration_s: number }>(
