@@ -25,6 +25,7 @@ const CUSTOMERS = [
   { key: "felix", name: "Felix Amadi", email: "felix.amadi@example.test", phone: "+44 7700 900101" },
   { key: "ruth", name: "Ruth Calloway", email: "ruth.calloway@example.test", phone: "+44 7700 900202" },
   { key: "sam", name: "Sam Okafor", email: "sam.okafor@example.test", phone: "+44 7700 900303" },
+  { key: "noor", name: "Noor Haddad", email: "noor.haddad@example.test", phone: "+44 7700 900404" },
 ];
 
 // Makes and models are invented too.
@@ -35,6 +36,7 @@ const BIKES = [
   { key: "marlin", customer: "sam", make: "Marlin", model: "Sixty Sport", year: 2015, cc: 636, colour: "Blue", tag: "GSW-0004" },
   { key: "corvid2", customer: "sam", make: "Corvid", model: "RX1000", year: 2013, cc: 998, colour: "Black", tag: "GSW-0005" },
   { key: "vireo", customer: "sam", make: "Vireo", model: "Nine Fifty", year: 2014, cc: 948, colour: "Green", tag: "GSW-0006" },
+  { key: "kestrel", customer: "noor", make: "Kestrel", model: "Sprint 800", year: 2012, cc: 799, colour: "Yellow", tag: "GSW-0007" },
 ];
 
 const WORK_ORDERS: Array<{
@@ -75,6 +77,16 @@ const WORK_ORDERS: Array<{
     odometer: 36400,
     mechanic: "mechanic",
     templates: ["bottom-end-assembly", "cylinder-head-installation"],
+  },
+  {
+    // Kept for the review round trip (measure, sign off, send back, redo, approve) so it starts clean.
+    bike: "kestrel",
+    title: "Bottom-end measure-up after an oil-pressure warning",
+    status: "in_build",
+    complaint: "Oil-pressure light flickered at hot idle; wants the bottom end measured before a season of racing.",
+    odometer: 27950,
+    mechanic: "mechanic",
+    templates: ["bottom-end-assembly"],
   },
 ];
 

@@ -37,10 +37,10 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await expect(office.getByTestId("error-bike-year")).toContainText("year must be a whole number");
   await office.getByLabel("Year").fill("2019");
   await office.getByRole("button", { name: "Add bike" }).click();
-  await expect(office.getByTestId("form-ok")).toContainText("Bike added with tag GSW-0007");
+  await expect(office.getByTestId("form-ok")).toContainText("Bike added with tag GSW-0008");
 
   // book it in, with a condition photo; an empty form is refused field by field
-  await office.getByTestId("customer-bike").filter({ hasText: "GSW-0007" }).getByRole("link", { name: "Book in" }).click();
+  await office.getByTestId("customer-bike").filter({ hasText: "GSW-0008" }).getByRole("link", { name: "Book in" }).click();
   await office.getByRole("button", { name: "Book in" }).click();
   await expect(office.getByTestId("error-title")).toBeVisible();
   await expect(office.getByTestId("error-odometerKm")).toHaveText("✖ enter the odometer reading in km as a whole number");
@@ -49,7 +49,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByLabel("Odometer (km)").fill("18250");
   await office.getByLabel("Condition photos").setInputFiles({ name: "left-side.png", mimeType: "image/png", buffer: TINY_PNG });
   await office.getByRole("button", { name: "Book in" }).click();
-  await expect(office.getByRole("heading", { level: 1 })).toContainText("#1007 Turbo conversion and intercooler");
+  await expect(office.getByRole("heading", { level: 1 })).toContainText("#1008 Turbo conversion and intercooler");
   await expect(office.getByTestId("work-order-status")).toContainText("Booked in");
   const photo = office.getByTestId("note-photo").first();
   await expect(photo).toBeVisible();
@@ -76,7 +76,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByRole("button", { name: "Send to the customer" }).click();
   await expect(office.getByTestId("work-order-status")).toContainText("Quoted");
   await expect(office.getByTestId("quote-version").first()).toContainText("Sent — waiting for the customer");
-  await expectMail(rider.email, "Your quote for work order 1007 is ready");
+  await expectMail(rider.email, "Your quote for work order 1008 is ready");
 
   // the customer approves and pays the deposit from their own sign-in
   const customer = await (await browser.newContext()).newPage();
@@ -85,7 +85,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await customer.getByLabel("Password").fill(rider.password);
   await customer.getByRole("button", { name: "Sign in" }).click();
   await expect(customer.getByTestId("whoami")).toContainText(rider.name);
-  const card = customer.getByTestId("my-work-order").filter({ hasText: "#1007" });
+  const card = customer.getByTestId("my-work-order").filter({ hasText: "#1008" });
   await expect(card.getByTestId("customer-quote-total")).toHaveText("£259.19");
   await card.getByRole("button", { name: "Approve this quote" }).click();
   await card.getByRole("button", { name: "Pay the deposit (£50.00)" }).click();
@@ -99,7 +99,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await expect
     .poll(async () => (await webhookDeliveries()).find((d) => d.eventId === paid!.id && d.url.endsWith("/api/payments/webhook") && d.url.includes(`:${process.env.E2E_PORT ?? 3100}/`))?.status, { timeout: 10_000 })
     .toBe(200);
-  await expectMail(rider.email, "Deposit received for work order 1007");
+  await expectMail(rider.email, "Deposit received for work order 1008");
 
   // back in the office: the deposit shows paid; assign, pin a template, start the build
   await office.reload();

@@ -7,7 +7,7 @@ import { demoUser, signIn } from "./support/demo-users";
 import { MAIL_WEB } from "./support/fakes";
 import { acknowledgeCautions, correctOutOfTolerance, finishStep, openStep, readOpenSpots } from "./support/review-bench";
 
-// The whole loop on demo job #1006 (tag GSW-0006, Tomas Reyes): the first stage done and signed
+// The whole loop on demo job #1007 (tag GSW-0007, Tomas Reyes): the first stage done and signed
 // off offline, synced, sent back by the supervisor (Dana Kowal), reopened on the tablet with the
 // reason, redone, signed off again and approved; the supervisor's e-mail in maildev; the trail on
 // the audit page and in its CSV.
@@ -43,10 +43,10 @@ async function reviewCount(page: Page): Promise<number> {
   return Number((await badge.textContent())!.match(/\d+/)![0]);
 }
 
-// Parked: after the bench tests on the same job, the loop that corrects the out-of-tolerance readings
-// of the reopened step can keep finding a "High" slot and runs into the time limit. Issue 6 stays open
-// until this is found and fixed; the decision paths are covered by tests/integration/review-*.test.ts.
-test.fixme("offline sign-off → send back with a reason → reopened on the tablet → redo → approve, with e-mail and audit trail", async ({ browser }) => {
+// Job #1007 is seeded for this test alone: no other test reads on it or starts its timers, so the
+// counts below are exact. (On a shared job, another test's cure timer ran out mid-test and its
+// banner sat over the step.)
+test("offline sign-off → send back with a reason → reopened on the tablet → redo → approve, with e-mail and audit trail", async ({ browser }) => {
   test.setTimeout(300_000);
   const bench = await browser.newContext({ viewport: { width: 1024, height: 768 } });
   const mech = await bench.newPage();
@@ -58,24 +58,25 @@ test.fixme("offline sign-off → send back with a reason → reopened on the tab
   // --- The mechanic works the first stage with the network off and signs it off.
   await bench.setOffline(true);
   await expect(mech.getByTestId("net-state")).toHaveText(/Offline/);
-  await typeTag(mech, "GSW-0006");
+  await typeTag(mech, "GSW-0007");
   await mech.getByRole("button", { name: "Open this bike's job" }).click();
-  await expect(mech.getByRole("heading", { name: "Vireo Nine Fifty" })).toBeVisible();
+  await expect(mech.getByRole("heading", { name: "Kestrel Sprint 800" })).toBeVisible();
   for (let n = 1; n <= 4; n++) {
     await openStep(mech, n);
     await acknowledgeCautions(mech);
     await readOpenSpots(mech, VALUES);
     await finishStep(mech);
   }
+  await expect(mech.getByTestId("timer-alert")).toHaveCount(0);
   await mech.getByRole("button", { name: "All steps" }).click();
   await mech.getByRole("button", { name: `Sign off “${STAGE}” as Tomas Reyes` }).click();
   await expect(mech.getByTestId("stage-signed").first()).toContainText("(waiting to send)");
-  const offlineSignOffs = await query("SELECT count(*)::int AS n FROM sign_offs s JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1006");
+  const offlineSignOffs = await query("SELECT count(*)::int AS n FROM sign_offs s JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1007");
   expect(offlineSignOffs[0].n).toBe(0);
 
   await bench.setOffline(false);
   await waitForSynced(mech);
-  const [signOff] = await query<{ id: string }>("SELECT s.id FROM sign_offs s JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1006 AND s.stage_key = 'measure'");
+  const [signOff] = await query<{ id: string }>("SELECT s.id FROM sign_offs s JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1007 AND s.stage_key = 'measure'");
   expect(signOff).toBeTruthy();
 
   // --- The supervisor finds it in the queue and sends it back.
@@ -84,19 +85,19 @@ test.fixme("offline sign-off → send back with a reason → reopened on the tab
   sup.on("pageerror", (e) => console.log(`[review page error] ${e.message}`));
   await signIn(sup, "supervisor");
   await expect(sup).toHaveURL(/\/review$/);
-  const row = sup.getByTestId("review-queue").getByRole("row").filter({ hasText: "#1006" });
+  const row = sup.getByTestId("review-queue").getByRole("row").filter({ hasText: "#1007" });
   await expect(row).toContainText(STAGE);
   await expect(row).toContainText("Tomas Reyes");
-  await expect(row.getByTestId("queue-oot")).toContainText(/\d+ readings?/);
+  await expect(row.getByTestId("queue-oot")).toContainText("1 reading");
   const before = await reviewCount(sup);
 
   // The out-of-tolerance filter keeps it; the other way round hides it.
   await sup.getByLabel("Readings").selectOption("no");
-  await expect(sup.getByTestId("review-queue").getByRole("row").filter({ hasText: "#1006" })).toHaveCount(0);
+  await expect(sup.getByTestId("review-queue").getByRole("row").filter({ hasText: "#1007" })).toHaveCount(0);
   await sup.getByLabel("Readings").selectOption("yes");
   await expect(row).toBeVisible();
 
-  await row.getByRole("link", { name: /Review #1006/ }).click();
+  await row.getByRole("link", { name: /Review #1007/ }).click();
   await expect(sup.getByRole("heading", { level: 1 })).toHaveText(STAGE);
   await expect(sup.getByTestId("review-step")).toHaveCount(4);
   const ringStep = sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" });
@@ -123,7 +124,7 @@ test.fixme("offline sign-off → send back with a reason → reopened on the tab
 
   // The supervisor's e-mail about the readings out of tolerance, captured by maildev.
   const mail = await mailAbout(demoUser("supervisor").email, signOff.id);
-  expect(mail.subject).toMatch(/^Work order 1006: "Measure before assembly" signed off with \d+ readings? out of tolerance$/);
+  expect(mail.subject).toMatch(/^Work order 1007: "Measure before assembly" signed off with 1 reading out of tolerance$/);
   expect(mail.text).toContain("Top ring gap, Cyl 2: 0.5 mm (high; limits 0.35–0.48 mm)");
   expect(mail.text).toContain("Tomas Reyes signed off");
 
@@ -137,7 +138,7 @@ test.fixme("offline sign-off → send back with a reason → reopened on the tab
   await reopened.click();
   await expect(mech.getByTestId("reopened-reason")).toHaveText(`↺ Sent back by the supervisor: ${REASON}`);
   await acknowledgeCautions(mech);
-  await correctOutOfTolerance(mech, "0.44");
+  expect(await correctOutOfTolerance(mech, "0.44")).toEqual(["Top ring gap Cyl 2"]);
   await finishStep(mech);
   await mech.getByRole("button", { name: "All steps" }).click();
   await mech.getByRole("button", { name: `Sign off “${STAGE}” as Tomas Reyes` }).click();
@@ -145,16 +146,16 @@ test.fixme("offline sign-off → send back with a reason → reopened on the tab
 
   // --- The new sign-off is back in the queue, marked as coming after a send-back; approve it.
   await sup.goto("/review");
-  const again = sup.getByTestId("review-queue").getByRole("row").filter({ hasText: "#1006" });
+  const again = sup.getByTestId("review-queue").getByRole("row").filter({ hasText: "#1007" });
   await expect(again).toContainText("after a send-back");
   await expect(again).toContainText("none");
-  await again.getByRole("link", { name: /Review #1006/ }).click();
+  await again.getByRole("link", { name: /Review #1007/ }).click();
   await expect(sup.getByText("Earlier sign-offs of this stage (1)")).toBeVisible();
   await expect(sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" })).toContainText(`Sent back once — latest: “${REASON}”`);
-  // Every corrected spot (Cyl 2 here; Cyl 1 too when an earlier test left it high) now counts.
+  // The corrected spot now counts; the reading it replaced stays on record.
   const corrected = sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" }).getByTestId("reading-row").filter({ hasText: "0.44 mm" });
-  await expect(corrected.first()).toBeVisible();
-  for (const r of await corrected.all()) await expect(r).toContainText("current");
+  await expect(corrected).toHaveCount(1);
+  await expect(corrected).toContainText("current");
   await expect(sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" }).getByTestId("reading-row").filter({ hasText: "0.5 mm" })).toContainText("replaced by a correction");
   await sup.getByRole("radio", { name: "✔ Approve" }).check();
   await sup.getByRole("button", { name: `Approve “${STAGE}”` }).click();
@@ -163,10 +164,10 @@ test.fixme("offline sign-off → send back with a reason → reopened on the tab
 
   const decisions = await query<{ decision: string; reason: string; reopened: string[] }>(
     `SELECT d.decision, d.reason, d.reopened_step_ids::text[] AS reopened FROM review_decisions d JOIN sign_offs s ON s.id = d.sign_off_id
-     JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1006 ORDER BY d.change_seq`,
+     JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1007 ORDER BY d.change_seq`,
   );
   const [ringGap] = await query<{ id: string }>(
-    "SELECT ts.id FROM template_steps ts JOIN job_procedures jp ON jp.template_version_id = ts.template_version_id JOIN work_orders w ON w.id = jp.work_order_id WHERE w.number = 1006 AND ts.key = 'ring-gap'",
+    "SELECT ts.id FROM template_steps ts JOIN job_procedures jp ON jp.template_version_id = ts.template_version_id JOIN work_orders w ON w.id = jp.work_order_id WHERE w.number = 1007 AND ts.key = 'ring-gap'",
   );
   expect(decisions).toEqual([
     { decision: "sent_back", reason: REASON, reopened: [ringGap.id] },
@@ -178,8 +179,8 @@ test.fixme("offline sign-off → send back with a reason → reopened on the tab
   await waitForSynced(mech);
   await expect(mech.getByRole("region", { name: `Stage ${STAGE}` })).toContainText("Approved by the supervisor");
 
-  await sup.getByRole("link", { name: "Audit trail of job #1006" }).click();
-  await expect(sup).toHaveURL(/\/audit\?job=1006$/);
+  await sup.getByRole("link", { name: "Audit trail of job #1007" }).click();
+  await expect(sup).toHaveURL(/\/audit\?job=1007$/);
   const audit = sup.getByTestId("audit-table");
   await expect(audit.getByRole("row").filter({ hasText: "review.approve" }).first()).toContainText("Dana Kowal");
   await expect(audit.getByRole("row").filter({ hasText: "review.send-back" }).filter({ hasText: "accepted" })).toContainText(REASON);
@@ -188,12 +189,12 @@ test.fixme("offline sign-off → send back with a reason → reopened on the tab
   await expect(audit.getByRole("row").filter({ hasText: "review.notice-mail" }).first()).toContainText("accepted");
 
   const [download] = await Promise.all([sup.waitForEvent("download"), sup.getByTestId("audit-export").click()]);
-  expect(download.suggestedFilename()).toMatch(/^audit-log-job-1006-\d{4}-\d\d-\d\d\.csv$/);
+  expect(download.suggestedFilename()).toMatch(/^audit-log-job-1007-\d{4}-\d\d-\d\d\.csv$/);
   const csv = Papa.parse<Record<string, string>>(await readFile(await download.path(), "utf8"), { header: true, skipEmptyLines: true });
   const sendBack = csv.data.find((r) => r.action === "review.send-back" && r.outcome === "accepted");
-  expect(sendBack).toMatchObject({ work_order: "1006", actor_email: demoUser("supervisor").email, actor_role: "supervisor", reason: REASON, entity_id: signOff.id });
+  expect(sendBack).toMatchObject({ work_order: "1007", actor_email: demoUser("supervisor").email, actor_role: "supervisor", reason: REASON, entity_id: signOff.id });
   expect(csv.data.filter((r) => r.action === "sync.stage.signed-off").map((r) => r.actor_name)).toEqual(["Tomas Reyes", "Tomas Reyes"]);
-  expect(csv.data.every((r) => r.work_order === "1006")).toBe(true);
+  expect(csv.data.every((r) => r.work_order === "1007")).toBe(true);
 
   await bench.close();
   await office.close();

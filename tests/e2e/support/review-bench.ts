@@ -48,20 +48,33 @@ export async function readOpenSpots(page: Page, values: Record<string, string>) 
   }
 }
 
-/** Replaces every reading out of tolerance shown on the step with `value` (a correction). */
-export async function correctOutOfTolerance(page: Page, value: string) {
+/**
+ * Replaces every reading out of tolerance shown on the step with `value` (a correction), one spot
+ * at a time, waiting for each spot to show the new value. Returns the spots corrected
+ * ("spec label slot label").
+ */
+export async function correctOutOfTolerance(page: Page, value: string): Promise<string[]> {
+  const corrected: string[] = [];
   const sections = page.getByRole("region", { name: /^Measure / });
   const count = await sections.count();
   for (let s = 0; s < count; s++) {
     const section = sections.nth(s);
+    const label = (await section.getAttribute("aria-label"))!.replace(/^Measure /, "");
     const bad = section.getByRole("button").filter({ hasText: /High|Low/ });
-    while ((await bad.count()) > 0) {
-      await bad.first().click();
+    const slots = await bad.evaluateAll((els) => els.map((el) => el.querySelector("span")?.textContent?.trim() ?? ""));
+    for (const slotName of slots) {
+      const slot = section.getByRole("button").filter({ has: page.getByText(slotName, { exact: true }) });
+      await slot.click();
+      await expect(section.getByText(`Reading for: ${slotName}`)).toBeVisible();
       await typeIn(section, value);
       await section.getByRole("button", { name: "Save reading" }).click();
-      await expect(section.getByRole("status").filter({ hasText: "saved" })).toContainText("correction");
+      await expect(section.getByRole("status").filter({ hasText: "saved" })).toContainText(`${slotName}: ${value} mm saved (correction`);
+      await expect(slot).toContainText(`${value} mm`);
+      await expect(slot).not.toContainText(/High|Low/);
+      corrected.push(`${label} ${slotName}`);
     }
   }
+  return corrected;
 }
 
 export async function finishStep(page: Page) {
