@@ -1,25 +1,13 @@
 import { sql, type Kysely } from "kysely";
+import type { AuditEntry } from "@/lib/review/audit-csv";
 import type { AuditFilter, AuditQuery } from "@/lib/review/list-queries";
 import type { Database } from "./schema";
 
 // Reading the append-only audit log of a shop: a page for the screen, and batches for the CSV
 // export (keyset by id, so a long export never re-reads or skips rows while new ones arrive).
 
-export interface AuditRow {
-  id: string;
-  at: string;
-  workOrderNumber: number | null;
-  actorName: string | null;
-  actorEmail: string | null;
-  actorRole: string | null;
-  deviceId: string | null;
-  action: string;
-  entity: string;
-  entityId: string | null;
-  outcome: "accepted" | "refused";
-  reason: string | null;
-  detail: Record<string, unknown>;
-}
+/** An entry of the log with the names it refers to (see lib/review/audit-csv.ts). */
+export type AuditRow = AuditEntry;
 
 const SORT_SQL: Record<AuditQuery["sort"], string> = { at: "a.id", job: "w.number", actor: "u.name", action: "a.action", outcome: "a.outcome" };
 

@@ -1,15 +1,13 @@
 import { sql, type Kysely } from "kysely";
 import type { DynoRunInput, StoredDynoRun } from "@/lib/dyno";
 import type { Database } from "./schema";
+import { workOrdersWithBike } from "./work-orders";
 
 // Dyno runs by work order. Every query is scoped by the signed-in user's shop.
 
 /** The work order with its bike and customer, or null when it is not this shop's. */
 export async function findDynoJob(db: Kysely<Database>, shopId: string, workOrderId: string) {
-  const row = await db
-    .selectFrom("work_orders as w")
-    .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .innerJoin("customers as c", "c.id", "b.customer_id")
+  const row = await workOrdersWithBike(db)
     .select([
       "w.id",
       "w.number",

@@ -22,7 +22,8 @@ export const AUDIT_CSV_COLUMNS = [
   "detail_json",
 ] as const;
 
-export interface AuditCsvSource {
+/** One audit log entry as the screen and the CSV show it. */
+export interface AuditEntry {
   id: string;
   at: string;
   workOrderNumber: number | null;
@@ -33,12 +34,12 @@ export interface AuditCsvSource {
   action: string;
   entity: string;
   entityId: string | null;
-  outcome: string;
+  outcome: "accepted" | "refused";
   reason: string | null;
-  detail: unknown;
+  detail: Record<string, unknown>;
 }
 
-export function auditCsvCells(r: AuditCsvSource): string[] {
+export function auditCsvCells(r: AuditEntry): string[] {
   return [
     r.id,
     r.at,
@@ -57,7 +58,7 @@ export function auditCsvCells(r: AuditCsvSource): string[] {
 }
 
 /** CSV lines (CRLF-terminated) for the rows; with the header line when `header` is true. */
-export function auditCsvChunk(rows: readonly AuditCsvSource[], header: boolean): string {
+export function auditCsvChunk(rows: readonly AuditEntry[], header: boolean): string {
   const data = rows.map(auditCsvCells);
   if (!data.length && !header) return "";
   const text = Papa.unparse(

@@ -3,9 +3,8 @@
 import type { ColumnDef } from "@tanstack/react-table";
 import { useCallback, useState } from "react";
 import { DataTable } from "@/app/ui/data-table";
+import { JobNumberFilter, SelectFilter, jobNumberFilter } from "@/app/ui/table-filters";
 import type { AuditRow } from "@/db/audit-log";
-
-const selectClass = "min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal";
 
 const ACTIONS = [
   { value: "", label: "Anything" },
@@ -13,6 +12,12 @@ const ACTIONS = [
   { value: "sync.", label: "Bench work from tablets" },
   { value: "sync.measurement", label: "Readings" },
   { value: "sync.stage.signed-off", label: "Sign-offs" },
+];
+
+const OUTCOMES = [
+  { value: "", label: "Either" },
+  { value: "accepted", label: "Accepted" },
+  { value: "refused", label: "Refused" },
 ];
 
 const time = (v: string) => new Date(v).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" });
@@ -71,8 +76,7 @@ export function AuditTable({ initialJob }: { initialJob: string }) {
   const [action, setAction] = useState("");
   const [q, setQ] = useState("");
   const onSearch = useCallback((v: string) => setQ(v), []);
-  const jobOk = /^\d*$/.test(job.trim());
-  const filters = { job: jobOk ? job.trim() : "", outcome, action };
+  const filters = { job: jobNumberFilter(job).value, outcome, action };
   const exportUrl = `/api/audit/export?${new URLSearchParams({ ...filters, q })}`;
   return (
     <DataTable<AuditRow>
@@ -87,35 +91,9 @@ export function AuditTable({ initialJob }: { initialJob: string }) {
       onSearchChange={onSearch}
       toolbar={
         <>
-          <label className="flex flex-col gap-1 text-base font-bold">
-            Job number
-            <input
-              inputMode="numeric"
-              value={job}
-              onChange={(e) => setJob(e.target.value)}
-              aria-invalid={!jobOk}
-              className="min-h-12 w-32 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal aria-[invalid=true]:border-fail"
-            />
-            {!jobOk && <span className="text-sm text-fail">✖ digits only</span>}
-          </label>
-          <label className="flex flex-col gap-1 text-base font-bold">
-            What
-            <select value={action} onChange={(e) => setAction(e.target.value)} className={selectClass}>
-              {ACTIONS.map((a) => (
-                <option key={a.value} value={a.value}>
-                  {a.label}
-                </option>
-              ))}
-            </select>
-          </label>
-          <label className="flex flex-col gap-1 text-base font-bold">
-            Outcome
-            <select value={outcome} onChange={(e) => setOutcome(e.target.value)} className={selectClass}>
-              <option value="">Either</option>
-              <option value="accepted">Accepted</option>
-              <option value="refused">Refused</option>
-            </select>
-          </label>
+          <JobNumberFilter value={job} onChange={setJob} />
+          <SelectFilter label="What" value={action} onChange={setAction} options={ACTIONS} />
+          <SelectFilter label="Outcome" value={outcome} onChange={setOutcome} options={OUTCOMES} />
           <a href={exportUrl} download className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 text-lg font-bold text-white" data-testid="audit-export">
             Download CSV
           </a>

@@ -5,9 +5,14 @@ import Link from "next/link";
 import { useState } from "react";
 import { DataTable } from "@/app/ui/data-table";
 import { dayTime } from "@/app/ui/dates";
+import { JobNumberFilter, SelectFilter, jobNumberFilter } from "@/app/ui/table-filters";
 import type { QueueRow } from "@/db/review-queue";
 
-const selectClass = "min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal";
+const READINGS = [
+  { value: "", label: "All" },
+  { value: "yes", label: "With readings out of tolerance" },
+  { value: "no", label: "All readings in tolerance" },
+];
 
 const columns: ColumnDef<QueueRow, unknown>[] = [
   {
@@ -75,53 +80,20 @@ export function ReviewQueue({ people }: { people: Array<{ id: string; name: stri
   const [job, setJob] = useState("");
   const [mechanic, setMechanic] = useState("");
   const [outOfTolerance, setOutOfTolerance] = useState("");
-  const jobOk = /^\d*$/.test(job.trim());
   return (
     <DataTable<QueueRow>
       endpoint="/api/review/queue"
       rowsKey="signOffs"
       columns={columns}
       initialSort={[{ id: "signed", desc: true }]}
-      filters={{ job: jobOk ? job.trim() : "", mechanic, outOfTolerance }}
+      filters={{ job: jobNumberFilter(job).value, mechanic, outOfTolerance }}
       searchLabel="Bike (tag, make or model)"
       testId="review-queue"
       toolbar={
         <>
-          <label className="flex flex-col gap-1 text-base font-bold">
-            Job number
-            <input
-              inputMode="numeric"
-              value={job}
-              onChange={(e) => setJob(e.target.value)}
-              aria-invalid={!jobOk}
-              aria-describedby={jobOk ? undefined : "job-error"}
-              className="min-h-12 w-32 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal aria-[invalid=true]:border-fail"
-            />
-            {!jobOk && (
-              <span id="job-error" className="text-sm text-fail">
-                ✖ digits only
-              </span>
-            )}
-          </label>
-          <label className="flex flex-col gap-1 text-base font-bold">
-            Signed by
-            <select value={mechanic} onChange={(e) => setMechanic(e.target.value)} className={selectClass}>
-              <option value="">Anyone</option>
-              {people.map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name}
-                </option>
-              ))}
-            </select>
-          </label>
-          <label className="flex flex-col gap-1 text-base font-bold">
-            Readings
-            <select value={outOfTolerance} onChange={(e) => setOutOfTolerance(e.target.value)} className={selectClass}>
-              <option value="">All</option>
-              <option value="yes">With readings out of tolerance</option>
-              <option value="no">All readings in tolerance</option>
-            </select>
-          </label>
+          <JobNumberFilter value={job} onChange={setJob} />
+          <SelectFilter label="Signed by" value={mechanic} onChange={setMechanic} options={[{ value: "", label: "Anyone" }, ...people.map((p) => ({ value: p.id, label: p.name }))]} />
+          <SelectFilter label="Readings" value={outOfTolerance} onChange={setOutOfTolerance} options={READINGS} />
         </>
       }
     />

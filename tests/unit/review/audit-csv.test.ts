@@ -1,8 +1,8 @@
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
-import { AUDIT_CSV_COLUMNS, auditCsvChunk, type AuditCsvSource } from "@/lib/review/audit-csv";
+import { AUDIT_CSV_COLUMNS, auditCsvChunk, type AuditEntry } from "@/lib/review/audit-csv";
 
-const row = (over: Partial<AuditCsvSource> = {}): AuditCsvSource => ({
+const row = (over: Partial<AuditEntry> = {}): AuditEntry => ({
   id: "41",
   at: "2026-12-02T09:15:00.000Z",
   workOrderNumber: 1006,

@@ -1,41 +1,27 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
-import { bikeSchema, issuesOf } from "@/lib/office/schemas";
-import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
+import type { FormEvent } from "react";
+import { bikeSchema } from "@/lib/office/schemas";
+import { api } from "@/app/ui/api-client";
+import { useCheckedForm } from "@/app/ui/use-checked-form";
 import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
 
 // Add a bike to a customer. The tag code may be left empty: the next one in the shop's series is given.
 export function BikeForm({ customerId }: { customerId: string }) {
   const router = useRouter();
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
-  const [busy, setBusy] = useState(false);
+  const { errors, message, busy, submit } = useCheckedForm();
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const form = e.currentTarget;
     const values = { ...Object.fromEntries(new FormData(form)), customerId };
-    const parsed = bikeSchema.safeParse(values);
-    if (!parsed.success) {
-      setErrors(fieldErrors(issuesOf(parsed.error)));
-      setMessage({ error: "Check the marked fields." });
-      return;
-    }
-    setErrors({});
-    setBusy(true);
-    try {
+    await submit(bikeSchema, values, async () => {
       const r = await api<{ id: string; tagCode: string }>("POST", "/api/office/bikes", values);
       form.reset();
-      setMessage({ ok: `Bike added with tag ${r.tagCode}.` });
       router.refresh();
-    } catch (err) {
-      if (err instanceof ApiError) setErrors(fieldErrors(err.issues));
-      setMessage({ error: (err as Error).message });
-    } finally {
-      setBusy(false);
-    }
+      return `Bike added with tag ${r.tagCode}.`;
+    });
   }
   const f = (name: string) => ({ id: `bike-${name}`, name, "aria-invalid": Boolean(errors[name]) });
   return (

@@ -1,9 +1,10 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
-import { customerSchema, issuesOf } from "@/lib/office/schemas";
-import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
+import type { FormEvent } from "react";
+import { customerSchema } from "@/lib/office/schemas";
+import { api } from "@/app/ui/api-client";
+import { useCheckedForm } from "@/app/ui/use-checked-form";
 import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
 
 type Values = { name: string; email: string; phone: string; notes: string };
@@ -11,37 +12,20 @@ type Values = { name: string; email: string; phone: string; notes: string };
 // Add or edit a customer. Checked with the same zod schema as the server, problems shown inline.
 export function CustomerForm({ customerId, initial }: { customerId?: string; initial?: Values }) {
   const router = useRouter();
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
-  const [busy, setBusy] = useState(false);
+  const { errors, message, busy, submit } = useCheckedForm();
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
-    const form = e.currentTarget;
-    const values = Object.fromEntries(new FormData(form)) as Values;
-    const parsed = customerSchema.safeParse(values);
-    if (!parsed.success) {
-      setErrors(fieldErrors(issuesOf(parsed.error)));
-      setMessage({ error: "Check the marked fields." });
-      return;
-    }
-    setErrors({});
-    setBusy(true);
-    try {
+    const values = Object.fromEntries(new FormData(e.currentTarget)) as Values;
+    await submit(customerSchema, values, async () => {
       if (customerId) {
         await api("PUT", `/api/office/customers/${customerId}`, values);
-        setMessage({ ok: "Saved." });
         router.refresh();
-      } else {
-        const r = await api<{ id: string }>("POST", "/api/office/customers", values);
-        router.push(`/office/customers/${r.id}`);
+        return "Saved.";
       }
-    } catch (err) {
-      if (err instanceof ApiError) setErrors(fieldErrors(err.issues));
-      setMessage({ error: (err as Error).message });
-    } finally {
-      setBusy(false);
-    }
+      const r = await api<{ id: string }>("POST", "/api/office/customers", values);
+      router.push(`/office/customers/${r.id}`);
+    });
   }
 
   const f = (name: keyof Values) => ({ id: name, name, defaultValue: initial?.[name] ?? "", "aria-invalid": Boolean(errors[name]), "aria-describedby": errors[name] ? `${name}-error` : undefined });

@@ -2,9 +2,9 @@
 
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
-import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
+import { api } from "@/app/ui/api-client";
 import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
-import { issuesOf } from "@/lib/office/schemas";
+import { useCheckedForm } from "@/app/ui/use-checked-form";
 import { newUserSchema } from "@/lib/office/user-schema";
 
 const ROLE_LABELS = { mechanic: "Mechanic", supervisor: "Supervisor", office: "Office", customer: "Customer" } as const;
@@ -12,34 +12,20 @@ const ROLE_LABELS = { mechanic: "Mechanic", supervisor: "Supervisor", office: "O
 // Give someone a sign-in. Checked with the same zod schema as the server, problems shown inline.
 export function UserForm({ customers }: { customers: Array<{ id: string; name: string }> }) {
   const router = useRouter();
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
+  const { errors, message, busy, submit } = useCheckedForm();
   const [role, setRole] = useState("mechanic");
-  const [busy, setBusy] = useState(false);
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const form = e.currentTarget;
-    const values = Object.fromEntries(new FormData(form));
-    const parsed = newUserSchema.safeParse({ ...values, customerId: values.customerId ?? null });
-    if (!parsed.success) {
-      setErrors(fieldErrors(issuesOf(parsed.error)));
-      setMessage({ error: "Check the marked fields." });
-      return;
-    }
-    setErrors({});
-    setBusy(true);
-    try {
-      await api("POST", "/api/office/users", { ...values, customerId: values.customerId ?? null });
-      setMessage({ ok: `Sign-in made for ${parsed.data.email}.` });
+    const entries = Object.fromEntries(new FormData(form));
+    const values = { ...entries, customerId: entries.customerId ?? null };
+    await submit(newUserSchema, values, async (user) => {
+      await api("POST", "/api/office/users", values);
       form.reset();
       router.refresh();
-    } catch (err) {
-      if (err instanceof ApiError) setErrors(fieldErrors(err.issues));
-      setMessage({ error: (err as Error).message });
-    } finally {
-      setBusy(false);
-    }
+      return `Sign-in made for ${user.email}.`;
+    });
   }
 
   const f = (name: string) => ({ id: name, name, "aria-invalid": Boolean(errors[name]), "aria-describedby": errors[name] ? `${name}-error` : undefined });
