@@ -6,6 +6,7 @@ const OFFICE_ROUTES: Array<[method: "GET" | "POST" | "PUT", path: string]> = [
   ["GET", "/api/office/work-orders"],
   ["POST", "/api/office/work-orders"],
   ["GET", `/api/office/work-orders/${NO_ID}`],
+  ["GET", `/api/office/work-orders/${NO_ID}/progress`],
   ["POST", `/api/office/work-orders/${NO_ID}/status`],
   ["POST", `/api/office/work-orders/${NO_ID}/assign`],
   ["POST", `/api/office/work-orders/${NO_ID}/notes`],

@@ -196,6 +196,22 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   expect(csv.data.filter((r) => r.action === "sync.stage.signed-off").map((r) => r.actor_name)).toEqual(["Tomas Reyes", "Tomas Reyes"]);
   expect(csv.data.every((r) => r.work_order === "1007")).toBe(true);
 
+  // --- The office sees the stage approved on the work order's build progress.
+  const desk = await browser.newContext({ viewport: { width: 768, height: 1024 } });
+  const officePage = await desk.newPage();
+  await signIn(officePage, "office");
+  const [job] = await query<{ id: string }>("SELECT id FROM work_orders WHERE number = 1007");
+  await officePage.goto(`/office/work-orders/${job.id}`);
+  const progress = officePage.getByTestId("build-progress");
+  const measured = progress.getByTestId("progress-stage").filter({ hasText: STAGE });
+  await expect(measured).toContainText("✔ Approved");
+  await expect(measured).toContainText("4/4");
+  await expect(measured).toContainText("none");
+  await expect(progress.getByTestId("progress-summary")).toContainText(/^4 of \d+ steps done · 1 of \d+ stages approved · no readings out of tolerance$/);
+  await expect(progress.getByTestId("progress-due")).toHaveCount(0);
+  await officePage.screenshot({ path: test.info().outputPath("office-build-progress.png"), fullPage: true });
+
   await bench.close();
   await office.close();
+  await desk.close();
 });

@@ -73,6 +73,7 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
       <h2 id="quote-heading" className="text-2xl font-bold">
         Quote
       </h2>
+      {data.quotes.length === 0 && !editable && <p className="mt-1 text-lg">No quote was made for this job.</p>}
       {data.quotes.length > 0 && (
         <ul className="mt-2 space-y-1">
           {data.quotes.map((q) => (

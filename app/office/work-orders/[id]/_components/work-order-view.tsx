@@ -5,13 +5,14 @@ import Link from "next/link";
 import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { dayTime } from "@/app/ui/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
+import { BuildProgressPanel } from "./build-progress-panel";
 import { NotesPanel } from "./notes-panel";
 import { PartsPanel } from "./parts-panel";
 import { QuoteEditor } from "./quote-editor";
 import { AssignPanel, StatusPanel } from "./status-panel";
 import type { WorkOrderData } from "./types";
 
-const MAIL_KIND = { quote_ready: "Quote ready", deposit_received: "Deposit received", bike_ready: "Bike ready" } as const;
+const MAIL_KIND = { quote_ready: "Quote ready", deposit_received: "Deposit received", bike_ready: "Bike ready", review_needed: "Readings out of tolerance, for the supervisor" } as const;
 
 export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string; currency: string; taxRateBp: number; warning?: string }) {
   const q = useQuery({
@@ -68,6 +69,7 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
         <StatusPanel data={data} />
         <AssignPanel data={data} />
       </div>
+      <BuildProgressPanel workOrderId={wo.id} number={wo.number} />
       <QuoteEditor key={data.quotes.map((x) => `${x.id}${x.status}`).join()} data={data} currency={currency} taxRateBp={taxRateBp} />
       <NotesPanel data={data} />
       <PartsPanel data={data} />
@@ -82,7 +84,7 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
             </li>
           ))}
         </ol>
-        <h3 className="mt-4 text-xl font-bold">E-mails to the customer</h3>
+        <h3 className="mt-4 text-xl font-bold">E-mails about this job</h3>
         {wo.emails.length === 0 ? (
           <p>None sent yet.</p>
         ) : (
