@@ -1,5 +1,6 @@
 import { sql, type Kysely } from "kysely";
-import type { DynoRunInput, StoredDynoRun } from "@/lib/dyno";
+import type { DynoRunInput, RunWithdrawalInput, StoredDynoRun } from "@/lib/dyno";
+import { appendAudit } from "./audit";
 import type { Database } from "./schema";
 import { workOrdersWithBike } from "./work-orders";
 
@@ -40,7 +41,7 @@ export async function listDynoJobs(db: Kysely<Database>, shopId: string) {
       "b.make",
       "b.model",
       "b.tag_code as tagCode",
-      eb.selectFrom("dyno_runs as r").select(eb.fn.countAll<number>().as("n")).whereRef("r.work_order_id", "=", "w.id").as("runCount"),
+      eb.selectFrom("dyno_runs as r").select(eb.fn.countAll<number>().as("n")).whereRef("r.work_order_id", "=", "w.id").where("r.withdrawn_at", "is", null).as("runCount"),
     ])
     .where("w.shop_id", "=", shopId)
     .where("w.status", "in", ["in_build", "in_review", "on_dyno", "ready", "handed_over"])
@@ -48,27 +49,31 @@ export async function listDynoJobs(db: Kysely<Database>, shopId: string) {
     .execute();
 }
 
-/** A work order's runs, oldest first, with their points (numbers parsed, units as stored). */
+/** A work order's runs, oldest first, with their points (numbers parsed, units as stored); withdrawn ones included and marked. */
 export async function listDynoRuns(db: Kysely<Database>, shopId: string, workOrderId: string): Promise<StoredDynoRun[]> {
   const runs = await db
-    .selectFrom("dyno_runs")
+    .selectFrom("dyno_runs as r")
+    .leftJoin("users as wu", "wu.id", "r.withdrawn_by")
     .select([
-      "id",
-      "label",
-      sql<string>`ran_on::text`.as("ranOn"),
-      "boost_target",
-      "boost_unit",
-      "pressure_kpa",
-      "temperature_c",
-      "humidity_percent",
-      "correction_standard",
-      "torque_unit",
-      "notes",
+      "r.id",
+      "r.label",
+      sql<string>`r.ran_on::text`.as("ranOn"),
+      "r.boost_target",
+      "r.boost_unit",
+      "r.pressure_kpa",
+      "r.temperature_c",
+      "r.humidity_percent",
+      "r.correction_standard",
+      "r.torque_unit",
+      "r.notes",
+      "r.withdrawn_at",
+      "r.withdrawn_reason",
+      "wu.name as withdrawnByName",
     ])
-    .where("shop_id", "=", shopId)
-    .where("work_order_id", "=", workOrderId)
-    .orderBy("ran_on")
-    .orderBy("created_at")
+    .where("r.shop_id", "=", shopId)
+    .where("r.work_order_id", "=", workOrderId)
+    .orderBy("r.ran_on")
+    .orderBy("r.created_at")
     .execute();
   if (runs.length === 0) return [];
   const points = await db
@@ -95,6 +100,7 @@ export async function listDynoRuns(db: Kysely<Database>, shopId: string, workOrd
     torqueUnit: r.torque_unit,
     notes: r.notes,
     points: points.filter((p) => p.run_id === r.id).map((p) => ({ rpm: Number(p.rpm), torque: Number(p.torque) })),
+    withdrawn: r.withdrawn_at && r.withdrawn_reason ? { at: r.withdrawn_at.toISOString(), byName: r.withdrawnByName, reason: r.withdrawn_reason } : null,
   }));
 }
 
@@ -137,5 +143,43 @@ export async function saveDynoRun(
       .values(run.points.map((p, position) => ({ run_id: id, position, rpm: p.rpm, torque: p.torque })))
       .execute();
     return id;
+  });
+}
+
+export type WithdrawRunResult = { ok: true; runId: string } | { ok: false; status: 404 | 409; reason: string };
+
+/**
+ * Withdraws a run of the work order (see lib/dyno/run-withdrawal.ts), with the audit entry, in one
+ * transaction. A run already withdrawn stays as it was (409): the first withdrawal stands.
+ */
+export async function withdrawDynoRun(
+  db: Kysely<Database>,
+  user: { id: string; shopId: string },
+  workOrderId: string,
+  runId: string,
+  input: RunWithdrawalInput,
+): Promise<WithdrawRunResult> {
+  return db.transaction().execute(async (trx) => {
+    const run = await trx
+      .selectFrom("dyno_runs")
+      .select(["id", "label", "withdrawn_at"])
+      .where("shop_id", "=", user.shopId)
+      .where("work_order_id", "=", workOrderId)
+      .where("id", "=", runId)
+      .forUpdate()
+      .executeTakeFirst();
+    if (!run) return { ok: false, status: 404, reason: "No such dyno run on this work order." };
+    const audit = { shopId: user.shopId, actorId: user.id, action: "dyno.run-withdrawn", entity: "dyno_run", entityId: run.id, workOrderId, reason: input.reason };
+    if (run.withdrawn_at) {
+      await appendAudit(trx, [{ ...audit, outcome: "refused", detail: { label: run.label, why: "already withdrawn" } }]);
+      return { ok: false, status: 409, reason: "This run was already withdrawn." };
+    }
+    await trx
+      .updateTable("dyno_runs")
+      .set({ withdrawn_at: sql<Date>`now()`, withdrawn_by: user.id, withdrawn_reason: input.reason })
+      .where("id", "=", run.id)
+      .execute();
+    await appendAudit(trx, [{ ...audit, outcome: "accepted", detail: { label: run.label } }]);
+    return { ok: true, runId: run.id };
   });
 }

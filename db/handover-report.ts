@@ -1,5 +1,6 @@
 import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
+import { countingRuns } from "@/lib/dyno/run-withdrawal";
 import { listDynoRuns } from "./dyno";
 import type { Database } from "./schema";
 import { workOrdersWithBike } from "./work-orders";
@@ -162,7 +163,8 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
         .execute()
     : [];
 
-  const runs = await listDynoRuns(db, shopId, workOrderId);
+  // Withdrawn runs stay on record but do not go in the report.
+  const runs = countingRuns(await listDynoRuns(db, shopId, workOrderId));
   return { job, procedures, steps, completed, parts, readings, torqueSpecs, signOffs, decisions, runs };
 }
 

@@ -1,6 +1,6 @@
 import type { ColumnType, Generated } from "kysely";
 
-// Table types for dyno runs (migration 2026_12_02_004_dyno). numeric comes back as a string.
+// Table types for dyno runs (migrations 2026_12_02_004_dyno, 2026_12_02_007_dyno_withdrawals). numeric comes back as a string.
 type Numeric = ColumnType<string, string | number, string | number>;
 type DateOnly = ColumnType<string, string, string>;
 
@@ -21,6 +21,9 @@ export interface DynoRunsTable {
   source: "table" | "csv";
   created_by: string | null;
   created_at: Generated<ColumnType<Date, Date | string | undefined, Date | string>>;
+  withdrawn_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  withdrawn_by: string | null;
+  withdrawn_reason: string | null;
 }
 
 export interface DynoPointsTable {

@@ -15,6 +15,7 @@ export type Area =
   | "audit" // view and export the audit log
   | "my-bikes" // a customer's own bikes
   | "dyno" // record and compare dyno runs on a work order
+  | "dyno-withdraw" // withdraw a dyno run recorded by mistake (with a reason; it stays on record)
   | "build-report" // download a work order's handover build report (customers: their own bikes only)
   | "calculators"; // engine numbers: compression, charge air, ring gaps, oil clearance, torque units
 
@@ -30,6 +31,7 @@ const AREAS: Record<Area, readonly Role[]> = {
   audit: ["office", "supervisor"],
   "my-bikes": ["customer"],
   dyno: ["office", "supervisor", "mechanic"],
+  "dyno-withdraw": ["office", "supervisor"],
   calculators: ["mechanic", "supervisor", "office"],
   "build-report": ["office", "supervisor", "customer"],
 };

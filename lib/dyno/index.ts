@@ -7,3 +7,4 @@ export * from "./curve-csv";
 export * from "./run-input";
 export * from "./plot-scale";
 export * from "./run-summary";
+export * from "./run-withdrawal";

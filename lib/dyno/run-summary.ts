@@ -6,6 +6,7 @@ import { convertPressure, convertTorque, POWER_CORRECTION_STANDARDS, type PowerC
 import { powerPerBoost } from "./boost";
 import type { CurveTorqueUnit } from "./curve-rows";
 import type { BoostUnit } from "./run-input";
+import type { DynoRunWithdrawal } from "./run-withdrawal";
 import { computeRunCurve, type RunCurve } from "./run-curve";
 
 export interface StoredDynoRun {
@@ -22,6 +23,8 @@ export interface StoredDynoRun {
   notes: string;
   /** Torque in `torqueUnit`, as recorded. */
   points: Array<{ rpm: number; torque: number }>;
+  /** Set when the run was withdrawn (see ./run-withdrawal.ts); it then counts nowhere. */
+  withdrawn: DynoRunWithdrawal | null;
 }
 
 export interface DynoRunSummary extends StoredDynoRun {

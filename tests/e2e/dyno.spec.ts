@@ -141,6 +141,13 @@ test("the build report route: the owner gets it, another customer and a mechanic
 test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing saved, then a good one", async ({ page }) => {
   await signIn(page, "mechanic");
   await openDemoTurboJob(page);
+  // Mechanics record runs; withdrawing one is for the supervisor or the office.
+  await expect(page.getByTestId("withdraw-run")).toHaveCount(0);
+  const jobId = /\/jobs\/([0-9a-f-]{36})\/dyno/.exec(page.url())![1];
+  const { runs } = (await (await page.request.get(`/api/jobs/${jobId}/dyno-runs`)).json()) as { runs: Array<{ id: string }> };
+  const refused = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${runs[0].id}/withdraw`, { data: { reason: "Mechanic trying to withdraw" } });
+  expect(refused.status()).toBe(403);
+  expect(JSON.stringify(await refused.json())).not.toContain(runs[0].id);
   const runButtons = page.getByRole("button", { name: /psi/ }).filter({ has: page.locator("span") });
   const before = await runButtons.count();
   await page.getByLabel("Run name").fill("11 psi, baffle out");
@@ -202,4 +209,22 @@ test("a supervisor types a curve into the table; a bad cell is named by row and 
   // 100 N·m at 7000 rpm, corrected with SAE J1349 at 101 kPa, 20 °C, 40 % RH; no boost → no per-psi figure
   await expect(row).toContainText("no boost");
   await expect(row.getByTestId("peak-torque")).toContainText("at 7000");
+
+  // Typed on the wrong job after all: the supervisor withdraws it with a reason. It leaves the plot
+  // and the figures, and stays on record below with who and why.
+  const curves = await page.getByTestId("curve-chart").locator("path.recharts-line-curve").count();
+  const withdraw = page.getByTestId("withdraw-run");
+  await withdraw.getByText("Withdraw a run recorded by mistake").click();
+  const runSelect = withdraw.getByLabel("Run", { exact: true });
+  await runSelect.selectOption((await runSelect.locator("option", { hasText: "Typed check" }).getAttribute("value"))!);
+  await withdraw.getByRole("button", { name: "Withdraw this run" }).click();
+  await expect(withdraw.getByTestId("error-reason")).toHaveText("✖ Say why the run is withdrawn (at least 5 characters).");
+  await withdraw.getByLabel("Why it is withdrawn").fill("Typed on the wrong job card");
+  await withdraw.getByRole("button", { name: "Withdraw this run" }).click();
+  await expect(withdraw.getByTestId("form-ok")).toContainText("“Typed check” withdrawn");
+  await expect(page.getByRole("row", { name: /Typed check/ })).toHaveCount(0);
+  await expect(page.getByRole("button", { name: /Typed check/ })).toHaveCount(0);
+  await expect(page.getByTestId("curve-chart").locator("path.recharts-line-curve")).toHaveCount(curves - 2);
+  await expect(page.getByTestId("withdrawn-run").filter({ hasText: "Typed check" })).toContainText("by Dana Kowal: “Typed on the wrong job card”");
+  await page.screenshot({ path: `${SHOTS}/dyno-withdrawn.png`, fullPage: true });
 });

@@ -8,7 +8,9 @@ import { StatusBadge } from "@/app/ui/status-badge";
 import { db } from "@/db/client";
 import { findDynoJob, listDynoRuns } from "@/db/dyno";
 import { canReach } from "@/lib/auth/roles";
+import { countingRuns } from "@/lib/dyno/run-withdrawal";
 import { DynoWorkspace } from "./_components/dyno-workspace";
+import { WithdrawnRuns, WithdrawRunForm } from "./_components/withdraw-run";
 
 export const metadata: Metadata = { title: "Dyno runs" };
 
@@ -18,7 +20,9 @@ export default async function JobDynoPage({ params }: { params: Promise<{ id: st
   if (!id) notFound();
   const job = await findDynoJob(db(), user.shopId, id);
   if (!job) notFound();
-  const runs = await listDynoRuns(db(), user.shopId, id);
+  const all = await listDynoRuns(db(), user.shopId, id);
+  const runs = countingRuns(all);
+  const withdrawn = all.filter((r) => r.withdrawn !== null);
   const bikeName = `${job.make} ${job.model}`;
   return (
     <AppFrame user={user} current="/dyno">
@@ -47,6 +51,10 @@ export default async function JobDynoPage({ params }: { params: Promise<{ id: st
         )}
       </div>
       <DynoWorkspace workOrderId={job.id} bikeName={bikeName} runs={runs} />
+      <div className="mt-6 flex flex-col gap-6">
+        {canReach(user.role, "dyno-withdraw") && <WithdrawRunForm workOrderId={job.id} runs={runs} />}
+        <WithdrawnRuns runs={withdrawn} />
+      </div>
     </AppFrame>
   );
 }
