@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { db } from "@/db/client";
 import { bikesOfCustomer } from "@/db/bikes";
+import { loadBuildProgress } from "@/db/build-progress";
 import { quotesForCustomer } from "@/db/office/quotes";
 import { CustomerQuote, type CustomerQuoteData } from "./_components/customer-quote";
 import { requirePageArea } from "../_server/session";
@@ -15,6 +16,9 @@ export default async function MyBikesPage() {
   const quotes = user.customerId ? await quotesForCustomer(db(), user.shopId, user.customerId) : [];
   // the newest quote the customer may see, per work order
   const quoteOf = (workOrderId: string) => quotes.find((q) => q.workOrderId === workOrderId && q.status !== "superseded");
+  // how far the build has got, for jobs on the bench or in review (the bikes above are the customer's own)
+  const building = bikes.flatMap((b) => b.workOrders).filter((w) => w.status === "in_build" || w.status === "in_review");
+  const progress = new Map(await Promise.all(building.map(async (w) => [w.id, await loadBuildProgress(db(), user, w.id)] as const)));
   return (
     <AppFrame user={user} current="/my-bikes">
       <h1 className="text-3xl font-bold">My bikes</h1>
@@ -33,6 +37,11 @@ export default async function MyBikesPage() {
                     <span className="font-mono">#{w.number}</span> {w.title} <StatusBadge status={w.status} />
                     <a href={`/api/jobs/${w.id}/build-report`} download className="flex min-h-12 items-center rounded-lg border-2 border-ink px-3 text-base font-bold" data-testid="my-build-report">Build report (PDF)</a>
                   </div>
+                  {progress.get(w.id) && progress.get(w.id)!.stepsTotal > 0 && (
+                    <p className="mt-1 text-base" data-testid="my-build-progress">
+                      Build: {progress.get(w.id)!.stepsDone} of {progress.get(w.id)!.stepsTotal} steps done · {progress.get(w.id)!.approvedStages} of {progress.get(w.id)!.stages.length} stages checked by the workshop supervisor
+                    </p>
+                  )}
                   {quoteOf(w.id) && <CustomerQuote quote={JSON.parse(JSON.stringify(quoteOf(w.id))) as CustomerQuoteData} />}
                 </li>
               ))}

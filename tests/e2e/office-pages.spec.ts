@@ -172,3 +172,21 @@ test("the customer's own page shows the quote to approve, at both tablet sizes",
     await page.screenshot({ path: `test-results/office-screens/my-bikes-${size.width}x${size.height}.png`, fullPage: true });
   }
 });
+
+test("the customer sees how far the build has got, in the same figures the office sees", async ({ browser }) => {
+  const office = await (await browser.newContext()).newPage();
+  await signIn(office, "office");
+  await office.goto("/office");
+  await office.getByRole("link", { name: "1001", exact: true }).click();
+  const summary = office.getByTestId("build-progress").getByTestId("progress-summary");
+  await expect(summary).toContainText("steps done");
+  const [, done, total, approved, stages] = /^(\d+) of (\d+) steps done · (\d+) of (\d+) stages approved/.exec((await summary.textContent())!)!;
+  expect(Number(done)).toBeGreaterThan(0); // the demo turbo build has its bottom end done
+
+  const customer = await (await browser.newContext()).newPage();
+  await signIn(customer, "customer"); // Felix Amadi owns the bike of job #1001
+  const card = customer.getByTestId("my-work-order").filter({ hasText: "#1001" });
+  await expect(card.getByTestId("my-build-progress")).toHaveText(`Build: ${done} of ${total} steps done · ${approved} of ${stages} stages checked by the workshop supervisor`);
+  // a job not on the bench shows no build line
+  await expect(customer.getByTestId("my-work-order").filter({ hasText: "#1003" }).getByTestId("my-build-progress")).toHaveCount(0);
+});
