@@ -5,14 +5,16 @@ export default {
   content: ["./app/**/*.{ts,tsx}", "./lib/**/*.{ts,tsx}"],
   theme: {
     extend: {
+      // Each colour is a CSS variable (app/globals.css) so the bench's dim-bay palette can swap them.
       colors: {
-        ink: "#111418",
-        paper: "#f7f5f0",
-        steel: { 50: "#f1f3f5", 100: "#e2e6ea", 300: "#a9b3bd", 500: "#5b6773", 700: "#323b44", 900: "#161b20" },
-        signal: { DEFAULT: "#ffb400", dark: "#8a5a00" },
-        pass: { DEFAULT: "#0b6b2e", light: "#d9f2e1" },
-        fail: { DEFAULT: "#a3120f", light: "#fbe0df" },
-        warn: { DEFAULT: "#7a4b00", light: "#fff0cc" },
+        ink: "var(--c-ink)",
+        paper: "var(--c-paper)",
+        white: "var(--c-white)",
+        steel: { 50: "var(--c-steel-50)", 100: "var(--c-steel-100)", 300: "var(--c-steel-300)", 500: "var(--c-steel-500)", 700: "var(--c-steel-700)", 900: "var(--c-steel-900)" },
+        signal: { DEFAULT: "var(--c-signal)", dark: "var(--c-signal-dark)" },
+        pass: { DEFAULT: "var(--c-pass)", light: "var(--c-pass-light)" },
+        fail: { DEFAULT: "var(--c-fail)", light: "var(--c-fail-light)" },
+        warn: { DEFAULT: "var(--c-warn)", light: "var(--c-warn-light)" },
       },
       fontFamily: {
         sans: ["var(--font-body)", "system-ui", "sans-serif"],

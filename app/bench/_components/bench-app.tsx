@@ -5,6 +5,7 @@ import { useCallback, useEffect, useMemo, useState } from "react";
 import { benchDb } from "@/lib/client/bench-db";
 import { deviceId as readDeviceId } from "@/lib/client/device-id";
 import { syncOnce } from "@/lib/client/sync-client";
+import { useBayLight } from "./bay-light";
 import { BenchContext, type BenchUser } from "./bench-context";
 import { useHashRoute } from "./hash-route";
 import { HomeScreen } from "./home-screen";
@@ -50,16 +51,19 @@ function BenchRoot({ user }: { user: BenchUser }) {
   }, [refetch]);
 
   const route = useHashRoute();
+  const [bayLight, toggleBayLight] = useBayLight();
   if (!device) return <p className="p-6 text-xl">Opening the bench…</p>;
   return (
     <BenchContext.Provider value={{ user, db, deviceId: device, syncNow }}>
-      <SyncBar syncing={sync.isFetching} />
-      <TimerAlerts />
-      <div className="flex-1">
-        {route.screen === "home" && <HomeScreen />}
-        {route.screen === "scan" && <ScanScreen />}
-        {route.screen === "job" && <JobScreen jobId={route.jobId} />}
-        {route.screen === "step" && <StepScreen jobId={route.jobId} stepIndex={route.stepIndex} />}
+      <div data-bay={bayLight} data-testid="bench-root" className="flex flex-1 flex-col bg-paper text-ink">
+        <SyncBar syncing={sync.isFetching} bayLight={bayLight} onToggleBayLight={toggleBayLight} />
+        <TimerAlerts />
+        <div className="flex-1">
+          {route.screen === "home" && <HomeScreen />}
+          {route.screen === "scan" && <ScanScreen />}
+          {route.screen === "job" && <JobScreen jobId={route.jobId} />}
+          {route.screen === "step" && <StepScreen jobId={route.jobId} stepIndex={route.stepIndex} />}
+        </div>
       </div>
     </BenchContext.Provider>
   );

@@ -48,7 +48,7 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
   }
 
   // The side buttons run the full height of the screen at both edges, within a thumb's reach.
-  const edge = "no-print sticky top-0 flex h-[100dvh] w-20 shrink-0 items-center justify-center bg-steel-900 text-4xl font-bold text-white disabled:bg-steel-300 disabled:text-steel-700 md:w-24";
+  const edge = "no-print sticky top-0 flex h-[100dvh] w-20 shrink-0 items-center justify-center bg-steel-900 text-4xl font-bold text-white dim:bg-steel-100 dim:text-ink disabled:bg-steel-300 disabled:text-steel-700 md:w-24";
   return (
     <div
       className="flex items-start"

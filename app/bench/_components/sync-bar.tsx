@@ -2,6 +2,7 @@
 
 import { useEffect, useState } from "react";
 import { readSyncMeta } from "@/lib/client/sync-client";
+import type { BayLight } from "./bay-light";
 import { useBench } from "./bench-context";
 import { useLive, useNow } from "./use-live";
 
@@ -14,7 +15,7 @@ function ago(ms: number | null, now: number): string {
 }
 
 /** Sync state for a glance across the bench: online or not, how much is waiting, last sync, problems. */
-export function SyncBar({ syncing }: { syncing: boolean }) {
+export function SyncBar({ syncing, bayLight, onToggleBayLight }: { syncing: boolean; bayLight: BayLight; onToggleBayLight: () => void }) {
   const { db, syncNow } = useBench();
   const now = useNow(5000);
   const [online, setOnline] = useState(true);
@@ -46,9 +47,18 @@ export function SyncBar({ syncing }: { syncing: boolean }) {
         {syncing && <span className="font-bold">Syncing…</span>}
         <button
           type="button"
+          onClick={onToggleBayLight}
+          aria-pressed={bayLight === "dim"}
+          className="ml-auto min-h-12 rounded-lg border-2 border-steel-900 bg-white px-4 font-bold"
+        >
+          <span aria-hidden="true">{bayLight === "dim" ? "☾ " : "☀ "}</span>
+          Dim bay
+        </button>
+        <button
+          type="button"
           onClick={syncNow}
           disabled={!online || syncing}
-          className="ml-auto min-h-12 rounded-lg border-2 border-steel-900 bg-white px-4 font-bold disabled:opacity-50"
+          className="min-h-12 rounded-lg border-2 border-steel-900 bg-white px-4 font-bold disabled:opacity-50"
         >
           Sync now
         </button>

@@ -91,11 +91,11 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
               const isDone = next ? confirmed.has(`${next.passIndex}:${b.bolt}`) : true;
               return (
                 <g key={b.bolt} data-bolt={b.bolt} data-state={isNext ? "next" : isDone ? "done" : "todo"}>
-                  <circle cx={b.x} cy={b.y} r={isNext ? r * 1.35 : r} fill={isNext ? "#ffb400" : isDone ? "#0b6b2e" : "#ffffff"} stroke="#111418" strokeWidth={isNext ? 0.02 : 0.01} />
-                  <text x={b.x} y={b.y} dy="0.025" textAnchor="middle" fontSize={isNext ? 0.075 : 0.06} fontWeight="bold" fill={isDone && !isNext ? "#ffffff" : "#111418"}>
+                  <circle cx={b.x} cy={b.y} r={isNext ? r * 1.35 : r} style={{ fill: isNext ? "var(--c-signal)" : isDone ? "var(--c-pass)" : "var(--c-white)", stroke: "var(--c-ink)" }} strokeWidth={isNext ? 0.02 : 0.01} />
+                  <text x={b.x} y={b.y} dy="0.025" textAnchor="middle" fontSize={isNext ? 0.075 : 0.06} fontWeight="bold" style={{ fill: isDone && !isNext ? "var(--c-white)" : "var(--c-ink)" }}>
                     {b.bolt}
                   </text>
-                  <text x={b.x} y={b.y + r * 1.35 + 0.05} textAnchor="middle" fontSize="0.035" fill="#323b44">
+                  <text x={b.x} y={b.y + r * 1.35 + 0.05} textAnchor="middle" fontSize="0.035" style={{ fill: "var(--c-steel-700)" }}>
                     #{order.get(b.bolt)}
                   </text>
                 </g>
