@@ -35,6 +35,7 @@ function snapshot(readings: JobSnapshot["state"]["readings"]): JobSnapshot {
       signOffs: [],
       reviewDecisions: [],
       photos: [],
+      parts: [],
     },
     cursor: "9",
   };
