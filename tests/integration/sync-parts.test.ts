@@ -7,6 +7,7 @@ import { addPartFitted } from "@/db/office/parts";
 import { partsOfWorkOrder } from "@/db/parts-fitted";
 import { mergeBatch } from "@/db/sync";
 import { changesSince } from "@/db/sync-changes";
+import { loadSignOffReview } from "@/db/review-detail";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { OperationOf } from "@/lib/sync/operations";
 import { Tablet } from "../bench/sync-ops";
@@ -191,6 +192,22 @@ describe("bench-recorded parts read back", () => {
       [repeat.id, true],
     ]);
     expect((await changesSince(db, fx.shopId, tablet.deviceId, null)).changes).toEqual([]);
+  });
+
+  it("show on the supervisor's review of the signed-off stage, a repeated serial with its flag", async () => {
+    const { fx, mech, stepId, tablet } = await setup();
+    const first = tablet.make("part.fitted", piston(stepId));
+    const repeat = tablet.make("part.fitted", piston(stepId, { serial: "GS 0042" }));
+    const signOff = tablet.make("stage.signed-off", { jobProcedureId: fx.procedures[0].id, stageKey: "assemble" });
+    await mergeBatch(db, mech, tablet.batch([first, repeat, signOff]));
+
+    const review = (await loadSignOffReview(db, asUser(fx.users.supervisor), signOff.id))!;
+    const step = review.steps.find((s) => s.id === stepId)!;
+    expect(step.parts.map((p) => [p.id, p.serial, p.by?.name, p.flagReason])).toEqual([
+      [first.payload.partFittedId, "GS-0042", mech.name, null],
+      [repeat.payload.partFittedId, "GS 0042", mech.name, expect.stringContaining("Serial number GS 0042 of part GS-PST-7600 is already recorded")],
+    ]);
+    expect(review.steps.filter((s) => s.id !== stepId).flatMap((s) => s.parts)).toEqual([]);
   });
 
   it("show on the office's list and the handover report with the step and who fitted them", async () => {
