@@ -85,9 +85,11 @@ function workDone(doc: Pdf, d: HandoverReportData) {
   }
 }
 
+// Bench records name the mechanic who fitted the part; office records name who wrote them down.
 function fittedWhereBy(p: HandoverReportData["parts"][number]): string {
   const at = p.stepTitle ?? "no step named";
-  return p.fittedByName ? `${at}, ${p.fittedByName}` : at;
+  if (!p.fittedByName) return at;
+  return p.atBench ? `${at}, ${p.fittedByName}` : `${at}, recorded by ${p.fittedByName}`;
 }
 
 function partsFitted(doc: Pdf, d: HandoverReportData) {

@@ -231,6 +231,6 @@ describe("bench-recorded parts read back", () => {
     expect(text).toContain(squeeze("Fitted at, by"));
     expect(text).toContain("GS-0042");
     expect(text).toContain(squeeze(`Torque connecting-rod bolts, ${mech.name}`));
-    expect(text).toContain(squeeze(`no step named, ${fx.users.office.name}`));
+    expect(text).toContain(squeeze(`no step named, recorded by ${fx.users.office.name}`));
   });
 });
