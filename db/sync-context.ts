@@ -9,7 +9,8 @@ import type {
   TimerSpecFacts,
   TorqueSpecFacts,
 } from "@/lib/sync/merge-rules";
-import { emptyMergeState, partSerialOnJob } from "@/lib/sync/merge-rules";
+import { emptyMergeState } from "@/lib/sync/merge-rules";
+import { partSerialOnJob } from "@/lib/sync/parts";
 import type { Operation } from "@/lib/sync/operations";
 import type { ReadingSpec } from "@/lib/sync/readings";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";

@@ -7,7 +7,7 @@ import { canReach, type Role } from "@/lib/auth/roles";
 import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { compareStamps, parseStamp } from "./hlc";
 import type { Operation } from "./operations";
-import { repeatedSerialReason, serialKey, type SerialOnFile } from "./parts";
+import { partSerialOnJob, repeatedSerialReason, type SerialOnFile } from "./parts";
 
 /** A stamp further ahead of the server's clock than this is kept but flagged (the tablet's clock is likely wrong). */
 export const MAX_CLOCK_AHEAD_MS = 5 * 60_000;
@@ -71,16 +71,13 @@ export interface MergeState {
   attachmentIds: Set<string>;
   /** Part record ids (parts_fitted.id) in use. */
   partIds: Set<string>;
-  /** Serial-numbered parts on the batch's jobs, by `${workOrderId}|${serialKey}`. */
+  /** Serial-numbered parts on the batch's jobs, by `partSerialOnJob` (./parts.ts). */
   partSerials: Map<string, SerialOnFile>;
 }
 
 export function emptyMergeState(): MergeState {
   return { readings: new Map(), timers: new Map(), attachmentIds: new Set(), partIds: new Set(), partSerials: new Map() };
 }
-
-/** The key of `partSerials`. */
-export const partSerialOnJob = (workOrderId: string, partNumber: string, serial: string) => `${workOrderId}|${serialKey(partNumber, serial)}`;
 
 export interface DecisionInput {
   actor: Actor;

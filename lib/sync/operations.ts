@@ -160,7 +160,6 @@ export const partFittedPayload = z
     message: "a serial number names one part: record each serial-numbered part on its own, with quantity 1",
     path: ["quantity"],
   });
-export type PartFittedPayload = z.output<typeof partFittedPayload>;
 
 // ---------------------------------------------------------------------------------------------
 // Operation and batch

@@ -12,6 +12,9 @@ export function serialKey(partNumber: string, serial: string): string {
   return `${plain(partNumber)}\u0000${plain(serial)}`;
 }
 
+/** The merge's key for a serial-numbered part on one job. */
+export const partSerialOnJob = (workOrderId: string, partNumber: string, serial: string) => `${workOrderId}|${serialKey(partNumber, serial)}`;
+
 /** What the merge knows of a serial-numbered part already on a job. */
 export interface SerialOnFile {
   /** The step it was fitted at (null when the office recorded it without one). */

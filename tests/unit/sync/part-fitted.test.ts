@@ -1,9 +1,9 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { formatStamp } from "@/lib/sync/hlc";
-import { decideOperation, emptyMergeState, noteAccepted, partSerialOnJob, type Actor, type JobFacts } from "@/lib/sync/merge-rules";
+import { decideOperation, emptyMergeState, noteAccepted, type Actor, type JobFacts } from "@/lib/sync/merge-rules";
 import { operationSchema, partFittedPayload, type Operation } from "@/lib/sync/operations";
-import { serialKey } from "@/lib/sync/parts";
+import { partSerialOnJob, serialKey } from "@/lib/sync/parts";
 
 // The `part.fitted` operation: its payload schema (what a tablet may send, and the messages when
 // not) and its merge rules (step on the job, one row per record id, a repeated serial flagged).
