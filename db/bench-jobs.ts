@@ -248,9 +248,9 @@ export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jo
     });
 }
 
-/** The recorded work on a job: completions, every reading (superseded too), torque, timers, sign-offs, decisions, photos. */
+/** The recorded work on a job: completions, every reading (superseded too), torque, timers, sign-offs, decisions, photos, parts. */
 async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSnapshot["state"]> {
-  const [completions, readings, torque, timers, signOffs, decisions, photos] = await Promise.all([
+  const [completions, readings, torque, timers, signOffs, decisions, photos, parts] = await Promise.all([
     sql<{ id: string; step_id: string; completed_by: string; device_time: Date; received_at: Date; flagged: boolean; flag_reason: string | null; seq: string | number }>`
       SELECT c.id, c.step_id, c.completed_by, c.device_time, c.received_at, c.flagged, c.flag_reason, o.seq
       FROM step_completions c JOIN operations o ON o.id = c.id
@@ -302,6 +302,15 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
     sql<{ id: string; step_id: string | null; content_type: string; byte_size: number; caption: string; awaiting_upload: boolean; created_at: Date }>`
       SELECT id, step_id, content_type, byte_size, caption, awaiting_upload, created_at
       FROM attachments WHERE work_order_id = ${jobId}::uuid AND purpose = 'step' ORDER BY created_at, id
+    `.execute(db),
+    sql<{
+      id: string; step_id: string | null; part_number: string; description: string; supplier: string; serial: string | null;
+      batch: string | null; quantity: number; fitted_by: string | null; fitted_at: Date; flagged: boolean; flag_reason: string | null;
+    }>`
+      SELECT p.id, p.step_id, p.part_number, p.description, p.supplier, p.serial, p.batch, p.quantity, p.fitted_by, p.fitted_at,
+        COALESCE(o.flagged, false) AS flagged, o.flag_reason
+      FROM parts_fitted p LEFT JOIN operations o ON o.id = p.operation_id
+      WHERE p.work_order_id = ${jobId}::uuid ORDER BY p.fitted_at, o.stamp COLLATE "C", p.id
     `.execute(db),
   ]);
   return {
@@ -385,6 +394,20 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       caption: p.caption,
       awaitingUpload: p.awaiting_upload,
       createdAt: iso(p.created_at),
+    })),
+    parts: parts.rows.map((p) => ({
+      id: p.id,
+      stepId: p.step_id,
+      partNumber: p.part_number,
+      description: p.description,
+      supplier: p.supplier,
+      serial: p.serial,
+      batch: p.batch,
+      quantity: p.quantity,
+      fittedBy: p.fitted_by,
+      fittedAt: iso(p.fitted_at),
+      flagged: p.flagged,
+      flagReason: p.flag_reason,
     })),
   };
 }

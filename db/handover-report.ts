@@ -2,6 +2,7 @@ import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
 import { listDynoRuns } from "./dyno";
+import { partsOfWorkOrder } from "./parts-fitted";
 import type { Database } from "./schema";
 import { workOrdersWithBike } from "./work-orders";
 
@@ -77,13 +78,7 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
     .orderBy("sc.device_time")
     .execute();
 
-  const parts = await db
-    .selectFrom("parts_fitted")
-    .select(["part_number as partNumber", "description", "supplier", "serial", "batch", "quantity", "fitted_at as fittedAt"])
-    .where("shop_id", "=", shopId)
-    .where("work_order_id", "=", workOrderId)
-    .orderBy("fitted_at")
-    .execute();
+  const parts = await partsOfWorkOrder(db, shopId, workOrderId);
 
   // current readings: those no later reading supersedes
   const readings = await db

@@ -269,6 +269,8 @@ export interface PartsFittedTable {
   quantity: Generated<number>;
   fitted_by: string | null;
   fitted_at: Generated<Timestamp>;
+  /** The bench operation that recorded it; null when the office did (migration 006). */
+  operation_id: Generated<string | null>;
 }
 
 export interface AttachmentsTable {

@@ -10,6 +10,7 @@ import type {
   TorqueSpecFacts,
 } from "@/lib/sync/merge-rules";
 import { emptyMergeState } from "@/lib/sync/merge-rules";
+import { partSerialOnJob } from "@/lib/sync/parts";
 import type { Operation } from "@/lib/sync/operations";
 import type { ReadingSpec } from "@/lib/sync/readings";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
@@ -132,18 +133,27 @@ export async function existingOperations(db: Db, ids: readonly string[]): Promis
   return new Map(r.rows.map((o) => [o.id, o.author_id]));
 }
 
-/** The readings, timers and photos on file that the operations name (corrections, timer stops, photo ids). */
+/**
+ * The readings, timers, photos and part records on file that the operations name (corrections,
+ * timer stops, photo and part ids), and the serial-numbered parts already on the jobs that get one.
+ */
 export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise<MergeState> {
   const state = emptyMergeState();
   const readingIds = new Set<string>();
   const timerIds = new Set<string>();
   const attachmentIds = new Set<string>();
+  const partIds = new Set<string>();
+  const serialJobIds = new Set<string>();
   for (const op of ops) {
     if (op.kind === "measurement.recorded" && op.payload.supersedesId) readingIds.add(op.payload.supersedesId);
     else if (op.kind === "timer.started" || op.kind === "timer.stopped" || op.kind === "timer.overridden") timerIds.add(op.payload.timerId);
     else if (op.kind === "photo.queued") attachmentIds.add(op.payload.attachmentId);
+    else if (op.kind === "part.fitted") {
+      partIds.add(op.payload.partFittedId);
+      if (op.payload.serial !== undefined) serialJobIds.add(op.workOrderId);
+    }
   }
-  const [readings, timers, attachments] = await Promise.all([
+  const [readings, timers, attachments, parts, serials] = await Promise.all([
     readingIds.size
       ? sql<{ id: string; work_order_id: string; spec_id: string; reading_index: number }>`
           SELECT id, work_order_id, spec_id, reading_index FROM measurements WHERE id = ANY(${[...readingIds]}::uuid[])
@@ -157,11 +167,26 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
     attachmentIds.size
       ? sql<{ id: string }>`SELECT id FROM attachments WHERE id = ANY(${[...attachmentIds]}::uuid[])`.execute(db)
       : { rows: [] },
+    partIds.size
+      ? sql<{ id: string }>`SELECT id FROM parts_fitted WHERE id = ANY(${[...partIds]}::uuid[])`.execute(db)
+      : { rows: [] },
+    serialJobIds.size
+      ? sql<{ work_order_id: string; part_number: string; serial: string; step_id: string | null }>`
+          SELECT work_order_id, part_number, serial, step_id FROM parts_fitted
+          WHERE work_order_id = ANY(${[...serialJobIds]}::uuid[]) AND serial IS NOT NULL
+          ORDER BY fitted_at, id
+        `.execute(db)
+      : { rows: [] },
   ]);
   for (const r of readings.rows) state.readings.set(r.id, { workOrderId: r.work_order_id, specId: r.spec_id, readingIndex: r.reading_index });
   for (const t of timers.rows) {
     state.timers.set(t.id, { workOrderId: t.work_order_id, startedAtMs: t.started_at.getTime(), stoppedAtMs: t.stopped_at?.getTime() ?? null });
   }
   for (const a of attachments.rows) state.attachmentIds.add(a.id);
+  for (const p of parts.rows) state.partIds.add(p.id);
+  for (const p of serials.rows) {
+    const key = partSerialOnJob(p.work_order_id, p.part_number, p.serial);
+    if (!state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.step_id });
+  }
   return state;
 }

@@ -161,6 +161,14 @@ export async function writeKept(
       SELECT x.id, x.work_order_id, ${p("jobProcedureId", "uuid")}, x.payload->>'stageKey', x.author_id, x.device_time
       FROM y x WHERE x.kind = 'stage.signed-off'
     ),
+    parts AS (
+      INSERT INTO parts_fitted (id, shop_id, work_order_id, step_id, part_number, description, supplier, serial, batch, quantity,
+        fitted_by, fitted_at, operation_id)
+      SELECT ${p("partFittedId", "uuid")}, ${shopId}::uuid, x.work_order_id, ${p("stepId", "uuid")}, x.payload->>'partNumber',
+        x.payload->>'description', COALESCE(x.payload->>'supplier', ''), x.payload->>'serial', x.payload->>'batch',
+        ${p("quantity", "int")}, x.author_id, x.device_time, x.id
+      FROM y x WHERE x.kind = 'part.fitted'
+    ),
     audit AS (
       INSERT INTO audit_log (shop_id, actor_id, device_id, action, entity, entity_id, work_order_id, outcome, reason, detail)
       SELECT ${shopId}::uuid, ${actorId}::uuid, x.device_id, 'sync.' || x.kind, 'operation', x.id::text, x.work_order_id,

@@ -85,19 +85,27 @@ function workDone(doc: Pdf, d: HandoverReportData) {
   }
 }
 
+// Bench records name the mechanic who fitted the part; office records name who wrote them down.
+function fittedWhereBy(p: HandoverReportData["parts"][number]): string {
+  const at = p.stepTitle ?? "no step named";
+  if (!p.fittedByName) return at;
+  return p.atBench ? `${at}, ${p.fittedByName}` : `${at}, recorded by ${p.fittedByName}`;
+}
+
 function partsFitted(doc: Pdf, d: HandoverReportData) {
   if (d.parts.length === 0) return paragraph(doc, "No parts recorded.");
   table(
     doc,
     [
-      { header: "Part no.", width: 0.15, figures: true },
-      { header: "Description", width: 0.33 },
-      { header: "Supplier", width: 0.18 },
-      { header: "Serial", width: 0.14, figures: true },
-      { header: "Batch", width: 0.12, figures: true },
-      { header: "Qty", width: 0.08, align: "right" },
+      { header: "Part no.", width: 0.13, figures: true },
+      { header: "Description", width: 0.22 },
+      { header: "Supplier", width: 0.13 },
+      { header: "Serial", width: 0.12, figures: true },
+      { header: "Batch", width: 0.11, figures: true },
+      { header: "Qty", width: 0.06, align: "right" },
+      { header: "Fitted at, by", width: 0.23 },
     ],
-    d.parts.map((p) => [p.partNumber, p.description, p.supplier, p.serial ?? "—", p.batch ?? "—", String(p.quantity)]),
+    d.parts.map((p) => [p.partNumber, p.description, p.supplier, p.serial ?? "—", p.batch ?? "—", String(p.quantity), fittedWhereBy(p)]),
   );
 }
 

@@ -1,6 +1,7 @@
 import type { Kysely } from "kysely";
 import { bikeSchema, type BikeInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/office/refusal";
+import { partColumns } from "../parts-fitted";
 import type { Database } from "../schema";
 
 // The next free tag in the shop's series (e.g. GSW-0006): the prefix of its existing tags, or
@@ -89,7 +90,7 @@ export async function bikeRecord(db: Kysely<Database>, shopId: string, bikeId: s
     .selectFrom("parts_fitted as p")
     .innerJoin("work_orders as w", "w.id", "p.work_order_id")
     .leftJoin("template_steps as s", "s.id", "p.step_id")
-    .select(["p.id", "w.number as workOrderNumber", "p.part_number as partNumber", "p.description", "p.supplier", "p.serial", "p.batch", "p.quantity", "p.fitted_at as fittedAt", "s.title as stepTitle"])
+    .select([...partColumns, "w.number as workOrderNumber", "s.title as stepTitle"])
     .where("w.bike_id", "=", bikeId)
     .where("p.shop_id", "=", shopId)
     .orderBy("p.fitted_at", "desc")

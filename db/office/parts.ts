@@ -2,6 +2,7 @@ import type { Kysely } from "kysely";
 import { partFittedSchema } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/office/refusal";
 import type { z } from "zod";
+import { partColumns } from "../parts-fitted";
 import type { Database } from "../schema";
 
 export async function addPartFitted(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, input: z.input<typeof partFittedSchema>) {
@@ -34,13 +35,7 @@ export async function bikesWithPart(db: Kysely<Database>, shopId: string, code: 
     .innerJoin("bikes as b", "b.id", "w.bike_id")
     .innerJoin("customers as c", "c.id", "b.customer_id")
     .select([
-      "p.id",
-      "p.part_number as partNumber",
-      "p.description",
-      "p.supplier",
-      "p.serial",
-      "p.batch",
-      "p.fitted_at as fittedAt",
+      ...partColumns,
       "w.id as workOrderId",
       "w.number as workOrderNumber",
       "b.id as bikeId",

@@ -5,6 +5,7 @@ import { checkTransition } from "@/lib/work-orders/transition-rules";
 import { isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit";
 import type { Database } from "../schema";
+import { partsOfWorkOrder } from "../parts-fitted";
 import { workOrdersWithBike } from "../work-orders";
 import { containsPattern } from "./search";
 import type { PageOpts } from "./customers";
@@ -250,14 +251,7 @@ export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: 
       .where("j.work_order_id", "=", id)
       .orderBy("j.position")
       .execute(),
-    db
-      .selectFrom("parts_fitted as p")
-      .leftJoin("template_steps as s", "s.id", "p.step_id")
-      .select(["p.id", "p.part_number as partNumber", "p.description", "p.supplier", "p.serial", "p.batch", "p.quantity", "p.fitted_at as fittedAt", "s.title as stepTitle"])
-      .where("p.work_order_id", "=", id)
-      .where("p.shop_id", "=", shopId)
-      .orderBy("p.fitted_at")
-      .execute(),
+    partsOfWorkOrder(db, shopId, id),
     db
       .selectFrom("outbound_emails")
       .select(["id", "kind", "recipient", "subject", "error", "sent_at as at"])

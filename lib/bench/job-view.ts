@@ -8,6 +8,7 @@ import { tighteningSequence } from "@/lib/calc/tightening-sequence";
 import { compareStamps } from "@/lib/sync/hlc";
 import type { Operation } from "@/lib/sync/operations";
 import { currentReadings, readingVerdict } from "@/lib/sync/readings";
+import { serialKey } from "@/lib/sync/parts";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 
 type Snap = JobSnapshot;
@@ -48,6 +49,9 @@ export interface TimerView {
   pending: boolean;
 }
 
+/** A part fitted at a step: on the server, or waiting on this tablet. */
+export type PartView = Omit<Snap["state"]["parts"][number], "stepId" | "flagged"> & { pending: boolean };
+
 export interface TorqueProgress {
   spec: TorqueSpecView;
   passes: TorquePass[];
@@ -78,6 +82,8 @@ export interface StepView {
   /** A timer on another step that must run out before this step may be done. */
   blockedBy: { label: string; remainingMs: number; started: boolean; timerId: string | null; timerSpecId: string; stepId: string; durationS: number } | null;
   photoCount: number;
+  /** Parts fitted at this step, in the order they were fitted. */
+  parts: PartView[];
   /** What must still be recorded before the step can be completed (empty when it can). */
   missing: string[];
 }
@@ -155,6 +161,27 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
   for (const p of snapshot.state.photos) if (p.stepId) photosByStep.set(p.stepId, (photosByStep.get(p.stepId) ?? 0) + 1);
   for (const o of ofKind("photo.queued")) photosByStep.set(o.payload.stepId, (photosByStep.get(o.payload.stepId) ?? 0) + 1);
 
+  const partsByStep = new Map<string, PartView[]>();
+  const parts: Array<PartView & { stepId: string | null }> = [
+    // A snapshot stored before parts were part of it has none.
+    ...(snapshot.state.parts ?? []).map(({ flagged: _flagged, ...p }) => ({ ...p, pending: false })),
+    ...ofKind("part.fitted").map((o) => ({
+      id: o.payload.partFittedId,
+      stepId: o.payload.stepId,
+      partNumber: o.payload.partNumber,
+      description: o.payload.description,
+      supplier: o.payload.supplier ?? "",
+      serial: o.payload.serial ?? null,
+      batch: o.payload.batch ?? null,
+      quantity: o.payload.quantity,
+      fittedBy: o.authorId,
+      fittedAt: o.deviceTime,
+      flagReason: null,
+      pending: true,
+    })),
+  ];
+  for (const { stepId, ...p } of parts) if (stepId) partsByStep.set(stepId, [...(partsByStep.get(stepId) ?? []), p]);
+
   // Latest decision per stage (by seq) and the steps it reopened.
   const latestDecision = new Map<string, Snap["state"]["reviewDecisions"][number]>();
   for (const d of snapshot.state.reviewDecisions) {
@@ -225,6 +252,7 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
           timers: stepTimers,
           blockedBy: null,
           photoCount,
+          parts: partsByStep.get(step.id) ?? [],
           missing,
         });
       }
@@ -269,6 +297,12 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
     }
   }
   return { stages, steps, doneCount: steps.filter((s) => s.done).length, totalCount: steps.length, outOfTolerance };
+}
+
+/** The step of this job where a part with this part number and serial number is already recorded, if any. */
+export function stepWithSerial(view: JobView, partNumber: string, serial: string): StepView | null {
+  const key = serialKey(partNumber, serial);
+  return view.steps.find((s) => s.parts.some((p) => p.serial !== null && serialKey(p.partNumber, p.serial) === key)) ?? null;
 }
 
 function findSpec(snapshot: Snap, specId: string): MeasurementSpecView | undefined {

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { MAX_MINOR } from "../money/quote-totals";
 import { WORK_ORDER_STATUSES } from "../work-orders/status";
+import { MAX_PART_QUANTITY, PART_TEXT_LIMITS } from "../sync/operations";
 
 // zod schemas for every office form and route body. Messages name the field's problem in
 // plain words; the forms show them beside the field.
@@ -120,12 +121,12 @@ export const quoteDraftSchema = z.object({
 export type QuoteDraftInput = z.input<typeof quoteDraftSchema>;
 
 export const partFittedSchema = z.object({
-  partNumber: z.string().trim().min(1, "enter the part number").max(60),
-  description: z.string().trim().max(200).default(""),
-  supplier: z.string().trim().max(120).default(""),
-  serial: optionalText(80),
-  batch: optionalText(80),
-  quantity: z.number().int().min(1).max(1000).default(1),
+  partNumber: z.string().trim().min(1, "enter the part number").max(PART_TEXT_LIMITS.partNumber),
+  description: z.string().trim().max(PART_TEXT_LIMITS.description).default(""),
+  supplier: z.string().trim().max(PART_TEXT_LIMITS.supplier).default(""),
+  serial: optionalText(PART_TEXT_LIMITS.serial),
+  batch: optionalText(PART_TEXT_LIMITS.batch),
+  quantity: z.number().int().min(1).max(MAX_PART_QUANTITY).default(1),
   stepId: z.uuid().nullable().default(null),
 });
 

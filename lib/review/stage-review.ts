@@ -1,7 +1,7 @@
 /**
  * What a supervisor sees when reviewing one sign-off: every step of the signed-off stage with who
  * did what and when, every reading (superseded ones too) against its spec, readings of one spot
- * from two tablets side by side, torque bolt by bolt, timers, photos, and the readings out of
+ * from two tablets side by side, torque bolt by bolt, timers, photos, parts fitted, and the readings out of
  * tolerance with any written acceptance. Pure: built from the bench snapshot plus a few extras.
  */
 import { torqueStages } from "@/lib/calc/torque-stages";
@@ -130,6 +130,8 @@ export interface StepReview {
   torque: TorqueView[];
   timers: Array<{ id: string; label: string; durationS: number; startedAt: string; startedBy: Person; stoppedAt: string | null; override: { by: Person; reason: string } | null }>;
   photos: Array<{ id: string; contentType: string; byteSize: number; caption: string; awaitingUpload: boolean; createdAt: string }>;
+  /** Parts fitted at this step, with who fitted them (null: not a user of the shop) and any flag of the sync. */
+  parts: Array<Omit<State["parts"][number], "stepId" | "fittedBy" | "flagged"> & { by: Person | null }>;
   /** A send-back that reopened this step, latest first. */
   sentBack: Array<{ reason: string; decidedAt: string; by: Person }>;
 }
@@ -341,6 +343,9 @@ function stepReview(
         override: t.overrideReason ? { by: person(t.overrideBy ?? t.startedBy), reason: t.overrideReason } : null,
       })),
     photos: state.photos.filter((p) => p.stepId === step.id).map(({ stepId: _s, ...p }) => p),
+    parts: state.parts
+      .filter((p) => p.stepId === step.id)
+      .map(({ stepId: _s, fittedBy, flagged: _f, ...p }) => ({ ...p, by: fittedBy ? person(fittedBy) : null })),
     sentBack: sendBacks
       .filter((d) => d.reopenedStepIds.includes(step.id))
       .sort((a, b) => Number(BigInt(b.seq) - BigInt(a.seq)))

@@ -7,6 +7,7 @@ import { canReach, type Role } from "@/lib/auth/roles";
 import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { compareStamps, parseStamp } from "./hlc";
 import type { Operation } from "./operations";
+import { partSerialOnJob, repeatedSerialReason, type SerialOnFile } from "./parts";
 
 /** A stamp further ahead of the server's clock than this is kept but flagged (the tablet's clock is likely wrong). */
 export const MAX_CLOCK_AHEAD_MS = 5 * 60_000;
@@ -68,10 +69,14 @@ export interface MergeState {
   readings: Map<string, { workOrderId: string; specId: string; readingIndex: number }>;
   timers: Map<string, { workOrderId: string; startedAtMs: number; stoppedAtMs: number | null }>;
   attachmentIds: Set<string>;
+  /** Part record ids (parts_fitted.id) in use. */
+  partIds: Set<string>;
+  /** Serial-numbered parts on the batch's jobs, by `partSerialOnJob` (./parts.ts). */
+  partSerials: Map<string, SerialOnFile>;
 }
 
 export function emptyMergeState(): MergeState {
-  return { readings: new Map(), timers: new Map(), attachmentIds: new Set() };
+  return { readings: new Map(), timers: new Map(), attachmentIds: new Set(), partIds: new Set(), partSerials: new Map() };
 }
 
 export interface DecisionInput {
@@ -145,6 +150,7 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
     flags.push(`Its stamp is ${minutes} min ahead of the server clock: check the tablet's clock.`);
   }
   flags.push(...sendBackFlags(op, job, stamp.wallMs, input.cursor));
+  flags.push(...partFlags(op, job, input.state));
   return flags.length ? { outcome: "flag", reason: flags.join(" ") } : accept;
 }
 
@@ -178,6 +184,16 @@ function sendBackFlags(op: Operation, job: JobFacts, opWallMs: number, cursor: n
       : [];
   }
   return [];
+}
+
+/** A serial-numbered part already recorded on the job (on file, or earlier in the batch) is kept and flagged. */
+function partFlags(op: Operation, job: JobFacts, state: MergeState): string[] {
+  if (op.kind !== "part.fitted" || op.payload.serial === undefined) return [];
+  const serial = op.payload.serial;
+  const earlier = state.partSerials.get(partSerialOnJob(job.id, op.payload.partNumber, serial));
+  if (!earlier) return [];
+  const stepTitle = earlier.stepId === null ? null : (job.steps.get(earlier.stepId)?.title ?? null);
+  return [repeatedSerialReason({ partNumber: op.payload.partNumber, serial }, job.number, stepTitle)];
 }
 
 /** The refusal reason when the operation names something that is not on the job, else null. */
@@ -239,6 +255,12 @@ function checkReferences(op: Operation, job: JobFacts, state: MergeState): strin
       if (state.attachmentIds.has(op.payload.attachmentId)) return `Photo ${op.payload.attachmentId} is already on record.`;
       return null;
     }
+    case "part.fitted": {
+      const missing = stepMissing(op.payload.stepId);
+      if (missing) return missing;
+      if (state.partIds.has(op.payload.partFittedId)) return `Part record ${op.payload.partFittedId} is already on record.`;
+      return null;
+    }
     case "stage.signed-off": {
       const { jobProcedureId, stageKey } = op.payload;
       const steps = [...job.steps.values()];
@@ -269,6 +291,13 @@ export function noteAccepted(op: Operation, state: MergeState): void {
     case "photo.queued":
       state.attachmentIds.add(op.payload.attachmentId);
       return;
+    case "part.fitted": {
+      const p = op.payload;
+      state.partIds.add(p.partFittedId);
+      const key = p.serial === undefined ? null : partSerialOnJob(op.workOrderId, p.partNumber, p.serial);
+      if (key !== null && !state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.stepId });
+      return;
+    }
     default:
       return;
   }

@@ -29,6 +29,7 @@ export const OPERATION_KINDS = [
   "timer.overridden",
   "photo.queued",
   "stage.signed-off",
+  "part.fitted",
 ] as const;
 export type OperationKind = (typeof OPERATION_KINDS)[number];
 
@@ -115,6 +116,51 @@ export const photoQueuedPayload = z
 
 export const stageSignedOffPayload = z.object({ jobProcedureId: id(), stageKey }).strict();
 
+/** Longest texts of a part fitted (the same limits as the office's form). */
+export const PART_TEXT_LIMITS = { partNumber: 60, description: 200, serial: 80, batch: 80, supplier: 120 } as const;
+/** Most of one part a single record may hold (a box of bolts, not a pallet). */
+export const MAX_PART_QUANTITY = 1000;
+
+// One line of text: trimmed, not empty, no line breaks, tabs or other control characters.
+const partText = (name: string, max: number, ifEmpty = `enter the ${name}`) =>
+  z
+    .string({ error: `${name} must be text` })
+    .trim()
+    .min(1, ifEmpty)
+    .max(max, `${name} is too long: keep it to ${max} characters`)
+    .regex(/^\P{Cc}*$/u, `${name} must be on one line (no line breaks or tabs)`);
+const optionalPartText = (name: string, max: number) => partText(name, max, `${name} is empty: enter it, or leave it out`).optional();
+
+/**
+ * A part fitted at a step: what went in, and the serial number or batch (lot) number that proves
+ * which one. At least one of the two is needed; a serial number names one part, so it comes with
+ * quantity 1. `partFittedId` is made on the tablet and becomes the record's id.
+ */
+export const partFittedPayload = z
+  .object({
+    partFittedId: id(),
+    stepId: id(),
+    partNumber: partText("part number", PART_TEXT_LIMITS.partNumber),
+    description: partText("description", PART_TEXT_LIMITS.description),
+    serial: optionalPartText("serial number", PART_TEXT_LIMITS.serial),
+    batch: optionalPartText("batch number", PART_TEXT_LIMITS.batch),
+    quantity: z
+      .number({ error: "quantity must be a whole number" })
+      .int("quantity must be a whole number")
+      .min(1, "quantity must be at least 1")
+      .max(MAX_PART_QUANTITY, `quantity must be at most ${MAX_PART_QUANTITY}`),
+    supplier: optionalPartText("supplier", PART_TEXT_LIMITS.supplier),
+  })
+  .strict()
+  .refine((p) => p.serial !== undefined || p.batch !== undefined, {
+    message: "give the serial number or the batch number (or both), so the record shows which part went in",
+    path: ["serial"],
+  })
+  .refine((p) => p.serial === undefined || p.quantity <= 1, {
+    message: "a serial number names one part: record each serial-numbered part on its own, with quantity 1",
+    path: ["quantity"],
+  });
+
 // ---------------------------------------------------------------------------------------------
 // Operation and batch
 // ---------------------------------------------------------------------------------------------
@@ -142,6 +188,7 @@ export const operationSchema = z.discriminatedUnion("kind", [
   op("timer.overridden", timerOverriddenPayload),
   op("photo.queued", photoQueuedPayload),
   op("stage.signed-off", stageSignedOffPayload),
+  op("part.fitted", partFittedPayload),
 ]);
 
 export type Operation = z.output<typeof operationSchema>;

@@ -200,6 +200,22 @@ export const photoSnapshotSchema = z.object({
   createdAt: time,
 });
 
+/** A part fitted to the job: from the bench (`part.fitted`, with any flag) or from the office (no step, perhaps). */
+export const partSnapshotSchema = z.object({
+  id,
+  stepId: id.nullable(),
+  partNumber: z.string(),
+  description: z.string(),
+  supplier: z.string(),
+  serial: z.string().nullable(),
+  batch: z.string().nullable(),
+  quantity: z.number().int(),
+  fittedBy: id.nullable(),
+  fittedAt: time,
+  flagged: z.boolean(),
+  flagReason: z.string().nullable(),
+});
+
 /** GET /api/bench/jobs/[id]: everything the bench needs for one job, and the cursor it is current to. */
 export const jobSnapshotSchema = z.object({
   workOrder: z.object({
@@ -226,6 +242,7 @@ export const jobSnapshotSchema = z.object({
     signOffs: z.array(signOffSnapshotSchema),
     reviewDecisions: z.array(reviewDecisionSnapshotSchema),
     photos: z.array(photoSnapshotSchema),
+    parts: z.array(partSnapshotSchema),
   }),
   /**
    * The shop's change cursor the snapshot is current to. A device with no cursor yet starts syncing

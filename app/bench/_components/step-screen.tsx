@@ -8,6 +8,7 @@ import { Cautions } from "./cautions";
 import { go } from "./hash-route";
 import { useJob } from "./job-data";
 import { MeasurementPanel } from "./measurement-panel";
+import { PartsFittedPanel } from "./parts-fitted-panel";
 import { PhotoPanel } from "./photo-panel";
 import { ProgressBar } from "./progress-bar";
 import { clock, TimerPanel } from "./timer-panel";
@@ -96,6 +97,7 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
         {sv.step.measurementSpecs.length > 0 && <MeasurementPanel jobId={jobId} view={sv} />}
         {sv.step.timerSpecs.length > 0 && <TimerPanel jobId={jobId} view={sv} />}
         <PhotoPanel jobId={jobId} view={sv} snapshotPhotos={data.snapshot.state.photos} />
+        <PartsFittedPanel key={sv.step.id} jobId={jobId} view={sv} job={view} people={data.snapshot.people} />
 
         <section aria-label="Finish the step" className="rounded-xl border-4 border-steel-900 bg-white p-4">
           {sv.done ? (

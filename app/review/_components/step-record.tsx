@@ -3,7 +3,7 @@ import type { ReadingLine, SpecView, StepReview, TorqueView } from "./review-typ
 import { VerdictTag, When } from "./when";
 
 // One step of the signed-off stage as the supervisor reads it: who did it and when, every reading
-// (replaced ones too), two tablets' readings of one spot side by side, torque bolt by bolt, timers, photos.
+// (replaced ones too), two tablets' readings of one spot side by side, torque bolt by bolt, timers, photos, parts.
 export function StepRecord({ step }: { step: StepReview }) {
   return (
     <section className="rounded-xl border-2 border-steel-300 bg-white p-4" aria-label={`Step ${step.number}: ${step.title}`} data-testid="review-step">
@@ -73,6 +73,21 @@ export function StepRecord({ step }: { step: StepReview }) {
                   {p.contentType.replace("image/", "").toUpperCase()}, {Math.max(1, Math.round(p.byteSize / 1024))} kB · {dayTime(p.createdAt)}
                 </span>
                 {p.caption && <span className="block">{p.caption}</span>}
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+      {step.parts.length > 0 && (
+        <div className="mt-3">
+          <h4 className="font-bold">Parts fitted</h4>
+          <ul className="mt-1 space-y-1">
+            {step.parts.map((p) => (
+              <li key={p.id} data-testid="review-part">
+                {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description}
+                {p.serial && <span className="font-mono"> · serial {p.serial}</span>}
+                {p.batch && <span className="font-mono"> · batch {p.batch}</span>} · {p.by ? p.by.name : "recorded in the office"} · {dayTime(p.fittedAt)}
+                {p.flagReason && <span className="block font-bold text-warn">⚑ {p.flagReason}</span>}
               </li>
             ))}
           </ul>

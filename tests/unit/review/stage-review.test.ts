@@ -35,6 +35,7 @@ function snapshot(readings: JobSnapshot["state"]["readings"]): JobSnapshot {
       signOffs: [],
       reviewDecisions: [],
       photos: [],
+      parts: [],
     },
     cursor: "9",
   };
@@ -91,5 +92,21 @@ describe("buildStageReview", () => {
     expect(r.steps[0].sentBack).toEqual([{ reason: "Redo the gaps", decidedAt: at(12), by: { id: SUP, name: "Dana Kowal" } }]);
     expect(r.steps[0].completions[0]).toMatchObject({ by: { name: "Tomas Reyes" }, deviceTime: at(20), receivedAt: at(45) });
     expect(buildStageReview(snapshot([]), extras(), u(41))).toBeNull();
+  });
+
+  it("lists the parts fitted at each step with who fitted them and the sync's flag", () => {
+    const snap = snapshot([]);
+    const part = { partNumber: "GS-ROD-130", description: "H-beam rod", supplier: "", serial: "GR-7", batch: null, quantity: 1, fittedAt: at(25) };
+    snap.state.parts = [
+      { ...part, id: u(80), stepId: STEP_B, fittedBy: MECH, flagged: false, flagReason: null },
+      { ...part, id: u(81), stepId: STEP_B, fittedBy: MECH2, flagged: true, flagReason: "Serial number GR-7 of part GS-ROD-130 is already recorded on work order #7." },
+      { ...part, id: u(82), stepId: null, fittedBy: u(4), flagged: false, flagReason: null },
+    ];
+    const r = buildStageReview(snap, extras(), SO)!;
+    expect(r.steps[0].parts).toEqual([]);
+    expect(r.steps[1].parts).toEqual([
+      { ...part, id: u(80), by: { id: MECH, name: "Tomas Reyes" }, flagReason: null },
+      { ...part, id: u(81), by: { id: MECH2, name: "Priya Vance" }, flagReason: "Serial number GR-7 of part GS-ROD-130 is already recorded on work order #7." },
+    ]);
   });
 });

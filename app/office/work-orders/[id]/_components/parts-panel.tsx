@@ -7,7 +7,8 @@ import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
 import { Field, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { WorkOrderData } from "./types";
 
-// Parts fitted to this job, with supplier, serial or batch and the step that fitted them.
+// Parts fitted to this job, with supplier, serial or batch, the step that fitted them and who did;
+// those recorded at the bench say so, with any flag the sync raised.
 export function PartsPanel({ data }: { data: WorkOrderData }) {
   const qc = useQueryClient();
   const wo = data.workOrder;
@@ -49,7 +50,9 @@ export function PartsPanel({ data }: { data: WorkOrderData }) {
         <ul className="mt-2 space-y-1">
           {wo.parts.map((p) => (
             <li key={p.id} className="text-lg" data-testid="part-fitted">
-              {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description} {p.supplier && `· ${p.supplier}`} {p.serial && <span className="font-mono">· serial {p.serial}</span>} {p.batch && <span className="font-mono">· batch {p.batch}</span>} {p.stepTitle && `· at "${p.stepTitle}"`}
+              {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description} {p.supplier && `· ${p.supplier}`} {p.serial && <span className="font-mono">· serial {p.serial}</span>} {p.batch && <span className="font-mono">· batch {p.batch}</span>} {p.stepTitle && `· at "${p.stepTitle}"`}{" "}
+              {p.fittedByName && (p.atBench ? `· fitted by ${p.fittedByName} · recorded at the bench` : `· recorded by ${p.fittedByName}`)}
+              {p.flagReason && <span className="block font-bold text-warn">⚑ Flagged for the supervisor: {p.flagReason}</span>}
             </li>
           ))}
         </ul>

@@ -48,7 +48,7 @@ export interface WorkOrderData {
     notes: Array<{ id: string; kind: string; body: string; at: string; authorName: string | null }>;
     photos: Array<{ id: string; purpose: string; noteId: string | null; caption: string }>;
     procedures: Array<{ id: string; position: number; key: string; name: string; version: number }>;
-    parts: Array<{ id: string; partNumber: string; description: string; supplier: string; serial: string | null; batch: string | null; quantity: number; fittedAt: string; stepTitle: string | null }>;
+    parts: Array<{ id: string; partNumber: string; description: string; supplier: string; serial: string | null; batch: string | null; quantity: number; fittedAt: string; stepTitle: string | null; fittedByName: string | null; atBench: boolean; flagReason: string | null }>;
     emails: Array<{ id: string; kind: string; recipient: string; subject: string; error: string | null; at: string }>;
   };
   next: string[];
