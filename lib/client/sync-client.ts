@@ -11,7 +11,7 @@
  */
 import { receive, type HlcState, createClock } from "@/lib/sync/hlc";
 import { splitIntoBatches } from "@/lib/sync/batching";
-import { syncResponseSchema, type SyncResponse } from "@/lib/sync/changes";
+import { tabletSyncResponseSchema } from "@/lib/sync/changes";
 import { benchJobListSchema, jobSnapshotSchema, type JobSnapshot } from "@/lib/sync/snapshot";
 import { getMeta, META, setMeta, type BenchDb, type SyncMeta } from "./bench-db";
 import { waitingOperations } from "./outbox";
@@ -95,12 +95,17 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch, startCu
         body: JSON.stringify({ deviceId, cursor, operations: ops }),
       });
       if (!res.ok) throw new SyncHttpError(res.status, await errorText(res));
-      const body: SyncResponse = syncResponseSchema.parse(await res.json());
+      const body = tabletSyncResponseSchema.parse(await res.json());
       for (const id of [...body.accepted, ...body.duplicates]) stored.add(id);
       refused.push(...body.refused);
       for (const op of ops) touchedJobs.add(op.workOrderId);
       for (const c of body.changes) {
         changes++;
+        if (c.type === "unread") {
+          // made by a newer server: reload its job (if it names one) and carry on
+          if (c.workOrderId) touchedJobs.add(c.workOrderId);
+          continue;
+        }
         touchedJobs.add(c.type === "operation" ? c.operation.workOrderId : c.workOrderId);
         remoteStamps.push(c.type === "operation" ? c.operation.stamp : c.stamp);
       }

@@ -61,6 +61,42 @@ export const syncResponseSchema = z.object({
 });
 export type SyncResponse = z.output<typeof syncResponseSchema>;
 
+/**
+ * A change this version of the app cannot read: one made by a newer server (a kind of operation
+ * added since this tablet loaded the app). The tablet does not fail its sync for it: it reloads
+ * the job the change names (its snapshot comes in the shape this version reads) and moves on.
+ */
+export interface UnreadChange {
+  type: "unread";
+  seq: string | null;
+  workOrderId: string | null;
+  why: string;
+}
+
+const namesAJob = z.looseObject({
+  seq: cursorSchema.optional(),
+  workOrderId: z.uuid().optional(),
+  operation: z.looseObject({ workOrderId: z.uuid() }).optional(),
+});
+
+export function readChange(raw: unknown): Change | UnreadChange {
+  const known = changeSchema.safeParse(raw);
+  if (known.success) return known.data;
+  const job = namesAJob.safeParse(raw);
+  const issue = known.error.issues[0];
+  return {
+    type: "unread",
+    seq: job.success ? (job.data.seq ?? null) : null,
+    workOrderId: job.success ? (job.data.operation?.workOrderId ?? job.data.workOrderId ?? null) : null,
+    why: issue ? `${issue.path.join(".")}: ${issue.message}` : "not a change this version knows",
+  };
+}
+
+/** The sync answer as a tablet reads it: like {@link syncResponseSchema}, but a change it cannot read does not fail the sync. */
+export const tabletSyncResponseSchema = syncResponseSchema.extend({
+  changes: z.array(z.unknown()).transform((list) => list.map(readChange)),
+});
+
 /** The stamp the server gives a decision made at `decidedAtMs`. */
 export function serverStamp(decidedAtMs: number): string {
   return formatStamp({ wallMs: decidedAtMs, counter: 0, deviceId: SERVER_DEVICE_ID });
