@@ -167,7 +167,7 @@ export async function run(): Promise<BenchFigures> {
   }
 }
 
-function print(f: BenchFigures): void {
+export function print(f: BenchFigures): void {
   const pad = (s: string | number, n: number) => String(s).padStart(n);
   console.log("\nSync merge (mergeBatch, one transaction per batch; median of 3) vs raw multi-row INSERT of the same rows");
   console.log(`${pad("operations", 11)} ${pad("merge ms", 10)} ${pad("merge ops/s", 12)} ${pad("raw ms", 9)} ${pad("raw rows/s", 11)} ${pad("merge/raw", 10)}`);
