@@ -1,6 +1,7 @@
 "use client";
 
 import { useEffect, useRef, useState } from "react";
+import { dueAlerts } from "@/lib/bench/timer-alerts";
 import { useBench } from "./bench-context";
 import { useLive, useNow } from "./use-live";
 
@@ -54,7 +55,7 @@ export function TimerAlerts() {
   useEffect(() => {
     setAcknowledged(JSON.parse(localStorage.getItem(SEEN_KEY) ?? "[]") as string[]);
   }, []);
-  const due = timers.filter((t) => t.endsAtMs <= now && !acknowledged.includes(t.id));
+  const due = dueAlerts(timers, now, new Set(acknowledged));
   const sounded = useRef(new Set<string>());
   useEffect(() => {
     const fresh = due.filter((t) => !sounded.current.has(t.id));
