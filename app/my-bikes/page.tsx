@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import type { BuildProgress } from "@/lib/work-orders/build-progress";
 import { db } from "@/db/client";
 import { bikesOfCustomer } from "@/db/bikes";
 import { loadBuildProgress } from "@/db/build-progress";
@@ -37,11 +38,7 @@ export default async function MyBikesPage() {
                     <span className="font-mono">#{w.number}</span> {w.title} <StatusBadge status={w.status} />
                     <a href={`/api/jobs/${w.id}/build-report`} download className="flex min-h-12 items-center rounded-lg border-2 border-ink px-3 text-base font-bold" data-testid="my-build-report">Build report (PDF)</a>
                   </div>
-                  {progress.get(w.id) && progress.get(w.id)!.stepsTotal > 0 && (
-                    <p className="mt-1 text-base" data-testid="my-build-progress">
-                      Build: {progress.get(w.id)!.stepsDone} of {progress.get(w.id)!.stepsTotal} steps done · {progress.get(w.id)!.approvedStages} of {progress.get(w.id)!.stages.length} stages checked by the workshop supervisor
-                    </p>
-                  )}
+                  <BuildLine progress={progress.get(w.id) ?? null} />
                   {quoteOf(w.id) && <CustomerQuote quote={JSON.parse(JSON.stringify(quoteOf(w.id))) as CustomerQuoteData} />}
                 </li>
               ))}
@@ -50,5 +47,15 @@ export default async function MyBikesPage() {
         ))}
       </ul>
     </AppFrame>
+  );
+}
+
+/** How far a build on the bench has got, in the customer's words; nothing when no steps are pinned. */
+function BuildLine({ progress }: { progress: BuildProgress | null }) {
+  if (!progress || progress.stepsTotal === 0) return null;
+  return (
+    <p className="mt-1 text-base" data-testid="my-build-progress">
+      Build: {progress.stepsDone} of {progress.stepsTotal} steps done · {progress.approvedStages} of {progress.stages.length} stages checked by the workshop supervisor
+    </p>
   );
 }

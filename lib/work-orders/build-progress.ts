@@ -28,7 +28,7 @@ export interface StageLike {
   allDone: boolean;
   signedOff: { at: string } | null;
   decision: { decision: "approved" | "sent_back"; reason: string } | null;
-  steps: ReadonlyArray<{ done: boolean; reopened: unknown; current: ReadonlyMap<string, ReadonlyMap<number, { verdict: string }>> }>;
+  steps: ReadonlyArray<{ done: boolean; current: ReadonlyMap<string, ReadonlyMap<number, { verdict: string }>> }>;
 }
 
 export interface StageProgress {

@@ -219,6 +219,12 @@ test("a supervisor types a curve into the table; a bad cell is named by row and 
   await runSelect.selectOption((await runSelect.locator("option", { hasText: "Typed check" }).getAttribute("value"))!);
   await withdraw.getByRole("button", { name: "Withdraw this run" }).click();
   await expect(withdraw.getByTestId("error-reason")).toHaveText("✖ Say why the run is withdrawn (at least 5 characters).");
+  // The route checks the reason the same way: a 400 naming the field, and nothing withdrawn.
+  const jobId = /\/jobs\/([0-9a-f-]{36})\/dyno/.exec(page.url())![1];
+  const typedId = (await runSelect.inputValue())!;
+  const short = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${typedId}/withdraw`, { data: { reason: "no" } });
+  expect(short.status()).toBe(400);
+  expect((await short.json()).issues).toEqual([{ path: "reason", message: "Say why the run is withdrawn (at least 5 characters)." }]);
   await withdraw.getByLabel("Why it is withdrawn").fill("Typed on the wrong job card");
   await withdraw.getByRole("button", { name: "Withdraw this run" }).click();
   await expect(withdraw.getByTestId("form-ok")).toContainText("“Typed check” withdrawn");

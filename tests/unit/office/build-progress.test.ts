@@ -6,7 +6,6 @@ import { allowedNextStatuses } from "@/lib/work-orders/status";
 type Verdict = "in" | "low" | "high";
 const step = (done: boolean, verdicts: Verdict[] = []) => ({
   done,
-  reopened: null,
   current: new Map([["spec", new Map(verdicts.map((verdict, i) => [i, { verdict }]))]]),
 });
 const stage = (over: Partial<StageLike> & { steps: StageLike["steps"] }): StageLike => ({
