@@ -21,13 +21,13 @@ esac
 log() { echo "[pg:$name] $*" >&2; }
 
 ensure_server_installed() {
-  if ! ls /usr/lib/postgresql/*/bin/initdb >/dev/null 2>&1; then
-    log "PostgreSQL server not found; installing Debian's postgresql"
-    if [ "$(id -u)" != 0 ]; then log "need root for apt-get"; exit 1; fi
-    apt-get update -qq
-    DEBIAN_FRONTEND=noninteractive apt-get install -y -qq postgresql >/dev/null
+  # Runs the tools rather than looking for them; install-deps repairs or installs when they fail.
+  PGBIN=$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -1 || true)
+  if [ -z "$PGBIN" ] || ! "$PGBIN/initdb" --version >/dev/null 2>&1 || ! "$PGBIN/pg_ctl" --version >/dev/null 2>&1; then
+    log "PostgreSQL server tools do not run; running install-deps"
+    bash "$root/db/scripts/install-deps.sh"
+    PGBIN=$(ls -d /usr/lib/postgresql/*/bin | sort -V | tail -1)
   fi
-  PGBIN=$(ls -d /usr/lib/postgresql/*/bin | sort -V | tail -1)
 }
 
 # The data folder lives in .data/ of the checkout unless the postgres user cannot reach it

@@ -2,10 +2,11 @@
 # Set-up shared by `npm start` and `npm test`: install what is missing, start PostgreSQL,
 # migrate, seed the demo workshop, and make sure .env.local has a session secret.
 #   bash db/scripts/setup.sh          # for serving the app
-#   bash db/scripts/setup.sh --test   # also Chromium/ffmpeg and the test cluster
+#   bash db/scripts/setup.sh --test   # also Chromium and the test cluster
 set -euo pipefail
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
 cd "$root"
+export NEXT_TELEMETRY_DISABLED=1
 
 bash db/scripts/install-deps.sh "$@"
 bash db/scripts/pg.sh start dev

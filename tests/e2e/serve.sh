@@ -4,6 +4,7 @@
 set -euo pipefail
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
 cd "$root"
+export NEXT_TELEMETRY_DISABLED=1
 env -u DATABASE_URL bash db/scripts/pg.sh start test
 export DATABASE_URL="${E2E_DATABASE_URL:-$(bash db/scripts/pg.sh url test)/benchtag_e2e}"
 npx tsx db/cli/reset-database.ts
