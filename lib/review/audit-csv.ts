@@ -2,7 +2,9 @@
  * The audit log as CSV. Our own column list (documented in README.md, "Audit log CSV"):
  * entry, logged_at, work_order, actor_name, actor_email, actor_role, device, action, entity,
  * entity_id, outcome, reason, detail_json. Pure: papaparse writes the quoting; cells that a
- * spreadsheet would run as a formula (= + - @ at the start) are prefixed with ' to neutralise them.
+ * spreadsheet would run as a formula are prefixed with ' to neutralise them: a cell whose first
+ * character, after any leading spaces or line breaks, is = + - @, or that starts with a tab or a
+ * carriage return (OWASP "CSV Injection"). The whole cell is tested, line breaks included.
  */
 import Papa from "papaparse";
 
@@ -57,13 +59,17 @@ export function auditCsvCells(r: AuditEntry): string[] {
   ];
 }
 
+// No flags: `^` is the start of the cell only, and \s spans line breaks, so a formula after a
+// newline at the start is caught; a formula on a later line of a cell is not run by spreadsheets.
+export const FORMULA_START = /^(?:[\t\r]|\s*[=+\-@＝＋－＠])/;
+
 /** CSV lines (CRLF-terminated) for the rows; with the header line when `header` is true. */
 export function auditCsvChunk(rows: readonly AuditEntry[], header: boolean): string {
   const data = rows.map(auditCsvCells);
   if (!data.length && !header) return "";
   const text = Papa.unparse(
     { fields: [...AUDIT_CSV_COLUMNS], data },
-    { header, newline: "\r\n", quotes: false, escapeFormulae: true },
+    { header, newline: "\r\n", quotes: false, escapeFormulae: FORMULA_START },
   );
   if (!text) return "";
   return text.endsWith("\r\n") ? text : `${text}\r\n`;

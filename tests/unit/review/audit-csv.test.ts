@@ -32,9 +32,19 @@ describe("audit CSV", () => {
   });
 
   it("neutralises cells a spreadsheet would run as a formula", () => {
-    for (const danger of ["=1+1", "+44 7700", "-2", "@SUM(A1)"]) {
+    // Line breaks inside the cell must not hide the formula (a pattern read line by line, or with
+    // `.*$`, misses "=HYPERLINK(...)\nrest"); tab and carriage return starts per OWASP CSV Injection.
+    const withBreaks = ["=1+1\nsecond line", "=HYPERLINK(\"http://x.test\")\r\nmore", "\n=1+1", "  =1+1", "\t=1+1", "\r=1+1", "＝1+1"];
+    for (const danger of ["=1+1", "+44 7700", "-2", "@SUM(A1)", ...withBreaks]) {
       const parsed = Papa.parse<Record<string, string>>(auditCsvChunk([row({ reason: danger })], true), { header: true, skipEmptyLines: true });
       expect(parsed.data[0].reason).toBe(`'${danger}`);
+    }
+  });
+
+  it("leaves ordinary text alone, line breaks and inner signs included", () => {
+    for (const safe of ["Gap too wide\non cyl 2", "bore 1 = 0.05 mm", "a-b", "note\n=later line"]) {
+      const parsed = Papa.parse<Record<string, string>>(auditCsvChunk([row({ reason: safe })], true), { header: true, skipEmptyLines: true });
+      expect(parsed.data[0].reason).toBe(safe);
     }
   });
 
