@@ -7,10 +7,10 @@
  * never beyond its first and last point. Left of the surge line → surge warning; right of the
  * choke line → choke warning.
  */
-import { CalcInputError, requireObject, requireOneOf } from "./errors";
+import { CalcInputError, requireObject } from "./errors";
 import { INPUT_RULES } from "./input-rules";
 import { interpolateLinear } from "./interpolate";
-import { formatNumber, relabel, requireQuantity, withUnit } from "./quantity";
+import { formatNumber, relabel, requireChoice, requireQuantity, withUnit } from "./quantity";
 import { checkFlowReference, type FlowReference } from "./engine-airflow";
 import type { CompressorOperatingPoints } from "./compressor-points";
 
@@ -99,7 +99,7 @@ function flowOn(line: readonly CompressorMapPoint[], pressureRatio: number): num
  */
 export function checkCompressorMapOutline(outline: CompressorMapOutline): CheckedMapOutline {
   requireObject("outline", outline);
-  const flowUnit = requireOneOf("Flow unit of the map", outline.flowUnit, MAP_FLOW_UNITS);
+  const flowUnit = requireChoice("Flow unit of the map", outline.flowUnit, MAP_FLOW_UNITS, "flowUnit");
   const reference = outline.reference == null ? null : checkFlowReference(outline.reference);
   const surgeLine = checkLine(outline.surgeLine, "Surge line", "surgeLine", flowUnit);
   const chokeLine = checkLine(outline.chokeLine, "Choke line", "chokeLine", flowUnit);

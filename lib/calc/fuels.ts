@@ -6,9 +6,8 @@
  * (Heywood, *Internal Combustion Engine Fundamentals*, ch. 3). A wideband meter reads λ; the AFR it
  * shows depends on the fuel it is set for.
  */
-import { requireOneOf } from "./errors";
 import { INPUT_RULES } from "./input-rules";
-import { formatNumber, requireQuantity } from "./quantity";
+import { formatNumber, requireChoice, requireQuantity } from "./quantity";
 
 export interface FuelProperties {
   label: string;
@@ -84,7 +83,7 @@ export const FUELS: Readonly<Record<FuelId, Readonly<FuelProperties>>> = Object.
 
 /** The fuel's figures by id ("petrol", "E10", "E85", "methanol"). */
 export function fuelProperties(fuel: FuelId): Readonly<FuelProperties> {
-  return FUELS[requireOneOf("Fuel", fuel, FUEL_IDS)];
+  return FUELS[requireChoice("Fuel", fuel, FUEL_IDS, "fuel")];
 }
 
 /** Air-fuel ratio from lambda: AFR = λ · AFR_stoich (λ 0.4–3, AFR_stoich 1.5–20). */

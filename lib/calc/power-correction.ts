@@ -66,7 +66,7 @@ export const POWER_CORRECTION_STANDARDS: Readonly<Record<AnyPowerCorrectionStand
   },
   SAE_J1349_CURRENT: {
     label: "SAE J1349 (current form, 2004 revision on)",
-    reference: "99 kPa dry-air pressure, 25 °C (298 K)",
+    reference: "99 kPa dry-air pressure, 298 K (24.85 °C; the factor is 1.0003 at 25 °C)",
     usesDryAirPressure: true,
     formula: "CF = 1.176 · (99 / pd[kPa]) · √((t[°C] + 273.15) / 298) − 0.176",
     formulaBasis:

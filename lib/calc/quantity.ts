@@ -71,6 +71,11 @@ export function describeRange(rule: QuantityRule): string {
   return text;
 }
 
+/** Entered text in quotes, cut at 40 characters. */
+function quoteText(text: string): string {
+  return JSON.stringify(text.length > 40 ? `${text.slice(0, 40)}…` : text);
+}
+
 /** What was entered, in words, ending with a full stop: "-5 rpm.", "no number.", "nothing.". */
 export function describeEntered(value: unknown, unit: string): string {
   if (typeof value === "number") {
@@ -79,7 +84,7 @@ export function describeEntered(value: unknown, unit: string): string {
     return `${withUnit(value, unit)}${unit === "K" ? celsiusAside(value) : ""}.`;
   }
   if (value === undefined || value === null || value === "") return "nothing.";
-  if (typeof value === "string") return `${JSON.stringify(value.length > 40 ? `${value.slice(0, 40)}…` : value)} (text, not a number).`;
+  if (typeof value === "string") return `${quoteText(value)} (text, not a number).`;
   return "something that is not a number.";
 }
 
@@ -113,4 +118,16 @@ export function requireQuantity(rule: QuantityRule, value: unknown, field?: stri
 /** Same rule under another label, e.g. "Volumetric efficiency at 4 000 rpm". */
 export function relabel(rule: QuantityRule, label: string): QuantityRule {
   return { ...rule, label };
+}
+
+/**
+ * Returns `value` when it is one of `allowed`; otherwise throws in workshop words, e.g.
+ * 'Fuel must be one of petrol, E10, E85, methanol; got "diesel".'
+ */
+export function requireChoice<T extends string>(label: string, value: unknown, allowed: readonly T[], field?: string): T {
+  if (typeof value === "string" && (allowed as readonly string[]).includes(value)) return value as T;
+  throw new CalcInputError(label, value, `must be one of ${allowed.join(", ")}`, {
+    shown: typeof value === "string" ? `${quoteText(value)}.` : "nothing usable.",
+    field: field ?? label,
+  });
 }

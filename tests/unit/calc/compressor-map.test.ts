@@ -64,7 +64,12 @@ describe("checkCompressorMapOutline", () => {
       "Choke line point 1: pressure ratio",
       /between 1 and 8/,
     );
-    expect(() => checkCompressorMapOutline({ ...outline, flowUnit: "cfm" as "kg/s" })).toThrow(/Flow unit of the map must be one of "lb\/min", "kg\/s"/);
+    expectWorkshopError(
+      () => checkCompressorMapOutline({ ...outline, flowUnit: "cfm" as "kg/s" }),
+      "Flow unit of the map",
+      /^Flow unit of the map must be one of lb\/min, kg\/s; got "cfm"\.$/,
+      "flowUnit",
+    );
   });
 });
 

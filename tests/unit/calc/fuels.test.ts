@@ -54,7 +54,8 @@ describe("fuels — stoichiometric air-fuel ratio and density", () => {
     expect(PETROL.source).toMatch(/from memory/);
   });
   it("refuses an unknown fuel and an impossible blend", () => {
-    expect(() => fuelProperties("diesel" as FuelId)).toThrow(/^Fuel must be one of "petrol", "E10", "E85", "methanol"; got "diesel"$/);
+    expectWorkshopError(() => fuelProperties("diesel" as FuelId), "Fuel", /^Fuel must be one of petrol, E10, E85, methanol; got "diesel"\.$/, "fuel");
+    expectWorkshopError(() => fuelProperties(undefined as unknown as FuelId), "Fuel", /got nothing usable\.$/);
     expectWorkshopError(() => ethanolBlend(110), "Ethanol content", /between 0 and 100 % by volume; got 110 % by volume\./);
   });
 });

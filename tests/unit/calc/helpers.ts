@@ -22,14 +22,7 @@ export function expectWithin(actual: number, expected: number, tol: number): voi
  * (optionally) matches `pattern`.
  */
 export function expectCalcError(fn: () => unknown, argument: string, pattern?: RegExp): CalcInputError {
-  let caught: unknown;
-  try {
-    fn();
-  } catch (e) {
-    caught = e;
-  }
-  expect(caught, `expected a CalcInputError for ${argument}`).toBeInstanceOf(CalcInputError);
-  const err = caught as CalcInputError;
+  const err = catchCalcError(fn, argument);
   expect(err.argument).toBe(argument);
   expect(err.message.startsWith(argument)).toBe(true);
   expect(err.message).toMatch(/; got /);
@@ -44,14 +37,7 @@ export function expectCalcError(fn: () => unknown, argument: string, pattern?: R
  * the error's `field` (the input's key, for forms).
  */
 export function expectWorkshopError(fn: () => unknown, label: string, pattern?: RegExp, field?: string): CalcInputError {
-  let caught: unknown;
-  try {
-    fn();
-  } catch (e) {
-    caught = e;
-  }
-  expect(caught, `expected a CalcInputError for ${label}`).toBeInstanceOf(CalcInputError);
-  const err = caught as CalcInputError;
+  const err = catchCalcError(fn, label);
   expect(err.argument).toBe(label);
   expect(err.message.startsWith(`${label} `), err.message).toBe(true);
   expect(err.message.endsWith("."), err.message).toBe(true);
@@ -62,4 +48,16 @@ export function expectWorkshopError(fn: () => unknown, label: string, pattern?: 
   if (pattern) expect(err.message).toMatch(pattern);
   if (field !== undefined) expect(err.field).toBe(field);
   return err;
+}
+
+/** Runs `fn` and returns the CalcInputError it throws (fails the test if it throws nothing else). */
+function catchCalcError(fn: () => unknown, what: string): CalcInputError {
+  let caught: unknown;
+  try {
+    fn();
+  } catch (e) {
+    caught = e;
+  }
+  expect(caught, `expected a CalcInputError for ${what}`).toBeInstanceOf(CalcInputError);
+  return caught as CalcInputError;
 }
