@@ -30,16 +30,29 @@ function describeValue(value: unknown): string {
  * e.g. `boreMm must be a finite number > 0; got -86`.
  */
 export class CalcInputError extends Error {
-  /** Name of the offending argument (dotted path for object fields, e.g. `spec.min`). */
+  /**
+   * Name of the offending argument (dotted path for object fields, e.g. `spec.min`), or for the
+   * functions that speak workshop words, the name the user sees (e.g. "Engine speed").
+   */
   readonly argument: string;
   /** The value that was received. */
   readonly value: unknown;
+  /**
+   * The input's key in the function's arguments (e.g. `rpm`, `veCurve[2].value`), so a form can put
+   * the message beside the right field. Equals `argument` unless the thrower gave one.
+   */
+  readonly field: string;
 
-  constructor(argument: string, value: unknown, requirement: string) {
-    super(`${argument} ${requirement}; got ${describeValue(value)}`);
+  /**
+   * @param options.shown replaces the rendered value after "got " (e.g. "-5 rpm.");
+   * @param options.field see {@link CalcInputError.field}.
+   */
+  constructor(argument: string, value: unknown, requirement: string, options: { shown?: string; field?: string } = {}) {
+    super(`${argument} ${requirement}; got ${options.shown ?? describeValue(value)}`);
     this.name = "CalcInputError";
     this.argument = argument;
     this.value = value;
+    this.field = options.field ?? argument;
   }
 }
 

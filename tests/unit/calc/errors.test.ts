@@ -17,6 +17,15 @@ describe("CalcInputError", () => {
     expect(err.argument).toBe("boreMm");
     expect(err.value).toBe(-1);
     expect(err.message).toBe("boreMm must be a finite number > 0; got -1");
+    expect(err.field).toBe("boreMm"); // defaults to the argument
+  });
+
+  it("can carry the user's name for a field, the input key, and the value as shown", () => {
+    const err = new CalcInputError("Engine speed", -5, "must be between 1 and 25 000 rpm", { shown: "-5 rpm.", field: "rpm" });
+    expect(err.message).toBe("Engine speed must be between 1 and 25 000 rpm; got -5 rpm.");
+    expect(err.argument).toBe("Engine speed");
+    expect(err.field).toBe("rpm");
+    expect(err.value).toBe(-5);
   });
 
   // Every numeric entry point refuses NaN instead of returning it.

@@ -1,8 +1,15 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import {
+  ALL_POWER_CORRECTION_STANDARD_IDS,
+  BOOSTED_ENGINE_CAUTION,
   POWER_CORRECTION_STANDARDS,
+  POWER_CORRECTION_STANDARD_IDS,
+  POWER_CORRECTION_VALIDITY,
+  STATION_PRESSURE_NOTE,
+  correctionValidity,
   powerCorrectionFactor,
+  stationPressureKpa,
   saturationVaporPressureKpa,
   vaporPressureKpa,
   type AtmosphericConditions,
@@ -32,6 +39,93 @@ describe("SAE J1349, 1990 form: CF = 1.18·(990/Pd)·√((T+273)/298) − 0.18",
   });
   it("is labelled with its form", () => {
     expect(POWER_CORRECTION_STANDARDS.SAE_J1349.label).toBe("SAE J1349 (1990 form)");
+  });
+});
+
+describe("SAE J1349, current form (from memory): CF = 1.176·(99/pd)·√((t+273.15)/298) − 0.176", () => {
+  // The form implemented is the 2004 revision's as remembered (REFERENCE-CHECKS marks it [memory]);
+  // the checks are arithmetic from that remembered formula, not from the SAE text.
+  it("95 kPa dry, 30 °C → 1.06006 (REFERENCE-CHECKS, calc; formula from memory)", () => {
+    expectWithin(powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: 95, temperatureC: 30 }), 1.06006, 0.000005);
+  });
+  it("is exactly 1 at 99 kPa dry and 298 K (24.85 °C); 1.0003 at 25 °C with T = t + 273.15 (pinned)", () => {
+    expectWithin(powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: 99, temperatureC: 24.85 }), 1, 1e-12);
+    expectWithin(powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: 99, temperatureC: 25 }), 1.0003, 0.00005);
+  });
+  it("uses dry-air pressure like the 1990 form", () => {
+    const wet = powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: 101, temperatureC: 30, vaporPressureKpa: 2 });
+    expect(wet).toBe(powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: 99, temperatureC: 30 }));
+  });
+  it("stays within 0.0007 of the 1990 form over 90–105 kPa and 15–35 °C (REFERENCE-CHECKS claim, property)", () => {
+    fc.assert(
+      fc.property(fc.double({ min: 90, max: 105, noNaN: true }), fc.double({ min: 15, max: 35, noNaN: true }), (p, t) => {
+        const c = { pressureKpa: p, temperatureC: t };
+        return Math.abs(powerCorrectionFactor("SAE_J1349_CURRENT", c) - powerCorrectionFactor("SAE_J1349", c)) < 0.0007;
+      }),
+    );
+  });
+  it("is named beside the 1990 form and says its formula is from memory", () => {
+    expect(POWER_CORRECTION_STANDARDS.SAE_J1349_CURRENT.label).toBe("SAE J1349 (current form, 2004 revision on)");
+    expect(POWER_CORRECTION_STANDARDS.SAE_J1349_CURRENT.formulaBasis).toMatch(/^From memory/);
+    expect(ALL_POWER_CORRECTION_STANDARD_IDS).toContain("SAE_J1349_CURRENT");
+    // dyno runs are recorded under the four the dyno record accepts until it takes the new form
+    expect(POWER_CORRECTION_STANDARD_IDS).not.toContain("SAE_J1349_CURRENT");
+  });
+  it("a station pressure from altitude feeds it: 1 000 m on a 101.325 kPa day, 25 °C → about 1.10 (calc)", () => {
+    const p = stationPressureKpa(101.325, 1000);
+    expectWithin(powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: p, temperatureC: 25 }), 1.176 * (99 / p) * Math.sqrt(298.15 / 298) - 0.176, 1e-12);
+    // entering the sea-level figure instead would understate the correction by about 12 %
+    expect(powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: p, temperatureC: 25 })).toBeGreaterThan(
+      powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: 101.325, temperatureC: 25 }) + 0.1,
+    );
+  });
+});
+
+describe("correctionValidity — each standard's range as data, findings in workshop words", () => {
+  it("SAE J1349 (both forms, from memory): 15–35 °C and 90–105 kPa dry air", () => {
+    for (const s of ["SAE_J1349", "SAE_J1349_CURRENT"] as const) {
+      expect(POWER_CORRECTION_VALIDITY[s].temperatureC).toEqual({ min: 15, max: 35 });
+      expect(POWER_CORRECTION_VALIDITY[s].pressureKpa).toEqual({ min: 90, max: 105 });
+      expect(POWER_CORRECTION_VALIDITY[s].basis).toMatch(/^From memory/);
+    }
+  });
+  it("inside the range, limits included, says so", () => {
+    const r = correctionValidity("SAE_J1349", { pressureKpa: 90, temperatureC: 35 });
+    expect(r).toMatchObject({ standard: "SAE_J1349", rangeKnown: true, inside: true, outside: [] });
+    expect(r.factor).toBe(powerCorrectionFactor("SAE_J1349", { pressureKpa: 90, temperatureC: 35 }));
+  });
+  it("names each condition outside the range, with the standard's name and its limits", () => {
+    const r = correctionValidity("SAE_J1349", { pressureKpa: 88, temperatureC: 38 });
+    expect(r.inside).toBe(false);
+    expect(r.outside).toEqual([
+      { quantity: "temperature", message: "Intake air 38 °C is above the 35 °C upper limit of SAE J1349 (1990 form) (15–35 °C)." },
+      { quantity: "pressure", message: "Dry-air pressure 88 kPa is below the 90 kPa lower limit of SAE J1349 (1990 form) (90–105 kPa)." },
+    ]);
+  });
+  it("checks the dry-air pressure, not the barometer reading, where the standard uses it", () => {
+    // 92 kPa barometric with 3 kPa of water vapour is 89 kPa dry: outside
+    const r = correctionValidity("SAE_J1349_CURRENT", { pressureKpa: 92, temperatureC: 30, vaporPressureKpa: 3 });
+    expect(r.outside.map((f) => f.quantity)).toEqual(["pressure"]);
+    expect(r.outside[0].message).toMatch(/^Dry-air pressure 89 kPa is below/);
+  });
+  it("ISO 1585 (from memory): 15–35 °C and a factor between 0.93 and 1.07", () => {
+    const r = correctionValidity("ISO_1585", { pressureKpa: 85, temperatureC: 38 });
+    expect(r.outside.map((f) => f.quantity)).toEqual(["temperature", "factor"]);
+    expect(r.outside[1].message).toMatch(/^Correction factor 1\.\d{3} is above the 1\.07 upper limit of ISO 1585/);
+    expect(correctionValidity("ISO_1585", { pressureKpa: 99, temperatureC: 25 }).inside).toBe(true);
+  });
+  it("where no range is on record it says so instead of guessing", () => {
+    for (const s of ["DIN_70020", "SAE_J607"] as const) {
+      const r = correctionValidity(s, { pressureKpa: 70, temperatureC: 45 });
+      expect(r.rangeKnown).toBe(false);
+      expect(r.inside).toBe(true);
+      expect(r.basis).toMatch(/No validity range is on record/);
+    }
+  });
+  it("carries the boosted-engine caution and the station-pressure note in words", () => {
+    expect(BOOSTED_ENGINE_CAUTION).toMatch(/over-corrected/);
+    expect(STATION_PRESSURE_NOTE).toMatch(/station pressure/);
+    expect(STATION_PRESSURE_NOTE).toMatch(/not the weather report's sea-level pressure/);
   });
 });
 
