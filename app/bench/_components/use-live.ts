@@ -23,3 +23,19 @@ export function useNow(ms = 1000): number {
   }, [ms]);
   return now;
 }
+
+/** The browser's network state, kept current by its online / offline events. */
+export function useOnline(): boolean {
+  const [online, setOnline] = useState(true);
+  useEffect(() => {
+    const update = () => setOnline(navigator.onLine);
+    update();
+    window.addEventListener("online", update);
+    window.addEventListener("offline", update);
+    return () => {
+      window.removeEventListener("online", update);
+      window.removeEventListener("offline", update);
+    };
+  }, []);
+  return online;
+}
