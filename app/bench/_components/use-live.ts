@@ -1,7 +1,8 @@
 "use client";
 
 import { liveQuery } from "dexie";
-import { useEffect, useState } from "react";
+import { onlineManager } from "@tanstack/react-query";
+import { useEffect, useState, useSyncExternalStore } from "react";
 
 /** The value of an IndexedDB query, kept current as the tables change (dexie liveQuery). */
 export function useLive<T>(query: () => Promise<T>, deps: unknown[], initial: T): T {
@@ -24,18 +25,11 @@ export function useNow(ms = 1000): number {
   return now;
 }
 
-/** The browser's network state, kept current by its online / offline events. */
+/** The network state as react-query's onlineManager has it (it follows the browser: lib/client/online-state.ts). */
 export function useOnline(): boolean {
-  const [online, setOnline] = useState(true);
-  useEffect(() => {
-    const update = () => setOnline(navigator.onLine);
-    update();
-    window.addEventListener("online", update);
-    window.addEventListener("offline", update);
-    return () => {
-      window.removeEventListener("online", update);
-      window.removeEventListener("offline", update);
-    };
-  }, []);
-  return online;
+  return useSyncExternalStore(
+    (onChange) => onlineManager.subscribe(onChange),
+    () => onlineManager.isOnline(),
+    () => true,
+  );
 }

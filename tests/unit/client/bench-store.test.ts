@@ -1,26 +1,16 @@
+// fake-indexeddb before dexie: dexie takes the IndexedDB it finds when it loads.
 import "fake-indexeddb/auto";
 import { randomUUID } from "node:crypto";
-import { afterEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { BenchDb } from "@/lib/client/bench-db";
-import { keepSyncAnswer, markMissedCopies, missedCopyCursor, olderCopies, recordOperation, recordPhoto, storeJobCopy, waitingOperations, workOnTop } from "@/lib/client/bench-store";
+import { keepSyncAnswer, markMissedCopies, missedCopyCursor, olderCopies, recordPhoto, storeJobCopy, waitingOperations, workOnTop } from "@/lib/client/bench-store";
+import { author, bolt, freshDb } from "../support/tablet-db";
 import { ids, jobSnapshot } from "../support/job-snapshot";
 
 // The tablet's store rules (lib/client/bench-store.ts) on an in-memory IndexedDB (fake-indexeddb).
 
-const author = { userId: ids.mech, deviceId: "tab-1" };
-const open: BenchDb[] = [];
-function freshDb(): BenchDb {
-  const db = new BenchDb(`test-${randomUUID()}`);
-  open.push(db);
-  return db;
-}
-afterEach(async () => {
-  for (const db of open.splice(0)) await db.delete();
-});
 const toRefresh = async (db: BenchDb) => (await olderCopies(db)).map((w) => w.id);
 const copyCursor = async (db: BenchDb) => (await db.jobs.get(ids.job))?.snapshot.cursor;
-const bolt = (db: BenchDb, passIndex: number, b: number) =>
-  recordOperation(db, author, ids.job, "torque.bolt-confirmed", { stepId: ids.stepBolts, torqueSpecId: ids.rodSpec, passIndex, bolt: b });
 
 describe("a job copy is never replaced by an older one", () => {
   it("keeps the newer copy whichever order they arrive in; a copy at the same cursor replaces", async () => {

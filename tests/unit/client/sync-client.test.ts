@@ -1,28 +1,20 @@
+// fake-indexeddb before dexie: dexie takes the IndexedDB it finds when it loads.
 import "fake-indexeddb/auto";
 import { randomUUID } from "node:crypto";
-import { afterEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { BenchDb, readSyncMeta } from "@/lib/client/bench-db";
-import { missedCopyCursor, recordOperation, storeJobCopy, workOnTop } from "@/lib/client/bench-store";
+import { missedCopyCursor, storeJobCopy, workOnTop } from "@/lib/client/bench-store";
 import { singleFlight } from "@/lib/client/single-flight";
 import { syncOnce } from "@/lib/client/sync-client";
 import type { Operation } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 import { buildWorkOrderView } from "@/lib/work-order-record";
+import { bolt, freshDb } from "../support/tablet-db";
 import { ids, jobSnapshot, torqueRecord } from "../support/job-snapshot";
 
 // The sync run (lib/client/sync-client.ts) against a stand-in server: what the tablet keeps when
 // the network goes between the sync answer and the job reload, and that runs never overlap.
 
-const author = { userId: ids.mech, deviceId: "tab-1" };
-const open: BenchDb[] = [];
-afterEach(async () => {
-  for (const db of open.splice(0)) await db.delete();
-});
-function freshDb(): BenchDb {
-  const db = new BenchDb(`test-${randomUUID()}`);
-  open.push(db);
-  return db;
-}
 
 interface FakeServer {
   fetch: typeof fetch;
@@ -62,8 +54,6 @@ function fakeServer(cursorAfter: () => string, jobCopy: FakeServer["jobCopy"]): 
   return server;
 }
 
-const bolt = (db: BenchDb, passIndex: number, b: number) =>
-  recordOperation(db, author, ids.job, "torque.bolt-confirmed", { stepId: ids.stepBolts, torqueSpecId: ids.rodSpec, passIndex, bolt: b });
 const nextBolt = async (db: BenchDb) => {
   const copy = (await db.jobs.get(ids.job))!.snapshot;
   return buildWorkOrderView(copy, await workOnTop(db, ids.job), Date.now()).steps.find((s) => s.step.id === ids.stepBolts)!.torque[0].next;
