@@ -214,9 +214,8 @@ export async function olderCopies(db: BenchDb): Promise<WantedCopy[]> {
 
 /** At the end of a sync run: the copies still older than the answer were missed (the bench says so). */
 export async function markMissedCopies(db: BenchDb, now = Date.now()): Promise<void> {
-  await db.transaction("rw", [db.jobs, db.wanted], async () => {
-    for (const w of await olderCopies(db)) if (w.missedAt === undefined) await db.wanted.update(w.id, { missedAt: now });
-  });
+  // No transaction needed: a copy stored meanwhile has deleted its row, and updating a missing row does nothing.
+  for (const w of await olderCopies(db)) if (w.missedAt === undefined) await db.wanted.update(w.id, { missedAt: now });
 }
 
 /**

@@ -55,7 +55,7 @@ async function getJson<T>(fetchFn: typeof fetch, url: string, parse: (v: unknown
   return parse(await res.json());
 }
 
-export async function fetchJobSnapshot(fetchFn: typeof fetch, id: string): Promise<JobSnapshot> {
+async function fetchJobSnapshot(fetchFn: typeof fetch, id: string): Promise<JobSnapshot> {
   return getJson(fetchFn, `/api/bench/jobs/${id}`, (v) => jobSnapshotSchema.parse(v));
 }
 

@@ -80,5 +80,4 @@ export function buildWorkOrderView(snapshot: Snapshot, pending: readonly Operati
 
 export { readingCount } from "./readings";
 export { stepWithSerial } from "./parts";
-export { torqueProgress } from "./torque";
 export type * from "./types";

@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import { recordOperation } from "@/lib/client/bench-store";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { go } from "./hash-route";
 import { useJob } from "./job-data";
@@ -11,7 +11,8 @@ import { ProgressBar } from "./progress-bar";
 
 /** One job: its stages and steps with what is done, and the sign-off of each finished stage. */
 export function JobScreen({ jobId }: { jobId: string }) {
-  const { db, user, author, syncNow } = useBench();
+  const { db, user, syncNow } = useBench();
+  const author = useAuthor();
   const { data, loading, error } = useJob(jobId);
   const [busy, setBusy] = useState<string | null>(null);
   if (loading) return <p className="p-6 text-xl">Loading the job…</p>;

@@ -5,7 +5,7 @@ import { boreGeometry } from "@/lib/calc/bore-geometry";
 import { evaluateTolerance } from "@/lib/calc/tolerance";
 import { readingCount, type MeasurementSpecView, type ReadingView, type StepView } from "@/lib/work-order-record";
 import { recordOperation } from "@/lib/client/bench-store";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { NumberKeypad, parseEntry } from "./number-keypad";
 import { Verdict } from "./verdict";
@@ -40,7 +40,8 @@ export function MeasurementPanel({ jobId, view }: { jobId: string; view: StepVie
 }
 
 function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; spec: MeasurementSpecView }) {
-  const { db, author, syncNow } = useBench();
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   const count = readingCount(spec);
   const current = view.current.get(spec.id) ?? new Map<number, ReadingView>();
   const history = view.readings.get(spec.id) ?? [];

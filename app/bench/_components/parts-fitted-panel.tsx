@@ -5,7 +5,7 @@ import { stepWithSerial, type PartView, type StepView, type WorkOrderView } from
 import { recordOperation } from "@/lib/client/bench-store";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS, partFittedPayload } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 
 type TextField = "partNumber" | "description" | "serial" | "batch" | "supplier";
@@ -24,7 +24,8 @@ const FIELDS: Array<{ key: TextField; label: string; code?: boolean }> = [
  * Works offline: the part is an operation in the outbox until the next sync.
  */
 export function PartsFittedPanel({ jobId, view, job, people }: { jobId: string; view: StepView; job: WorkOrderView; people: JobSnapshot["people"] }) {
-  const { db, author, syncNow } = useBench();
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   const [open, setOpen] = useState(false);
   const [text, setText] = useState(EMPTY);
   const [quantity, setQuantity] = useState(1);

@@ -5,12 +5,13 @@ import type { StepView } from "@/lib/work-order-record";
 import { recordPhoto } from "@/lib/client/bench-store";
 import { PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 import { useLive } from "./use-live";
 
 /** Take or pick a photo at a step. Kept in IndexedDB until it is sent with the next sync. */
 export function PhotoPanel({ jobId, view, snapshotPhotos }: { jobId: string; view: StepView; snapshotPhotos: JobSnapshot["state"]["photos"] }) {
-  const { db, author, syncNow } = useBench();
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   const [error, setError] = useState<string | null>(null);
   const photos = useLive(() => db.photos.where("stepId").equals(view.step.id).toArray(), [db, view.step.id], []);
   const localIds = new Set(photos.map((p) => p.id));

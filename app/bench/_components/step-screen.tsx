@@ -2,7 +2,7 @@
 
 import { useEffect, useRef, useState } from "react";
 import { recordOperation } from "@/lib/client/bench-store";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { Cautions } from "./cautions";
 import { go } from "./hash-route";
@@ -21,7 +21,8 @@ const SWIPE_PX = 90;
 /** One step per screen: big previous/next at the screen edges, swipe to move, the step's
  * cautions, instructions and what must be recorded, then one large "done" button. */
 export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: number }) {
-  const { db, author, syncNow } = useBench();
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   const { data, loading, error } = useJob(jobId);
   const [acknowledged, setAcknowledged] = useState<Set<string>>(new Set());
   const touch = useRef<{ x: number; y: number } | null>(null);

@@ -3,12 +3,13 @@
 import { useState } from "react";
 import type { StepView } from "@/lib/work-order-record";
 import { recordOperation } from "@/lib/client/bench-store";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 
 /** For a supervisor at the bench: let a step go ahead before its wait is over, with the reason on record. */
 export function TimerOverride({ jobId, blocked }: { jobId: string; blocked: NonNullable<StepView["blockedBy"]> }) {
-  const { db, user, author, syncNow } = useBench();
+  const { db, user, syncNow } = useBench();
+  const author = useAuthor();
   const [reason, setReason] = useState("");
   const [error, setError] = useState<string | null>(null);
   if (user.role !== "supervisor") return null;

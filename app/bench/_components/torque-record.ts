@@ -3,7 +3,7 @@
 import { convertTorque, type TorqueUnit } from "@/lib/calc/units";
 import { recordOperation } from "@/lib/client/bench-store";
 import type { StepView, TorqueProgress } from "@/lib/work-order-record";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 
 /** One bolt of one pass: what a torque confirm records. */
 export interface BoltTarget {
@@ -41,7 +41,8 @@ export function boltLabel(progress: TorqueProgress, target: BoltTarget, shopUnit
 
 /** Records a bolt of a step's torque spec (with a wrench reading when given); syncs after a finished pass. */
 export function useRecordBolt(jobId: string, view: StepView): (target: BoltTarget, wrenchReading?: number) => Promise<void> {
-  const { db, author, user, syncNow } = useBench();
+  const { db, user, syncNow } = useBench();
+  const author = useAuthor();
   return async (target, wrenchReading) => {
     await recordOperation(db, author, jobId, "torque.bolt-confirmed", {
       stepId: view.step.id,
