@@ -1,6 +1,6 @@
 import type { Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { buildJobView } from "@/lib/bench/job-view";
+import { buildWorkOrderView } from "@/lib/work-order-record";
 import { buildProgress, type BuildProgress } from "@/lib/work-orders/build-progress";
 import { getJobSnapshot } from "./bench-jobs";
 import type { Database } from "./schema";
@@ -9,6 +9,6 @@ import type { Database } from "./schema";
 export async function loadBuildProgress(db: Kysely<Database>, user: SessionUser, workOrderId: string): Promise<BuildProgress | null> {
   const snapshot = await getJobSnapshot(db, user, workOrderId);
   if (!snapshot) return null;
-  const view = buildJobView(snapshot, [], Date.now());
+  const view = buildWorkOrderView(snapshot, [], Date.now());
   return buildProgress(view.stages, snapshot.workOrder.status);
 }

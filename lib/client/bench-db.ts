@@ -1,13 +1,14 @@
 /**
- * The tablet's own store (IndexedDB through dexie). One database per signed-in user on this
- * browser, so two people sharing a tablet never mix their work. Everything the bench screens show
- * is read from here; the network only moves the outbox up and snapshots down.
+ * The tablet's own store (IndexedDB through dexie): its tables and what they hold. One database
+ * per signed-in user on this browser, so two people sharing a tablet never mix their work.
+ * Everything the bench screens show is read from here; every write goes through
+ * `./bench-store.ts`.
  */
 import Dexie, { type Table } from "dexie";
-import type { HlcState } from "@/lib/sync/hlc";
 import type { Operation } from "@/lib/sync/operations";
 import type { BenchJobSummary, JobSnapshot } from "@/lib/sync/snapshot";
 
+/** A copy of one job as the server sent it; `snapshot.cursor` is the server cursor it is current to. */
 export interface StoredJob {
   id: string;
   snapshot: JobSnapshot;
@@ -19,8 +20,13 @@ export interface OutboxEntry {
   workOrderId: string;
   stamp: string;
   op: Operation;
-  /** waiting: not yet stored by the server; refused: the server said no (reason kept and shown). */
-  state: "waiting" | "refused";
+  /**
+   * waiting: not yet stored by the server. sent: the server stored it (answer cursor in
+   * `sentCursor`) and it stays, drawn on top of the job copy, until a copy at least that new is
+   * on the tablet. refused: the server said no (reason kept and shown).
+   */
+  state: "waiting" | "sent" | "refused";
+  sentCursor?: string;
   reason?: string;
   createdAt: number;
 }
@@ -38,6 +44,15 @@ export interface StoredPhoto {
   createdAt: number;
 }
 
+/** A job whose copy must be at least as new as `cursor` (a sync answer touched it); gone once it is. */
+export interface WantedCopy {
+  id: string;
+  cursor: string;
+  since: number;
+  /** Set when a sync run ended without the fresh copy (the reload failed): the bench then says so. */
+  missedAt?: number;
+}
+
 export interface SyncMeta {
   cursor: string | null;
   lastSyncedAt: number | null;
@@ -51,6 +66,7 @@ export class BenchDb extends Dexie {
   outbox!: Table<OutboxEntry, string>;
   photos!: Table<StoredPhoto, string>;
   meta!: Table<{ key: string; value: unknown }, string>;
+  wanted!: Table<WantedCopy, string>;
 
   constructor(name: string) {
     super(name);
@@ -61,6 +77,7 @@ export class BenchDb extends Dexie {
       photos: "id, workOrderId, stepId, uploaded",
       meta: "key",
     });
+    this.version(2).stores({ wanted: "id" });
   }
 }
 
@@ -74,14 +91,15 @@ export function benchDb(userId: string): BenchDb {
   return db;
 }
 
-export async function getMeta<T>(db: BenchDb, key: string, fallback: T): Promise<T> {
-  const row = await db.meta.get(key);
-  return row ? (row.value as T) : fallback;
-}
-
-export async function setMeta(db: BenchDb, key: string, value: unknown): Promise<void> {
-  await db.meta.put({ key, value });
-}
-
 export const META = { clock: "clock", sync: "sync" } as const;
-export type { HlcState };
+
+/** A meta value (a dexie promise chain, so it may be awaited inside a transaction). */
+export function readMeta<T>(db: BenchDb, key: string, fallback: T): Promise<T> {
+  return db.meta.get(key).then((row) => (row ? (row.value as T) : fallback));
+}
+
+export const EMPTY_SYNC_META: SyncMeta = { cursor: null, lastSyncedAt: null, lastAttemptAt: null, lastError: null };
+
+export function readSyncMeta(db: BenchDb): Promise<SyncMeta> {
+  return readMeta<SyncMeta>(db, META.sync, EMPTY_SYNC_META);
+}

@@ -1,20 +1,24 @@
 /**
- * Moving work between the tablet and the server. One run:
+ * Moving work between the tablet and the server. One run (never two at once: see
+ * `./single-flight.ts` and the bench's sync hook):
  *  1. push the waiting outbox in batches (POST /api/sync), collecting what the server stored,
  *     what it refused (kept on the tablet with the reason, shown to the mechanic) and the changes
  *     made elsewhere since our cursor;
- *  2. fetch fresh snapshots of the jobs touched (ours and others'), the job list, and the
- *     snapshots of jobs assigned to this user, so they open offline;
- *  3. in one IndexedDB transaction, store the snapshots and only then drop the stored operations
- *     from the outbox — until the snapshot holds them, the screen keeps showing them as waiting.
+ *  2. keep the answer at once (`keepSyncAnswer`): stored operations become "sent" — still in the
+ *     outbox and still drawn on screen — and every job they or the changes touch wants a copy at
+ *     least as new as the answer's cursor;
+ *  3. fetch those copies (and the copies of jobs newly assigned to this user); each copy is stored
+ *     only if it is not older than the one held, and only then do the sent operations it covers
+ *     leave the outbox. A copy that cannot be fetched now leaves the sent work on screen and the
+ *     job marked as older than the last sync, for the next run;
+ *  4. the job list, then the bytes of photos whose entry the server holds.
  * A run cut off anywhere is safe to repeat: the server ignores operations it already has.
  */
-import { receive, type HlcState, createClock } from "@/lib/sync/hlc";
 import { splitIntoBatches } from "@/lib/sync/batching";
 import { tabletSyncResponseSchema } from "@/lib/sync/changes";
 import { benchJobListSchema, jobSnapshotSchema, type JobSnapshot } from "@/lib/sync/snapshot";
-import { getMeta, META, setMeta, type BenchDb, type SyncMeta } from "./bench-db";
-import { waitingOperations } from "./outbox";
+import { readSyncMeta, type BenchDb } from "./bench-db";
+import { forgetJobCopy, keepSyncAnswer, markMissedCopies, markPhotoUploaded, noteSync, olderCopies, replaceJobList, storeJobCopy, waitingOperations } from "./bench-store";
 
 export class SyncHttpError extends Error {
   constructor(
@@ -35,12 +39,6 @@ export interface SyncReport {
   photosSent: number;
 }
 
-const EMPTY_META: SyncMeta = { cursor: null, lastSyncedAt: null, lastAttemptAt: null, lastError: null };
-
-export async function readSyncMeta(db: BenchDb): Promise<SyncMeta> {
-  return getMeta<SyncMeta>(db, META.sync, EMPTY_META);
-}
-
 async function errorText(res: Response): Promise<string> {
   try {
     const body = (await res.json()) as { error?: string; issues?: Array<{ path?: unknown; message?: string }> };
@@ -57,37 +55,46 @@ async function getJson<T>(fetchFn: typeof fetch, url: string, parse: (v: unknown
   return parse(await res.json());
 }
 
-export async function fetchJobSnapshot(fetchFn: typeof fetch, id: string): Promise<JobSnapshot> {
+async function fetchJobSnapshot(fetchFn: typeof fetch, id: string): Promise<JobSnapshot> {
   return getJson(fetchFn, `/api/bench/jobs/${id}`, (v) => jobSnapshotSchema.parse(v));
 }
 
+/** Fetches a job's copy and stores it unless a newer one is held. Returns the copy fetched. */
+export async function refreshJobCopy(db: BenchDb, id: string, fetchFn: typeof fetch = fetch): Promise<JobSnapshot> {
+  const snapshot = await fetchJobSnapshot(fetchFn, id);
+  await storeJobCopy(db, snapshot);
+  return snapshot;
+}
+
+function describeError(e: unknown): string {
+  return e instanceof TypeError ? "No network: work is kept on this tablet." : e instanceof Error ? e.message : String(e);
+}
+
 export async function syncOnce(db: BenchDb, deviceId: string, fetchFn: typeof fetch = fetch): Promise<SyncReport> {
-  const meta = await readSyncMeta(db);
-  await setMeta(db, META.sync, { ...meta, lastAttemptAt: Date.now() });
+  await noteSync(db, { lastAttemptAt: Date.now() });
   try {
-    const report = await run(db, deviceId, fetchFn, meta.cursor);
-    await setMeta(db, META.sync, { ...(await readSyncMeta(db)), lastSyncedAt: Date.now(), lastError: null });
+    const report = await run(db, deviceId, fetchFn);
+    await noteSync(db, { lastSyncedAt: Date.now(), lastError: null });
     return report;
   } catch (e) {
-    const message = e instanceof TypeError ? "No network: work is kept on this tablet." : e instanceof Error ? e.message : String(e);
-    await setMeta(db, META.sync, { ...(await readSyncMeta(db)), lastError: message });
+    await noteSync(db, { lastError: describeError(e) });
     throw e;
   }
 }
 
-async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch, startCursor: string | null): Promise<SyncReport> {
+async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promise<SyncReport> {
   const waiting = await waitingOperations(db);
   const batches = waiting.length ? splitIntoBatches(waiting) : [[]];
-  let cursor = startCursor;
+  let cursor = (await readSyncMeta(db)).cursor;
   const stored = new Set<string>();
   const refused: Array<{ id: string; reason: string }> = [];
   const touchedJobs = new Set<string>();
   let changes = 0;
   const remoteStamps: string[] = [];
 
-  for (let i = 0; i < batches.length; i++) {
+  for (const batch of batches) {
     let more = true;
-    let ops = batches[i];
+    let ops = batch;
     while (more) {
       const res = await fetchFn("/api/sync", {
         method: "POST",
@@ -114,58 +121,54 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch, startCu
       ops = []; // further rounds only pull
     }
   }
+  let jobsRefreshed = 0;
+  // The last answer's cursor is the shop's cursor after our operations were stored (more = false).
+  await keepSyncAnswer(db, { deviceId, stored: [...stored], refused, touchedJobs, cursor: cursor!, remoteStamps });
 
-  // Jobs to (re)load: touched ones, plus assigned jobs not on the tablet yet.
-  const list = await getJson(fetchFn, "/api/bench/jobs", (v) => benchJobListSchema.parse(v));
-  const have = new Set(await db.jobs.toCollection().primaryKeys());
-  for (const j of list.jobs) if (j.assignedToMe && j.mayWork && !have.has(j.id)) touchedJobs.add(j.id);
-  const snapshots: JobSnapshot[] = [];
-  for (const id of touchedJobs) {
-    try {
-      snapshots.push(await fetchJobSnapshot(fetchFn, id));
-    } catch (e) {
-      if (!(e instanceof SyncHttpError && (e.status === 404 || e.status === 403))) throw e;
-      await db.jobs.delete(id);
-    }
-  }
-
-  const now = Date.now();
-  await db.transaction("rw", [db.jobs, db.jobList, db.outbox, db.meta], async () => {
-    await db.jobList.clear();
-    await db.jobList.bulkPut(list.jobs.map((j) => ({ ...j, listedAt: now })));
-    await db.jobs.bulkPut(snapshots.map((s) => ({ id: s.workOrder.id, snapshot: s, fetchedAt: now })));
-    await db.outbox.bulkDelete([...stored]);
-    for (const r of refused) await db.outbox.update(r.id, { state: "refused", reason: r.reason });
-    let clock = await getMeta<HlcState>(db, META.clock, createClock(deviceId));
-    for (const s of remoteStamps) {
+  try {
+    const list = await getJson(fetchFn, "/api/bench/jobs", (v) => benchJobListSchema.parse(v));
+    const have = new Set(await db.jobs.toCollection().primaryKeys());
+    const toLoad = new Set((await olderCopies(db)).map((w) => w.id));
+    for (const j of list.jobs) if (j.assignedToMe && j.mayWork && !have.has(j.id)) toLoad.add(j.id);
+    let failed: unknown = null;
+    for (const id of toLoad) {
       try {
-        clock = receive(clock, s, now, { maxAheadMs: 5 * 60_000 }).state;
-      } catch {
-        // a stamp from a tablet with a wrong clock: do not drag ours forward
+        await refreshJobCopy(db, id, fetchFn);
+        jobsRefreshed++;
+      } catch (e) {
+        if (e instanceof SyncHttpError && (e.status === 404 || e.status === 403)) {
+          await forgetJobCopy(db, id);
+          continue;
+        }
+        failed ??= e;
+        if (e instanceof TypeError) break; // the network went: the next run tries again
       }
     }
-    await setMeta(db, META.clock, clock);
-    const meta = await readSyncMeta(db);
-    await setMeta(db, META.sync, { ...meta, cursor });
-  });
+    if (failed) throw failed;
+    await replaceJobList(db, list.jobs);
+  } finally {
+    await markMissedCopies(db);
+  }
   const photosSent = await uploadPhotos(db, fetchFn);
-  return { sent: waiting.length, stored: stored.size, refused: refused.length, changes, jobsRefreshed: snapshots.length, photosSent };
+  return { sent: waiting.length, stored: stored.size, refused: refused.length, changes, jobsRefreshed, photosSent };
 }
 
 /**
- * Sends the bytes of photos whose entry the server already holds (their photo.queued operation has
- * left the outbox). A photo whose entry is still waiting, or one the server cannot take now, stays
- * on the tablet for the next run; the sync itself does not fail for it.
+ * Sends the bytes of photos whose entry the server already holds (their photo.queued operation is
+ * no longer waiting). A photo whose entry is still waiting or was refused, or one the server cannot
+ * take now, stays on the tablet; the sync itself does not fail for it.
  */
 async function uploadPhotos(db: BenchDb, fetchFn: typeof fetch): Promise<number> {
   const pending = await db.photos.where("uploaded").equals(0).toArray();
-  const waiting = new Set((await db.outbox.toArray()).flatMap((o) => (o.op.kind === "photo.queued" ? [o.op.payload.attachmentId] : [])));
+  const notOnServer = new Set(
+    (await db.outbox.toArray()).flatMap((o) => (o.op.kind === "photo.queued" && o.state !== "sent" ? [o.op.payload.attachmentId] : [])),
+  );
   let sent = 0;
   for (const photo of pending) {
-    if (waiting.has(photo.id)) continue;
+    if (notOnServer.has(photo.id)) continue;
     const res = await fetchFn(`/api/bench/photos/${photo.id}`, { method: "POST", headers: { "content-type": photo.contentType }, body: photo.blob });
     if (res.ok) {
-      await db.photos.update(photo.id, { uploaded: 1 });
+      await markPhotoUploaded(db, photo.id);
       sent++;
     }
   }

@@ -1,7 +1,7 @@
 /**
  * Where a build stands, stage by stage, for the office: how many steps are done, whether the stage
  * is signed off and what the supervisor decided, and how many current readings are out of
- * tolerance. Worked out from the same job view the bench shows (lib/bench/job-view.ts), so the
+ * tolerance. Worked out from the same job view the bench shows (lib/work-order-record/), so the
  * office and the tablet never disagree. Pure.
  *
  * Our choice: the office still moves the work order between states; this only says when a move is
@@ -20,7 +20,7 @@ export const STAGE_PROGRESS_LABELS: Record<StageProgressState, string> = {
   approved: "Approved",
 };
 
-/** The parts of a bench stage view this needs (see StageView in lib/bench/job-view.ts). */
+/** The parts of a bench stage view this needs (see StageView in lib/work-order-record/). */
 export interface StageLike {
   procedureName: string;
   key: string;

@@ -52,7 +52,7 @@ test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer 
     await expect(page.getByTestId("torque-next")).toContainText(`Pass ${Math.floor(i / 2) + 1} of 3: bolt ${bolt}`);
     await expect(page.getByTestId("torque-target")).toHaveText(target);
     await expect(page.locator(`[data-bolt="${bolt}"]`)).toHaveAttribute("data-state", "next");
-    await page.getByRole("button", { name: `Bolt ${bolt} done` }).click();
+    await page.getByRole("button", { name: new RegExp(`^Bolt ${bolt} of 2 — pass ${Math.floor(i / 2) + 1} of 3 — `) }).click();
   }
   await expect(page.getByTestId("torque-done")).toBeVisible();
   await page.getByRole("button", { name: "Step done" }).click();

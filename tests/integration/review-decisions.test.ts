@@ -4,7 +4,7 @@ import { getJobSnapshot } from "@/db/bench-jobs";
 import { decideOnSignOff } from "@/db/review-decide";
 import { loadSignOffReview } from "@/db/review-detail";
 import { countReviewQueue, pageReviewQueue } from "@/db/review-queue";
-import { buildJobView } from "@/lib/bench/job-view";
+import { buildWorkOrderView } from "@/lib/work-order-record";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { queueQuerySchema } from "@/lib/review/list-queries";
 import { Tablet } from "../bench/sync-ops";
@@ -83,7 +83,7 @@ describe("review decisions on synced sign-offs", () => {
     const next = await sync(db, users.mech, tablet);
     expect(next.changes).toEqual([expect.objectContaining({ type: "review", decision: "sent_back", reason, reopenedStepIds: [ringGapStep] })]);
     const snapshot = await getJobSnapshot(db, users.mech, fx.workOrderId);
-    const view = buildJobView(snapshot!, [], Date.now());
+    const view = buildWorkOrderView(snapshot!, [], Date.now());
     const measure = view.stages.find((s) => s.key === "measure")!;
     expect(measure.steps.filter((s) => s.reopened).map((s) => s.step.id)).toEqual([ringGapStep]);
     expect(measure.steps.find((s) => s.step.id === ringGapStep)?.reopened?.reason).toBe(reason);
@@ -98,7 +98,7 @@ describe("review decisions on synced sign-offs", () => {
     const merged = await sync(db, users.mech, tablet, [fix, redo, signOff2]);
     expect(merged.accepted).toEqual([fix.id, redo.id, signOff2.id]);
     expect(merged.flagged).toEqual([]);
-    const after = buildJobView((await getJobSnapshot(db, users.mech, fx.workOrderId))!, [], Date.now());
+    const after = buildWorkOrderView((await getJobSnapshot(db, users.mech, fx.workOrderId))!, [], Date.now());
     expect(after.stages.find((s) => s.key === "measure")?.steps.every((s) => s.done && !s.reopened)).toBe(true);
 
     const again = await queue(fx.shopId);

@@ -1,10 +1,9 @@
 "use client";
 
-import { QueryClient, QueryClientProvider, useQuery } from "@tanstack/react-query";
-import { useCallback, useEffect, useMemo, useState } from "react";
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { useEffect, useMemo, useState } from "react";
 import { benchDb } from "@/lib/client/bench-db";
 import { deviceId as readDeviceId } from "@/lib/client/device-id";
-import { syncOnce } from "@/lib/client/sync-client";
 import { useBayLight } from "./bay-light";
 import { BenchContext, type BenchUser } from "./bench-context";
 import { useHashRoute } from "./hash-route";
@@ -14,6 +13,7 @@ import { ScanScreen } from "./scan-screen";
 import { StepScreen } from "./step-screen";
 import { SyncBar } from "./sync-bar";
 import { TimerAlerts } from "./timer-alerts";
+import { useBenchSync } from "./use-bench-sync";
 
 export function BenchApp({ user }: { user: BenchUser }) {
   const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { retry: false } } }));
@@ -24,39 +24,23 @@ export function BenchApp({ user }: { user: BenchUser }) {
   );
 }
 
-const SYNC_EVERY_MS = 20_000;
-
 function BenchRoot({ user }: { user: BenchUser }) {
   const db = useMemo(() => benchDb(user.id), [user.id]);
   const [device, setDevice] = useState<string | null>(null);
   useEffect(() => {
     setDevice(readDeviceId());
   }, []);
-
-  // Push and pull on start, on the browser's `online` event (react-query refetches on reconnect),
-  // on an interval, and when asked. Paused while offline (networkMode "online").
-  const sync = useQuery({
-    queryKey: ["bench-sync", user.id, device],
-    queryFn: () => syncOnce(db, device!),
-    enabled: device !== null,
-    refetchInterval: SYNC_EVERY_MS,
-    refetchOnReconnect: "always",
-    refetchOnWindowFocus: "always",
-    networkMode: "online",
-    staleTime: 0,
-  });
-  const { refetch } = sync;
-  const syncNow = useCallback(() => {
-    if (navigator.onLine) void refetch();
-  }, [refetch]);
+  const { syncing, syncNow } = useBenchSync(db, user.id, device);
+  const author = useMemo(() => (device ? { userId: user.id, deviceId: device } : null), [user.id, device]);
 
   const route = useHashRoute();
   const [bayLight, toggleBayLight] = useBayLight();
-  if (!device) return <p className="p-6 text-xl">Opening the bench…</p>;
+  const value = useMemo(() => (author ? { user, db, author, syncNow } : null), [user, db, author, syncNow]);
+  if (!value) return <p className="p-6 text-xl">Opening the bench…</p>;
   return (
-    <BenchContext.Provider value={{ user, db, deviceId: device, syncNow }}>
+    <BenchContext.Provider value={value}>
       <div data-bay={bayLight} data-testid="bench-root" className="flex flex-1 flex-col bg-paper text-ink">
-        <SyncBar syncing={sync.isFetching} bayLight={bayLight} onToggleBayLight={toggleBayLight} />
+        <SyncBar syncing={syncing} bayLight={bayLight} onToggleBayLight={toggleBayLight} />
         <TimerAlerts />
         <div className="flex-1">
           {route.screen === "home" && <HomeScreen />}

@@ -2,6 +2,7 @@
 
 import { createContext, useContext } from "react";
 import type { BenchDb } from "@/lib/client/bench-db";
+import type { Author } from "@/lib/client/bench-store";
 import type { Role } from "@/lib/auth/roles";
 
 export interface BenchUser {
@@ -14,8 +15,9 @@ export interface BenchUser {
 export interface BenchContextValue {
   user: BenchUser;
   db: BenchDb;
-  deviceId: string;
-  /** Push and pull now (no-op while offline); resolves when done. */
+  /** Who records on this tablet: the signed-in user and this browser's device id. */
+  author: Author;
+  /** Push and pull now (no-op while offline); one run at a time, a call during a run asks for one more after it. */
   syncNow: () => void;
 }
 
@@ -25,4 +27,9 @@ export function useBench(): BenchContextValue {
   const ctx = useContext(BenchContext);
   if (!ctx) throw new Error("useBench outside the bench");
   return ctx;
+}
+
+/** The author and device id every piece of bench work is recorded with. */
+export function useAuthor(): Author {
+  return useBench().author;
 }

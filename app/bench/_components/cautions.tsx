@@ -1,3 +1,6 @@
+"use client";
+
+import { useState } from "react";
 import type { CautionKind } from "@/lib/procedures/template-schema";
 
 const KIND_LABEL: Record<CautionKind, string> = {
@@ -10,7 +13,10 @@ const KIND_LABEL: Record<CautionKind, string> = {
   general: "Caution",
 };
 
-/** The cautions of a step: a block that cannot be missed, acknowledged before the step is done. */
+/**
+ * The cautions of a step: a block that cannot be missed, acknowledged before the step is done.
+ * Once read it folds to one line (it can be opened again), so the step's work comes up the screen.
+ */
 export function Cautions({
   cautions,
   acknowledged,
@@ -20,7 +26,20 @@ export function Cautions({
   acknowledged: boolean;
   onAcknowledge: () => void;
 }) {
+  const [open, setOpen] = useState(false);
   if (!cautions.length) return null;
+  if (acknowledged && !open) {
+    return (
+      <section aria-label="Cautions" className="flex flex-wrap items-center gap-3 rounded-xl border-4 border-ink bg-signal px-4 py-2 text-ink">
+        <p className="flex-1 text-lg font-bold">
+          <span aria-hidden="true">⚠ </span>✔ Cautions read: {[...new Set(cautions.map((c) => KIND_LABEL[c.kind]))].join(", ")}
+        </p>
+        <button type="button" onClick={() => setOpen(true)} aria-expanded={false} className="min-h-target rounded-xl border-4 border-ink bg-white px-4 text-lg font-bold">
+          Show the cautions
+        </button>
+      </section>
+    );
+  }
   return (
     <section aria-label="Cautions" className="rounded-xl border-4 border-ink bg-signal p-4 text-ink">
       <ul className="flex flex-col gap-3">
@@ -35,7 +54,12 @@ export function Cautions({
       </ul>
       <p className="mt-3 text-base">These notes never replace the maker&apos;s service data, local rules or licensed practice.</p>
       {acknowledged ? (
-        <p className="mt-3 text-lg font-bold">✔ Read and understood</p>
+        <div className="mt-3 flex flex-wrap items-center gap-3">
+          <p className="flex-1 text-lg font-bold">✔ Read and understood</p>
+          <button type="button" onClick={() => setOpen(false)} aria-expanded={true} className="min-h-target rounded-xl border-4 border-ink bg-white px-4 text-lg font-bold">
+            Fold the cautions
+          </button>
+        </div>
       ) : (
         <button type="button" onClick={onAcknowledge} className="mt-3 min-h-target w-full rounded-xl border-4 border-ink bg-white text-xl font-bold">
           I have read these cautions

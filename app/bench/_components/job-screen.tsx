@@ -1,16 +1,18 @@
 "use client";
 
 import { useState } from "react";
-import { recordOperation } from "@/lib/client/outbox";
-import { useBench } from "./bench-context";
+import { recordOperation } from "@/lib/client/bench-store";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { go } from "./hash-route";
 import { useJob } from "./job-data";
+import { CopyFreshness } from "./copy-freshness";
 import { ProgressBar } from "./progress-bar";
 
 /** One job: its stages and steps with what is done, and the sign-off of each finished stage. */
 export function JobScreen({ jobId }: { jobId: string }) {
-  const { db, user, deviceId, syncNow } = useBench();
+  const { db, user, syncNow } = useBench();
+  const author = useAuthor();
   const { data, loading, error } = useJob(jobId);
   const [busy, setBusy] = useState<string | null>(null);
   if (loading) return <p className="p-6 text-xl">Loading the job…</p>;
@@ -32,7 +34,7 @@ export function JobScreen({ jobId }: { jobId: string }) {
   async function signOff(jobProcedureId: string, stageKey: string) {
     setBusy(`${jobProcedureId}|${stageKey}`);
     try {
-      await recordOperation(db, { userId: user.id, deviceId }, jobId, "stage.signed-off", { jobProcedureId, stageKey });
+      await recordOperation(db, author, jobId, "stage.signed-off", { jobProcedureId, stageKey });
       syncNow();
     } finally {
       setBusy(null);
@@ -62,6 +64,7 @@ export function JobScreen({ jobId }: { jobId: string }) {
         )}
       </div>
       <ProgressBar done={view.doneCount} total={view.totalCount} />
+      <CopyFreshness job={data} />
       {!wo.mayWork && (
         <p className="rounded-xl border-4 border-warn bg-warn-light p-3 text-lg font-bold text-warn">
           This job is not open for your bench work ({wo.statusLabel}). Anything recorded will be kept and flagged for the supervisor.

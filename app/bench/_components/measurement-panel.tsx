@@ -3,9 +3,9 @@
 import { useState } from "react";
 import { boreGeometry } from "@/lib/calc/bore-geometry";
 import { evaluateTolerance } from "@/lib/calc/tolerance";
-import { readingCount, type MeasurementSpecView, type ReadingView, type StepView } from "@/lib/bench/job-view";
-import { recordOperation } from "@/lib/client/outbox";
-import { useBench } from "./bench-context";
+import { readingCount, type MeasurementSpecView, type ReadingView, type StepView } from "@/lib/work-order-record";
+import { recordOperation } from "@/lib/client/bench-store";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { NumberKeypad, parseEntry } from "./number-keypad";
 import { Verdict } from "./verdict";
@@ -40,7 +40,8 @@ export function MeasurementPanel({ jobId, view }: { jobId: string; view: StepVie
 }
 
 function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; spec: MeasurementSpecView }) {
-  const { db, user, deviceId, syncNow } = useBench();
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   const count = readingCount(spec);
   const current = view.current.get(spec.id) ?? new Map<number, ReadingView>();
   const history = view.readings.get(spec.id) ?? [];
@@ -56,7 +57,7 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
   async function save() {
     if (value === null) return;
     const previous = current.get(slot);
-    await recordOperation(db, { userId: user.id, deviceId }, jobId, "measurement.recorded", {
+    await recordOperation(db, author, jobId, "measurement.recorded", {
       stepId: view.step.id,
       specId: spec.id,
       readingIndex: slot,

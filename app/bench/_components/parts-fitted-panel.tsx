@@ -1,11 +1,11 @@
 "use client";
 
 import { useState } from "react";
-import { stepWithSerial, type JobView, type PartView, type StepView } from "@/lib/bench/job-view";
-import { recordOperation } from "@/lib/client/outbox";
+import { stepWithSerial, type PartView, type StepView, type WorkOrderView } from "@/lib/work-order-record";
+import { recordOperation } from "@/lib/client/bench-store";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS, partFittedPayload } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 
 type TextField = "partNumber" | "description" | "serial" | "batch" | "supplier";
@@ -23,8 +23,9 @@ const FIELDS: Array<{ key: TextField; label: string; code?: boolean }> = [
  * asked for, to record one more: part number, description, serial and/or batch number, quantity.
  * Works offline: the part is an operation in the outbox until the next sync.
  */
-export function PartsFittedPanel({ jobId, view, job, people }: { jobId: string; view: StepView; job: JobView; people: JobSnapshot["people"] }) {
-  const { db, user, deviceId, syncNow } = useBench();
+export function PartsFittedPanel({ jobId, view, job, people }: { jobId: string; view: StepView; job: WorkOrderView; people: JobSnapshot["people"] }) {
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   const [open, setOpen] = useState(false);
   const [text, setText] = useState(EMPTY);
   const [quantity, setQuantity] = useState(1);
@@ -56,7 +57,7 @@ export function PartsFittedPanel({ jobId, view, job, people }: { jobId: string; 
     }
     const p = parsed.data;
     const repeat = p.serial === undefined ? null : stepWithSerial(job, p.partNumber, p.serial);
-    await recordOperation(db, { userId: user.id, deviceId }, jobId, "part.fitted", p);
+    await recordOperation(db, author, jobId, "part.fitted", p);
     setSaved(
       `${p.quantity} × ${p.partNumber} saved${p.serial ? `, serial ${p.serial}` : ""}${p.batch ? `, batch ${p.batch}` : ""}.` +
         (repeat ? ` That serial number is already recorded at "${repeat.step.title}": the supervisor will be asked to check it.` : ""),

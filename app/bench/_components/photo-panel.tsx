@@ -1,16 +1,17 @@
 "use client";
 
 import { useEffect, useState } from "react";
-import type { StepView } from "@/lib/bench/job-view";
-import { recordOperation } from "@/lib/client/outbox";
+import type { StepView } from "@/lib/work-order-record";
+import { recordPhoto } from "@/lib/client/bench-store";
 import { PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
-import { useBench } from "./bench-context";
+import { useAuthor, useBench } from "./bench-context";
 import { useLive } from "./use-live";
 
 /** Take or pick a photo at a step. Kept in IndexedDB until it is sent with the next sync. */
 export function PhotoPanel({ jobId, view, snapshotPhotos }: { jobId: string; view: StepView; snapshotPhotos: JobSnapshot["state"]["photos"] }) {
-  const { db, user, deviceId, syncNow } = useBench();
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   const [error, setError] = useState<string | null>(null);
   const photos = useLive(() => db.photos.where("stepId").equals(view.step.id).toArray(), [db, view.step.id], []);
   const localIds = new Set(photos.map((p) => p.id));
@@ -29,14 +30,7 @@ export function PhotoPanel({ jobId, view, snapshotPhotos }: { jobId: string; vie
       setError(`That file is ${file.type || "of an unknown type"}; take a JPEG, PNG or WebP photo.`);
       return;
     }
-    const id = crypto.randomUUID();
-    await db.photos.add({ id, workOrderId: jobId, stepId: view.step.id, blob: file, contentType: file.type, byteSize: file.size, caption: "", uploaded: 0, createdAt: Date.now() });
-    await recordOperation(db, { userId: user.id, deviceId }, jobId, "photo.queued", {
-      attachmentId: id,
-      stepId: view.step.id,
-      contentType: file.type as (typeof PHOTO_CONTENT_TYPES)[number],
-      byteSize: file.size,
-    });
+    await recordPhoto(db, author, jobId, { stepId: view.step.id, blob: file, contentType: file.type as (typeof PHOTO_CONTENT_TYPES)[number] });
     syncNow();
   }
 

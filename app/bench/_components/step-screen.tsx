@@ -1,8 +1,8 @@
 "use client";
 
 import { useEffect, useRef, useState } from "react";
-import { recordOperation } from "@/lib/client/outbox";
-import { useBench } from "./bench-context";
+import { recordOperation } from "@/lib/client/bench-store";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { Cautions } from "./cautions";
 import { go } from "./hash-route";
@@ -11,16 +11,18 @@ import { MeasurementPanel } from "./measurement-panel";
 import { PartsFittedPanel } from "./parts-fitted-panel";
 import { PhotoPanel } from "./photo-panel";
 import { ProgressBar } from "./progress-bar";
+import { CopyFreshness } from "./copy-freshness";
 import { clock, TimerPanel } from "./timer-panel";
 import { TimerOverride } from "./timer-override";
-import { TorquePanel } from "./torque-panel";
+import { TorqueConfirmBar, TorquePanel } from "./torque-panel";
 
 const SWIPE_PX = 90;
 
 /** One step per screen: big previous/next at the screen edges, swipe to move, the step's
  * cautions, instructions and what must be recorded, then one large "done" button. */
 export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: number }) {
-  const { db, user, deviceId, syncNow } = useBench();
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   const { data, loading, error } = useJob(jobId);
   const [acknowledged, setAcknowledged] = useState<Set<string>>(new Set());
   const touch = useRef<{ x: number; y: number } | null>(null);
@@ -42,7 +44,7 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
   const canComplete = !sv.done && cautionsOk && sv.missing.length === 0 && !sv.blockedBy;
 
   async function complete() {
-    await recordOperation(db, { userId: user.id, deviceId }, jobId, "step.completed", { stepId: sv.step.id });
+    await recordOperation(db, author, jobId, "step.completed", { stepId: sv.step.id });
     syncNow();
     if (hasNext) move(1);
     else go({ screen: "job", jobId });
@@ -82,6 +84,7 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
           </p>
         </div>
         <ProgressBar done={view.doneCount} total={view.totalCount} />
+        <CopyFreshness job={data} />
         <h1 className="text-4xl font-bold" data-testid="step-title">
           {sv.step.title}
         </h1>
@@ -127,6 +130,7 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
             </>
           )}
         </section>
+        {!sv.done && <TorqueConfirmBar jobId={jobId} view={sv} />}
       </div>
 
       <button type="button" aria-label="Next step" disabled={!hasNext} onClick={() => move(1)} className={edge}>

@@ -1,10 +1,10 @@
 "use client";
 
-import { useEffect, useState } from "react";
-import { readSyncMeta } from "@/lib/client/sync-client";
+import { readSyncMeta } from "@/lib/client/bench-db";
+import { olderCopies } from "@/lib/client/bench-store";
 import type { BayLight } from "./bay-light";
 import { useBench } from "./bench-context";
-import { useLive, useNow } from "./use-live";
+import { useLive, useNow, useOnline } from "./use-live";
 
 function ago(ms: number | null, now: number): string {
   if (!ms) return "never";
@@ -18,19 +18,10 @@ function ago(ms: number | null, now: number): string {
 export function SyncBar({ syncing, bayLight, onToggleBayLight }: { syncing: boolean; bayLight: BayLight; onToggleBayLight: () => void }) {
   const { db, syncNow } = useBench();
   const now = useNow(5000);
-  const [online, setOnline] = useState(true);
-  useEffect(() => {
-    const update = () => setOnline(navigator.onLine);
-    update();
-    window.addEventListener("online", update);
-    window.addEventListener("offline", update);
-    return () => {
-      window.removeEventListener("online", update);
-      window.removeEventListener("offline", update);
-    };
-  }, []);
+  const online = useOnline();
   const waiting = useLive(() => db.outbox.where("state").equals("waiting").count(), [db], 0);
   const refused = useLive(() => db.outbox.where("state").equals("refused").toArray(), [db], []);
+  const older = useLive(() => olderCopies(db).then((w) => w.filter((x) => x.missedAt !== undefined).length), [db], 0);
   const meta = useLive(() => readSyncMeta(db), [db], { cursor: null, lastSyncedAt: null, lastAttemptAt: null, lastError: null });
 
   return (
@@ -43,6 +34,12 @@ export function SyncBar({ syncing, bayLight, onToggleBayLight }: { syncing: bool
         <span data-testid="waiting-count" className="font-bold">
           {waiting === 0 ? "Nothing waiting to send" : `${waiting} waiting to send`}
         </span>
+        {older > 0 && (
+          <span data-testid="older-copies" className="font-bold text-warn">
+            <span aria-hidden="true">⟳ </span>
+            {older === 1 ? "1 job copy older than the last sync" : `${older} job copies older than the last sync`}
+          </span>
+        )}
         <span className="text-steel-700">Last synced {ago(meta.lastSyncedAt, now)}</span>
         {syncing && <span className="font-bold">Syncing…</span>}
         <button

@@ -1,7 +1,7 @@
 "use client";
 
 import type { BenchDb } from "@/lib/client/bench-db";
-import { fetchJobSnapshot } from "@/lib/client/sync-client";
+import { refreshJobCopy } from "@/lib/client/sync-client";
 import { tagLookupSchema } from "@/lib/sync/snapshot";
 
 export type TagResult = { ok: true; jobId: string } | { ok: false; message: string };
@@ -26,7 +26,6 @@ export async function lookUpTag(db: BenchDb, raw: string): Promise<TagResult> {
   }
   if (!res.ok) return { ok: false, message: `Could not look up tag ${code} (HTTP ${res.status}).` };
   const found = tagLookupSchema.parse(await res.json());
-  const snapshot = await fetchJobSnapshot(fetch, found.workOrderId);
-  await db.jobs.put({ id: snapshot.workOrder.id, snapshot, fetchedAt: Date.now() });
+  await refreshJobCopy(db, found.workOrderId);
   return { ok: true, jobId: found.workOrderId };
 }

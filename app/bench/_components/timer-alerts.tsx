@@ -41,10 +41,12 @@ export function TimerAlerts() {
       const out: RunningTimer[] = [];
       const numberOf = new Map(jobs.map((j) => [j.id, j.snapshot.workOrder.number]));
       for (const j of jobs) for (const t of j.snapshot.state.timers) if (!t.stoppedAt && !t.overrideReason) out.push({ id: t.id, label: t.label, endsAtMs: Date.parse(t.startedAt) + t.durationS * 1000, jobNumber: j.snapshot.workOrder.number });
-      const outbox = await db.outbox.toArray();
+      const outbox = (await db.outbox.toArray()).filter((o) => o.state !== "refused");
       const overridden = new Set(outbox.flatMap((o) => (o.op.kind === "timer.overridden" ? [o.op.payload.timerId] : [])));
+      const onRecord = new Set(jobs.flatMap((j) => j.snapshot.state.timers.map((t) => t.id)));
       for (const o of outbox) {
-        if (o.op.kind === "timer.started" && !overridden.has(o.op.payload.timerId)) out.push({ id: o.op.payload.timerId, label: o.op.payload.label, endsAtMs: Date.parse(o.op.payload.startedAt) + o.op.payload.durationS * 1000, jobNumber: numberOf.get(o.workOrderId) ?? null });
+        // a timer sent and already in the job's copy is listed once
+        if (o.op.kind === "timer.started" && !onRecord.has(o.op.payload.timerId)) out.push({ id: o.op.payload.timerId, label: o.op.payload.label, endsAtMs: Date.parse(o.op.payload.startedAt) + o.op.payload.durationS * 1000, jobNumber: numberOf.get(o.workOrderId) ?? null });
       }
       return out.filter((t) => !overridden.has(t.id));
     },

@@ -1,14 +1,15 @@
 "use client";
 
 import { useState } from "react";
-import type { StepView } from "@/lib/bench/job-view";
-import { recordOperation } from "@/lib/client/outbox";
-import { useBench } from "./bench-context";
+import type { StepView } from "@/lib/work-order-record";
+import { recordOperation } from "@/lib/client/bench-store";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 
 /** For a supervisor at the bench: let a step go ahead before its wait is over, with the reason on record. */
 export function TimerOverride({ jobId, blocked }: { jobId: string; blocked: NonNullable<StepView["blockedBy"]> }) {
-  const { db, user, deviceId, syncNow } = useBench();
+  const { db, user, syncNow } = useBench();
+  const author = useAuthor();
   const [reason, setReason] = useState("");
   const [error, setError] = useState<string | null>(null);
   if (user.role !== "supervisor") return null;
@@ -19,7 +20,6 @@ export function TimerOverride({ jobId, blocked }: { jobId: string; blocked: NonN
       setError("Give the reason in a few words.");
       return;
     }
-    const author = { userId: user.id, deviceId };
     let timerId = blocked.timerId;
     if (!timerId) {
       // Never started: start it now so the override has a timer to stand on.

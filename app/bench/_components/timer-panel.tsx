@@ -1,8 +1,8 @@
 "use client";
 
-import type { StepView } from "@/lib/bench/job-view";
-import { recordOperation } from "@/lib/client/outbox";
-import { useBench } from "./bench-context";
+import type { StepView } from "@/lib/work-order-record";
+import { recordOperation } from "@/lib/client/bench-store";
+import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 
 export function clock(ms: number): string {
@@ -16,10 +16,11 @@ export function clock(ms: number): string {
 /** Cure, heat-cycle and wait timers of a step. Time left is worked out from the start time, so a
  * timer carries on while the screen sleeps, the tab is closed or the tablet is offline. */
 export function TimerPanel({ jobId, view }: { jobId: string; view: StepView }) {
-  const { db, user, deviceId, syncNow } = useBench();
+  const { db, syncNow } = useBench();
+  const author = useAuthor();
   async function start(spec: StepView["step"]["timerSpecs"][number]) {
     const now = Date.now();
-    await recordOperation(db, { userId: user.id, deviceId }, jobId, "timer.started", {
+    await recordOperation(db, author, jobId, "timer.started", {
       timerId: crypto.randomUUID(),
       stepId: view.step.id,
       timerSpecId: spec.id,

@@ -2,27 +2,18 @@
 
 import { useState } from "react";
 import { boltLayout } from "@/lib/calc/tightening-sequence";
-import { convertTorque, type TorqueUnit } from "@/lib/calc/units";
-import type { TorqueProgress, StepView } from "@/lib/bench/job-view";
-import { recordOperation } from "@/lib/client/outbox";
+import type { StepView, TorqueProgress } from "@/lib/work-order-record";
 import { useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { NumberKeypad, parseEntry } from "./number-keypad";
+import { RecordButton } from "./record-button";
+import { boltLabel, nextBolt, passTarget, useRecordBolt } from "./torque-record";
 
-function fmt(v: number): string {
-  return Number.parseFloat(v.toPrecision(4)).toString();
-}
-
-/** Target of a torque pass in the shop's unit with the other unit beside it. */
-export function passTarget(p: TorqueProgress["passes"][number], shopUnit: "N·m" | "lbf·ft"): string {
-  if (p.kind === "angle") return `turn a further ${p.target}°`;
-  const other: TorqueUnit = shopUnit === "N·m" ? "lbf·ft" : "N·m";
-  const main = convertTorque(p.target, p.unit, shopUnit);
-  const alt = convertTorque(p.target, p.unit, other);
-  return `${fmt(main)} ${shopUnit} (${fmt(alt)} ${other})`;
-}
-
-/** Every torque spec of a step: the bolt pattern, the pass in hand, and the next bolt. */
+/**
+ * Every torque spec of a step: the bolt pattern showing where you are, the passes, and a wrench
+ * reading for the bolt in hand. The drawing only shows; the confirm is the step's fixed
+ * torque bar (`TorqueConfirmBar`), so a resting palm on the drawing records nothing.
+ */
 export function TorquePanel({ jobId, view }: { jobId: string; view: StepView }) {
   return (
     <div className="flex flex-col gap-4">
@@ -34,25 +25,15 @@ export function TorquePanel({ jobId, view }: { jobId: string; view: StepView }) 
 }
 
 function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepView; progress: TorqueProgress }) {
-  const { db, user, deviceId, syncNow } = useBench();
+  const { user } = useBench();
+  const record = useRecordBolt(jobId, view);
   const [wrench, setWrench] = useState<string | null>(null);
   const { spec, passes, sequence, confirmed, next } = progress;
+  const target = nextBolt(progress);
   const layout = boltLayout(spec.pattern, spec.boltCount);
   const pass = next ? passes.find((p) => p.index === next.passIndex)! : passes[passes.length - 1];
   const order = new Map(sequence.map((b, i) => [b, i + 1]));
-
-  async function confirm(reading?: number) {
-    if (!next) return;
-    await recordOperation(db, { userId: user.id, deviceId }, jobId, "torque.bolt-confirmed", {
-      stepId: view.step.id,
-      torqueSpecId: spec.id,
-      passIndex: next.passIndex,
-      bolt: next.bolt,
-      ...(reading !== undefined ? { wrenchReading: reading, wrenchUnit: user.torqueUnit } : {}),
-    });
-    setWrench(null);
-    if (next.positionInPass === sequence.length - 1) syncNow();
-  }
+  const reading = wrench === null ? null : parseEntry(wrench);
 
   const r = 0.06;
   // Fit the drawing to the bolts (a two-row head is wide and short, a flange square).
@@ -67,6 +48,9 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
         {passTarget({ index: 0, kind: "torque", target: spec.finalValue, unit: spec.unit, percentOfFinal: 100, label: "" }, user.torqueUnit)}
         {spec.lubricant ? ` · ${spec.lubricant}` : ""}
       </p>
+      {spec.torqueToYield && (
+        <p className="mt-2 rounded-lg border-4 border-ink bg-signal p-2 text-lg font-bold">⚠ Torque-to-yield: new bolts only, never reused.</p>
+      )}
       <ol className="mt-2 flex flex-wrap gap-2" aria-label="Passes">
         {passes.map((p) => {
           const state = next === null || p.index < next.passIndex ? "done" : p.index === next.passIndex ? "now" : "later";
@@ -78,14 +62,8 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
         })}
       </ol>
       <div className="mt-3 grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
-        <button
-          type="button"
-          onClick={() => confirm()}
-          disabled={!next}
-          aria-label={next ? `Confirm bolt ${next.bolt} tightened` : "All passes done"}
-          className="rounded-xl border-4 border-steel-900 bg-steel-50 p-2 disabled:cursor-default"
-        >
-          <svg viewBox={`-0.1 ${top} 1.2 ${height}`} className="mx-auto w-full max-w-md" role="img" aria-label={`Bolt pattern, ${spec.boltCount} bolts`}>
+        <figure className="rounded-xl border-4 border-steel-300 bg-steel-50 p-2" data-testid="bolt-drawing">
+          <svg viewBox={`-0.1 ${top} 1.2 ${height}`} className="mx-auto w-full max-w-md" role="img" aria-label={`Bolt pattern, ${spec.boltCount} bolts${next ? `; bolt ${next.bolt} is next` : ""}`}>
             {layout.map((b) => {
               const isNext = next?.bolt === b.bolt;
               const isDone = next ? confirmed.has(`${next.passIndex}:${b.bolt}`) : true;
@@ -102,8 +80,8 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
               );
             })}
           </svg>
-          <span className="sr-only">Tap to confirm the highlighted bolt</span>
-        </button>
+          <figcaption className="text-center text-base">Where you are: the next bolt is ringed. Confirm with the bar at the bottom.</figcaption>
+        </figure>
         <div className="flex flex-col gap-3">
           {next ? (
             <>
@@ -113,9 +91,6 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
               <p className="font-mono text-2xl" data-testid="torque-target">
                 {passTarget(pass, user.torqueUnit)}
               </p>
-              <BigButton tone="go" onClick={() => confirm()} className="min-h-24 text-2xl">
-                Bolt {next.bolt} done
-              </BigButton>
               {wrench === null ? (
                 <BigButton tone="plain" onClick={() => setWrench("")}>
                   Record the wrench reading instead
@@ -123,9 +98,17 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
               ) : (
                 <div className="flex flex-col gap-2">
                   <NumberKeypad value={wrench} onChange={setWrench} label={`Wrench reading in ${user.torqueUnit}`} />
-                  <BigButton tone="go" disabled={parseEntry(wrench) === null || (parseEntry(wrench) ?? 0) <= 0} onClick={() => confirm(parseEntry(wrench)!)}>
+                  <RecordButton
+                    target={target}
+                    disabled={reading === null || reading <= 0}
+                    onRecord={async (t) => {
+                      await record(t, reading!);
+                      setWrench(null);
+                    }}
+                    className="border-pass bg-pass text-xl text-white disabled:border-steel-300 disabled:bg-steel-100 disabled:text-steel-700"
+                  >
                     Save {user.torqueUnit} reading for bolt {next.bolt}
-                  </BigButton>
+                  </RecordButton>
                 </div>
               )}
             </>
@@ -134,11 +117,42 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
               ✔ Every pass done on all {spec.boltCount} bolts
             </p>
           )}
-          {spec.torqueToYield && (
-            <p className="rounded-lg border-4 border-ink bg-signal p-2 text-lg font-bold">⚠ Torque-to-yield: new bolts only, never reused.</p>
-          )}
         </div>
       </div>
     </section>
+  );
+}
+
+/**
+ * The step's torque confirm, in a fixed place: a bar held at the bottom of the screen while the
+ * step has a bolt to tighten. It names the bolt, pass and target it will record.
+ */
+export function TorqueConfirmBar({ jobId, view }: { jobId: string; view: StepView }) {
+  const { user } = useBench();
+  const record = useRecordBolt(jobId, view);
+  const [last, setLast] = useState<string | null>(null);
+  const progress = view.torque.find((t) => !t.complete);
+  if (!progress) return null;
+  const target = nextBolt(progress)!;
+  const many = view.torque.length > 1;
+  return (
+    <div className="no-print sticky bottom-0 z-30 -mx-4 border-t-4 border-ink bg-paper px-4 pb-4 pt-2" data-testid="torque-bar">
+      <p className="text-lg" role="status">
+        {last ? <span className="font-bold text-pass">✔ Recorded: {last}. </span> : null}
+        Tap when the bolt is tightened{many ? ` (${progress.spec.label})` : ""}:
+      </p>
+      <RecordButton
+        target={target}
+        testId="torque-confirm"
+        onRecord={async (t) => {
+          await record(t);
+          setLast(`bolt ${t.bolt}, pass ${t.passIndex}`);
+        }}
+        className="mt-1 flex min-h-24 w-full items-center justify-center gap-3 border-pass bg-pass text-2xl text-white disabled:border-steel-700 disabled:bg-steel-100 disabled:text-ink md:text-3xl"
+      >
+        <span aria-hidden="true">✔</span>
+        <span>{boltLabel(progress, target, user.torqueUnit)}</span>
+      </RecordButton>
+    </div>
   );
 }

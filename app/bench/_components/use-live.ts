@@ -1,7 +1,8 @@
 "use client";
 
 import { liveQuery } from "dexie";
-import { useEffect, useState } from "react";
+import { onlineManager } from "@tanstack/react-query";
+import { useEffect, useState, useSyncExternalStore } from "react";
 
 /** The value of an IndexedDB query, kept current as the tables change (dexie liveQuery). */
 export function useLive<T>(query: () => Promise<T>, deps: unknown[], initial: T): T {
@@ -22,4 +23,13 @@ export function useNow(ms = 1000): number {
     return () => clearInterval(t);
   }, [ms]);
   return now;
+}
+
+/** The network state as react-query's onlineManager has it (it follows the browser: lib/client/online-state.ts). */
+export function useOnline(): boolean {
+  return useSyncExternalStore(
+    (onChange) => onlineManager.subscribe(onChange),
+    () => onlineManager.isOnline(),
+    () => true,
+  );
 }

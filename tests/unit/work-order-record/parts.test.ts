@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { buildJobView, stepWithSerial } from "@/lib/bench/job-view";
+import { buildWorkOrderView, stepWithSerial } from "@/lib/work-order-record";
 import { formatStamp } from "@/lib/sync/hlc";
 import type { Operation } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
@@ -40,7 +40,7 @@ const waiting: Operation = {
 
 describe("parts fitted in the bench view", () => {
   it("puts each part at its step, waiting ones after those on record, and leaves out parts with no step", () => {
-    const view = buildJobView(snapshot([onRecord(101, STEP_A, "GS-0042"), onRecord(102, null, "GS-0050"), onRecord(103, STEP_B, "GS-0043", "Serial number GS-0043 … twice.")]), [waiting], Date.parse(at(40)));
+    const view = buildWorkOrderView(snapshot([onRecord(101, STEP_A, "GS-0042"), onRecord(102, null, "GS-0050"), onRecord(103, STEP_B, "GS-0043", "Serial number GS-0043 … twice.")]), [waiting], Date.parse(at(40)));
     const [a, b] = view.steps;
     expect(a.parts.map((p) => [p.id, p.serial, p.pending])).toEqual([[u(101), "GS-0042", false]]);
     expect(b.parts.map((p) => [p.id, p.partNumber, p.batch, p.quantity, p.pending, p.flagReason])).toEqual([
@@ -53,11 +53,11 @@ describe("parts fitted in the bench view", () => {
   it("reads a snapshot stored before parts were in it as having none", () => {
     const old = snapshot([]);
     delete (old.state as Partial<JobSnapshot["state"]>).parts;
-    expect(buildJobView(old, [waiting], 0).steps.map((s) => s.parts.length)).toEqual([0, 1]);
+    expect(buildWorkOrderView(old, [waiting], 0).steps.map((s) => s.parts.length)).toEqual([0, 1]);
   });
 
   it("finds the step where a serial number is already recorded, however it is written", () => {
-    const view = buildJobView(snapshot([onRecord(101, STEP_A, "GS-0042")]), [], 0);
+    const view = buildWorkOrderView(snapshot([onRecord(101, STEP_A, "GS-0042")]), [], 0);
     expect(stepWithSerial(view, "gs-pst-7600", "gs 0042")?.step.id).toBe(STEP_A);
     expect(stepWithSerial(view, "GS-PST-7600", "GS-0044")).toBeNull();
     expect(stepWithSerial(view, "GS-ROD-130", "GS-0042")).toBeNull();

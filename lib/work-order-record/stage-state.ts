@@ -1,0 +1,37 @@
+/**
+ * A stage's sign-off and the supervisor's decision on it. A sign-off stands unless the latest
+ * decision sent the stage back after it; then the redone stage needs a new sign-off.
+ */
+import type { PendingWork } from "./pending";
+import type { Snapshot, StageView } from "./types";
+
+type Decision = Snapshot["state"]["reviewDecisions"][number];
+
+const stageKey = (jobProcedureId: string, key: string) => `${jobProcedureId}|${key}`;
+
+/** The latest decision (by sequence) on each stage, keyed "jobProcedureId|stageKey". */
+export function latestDecisions(snapshot: Snapshot): Map<string, Decision> {
+  const latest = new Map<string, Decision>();
+  for (const d of snapshot.state.reviewDecisions) {
+    const key = stageKey(d.jobProcedureId, d.stageKey);
+    const held = latest.get(key);
+    if (!held || BigInt(d.seq) > BigInt(held.seq)) latest.set(key, d);
+  }
+  return latest;
+}
+
+export function decisionOn(decisions: ReadonlyMap<string, Decision>, jobProcedureId: string, key: string): Decision | null {
+  return decisions.get(stageKey(jobProcedureId, key)) ?? null;
+}
+
+/** The sign-off that stands for a stage: one waiting on this tablet, else the latest on record unless a later send-back undid it. */
+export function standingSignOff(snapshot: Snapshot, jobProcedureId: string, key: string, decision: Decision | null, work: PendingWork): StageView["signedOff"] {
+  const pending = work.ofKind("stage.signed-off").find((o) => o.payload.jobProcedureId === jobProcedureId && o.payload.stageKey === key);
+  if (pending) return { at: pending.deviceTime, pending: true };
+  const latest = snapshot.state.signOffs
+    .filter((s) => s.jobProcedureId === jobProcedureId && s.stageKey === key)
+    .sort((a, b) => (BigInt(a.seq) < BigInt(b.seq) ? 1 : -1))[0];
+  if (!latest) return null;
+  const stands = !decision || decision.decision === "approved" || BigInt(latest.seq) > BigInt(decision.seq);
+  return stands ? { at: latest.deviceTime, pending: false } : null;
+}

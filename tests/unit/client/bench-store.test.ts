@@ -1,0 +1,103 @@
+// fake-indexeddb before dexie: dexie takes the IndexedDB it finds when it loads.
+import "fake-indexeddb/auto";
+import { randomUUID } from "node:crypto";
+import { describe, expect, it } from "vitest";
+import { BenchDb } from "@/lib/client/bench-db";
+import { keepSyncAnswer, markMissedCopies, missedCopyCursor, olderCopies, recordPhoto, storeJobCopy, waitingOperations, workOnTop } from "@/lib/client/bench-store";
+import { author, bolt, freshDb } from "../support/tablet-db";
+import { ids, jobSnapshot } from "../support/job-snapshot";
+
+// The tablet's store rules (lib/client/bench-store.ts) on an in-memory IndexedDB (fake-indexeddb).
+
+const toRefresh = async (db: BenchDb) => (await olderCopies(db)).map((w) => w.id);
+const copyCursor = async (db: BenchDb) => (await db.jobs.get(ids.job))?.snapshot.cursor;
+
+describe("a job copy is never replaced by an older one", () => {
+  it("keeps the newer copy whichever order they arrive in; a copy at the same cursor replaces", async () => {
+    const db = freshDb();
+    expect(await storeJobCopy(db, jobSnapshot({}, "12"))).toBe(true);
+    expect(await storeJobCopy(db, jobSnapshot({}, "9"))).toBe(false);
+    expect(await copyCursor(db)).toBe("12");
+    const same = jobSnapshot({}, "12");
+    same.workOrder.title = "Bottom end (renamed in the office)";
+    expect(await storeJobCopy(db, same)).toBe(true);
+    expect((await db.jobs.get(ids.job))!.snapshot.workOrder.title).toBe("Bottom end (renamed in the office)");
+    expect(await storeJobCopy(db, jobSnapshot({}, "100"))).toBe(true);
+    expect(await copyCursor(db)).toBe("100"); // compared as numbers, not as text ("100" < "12")
+  });
+
+  it("two overlapping stores (two sync runs, or a sync and a job opening) end with the newer copy", async () => {
+    for (const order of [["15", "11"], ["11", "15"]]) {
+      const db = freshDb();
+      await storeJobCopy(db, jobSnapshot({}, "10"));
+      await Promise.all(order.map((c) => storeJobCopy(db, jobSnapshot({}, c))));
+      expect(await copyCursor(db)).toBe("15");
+    }
+  });
+});
+
+describe("sent work leaves the outbox only with a copy at least as new as the answer", () => {
+  it("stays drawn on top until then, and goes when the fresh copy is stored", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const a = await bolt(db, 1, 1);
+    const b = await bolt(db, 1, 2);
+    expect((await waitingOperations(db)).map((o) => o.id)).toEqual([a.id, b.id]);
+
+    await keepSyncAnswer(db, { deviceId: "tab-1", stored: [a.id, b.id], refused: [], touchedJobs: [ids.job], cursor: "14", remoteStamps: [] });
+    expect(await waitingOperations(db)).toEqual([]); // nothing left to send…
+    expect((await workOnTop(db, ids.job)).map((o) => o.id)).toEqual([a.id, b.id]); // …but still on screen
+    expect(await toRefresh(db)).toEqual([ids.job]);
+    expect(await missedCopyCursor(db, ids.job)).toBeNull(); // the run is still fetching: no warning yet
+    await markMissedCopies(db); // the run ended without the fresh copy
+    expect(await missedCopyCursor(db, ids.job)).toBe("14");
+
+    await storeJobCopy(db, jobSnapshot({}, "13")); // a copy fetched before the answer: not new enough
+    expect((await workOnTop(db, ids.job)).length).toBe(2);
+    expect(await missedCopyCursor(db, ids.job)).toBe("14");
+
+    await storeJobCopy(db, jobSnapshot({}, "14"));
+    expect(await workOnTop(db, ids.job)).toEqual([]);
+    expect(await missedCopyCursor(db, ids.job)).toBeNull();
+    expect(await toRefresh(db)).toEqual([]);
+  });
+
+  it("work recorded after the answer stays waiting, and a refused entry keeps its reason", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const a = await bolt(db, 1, 1);
+    const refused = await bolt(db, 1, 2);
+    const later = await bolt(db, 2, 1);
+    await keepSyncAnswer(db, { deviceId: "tab-1", stored: [a.id], refused: [{ id: refused.id, reason: "Bolt 2 is not on this torque spec" }], touchedJobs: [], cursor: "11", remoteStamps: [] });
+    await storeJobCopy(db, jobSnapshot({}, "11"));
+    const rows = await db.outbox.toArray();
+    expect(rows.map((r) => [r.id, r.state, r.reason ?? null]).sort()).toEqual(
+      [[refused.id, "refused", "Bolt 2 is not on this torque spec"], [later.id, "waiting", null]].sort(),
+    );
+  });
+
+  it("a job changed elsewhere that the tablet holds wants a fresh copy; one it never opened does not", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const stranger = randomUUID();
+    await keepSyncAnswer(db, { deviceId: "tab-1", stored: [], refused: [], touchedJobs: [ids.job, stranger], cursor: "20", remoteStamps: [] });
+    expect(await toRefresh(db)).toEqual([ids.job]);
+    expect((await db.meta.get("sync"))?.value).toMatchObject({ cursor: "20" });
+  });
+});
+
+describe("a photo and its operation", () => {
+  it("are written in one transaction: both, or neither", async () => {
+    const db = freshDb();
+    const blob = new Blob([new Uint8Array([137, 80, 78, 71])], { type: "image/png" });
+    const op = await recordPhoto(db, author, ids.job, { stepId: ids.stepBore, blob, contentType: "image/png" });
+    expect(op.kind).toBe("photo.queued");
+    const photos = await db.photos.toArray();
+    expect(photos.map((p) => [p.id, p.byteSize, p.uploaded])).toEqual([[op.kind === "photo.queued" ? op.payload.attachmentId : "", 4, 0]]);
+
+    // An operation the schema refuses (a step id that is not a UUID) leaves no photo behind.
+    await expect(recordPhoto(db, author, ids.job, { stepId: "not-a-step", blob, contentType: "image/png" })).rejects.toThrow();
+    expect(await db.photos.count()).toBe(1);
+    expect(await db.outbox.count()).toBe(1);
+  });
+});

@@ -1,0 +1,126 @@
+// fake-indexeddb before dexie: dexie takes the IndexedDB it finds when it loads.
+import "fake-indexeddb/auto";
+import { randomUUID } from "node:crypto";
+import { describe, expect, it } from "vitest";
+import { BenchDb, readSyncMeta } from "@/lib/client/bench-db";
+import { missedCopyCursor, storeJobCopy, workOnTop } from "@/lib/client/bench-store";
+import { singleFlight } from "@/lib/client/single-flight";
+import { syncOnce } from "@/lib/client/sync-client";
+import type { Operation } from "@/lib/sync/operations";
+import type { JobSnapshot } from "@/lib/sync/snapshot";
+import { buildWorkOrderView } from "@/lib/work-order-record";
+import { bolt, freshDb } from "../support/tablet-db";
+import { ids, jobSnapshot, torqueRecord } from "../support/job-snapshot";
+
+// The sync run (lib/client/sync-client.ts) against a stand-in server: what the tablet keeps when
+// the network goes between the sync answer and the job reload, and that runs never overlap.
+
+
+interface FakeServer {
+  fetch: typeof fetch;
+  syncRequests: Array<{ cursor: string | null; operations: Operation[] }>;
+  /** What GET /api/bench/jobs/<id> does: answer with a copy, or fail as a cut network does. */
+  jobCopy: () => Promise<JobSnapshot | "network down"> | JobSnapshot | "network down";
+  maxConcurrentRuns: number;
+}
+
+function fakeServer(cursorAfter: () => string, jobCopy: FakeServer["jobCopy"]): FakeServer {
+  let inSync = 0;
+  const server: FakeServer = {
+    syncRequests: [],
+    jobCopy,
+    maxConcurrentRuns: 0,
+    fetch: (async (input: RequestInfo | URL, init?: RequestInit) => {
+      const url = String(input);
+      await new Promise((r) => setTimeout(r, 5));
+      if (url === "/api/sync") {
+        inSync++;
+        server.maxConcurrentRuns = Math.max(server.maxConcurrentRuns, inSync);
+        const body = JSON.parse(String(init?.body)) as { cursor: string | null; operations: Operation[] };
+        server.syncRequests.push(body);
+        await new Promise((r) => setTimeout(r, 20));
+        inSync--;
+        return Response.json({ accepted: body.operations.map((o) => o.id), duplicates: [], refused: [], flagged: [], changes: [], cursor: cursorAfter(), more: false });
+      }
+      if (url === "/api/bench/jobs") return Response.json({ jobs: [] });
+      if (url === `/api/bench/jobs/${ids.job}`) {
+        const copy = await server.jobCopy();
+        if (copy === "network down") throw new TypeError("Failed to fetch");
+        return Response.json(copy);
+      }
+      throw new Error(`unexpected request ${url}`);
+    }) as typeof fetch,
+  };
+  return server;
+}
+
+const nextBolt = async (db: BenchDb) => {
+  const copy = (await db.jobs.get(ids.job))!.snapshot;
+  return buildWorkOrderView(copy, await workOnTop(db, ids.job), Date.now()).steps.find((s) => s.step.id === ids.stepBolts)!.torque[0].next;
+};
+
+describe("the network cut between the sync answer and the job reload", () => {
+  it("keeps the sent bolts on screen and in the outbox until a fresh copy is stored", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const a = await bolt(db, 1, 1);
+    const b = await bolt(db, 1, 2);
+    const server = fakeServer(() => "12", () => "network down");
+
+    await expect(syncOnce(db, "tab-1", server.fetch)).rejects.toThrow("Failed to fetch");
+    expect(server.syncRequests[0].operations.map((o) => o.id)).toEqual([a.id, b.id]);
+    expect((await db.outbox.toArray()).map((e) => e.state)).toEqual(["sent", "sent"]);
+    expect(await nextBolt(db)).toEqual({ passIndex: 2, bolt: 1, positionInPass: 0 }); // never bolt 1 of pass 1 again
+    expect((await readSyncMeta(db)).lastError).toBe("No network: work is kept on this tablet.");
+    expect(await missedCopyCursor(db, ids.job)).toBe("12"); // the bench says its copy is older
+
+    // The network is back: the next run sends nothing again and stores the fresh copy.
+    server.jobCopy = () => jobSnapshot({ torqueRecords: [torqueRecord(a.id, 1, 1), torqueRecord(b.id, 1, 2)] }, "12");
+    await syncOnce(db, "tab-1", server.fetch);
+    expect(server.syncRequests[1].operations).toEqual([]);
+    expect(await db.outbox.count()).toBe(0);
+    expect(await nextBolt(db)).toEqual({ passIndex: 2, bolt: 1, positionInPass: 0 });
+    expect((await db.jobs.get(ids.job))!.snapshot.cursor).toBe("12");
+    expect(await missedCopyCursor(db, ids.job)).toBeNull();
+  });
+
+  it("a copy older than the one held, answered late, does not replace it", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const a = await bolt(db, 1, 1);
+    const other = randomUUID();
+    // The reload is answered with a copy at cursor 11, but while it was on its way a newer copy
+    // (13: another tablet's bolt too) reached the tablet by another path (the job being opened).
+    const server = fakeServer(() => "11", async () => {
+      await storeJobCopy(db, jobSnapshot({ torqueRecords: [torqueRecord(a.id, 1, 1), torqueRecord(other, 1, 2)] }, "13"));
+      return jobSnapshot({ torqueRecords: [torqueRecord(a.id, 1, 1)] }, "11");
+    });
+    await syncOnce(db, "tab-1", server.fetch);
+    expect((await db.jobs.get(ids.job))!.snapshot.cursor).toBe("13");
+    expect(await db.outbox.count()).toBe(0);
+    expect(await nextBolt(db)).toEqual({ passIndex: 2, bolt: 1, positionInPass: 0 });
+  });
+});
+
+describe("one sync run at a time", () => {
+  it("triggers during a run ask for one more run after it, never a parallel one", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    let cursor = 10;
+    const server = fakeServer(() => String(++cursor), () => jobSnapshot({}, String(cursor)));
+    const runner = singleFlight(() => syncOnce(db, "tab-1", server.fetch));
+    await bolt(db, 1, 1);
+    const first = runner.run(); // a save
+    while (server.syncRequests.length === 0) await new Promise((r) => setTimeout(r, 1));
+    await bolt(db, 1, 2); // recorded while the first run is on the wire
+    const second = runner.run(); // the next save, while the first run is going
+    const third = runner.run(); // the timer, the online event, the button…
+    expect(second).toBe(third);
+    await Promise.all([first, second, third]);
+    expect(server.syncRequests).toHaveLength(2);
+    expect(server.maxConcurrentRuns).toBe(1);
+    expect(server.syncRequests.map((r) => r.operations.length)).toEqual([1, 1]);
+    expect(server.syncRequests[1].cursor).toBe("11");
+    expect(await db.outbox.count()).toBe(0);
+  });
+});
