@@ -1,5 +1,5 @@
 import type { Kysely } from "kysely";
-import { auditLogBatches } from "@/db/audit-log";
+import { auditLogBatches } from "@/db/audit/read";
 import type { Database } from "@/db/schema";
 import { auditCsvChunk } from "@/lib/review/audit-csv";
 import type { AuditFilter } from "@/lib/review/list-queries";

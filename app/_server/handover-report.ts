@@ -2,7 +2,7 @@ import type { Kysely } from "kysely";
 import { boreGeometry, convertPower, convertTorque } from "@/lib/calc";
 import { compareRuns, summariseRun } from "@/lib/dyno";
 import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
-import { loadHandoverReport, type HandoverReportData } from "@/db/handover-report";
+import { loadHandoverReport, type HandoverReportData } from "@/db/records/handover-report";
 import type { Database } from "@/db/schema";
 import { drawCurvePlot } from "./report/curve-plot";
 import { FONT, footers, heading, newPdf, paragraph, pdfText, table, toBuffer, type Pdf } from "./report/pdf-layout";

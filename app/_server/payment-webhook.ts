@@ -1,7 +1,7 @@
 import type { Kysely } from "kysely";
 import type Stripe from "stripe";
 import { applyPaymentEvent } from "@/db/office/deposits";
-import { appendAudit } from "@/db/audit";
+import { appendAudit } from "@/db/audit/append";
 import type { Database } from "@/db/schema";
 import { mailDepositReceived } from "./customer-mail";
 import { verifyPaymentWebhook } from "./payments";

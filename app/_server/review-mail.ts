@@ -1,5 +1,5 @@
 import type { Kysely } from "kysely";
-import { claimNotices, finishNotice, noticeFacts, type NoticeFacts } from "@/db/review-notices";
+import { claimNotices, finishNotice, noticeFacts, type NoticeFacts } from "@/db/review/notices";
 import type { Database } from "@/db/schema";
 import { sendMail } from "./mail";
 import { officeConfig } from "./office-config";

@@ -1,8 +1,8 @@
 import { getServerSession } from "next-auth";
 import { redirect } from "next/navigation";
 import { NextResponse } from "next/server";
-import { db } from "@/db/client";
-import { loadSessionUser } from "@/db/users";
+import { db } from "@/db/setup/client";
+import { loadSessionUser } from "@/db/shop/users";
 import { canReach, homePathFor, type Area } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { authOptions } from "./auth-options";

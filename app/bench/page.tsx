@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { BenchApp } from "./_components/bench-app";

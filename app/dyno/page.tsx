@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { db } from "@/db/client";
-import { listDynoJobs } from "@/db/dyno";
+import { db } from "@/db/setup/client";
+import { listDynoJobs } from "@/db/records/dyno";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { StatusBadge } from "../ui/status-badge";

@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import type { BuildProgress } from "@/lib/work-orders/build-progress";
-import { db } from "@/db/client";
-import { bikesOfCustomer } from "@/db/bikes";
-import { loadBuildProgress } from "@/db/build-progress";
+import { db } from "@/db/setup/client";
+import { bikesOfCustomer } from "@/db/shop/bikes";
+import { loadBuildProgress } from "@/db/records/build-progress";
 import { quotesForCustomer } from "@/db/office/quotes";
 import { CustomerQuote, type CustomerQuoteData } from "./_components/customer-quote";
 import { requirePageArea } from "../_server/session";

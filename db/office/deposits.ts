@@ -1,6 +1,6 @@
 import type { Kysely } from "kysely";
 import { Refusal } from "@/lib/office/refusal";
-import { appendAudit } from "../audit";
+import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 
 // Starts a deposit for the customer's approved quote: a pending row the payment provider's

@@ -1,7 +1,7 @@
 import type { Kysely, Transaction } from "kysely";
 import { Refusal } from "@/lib/office/refusal";
 import type { Database } from "../schema";
-import { moveWorkOrder } from "./work-orders";
+import { moveWorkOrder } from "../shop/work-orders";
 
 // Handover: the move to "handed over" and the final invoice, together or not at all.
 export async function handOver(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, note = "") {

@@ -2,7 +2,7 @@ import type { Kysely } from "kysely";
 import { partFittedSchema } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/office/refusal";
 import type { z } from "zod";
-import { partColumns } from "../parts-fitted";
+import { partColumns } from "../records/parts-fitted";
 import type { Database } from "../schema";
 
 export async function addPartFitted(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, input: z.input<typeof partFittedSchema>) {

@@ -2,9 +2,9 @@ import type { Kysely } from "kysely";
 import { quoteTotals } from "@/lib/money/quote-totals";
 import { quoteDraftSchema, type QuoteDraftInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/office/refusal";
-import { appendAudit } from "../audit";
+import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
-import { moveWorkOrder } from "./work-orders";
+import { moveWorkOrder } from "../shop/work-orders";
 
 // Saves the office's draft quote for a work order: replaces the open draft's lines, or starts a
 // new version (a sent quote is never edited; revising one supersedes it when the new one is sent).

@@ -4,7 +4,7 @@ import { evaluateTolerance } from "@/lib/calc";
 import { formatStamp } from "@/lib/sync/hlc";
 import type { Operation } from "@/lib/sync/operations";
 import type { Database } from "../schema";
-import { saveDynoRun } from "../dyno";
+import { saveDynoRun } from "../records/dyno";
 
 // Invented build record and dyno runs for the demo turbo job (work order 1001, Corvid RX1000
 // Turbo, GSW-0001): readings, torque passes, parts, sign-offs and reviews, and two dyno runs

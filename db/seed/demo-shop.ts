@@ -3,7 +3,7 @@ import type { Kysely } from "kysely";
 import { DEMO_TEMPLATES } from "@/lib/procedures/demo-templates";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database, Role } from "../schema";
-import { createTemplateVersion } from "../templates";
+import { createTemplateVersion } from "../templates/versions";
 import { seedDemoDyno } from "./demo-dyno";
 import { seedDemoOffice } from "./demo-office";
 import { seedDemoReview } from "./demo-review";

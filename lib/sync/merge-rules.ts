@@ -1,5 +1,5 @@
 /**
- * The merge rules, as pure functions. db/sync.ts loads the facts, calls `decideOperation` for each
+ * The merge rules, as pure functions. db/sync/merge.ts loads the facts, calls `decideOperation` for each
  * operation in stamp order (calling `noteAccepted` after each one it keeps), and writes the result.
  * The rules in plain words are in ./README.md.
  */

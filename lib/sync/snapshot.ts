@@ -1,6 +1,6 @@
 /**
  * What the bench read endpoints return, for the client to fill IndexedDB. Pure zod schemas and
- * types, shared by db/bench-jobs.ts (which builds them) and the client (which can check them).
+ * types, shared by db/bench/jobs.ts (which builds them) and the client (which can check them).
  * Numbers from numeric columns (specs, readings) come as JSON numbers, exactly as entered.
  */
 import { z } from "zod";

@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { benchJobsResponse, jobSnapshotResponse, tagLookupResponse } from "@/app/api/bench/handlers";
-import { mergeBatch } from "@/db/sync";
+import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { bottomEndTemplate } from "@/lib/procedures/demo-templates/bottom-end";
 import { benchJobListSchema, jobSnapshotSchema, tagLookupSchema } from "@/lib/sync/snapshot";

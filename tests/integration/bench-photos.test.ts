@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { photoBytesResponse, uploadPhotoResponse, type PhotoStore } from "@/app/api/bench/photos/handlers";
-import { mergeBatch } from "@/db/sync";
+import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { fixtureSpecs, Tablet } from "../bench/sync-ops";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { importDynoRun } from "@/db/dyno-import";
-import { listDynoRuns, saveDynoRun } from "@/db/dyno";
+import { importDynoRun } from "@/db/records/dyno-import";
+import { listDynoRuns, saveDynoRun } from "@/db/records/dyno";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { importDynoRun } from "@/db/dyno-import";
-import { listDynoJobs, listDynoRuns, withdrawDynoRun } from "@/db/dyno";
-import { loadHandoverReport } from "@/db/handover-report";
+import { importDynoRun } from "@/db/records/dyno-import";
+import { listDynoJobs, listDynoRuns, withdrawDynoRun } from "@/db/records/dyno";
+import { loadHandoverReport } from "@/db/records/handover-report";
 import { runWithdrawalSchema } from "@/lib/dyno";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";

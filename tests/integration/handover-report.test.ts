@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { PDFParse } from "pdf-parse";
 import { renderHandoverReportPdf, ReportNotFoundError } from "@/app/_server/handover-report";
-import { saveDynoRun } from "@/db/dyno";
-import { reportWorkOrderFor } from "@/db/handover-report";
+import { saveDynoRun } from "@/db/records/dyno";
+import { reportWorkOrderFor } from "@/db/records/handover-report";
 import { seedDemoBuildRecord } from "@/db/seed/demo-dyno";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";

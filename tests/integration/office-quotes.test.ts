@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { bookIn, moveWorkOrder } from "@/db/office/work-orders";
+import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { quotesOfWorkOrder, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
-import { createBike } from "@/db/office/bikes";
+import { createBike } from "@/db/shop/bikes";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { importTemplateDocuments, loadTemplateDocument, templatesWithVersions } from "@/db/office/template-documents";
-import { createTemplateVersion } from "@/db/templates";
+import { importTemplateDocuments, loadTemplateDocument, templatesWithVersions } from "@/db/templates/documents";
+import { createTemplateVersion } from "@/db/templates/versions";
 import { DEMO_TEMPLATES } from "@/lib/procedures/demo-templates";
 import { firstStartTemplate } from "@/lib/procedures/demo-templates/first-start";
 import { turboKitTemplate } from "@/lib/procedures/demo-templates/turbo-kit";

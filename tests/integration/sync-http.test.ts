@@ -1,6 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { handleSyncRequest } from "@/db/sync-http";
+import { handleSyncRequest } from "@/db/sync/http";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { syncResponseSchema } from "@/lib/sync/changes";
 import { SYNC_LIMITS } from "@/lib/sync/operations";

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { pageAuditLog } from "@/db/audit-log";
+import { db } from "@/db/setup/client";
+import { pageAuditLog } from "@/db/audit/read";
 import { auditQuerySchema } from "@/lib/review/list-queries";
 
 // GET: one page of the shop's audit log (job, outcome, action, q, sort, dir, page, size).

@@ -1,6 +1,6 @@
 import type { Kysely } from "kysely";
 import { z } from "zod";
-import { findJobByTag, getJobSnapshot, listBenchJobs } from "@/db/bench-jobs";
+import { findJobByTag, getJobSnapshot, listBenchJobs } from "@/db/bench/jobs";
 import type { Database } from "@/db/schema";
 import { canReach } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { requireApiArea } from "@/app/_server/session";
-import { bikesOfCustomer } from "@/db/bikes";
-import { db } from "@/db/client";
+import { bikesOfCustomer } from "@/db/shop/bikes";
+import { db } from "@/db/setup/client";
 
 export async function GET() {
   const auth = await requireApiArea("my-bikes");

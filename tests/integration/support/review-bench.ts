@@ -1,5 +1,5 @@
 import type { Kysely } from "kysely";
-import { mergeBatch } from "@/db/sync";
+import { mergeBatch } from "@/db/sync/merge";
 import type { Database } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { Operation } from "@/lib/sync/operations";

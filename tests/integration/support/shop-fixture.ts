@@ -5,7 +5,7 @@ import { bottomEndTemplate } from "@/lib/procedures/demo-templates/bottom-end";
 import { cylinderHeadTemplate } from "@/lib/procedures/demo-templates/cylinder-head";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database, Role } from "@/db/schema";
-import { createTemplateVersion } from "@/db/templates";
+import { createTemplateVersion } from "@/db/templates/versions";
 
 export const FIXTURE_PASSWORD = "fixture-pass-1";
 let hashed: string | undefined;

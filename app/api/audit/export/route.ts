@@ -1,6 +1,6 @@
 import { auditCsvResponse } from "@/app/_server/audit-csv-response";
 import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { auditFilterSchema } from "@/lib/review/list-queries";
 
 // GET: the shop's audit log as CSV (same filters as the page: job, outcome, action, q; no paging),

@@ -1,5 +1,5 @@
 import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { benchJobsResponse } from "../handlers";
 
 // GET /api/bench/jobs: the shop's jobs open for bench work, mine first.

@@ -1,8 +1,8 @@
 import type { Kysely } from "kysely";
 import { NextResponse } from "next/server";
 import { z } from "zod";
-import { appendAudit } from "@/db/audit";
-import { findStepPhoto, markPhotoUploaded } from "@/db/bench-photos";
+import { appendAudit } from "@/db/audit/append";
+import { findStepPhoto, markPhotoUploaded } from "@/db/bench/photos";
 import type { Database } from "@/db/schema";
 import { canReach } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";

@@ -1,8 +1,8 @@
-import { containsPattern } from "@/db/office/search";
+import { containsPattern } from "@/db/shop/search";
 import { NextResponse } from "next/server";
 import { guarded, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { createBike } from "@/db/office/bikes";
+import { db } from "@/db/setup/client";
+import { createBike } from "@/db/shop/bikes";
 import { bikeSchema } from "@/lib/office/schemas";
 
 // GET: bikes to choose from (search by tag, make, model or owner). POST: add a bike.

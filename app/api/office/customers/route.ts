@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { createCustomer, pageCustomers } from "@/db/office/customers";
+import { db } from "@/db/setup/client";
+import { createCustomer, pageCustomers } from "@/db/shop/customers";
 import { customerSchema, pageQuerySchema } from "@/lib/office/schemas";
 
 export const GET = guarded("office", async ({ req, user }) => {

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { importTemplateDocuments, templatesWithVersions } from "@/db/office/template-documents";
+import { db } from "@/db/setup/client";
+import { importTemplateDocuments, templatesWithVersions } from "@/db/templates/documents";
 import { templateDocumentSchema } from "@/lib/procedures/template-schema";
 
 // GET: templates with their versions. POST: save an edited document as a new version.

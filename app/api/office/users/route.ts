@@ -1,8 +1,8 @@
 import { NextResponse } from "next/server";
 import { guarded, readJson } from "@/app/_server/route-helpers";
-import { appendAudit } from "@/db/audit";
-import { db } from "@/db/client";
-import { createShopUser, listShopUsers } from "@/db/office/users";
+import { appendAudit } from "@/db/audit/append";
+import { db } from "@/db/setup/client";
+import { createShopUser, listShopUsers } from "@/db/shop/users";
 import { newUserSchema } from "@/lib/office/user-schema";
 
 export const GET = guarded("users", async ({ user }) => NextResponse.json({ users: await listShopUsers(db(), user.shopId) }));

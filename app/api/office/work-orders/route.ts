@@ -1,8 +1,8 @@
 import { NextResponse } from "next/server";
 import { filesOf, checkPhotos, storePhotos } from "@/app/_server/photos";
 import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { bookIn, pageWorkOrders } from "@/db/office/work-orders";
+import { db } from "@/db/setup/client";
+import { bookIn, pageWorkOrders } from "@/db/shop/work-orders";
 import { intakeSchema, pageQuerySchema } from "@/lib/office/schemas";
 
 // GET: one page of work orders (search q, status, sort, dir, page, size). POST: book a bike in

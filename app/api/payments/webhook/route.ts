@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { handlePaymentWebhook } from "@/app/_server/payment-webhook";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 
 // The payment service's webhook. No session: the signature is the check (see payment-webhook.ts).
 export async function POST(req: Request) {

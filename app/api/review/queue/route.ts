@@ -1,8 +1,8 @@
 import { after, NextResponse } from "next/server";
 import { deliverReviewNotices } from "@/app/_server/review-mail";
 import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { pageReviewQueue } from "@/db/review-queue";
+import { db } from "@/db/setup/client";
+import { pageReviewQueue } from "@/db/review/queue";
 import { queueQuerySchema } from "@/lib/review/list-queries";
 
 // GET: one page of sign-offs waiting for review (q = bike, job, mechanic, outOfTolerance, sort, dir, page, size).

@@ -3,7 +3,7 @@ import { notFound } from "next/navigation";
 import { z } from "zod";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { WorkOrderView } from "./_components/work-order-view";
 
 export const metadata: Metadata = { title: "Work order" };

@@ -1,5 +1,5 @@
 import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { jobSnapshotResponse } from "../../handlers";
 
 // GET /api/bench/jobs/[id]: a full snapshot of one job for the tablet's store.

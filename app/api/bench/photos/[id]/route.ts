@@ -1,6 +1,6 @@
 import { getObject, putObject } from "@/app/_server/object-store";
 import { currentUser } from "@/app/_server/session";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { photoBytesResponse, uploadPhotoResponse } from "../handlers";
 
 const store = { put: putObject, get: getObject };

@@ -1,5 +1,5 @@
 import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { tagLookupResponse } from "../../handlers";
 
 // GET /api/bench/tags/[code]: the job open for bench work on the bike with this tag.

@@ -2,8 +2,8 @@ import { NextResponse } from "next/server";
 import { renderHandoverReportPdf } from "@/app/_server/handover-report";
 import { parseWorkOrderId } from "@/app/_server/route-params";
 import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
-import { reportWorkOrderFor } from "@/db/handover-report";
+import { db } from "@/db/setup/client";
+import { reportWorkOrderFor } from "@/db/records/handover-report";
 
 type Params = { params: Promise<{ id: string }> };
 

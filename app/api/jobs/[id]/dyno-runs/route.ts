@@ -1,9 +1,9 @@
 import { NextResponse } from "next/server";
 import { parseWorkOrderId } from "@/app/_server/route-params";
 import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
-import { listDynoRuns } from "@/db/dyno";
-import { importDynoRun } from "@/db/dyno-import";
+import { db } from "@/db/setup/client";
+import { listDynoRuns } from "@/db/records/dyno";
+import { importDynoRun } from "@/db/records/dyno-import";
 
 type Params = { params: Promise<{ id: string }> };
 

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { depositForCustomer } from "@/db/office/deposits";
 import { Refusal } from "@/lib/office/refusal";
 

@@ -1,6 +1,6 @@
 import { getObject } from "@/app/_server/object-store";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { Refusal } from "@/lib/office/refusal";
 
 // A stored photo, read from object storage for a signed-in user of the same shop.

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { getCustomer, updateCustomer } from "@/db/office/customers";
+import { db } from "@/db/setup/client";
+import { getCustomer, updateCustomer } from "@/db/shop/customers";
 import { customerSchema } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/office/refusal";
 

@@ -1,8 +1,8 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { loadTemplateDocument } from "@/db/office/template-documents";
+import { db } from "@/db/setup/client";
+import { loadTemplateDocument } from "@/db/templates/documents";
 import { Refusal } from "@/lib/office/refusal";
 
 const q = z.object({ version: z.coerce.number().int().positive().optional(), download: z.enum(["1"]).optional() });

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { importTemplateDocuments } from "@/db/office/template-documents";
+import { db } from "@/db/setup/client";
+import { importTemplateDocuments } from "@/db/templates/documents";
 import { MAX_TEMPLATE_FILE_BYTES, readTemplateFile } from "@/lib/procedures/template-file";
 
 // Import: the file's text as the body. All templates in it are written, or none (422 with problems).

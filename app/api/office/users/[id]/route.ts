@@ -1,8 +1,8 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { appendAudit } from "@/db/audit";
-import { db } from "@/db/client";
-import { setUserActive } from "@/db/office/users";
+import { appendAudit } from "@/db/audit/append";
+import { db } from "@/db/setup/client";
+import { setUserActive } from "@/db/shop/users";
 import { userActiveSchema } from "@/lib/office/user-schema";
 
 export const PUT = guarded<{ id: string }>("users", async ({ req, user, params }) => {

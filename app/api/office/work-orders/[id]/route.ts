@@ -1,11 +1,11 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { invoiceOf } from "@/db/office/invoices";
 import { stepsOfJob } from "@/db/office/parts";
 import { quotesOfWorkOrder } from "@/db/office/quotes";
-import { mechanicsOf, workOrderDetail } from "@/db/office/work-orders";
-import { latestTemplateVersions } from "@/db/templates";
+import { mechanicsOf, workOrderDetail } from "@/db/shop/work-orders";
+import { latestTemplateVersions } from "@/db/templates/versions";
 import { Refusal } from "@/lib/office/refusal";
 import { allowedNextStatuses } from "@/lib/work-orders/status";
 

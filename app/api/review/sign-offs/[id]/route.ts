@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { loadSignOffReview } from "@/db/review-detail";
+import { db } from "@/db/setup/client";
+import { loadSignOffReview } from "@/db/review/detail";
 import { Refusal } from "@/lib/office/refusal";
 
 // GET: everything the review screen shows for one sign-off of the user's shop.

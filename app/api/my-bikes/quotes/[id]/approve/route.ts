@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { approveQuoteAsCustomer } from "@/db/office/quotes";
 
 // The customer approves their own quote (anyone else's: 403).

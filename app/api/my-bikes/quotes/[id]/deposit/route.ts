@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { startDepositPayment } from "@/app/_server/payments";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { attachPaymentIntent, openDeposit } from "@/db/office/deposits";
 import { Refusal } from "@/lib/office/refusal";
 

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { assignMechanic } from "@/db/office/work-orders";
+import { db } from "@/db/setup/client";
+import { assignMechanic } from "@/db/shop/work-orders";
 import { assignSchema } from "@/lib/office/schemas";
 
 export const POST = guarded<{ id: string }>("office", async ({ req, user, params }) => {

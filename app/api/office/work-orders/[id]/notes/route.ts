@@ -1,8 +1,8 @@
 import { NextResponse } from "next/server";
 import { checkPhotos, filesOf, storePhotos } from "@/app/_server/photos";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { addNote } from "@/db/office/work-orders";
+import { db } from "@/db/setup/client";
+import { addNote } from "@/db/shop/work-orders";
 import { noteSchema } from "@/lib/office/schemas";
 
 // A finding (teardown or general note) with photos, multipart: kind, body, photos[].

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { addPartFitted } from "@/db/office/parts";
 import { partFittedSchema } from "@/lib/office/schemas";
 

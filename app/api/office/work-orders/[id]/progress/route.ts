@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { loadBuildProgress } from "@/db/build-progress";
-import { db } from "@/db/client";
+import { loadBuildProgress } from "@/db/records/build-progress";
+import { db } from "@/db/setup/client";
 import { Refusal } from "@/lib/office/refusal";
 
 // The build's progress by stage (steps done, sign-offs, review decisions, readings out of tolerance).

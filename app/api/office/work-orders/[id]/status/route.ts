@@ -1,9 +1,9 @@
 import { NextResponse } from "next/server";
 import { mailBikeReady } from "@/app/_server/customer-mail";
 import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { handOver } from "@/db/office/invoices";
-import { moveWorkOrder } from "@/db/office/work-orders";
+import { moveWorkOrder } from "@/db/shop/work-orders";
 import { transitionSchema } from "@/lib/office/schemas";
 
 // Moves the work order on. Handover writes the final invoice in the same transaction; "ready"

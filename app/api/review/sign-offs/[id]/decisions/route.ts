@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { decideOnSignOff } from "@/db/review-decide";
+import { db } from "@/db/setup/client";
+import { decideOnSignOff } from "@/db/review/decide";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 
 // POST: approve or send back a sign-off (body: lib/review/decision-input.ts). 201 with the decision;

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { withdrawDynoRun } from "@/db/dyno";
+import { db } from "@/db/setup/client";
+import { withdrawDynoRun } from "@/db/records/dyno";
 import { runWithdrawalSchema } from "@/lib/dyno/run-withdrawal";
 import { Refusal } from "@/lib/office/refusal";
 

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { mailQuoteReady } from "@/app/_server/customer-mail";
 import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
 import { quoteWithLines, sendQuote } from "@/db/office/quotes";
 
 export const POST = guarded<{ id: string }>("office", async ({ user, params }) => {

@@ -1,0 +1,26 @@
+import type { Kysely } from "kysely";
+import { checkDynoRunBody, type CurveRowError } from "@/lib/dyno";
+import { saveDynoRun } from "./dyno";
+import type { Database } from "../schema";
+
+export type DynoImportResult =
+  | { ok: true; id: string }
+  | { ok: false; status: 400; fieldErrors: Record<string, string>; curveErrors: CurveRowError[] }
+  | { ok: false; status: 404 };
+
+/**
+ * Checks a new run (fields and curve, from the table or a CSV file) and stores it, or stores
+ * nothing and returns every problem with its field, row and column.
+ */
+export async function importDynoRun(
+  db: Kysely<Database>,
+  shopId: string,
+  workOrderId: string,
+  userId: string,
+  body: unknown,
+): Promise<DynoImportResult> {
+  const check = checkDynoRunBody(body);
+  if (!check.ok) return { ok: false, status: 400, fieldErrors: check.fieldErrors, curveErrors: check.curveErrors };
+  const id = await saveDynoRun(db, shopId, workOrderId, userId, check.run);
+  return id ? { ok: true, id } : { ok: false, status: 404 };
+}

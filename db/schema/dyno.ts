@@ -1,0 +1,38 @@
+import type { ColumnType, Generated } from "kysely";
+import type { DateOnly, Numeric, Timestamp } from "./columns";
+
+// Table types for dyno runs (migrations 2026_12_02_004_dyno, 2026_12_02_007_dyno_withdrawals).
+
+export interface DynoRunsTable {
+  id: Generated<string>;
+  shop_id: string;
+  work_order_id: string;
+  label: string;
+  ran_on: DateOnly;
+  boost_target: Numeric;
+  boost_unit: "psi" | "kPa" | "bar";
+  pressure_kpa: Numeric;
+  temperature_c: Numeric;
+  humidity_percent: Numeric;
+  correction_standard: "SAE_J1349" | "DIN_70020" | "ISO_1585" | "SAE_J607";
+  torque_unit: "N·m" | "lbf·ft";
+  notes: Generated<string>;
+  source: "table" | "csv";
+  created_by: string | null;
+  created_at: Generated<Timestamp>;
+  withdrawn_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  withdrawn_by: string | null;
+  withdrawn_reason: string | null;
+}
+
+export interface DynoPointsTable {
+  run_id: string;
+  position: number;
+  rpm: Numeric;
+  torque: Numeric;
+}
+
+export interface DynoTables {
+  dyno_runs: DynoRunsTable;
+  dyno_points: DynoPointsTable;
+}

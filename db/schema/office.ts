@@ -1,0 +1,106 @@
+import type { Generated } from "kysely";
+import type { Timestamp } from "./columns";
+
+// Table types for the office side (migration 2026_12_02_003_office).
+
+export interface WorkOrderNotesTable {
+  id: Generated<string>;
+  shop_id: string;
+  work_order_id: string;
+  kind: "intake" | "teardown" | "general";
+  body: string;
+  author_id: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export type QuoteStatus = "draft" | "sent" | "approved" | "superseded";
+
+export interface QuotesTable {
+  id: Generated<string>;
+  shop_id: string;
+  work_order_id: string;
+  version: number;
+  status: QuoteStatus;
+  currency: string;
+  tax_rate_bp: number;
+  subtotal_minor: Generated<number>;
+  tax_minor: Generated<number>;
+  total_minor: Generated<number>;
+  deposit_minor: Generated<number>;
+  note: Generated<string>;
+  created_by: string | null;
+  created_at: Generated<Timestamp>;
+  sent_at: Timestamp | null;
+  approved_at: Timestamp | null;
+  approved_by: string | null;
+}
+
+export interface QuoteLinesTable {
+  id: Generated<string>;
+  quote_id: string;
+  position: number;
+  kind: "part" | "labour";
+  description: string;
+  part_number: string | null;
+  quantity_hundredths: number;
+  unit_price_minor: number;
+  line_total_minor: number;
+}
+
+export interface DepositsTable {
+  id: Generated<string>;
+  shop_id: string;
+  work_order_id: string;
+  quote_id: string;
+  amount_minor: number;
+  currency: string;
+  payment_intent_id: string | null;
+  status: "pending" | "paid" | "failed";
+  created_at: Generated<Timestamp>;
+  paid_at: Timestamp | null;
+}
+
+export interface PaymentEventsTable {
+  event_id: string;
+  type: string;
+  payment_intent_id: string | null;
+  received_at: Generated<Timestamp>;
+}
+
+export interface OutboundEmailsTable {
+  id: Generated<string>;
+  shop_id: string;
+  work_order_id: string | null;
+  kind: string;
+  recipient: string;
+  subject: string;
+  message_id: string | null;
+  error: string | null;
+  sent_at: Generated<Timestamp>;
+}
+
+export interface InvoicesTable {
+  id: Generated<string>;
+  shop_id: string;
+  work_order_id: string;
+  quote_id: string;
+  number: number;
+  currency: string;
+  subtotal_minor: number;
+  tax_minor: number;
+  total_minor: number;
+  deposits_paid_minor: number;
+  balance_due_minor: number;
+  created_by: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface OfficeTables {
+  work_order_notes: WorkOrderNotesTable;
+  quotes: QuotesTable;
+  quote_lines: QuoteLinesTable;
+  deposits: DepositsTable;
+  payment_events: PaymentEventsTable;
+  outbound_emails: OutboundEmailsTable;
+  invoices: InvoicesTable;
+}

@@ -1,0 +1,61 @@
+import type { Generated } from "kysely";
+import type { Timestamp } from "./columns";
+
+// Work orders, their moves, pinned procedures and stored files (migrations 001, 002).
+
+export interface WorkOrdersTable {
+  id: Generated<string>;
+  shop_id: string;
+  bike_id: string;
+  number: number;
+  title: string;
+  status: string;
+  complaint: Generated<string>;
+  intake_odometer_km: number | null;
+  assigned_mechanic_id: string | null;
+  created_at: Generated<Timestamp>;
+  updated_at: Generated<Timestamp>;
+  closed_at: Timestamp | null;
+}
+
+export interface WorkOrderTransitionsTable {
+  id: Generated<string>;
+  work_order_id: string;
+  from_status: string | null;
+  to_status: string;
+  by_user_id: string | null;
+  note: Generated<string>;
+  at: Generated<Timestamp>;
+}
+
+export interface JobProceduresTable {
+  id: Generated<string>;
+  work_order_id: string;
+  template_version_id: string;
+  position: number;
+}
+
+export interface AttachmentsTable {
+  id: Generated<string>;
+  shop_id: string;
+  work_order_id: string | null;
+  bike_id: string | null;
+  step_id: string | null;
+  purpose: "intake" | "teardown" | "step" | "reading" | "dyno" | "report";
+  object_key: string;
+  content_type: string;
+  byte_size: number;
+  caption: Generated<string>;
+  uploaded_by: string | null;
+  note_id: Generated<string | null>;
+  created_at: Generated<Timestamp>;
+  /** Queued on a tablet, bytes not uploaded yet (migration 002). */
+  awaiting_upload: Generated<boolean>;
+}
+
+export interface WorkOrderTables {
+  work_orders: WorkOrdersTable;
+  work_order_transitions: WorkOrderTransitionsTable;
+  job_procedures: JobProceduresTable;
+  attachments: AttachmentsTable;
+}
