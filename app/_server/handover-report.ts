@@ -1,11 +1,10 @@
-import type { Kysely } from "kysely";
 import { boreGeometry, convertPower, convertTorque } from "@/lib/calc";
 import { compareRuns, summariseRun } from "@/lib/dyno";
 import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { loadHandoverReport, type HandoverReportData } from "@/db/records/handover-report";
-import type { Database } from "@/db/schema";
 import { drawCurvePlot } from "./report/curve-plot";
 import { FONT, footers, heading, newPdf, paragraph, pdfText, table, toBuffer, type Pdf } from "./report/pdf-layout";
+import type { Db } from "@/db/setup/client";
 
 // The handover build report: a PDF for the customer and the shop's records, made on the server
 // from the database (no browser). Exported for the "bike ready" e-mail as well as the download.
@@ -241,7 +240,7 @@ function dynoResults(doc: Pdf, d: HandoverReportData) {
 }
 
 /** Renders the handover build report of one work order of one shop as a PDF. */
-export async function renderHandoverReportPdf(db: Kysely<Database>, shopId: string, workOrderId: string): Promise<Buffer> {
+export async function renderHandoverReportPdf(db: Db, shopId: string, workOrderId: string): Promise<Buffer> {
   const d = await loadHandoverReport(db, shopId, workOrderId);
   if (!d) throw new ReportNotFoundError();
   const j = d.job;

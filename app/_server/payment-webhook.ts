@@ -1,10 +1,9 @@
-import type { Kysely } from "kysely";
 import type Stripe from "stripe";
 import { applyPaymentEvent } from "@/db/office/deposits";
 import { appendAudit } from "@/db/audit/append";
-import type { Database } from "@/db/schema";
 import { mailDepositReceived } from "./customer-mail";
 import { verifyPaymentWebhook } from "./payments";
+import type { Db } from "@/db/setup/client";
 
 export interface WebhookAnswer {
   status: number;
@@ -15,7 +14,7 @@ export interface WebhookAnswer {
 // verify the signature (refuse unsigned, wrongly signed and stale), apply the event once (refuse
 // a replayed event id), mark the deposit paid and write to the customer.
 export async function handlePaymentWebhook(
-  db: Kysely<Database>,
+  db: Db,
   rawBody: string,
   signature: string | null,
   opts: { secret?: string; sendMail?: boolean } = {},

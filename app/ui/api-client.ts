@@ -1,18 +1,16 @@
 "use client";
 
-// Browser-side calls to our route handlers. A refusal arrives as { error, issues[] } and is thrown
-// as ApiError so forms can show the message and each field's problem beside the field.
-export interface FieldIssue {
-  path: string;
-  message: string;
-}
+import type { ErrorBody, FieldIssue } from "@/lib/errors";
 
+export type { FieldIssue };
+
+// Browser-side calls to our route handlers. A refusal arrives as { error, issues[] } (lib/errors.ts)
+// and is thrown as ApiError so forms can show the message and each field's problem beside the field.
 export class ApiError extends Error {
   constructor(
     message: string,
     readonly status: number,
     readonly issues: FieldIssue[] = [],
-    readonly problems: FieldIssue[] = [],
   ) {
     super(message);
   }
@@ -30,7 +28,10 @@ export async function api<T>(method: "GET" | "POST" | "PUT", url: string, body?:
   }
   const res = await fetch(url, init);
   const data = await res.json().catch(() => ({}));
-  if (!res.ok) throw new ApiError(data.error ?? `Request failed (${res.status})`, res.status, data.issues ?? [], data.problems ?? []);
+  if (!res.ok) {
+    const refusal = data as Partial<ErrorBody>;
+    throw new ApiError(refusal.error ?? `Request failed (${res.status})`, res.status, refusal.issues ?? []);
+  }
   return data as T;
 }
 

@@ -1,8 +1,8 @@
 "use client";
 
+import { issuesOf } from "@/lib/zod-issues";
 import { useState } from "react";
 import type { z } from "zod";
-import { issuesOf } from "@/lib/office/schemas";
 import { ApiError, fieldErrors } from "./api-client";
 
 export interface FormMessageState {

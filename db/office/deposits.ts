@@ -1,5 +1,5 @@
 import type { Kysely } from "kysely";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 

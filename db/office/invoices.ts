@@ -1,5 +1,5 @@
 import type { Kysely, Transaction } from "kysely";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import type { Database } from "../schema";
 import { moveWorkOrder } from "../shop/work-orders";
 

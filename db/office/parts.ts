@@ -1,6 +1,6 @@
 import type { Kysely } from "kysely";
 import { partFittedSchema } from "@/lib/office/schemas";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import type { z } from "zod";
 import { partColumns } from "../records/parts-fitted";
 import type { Database } from "../schema";

@@ -1,7 +1,7 @@
 import type { Kysely } from "kysely";
 import { quoteTotals } from "@/lib/money/quote-totals";
 import { quoteDraftSchema, type QuoteDraftInput } from "@/lib/office/schemas";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 import { moveWorkOrder } from "../shop/work-orders";

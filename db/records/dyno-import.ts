@@ -1,11 +1,12 @@
 import type { Kysely } from "kysely";
-import { checkDynoRunBody, type CurveRowError } from "@/lib/dyno";
+import { checkDynoRunBody, runIssues } from "@/lib/dyno";
+import type { FieldIssue } from "@/lib/errors";
 import { saveDynoRun } from "./dyno";
 import type { Database } from "../schema";
 
 export type DynoImportResult =
   | { ok: true; id: string }
-  | { ok: false; status: 400; fieldErrors: Record<string, string>; curveErrors: CurveRowError[] }
+  | { ok: false; status: 400; issues: FieldIssue[] }
   | { ok: false; status: 404 };
 
 /**
@@ -20,7 +21,7 @@ export async function importDynoRun(
   body: unknown,
 ): Promise<DynoImportResult> {
   const check = checkDynoRunBody(body);
-  if (!check.ok) return { ok: false, status: 400, fieldErrors: check.fieldErrors, curveErrors: check.curveErrors };
+  if (!check.ok) return { ok: false, status: 400, issues: runIssues(check) };
   const id = await saveDynoRun(db, shopId, workOrderId, userId, check.run);
   return id ? { ok: true, id } : { ok: false, status: 404 };
 }

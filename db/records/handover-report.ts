@@ -9,21 +9,21 @@ import { workOrdersWithBike } from "../shop/work-orders";
 // Everything the handover build report shows, read for one work order of one shop.
 
 /**
- * The work order id when `user` may have its report: staff of the same shop, or the customer who
- * owns the bike. null otherwise (the caller answers 404 and shows nothing).
+ * The work order (id, number, bike tag) when `user` may have its report: staff of the same shop,
+ * or the customer who owns the bike. null otherwise (the caller answers 404 and shows nothing).
  */
-export async function reportWorkOrderFor(db: Kysely<Database>, user: SessionUser, workOrderId: string): Promise<string | null> {
+export async function reportWorkOrderFor(db: Kysely<Database>, user: SessionUser, workOrderId: string): Promise<{ id: string; number: number; tagCode: string } | null> {
   let q = db
     .selectFrom("work_orders as w")
     .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .select("w.id")
+    .select(["w.id", "w.number", "b.tag_code as tagCode"])
     .where("w.shop_id", "=", user.shopId)
     .where("w.id", "=", workOrderId);
   if (user.role === "customer") {
     if (!user.customerId) return null;
     q = q.where("b.customer_id", "=", user.customerId);
   }
-  return (await q.executeTakeFirst())?.id ?? null;
+  return (await q.executeTakeFirst()) ?? null;
 }
 
 export async function loadHandoverReport(db: Kysely<Database>, shopId: string, workOrderId: string) {

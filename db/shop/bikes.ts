@@ -1,7 +1,8 @@
 import type { Kysely } from "kysely";
 import { bikeSchema, type BikeInput } from "@/lib/office/schemas";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import type { Database } from "../schema";
+import { containsPattern } from "./search";
 
 // The next free tag in the shop's series (e.g. GSW-0006): the prefix of its existing tags, or
 // three letters of the shop's slug for a shop with none yet.
@@ -86,4 +87,19 @@ export async function bikesOfCustomer(db: Kysely<Database>, shopId: string, cust
         .execute()
     : [];
   return bikes.map((b) => ({ ...b, workOrders: orders.filter((o) => o.bikeId === b.id) }));
+}
+
+/** Bikes to choose from (at most 50), searched by tag, make, model or owner. */
+export async function searchBikes(db: Kysely<Database>, shopId: string, search: string) {
+  const q = search.trim().slice(0, 60);
+  let query = db
+    .selectFrom("bikes as b")
+    .innerJoin("customers as c", "c.id", "b.customer_id")
+    .select(["b.id", "b.make", "b.model", "b.year", "b.tag_code as tagCode", "c.name as customerName"])
+    .where("b.shop_id", "=", shopId);
+  if (q) {
+    const like = containsPattern(q);
+    query = query.where((eb) => eb.or([eb("b.tag_code", "ilike", like), eb("b.make", "ilike", like), eb("b.model", "ilike", like), eb("c.name", "ilike", like)]));
+  }
+  return query.orderBy("b.tag_code").limit(50).execute();
 }

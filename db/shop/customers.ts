@@ -1,7 +1,7 @@
 import { sql, type Kysely } from "kysely";
 import type { CustomerInput } from "@/lib/office/schemas";
 import { customerSchema } from "@/lib/office/schemas";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import type { Database } from "../schema";
 import { containsPattern } from "./search";
 

@@ -2,7 +2,7 @@ import bcrypt from "bcryptjs";
 import { sql, type Kysely } from "kysely";
 import { SIGN_IN_LIMIT } from "@/lib/auth/credentials";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import type { newUserSchema } from "@/lib/office/user-schema";
 import type { z } from "zod";
 import type { Database } from "../schema";

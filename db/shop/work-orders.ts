@@ -1,6 +1,6 @@
 import { sql, type Kysely, type Transaction } from "kysely";
 import { intakeSchema, type IntakeInput } from "@/lib/office/schemas";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import { checkTransition } from "@/lib/work-orders/transition-rules";
 import { isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
@@ -95,9 +95,13 @@ export async function bookIn(db: Kysely<Database>, shopId: string, userId: strin
       .returning(["id", "number"])
       .executeTakeFirstOrThrow();
     await trx.insertInto("work_order_transitions").values({ work_order_id: wo.id, from_status: null, to_status: "booked_in", by_user_id: userId, note: "booked in" }).execute();
-    await trx.insertInto("work_order_notes").values({ shop_id: shopId, work_order_id: wo.id, kind: "intake", body: i.complaint, author_id: userId }).execute();
+    const note = await trx
+      .insertInto("work_order_notes")
+      .values({ shop_id: shopId, work_order_id: wo.id, kind: "intake", body: i.complaint, author_id: userId })
+      .returning("id")
+      .executeTakeFirstOrThrow();
     await appendAudit(trx, [{ shopId, actorId: userId, action: "work_order.book_in", entity: "work_order", entityId: wo.id, workOrderId: wo.id, outcome: "accepted", detail: { number, odometerKm: i.odometerKm } }]);
-    return wo;
+    return { ...wo, intakeNoteId: note.id };
   });
 }
 
@@ -270,6 +274,11 @@ export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: 
       .execute(),
   ]);
   return { ...wo, status: wo.status as WorkOrderStatus, transitions, notes, photos, procedures, parts, emails };
+}
+
+/** Whether the work order is one of this shop's. */
+export async function workOrderInShop(db: Kysely<Database>, shopId: string, id: string): Promise<boolean> {
+  return !!(await db.selectFrom("work_orders").select("id").where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst());
 }
 
 export async function mechanicsOf(db: Kysely<Database>, shopId: string) {

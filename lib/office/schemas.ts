@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "../zod-issues";
 import { MAX_MINOR } from "../money/quote-totals";
 import { WORK_ORDER_STATUSES } from "../work-orders/status";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS } from "../sync/operations";
@@ -138,12 +139,3 @@ export const pageQuerySchema = z.object({
   dir: z.enum(["asc", "desc"]).default("desc"),
   status: z.enum(WORK_ORDER_STATUSES).optional(),
 });
-
-// Flat list of problems for a form: `path` is the field ("lines.2.unitPriceMinor"), `message` the problem.
-export interface FieldIssue {
-  path: string;
-  message: string;
-}
-export function issuesOf(error: z.ZodError): FieldIssue[] {
-  return error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message }));
-}

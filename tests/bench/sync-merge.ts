@@ -20,7 +20,7 @@ import { ensureDatabase } from "@/db/setup/create-database";
 import { migrateToLatest } from "@/db/setup/migrate";
 import type { Database } from "@/db/schema";
 import { mergeBatch } from "@/db/sync/merge";
-import { handleSyncRequest } from "@/db/sync/http";
+import { POST as syncRoute } from "@/app/api/sync/route";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { SyncResponse } from "@/lib/sync/changes";
 import type { Operation } from "@/lib/sync/operations";
@@ -131,10 +131,10 @@ export async function run(): Promise<BenchFigures> {
     for (;;) {
       const request = new Request("http://bench.local/api/sync", {
         method: "POST",
-        headers: { "content-type": "application/json" },
+        headers: { "content-type": "application/json", origin: "http://bench.local" },
         body: JSON.stringify(bay2.batch(body, cursor)),
       });
-      const res = await handleSyncRequest(request, job.sup, db);
+      const res = await syncRoute.handle(request, { user: job.sup, db });
       requests += 1;
       if (res.status !== 200) throw new Error(`catch-up request answered ${res.status}: ${await res.text()}`);
       const answer = (await res.json()) as SyncResponse;

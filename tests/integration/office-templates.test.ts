@@ -47,13 +47,13 @@ describe("template export and import", () => {
     const r = readTemplateFile(JSON.stringify(bad));
     expect(r.ok).toBe(false);
     if (r.ok) return;
-    expect(r.problems).toContainEqual({ path: "stages[1].steps[0].torque[0].unit", message: expect.stringContaining("N·m") });
-    expect(r.problems).toContainEqual({ path: "stages[0].steps[1].measurements[0].min", message: "min must not exceed max" });
+    expect(r.issues).toContainEqual({ path: "stages[1].steps[0].torque[0].unit", message: expect.stringContaining("N·m") });
+    expect(r.issues).toContainEqual({ path: "stages[0].steps[1].measurements[0].min", message: "min must not exceed max" });
   });
 
   it("refuses text that is not JSON, or not our format, with a reason", () => {
-    expect(readTemplateFile("{ not json")).toMatchObject({ ok: false, problems: [{ path: "(file)", message: expect.stringMatching(/^not valid JSON/) }] });
-    expect(readTemplateFile(JSON.stringify({ format: "something-else" }))).toEqual({ ok: false, problems: [{ path: "format", message: 'expected "benchtag-template" or "benchtag-template-bundle"' }] });
+    expect(readTemplateFile("{ not json")).toMatchObject({ ok: false, issues: [{ path: "(file)", message: expect.stringMatching(/^not valid JSON/) }] });
+    expect(readTemplateFile(JSON.stringify({ format: "something-else" }))).toEqual({ ok: false, issues: [{ path: "format", message: 'expected "benchtag-template" or "benchtag-template-bundle"' }] });
   });
 
   it("imports a bundle all or nothing: one bad template leaves nothing written", async () => {
@@ -63,7 +63,7 @@ describe("template export and import", () => {
     broken.stages[1].steps[1].timer.blocksStepKey = "no-such-step";
     const bundle = { format: "benchtag-template-bundle", formatVersion: 1, templates: [turboKitTemplate, broken] };
     const r = readTemplateFile(JSON.stringify(bundle));
-    expect(r).toEqual({ ok: false, problems: [{ path: "templates[1].stages[1].steps[1].timer.blocksStepKey", message: 'timer blocks unknown step "no-such-step"' }] });
+    expect(r).toEqual({ ok: false, issues: [{ path: "templates[1].stages[1].steps[1].timer.blocksStepKey", message: 'timer blocks unknown step "no-such-step"' }] });
     expect([await count("procedure_templates"), await count("template_versions"), await count("template_steps")]).toEqual(before);
 
     // a failure half-way (the second refused after the first was written in the transaction) writes nothing:

@@ -3,7 +3,7 @@ import { bookIn, moveWorkOrder, assignMechanic, workOrderDetail } from "@/db/sho
 import { saveQuoteDraft, sendQuote, approveQuoteAsCustomer } from "@/db/office/quotes";
 import { createBike } from "@/db/shop/bikes";
 import { handOver } from "@/db/office/invoices";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
 

@@ -1,9 +1,10 @@
 "use client";
 
+import { issuesOf } from "@/lib/zod-issues";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
 import { formatMinor, parseHundredths, quoteTotals } from "@/lib/money/quote-totals";
-import { issuesOf, quoteDraftSchema } from "@/lib/office/schemas";
+import { quoteDraftSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
 import { buttonClass, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { Quote, WorkOrderData } from "./types";
