@@ -1,6 +1,7 @@
 import { boreGeometry, convertPower, convertTorque } from "@/lib/calc";
+import { torquePassCount } from "@/lib/procedures/spec-counts";
 import { compareRuns, summariseRun } from "@/lib/dyno";
-import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { STATUS_LABELS } from "@/lib/work-orders/status";
 import { loadHandoverReport, type HandoverReportData } from "@/db/records/handover-report";
 import { drawCurvePlot } from "./report/curve-plot";
 import { FONT, footers, heading, newPdf, paragraph, pdfText, table, toBuffer, type Pdf } from "./report/pdf-layout";
@@ -47,7 +48,7 @@ function theBike(doc: Pdf, d: HandoverReportData) {
       ["Engine", `${j.displacementCc ? `${j.displacementCc} cc` : "—"}${j.engineNumber ? `, engine no. ${j.engineNumber}` : ""}${j.vin ? `, VIN ${j.vin}` : ""}`],
       ["Owner", j.customerName],
       ["Work order", `#${j.number}: ${j.title}`],
-      ["Status", STATUS_LABELS[j.status as WorkOrderStatus] ?? j.status],
+      ["Status", STATUS_LABELS[j.status]],
       ["Odometer at intake", j.odometerKm === null ? "—" : `${j.odometerKm} km`],
       ["Reason for the work", j.complaint || "—"],
       ["Lead mechanic", j.mechanicName ?? "—"],
@@ -162,9 +163,9 @@ function torqueApplied(doc: Pdf, d: HandoverReportData) {
       { header: "Notes", width: 0.16 },
     ],
     applied.map((t) => {
-      const passes = (t.passes as Array<{ percent?: number; value?: number }>).map((p) => (p.percent !== undefined ? `${p.percent} %` : `${p.value} ${t.unit}`));
-      const angles = (t.anglePasses as number[]).map((a) => `+${a}°`);
-      const expected = (passes.length + angles.length) * t.boltCount;
+      const passes = t.passes.map((p) => ("percent" in p ? `${p.percent} %` : `${p.value} ${t.unit}`));
+      const angles = t.anglePasses.map((a) => `+${a}°`);
+      const expected = torquePassCount({ finalValue: Number(t.finalValue), unit: t.unit, passes: t.passes, anglePasses: t.anglePasses }) * t.boltCount;
       const value = Number(t.finalValue);
       const other = t.unit === "N·m" ? `${convertTorque(value, "N·m", "lbf·ft").toFixed(1)} lbf·ft` : "";
       return [

@@ -4,6 +4,18 @@ import type { ErrorBody, FieldIssue } from "@/lib/errors";
 
 export type { FieldIssue };
 
+/**
+ * A value as it arrives in the browser after JSON: dates become ISO strings. The office's pages
+ * type what a route answers as `Wire<ReplyOf<typeof GET>>`, taken from the route itself.
+ */
+export type Wire<T> = T extends Date
+  ? string
+  : T extends ReadonlyArray<infer U>
+    ? Wire<U>[]
+    : T extends object
+      ? { [K in keyof T]: Wire<T[K]> }
+      : T;
+
 // Browser-side calls to our route handlers. A refusal arrives as { error, issues[] } (lib/errors.ts)
 // and is thrown as ApiError so forms can show the message and each field's problem beside the field.
 export class ApiError extends Error {

@@ -2,14 +2,13 @@ import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { mayWorkJob } from "@/lib/sync/merge-rules";
 import type { BenchJobSummary, JobSnapshot, TagLookup } from "@/lib/sync/snapshot";
-import { isOpenForBenchWork, STATUS_LABELS, WORK_ORDER_STATUSES, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { isOpenForBenchWork, OPEN_FOR_BENCH_WORK, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
 import { shopCursor } from "../sync/changes";
 
 // Read queries for the bench (the tablets' IndexedDB is filled from these). Every query is scoped
 // to the signed-in user's shop.
 
-const OPEN_FOR_BENCH = WORK_ORDER_STATUSES.filter(isOpenForBenchWork);
 const iso = (d: Date) => d.toISOString();
 const num = (v: string | number) => Number(v);
 const numOrNull = (v: string | number | null) => (v === null ? null : Number(v));
@@ -55,7 +54,7 @@ function assignment(user: SessionUser, r: JobRow) {
 export async function listBenchJobs(db: Kysely<Database>, user: SessionUser): Promise<BenchJobSummary[]> {
   const r = await sql<JobRow>`
     SELECT ${jobColumns} FROM ${jobFrom}
-    WHERE w.shop_id = ${user.shopId}::uuid AND w.status = ANY(${OPEN_FOR_BENCH}::text[])
+    WHERE w.shop_id = ${user.shopId}::uuid AND w.status = ANY(${[...OPEN_FOR_BENCH_WORK]}::text[])
     ORDER BY w.number
   `.execute(db);
   const rank = (j: JobRow) => (j.assigned_mechanic_id === user.id ? 0 : j.assigned_mechanic_id === null ? 1 : 2);
@@ -92,7 +91,7 @@ export async function findJobByTag(db: Kysely<Database>, user: SessionUser, tagC
     .select(["id", "number"])
     .where("bike_id", "=", bike.id)
     .where("shop_id", "=", user.shopId)
-    .where("status", "in", OPEN_FOR_BENCH)
+    .where("status", "in", OPEN_FOR_BENCH_WORK)
     .orderBy("created_at", "desc")
     .orderBy("number", "desc")
     .executeTakeFirst();
@@ -115,51 +114,48 @@ export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jo
       const job = jobRows.rows[0];
       if (!job) return null;
 
+      // the template versions pinned on the job, and everything in them
+      const pinnedVersions = trx.selectFrom("job_procedures").select("template_version_id").where("work_order_id", "=", jobId);
+      const pinnedSteps = trx.selectFrom("template_steps as s").where("s.template_version_id", "in", pinnedVersions);
       const [people, procedures, steps, torque, measurementSpecs, timerSpecs] = await Promise.all([
-        sql<{ id: string; name: string; role: "mechanic" | "supervisor" }>`
-          SELECT id, name, role FROM users
-          WHERE shop_id = ${user.shopId}::uuid AND role IN ('mechanic', 'supervisor') AND active ORDER BY name
-        `.execute(trx),
-        sql<{ id: string; position: number; template_version_id: string; key: string; name: string; version: number; example_only: boolean }>`
-          SELECT jp.id, jp.position, jp.template_version_id, t.key, v.name, v.version, v.example_only
-          FROM job_procedures jp
-          JOIN template_versions v ON v.id = jp.template_version_id
-          JOIN procedure_templates t ON t.id = v.template_id
-          WHERE jp.work_order_id = ${jobId}::uuid ORDER BY jp.position
-        `.execute(trx),
-        sql<{
-          id: string; template_version_id: string; stage_key: string; stage_title: string; stage_position: number; position: number;
-          key: string; title: string; instructions: string; cautions: { kind: string; text: string }[]; requires_photo: boolean;
-          waits_for_step_key: string | null;
-        }>`
-          SELECT s.id, s.template_version_id, s.stage_key, s.stage_title, s.stage_position, s.position, s.key, s.title,
-            s.instructions, s.cautions, s.requires_photo, s.waits_for_step_key
-          FROM template_steps s
-          WHERE s.template_version_id IN (SELECT template_version_id FROM job_procedures WHERE work_order_id = ${jobId}::uuid)
-          ORDER BY s.stage_position, s.position
-        `.execute(trx),
-        sql<{
-          id: string; step_id: string; label: string; final_value: string; unit: "N·m" | "lbf·ft" | "lbf·in" | "kgf·m";
-          passes: ({ percent: number } | { value: number })[]; angle_passes: number[]; pattern: "cross" | "spiral-out" | "linear";
-          bolt_count: number; lubricant: string; torque_to_yield: boolean;
-        }>`
-          SELECT t.* FROM torque_specs t JOIN template_steps s ON s.id = t.step_id
-          WHERE s.template_version_id IN (SELECT template_version_id FROM job_procedures WHERE work_order_id = ${jobId}::uuid)
-          ORDER BY t.label, t.id
-        `.execute(trx),
-        sql<{
-          id: string; step_id: string; key: string; label: string; nominal: string | null; min: string; max: string;
-          unit: "mm" | "in" | "µm"; reading_labels: string[]; geometry: "bore" | "oil-clearance" | null;
-        }>`
-          SELECT m.* FROM measurement_specs m JOIN template_steps s ON s.id = m.step_id
-          WHERE s.template_version_id IN (SELECT template_version_id FROM job_procedures WHERE work_order_id = ${jobId}::uuid)
-          ORDER BY m.key
-        `.execute(trx),
-        sql<{ id: string; step_id: string; label: string; duration_s: number; blocks_step_key: string | null }>`
-          SELECT t.* FROM timer_specs t JOIN template_steps s ON s.id = t.step_id
-          WHERE s.template_version_id IN (SELECT template_version_id FROM job_procedures WHERE work_order_id = ${jobId}::uuid)
-          ORDER BY t.label, t.id
-        `.execute(trx),
+        trx
+          .selectFrom("users")
+          .select(["id", "name", "role"])
+          .where("shop_id", "=", user.shopId)
+          .where("role", "in", ["mechanic", "supervisor"] as const)
+          .where("active", "=", true)
+          .orderBy("name")
+          .$narrowType<{ role: "mechanic" | "supervisor" }>()
+          .execute(),
+        trx
+          .selectFrom("job_procedures as jp")
+          .innerJoin("template_versions as v", "v.id", "jp.template_version_id")
+          .innerJoin("procedure_templates as t", "t.id", "v.template_id")
+          .select(["jp.id", "jp.position", "jp.template_version_id", "t.key", "v.name", "v.version", "v.example_only"])
+          .where("jp.work_order_id", "=", jobId)
+          .orderBy("jp.position")
+          .execute(),
+        pinnedSteps
+          .select([
+            "s.id",
+            "s.template_version_id",
+            "s.stage_key",
+            "s.stage_title",
+            "s.stage_position",
+            "s.position",
+            "s.key",
+            "s.title",
+            "s.instructions",
+            "s.cautions",
+            "s.requires_photo",
+            "s.waits_for_step_key",
+          ])
+          .orderBy("s.stage_position")
+          .orderBy("s.position")
+          .execute(),
+        pinnedSteps.innerJoin("torque_specs as t", "t.step_id", "s.id").selectAll("t").orderBy("t.label").orderBy("t.id").execute(),
+        pinnedSteps.innerJoin("measurement_specs as m", "m.step_id", "s.id").selectAll("m").orderBy("m.key").execute(),
+        pinnedSteps.innerJoin("timer_specs as t", "t.step_id", "s.id").selectAll("t").orderBy("t.label").orderBy("t.id").execute(),
       ]);
       const state = await loadJobState(trx, jobId);
       const cursor = await shopCursor(trx, user.shopId);
@@ -169,9 +165,9 @@ export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jo
         for (const r of rows) m.set(r.step_id, [...(m.get(r.step_id) ?? []), r]);
         return m;
       };
-      const torqueBy = bySteps(torque.rows);
-      const measuresBy = bySteps(measurementSpecs.rows);
-      const timersBy = bySteps(timerSpecs.rows);
+      const torqueBy = bySteps(torque);
+      const measuresBy = bySteps(measurementSpecs);
+      const timersBy = bySteps(timerSpecs);
 
       return {
         workOrder: {
@@ -185,10 +181,10 @@ export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jo
           ...assignment(user, job),
         },
         bike: bikeOf(job),
-        people: people.rows,
-        procedures: procedures.rows.map((p) => {
+        people,
+        procedures: procedures.map((p) => {
           const stages = new Map<string, JobSnapshot["procedures"][number]["stages"][number]>();
-          for (const s of steps.rows.filter((s) => s.template_version_id === p.template_version_id)) {
+          for (const s of steps.filter((s) => s.template_version_id === p.template_version_id)) {
             const stage = stages.get(s.stage_key) ?? { key: s.stage_key, title: s.stage_title, position: s.stage_position, steps: [] };
             stages.set(s.stage_key, stage);
             stage.steps.push({
@@ -197,7 +193,7 @@ export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jo
               title: s.title,
               position: s.position,
               instructions: s.instructions,
-              cautions: s.cautions as JobSnapshot["procedures"][number]["stages"][number]["steps"][number]["cautions"],
+              cautions: s.cautions,
               requiresPhoto: s.requires_photo,
               waitsForStepKey: s.waits_for_step_key,
               torqueSpecs: (torqueBy.get(s.id) ?? []).map((t) => ({
@@ -250,71 +246,104 @@ export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jo
 
 /** The recorded work on a job: completions, every reading (superseded too), torque, timers, sign-offs, decisions, photos, parts. */
 async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSnapshot["state"]> {
+  const stampOrder = (column: string) => sql`${sql.ref(column)} COLLATE "C"`;
   const [completions, readings, torque, timers, signOffs, decisions, photos, parts] = await Promise.all([
-    sql<{ id: string; step_id: string; completed_by: string; device_time: Date; received_at: Date; flagged: boolean; flag_reason: string | null; seq: string | number }>`
-      SELECT c.id, c.step_id, c.completed_by, c.device_time, c.received_at, c.flagged, c.flag_reason, o.seq
-      FROM step_completions c JOIN operations o ON o.id = c.id
-      WHERE c.work_order_id = ${jobId}::uuid ORDER BY o.seq
-    `.execute(db),
-    sql<{
-      id: string; step_id: string; spec_id: string; reading_index: number; value: string; unit: "mm" | "in" | "µm";
-      verdict: "in" | "low" | "high"; note: string; supersedes_id: string | null; recorded_by: string; device_id: string;
-      device_time: Date; stamp: string; flagged: boolean; flag_reason: string | null; current: boolean;
-    }>`
-      SELECT m.id, m.step_id, m.spec_id, m.reading_index, m.value, m.unit, m.verdict, m.note, m.supersedes_id, m.recorded_by,
-        m.device_id, m.device_time, m.stamp, o.flagged, o.flag_reason, (c.id IS NOT NULL) AS current
-      FROM measurements m
-      JOIN operations o ON o.id = m.id
-      LEFT JOIN (SELECT id FROM current_measurements WHERE work_order_id = ${jobId}::uuid) c ON c.id = m.id
-      WHERE m.work_order_id = ${jobId}::uuid
-      ORDER BY m.spec_id, m.reading_index, m.stamp COLLATE "C"
-    `.execute(db),
-    sql<{
-      id: string; step_id: string; torque_spec_id: string; pass_index: number; bolt: number; wrench_reading: string | null;
-      wrench_unit: string | null; recorded_by: string; device_time: Date;
-    }>`
-      SELECT t.id, t.step_id, t.torque_spec_id, t.pass_index, t.bolt, t.wrench_reading, t.wrench_unit, t.recorded_by, t.device_time
-      FROM torque_records t JOIN operations o ON o.id = t.id
-      WHERE t.work_order_id = ${jobId}::uuid ORDER BY o.stamp COLLATE "C"
-    `.execute(db),
-    sql<{
-      id: string; step_id: string; timer_spec_id: string | null; label: string; duration_s: number; started_at: Date;
-      started_by: string; stopped_at: Date | null; override_by: string | null; override_reason: string | null;
-    }>`
-      SELECT id, step_id, timer_spec_id, label, duration_s, started_at, started_by, stopped_at, override_by, override_reason
-      FROM timers WHERE work_order_id = ${jobId}::uuid ORDER BY started_at
-    `.execute(db),
-    sql<{ id: string; job_procedure_id: string; stage_key: string; signed_by: string; device_time: Date; received_at: Date; seq: string | number }>`
-      SELECT s.id, s.job_procedure_id, s.stage_key, s.signed_by, s.device_time, s.received_at, o.seq
-      FROM sign_offs s JOIN operations o ON o.id = s.id
-      WHERE s.work_order_id = ${jobId}::uuid ORDER BY o.seq
-    `.execute(db),
-    sql<{
-      id: string; sign_off_id: string; job_procedure_id: string; stage_key: string; decision: "approved" | "sent_back"; reason: string;
-      reopened_step_ids: string[]; decided_by: string; decided_at: Date; change_seq: string | number;
-    }>`
-      SELECT DISTINCT ON (d.sign_off_id) d.id, d.sign_off_id, s.job_procedure_id, s.stage_key, d.decision, d.reason,
-        d.reopened_step_ids, d.decided_by, d.decided_at, d.change_seq
-      FROM review_decisions d JOIN sign_offs s ON s.id = d.sign_off_id
-      WHERE s.work_order_id = ${jobId}::uuid
-      ORDER BY d.sign_off_id, d.change_seq DESC
-    `.execute(db),
-    sql<{ id: string; step_id: string | null; content_type: string; byte_size: number; caption: string; awaiting_upload: boolean; created_at: Date }>`
-      SELECT id, step_id, content_type, byte_size, caption, awaiting_upload, created_at
-      FROM attachments WHERE work_order_id = ${jobId}::uuid AND purpose = 'step' ORDER BY created_at, id
-    `.execute(db),
-    sql<{
-      id: string; step_id: string | null; part_number: string; description: string; supplier: string; serial: string | null;
-      batch: string | null; quantity: number; fitted_by: string | null; fitted_at: Date; flagged: boolean; flag_reason: string | null;
-    }>`
-      SELECT p.id, p.step_id, p.part_number, p.description, p.supplier, p.serial, p.batch, p.quantity, p.fitted_by, p.fitted_at,
-        COALESCE(o.flagged, false) AS flagged, o.flag_reason
-      FROM parts_fitted p LEFT JOIN operations o ON o.id = p.operation_id
-      WHERE p.work_order_id = ${jobId}::uuid ORDER BY p.fitted_at, o.stamp COLLATE "C", p.id
-    `.execute(db),
+    db
+      .selectFrom("step_completions as c")
+      .innerJoin("operations as o", "o.id", "c.id")
+      .select(["c.id", "c.step_id", "c.completed_by", "c.device_time", "c.received_at", "c.flagged", "c.flag_reason", "o.seq"])
+      .where("c.work_order_id", "=", jobId)
+      .orderBy("o.seq")
+      .execute(),
+    db
+      .selectFrom("measurements as m")
+      .innerJoin("operations as o", "o.id", "m.id")
+      .leftJoin(db.selectFrom("current_measurements").select("id").where("work_order_id", "=", jobId).as("c"), "c.id", "m.id")
+      .select((eb) => [
+        "m.id",
+        "m.step_id",
+        "m.spec_id",
+        "m.reading_index",
+        "m.value",
+        "m.unit",
+        "m.verdict",
+        "m.note",
+        "m.supersedes_id",
+        "m.recorded_by",
+        "m.device_id",
+        "m.device_time",
+        "m.stamp",
+        "o.flagged",
+        "o.flag_reason",
+        eb("c.id", "is not", null).$castTo<boolean>().as("current"),
+      ])
+      .where("m.work_order_id", "=", jobId)
+      .orderBy("m.spec_id")
+      .orderBy("m.reading_index")
+      .orderBy(stampOrder("m.stamp"))
+      .execute(),
+    db
+      .selectFrom("torque_records as t")
+      .innerJoin("operations as o", "o.id", "t.id")
+      .select(["t.id", "t.step_id", "t.torque_spec_id", "t.pass_index", "t.bolt", "t.wrench_reading", "t.wrench_unit", "t.recorded_by", "t.device_time"])
+      .where("t.work_order_id", "=", jobId)
+      .orderBy(stampOrder("o.stamp"))
+      .execute(),
+    db
+      .selectFrom("timers")
+      .select(["id", "step_id", "timer_spec_id", "label", "duration_s", "started_at", "started_by", "stopped_at", "override_by", "override_reason"])
+      .where("work_order_id", "=", jobId)
+      .orderBy("started_at")
+      .execute(),
+    db
+      .selectFrom("sign_offs as s")
+      .innerJoin("operations as o", "o.id", "s.id")
+      .select(["s.id", "s.job_procedure_id", "s.stage_key", "s.signed_by", "s.device_time", "s.received_at", "o.seq"])
+      .where("s.work_order_id", "=", jobId)
+      .orderBy("o.seq")
+      .execute(),
+    db
+      .selectFrom("review_decisions as d")
+      .innerJoin("sign_offs as s", "s.id", "d.sign_off_id")
+      .distinctOn("d.sign_off_id")
+      .select(["d.id", "d.sign_off_id", "s.job_procedure_id", "s.stage_key", "d.decision", "d.reason", "d.reopened_step_ids", "d.decided_by", "d.decided_at", "d.change_seq"])
+      .where("s.work_order_id", "=", jobId)
+      .orderBy("d.sign_off_id")
+      .orderBy("d.change_seq", "desc")
+      .execute(),
+    db
+      .selectFrom("attachments")
+      .select(["id", "step_id", "content_type", "byte_size", "caption", "awaiting_upload", "created_at"])
+      .where("work_order_id", "=", jobId)
+      .where("purpose", "=", "step")
+      .orderBy("created_at")
+      .orderBy("id")
+      .execute(),
+    db
+      .selectFrom("parts_fitted as p")
+      .leftJoin("operations as o", "o.id", "p.operation_id")
+      .select((eb) => [
+        "p.id",
+        "p.step_id",
+        "p.part_number",
+        "p.description",
+        "p.supplier",
+        "p.serial",
+        "p.batch",
+        "p.quantity",
+        "p.fitted_by",
+        "p.fitted_at",
+        eb.fn.coalesce("o.flagged", eb.lit(false)).as("flagged"),
+        "o.flag_reason",
+      ])
+      .where("p.work_order_id", "=", jobId)
+      .orderBy("p.fitted_at")
+      .orderBy(stampOrder("o.stamp"))
+      .orderBy("p.id")
+      .execute(),
   ]);
   return {
-    completions: completions.rows.map((c) => ({
+    completions: completions.map((c) => ({
       id: c.id,
       stepId: c.step_id,
       completedBy: c.completed_by,
@@ -324,7 +353,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       flagReason: c.flag_reason,
       seq: String(c.seq),
     })),
-    readings: readings.rows.map((m) => ({
+    readings: readings.map((m) => ({
       id: m.id,
       stepId: m.step_id,
       specId: m.spec_id,
@@ -342,7 +371,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       flagged: m.flagged,
       flagReason: m.flag_reason,
     })),
-    torqueRecords: torque.rows.map((t) => ({
+    torqueRecords: torque.map((t) => ({
       id: t.id,
       stepId: t.step_id,
       torqueSpecId: t.torque_spec_id,
@@ -353,7 +382,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       recordedBy: t.recorded_by,
       deviceTime: iso(t.device_time),
     })),
-    timers: timers.rows.map((t) => ({
+    timers: timers.map((t) => ({
       id: t.id,
       stepId: t.step_id,
       timerSpecId: t.timer_spec_id,
@@ -365,7 +394,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       overrideBy: t.override_by,
       overrideReason: t.override_reason,
     })),
-    signOffs: signOffs.rows.map((s) => ({
+    signOffs: signOffs.map((s) => ({
       id: s.id,
       jobProcedureId: s.job_procedure_id,
       stageKey: s.stage_key,
@@ -374,7 +403,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       receivedAt: iso(s.received_at),
       seq: String(s.seq),
     })),
-    reviewDecisions: decisions.rows.map((d) => ({
+    reviewDecisions: decisions.map((d) => ({
       id: d.id,
       signOffId: d.sign_off_id,
       jobProcedureId: d.job_procedure_id,
@@ -386,7 +415,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       decidedAt: iso(d.decided_at),
       seq: String(d.change_seq),
     })),
-    photos: photos.rows.map((p) => ({
+    photos: photos.map((p) => ({
       id: p.id,
       stepId: p.step_id,
       contentType: p.content_type,
@@ -395,7 +424,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       awaitingUpload: p.awaiting_upload,
       createdAt: iso(p.created_at),
     })),
-    parts: parts.rows.map((p) => ({
+    parts: parts.map((p) => ({
       id: p.id,
       stepId: p.step_id,
       partNumber: p.part_number,

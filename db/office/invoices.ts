@@ -51,6 +51,16 @@ export async function createFinalInvoice(trx: Kysely<Database> | Transaction<Dat
     .executeTakeFirstOrThrow();
 }
 
+const INVOICE_COLUMNS = [
+  "number",
+  "currency",
+  "subtotal_minor as subtotalMinor",
+  "tax_minor as taxMinor",
+  "total_minor as totalMinor",
+  "deposits_paid_minor as depositsPaidMinor",
+  "balance_due_minor as balanceDueMinor",
+] as const;
+
 export async function invoiceOf(db: Kysely<Database>, shopId: string, workOrderId: string) {
-  return db.selectFrom("invoices").selectAll().where("work_order_id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
+  return db.selectFrom("invoices").select(INVOICE_COLUMNS).where("work_order_id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
 }

@@ -1,6 +1,7 @@
 import { sql, type Kysely } from "kysely";
 import type { DynoRunInput, RunWithdrawalInput, StoredDynoRun } from "@/lib/dyno";
 import { appendAudit } from "../audit/append";
+import { DYNO_STATUSES } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
 import { workOrdersWithBike } from "../shop/work-orders";
 
@@ -44,7 +45,7 @@ export async function listDynoJobs(db: Kysely<Database>, shopId: string) {
       eb.selectFrom("dyno_runs as r").select(eb.fn.countAll<number>().as("n")).whereRef("r.work_order_id", "=", "w.id").where("r.withdrawn_at", "is", null).as("runCount"),
     ])
     .where("w.shop_id", "=", shopId)
-    .where("w.status", "in", ["in_build", "in_review", "on_dyno", "ready", "handed_over"])
+    .where("w.status", "in", DYNO_STATUSES)
     .orderBy("w.number", "desc")
     .execute();
 }

@@ -2,7 +2,7 @@ import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { DecisionInput } from "@/lib/review/decision-input";
 import { checkDecision, type DecisionCheck } from "@/lib/review/decision-rules";
-import { isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { isClosed } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import { latestDecisionOn, latestSignOffOfStage, signOffInShop, stageOutOfTolerance, stageSteps } from "./stage";
 import type { Database } from "../schema";
@@ -34,7 +34,7 @@ export async function decideOnSignOff(db: Kysely<Database>, user: SessionUser, s
       {
         actor: { id: user.id, role: user.role },
         signOff: { id: so.id, signedBy: so.signedBy, stageTitle: so.stageTitle ?? so.stageKey },
-        job: { number: so.number, closed: isClosed(so.status as WorkOrderStatus) },
+        job: { number: so.number, closed: isClosed(so.status) },
         latestSignOffId: latestSignOffId ?? so.id,
         latestDecisionId: latestDecision?.id ?? null,
         stageSteps: steps,

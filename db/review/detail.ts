@@ -39,14 +39,18 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
       .where("m.work_order_id", "=", so.workOrderId)
       .where("a.shop_id", "=", user.shopId)
       .execute(),
-    sql<{ id: string; job_procedure_id: string; stage_key: string; signed_by: string; device_time: Date; received_at: Date; device_id: string; seq: string; flagged: boolean; flag_reason: string | null }>`
-      SELECT s.id, s.job_procedure_id, s.stage_key, s.signed_by, s.device_time, s.received_at, o.device_id, o.seq::text AS seq, o.flagged, o.flag_reason
-      FROM sign_offs s JOIN operations o ON o.id = s.id WHERE s.work_order_id = ${so.workOrderId}::uuid
-    `.execute(db),
-    sql<{ id: string; sign_off_id: string; decision: "approved" | "sent_back"; reason: string; reopened_step_ids: string[]; decided_by: string; decided_at: Date; change_seq: string }>`
-      SELECT d.id, d.sign_off_id, d.decision, d.reason, d.reopened_step_ids, d.decided_by, d.decided_at, d.change_seq::text AS change_seq
-      FROM review_decisions d JOIN sign_offs s ON s.id = d.sign_off_id WHERE s.work_order_id = ${so.workOrderId}::uuid
-    `.execute(db),
+    db
+      .selectFrom("sign_offs as s")
+      .innerJoin("operations as o", "o.id", "s.id")
+      .select(["s.id", "s.job_procedure_id", "s.stage_key", "s.signed_by", "s.device_time", "s.received_at", "o.device_id", sql<string>`o.seq::text`.as("seq"), "o.flagged", "o.flag_reason"])
+      .where("s.work_order_id", "=", so.workOrderId)
+      .execute(),
+    db
+      .selectFrom("review_decisions as d")
+      .innerJoin("sign_offs as s", "s.id", "d.sign_off_id")
+      .select(["d.id", "d.sign_off_id", "d.decision", "d.reason", "d.reopened_step_ids", "d.decided_by", "d.decided_at", sql<string>`d.change_seq::text`.as("change_seq")])
+      .where("s.work_order_id", "=", so.workOrderId)
+      .execute(),
   ]);
 
   const review = buildStageReview(
@@ -55,7 +59,7 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
       receipts: new Map(receipts.map((r) => [r.id, { receivedAt: iso(r.received_at), deviceId: r.device_id }])),
       names: new Map(names.map((u) => [u.id, u.name])),
       acceptances: acceptances.map((a) => ({ measurementId: a.measurement_id, decisionId: a.decision_id, justification: a.justification, acceptedBy: a.accepted_by, acceptedAt: iso(a.accepted_at) })),
-      signOffs: signOffs.rows.map((s) => ({
+      signOffs: signOffs.map((s) => ({
         id: s.id,
         jobProcedureId: s.job_procedure_id,
         stageKey: s.stage_key,
@@ -67,7 +71,7 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
         flagged: s.flagged,
         flagReason: s.flag_reason,
       })),
-      decisions: decisions.rows.map(
+      decisions: decisions.map(
         (d): DecisionFact => ({
           id: d.id,
           signOffId: d.sign_off_id,

@@ -1,12 +1,12 @@
 import type { ColumnType, Generated } from "kysely";
-import type { Timestamp } from "./columns";
+import type { DefaultTimestamp, Timestamp } from "./columns";
 
 // The append-only audit log (migration 001).
 
 export interface AuditLogTable {
   id: Generated<string>;
   shop_id: string | null;
-  at: Generated<Timestamp>;
+  at: DefaultTimestamp;
   actor_id: string | null;
   device_id: string | null;
   action: string;

@@ -1,5 +1,8 @@
 import type { Generated } from "kysely";
-import type { Timestamp, Numeric, Json } from "./columns";
+import type { ToleranceStatus } from "@/lib/calc/tolerance";
+import type { LengthUnit, TorqueUnit } from "@/lib/calc/units";
+import type { OperationKind } from "@/lib/sync/operations";
+import type { DefaultTimestamp, Json, Numeric, Timestamp } from "./columns";
 
 // What the bench records: operations and the rows they write (migrations 001, 002, 006).
 
@@ -8,7 +11,7 @@ export interface OperationsTable {
   seq: Generated<string>;
   shop_id: string;
   work_order_id: string;
-  kind: string;
+  kind: OperationKind;
   author_id: string;
   device_id: string;
   device_time: Timestamp;
@@ -16,7 +19,7 @@ export interface OperationsTable {
   payload: Json<Record<string, unknown>>;
   flagged: Generated<boolean>;
   flag_reason: string | null;
-  received_at: Generated<Timestamp>;
+  received_at: DefaultTimestamp;
 }
 
 export interface StepCompletionsTable {
@@ -25,7 +28,7 @@ export interface StepCompletionsTable {
   step_id: string;
   completed_by: string;
   device_time: Timestamp;
-  received_at: Generated<Timestamp>;
+  received_at: DefaultTimestamp;
   flagged: Generated<boolean>;
   flag_reason: string | null;
 }
@@ -37,15 +40,15 @@ export interface MeasurementsTable {
   spec_id: string;
   reading_index: Generated<number>;
   value: Numeric;
-  unit: "mm" | "in" | "µm";
-  verdict: "in" | "low" | "high";
+  unit: LengthUnit;
+  verdict: ToleranceStatus;
   note: Generated<string>;
   supersedes_id: string | null;
   recorded_by: string;
   device_id: string;
   device_time: Timestamp;
   stamp: string;
-  received_at: Generated<Timestamp>;
+  received_at: DefaultTimestamp;
 }
 
 export interface TorqueRecordsTable {
@@ -56,10 +59,10 @@ export interface TorqueRecordsTable {
   pass_index: number;
   bolt: number;
   wrench_reading: Numeric | null;
-  wrench_unit: string | null;
+  wrench_unit: TorqueUnit | null;
   recorded_by: string;
   device_time: Timestamp;
-  received_at: Generated<Timestamp>;
+  received_at: DefaultTimestamp;
 }
 
 export interface TimersTable {
@@ -83,7 +86,7 @@ export interface SignOffsTable {
   stage_key: string;
   signed_by: string;
   device_time: Timestamp;
-  received_at: Generated<Timestamp>;
+  received_at: DefaultTimestamp;
 }
 
 export interface PartsFittedTable {
@@ -98,7 +101,7 @@ export interface PartsFittedTable {
   batch: string | null;
   quantity: Generated<number>;
   fitted_by: string | null;
-  fitted_at: Generated<Timestamp>;
+  fitted_at: DefaultTimestamp;
   /** The bench operation that recorded it; null when the office did (migration 006). */
   operation_id: Generated<string | null>;
 }
@@ -111,8 +114,8 @@ export interface CurrentMeasurementsView {
   spec_id: string;
   reading_index: number;
   value: string;
-  unit: "mm" | "in" | "µm";
-  verdict: "in" | "low" | "high";
+  unit: LengthUnit;
+  verdict: ToleranceStatus;
   note: string;
   supersedes_id: string | null;
   recorded_by: string;

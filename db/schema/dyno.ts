@@ -1,5 +1,8 @@
 import type { ColumnType, Generated } from "kysely";
-import type { DateOnly, Numeric, Timestamp } from "./columns";
+import type { PowerCorrectionStandard } from "@/lib/calc/power-correction";
+import type { BoostUnit } from "@/lib/dyno/run-input";
+import type { ShopTorqueUnit } from "@/lib/shop-units";
+import type { DateOnly, DefaultTimestamp, Numeric, Timestamp } from "./columns";
 
 // Table types for dyno runs (migrations 2026_12_02_004_dyno, 2026_12_02_007_dyno_withdrawals).
 
@@ -10,16 +13,16 @@ export interface DynoRunsTable {
   label: string;
   ran_on: DateOnly;
   boost_target: Numeric;
-  boost_unit: "psi" | "kPa" | "bar";
+  boost_unit: BoostUnit;
   pressure_kpa: Numeric;
   temperature_c: Numeric;
   humidity_percent: Numeric;
-  correction_standard: "SAE_J1349" | "DIN_70020" | "ISO_1585" | "SAE_J607";
-  torque_unit: "N·m" | "lbf·ft";
+  correction_standard: PowerCorrectionStandard;
+  torque_unit: ShopTorqueUnit;
   notes: Generated<string>;
   source: "table" | "csv";
   created_by: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
   withdrawn_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
   withdrawn_by: string | null;
   withdrawn_reason: string | null;

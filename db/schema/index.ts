@@ -19,6 +19,5 @@ export interface Database
     DynoTables,
     AuditTables {}
 
-export type { Role } from "./shop";
 export type User = Selectable<UsersTable>;
 export type NewAuditEntry = Insertable<AuditLogTable>;

@@ -1,5 +1,6 @@
 import type { Generated } from "kysely";
-import type { Timestamp } from "./columns";
+import type { DepositStatus, NoteKind, QuoteLineKind, QuoteStatus } from "@/lib/office/schemas";
+import type { DefaultTimestamp, Timestamp } from "./columns";
 
 // Table types for the office side (migration 2026_12_02_003_office).
 
@@ -7,13 +8,11 @@ export interface WorkOrderNotesTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string;
-  kind: "intake" | "teardown" | "general";
+  kind: NoteKind;
   body: string;
   author_id: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
 }
-
-export type QuoteStatus = "draft" | "sent" | "approved" | "superseded";
 
 export interface QuotesTable {
   id: Generated<string>;
@@ -29,7 +28,7 @@ export interface QuotesTable {
   deposit_minor: Generated<number>;
   note: Generated<string>;
   created_by: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
   sent_at: Timestamp | null;
   approved_at: Timestamp | null;
   approved_by: string | null;
@@ -39,7 +38,7 @@ export interface QuoteLinesTable {
   id: Generated<string>;
   quote_id: string;
   position: number;
-  kind: "part" | "labour";
+  kind: QuoteLineKind;
   description: string;
   part_number: string | null;
   quantity_hundredths: number;
@@ -55,8 +54,8 @@ export interface DepositsTable {
   amount_minor: number;
   currency: string;
   payment_intent_id: string | null;
-  status: "pending" | "paid" | "failed";
-  created_at: Generated<Timestamp>;
+  status: DepositStatus;
+  created_at: DefaultTimestamp;
   paid_at: Timestamp | null;
 }
 
@@ -64,7 +63,7 @@ export interface PaymentEventsTable {
   event_id: string;
   type: string;
   payment_intent_id: string | null;
-  received_at: Generated<Timestamp>;
+  received_at: DefaultTimestamp;
 }
 
 export interface OutboundEmailsTable {
@@ -76,7 +75,7 @@ export interface OutboundEmailsTable {
   subject: string;
   message_id: string | null;
   error: string | null;
-  sent_at: Generated<Timestamp>;
+  sent_at: DefaultTimestamp;
 }
 
 export interface InvoicesTable {
@@ -92,7 +91,7 @@ export interface InvoicesTable {
   deposits_paid_minor: number;
   balance_due_minor: number;
   created_by: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
 }
 
 export interface OfficeTables {

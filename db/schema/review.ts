@@ -1,16 +1,17 @@
 import type { ColumnType, Generated } from "kysely";
-import type { Timestamp } from "./columns";
+import type { ReviewDecision } from "@/lib/review/decision-input";
+import type { DefaultTimestamp, Timestamp } from "./columns";
 
 // Table types for supervisor review (review_decisions: migration 001; the rest: 2026_12_02_005_review).
 
 export interface ReviewDecisionsTable {
   id: Generated<string>;
   sign_off_id: string;
-  decision: "approved" | "sent_back";
+  decision: ReviewDecision;
   reason: Generated<string>;
   reopened_step_ids: ColumnType<string[], string[] | undefined, string[]>;
   decided_by: string;
-  decided_at: Generated<Timestamp>;
+  decided_at: DefaultTimestamp;
   /** Place in the change sequence shared with operations.seq (set by a trigger; migration 002). */
   change_seq: Generated<number>;
 }
@@ -23,7 +24,7 @@ export interface ReadingAcceptancesTable {
   decision_id: string;
   justification: string;
   accepted_by: string;
-  accepted_at: Generated<Timestamp>;
+  accepted_at: DefaultTimestamp;
 }
 
 /** The e-mail intent a sign-off leaves (filled by a trigger on sign_offs). */
@@ -36,7 +37,7 @@ export interface ReviewNoticesTable {
   attempts: Generated<number>;
   claimed_at: Timestamp | null;
   last_error: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
   done_at: Timestamp | null;
 }
 

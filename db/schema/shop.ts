@@ -1,7 +1,7 @@
 import type { Generated } from "kysely";
-import type { Timestamp } from "./columns";
-
-export type Role = "mechanic" | "supervisor" | "office" | "customer";
+import type { Role } from "@/lib/auth/roles";
+import type { ShopTorqueUnit } from "@/lib/shop-units";
+import type { DefaultTimestamp, Timestamp } from "./columns";
 
 // The shop, its people and bikes (migration 2026_12_01_001_foundation).
 
@@ -10,10 +10,10 @@ export interface ShopsTable {
   name: string;
   slug: string;
   time_zone: Generated<string>;
-  torque_unit: Generated<"N·m" | "lbf·ft">;
+  torque_unit: Generated<ShopTorqueUnit>;
   currency: Generated<string>;
   tax_rate_bp: Generated<number>;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
 }
 
 export interface CustomersTable {
@@ -23,8 +23,8 @@ export interface CustomersTable {
   email: string | null;
   phone: string | null;
   notes: Generated<string>;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
+  updated_at: DefaultTimestamp;
 }
 
 export interface UsersTable {
@@ -36,7 +36,7 @@ export interface UsersTable {
   password_hash: string;
   customer_id: string | null;
   active: Generated<boolean>;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
 }
 
 export interface BikesTable {
@@ -52,14 +52,14 @@ export interface BikesTable {
   colour: string | null;
   tag_code: string;
   notes: Generated<string>;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
 }
 
 export interface SignInAttemptsTable {
   id: Generated<string>;
   key: string;
   succeeded: boolean;
-  at: Generated<Timestamp>;
+  at: DefaultTimestamp;
 }
 
 export interface ShopTables {

@@ -1,5 +1,8 @@
 import type { ColumnType, Generated } from "kysely";
-import type { Timestamp, Numeric, Json } from "./columns";
+import type { TorquePassSpec } from "@/lib/calc/torque-stages";
+import type { LengthUnit, TorqueUnit } from "@/lib/calc/units";
+import type { BoltPattern, CautionKind, MeasurementGeometry } from "@/lib/procedures/template-schema";
+import type { DefaultTimestamp, Json, Numeric, Timestamp } from "./columns";
 
 // Procedure templates: versions, steps and their specs (migration 2026_12_01_001_foundation).
 
@@ -8,7 +11,7 @@ export interface ProcedureTemplatesTable {
   shop_id: string;
   key: string;
   name: string;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
 }
 
 export interface TemplateVersionsTable {
@@ -19,7 +22,7 @@ export interface TemplateVersionsTable {
   summary: Generated<string>;
   example_only: Generated<boolean>;
   created_by: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
 }
 
 export interface TemplateStepsTable {
@@ -32,7 +35,7 @@ export interface TemplateStepsTable {
   key: string;
   title: string;
   instructions: Generated<string>;
-  cautions: Json<Array<{ kind: string; text: string }>>;
+  cautions: Json<Array<{ kind: CautionKind; text: string }>>;
   requires_photo: Generated<boolean>;
   waits_for_step_key: string | null;
 }
@@ -42,10 +45,10 @@ export interface TorqueSpecsTable {
   step_id: string;
   label: string;
   final_value: Numeric;
-  unit: "N·m" | "lbf·ft" | "lbf·in" | "kgf·m";
-  passes: Json<Array<{ percent: number } | { value: number }>>;
+  unit: TorqueUnit;
+  passes: Json<TorquePassSpec[]>;
   angle_passes: Json<number[]>;
-  pattern: "cross" | "spiral-out" | "linear";
+  pattern: BoltPattern;
   bolt_count: number;
   lubricant: Generated<string>;
   torque_to_yield: Generated<boolean>;
@@ -59,9 +62,9 @@ export interface MeasurementSpecsTable {
   nominal: Numeric | null;
   min: Numeric;
   max: Numeric;
-  unit: "mm" | "in" | "µm";
+  unit: LengthUnit;
   reading_labels: ColumnType<string[], string[] | undefined, string[]>;
-  geometry: "bore" | "oil-clearance" | null;
+  geometry: MeasurementGeometry | null;
 }
 
 export interface TimerSpecsTable {

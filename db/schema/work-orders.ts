@@ -1,5 +1,6 @@
 import type { Generated } from "kysely";
-import type { Timestamp } from "./columns";
+import type { WorkOrderStatus } from "@/lib/work-orders/status";
+import type { DefaultTimestamp, Timestamp } from "./columns";
 
 // Work orders, their moves, pinned procedures and stored files (migrations 001, 002).
 
@@ -9,23 +10,23 @@ export interface WorkOrdersTable {
   bike_id: string;
   number: number;
   title: string;
-  status: string;
+  status: WorkOrderStatus;
   complaint: Generated<string>;
   intake_odometer_km: number | null;
   assigned_mechanic_id: string | null;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
+  updated_at: DefaultTimestamp;
   closed_at: Timestamp | null;
 }
 
 export interface WorkOrderTransitionsTable {
   id: Generated<string>;
   work_order_id: string;
-  from_status: string | null;
-  to_status: string;
+  from_status: WorkOrderStatus | null;
+  to_status: WorkOrderStatus;
   by_user_id: string | null;
   note: Generated<string>;
-  at: Generated<Timestamp>;
+  at: DefaultTimestamp;
 }
 
 export interface JobProceduresTable {
@@ -48,7 +49,7 @@ export interface AttachmentsTable {
   caption: Generated<string>;
   uploaded_by: string | null;
   note_id: Generated<string | null>;
-  created_at: Generated<Timestamp>;
+  created_at: DefaultTimestamp;
   /** Queued on a tablet, bytes not uploaded yet (migration 002). */
   awaiting_upload: Generated<boolean>;
 }

@@ -1,4 +1,5 @@
 import { randomUUID } from "node:crypto";
+import { torquePassCount } from "@/lib/procedures/spec-counts";
 import { sql, type Kysely } from "kysely";
 import { evaluateTolerance } from "@/lib/calc";
 import { formatStamp } from "@/lib/sync/hlc";
@@ -103,7 +104,7 @@ export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecord
         }
         const torqueSpecs = await db.selectFrom("torque_specs").selectAll().where("step_id", "=", step.id).execute();
         for (const spec of torqueSpecs) {
-          const passes = (spec.passes as unknown[]).length + (spec.angle_passes as unknown[]).length;
+          const passes = torquePassCount({ finalValue: Number(spec.final_value), unit: spec.unit, passes: spec.passes, anglePasses: spec.angle_passes });
           for (let pass = 1; pass <= passes; pass++) {
             for (let bolt = 1; bolt <= spec.bolt_count; bolt++) {
               const when = at();

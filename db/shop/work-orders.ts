@@ -2,7 +2,7 @@ import { sql, type Kysely, type Transaction } from "kysely";
 import { intakeSchema, type IntakeInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
 import { checkTransition } from "@/lib/work-orders/transition-rules";
-import { isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { CLOSED_STATUSES, isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 import { partsOfWorkOrder } from "../records/parts-fitted";
@@ -73,7 +73,7 @@ export async function bookIn(db: Kysely<Database>, shopId: string, userId: strin
       .selectFrom("work_orders")
       .select("number")
       .where("bike_id", "=", i.bikeId)
-      .where("status", "not in", ["handed_over", "cancelled"])
+      .where("status", "not in", CLOSED_STATUSES)
       .executeTakeFirst();
     if (open) throw new Refusal(`This bike already has an open work order (#${open.number}).`, 409, [{ path: "bikeId", message: `work order #${open.number} is still open` }]);
     await trx.selectFrom("shops").select("id").where("id", "=", shopId).forUpdate().execute();
@@ -114,7 +114,7 @@ async function lockWorkOrder(trx: Trx, shopId: string, id: string) {
     .forUpdate()
     .executeTakeFirst();
   if (!wo) throw new Refusal("No such work order in this shop.", 404);
-  return { ...wo, status: wo.status as WorkOrderStatus };
+  return wo;
 }
 
 // The facts checkTransition needs, read inside the caller's transaction.
@@ -273,7 +273,7 @@ export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: 
       .orderBy("sent_at")
       .execute(),
   ]);
-  return { ...wo, status: wo.status as WorkOrderStatus, transitions, notes, photos, procedures, parts, emails };
+  return { ...wo, transitions, notes, photos, procedures, parts, emails };
 }
 
 /** Whether the work order is one of this shop's. */

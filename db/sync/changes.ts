@@ -1,6 +1,7 @@
 import { sql, type Kysely, type Transaction } from "kysely";
 import { serverStamp, type Change } from "@/lib/sync/changes";
 import { SYNC_LIMITS, type Operation } from "@/lib/sync/operations";
+import { CLOSED_STATUSES } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
 
 // The change feed: operations and review decisions of a shop after a cursor, in seq order.
@@ -10,7 +11,6 @@ import type { Database } from "../schema";
 
 type Db = Kysely<Database> | Transaction<Database>;
 
-const CLOSED = ["handed_over", "cancelled"];
 
 export interface ChangePage {
   changes: Change[];
@@ -63,7 +63,7 @@ export async function changesSince(
       FROM operations o JOIN work_orders w ON w.id = o.work_order_id
       WHERE o.shop_id = ${shopId}::uuid AND o.seq > ${after}
         AND o.device_id IS DISTINCT FROM ${excludeDeviceId}::text
-        AND w.status <> ALL(${CLOSED}::text[])
+        AND w.status <> ALL(${[...CLOSED_STATUSES]}::text[])
       ORDER BY o.seq
       LIMIT ${limit + 1}
     `.execute(db),
@@ -85,7 +85,7 @@ export async function changesSince(
       FROM review_decisions d
       JOIN sign_offs so ON so.id = d.sign_off_id
       JOIN work_orders w ON w.id = so.work_order_id
-      WHERE w.shop_id = ${shopId}::uuid AND d.change_seq > ${after} AND w.status <> ALL(${CLOSED}::text[])
+      WHERE w.shop_id = ${shopId}::uuid AND d.change_seq > ${after} AND w.status <> ALL(${[...CLOSED_STATUSES]}::text[])
       ORDER BY d.change_seq
       LIMIT ${limit + 1}
     `.execute(db),

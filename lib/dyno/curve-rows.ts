@@ -3,13 +3,15 @@
  * and torque, checked with zod; every problem is reported with its row and column, and a curve
  * with any problem yields no points at all.
  */
+import { SHOP_TORQUE_UNITS, type ShopTorqueUnit } from "../shop-units";
 import { z } from "zod";
 import { convertTorque } from "@/lib/calc";
 import { numberFromText } from "./number-text";
 
 /** Torque units a curve may be recorded in. */
-export const CURVE_TORQUE_UNITS = ["N·m", "lbf·ft"] as const;
-export type CurveTorqueUnit = (typeof CURVE_TORQUE_UNITS)[number];
+/** A curve is recorded in one of the shop's everyday torque units. */
+export const CURVE_TORQUE_UNITS = SHOP_TORQUE_UNITS;
+export type CurveTorqueUnit = ShopTorqueUnit;
 
 export const MIN_CURVE_POINTS = 2;
 export const MAX_CURVE_POINTS = 2000;

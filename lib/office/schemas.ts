@@ -101,13 +101,24 @@ export const transitionSchema = z.object({
 
 export const assignSchema = z.object({ mechanicId: z.uuid("choose a mechanic").nullable() });
 
+export const NOTE_KINDS = ["intake", "teardown", "general"] as const;
+export type NoteKind = (typeof NOTE_KINDS)[number];
+
 export const noteSchema = z.object({
-  kind: z.enum(["intake", "teardown", "general"]),
+  kind: z.enum(NOTE_KINDS),
   body: z.string().trim().min(2, "write the finding").max(4000),
 });
 
+export const QUOTE_LINE_KINDS = ["part", "labour"] as const;
+export type QuoteLineKind = (typeof QUOTE_LINE_KINDS)[number];
+/** A quote is drafted, sent to the customer, approved by them, or replaced by a newer version. */
+export const QUOTE_STATUSES = ["draft", "sent", "approved", "superseded"] as const;
+export type QuoteStatus = (typeof QUOTE_STATUSES)[number];
+export const DEPOSIT_STATUSES = ["pending", "paid", "failed"] as const;
+export type DepositStatus = (typeof DEPOSIT_STATUSES)[number];
+
 export const quoteLineSchema = z.object({
-  kind: z.enum(["part", "labour"], "choose part or labour"),
+  kind: z.enum(QUOTE_LINE_KINDS, "choose part or labour"),
   description: z.string().trim().min(2, "describe the line").max(200),
   partNumber: optionalText(60),
   quantityHundredths: z.number().int("quantity may have two decimals at most").min(1, "quantity must be more than 0").max(100_000_00),

@@ -41,4 +41,6 @@ export const decisionInputSchema = z.discriminatedUnion(
 );
 
 export type DecisionInput = z.output<typeof decisionInputSchema>;
+/** What a supervisor decided on a sign-off. */
+export type ReviewDecision = DecisionInput["decision"];
 export type AcceptanceInput = z.output<typeof acceptanceInputSchema>;

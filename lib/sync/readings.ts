@@ -9,6 +9,10 @@ import { evaluateTolerance, type ToleranceStatus } from "@/lib/calc/tolerance";
 import type { LengthUnit } from "@/lib/calc/units";
 import { compareStamps } from "./hlc";
 
+/** A reading's verdict against its spec, as stored and sent: within the limits, below, above. */
+export const VERDICTS = ["in", "low", "high"] as const satisfies readonly ToleranceStatus[];
+export type Verdict = (typeof VERDICTS)[number];
+
 export interface ReadingLike {
   id: string;
   workOrderId?: string;

@@ -5,9 +5,10 @@
  */
 import { z } from "zod";
 import { LENGTH_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
-import { cautionSchema, torquePassSchema } from "@/lib/procedures/template-schema";
+import { BOLT_PATTERNS, cautionSchema, MEASUREMENT_GEOMETRIES, torquePassSchema } from "@/lib/procedures/template-schema";
 import { WORK_ORDER_STATUSES } from "@/lib/work-orders/status";
 import { cursorSchema } from "./operations";
+import { VERDICTS } from "./readings";
 
 const id = z.uuid();
 const time = z.iso.datetime({ offset: true });
@@ -53,7 +54,7 @@ export const torqueSpecSnapshotSchema = z.object({
   unit: z.enum(TORQUE_UNITS),
   passes: z.array(torquePassSchema),
   anglePasses: z.array(z.number()),
-  pattern: z.enum(["cross", "spiral-out", "linear"]),
+  pattern: z.enum(BOLT_PATTERNS),
   boltCount: z.number().int(),
   lubricant: z.string(),
   torqueToYield: z.boolean(),
@@ -68,7 +69,7 @@ export const measurementSpecSnapshotSchema = z.object({
   max: z.number(),
   unit: z.enum(LENGTH_UNITS),
   readingLabels: z.array(z.string()),
-  geometry: z.enum(["bore", "oil-clearance"]).nullable(),
+  geometry: z.enum(MEASUREMENT_GEOMETRIES).nullable(),
 });
 
 export const timerSpecSnapshotSchema = z.object({
@@ -128,7 +129,7 @@ export const readingSnapshotSchema = z.object({
   readingIndex: z.number().int(),
   value: z.number(),
   unit: z.enum(LENGTH_UNITS),
-  verdict: z.enum(["in", "low", "high"]),
+  verdict: z.enum(VERDICTS),
   note: z.string(),
   supersedesId: id.nullable(),
   /** The current reading of its spot (latest stamp, not superseded). */

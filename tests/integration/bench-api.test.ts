@@ -7,6 +7,7 @@ import type { Db } from "@/db/setup/client";
 import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { bottomEndTemplate } from "@/lib/procedures/demo-templates/bottom-end";
+import type { WorkOrderStatus } from "@/lib/work-orders/status";
 import { benchJobListSchema, jobSnapshotSchema, tagLookupSchema } from "@/lib/sync/snapshot";
 import { fixtureSpecs, Tablet } from "../bench/sync-ops";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
@@ -20,7 +21,7 @@ const jobSnapshotResponse = (user: SessionUser | null, db: Db, id: string) => jo
 const tagLookupResponse = (user: SessionUser | null, db: Db, code: string) => tagLookup.handle(appRequest(`/api/bench/tags/${encodeURIComponent(code)}`), { user, db, params: { code } });
 const asUser = (u: ShopFixture["users"]["mechanic"], customerId: string | null = null): SessionUser => ({ ...u, customerId });
 
-async function addJob(fx: ShopFixture, number: number, status: string, mechanicId: string | null) {
+async function addJob(fx: ShopFixture, number: number, status: WorkOrderStatus, mechanicId: string | null) {
   const bike = await db
     .insertInto("bikes")
     .values({ shop_id: fx.shopId, customer_id: fx.customerId, make: "Invented", model: `Model ${number}`, year: 2018, tag_code: `T-${randomUUID().slice(0, 8)}`, vin: null, engine_number: null, displacement_cc: 749, colour: "green" })

@@ -78,8 +78,8 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
         <ol className="mt-2 space-y-1" data-testid="transitions">
           {wo.transitions.map((t) => (
             <li key={t.id} className="text-lg">
-              {dayTime(t.at)} · {t.from ? `${STATUS_LABELS[t.from as WorkOrderStatus] ?? t.from} → ` : ""}
-              <span className="font-bold">{STATUS_LABELS[t.to as WorkOrderStatus] ?? t.to}</span> · {t.byName ?? "—"}
+              {dayTime(t.at)} · {t.from ? `${STATUS_LABELS[t.from]} → ` : ""}
+              <span className="font-bold">{STATUS_LABELS[t.to]}</span> · {t.byName ?? "—"}
               {t.note ? ` · “${t.note}”` : ""}
             </li>
           ))}
