@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { torqueStages } from "@/lib/calc/torque-stages";
 import { DEMO_TEMPLATES } from "@/lib/procedures/demo-templates";
 import { expectedReadings, torquePassCount } from "@/lib/procedures/spec-counts";
+import { torqueSpecSchema } from "@/lib/procedures/template-schema";
 
 // The counts the server checks a reading index or a torque pass against are the ones the tablet
 // lays out: one function each (the tablet walks torqueStages; the server counts it).
@@ -18,7 +19,7 @@ describe("how much work a spec asks for", () => {
   });
 
   it("agrees with the tablet's pass list for every torque spec of the demo templates", () => {
-    const specs = DEMO_TEMPLATES.flatMap((t) => t.stages.flatMap((s) => s.steps.flatMap((st) => st.torque ?? [])));
+    const specs = DEMO_TEMPLATES.flatMap((t) => t.stages.flatMap((s) => s.steps.flatMap((st) => (st.torque ?? []).map((spec) => torqueSpecSchema.parse(spec)))));
     expect(specs.length).toBeGreaterThan(0);
     for (const t of specs) expect(torquePassCount(t)).toBe(torqueStages(t).length);
   });
