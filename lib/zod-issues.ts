@@ -155,7 +155,7 @@ export const FIELD_LABELS: FieldLabels = {
 };
 
 /** The label of the field at `path`: its key's label, or "This entry" for a field with none. */
-export function fieldLabel(path: ReadonlyArray<PropertyKey>, labels: FieldLabels = {}): string {
+function fieldLabel(path: ReadonlyArray<PropertyKey>, labels: FieldLabels = {}): string {
   for (let i = path.length - 1; i >= 0; i--) {
     const key = path[i];
     if (typeof key !== "string") continue;
@@ -235,7 +235,7 @@ function sizeRule(big: boolean, i: SizeIssue): string {
 }
 
 /** The rule a default zod issue broke, in plain words, without the field's name. */
-export function ruleOf(issue: z.core.$ZodRawIssue): string {
+function ruleOf(issue: z.core.$ZodRawIssue): string {
   const i = issue as z.core.$ZodRawIssue & Record<string, unknown>;
   switch (issue.code) {
     case "invalid_type":

@@ -1,3 +1,4 @@
+import "server-only";
 import { auditLogBatches } from "@/db/audit/read";
 import { auditCsvChunk } from "@/lib/review/audit-csv";
 import type { AuditFilter } from "@/lib/review/list-queries";

@@ -1,3 +1,4 @@
+import "server-only";
 import { renderHandoverReportPdf } from "./handover-report";
 import type { Db } from "@/db/setup/client";
 

@@ -1,3 +1,4 @@
+import "server-only";
 import { emailContext } from "@/db/office/emails";
 import { formatMinor } from "@/lib/money/quote-totals";
 import { bikeReadyAttachment } from "./bike-ready-attachment";

@@ -1,3 +1,4 @@
+import "server-only";
 import { boreGeometry, convertPower, convertTorque } from "@/lib/calc";
 import { torquePassCount } from "@/lib/procedures/spec-counts";
 import { compareRuns, summariseRun } from "@/lib/dyno";
@@ -20,7 +21,7 @@ const day = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
 const num = (v: string | number | null) => (v === null ? "" : String(Number(v)));
 const VERDICT = { in: "in spec", low: "LOW, out of spec", high: "HIGH, out of spec" } as const;
 
-export const RUN_IN_ADVICE = [
+const RUN_IN_ADVICE = [
   "First 300 km: keep below half the rev range and off boost; vary engine speed, no long steady cruising, no full-throttle pulls.",
   "300 to 800 km: build up gradually to three quarters of the rev range; short, light use of boost only once the engine is fully warm.",
   "Change the engine oil and filter at 800 km (or sooner if the maker's data says so); we check the plugs and look for leaks at the same visit.",
@@ -28,7 +29,7 @@ export const RUN_IN_ADVICE = [
   "Use the fuel grade the tune was made on; a lower grade can cause detonation under boost.",
 ];
 
-export const CAUTIONS = [
+const CAUTIONS = [
   "The figures, limits and advice in this report are the workshop's record of this build. The engine maker's service data, the parts makers' instructions and local rules come first wherever they differ.",
   "Dyno figures depend on the dyno, the air and the correction standard named beside them; compare runs only against figures made the same way.",
   "Any warning light, knocking, smoke, oil or coolant loss, or a change in boost behaviour: stop riding and contact the workshop.",

@@ -1,9 +1,10 @@
+import "server-only";
 import nodemailer from "nodemailer";
 import { recordEmail } from "@/db/office/emails";
 import { officeConfig } from "./office-config";
 import type { Db } from "@/db/setup/client";
 
-export interface OutgoingMail {
+interface OutgoingMail {
   shopId: string;
   workOrderId: string | null;
   kind: "quote_ready" | "deposit_received" | "bike_ready" | "review_needed";

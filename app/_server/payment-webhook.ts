@@ -1,3 +1,4 @@
+import "server-only";
 import type Stripe from "stripe";
 import { applyPaymentEvent } from "@/db/office/deposits";
 import { appendAudit } from "@/db/audit/append";
@@ -5,7 +6,7 @@ import { mailDepositReceived } from "./customer-mail";
 import { verifyPaymentWebhook } from "./payments";
 import type { Db } from "@/db/setup/client";
 
-export interface WebhookAnswer {
+interface WebhookAnswer {
   status: number;
   body: { received?: boolean; outcome?: string; error?: string };
 }

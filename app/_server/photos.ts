@@ -1,3 +1,4 @@
+import "server-only";
 import { randomUUID } from "node:crypto";
 import { recordAttachment } from "@/db/office/attachments";
 import type { Db } from "@/db/setup/client";
@@ -6,7 +7,7 @@ import { putObject } from "./object-store";
 
 // Intake and teardown photos sent with an office form (multipart, field "photos").
 const TYPES: Record<string, string> = { "image/jpeg": "jpg", "image/png": "png", "image/webp": "webp" };
-export const MAX_PHOTOS = 8;
+const MAX_PHOTOS = 8;
 export const MAX_PHOTO_BYTES = 10 * 1024 * 1024;
 /** The largest form with photos a route reads: every photo at its limit, and the text fields. */
 export const MAX_PHOTO_FORM_BYTES = MAX_PHOTOS * MAX_PHOTO_BYTES + 1024 * 1024;

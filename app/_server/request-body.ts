@@ -1,3 +1,4 @@
+import "server-only";
 import { Refusal } from "@/lib/errors";
 
 export interface BodyLimit {

@@ -1,3 +1,4 @@
+import "server-only";
 import { claimNotices, finishNotice, noticeFacts, type NoticeFacts } from "@/db/review/notices";
 import { sendMail } from "./mail";
 import { officeConfig } from "./office-config";
@@ -7,7 +8,7 @@ import type { Db } from "@/db/setup/client";
 // a sync merge has committed (app/api/sync/route.ts) and whenever the review queue is read, so a
 // notice left waiting by a failed send goes out on a later run.
 
-export function noticeMail(f: NoticeFacts, signOffId: string, baseUrl: string) {
+function noticeMail(f: NoticeFacts, signOffId: string, baseUrl: string) {
   const count = f.outOfTolerance.length;
   const subject = `Work order ${f.number}: "${f.stageTitle}" signed off with ${count} reading${count === 1 ? "" : "s"} out of tolerance`;
   const lines = f.outOfTolerance.map((o) => `  - ${o.stepTitle} — ${o.description}`);

@@ -1,3 +1,4 @@
+import "server-only";
 import { after, NextResponse } from "next/server";
 import type { z } from "zod";
 import { db as sharedDb, type Db } from "@/db/setup/client";
@@ -10,7 +11,6 @@ import { CHECK_THE_FIELDS, DATABASE_NOT_ANSWERING, errorBody, Refusal, UNEXPECTE
 import { issuesOf, workshopErrors, type FieldLabels } from "@/lib/zod-issues";
 import { readLimited, type BodyLimit } from "./request-body";
 import { isSameOrigin, NOT_FROM_OUR_PAGES } from "./same-origin";
-import { signedInUserId } from "./session";
 
 // The one wrapper every route handler goes through (app/api/**/route.ts). In this order:
 //   1. same origin, for every state-changing method (POST, PUT, PATCH, DELETE): 403 unless the
@@ -235,7 +235,8 @@ function pickParams(names: readonly string[], raw: RawParams = {}): Record<strin
 
 async function whoIsAsking(opts: CallOptions, db: Db): Promise<SessionUser | null> {
   if (opts.user !== undefined) return opts.user;
-  const id = opts.userId !== undefined ? opts.userId : await signedInUserId();
+  // next-auth loads only when a real request needs it (tests and scripts hand in the user).
+  const id = opts.userId !== undefined ? opts.userId : await (await import("./signed-in")).signedInUserId();
   return id ? loadSessionUser(db, id) : null;
 }
 

@@ -1,3 +1,4 @@
+import "server-only";
 // The same-origin check for state-changing requests (POST, PUT, PATCH, DELETE), so another site
 // cannot make a signed-in browser change anything here (cross-site request forgery).
 //

@@ -1,16 +1,10 @@
-import { getServerSession } from "next-auth";
+import "server-only";
 import { redirect } from "next/navigation";
 import { db } from "@/db/setup/client";
 import { loadSessionUser } from "@/db/shop/users";
 import { canReach, homePathFor, type Area } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { authOptions } from "./auth-options";
-
-/** The id in the signed session cookie, or null when nobody is signed in. */
-export async function signedInUserId(): Promise<string | null> {
-  const session = await getServerSession(authOptions);
-  return (session?.user as { id?: string } | undefined)?.id ?? null;
-}
+import { signedInUserId } from "./signed-in";
 
 // The signed-in user, re-read from the database so a deactivated account or changed role
 // takes effect at once. null when not signed in.

@@ -5,7 +5,7 @@ import { useState } from "react";
 import type { z } from "zod";
 import { ApiError, fieldErrors } from "./api-client";
 
-export interface FormMessageState {
+interface FormMessageState {
   error?: string;
   ok?: string;
 }

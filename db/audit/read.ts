@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { AuditEntry } from "@/lib/review/audit-csv";
 import type { AuditFilter, AuditQuery } from "@/lib/review/list-queries";

@@ -1,6 +1,7 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { mayWorkJob } from "@/lib/sync/merge-rules";
+import { mayWorkOn } from "@/lib/sync/merge-rules";
 import type { BenchJobSummary, JobSnapshot, TagLookup } from "@/lib/sync/snapshot";
 import { isOpenForBenchWork, OPEN_FOR_BENCH_WORK, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
@@ -46,7 +47,7 @@ function assignment(user: SessionUser, r: JobRow) {
   return {
     assignedMechanic: r.assigned_mechanic_id ? { id: r.assigned_mechanic_id, name: r.mechanic_name ?? "" } : null,
     assignedToMe: r.assigned_mechanic_id === user.id,
-    mayWork: mayWorkJob(user, { shopId: r.shop_id, assignedMechanicId: r.assigned_mechanic_id }),
+    mayWork: mayWorkOn(user, { shopId: r.shop_id, assignedMechanicId: r.assigned_mechanic_id }),
   };
 }
 

@@ -1,9 +1,10 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "../schema";
 
 // Intake and teardown photos: their bytes are in object storage, their rows here.
 
-export interface NewAttachment {
+interface NewAttachment {
   shopId: string;
   userId: string;
   workOrderId: string;

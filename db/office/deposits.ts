@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import { Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
@@ -35,7 +36,7 @@ export async function attachPaymentIntent(db: Kysely<Database>, depositId: strin
   await db.updateTable("deposits").set({ payment_intent_id: paymentIntentId }).where("id", "=", depositId).where("payment_intent_id", "is", null).execute();
 }
 
-export type PaymentOutcome =
+type PaymentOutcome =
   | { kind: "paid"; depositId: string; shopId: string; workOrderId: string }
   | { kind: "failed"; depositId: string }
   | { kind: "replayed" }

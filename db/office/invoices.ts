@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely, Transaction } from "kysely";
 import { Refusal } from "@/lib/errors";
 import type { Database } from "../schema";
@@ -12,7 +13,7 @@ export async function handOver(db: Kysely<Database>, shopId: string, userId: str
 }
 
 // The final invoice at handover: the approved quote's totals less the deposits paid. One per job.
-export async function createFinalInvoice(trx: Kysely<Database> | Transaction<Database>, shopId: string, userId: string, workOrderId: string) {
+async function createFinalInvoice(trx: Kysely<Database> | Transaction<Database>, shopId: string, userId: string, workOrderId: string) {
   const existing = await trx.selectFrom("invoices").selectAll().where("work_order_id", "=", workOrderId).executeTakeFirst();
   if (existing) return existing;
   const q = await trx

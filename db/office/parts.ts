@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import { partFittedSchema } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
@@ -52,7 +53,7 @@ export async function bikesWithPart(db: Kysely<Database>, shopId: string, code: 
 }
 
 // Steps of the job's pinned procedures, for "which step fitted this part".
-export async function stepsOfJob(db: Kysely<Database>, workOrderId: string) {
+export async function stepsOfWorkOrder(db: Kysely<Database>, workOrderId: string) {
   return db
     .selectFrom("template_steps as s")
     .innerJoin("job_procedures as j", "j.template_version_id", "s.template_version_id")

@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import { quoteTotals } from "@/lib/money/quote-totals";
 import { quoteDraftSchema, type QuoteDraftInput } from "@/lib/office/schemas";
@@ -128,9 +129,6 @@ export async function quoteWithLines(db: Kysely<Database>, shopId: string, quote
   const deposits = await db.selectFrom("deposits").select(DEPOSIT_COLUMNS).where("quote_id", "=", quoteId).orderBy("created_at").execute();
   return { ...q, lines, deposits };
 }
-
-/** A quote with its lines and deposits, as quoteWithLines reads it. */
-export type QuoteView = NonNullable<Awaited<ReturnType<typeof quoteWithLines>>>;
 
 // The quotes of a work order, newest first, each with lines and deposits.
 export async function quotesOfWorkOrder(db: Kysely<Database>, shopId: string, workOrderId: string) {

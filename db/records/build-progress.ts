@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { buildJobView } from "@/lib/bench/job-view";

@@ -1,10 +1,11 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import { checkDynoRunBody, runIssues } from "@/lib/dyno";
 import type { FieldIssue } from "@/lib/errors";
 import { saveDynoRun } from "./dyno";
 import type { Database } from "../schema";
 
-export type DynoImportResult =
+type DynoImportResult =
   | { ok: true; id: string }
   | { ok: false; status: 400; issues: FieldIssue[] }
   | { ok: false; status: 404 };

@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { DynoRunInput, RunWithdrawalInput, StoredDynoRun } from "@/lib/dyno";
 import { appendAudit } from "../audit/append";
@@ -8,7 +9,7 @@ import { workOrdersWithBike } from "../shop/work-orders";
 // Dyno runs by work order. Every query is scoped by the signed-in user's shop.
 
 /** The work order with its bike and customer, or null when it is not this shop's. */
-export async function findDynoJob(db: Kysely<Database>, shopId: string, workOrderId: string) {
+export async function findDynoWorkOrder(db: Kysely<Database>, shopId: string, workOrderId: string) {
   const row = await workOrdersWithBike(db)
     .select([
       "w.id",
@@ -30,7 +31,7 @@ export async function findDynoJob(db: Kysely<Database>, shopId: string, workOrde
 }
 
 /** Work orders a dyno run may be recorded on (on the bench or later), with their run counts. */
-export async function listDynoJobs(db: Kysely<Database>, shopId: string) {
+export async function listDynoWorkOrders(db: Kysely<Database>, shopId: string) {
   return db
     .selectFrom("work_orders as w")
     .innerJoin("bikes as b", "b.id", "w.bike_id")
@@ -147,7 +148,7 @@ export async function saveDynoRun(
   });
 }
 
-export type WithdrawRunResult = { ok: true; runId: string } | { ok: false; status: 404 | 409; reason: string };
+type WithdrawRunResult = { ok: true; runId: string } | { ok: false; status: 404 | 409; reason: string };
 
 /**
  * Withdraws a run of the work order (see lib/dyno/run-withdrawal.ts), with the audit entry, in one

@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";

@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { DecisionInput } from "@/lib/review/decision-input";
@@ -7,7 +8,7 @@ import { appendAudit } from "../audit/append";
 import { latestDecisionOn, latestSignOffOfStage, signOffInShop, stageOutOfTolerance, stageSteps } from "./stage";
 import type { Database } from "../schema";
 
-export type DecideResult =
+type DecideResult =
   | { ok: true; decisionId: string; decision: "approved" | "sent_back"; reopenedStepIds: string[]; accepted: number; changeSeq: string }
   | { ok: false; status: 403 | 404 | 409 | 422; reason: string; issues: Array<{ path: string; message: string }> };
 

@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import { canReach } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";

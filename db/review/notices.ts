@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import { appendAudit } from "../audit/append";
 import { signOffInShop, stageOutOfTolerance, type StageOutOfTolerance } from "./stage";
@@ -7,10 +8,10 @@ import type { Database } from "../schema";
 // Claimed in small batches with SKIP LOCKED so two app instances never send the same notice; a
 // claim older than CLAIM_STALE_MS (an instance died mid-send) is taken over.
 
-export const CLAIM_STALE_MS = 5 * 60_000;
-export const MAX_ATTEMPTS = 5;
+const CLAIM_STALE_MS = 5 * 60_000;
+const MAX_ATTEMPTS = 5;
 
-export interface ClaimedNotice {
+interface ClaimedNotice {
   id: string;
   shopId: string;
   signOffId: string;

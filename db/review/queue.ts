@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { QueueQuery } from "@/lib/review/list-queries";
 import type { Database } from "../schema";

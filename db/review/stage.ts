@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { readingLabelOf } from "@/lib/review/stage-review";
 import type { Database } from "../schema";

@@ -1,5 +1,5 @@
 import type { ColumnType, Generated } from "kysely";
-import type { DefaultTimestamp, Timestamp } from "./columns";
+import type { DefaultTimestamp } from "./columns";
 
 // The append-only audit log (migration 001).
 

@@ -6,7 +6,7 @@ import type { DefaultTimestamp, Json, Numeric, Timestamp } from "./columns";
 
 // What the bench records: operations and the rows they write (migrations 001, 002, 006).
 
-export interface OperationsTable {
+interface OperationsTable {
   id: string;
   seq: Generated<string>;
   shop_id: string;
@@ -22,7 +22,7 @@ export interface OperationsTable {
   received_at: DefaultTimestamp;
 }
 
-export interface StepCompletionsTable {
+interface StepCompletionsTable {
   id: string;
   work_order_id: string;
   step_id: string;
@@ -33,7 +33,7 @@ export interface StepCompletionsTable {
   flag_reason: string | null;
 }
 
-export interface MeasurementsTable {
+interface MeasurementsTable {
   id: string;
   work_order_id: string;
   step_id: string;
@@ -51,7 +51,7 @@ export interface MeasurementsTable {
   received_at: DefaultTimestamp;
 }
 
-export interface TorqueRecordsTable {
+interface TorqueRecordsTable {
   id: string;
   work_order_id: string;
   step_id: string;
@@ -65,7 +65,7 @@ export interface TorqueRecordsTable {
   received_at: DefaultTimestamp;
 }
 
-export interface TimersTable {
+interface TimersTable {
   id: string;
   work_order_id: string;
   step_id: string;
@@ -79,7 +79,7 @@ export interface TimersTable {
   override_reason: string | null;
 }
 
-export interface SignOffsTable {
+interface SignOffsTable {
   id: string;
   work_order_id: string;
   job_procedure_id: string;
@@ -89,7 +89,7 @@ export interface SignOffsTable {
   received_at: DefaultTimestamp;
 }
 
-export interface PartsFittedTable {
+interface PartsFittedTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string;
@@ -107,7 +107,7 @@ export interface PartsFittedTable {
 }
 
 /** View: the current reading of each (job, spec, reading index) — latest stamp, not superseded (migration 002). */
-export interface CurrentMeasurementsView {
+interface CurrentMeasurementsView {
   id: string;
   work_order_id: string;
   step_id: string;

@@ -2,11 +2,11 @@ import type { ColumnType, Generated } from "kysely";
 import type { PowerCorrectionStandard } from "@/lib/calc/power-correction";
 import type { BoostUnit } from "@/lib/dyno/run-input";
 import type { ShopTorqueUnit } from "@/lib/shop-units";
-import type { DateOnly, DefaultTimestamp, Numeric, Timestamp } from "./columns";
+import type { DateOnly, DefaultTimestamp, Numeric } from "./columns";
 
 // Table types for dyno runs (migrations 2026_12_02_004_dyno, 2026_12_02_007_dyno_withdrawals).
 
-export interface DynoRunsTable {
+interface DynoRunsTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string;
@@ -28,7 +28,7 @@ export interface DynoRunsTable {
   withdrawn_reason: string | null;
 }
 
-export interface DynoPointsTable {
+interface DynoPointsTable {
   run_id: string;
   position: number;
   rpm: Numeric;

@@ -1,5 +1,5 @@
-import type { Insertable, Selectable } from "kysely";
-import type { AuditLogTable, AuditTables } from "./audit";
+import type { Selectable } from "kysely";
+import type { AuditTables } from "./audit";
 import type { BenchTables } from "./bench";
 import type { DynoTables } from "./dyno";
 import type { OfficeTables } from "./office";
@@ -20,4 +20,3 @@ export interface Database
     AuditTables {}
 
 export type User = Selectable<UsersTable>;
-export type NewAuditEntry = Insertable<AuditLogTable>;

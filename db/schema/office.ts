@@ -4,7 +4,7 @@ import type { DefaultTimestamp, Timestamp } from "./columns";
 
 // Table types for the office side (migration 2026_12_02_003_office).
 
-export interface WorkOrderNotesTable {
+interface WorkOrderNotesTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string;
@@ -14,7 +14,7 @@ export interface WorkOrderNotesTable {
   created_at: DefaultTimestamp;
 }
 
-export interface QuotesTable {
+interface QuotesTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string;
@@ -34,7 +34,7 @@ export interface QuotesTable {
   approved_by: string | null;
 }
 
-export interface QuoteLinesTable {
+interface QuoteLinesTable {
   id: Generated<string>;
   quote_id: string;
   position: number;
@@ -46,7 +46,7 @@ export interface QuoteLinesTable {
   line_total_minor: number;
 }
 
-export interface DepositsTable {
+interface DepositsTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string;
@@ -59,14 +59,14 @@ export interface DepositsTable {
   paid_at: Timestamp | null;
 }
 
-export interface PaymentEventsTable {
+interface PaymentEventsTable {
   event_id: string;
   type: string;
   payment_intent_id: string | null;
   received_at: DefaultTimestamp;
 }
 
-export interface OutboundEmailsTable {
+interface OutboundEmailsTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string | null;
@@ -78,7 +78,7 @@ export interface OutboundEmailsTable {
   sent_at: DefaultTimestamp;
 }
 
-export interface InvoicesTable {
+interface InvoicesTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string;

@@ -4,7 +4,7 @@ import type { DefaultTimestamp, Timestamp } from "./columns";
 
 // Table types for supervisor review (review_decisions: migration 001; the rest: 2026_12_02_005_review).
 
-export interface ReviewDecisionsTable {
+interface ReviewDecisionsTable {
   id: Generated<string>;
   sign_off_id: string;
   decision: ReviewDecision;
@@ -17,7 +17,7 @@ export interface ReviewDecisionsTable {
 }
 
 /** A supervisor's written acceptance of an out-of-tolerance reading (append-only). */
-export interface ReadingAcceptancesTable {
+interface ReadingAcceptancesTable {
   id: Generated<string>;
   shop_id: string;
   measurement_id: string;
@@ -28,7 +28,7 @@ export interface ReadingAcceptancesTable {
 }
 
 /** The e-mail intent a sign-off leaves (filled by a trigger on sign_offs). */
-export interface ReviewNoticesTable {
+interface ReviewNoticesTable {
   id: Generated<string>;
   shop_id: string;
   sign_off_id: string;

@@ -1,11 +1,11 @@
 import type { Generated } from "kysely";
 import type { Role } from "@/lib/auth/roles";
 import type { ShopTorqueUnit } from "@/lib/shop-units";
-import type { DefaultTimestamp, Timestamp } from "./columns";
+import type { DefaultTimestamp } from "./columns";
 
 // The shop, its people and bikes (migration 2026_12_01_001_foundation).
 
-export interface ShopsTable {
+interface ShopsTable {
   id: Generated<string>;
   name: string;
   slug: string;
@@ -39,7 +39,7 @@ export interface UsersTable {
   created_at: DefaultTimestamp;
 }
 
-export interface BikesTable {
+interface BikesTable {
   id: Generated<string>;
   shop_id: string;
   customer_id: string;
@@ -55,7 +55,7 @@ export interface BikesTable {
   created_at: DefaultTimestamp;
 }
 
-export interface SignInAttemptsTable {
+interface SignInAttemptsTable {
   id: Generated<string>;
   key: string;
   succeeded: boolean;

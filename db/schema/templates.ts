@@ -2,11 +2,11 @@ import type { ColumnType, Generated } from "kysely";
 import type { TorquePassSpec } from "@/lib/calc/torque-stages";
 import type { LengthUnit, TorqueUnit } from "@/lib/calc/units";
 import type { BoltPattern, CautionKind, MeasurementGeometry } from "@/lib/procedures/template-schema";
-import type { DefaultTimestamp, Json, Numeric, Timestamp } from "./columns";
+import type { DefaultTimestamp, Json, Numeric } from "./columns";
 
 // Procedure templates: versions, steps and their specs (migration 2026_12_01_001_foundation).
 
-export interface ProcedureTemplatesTable {
+interface ProcedureTemplatesTable {
   id: Generated<string>;
   shop_id: string;
   key: string;
@@ -14,7 +14,7 @@ export interface ProcedureTemplatesTable {
   created_at: DefaultTimestamp;
 }
 
-export interface TemplateVersionsTable {
+interface TemplateVersionsTable {
   id: Generated<string>;
   template_id: string;
   version: number;
@@ -25,7 +25,7 @@ export interface TemplateVersionsTable {
   created_at: DefaultTimestamp;
 }
 
-export interface TemplateStepsTable {
+interface TemplateStepsTable {
   id: Generated<string>;
   template_version_id: string;
   stage_key: string;
@@ -40,7 +40,7 @@ export interface TemplateStepsTable {
   waits_for_step_key: string | null;
 }
 
-export interface TorqueSpecsTable {
+interface TorqueSpecsTable {
   id: Generated<string>;
   step_id: string;
   label: string;
@@ -54,7 +54,7 @@ export interface TorqueSpecsTable {
   torque_to_yield: Generated<boolean>;
 }
 
-export interface MeasurementSpecsTable {
+interface MeasurementSpecsTable {
   id: Generated<string>;
   step_id: string;
   key: string;
@@ -67,7 +67,7 @@ export interface MeasurementSpecsTable {
   geometry: MeasurementGeometry | null;
 }
 
-export interface TimerSpecsTable {
+interface TimerSpecsTable {
   id: Generated<string>;
   step_id: string;
   label: string;

@@ -19,7 +19,7 @@ export interface WorkOrdersTable {
   closed_at: Timestamp | null;
 }
 
-export interface WorkOrderTransitionsTable {
+interface WorkOrderTransitionsTable {
   id: Generated<string>;
   work_order_id: string;
   from_status: WorkOrderStatus | null;
@@ -29,14 +29,14 @@ export interface WorkOrderTransitionsTable {
   at: DefaultTimestamp;
 }
 
-export interface JobProceduresTable {
+interface JobProceduresTable {
   id: Generated<string>;
   work_order_id: string;
   template_version_id: string;
   position: number;
 }
 
-export interface AttachmentsTable {
+interface AttachmentsTable {
   id: Generated<string>;
   shop_id: string;
   work_order_id: string | null;

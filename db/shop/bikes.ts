@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import { bikeSchema, type BikeInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
@@ -6,7 +7,7 @@ import { containsPattern } from "./search";
 
 // The next free tag in the shop's series (e.g. GSW-0006): the prefix of its existing tags, or
 // three letters of the shop's slug for a shop with none yet.
-export async function nextTagCode(db: Kysely<Database>, shopId: string): Promise<string> {
+async function nextTagCode(db: Kysely<Database>, shopId: string): Promise<string> {
   const tags = await db.selectFrom("bikes").select("tag_code").where("shop_id", "=", shopId).execute();
   let prefix = "";
   let max = 0;

@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { CustomerInput } from "@/lib/office/schemas";
 import { customerSchema } from "@/lib/office/schemas";

@@ -1,3 +1,4 @@
+import "server-only";
 import bcrypt from "bcryptjs";
 import { sql, type Kysely } from "kysely";
 import { SIGN_IN_LIMIT } from "@/lib/auth/credentials";

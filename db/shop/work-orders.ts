@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { intakeSchema, type IntakeInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";

@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { serverStamp, type Change } from "@/lib/sync/changes";
 import { SYNC_LIMITS, type Operation } from "@/lib/sync/operations";
@@ -12,7 +13,7 @@ import type { Database } from "../schema";
 type Db = Kysely<Database> | Transaction<Database>;
 
 
-export interface ChangePage {
+interface ChangePage {
   changes: Change[];
   cursor: string;
   more: boolean;

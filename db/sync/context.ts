@@ -1,6 +1,7 @@
+import "server-only";
 import { sql, type Kysely, type Transaction } from "kysely";
 import type {
-  JobFacts,
+  WorkOrderFacts,
   MeasurementSpecFacts,
   MergeState,
   SendBackFacts,
@@ -9,7 +10,7 @@ import type {
   TorqueSpecFacts,
 } from "@/lib/sync/merge-rules";
 import { emptyMergeState } from "@/lib/sync/merge-rules";
-import { partSerialOnJob } from "@/lib/sync/parts";
+import { partSerialOnWorkOrder } from "@/lib/sync/parts";
 import type { Operation } from "@/lib/sync/operations";
 import type { ReadingSpec } from "@/lib/sync/readings";
 import { expectedReadings, torquePassCount } from "@/lib/procedures/spec-counts";
@@ -19,7 +20,7 @@ import type { Database } from "../schema";
 
 type Db = Kysely<Database> | Transaction<Database>;
 
-export interface LoadedJob extends JobFacts {
+export interface LoadedWorkOrder extends WorkOrderFacts {
   bikeId: string;
   measurementSpecs: Map<string, MeasurementSpecFacts & ReadingSpec>;
 }
@@ -28,8 +29,8 @@ export interface LoadedJob extends JobFacts {
 const anyId = (ids: Iterable<string>) => sql<string>`ANY(${[...ids]}::uuid[])`;
 
 /** The named work orders (any shop: a job of another shop comes back without its procedures, to be refused). */
-export async function loadJobFacts(db: Db, shopId: string, jobIds: readonly string[]): Promise<Map<string, LoadedJob>> {
-  const out = new Map<string, LoadedJob>();
+export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonly string[]): Promise<Map<string, LoadedWorkOrder>> {
+  const out = new Map<string, LoadedWorkOrder>();
   if (!jobIds.length) return out;
   const jobs = await db.selectFrom("work_orders").select(["id", "shop_id", "bike_id", "number", "status", "assigned_mechanic_id"]).where("id", "=", anyId(jobIds)).execute();
   for (const j of jobs) {
@@ -169,7 +170,7 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
   for (const a of attachments) state.attachmentIds.add(a.id);
   for (const p of parts) state.partIds.add(p.id);
   for (const p of serials) {
-    const key = partSerialOnJob(p.work_order_id, p.part_number, p.serial!);
+    const key = partSerialOnWorkOrder(p.work_order_id, p.part_number, p.serial!);
     if (!state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.step_id });
   }
   return state;

@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { SyncResponse } from "@/lib/sync/changes";
@@ -6,7 +7,7 @@ import type { Operation, SyncBatch } from "@/lib/sync/operations";
 import type { AuditEntry } from "../audit/append";
 import type { Database } from "../schema";
 import { changesSince } from "./changes";
-import { existingOperations, loadJobFacts, loadMergeState } from "./context";
+import { existingOperations, loadWorkOrderFacts, loadMergeState } from "./context";
 import { appendAuditBatch, lockShopForSync, refusalsOnRecord, writeKept, type KeptOperation } from "./write";
 
 /**
@@ -52,7 +53,7 @@ export async function mergeBatch(
     }
 
     const ordered = sortByStamp(fresh);
-    const jobs = await loadJobFacts(trx, actor.shopId, [...new Set(ordered.map((o) => o.workOrderId))]);
+    const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...new Set(ordered.map((o) => o.workOrderId))]);
     const state = await loadMergeState(trx, ordered);
 
     let kept: KeptOperation[] = [];

@@ -1,9 +1,10 @@
+import "server-only";
 import { sql, type Transaction } from "kysely";
 import type { Decision, MergeState } from "@/lib/sync/merge-rules";
 import type { Operation, OperationKind } from "@/lib/sync/operations";
 import { readingVerdict } from "@/lib/sync/readings";
 import type { AuditEntry } from "../audit/append";
-import type { LoadedJob } from "./context";
+import type { LoadedWorkOrder } from "./context";
 import type { Database } from "../schema";
 
 // Set-based writes for the merge: every statement takes all its rows as one JSON array
@@ -64,7 +65,7 @@ export async function writeKept(
   shopId: string,
   actorId: string,
   kept: readonly KeptOperation[],
-  jobs: ReadonlyMap<string, LoadedJob>,
+  jobs: ReadonlyMap<string, LoadedWorkOrder>,
   state: MergeState,
 ): Promise<Set<string>> {
   if (!kept.length) return new Set();

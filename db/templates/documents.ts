@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import { templateDocumentSchema, type TemplateDocument, type TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import { createTemplateVersion } from "./versions";

@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely, Transaction } from "kysely";
 import { templateDocumentSchema, type TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import type { Database } from "../schema";

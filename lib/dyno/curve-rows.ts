@@ -13,9 +13,9 @@ import { numberFromText } from "./number-text";
 export const CURVE_TORQUE_UNITS = SHOP_TORQUE_UNITS;
 export type CurveTorqueUnit = ShopTorqueUnit;
 
-export const MIN_CURVE_POINTS = 2;
-export const MAX_CURVE_POINTS = 2000;
-export const MAX_RPM = 25000;
+const MIN_CURVE_POINTS = 2;
+const MAX_CURVE_POINTS = 2000;
+const MAX_RPM = 25000;
 
 /** A problem in one cell (or one row when `column` is the whole row). */
 export interface CurveRowError {
@@ -26,12 +26,12 @@ export interface CurveRowError {
 }
 
 /** One row: rpm and torque (in the curve's unit). */
-export const curveRowSchema = z.object({
+const curveRowSchema = z.object({
   rpm: numberFromText("Engine speed", 1, MAX_RPM, "rpm", { quoteBadValue: true }),
   torque: numberFromText("Torque", 0, 5000, "in the curve's unit", { quoteBadValue: true }),
 });
 
-export interface RawCurveRow {
+interface RawCurveRow {
   /** Row number to report (file line or table row). */
   row: number;
   rpm: string | number;
@@ -39,12 +39,12 @@ export interface RawCurveRow {
 }
 
 /** Names of the columns as the user sees them, for error messages. */
-export interface CurveColumnNames {
+interface CurveColumnNames {
   rpm: string;
   torque: string;
 }
 
-export type CurveRowsResult =
+type CurveRowsResult =
   | { ok: true; points: Array<{ rpm: number; torque: number; torqueNm: number }> }
   | { ok: false; errors: CurveRowError[] };
 

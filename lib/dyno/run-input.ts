@@ -13,7 +13,7 @@ import { CURVE_TORQUE_UNITS, validateCurveRows, type CurveRowError, type CurveTo
 export const BOOST_UNITS = ["psi", "kPa", "bar"] as const;
 export type BoostUnit = (typeof BOOST_UNITS)[number];
 
-export const dynoRunFieldsSchema = z.object({
+const dynoRunFieldsSchema = z.object({
   label: z.string().trim().min(1, "Name the run (e.g. “Baseline 7 psi”)").max(80, "Run name: at most 80 characters"),
   ranOn: z.iso.date({ message: "Date must be a date (YYYY-MM-DD)" }),
   boostTarget: numberFromText("Boost target", 0, 60, "(gauge)"),
@@ -36,9 +36,9 @@ const curveSchema = z.discriminatedUnion("source", [
   z.object({ source: z.literal("csv"), fileName: z.string().max(200).default(""), text: z.string() }),
 ]);
 
-export const dynoRunBodySchema = dynoRunFieldsSchema.extend({ curve: curveSchema });
+const dynoRunBodySchema = dynoRunFieldsSchema.extend({ curve: curveSchema });
 
-export type DynoRunFields = z.output<typeof dynoRunFieldsSchema>;
+type DynoRunFields = z.output<typeof dynoRunFieldsSchema>;
 
 /** A checked run ready to store. */
 export interface DynoRunInput extends DynoRunFields {
@@ -47,7 +47,7 @@ export interface DynoRunInput extends DynoRunFields {
   points: Array<{ rpm: number; torque: number; torqueNm: number }>;
 }
 
-export type DynoRunCheck =
+type DynoRunCheck =
   | { ok: true; run: DynoRunInput }
   | { ok: false; fieldErrors: Record<string, string>; curveErrors: CurveRowError[] };
 

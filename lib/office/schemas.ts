@@ -55,7 +55,7 @@ const optionalInt = (label: string, min: number, max: number) =>
     .nullable()
     .default(null);
 
-export const TAG_CODE_PATTERN = /^[A-Z0-9][A-Z0-9-]{2,19}$/;
+const TAG_CODE_PATTERN = /^[A-Z0-9][A-Z0-9-]{2,19}$/;
 
 export const bikeSchema = z.object({
   customerId: z.uuid("choose the owner"),
@@ -101,7 +101,7 @@ export const transitionSchema = z.object({
 
 export const assignSchema = z.object({ mechanicId: z.uuid("choose a mechanic").nullable() });
 
-export const NOTE_KINDS = ["intake", "teardown", "general"] as const;
+const NOTE_KINDS = ["intake", "teardown", "general"] as const;
 export type NoteKind = (typeof NOTE_KINDS)[number];
 
 export const noteSchema = z.object({
@@ -109,15 +109,14 @@ export const noteSchema = z.object({
   body: z.string().trim().min(2, "write the finding").max(4000),
 });
 
-export const QUOTE_LINE_KINDS = ["part", "labour"] as const;
+const QUOTE_LINE_KINDS = ["part", "labour"] as const;
 export type QuoteLineKind = (typeof QUOTE_LINE_KINDS)[number];
 /** A quote is drafted, sent to the customer, approved by them, or replaced by a newer version. */
-export const QUOTE_STATUSES = ["draft", "sent", "approved", "superseded"] as const;
-export type QuoteStatus = (typeof QUOTE_STATUSES)[number];
-export const DEPOSIT_STATUSES = ["pending", "paid", "failed"] as const;
-export type DepositStatus = (typeof DEPOSIT_STATUSES)[number];
+export type QuoteStatus = "draft" | "sent" | "approved" | "superseded";
+/** A deposit waits for the payment service, is paid, or failed. */
+export type DepositStatus = "pending" | "paid" | "failed";
 
-export const quoteLineSchema = z.object({
+const quoteLineSchema = z.object({
   kind: z.enum(QUOTE_LINE_KINDS, "choose part or labour"),
   description: z.string().trim().min(2, "describe the line").max(200),
   partNumber: optionalText(60),

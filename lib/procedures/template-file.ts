@@ -9,7 +9,7 @@ import { templateDocumentSchema, type TemplateDocument } from "./template-schema
 // in the file, e.g. "stages[0].steps[2].torque[0].unit" or "(file)", and message); the caller
 // imports all of them in one transaction or none.
 
-export const templateBundleSchema = z
+const templateBundleSchema = z
   .object({
     format: z.literal("benchtag-template-bundle"),
     formatVersion: z.literal(1),
@@ -23,7 +23,7 @@ export const templateBundleSchema = z
     });
   });
 
-export type TemplateFileResult = { ok: true; documents: TemplateDocument[] } | { ok: false; issues: FieldIssue[] };
+type TemplateFileResult = { ok: true; documents: TemplateDocument[] } | { ok: false; issues: FieldIssue[] };
 
 export const MAX_TEMPLATE_FILE_BYTES = 1_000_000;
 

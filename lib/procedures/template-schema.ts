@@ -43,7 +43,7 @@ export const torqueSpecSchema = z
   })
   .strict();
 
-export const measurementSpecSchema = z
+const measurementSpecSchema = z
   .object({
     key,
     label: z.string().trim().min(1).max(120),
@@ -61,7 +61,7 @@ export const measurementSpecSchema = z
     path: ["nominal"],
   });
 
-export const timerSpecSchema = z
+const timerSpecSchema = z
   .object({
     label: z.string().trim().min(1).max(120),
     durationS: z.number().int().positive().max(7 * 24 * 3600),
@@ -69,7 +69,7 @@ export const timerSpecSchema = z
   })
   .strict();
 
-export const stepSchema = z
+const stepSchema = z
   .object({
     key,
     title: z.string().trim().min(1).max(160),
@@ -82,7 +82,7 @@ export const stepSchema = z
   })
   .strict();
 
-export const stageSchema = z
+const stageSchema = z
   .object({
     key,
     title: z.string().trim().min(1).max(120),
@@ -127,6 +127,3 @@ export const templateDocumentSchema = z
 
 export type TemplateDocument = z.output<typeof templateDocumentSchema>;
 export type TemplateDocumentInput = z.input<typeof templateDocumentSchema>;
-export type TemplateStep = z.output<typeof stepSchema>;
-export type TorqueSpecDoc = z.output<typeof torqueSpecSchema>;
-export type MeasurementSpecDoc = z.output<typeof measurementSpecSchema>;

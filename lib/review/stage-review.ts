@@ -15,12 +15,12 @@ import type { JobSnapshot } from "@/lib/sync/snapshot";
 type State = JobSnapshot["state"];
 type Step = JobSnapshot["procedures"][number]["stages"][number]["steps"][number];
 
-export interface Receipt {
+interface Receipt {
   receivedAt: string;
   deviceId: string;
 }
 
-export interface AcceptanceFact {
+interface AcceptanceFact {
   measurementId: string;
   decisionId: string;
   justification: string;
@@ -39,7 +39,7 @@ export interface DecisionFact {
   seq: string;
 }
 
-export interface SignOffFact {
+interface SignOffFact {
   id: string;
   jobProcedureId: string;
   stageKey: string;
@@ -87,7 +87,7 @@ export interface ReadingLine {
   acceptance: (Omit<AcceptanceFact, "measurementId" | "acceptedBy"> & { by: Person }) | null;
 }
 
-export interface SpotView {
+interface SpotView {
   readingIndex: number;
   label: string;
   current: ReadingLine | null;

@@ -13,7 +13,7 @@ import { compareStamps } from "./hlc";
 export const VERDICTS = ["in", "low", "high"] as const satisfies readonly ToleranceStatus[];
 export type Verdict = (typeof VERDICTS)[number];
 
-export interface ReadingLike {
+interface ReadingLike {
   id: string;
   workOrderId?: string;
   specId: string;

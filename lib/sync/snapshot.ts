@@ -14,7 +14,7 @@ const id = z.uuid();
 const time = z.iso.datetime({ offset: true });
 const person = z.object({ id, name: z.string() });
 
-export const benchBikeSchema = z.object({
+const benchBikeSchema = z.object({
   id,
   make: z.string(),
   model: z.string(),
@@ -25,7 +25,7 @@ export const benchBikeSchema = z.object({
 });
 
 /** One line of GET /api/bench/jobs. */
-export const benchJobSummarySchema = z.object({
+const benchJobSummarySchema = z.object({
   id,
   number: z.number().int(),
   title: z.string(),
@@ -33,7 +33,7 @@ export const benchJobSummarySchema = z.object({
   statusLabel: z.string(),
   assignedMechanic: person.nullable(),
   assignedToMe: z.boolean(),
-  /** Whether the signed-in user may record work on it (see lib/sync/merge-rules mayWorkJob). */
+  /** Whether the signed-in user may record work on it (see lib/sync/merge-rules mayWorkOn). */
   mayWork: z.boolean(),
   bike: benchBikeSchema,
   updatedAt: time,
@@ -47,7 +47,7 @@ export const tagLookupSchema = z.object({
   bike: z.object({ id, tagCode: z.string(), make: z.string(), model: z.string() }),
 });
 
-export const torqueSpecSnapshotSchema = z.object({
+const torqueSpecSnapshotSchema = z.object({
   id,
   label: z.string(),
   finalValue: z.number(),
@@ -60,7 +60,7 @@ export const torqueSpecSnapshotSchema = z.object({
   torqueToYield: z.boolean(),
 });
 
-export const measurementSpecSnapshotSchema = z.object({
+const measurementSpecSnapshotSchema = z.object({
   id,
   key: z.string(),
   label: z.string(),
@@ -72,14 +72,14 @@ export const measurementSpecSnapshotSchema = z.object({
   geometry: z.enum(MEASUREMENT_GEOMETRIES).nullable(),
 });
 
-export const timerSpecSnapshotSchema = z.object({
+const timerSpecSnapshotSchema = z.object({
   id,
   label: z.string(),
   durationS: z.number().int(),
   blocksStepKey: z.string().nullable(),
 });
 
-export const stepSnapshotSchema = z.object({
+const stepSnapshotSchema = z.object({
   id,
   key: z.string(),
   title: z.string(),
@@ -93,14 +93,14 @@ export const stepSnapshotSchema = z.object({
   timerSpecs: z.array(timerSpecSnapshotSchema),
 });
 
-export const stageSnapshotSchema = z.object({
+const stageSnapshotSchema = z.object({
   key: z.string(),
   title: z.string(),
   position: z.number().int(),
   steps: z.array(stepSnapshotSchema),
 });
 
-export const procedureSnapshotSchema = z.object({
+const procedureSnapshotSchema = z.object({
   jobProcedureId: id,
   position: z.number().int(),
   templateVersionId: id,
@@ -111,7 +111,7 @@ export const procedureSnapshotSchema = z.object({
   stages: z.array(stageSnapshotSchema),
 });
 
-export const completionSnapshotSchema = z.object({
+const completionSnapshotSchema = z.object({
   id,
   stepId: id,
   completedBy: id,
@@ -122,7 +122,7 @@ export const completionSnapshotSchema = z.object({
   seq: cursorSchema,
 });
 
-export const readingSnapshotSchema = z.object({
+const readingSnapshotSchema = z.object({
   id,
   stepId: id,
   specId: id,
@@ -142,7 +142,7 @@ export const readingSnapshotSchema = z.object({
   flagReason: z.string().nullable(),
 });
 
-export const torqueRecordSnapshotSchema = z.object({
+const torqueRecordSnapshotSchema = z.object({
   id,
   stepId: id,
   torqueSpecId: id,
@@ -154,7 +154,7 @@ export const torqueRecordSnapshotSchema = z.object({
   deviceTime: time,
 });
 
-export const timerSnapshotSchema = z.object({
+const timerSnapshotSchema = z.object({
   id,
   stepId: id,
   timerSpecId: id.nullable(),
@@ -167,7 +167,7 @@ export const timerSnapshotSchema = z.object({
   overrideReason: z.string().nullable(),
 });
 
-export const signOffSnapshotSchema = z.object({
+const signOffSnapshotSchema = z.object({
   id,
   jobProcedureId: id,
   stageKey: z.string(),
@@ -178,7 +178,7 @@ export const signOffSnapshotSchema = z.object({
 });
 
 /** The latest decision on each sign-off. */
-export const reviewDecisionSnapshotSchema = z.object({
+const reviewDecisionSnapshotSchema = z.object({
   id,
   signOffId: id,
   jobProcedureId: id,
@@ -191,7 +191,7 @@ export const reviewDecisionSnapshotSchema = z.object({
   seq: cursorSchema,
 });
 
-export const photoSnapshotSchema = z.object({
+const photoSnapshotSchema = z.object({
   id,
   stepId: id.nullable(),
   contentType: z.string(),
@@ -202,7 +202,7 @@ export const photoSnapshotSchema = z.object({
 });
 
 /** A part fitted to the job: from the bench (`part.fitted`, with any flag) or from the office (no step, perhaps). */
-export const partSnapshotSchema = z.object({
+const partSnapshotSchema = z.object({
   id,
   stepId: id.nullable(),
   partNumber: z.string(),
@@ -253,6 +253,5 @@ export const jobSnapshotSchema = z.object({
 });
 
 export type BenchJobSummary = z.output<typeof benchJobSummarySchema>;
-export type BenchJobList = z.output<typeof benchJobListSchema>;
 export type TagLookup = z.output<typeof tagLookupSchema>;
 export type JobSnapshot = z.output<typeof jobSnapshotSchema>;

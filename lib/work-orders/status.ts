@@ -54,12 +54,12 @@ export const OPEN_FOR_BENCH_WORK = ["in_build", "in_review", "on_dyno"] as const
 /** Closed: the record is finished (handed over) or abandoned (cancelled); nothing more happens. */
 export const CLOSED_STATUSES = ["handed_over", "cancelled"] as const satisfies readonly WorkOrderStatus[];
 /** Being built: the customer sees the build's progress (steps and stages) while in these. */
-export const BEING_BUILT = ["in_build", "in_review"] as const satisfies readonly WorkOrderStatus[];
+const BEING_BUILT = ["in_build", "in_review"] as const satisfies readonly WorkOrderStatus[];
 /** Dyno runs can be recorded and read: from the build on, the handed-over record included. */
 export const DYNO_STATUSES = ["in_build", "in_review", "on_dyno", "ready", "handed_over"] as const satisfies readonly WorkOrderStatus[];
 
 /** A quote may be written (or revised) until the customer approves one. */
-export const QUOTABLE = ["booked_in", "inspected", "quoted"] as const satisfies readonly WorkOrderStatus[];
+const QUOTABLE = ["booked_in", "inspected", "quoted"] as const satisfies readonly WorkOrderStatus[];
 
 export function isQuotable(status: WorkOrderStatus): boolean {
   return (QUOTABLE as readonly WorkOrderStatus[]).includes(status);

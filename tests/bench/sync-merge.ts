@@ -1,5 +1,5 @@
 /**
- * Sync merge benchmark: `npx tsx tests/bench/sync-merge.ts`
+ * Sync merge benchmark: `npx tsx --conditions=react-server tests/bench/sync-merge.ts` (server modules load only under that condition)
  *
  * Uses the test cluster (db/scripts/pg.sh start test) and a throwaway database, migrated, with a
  * fixture shop. Measures:

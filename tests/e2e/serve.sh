@@ -8,7 +8,7 @@ env -u DATABASE_URL bash db/scripts/pg.sh start test
 export DATABASE_URL="${E2E_DATABASE_URL:-$(bash db/scripts/pg.sh url test)/benchtag_e2e}"
 npx tsx db/setup/cli/reset-database.ts
 npx tsx db/setup/cli/migrate.ts
-npx tsx db/setup/cli/seed.ts
+npx tsx --conditions=react-server db/setup/cli/seed.ts
 port=${E2E_PORT:-3100}
 # Local fakes (maildev, s3rver, payments) and the app pointed at them; the webhook URL registered.
 bash tests/fakes/start-fakes.sh

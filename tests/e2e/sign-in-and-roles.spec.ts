@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { DEMO_PASSWORD } from "@/db/seed/demo-shop";
+import { DEMO_PASSWORD } from "@/db/seed/demo-people";
 import { demoUser, signIn } from "./support/demo-users";
 
 const landings = [

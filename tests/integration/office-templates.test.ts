@@ -41,6 +41,7 @@ describe("template export and import", () => {
   });
 
   it("names the path and the problem for a bad file", () => {
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a deliberately broken document
     const bad = structuredClone(turboKitTemplate) as Record<string, any>;
     bad.stages[1].steps[0].torque[0].unit = "ft-lb";
     bad.stages[0].steps[1].measurements[0].min = 2000;
@@ -59,6 +60,7 @@ describe("template export and import", () => {
   it("imports a bundle all or nothing: one bad template leaves nothing written", async () => {
     const fx = await createShopFixture(db);
     const before = [await count("procedure_templates"), await count("template_versions"), await count("template_steps")];
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a deliberately broken document
     const broken = structuredClone(firstStartTemplate) as Record<string, any>;
     broken.stages[1].steps[1].timer.blocksStepKey = "no-such-step";
     const bundle = { format: "benchtag-template-bundle", formatVersion: 1, templates: [turboKitTemplate, broken] };

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { getJobSnapshot } from "@/db/bench/jobs";
-import { loadJobFacts } from "@/db/sync/context";
+import { loadWorkOrderFacts } from "@/db/sync/context";
 import { buildJobView, readingCount } from "@/lib/bench/job-view";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { createShopFixture } from "./support/shop-fixture";
@@ -15,7 +15,7 @@ describe("server and tablet count the same readings and passes", () => {
   it("for every measurement and torque spec pinned on a job", async () => {
     const fx = await createShopFixture(db);
     const mech: SessionUser = { ...fx.users.mechanic, customerId: null };
-    const facts = (await loadJobFacts(db, fx.shopId, [fx.workOrderId])).get(fx.workOrderId)!;
+    const facts = (await loadWorkOrderFacts(db, fx.shopId, [fx.workOrderId])).get(fx.workOrderId)!;
     const snapshot = (await getJobSnapshot(db, mech, fx.workOrderId))!;
     const view = buildJobView(snapshot, [], Date.now());
     const steps = view.steps;

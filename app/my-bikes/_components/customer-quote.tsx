@@ -8,13 +8,11 @@ import { api } from "@/app/ui/api-client";
 import type { CustomerQuoteView } from "@/db/office/quotes";
 import { buttonClass, FormMessage } from "@/app/ui/form-field";
 
-/** The quote as the customer's page reads it (db/office/quotes.ts). */
-export type CustomerQuoteData = CustomerQuoteView;
 
 const qty = (h: number) => (h % 100 === 0 ? String(h / 100) : (h / 100).toFixed(2));
 
 // The customer's view of a quote: the lines, the totals, approve, then pay the deposit.
-export function CustomerQuote({ quote }: { quote: CustomerQuoteData }) {
+export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
   const open = quote.deposits.find((d) => d.status === "pending" || d.status === "paid");

@@ -5,7 +5,7 @@ import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { db } from "@/db/setup/client";
-import { findDynoJob, listDynoRuns } from "@/db/records/dyno";
+import { findDynoWorkOrder, listDynoRuns } from "@/db/records/dyno";
 import { canReach } from "@/lib/auth/roles";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
 import { isUuid } from "@/lib/ids";
@@ -18,7 +18,7 @@ export default async function JobDynoPage({ params }: { params: Promise<{ id: st
   const user = await requirePageArea("dyno");
   const { id } = await params;
   if (!isUuid(id)) notFound();
-  const job = await findDynoJob(db(), user.shopId, id);
+  const job = await findDynoWorkOrder(db(), user.shopId, id);
   if (!job) notFound();
   const all = await listDynoRuns(db(), user.shopId, id);
   const runs = countingRuns(all);

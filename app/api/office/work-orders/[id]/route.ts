@@ -1,6 +1,6 @@
 import { idParam, route } from "@/app/_server/route";
 import { invoiceOf } from "@/db/office/invoices";
-import { stepsOfJob } from "@/db/office/parts";
+import { stepsOfWorkOrder } from "@/db/office/parts";
 import { quotesOfWorkOrder } from "@/db/office/quotes";
 import { mechanicsOf, workOrderDetail } from "@/db/shop/work-orders";
 import { latestTemplateVersions } from "@/db/templates/versions";
@@ -17,7 +17,7 @@ export const GET = route({ access: { area: "office" }, params: ["id"] }, async (
     invoiceOf(db, user.shopId, id),
     mechanicsOf(db, user.shopId),
     latestTemplateVersions(db, user.shopId),
-    stepsOfJob(db, id),
+    stepsOfWorkOrder(db, id),
   ]);
   return { workOrder: detail, next: allowedNextStatuses(detail.status), quotes, invoice, mechanics, templates, steps };
 });

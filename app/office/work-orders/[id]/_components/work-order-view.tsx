@@ -2,7 +2,7 @@
 
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { STATUS_LABELS } from "@/lib/work-orders/status";
 import { dayTime } from "@/app/ui/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { BuildProgressPanel } from "./build-progress-panel";
