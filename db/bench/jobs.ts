@@ -5,6 +5,7 @@ import { mayWorkOn } from "@/lib/sync/merge-rules";
 import type { BenchJobSummary, JobSnapshot, TagLookup } from "@/lib/sync/snapshot";
 import { isOpenForBenchWork, OPEN_FOR_BENCH_WORK, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
+import { torqueSpecOfRow } from "../templates/documents";
 import { shopCursor } from "../sync/changes";
 
 // Read queries for the bench (the tablets' IndexedDB is filled from these). Every query is scoped
@@ -197,18 +198,7 @@ export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jo
               cautions: s.cautions,
               requiresPhoto: s.requires_photo,
               waitsForStepKey: s.waits_for_step_key,
-              torqueSpecs: (torqueBy.get(s.id) ?? []).map((t) => ({
-                id: t.id,
-                label: t.label,
-                finalValue: num(t.final_value),
-                unit: t.unit,
-                passes: t.passes,
-                anglePasses: t.angle_passes,
-                pattern: t.pattern,
-                boltCount: t.bolt_count,
-                lubricant: t.lubricant,
-                torqueToYield: t.torque_to_yield,
-              })),
+              torqueSpecs: (torqueBy.get(s.id) ?? []).map((t) => ({ id: t.id, ...torqueSpecOfRow(t) })),
               measurementSpecs: (measuresBy.get(s.id) ?? []).map((m) => ({
                 id: m.id,
                 key: m.key,

@@ -3,7 +3,7 @@ import { sql, type Transaction } from "kysely";
 import type { Decision, MergeState } from "@/lib/sync/merge-rules";
 import type { Operation, OperationKind } from "@/lib/sync/operations";
 import { readingVerdict } from "@/lib/sync/readings";
-import type { AuditEntry } from "../audit/append";
+import { auditRow, type AuditEntry } from "../audit/append";
 import type { LoadedWorkOrder } from "./context";
 import type { Database } from "../schema";
 
@@ -231,18 +231,7 @@ export async function refusalsOnRecord(trx: Tx, ids: readonly string[]): Promise
 /** Appends many audit entries in one statement (the same rows as db/audit/append.ts appendAudit, without its per-value parameters). */
 export async function appendAuditBatch(trx: Tx, entries: readonly AuditEntry[]): Promise<void> {
   if (!entries.length) return;
-  const rows = entries.map((e) => ({
-    shop_id: e.shopId,
-    actor_id: e.actorId,
-    device_id: e.deviceId ?? null,
-    action: e.action,
-    entity: e.entity,
-    entity_id: e.entityId ?? null,
-    work_order_id: e.workOrderId ?? null,
-    outcome: e.outcome,
-    reason: e.reason ?? null,
-    detail: e.detail ?? {},
-  }));
+  const rows = entries.map(auditRow);
   const columns = recordset<(typeof rows)[number]>({
     shop_id: "uuid",
     actor_id: "uuid",

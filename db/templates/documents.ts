@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import type { Kysely, Selectable } from "kysely";
 import { templateDocumentSchema, type TemplateDocument, type TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import { createTemplateVersion } from "./versions";
 import type { Database } from "../schema";
@@ -57,21 +57,11 @@ export async function loadTemplateDocument(db: Kysely<Database>, shopId: string,
       key: s.key,
       title: s.title,
       instructions: s.instructions,
-      cautions: s.cautions as Array<{ kind: "general"; text: string }>,
+      cautions: s.cautions,
       requiresPhoto: s.requires_photo,
       torque: torque
         .filter((t) => t.step_id === s.id)
-        .map((t) => ({
-          label: t.label,
-          finalValue: Number(t.final_value),
-          unit: t.unit,
-          passes: t.passes,
-          anglePasses: t.angle_passes,
-          pattern: t.pattern,
-          boltCount: t.bolt_count,
-          lubricant: t.lubricant,
-          torqueToYield: t.torque_to_yield,
-        })),
+        .map(torqueSpecOfRow),
       measurements: meas
         .filter((m) => m.step_id === s.id)
         .map((m) => ({ key: m.key, label: m.label, nominal: num(m.nominal), min: Number(m.min), max: Number(m.max), unit: m.unit, readingLabels: m.reading_labels, geometry: m.geometry })),
@@ -88,4 +78,19 @@ export async function importTemplateDocuments(db: Kysely<Database>, shopId: stri
     for (const d of docs) out.push({ key: d.key, ...(await createTemplateVersion(trx, shopId, d, userId)) });
     return out;
   });
+}
+
+/** A stored torque spec as the template document writes it (the bench's snapshot adds its id). */
+export function torqueSpecOfRow(t: Selectable<Database["torque_specs"]>) {
+  return {
+    label: t.label,
+    finalValue: Number(t.final_value),
+    unit: t.unit,
+    passes: t.passes,
+    anglePasses: t.angle_passes,
+    pattern: t.pattern,
+    boltCount: t.bolt_count,
+    lubricant: t.lubricant,
+    torqueToYield: t.torque_to_yield,
+  };
 }
