@@ -15,7 +15,7 @@ bash tests/fakes/start-fakes.sh
 export SMTP_URL="smtp://127.0.0.1:${FAKE_SMTP_PORT:-1025}" S3_ENDPOINT="http://127.0.0.1:${FAKE_S3_PORT:-4569}" S3_BUCKET=${S3_BUCKET:-benchtag}
 export STRIPE_API_BASE="http://127.0.0.1:${FAKE_PAYMENTS_PORT:-12111}" STRIPE_SECRET_KEY=${STRIPE_SECRET_KEY:-sk_test_benchtag_local}
 export STRIPE_WEBHOOK_SECRET=${STRIPE_WEBHOOK_SECRET:-whsec_benchtag_local}
-npx tsx tests/fakes/register-webhook.ts "http://localhost:$port/api/payments/webhook"
+npx tsx --conditions=react-server tests/fakes/register-webhook.ts "http://localhost:$port/api/payments/webhook"
 export NEXTAUTH_URL=http://localhost:$port
 export NEXTAUTH_SECRET=${NEXTAUTH_SECRET:-e2e-only-secret-not-for-production}
 exec npx next start -p "$port"
