@@ -1,11 +1,11 @@
-import type { Kysely } from "kysely";
-import { auditLogBatches } from "@/db/audit-log";
-import type { Database } from "@/db/schema";
+import "server-only";
+import { auditLogBatches } from "@/db/audit/read";
 import { auditCsvChunk } from "@/lib/review/audit-csv";
 import type { AuditFilter } from "@/lib/review/list-queries";
+import type { Db } from "@/db/setup/client";
 
 /** The shop's audit log as a streamed CSV download, oldest entry first, 500 rows per database read. */
-export function auditCsvResponse(db: Kysely<Database>, shopId: string, f: AuditFilter, now = new Date()): Response {
+export function auditCsvResponse(db: Db, shopId: string, f: AuditFilter, now = new Date()): Response {
   const encoder = new TextEncoder();
   const batches = auditLogBatches(db, shopId, f);
   let header = true;

@@ -1,9 +1,10 @@
+import "server-only";
 import bcrypt from "bcryptjs";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
-import { appendAudit } from "@/db/audit";
-import { db } from "@/db/client";
-import { findUserForSignIn, recentSignInFailures, recordSignInAttempt } from "@/db/users";
+import { appendAudit } from "@/db/audit/append";
+import { db } from "@/db/setup/client";
+import { findUserForSignIn, recentSignInFailures, recordSignInAttempt } from "@/db/shop/users";
 import { credentialsSchema, SIGN_IN_LIMIT } from "@/lib/auth/credentials";
 import { isRole } from "@/lib/auth/roles";
 

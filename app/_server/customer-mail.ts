@@ -1,15 +1,15 @@
-import type { Kysely } from "kysely";
+import "server-only";
 import { emailContext } from "@/db/office/emails";
-import type { Database } from "@/db/schema";
 import { formatMinor } from "@/lib/money/quote-totals";
 import { bikeReadyAttachment } from "./bike-ready-attachment";
 import { sendMail } from "./mail";
 import { officeConfig } from "./office-config";
+import type { Db } from "@/db/setup/client";
 
 // The three e-mails a customer gets about a job. Each returns quietly when the customer has no
 // e-mail address on file (the work order page shows that nothing was sent).
 
-export async function mailQuoteReady(db: Kysely<Database>, shopId: string, workOrderId: string, totalMinor: number, depositMinor: number) {
+export async function mailQuoteReady(db: Db, shopId: string, workOrderId: string, totalMinor: number, depositMinor: number) {
   const c = await emailContext(db, shopId, workOrderId);
   if (!c?.email) return { ok: false, error: "no e-mail address" };
   const link = `${officeConfig().NEXTAUTH_URL}/my-bikes`;
@@ -23,7 +23,7 @@ export async function mailQuoteReady(db: Kysely<Database>, shopId: string, workO
   });
 }
 
-export async function mailDepositReceived(db: Kysely<Database>, shopId: string, workOrderId: string, amountMinor: number) {
+export async function mailDepositReceived(db: Db, shopId: string, workOrderId: string, amountMinor: number) {
   const c = await emailContext(db, shopId, workOrderId);
   if (!c?.email) return { ok: false, error: "no e-mail address" };
   return sendMail(db, {
@@ -36,7 +36,7 @@ export async function mailDepositReceived(db: Kysely<Database>, shopId: string, 
   });
 }
 
-export async function mailBikeReady(db: Kysely<Database>, shopId: string, workOrderId: string) {
+export async function mailBikeReady(db: Db, shopId: string, workOrderId: string) {
   const c = await emailContext(db, shopId, workOrderId);
   if (!c?.email) return { ok: false, error: "no e-mail address" };
   const pdf = await bikeReadyAttachment(db, shopId, workOrderId);

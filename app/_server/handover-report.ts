@@ -1,11 +1,12 @@
-import type { Kysely } from "kysely";
+import "server-only";
 import { boreGeometry, convertPower, convertTorque } from "@/lib/calc";
+import { torquePassCount } from "@/lib/procedures/spec-counts";
 import { compareRuns, summariseRun } from "@/lib/dyno";
-import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
-import { loadHandoverReport, type HandoverReportData } from "@/db/handover-report";
-import type { Database } from "@/db/schema";
+import { STATUS_LABELS } from "@/lib/work-orders/status";
+import { loadHandoverReport, type HandoverReportData } from "@/db/records/handover-report";
 import { drawCurvePlot } from "./report/curve-plot";
 import { FONT, footers, heading, newPdf, paragraph, pdfText, table, toBuffer, type Pdf } from "./report/pdf-layout";
+import type { Db } from "@/db/setup/client";
 
 // The handover build report: a PDF for the customer and the shop's records, made on the server
 // from the database (no browser). Exported for the "bike ready" e-mail as well as the download.
@@ -20,7 +21,7 @@ const day = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
 const num = (v: string | number | null) => (v === null ? "" : String(Number(v)));
 const VERDICT = { in: "in spec", low: "LOW, out of spec", high: "HIGH, out of spec" } as const;
 
-export const RUN_IN_ADVICE = [
+const RUN_IN_ADVICE = [
   "First 300 km: keep below half the rev range and off boost; vary engine speed, no long steady cruising, no full-throttle pulls.",
   "300 to 800 km: build up gradually to three quarters of the rev range; short, light use of boost only once the engine is fully warm.",
   "Change the engine oil and filter at 800 km (or sooner if the maker's data says so); we check the plugs and look for leaks at the same visit.",
@@ -28,7 +29,7 @@ export const RUN_IN_ADVICE = [
   "Use the fuel grade the tune was made on; a lower grade can cause detonation under boost.",
 ];
 
-export const CAUTIONS = [
+const CAUTIONS = [
   "The figures, limits and advice in this report are the workshop's record of this build. The engine maker's service data, the parts makers' instructions and local rules come first wherever they differ.",
   "Dyno figures depend on the dyno, the air and the correction standard named beside them; compare runs only against figures made the same way.",
   "Any warning light, knocking, smoke, oil or coolant loss, or a change in boost behaviour: stop riding and contact the workshop.",
@@ -48,7 +49,7 @@ function theBike(doc: Pdf, d: HandoverReportData) {
       ["Engine", `${j.displacementCc ? `${j.displacementCc} cc` : "—"}${j.engineNumber ? `, engine no. ${j.engineNumber}` : ""}${j.vin ? `, VIN ${j.vin}` : ""}`],
       ["Owner", j.customerName],
       ["Work order", `#${j.number}: ${j.title}`],
-      ["Status", STATUS_LABELS[j.status as WorkOrderStatus] ?? j.status],
+      ["Status", STATUS_LABELS[j.status]],
       ["Odometer at intake", j.odometerKm === null ? "—" : `${j.odometerKm} km`],
       ["Reason for the work", j.complaint || "—"],
       ["Lead mechanic", j.mechanicName ?? "—"],
@@ -163,9 +164,9 @@ function torqueApplied(doc: Pdf, d: HandoverReportData) {
       { header: "Notes", width: 0.16 },
     ],
     applied.map((t) => {
-      const passes = (t.passes as Array<{ percent?: number; value?: number }>).map((p) => (p.percent !== undefined ? `${p.percent} %` : `${p.value} ${t.unit}`));
-      const angles = (t.anglePasses as number[]).map((a) => `+${a}°`);
-      const expected = (passes.length + angles.length) * t.boltCount;
+      const passes = t.passes.map((p) => ("percent" in p ? `${p.percent} %` : `${p.value} ${t.unit}`));
+      const angles = t.anglePasses.map((a) => `+${a}°`);
+      const expected = torquePassCount({ finalValue: Number(t.finalValue), unit: t.unit, passes: t.passes, anglePasses: t.anglePasses }) * t.boltCount;
       const value = Number(t.finalValue);
       const other = t.unit === "N·m" ? `${convertTorque(value, "N·m", "lbf·ft").toFixed(1)} lbf·ft` : "";
       return [
@@ -241,7 +242,7 @@ function dynoResults(doc: Pdf, d: HandoverReportData) {
 }
 
 /** Renders the handover build report of one work order of one shop as a PDF. */
-export async function renderHandoverReportPdf(db: Kysely<Database>, shopId: string, workOrderId: string): Promise<Buffer> {
+export async function renderHandoverReportPdf(db: Db, shopId: string, workOrderId: string): Promise<Buffer> {
   const d = await loadHandoverReport(db, shopId, workOrderId);
   if (!d) throw new ReportNotFoundError();
   const j = d.job;

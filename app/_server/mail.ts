@@ -1,10 +1,10 @@
+import "server-only";
 import nodemailer from "nodemailer";
-import type { Kysely } from "kysely";
 import { recordEmail } from "@/db/office/emails";
-import type { Database } from "@/db/schema";
 import { officeConfig } from "./office-config";
+import type { Db } from "@/db/setup/client";
 
-export interface OutgoingMail {
+interface OutgoingMail {
   shopId: string;
   workOrderId: string | null;
   kind: "quote_ready" | "deposit_received" | "bike_ready" | "review_needed";
@@ -16,7 +16,7 @@ export interface OutgoingMail {
 
 // Sends one e-mail over SMTP (maildev locally) and records it — or the failure — against the job.
 // A mail failure never undoes the business change that caused it.
-export async function sendMail(db: Kysely<Database>, m: OutgoingMail): Promise<{ ok: boolean; error?: string }> {
+export async function sendMail(db: Db, m: OutgoingMail): Promise<{ ok: boolean; error?: string }> {
   const cfg = officeConfig();
   const transport = nodemailer.createTransport(cfg.SMTP_URL);
   try {

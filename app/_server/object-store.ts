@@ -1,3 +1,4 @@
+import "server-only";
 import { CreateBucketCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { officeConfig } from "./office-config";
 

@@ -1,3 +1,4 @@
+import "server-only";
 import { z } from "zod";
 
 // Outside services of the office side, configured by env vars with local defaults that match
@@ -19,7 +20,7 @@ const configSchema = z.object({
   NEXTAUTH_URL: z.url().default("http://localhost:3000"),
 });
 
-export type OfficeConfig = z.output<typeof configSchema>;
+type OfficeConfig = z.output<typeof configSchema>;
 
 export function officeConfig(env: Record<string, string | undefined> = process.env): OfficeConfig {
   const picked = Object.fromEntries(Object.keys(configSchema.shape).map((k) => [k, env[k] === "" ? undefined : env[k]]));

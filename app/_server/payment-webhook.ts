@@ -1,12 +1,12 @@
-import type { Kysely } from "kysely";
+import "server-only";
 import type Stripe from "stripe";
 import { applyPaymentEvent } from "@/db/office/deposits";
-import { appendAudit } from "@/db/audit";
-import type { Database } from "@/db/schema";
+import { appendAudit } from "@/db/audit/append";
 import { mailDepositReceived } from "./customer-mail";
 import { verifyPaymentWebhook } from "./payments";
+import type { Db } from "@/db/setup/client";
 
-export interface WebhookAnswer {
+interface WebhookAnswer {
   status: number;
   body: { received?: boolean; outcome?: string; error?: string };
 }
@@ -15,7 +15,7 @@ export interface WebhookAnswer {
 // verify the signature (refuse unsigned, wrongly signed and stale), apply the event once (refuse
 // a replayed event id), mark the deposit paid and write to the customer.
 export async function handlePaymentWebhook(
-  db: Kysely<Database>,
+  db: Db,
   rawBody: string,
   signature: string | null,
   opts: { secret?: string; sendMail?: boolean } = {},

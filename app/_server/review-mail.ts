@@ -1,14 +1,14 @@
-import type { Kysely } from "kysely";
-import { claimNotices, finishNotice, noticeFacts, type NoticeFacts } from "@/db/review-notices";
-import type { Database } from "@/db/schema";
+import "server-only";
+import { claimNotices, finishNotice, noticeFacts, type NoticeFacts } from "@/db/review/notices";
 import { sendMail } from "./mail";
 import { officeConfig } from "./office-config";
+import type { Db } from "@/db/setup/client";
 
 // Sends the supervisors' e-mail for sign-offs whose stage has readings out of tolerance. Runs after
 // a sync merge has committed (app/api/sync/route.ts) and whenever the review queue is read, so a
 // notice left waiting by a failed send goes out on a later run.
 
-export function noticeMail(f: NoticeFacts, signOffId: string, baseUrl: string) {
+function noticeMail(f: NoticeFacts, signOffId: string, baseUrl: string) {
   const count = f.outOfTolerance.length;
   const subject = `Work order ${f.number}: "${f.stageTitle}" signed off with ${count} reading${count === 1 ? "" : "s"} out of tolerance`;
   const lines = f.outOfTolerance.map((o) => `  - ${o.stepTitle} — ${o.description}`);
@@ -25,7 +25,7 @@ export function noticeMail(f: NoticeFacts, signOffId: string, baseUrl: string) {
   return { subject, text };
 }
 
-export async function deliverReviewNotices(db: Kysely<Database>): Promise<{ sent: number; skipped: number; failed: number }> {
+export async function deliverReviewNotices(db: Db): Promise<{ sent: number; skipped: number; failed: number }> {
   const tally = { sent: 0, skipped: 0, failed: 0 };
   for (;;) {
     const claimed = await claimNotices(db);

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
-import { db } from "@/db/client";
+import { db } from "@/db/setup/client";
+import { shopSettings } from "@/db/shop/settings";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { BenchApp } from "./_components/bench-app";
@@ -10,10 +11,10 @@ export const metadata: Metadata = { title: "Bench" };
 // IndexedDB in the browser (the service worker keeps this page for offline use).
 export default async function BenchPage() {
   const user = await requirePageArea("bench");
-  const shop = await db().selectFrom("shops").select("torque_unit").where("id", "=", user.shopId).executeTakeFirstOrThrow();
+  const shop = await shopSettings(db(), user.shopId);
   return (
     <AppFrame user={user} current="/bench" flush>
-      <BenchApp user={{ id: user.id, name: user.name, role: user.role, torqueUnit: shop.torque_unit }} />
+      <BenchApp user={{ id: user.id, name: user.name, role: user.role, torqueUnit: shop.torqueUnit }} />
     </AppFrame>
   );
 }

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { db } from "@/db/client";
-import { listDynoJobs } from "@/db/dyno";
+import { db } from "@/db/setup/client";
+import { listDynoWorkOrders } from "@/db/records/dyno";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { StatusBadge } from "../ui/status-badge";
@@ -11,7 +11,7 @@ export const metadata: Metadata = { title: "Dyno" };
 // Work orders that can go on the dyno, with how many runs each has.
 export default async function DynoJobsPage() {
   const user = await requirePageArea("dyno");
-  const jobs = await listDynoJobs(db(), user.shopId);
+  const jobs = await listDynoWorkOrders(db(), user.shopId);
   return (
     <AppFrame user={user} current="/dyno">
       <h1 className="text-3xl font-bold">Dyno</h1>

@@ -1,10 +1,11 @@
 import type { Metadata } from "next";
 import type { BuildProgress } from "@/lib/work-orders/build-progress";
-import { db } from "@/db/client";
-import { bikesOfCustomer } from "@/db/bikes";
-import { loadBuildProgress } from "@/db/build-progress";
+import { isBeingBuilt } from "@/lib/work-orders/status";
+import { db } from "@/db/setup/client";
+import { bikesOfCustomer } from "@/db/shop/bikes";
+import { loadBuildProgress } from "@/db/records/build-progress";
 import { quotesForCustomer } from "@/db/office/quotes";
-import { CustomerQuote, type CustomerQuoteData } from "./_components/customer-quote";
+import { CustomerQuote } from "./_components/customer-quote";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { StatusBadge } from "../ui/status-badge";
@@ -18,7 +19,7 @@ export default async function MyBikesPage() {
   // the newest quote the customer may see, per work order
   const quoteOf = (workOrderId: string) => quotes.find((q) => q.workOrderId === workOrderId && q.status !== "superseded");
   // how far the build has got, for jobs on the bench or in review (the bikes above are the customer's own)
-  const building = bikes.flatMap((b) => b.workOrders).filter((w) => w.status === "in_build" || w.status === "in_review");
+  const building = bikes.flatMap((b) => b.workOrders).filter((w) => isBeingBuilt(w.status));
   const progress = new Map(await Promise.all(building.map(async (w) => [w.id, await loadBuildProgress(db(), user, w.id)] as const)));
   return (
     <AppFrame user={user} current="/my-bikes">
@@ -39,7 +40,7 @@ export default async function MyBikesPage() {
                     <a href={`/api/jobs/${w.id}/build-report`} download className="flex min-h-12 items-center rounded-lg border-2 border-ink px-3 text-base font-bold" data-testid="my-build-report">Build report (PDF)</a>
                   </div>
                   <BuildLine progress={progress.get(w.id) ?? null} />
-                  {quoteOf(w.id) && <CustomerQuote quote={JSON.parse(JSON.stringify(quoteOf(w.id))) as CustomerQuoteData} />}
+                  {quoteOf(w.id) && <CustomerQuote quote={quoteOf(w.id)!} />}
                 </li>
               ))}
             </ul>

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
-import { db } from "@/db/client";
-import { signersOfShop } from "@/db/review-queue";
+import { db } from "@/db/setup/client";
+import { signersOfShop } from "@/db/review/queue";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { ReviewQueue } from "./_components/review-queue";

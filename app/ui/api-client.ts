@@ -1,18 +1,28 @@
 "use client";
 
-// Browser-side calls to our route handlers. A refusal arrives as { error, issues[] } and is thrown
-// as ApiError so forms can show the message and each field's problem beside the field.
-export interface FieldIssue {
-  path: string;
-  message: string;
-}
+import type { ErrorBody, FieldIssue } from "@/lib/errors";
 
+export type { FieldIssue };
+
+/**
+ * A value as it arrives in the browser after JSON: dates become ISO strings. The office's pages
+ * type what a route answers as `Wire<ReplyOf<typeof GET>>`, taken from the route itself.
+ */
+export type Wire<T> = T extends Date
+  ? string
+  : T extends ReadonlyArray<infer U>
+    ? Wire<U>[]
+    : T extends object
+      ? { [K in keyof T]: Wire<T[K]> }
+      : T;
+
+// Browser-side calls to our route handlers. A refusal arrives as { error, issues[] } (lib/errors.ts)
+// and is thrown as ApiError so forms can show the message and each field's problem beside the field.
 export class ApiError extends Error {
   constructor(
     message: string,
     readonly status: number,
     readonly issues: FieldIssue[] = [],
-    readonly problems: FieldIssue[] = [],
   ) {
     super(message);
   }
@@ -30,7 +40,10 @@ export async function api<T>(method: "GET" | "POST" | "PUT", url: string, body?:
   }
   const res = await fetch(url, init);
   const data = await res.json().catch(() => ({}));
-  if (!res.ok) throw new ApiError(data.error ?? `Request failed (${res.status})`, res.status, data.issues ?? [], data.problems ?? []);
+  if (!res.ok) {
+    const refusal = data as Partial<ErrorBody>;
+    throw new ApiError(refusal.error ?? `Request failed (${res.status})`, res.status, refusal.issues ?? []);
+  }
   return data as T;
 }
 

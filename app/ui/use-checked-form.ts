@@ -1,11 +1,11 @@
 "use client";
 
+import { issuesOf } from "@/lib/zod-issues";
 import { useState } from "react";
 import type { z } from "zod";
-import { issuesOf } from "@/lib/office/schemas";
 import { ApiError, fieldErrors } from "./api-client";
 
-export interface FormMessageState {
+interface FormMessageState {
   error?: string;
   ok?: string;
 }

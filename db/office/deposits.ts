@@ -1,6 +1,7 @@
+import "server-only";
 import type { Kysely } from "kysely";
-import { Refusal } from "@/lib/office/refusal";
-import { appendAudit } from "../audit";
+import { Refusal } from "@/lib/errors";
+import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 
 // Starts a deposit for the customer's approved quote: a pending row the payment provider's
@@ -35,7 +36,7 @@ export async function attachPaymentIntent(db: Kysely<Database>, depositId: strin
   await db.updateTable("deposits").set({ payment_intent_id: paymentIntentId }).where("id", "=", depositId).where("payment_intent_id", "is", null).execute();
 }
 
-export type PaymentOutcome =
+type PaymentOutcome =
   | { kind: "paid"; depositId: string; shopId: string; workOrderId: string }
   | { kind: "failed"; depositId: string }
   | { kind: "replayed" }
@@ -81,12 +82,15 @@ export async function applyPaymentEvent(
   });
 }
 
+/** A deposit as every reader sees it (the quote's list, the customer's payment check). */
+export const DEPOSIT_COLUMNS = ["id", "status", "amount_minor as amountMinor", "currency", "paid_at as paidAt", "payment_intent_id as paymentIntentId"] as const;
+
 export async function depositForCustomer(db: Kysely<Database>, user: { shopId: string; customerId: string | null }, depositId: string) {
   return db
     .selectFrom("deposits as d")
     .innerJoin("work_orders as w", "w.id", "d.work_order_id")
     .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .select(["d.id", "d.status", "d.amount_minor as amountMinor", "d.currency", "d.paid_at as paidAt"])
+    .select(DEPOSIT_COLUMNS.map((c) => `d.${c}` as const))
     .where("d.id", "=", depositId)
     .where("d.shop_id", "=", user.shopId)
     .where("b.customer_id", "=", user.customerId ?? "00000000-0000-0000-0000-000000000000")

@@ -1,3 +1,4 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "../schema";
 

@@ -1,7 +1,8 @@
+import "server-only";
 import type { Kysely, Transaction } from "kysely";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import type { Database } from "../schema";
-import { moveWorkOrder } from "./work-orders";
+import { moveWorkOrder } from "../shop/work-orders";
 
 // Handover: the move to "handed over" and the final invoice, together or not at all.
 export async function handOver(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, note = "") {
@@ -12,7 +13,7 @@ export async function handOver(db: Kysely<Database>, shopId: string, userId: str
 }
 
 // The final invoice at handover: the approved quote's totals less the deposits paid. One per job.
-export async function createFinalInvoice(trx: Kysely<Database> | Transaction<Database>, shopId: string, userId: string, workOrderId: string) {
+async function createFinalInvoice(trx: Kysely<Database> | Transaction<Database>, shopId: string, userId: string, workOrderId: string) {
   const existing = await trx.selectFrom("invoices").selectAll().where("work_order_id", "=", workOrderId).executeTakeFirst();
   if (existing) return existing;
   const q = await trx
@@ -51,6 +52,16 @@ export async function createFinalInvoice(trx: Kysely<Database> | Transaction<Dat
     .executeTakeFirstOrThrow();
 }
 
+const INVOICE_COLUMNS = [
+  "number",
+  "currency",
+  "subtotal_minor as subtotalMinor",
+  "tax_minor as taxMinor",
+  "total_minor as totalMinor",
+  "deposits_paid_minor as depositsPaidMinor",
+  "balance_due_minor as balanceDueMinor",
+] as const;
+
 export async function invoiceOf(db: Kysely<Database>, shopId: string, workOrderId: string) {
-  return db.selectFrom("invoices").selectAll().where("work_order_id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
+  return db.selectFrom("invoices").select(INVOICE_COLUMNS).where("work_order_id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
 }

@@ -1,8 +1,9 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import { partFittedSchema } from "@/lib/office/schemas";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import type { z } from "zod";
-import { partColumns } from "../parts-fitted";
+import { partColumns } from "../records/parts-fitted";
 import type { Database } from "../schema";
 
 export async function addPartFitted(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, input: z.input<typeof partFittedSchema>) {
@@ -52,7 +53,7 @@ export async function bikesWithPart(db: Kysely<Database>, shopId: string, code: 
 }
 
 // Steps of the job's pinned procedures, for "which step fitted this part".
-export async function stepsOfJob(db: Kysely<Database>, workOrderId: string) {
+export async function stepsOfWorkOrder(db: Kysely<Database>, workOrderId: string) {
   return db
     .selectFrom("template_steps as s")
     .innerJoin("job_procedures as j", "j.template_version_id", "s.template_version_id")

@@ -1,10 +1,13 @@
+import "server-only";
 import type { Kysely } from "kysely";
 import { quoteTotals } from "@/lib/money/quote-totals";
 import { quoteDraftSchema, type QuoteDraftInput } from "@/lib/office/schemas";
-import { Refusal } from "@/lib/office/refusal";
-import { appendAudit } from "../audit";
+import { Refusal } from "@/lib/errors";
+import { isQuotable } from "@/lib/work-orders/status";
+import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
-import { moveWorkOrder } from "./work-orders";
+import { moveWorkOrder } from "../shop/work-orders";
+import { DEPOSIT_COLUMNS } from "./deposits";
 
 // Saves the office's draft quote for a work order: replaces the open draft's lines, or starts a
 // new version (a sent quote is never edited; revising one supersedes it when the new one is sent).
@@ -13,7 +16,7 @@ export async function saveQuoteDraft(db: Kysely<Database>, shopId: string, userI
   return db.transaction().execute(async (trx) => {
     const wo = await trx.selectFrom("work_orders").select(["id", "status"]).where("id", "=", workOrderId).where("shop_id", "=", shopId).forUpdate().executeTakeFirst();
     if (!wo) throw new Refusal("No such work order in this shop.", 404);
-    if (!["booked_in", "inspected", "quoted"].includes(wo.status)) throw new Refusal("A quote can be written only before the customer approves one.", 409);
+    if (!isQuotable(wo.status)) throw new Refusal("A quote can be written only before the customer approves one.", 409);
     const shop = await trx.selectFrom("shops").select(["tax_rate_bp", "currency"]).where("id", "=", shopId).executeTakeFirstOrThrow();
     const totals = quoteTotals(d.lines, shop.tax_rate_bp);
     if (d.depositMinor > totals.totalMinor) {
@@ -93,11 +96,37 @@ export async function approveQuoteAsCustomer(db: Kysely<Database>, user: { id: s
   });
 }
 
+// A quote as every reader sees it (office, customer, e-mails): one shape, camelCase, amounts in minor units.
+const QUOTE_COLUMNS = [
+  "id",
+  "version",
+  "status",
+  "currency",
+  "tax_rate_bp as taxRateBp",
+  "subtotal_minor as subtotalMinor",
+  "tax_minor as taxMinor",
+  "total_minor as totalMinor",
+  "deposit_minor as depositMinor",
+  "note",
+  "sent_at as sentAt",
+  "approved_at as approvedAt",
+] as const;
+const LINE_COLUMNS = [
+  "id",
+  "position",
+  "kind",
+  "description",
+  "part_number as partNumber",
+  "quantity_hundredths as quantityHundredths",
+  "unit_price_minor as unitPriceMinor",
+  "line_total_minor as lineTotalMinor",
+] as const;
+
 export async function quoteWithLines(db: Kysely<Database>, shopId: string, quoteId: string) {
-  const q = await db.selectFrom("quotes").selectAll().where("id", "=", quoteId).where("shop_id", "=", shopId).executeTakeFirst();
+  const q = await db.selectFrom("quotes").select(QUOTE_COLUMNS).where("id", "=", quoteId).where("shop_id", "=", shopId).executeTakeFirst();
   if (!q) return null;
-  const lines = await db.selectFrom("quote_lines").selectAll().where("quote_id", "=", quoteId).orderBy("position").execute();
-  const deposits = await db.selectFrom("deposits").select(["id", "amount_minor as amountMinor", "status", "paid_at as paidAt", "payment_intent_id as paymentIntentId"]).where("quote_id", "=", quoteId).orderBy("created_at").execute();
+  const lines = await db.selectFrom("quote_lines").select(LINE_COLUMNS).where("quote_id", "=", quoteId).orderBy("position").execute();
+  const deposits = await db.selectFrom("deposits").select(DEPOSIT_COLUMNS).where("quote_id", "=", quoteId).orderBy("created_at").execute();
   return { ...q, lines, deposits };
 }
 
@@ -125,3 +154,6 @@ export async function quotesForCustomer(db: Kysely<Database>, shopId: string, cu
   for (const { id, workOrderId } of ids) out.push({ workOrderId, ...(await quoteWithLines(db, shopId, id))! });
   return out;
 }
+
+/** A quote the customer sees on their own page, with the work order it is for. */
+export type CustomerQuoteView = Awaited<ReturnType<typeof quotesForCustomer>>[number];

@@ -12,8 +12,8 @@ bash db/scripts/install-deps.sh "$@"
 bash db/scripts/pg.sh start dev
 if [ "${1:-}" = "--test" ]; then bash db/scripts/pg.sh start test; fi
 FAKE_PAYMENTS_WEBHOOK_URL=${FAKE_PAYMENTS_WEBHOOK_URL:-http://localhost:${PORT:-3000}/api/payments/webhook} bash tests/fakes/start-fakes.sh
-npx tsx db/cli/migrate.ts
-npx tsx db/cli/seed.ts
+npx tsx db/setup/cli/migrate.ts
+npx tsx --conditions=react-server db/setup/cli/seed.ts
 
 # Session secret for next-auth: kept in the git-ignored .env.local, made once per checkout.
 if ! grep -qs '^NEXTAUTH_SECRET=' .env.local; then

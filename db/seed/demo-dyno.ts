@@ -1,16 +1,17 @@
 import { randomUUID } from "node:crypto";
+import { torquePassCount } from "@/lib/procedures/spec-counts";
 import { sql, type Kysely } from "kysely";
 import { evaluateTolerance } from "@/lib/calc";
 import { formatStamp } from "@/lib/sync/hlc";
 import type { Operation } from "@/lib/sync/operations";
 import type { Database } from "../schema";
-import { saveDynoRun } from "../dyno";
+import { saveDynoRun } from "../records/dyno";
 
 // Invented build record and dyno runs for the demo turbo job (work order 1001, Corvid RX1000
 // Turbo, GSW-0001): readings, torque passes, parts, sign-offs and reviews, and two dyno runs
 // (7 psi before the charge-air rework, 10 psi after). Every figure here is made up for the demo.
 
-export interface BuildRecordContext {
+interface BuildRecordContext {
   shopId: string;
   workOrderId: string;
   mechanicId: string;
@@ -103,7 +104,7 @@ export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecord
         }
         const torqueSpecs = await db.selectFrom("torque_specs").selectAll().where("step_id", "=", step.id).execute();
         for (const spec of torqueSpecs) {
-          const passes = (spec.passes as unknown[]).length + (spec.angle_passes as unknown[]).length;
+          const passes = torquePassCount({ finalValue: Number(spec.final_value), unit: spec.unit, passes: spec.passes, anglePasses: spec.angle_passes });
           for (let pass = 1; pass <= passes; pass++) {
             for (let bolt = 1; bolt <= spec.bolt_count; bolt++) {
               const when = at();
@@ -139,7 +140,7 @@ export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecord
  * An invented torque curve for a turbocharged 1000 cc four, N·m at the rpm given: low torque off
  * boost, a rise as the turbo spools around `spoolRpm`, a plateau near `peakNm`, then a fall.
  */
-export function demoTorqueNm(rpm: number, peakNm: number, spoolRpm: number): number {
+function demoTorqueNm(rpm: number, peakNm: number, spoolRpm: number): number {
   const spool = 1 / (1 + Math.exp(-(rpm - spoolRpm) / 420));
   const fall = 1 - 2e-8 * Math.max(0, rpm - 7200) ** 2;
   const ripple = 0.6 * Math.sin(rpm / 370);
@@ -156,7 +157,7 @@ const demoCurve = (peakNm: number, spoolRpm: number) => {
 };
 
 /** The two demo runs: 7 psi baseline, and 10 psi after the charge-air rework. */
-export async function seedDemoDynoRuns(db: Kysely<Database>, ctx: BuildRecordContext): Promise<void> {
+async function seedDemoDynoRuns(db: Kysely<Database>, ctx: BuildRecordContext): Promise<void> {
   const base = { boostUnit: "psi" as const, standard: "SAE_J1349" as const, torqueUnit: "N·m" as const, source: "table" as const };
   await saveDynoRun(db, ctx.shopId, ctx.workOrderId, ctx.mechanicId, {
     ...base,

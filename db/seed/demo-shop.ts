@@ -2,24 +2,15 @@ import bcrypt from "bcryptjs";
 import type { Kysely } from "kysely";
 import { DEMO_TEMPLATES } from "@/lib/procedures/demo-templates";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
-import type { Database, Role } from "../schema";
-import { createTemplateVersion } from "../templates";
+import type { Database } from "../schema";
+import { DEMO_PASSWORD, DEMO_USERS } from "./demo-people";
+import { createTemplateVersion } from "../templates/versions";
 import { seedDemoDyno } from "./demo-dyno";
 import { seedDemoOffice } from "./demo-office";
 import { seedDemoReview } from "./demo-review";
 
 // An invented workshop for the demo and the browser tests. All names are made up.
-export const DEMO_SHOP_SLUG = "gannet-street";
-export const DEMO_PASSWORD = "benchtag-demo";
-
-export const DEMO_USERS: Array<{ key: string; email: string; name: string; role: Role; customerKey?: string }> = [
-  { key: "office", email: "maren@gannet-street.test", name: "Maren Ostby", role: "office" },
-  { key: "supervisor", email: "dana@gannet-street.test", name: "Dana Kowal", role: "supervisor" },
-  { key: "mechanic", email: "tomas@gannet-street.test", name: "Tomas Reyes", role: "mechanic" },
-  { key: "mechanic2", email: "priya@gannet-street.test", name: "Priya Vance", role: "mechanic" },
-  { key: "customer", email: "felix.amadi@example.test", name: "Felix Amadi", role: "customer", customerKey: "felix" },
-  { key: "customer2", email: "ruth.calloway@example.test", name: "Ruth Calloway", role: "customer", customerKey: "ruth" },
-];
+const DEMO_SHOP_SLUG = "gannet-street";
 
 const CUSTOMERS = [
   { key: "felix", name: "Felix Amadi", email: "felix.amadi@example.test", phone: "+44 7700 900101" },

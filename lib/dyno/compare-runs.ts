@@ -32,7 +32,7 @@ export function commonRpmGrid(a: readonly [number, number], b: readonly [number,
   return grid;
 }
 
-export interface DeltaPoint {
+interface DeltaPoint {
   rpm: number;
   basePowerKw: number;
   otherPowerKw: number;
@@ -42,7 +42,7 @@ export interface DeltaPoint {
   deltaTorqueNm: number;
 }
 
-export interface RunComparison {
+interface RunComparison {
   grid: DeltaPoint[];
   /** Peak corrected power and torque of the other run minus the base run's (and in % of base). */
   peakDelta: { powerKw: number; powerPercent: number; torqueNm: number; torquePercent: number };

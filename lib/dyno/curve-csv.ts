@@ -10,10 +10,10 @@
 import Papa from "papaparse";
 import { validateCurveRows, type CurveRowError, type CurveTorqueUnit } from "./curve-rows";
 
-export const CURVE_CSV_TORQUE_COLUMNS: Record<string, CurveTorqueUnit> = { torque_nm: "N·m", torque_lbft: "lbf·ft" };
-export const MAX_CURVE_CSV_BYTES = 200_000;
+const CURVE_CSV_TORQUE_COLUMNS: Record<string, CurveTorqueUnit> = { torque_nm: "N·m", torque_lbft: "lbf·ft" };
+const MAX_CURVE_CSV_BYTES = 200_000;
 
-export type CurveCsvResult =
+type CurveCsvResult =
   | { ok: true; torqueUnit: CurveTorqueUnit; points: Array<{ rpm: number; torque: number; torqueNm: number }> }
   | { ok: false; errors: CurveRowError[] };
 

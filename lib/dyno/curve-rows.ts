@@ -3,17 +3,19 @@
  * and torque, checked with zod; every problem is reported with its row and column, and a curve
  * with any problem yields no points at all.
  */
+import { SHOP_TORQUE_UNITS, type ShopTorqueUnit } from "../shop-units";
 import { z } from "zod";
 import { convertTorque } from "@/lib/calc";
 import { numberFromText } from "./number-text";
 
 /** Torque units a curve may be recorded in. */
-export const CURVE_TORQUE_UNITS = ["N·m", "lbf·ft"] as const;
-export type CurveTorqueUnit = (typeof CURVE_TORQUE_UNITS)[number];
+/** A curve is recorded in one of the shop's everyday torque units. */
+export const CURVE_TORQUE_UNITS = SHOP_TORQUE_UNITS;
+export type CurveTorqueUnit = ShopTorqueUnit;
 
-export const MIN_CURVE_POINTS = 2;
-export const MAX_CURVE_POINTS = 2000;
-export const MAX_RPM = 25000;
+const MIN_CURVE_POINTS = 2;
+const MAX_CURVE_POINTS = 2000;
+const MAX_RPM = 25000;
 
 /** A problem in one cell (or one row when `column` is the whole row). */
 export interface CurveRowError {
@@ -24,12 +26,12 @@ export interface CurveRowError {
 }
 
 /** One row: rpm and torque (in the curve's unit). */
-export const curveRowSchema = z.object({
+const curveRowSchema = z.object({
   rpm: numberFromText("Engine speed", 1, MAX_RPM, "rpm", { quoteBadValue: true }),
   torque: numberFromText("Torque", 0, 5000, "in the curve's unit", { quoteBadValue: true }),
 });
 
-export interface RawCurveRow {
+interface RawCurveRow {
   /** Row number to report (file line or table row). */
   row: number;
   rpm: string | number;
@@ -37,12 +39,12 @@ export interface RawCurveRow {
 }
 
 /** Names of the columns as the user sees them, for error messages. */
-export interface CurveColumnNames {
+interface CurveColumnNames {
   rpm: string;
   torque: string;
 }
 
-export type CurveRowsResult =
+type CurveRowsResult =
   | { ok: true; points: Array<{ rpm: number; torque: number; torqueNm: number }> }
   | { ok: false; errors: CurveRowError[] };
 

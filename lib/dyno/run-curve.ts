@@ -7,13 +7,13 @@ import { CalcInputError, powerCorrectionFactor, powerKw, vaporPressureKpa, type 
 import { requireFinite, requirePositive } from "@/lib/calc/errors";
 
 /** One recorded point of a run: engine speed (rev/min) and torque (N·m). */
-export interface CurvePoint {
+interface CurvePoint {
   rpm: number;
   torqueNm: number;
 }
 
 /** The air in the dyno cell during the run and the standard chosen to correct to. */
-export interface RunConditions {
+interface RunConditions {
   /** Observed (total) barometric pressure, kPa. */
   pressureKpa: number;
   /** Intake air temperature, °C. */
@@ -23,7 +23,7 @@ export interface RunConditions {
   standard: PowerCorrectionStandard;
 }
 
-export interface ComputedPoint {
+interface ComputedPoint {
   rpm: number;
   observedTorqueNm: number;
   observedPowerKw: number;
@@ -63,7 +63,7 @@ export function peakOf<T extends { rpm: number }>(points: readonly T[], pick: (p
 }
 
 /** Throws unless rpm values are finite, > 0 and strictly increasing. */
-export function requireRisingRpm(points: readonly { rpm: number }[]): void {
+function requireRisingRpm(points: readonly { rpm: number }[]): void {
   points.forEach((p, i) => {
     requirePositive(`points[${i}].rpm`, p.rpm);
     if (i > 0 && !(p.rpm > points[i - 1].rpm)) {

@@ -5,6 +5,7 @@
  */
 import { z } from "zod";
 import { POWER_CORRECTION_STANDARD_IDS } from "@/lib/calc";
+import type { FieldIssue } from "@/lib/errors";
 import { parseCurveCsv } from "./curve-csv";
 import { numberFromText } from "./number-text";
 import { CURVE_TORQUE_UNITS, validateCurveRows, type CurveRowError, type CurveTorqueUnit } from "./curve-rows";
@@ -12,7 +13,7 @@ import { CURVE_TORQUE_UNITS, validateCurveRows, type CurveRowError, type CurveTo
 export const BOOST_UNITS = ["psi", "kPa", "bar"] as const;
 export type BoostUnit = (typeof BOOST_UNITS)[number];
 
-export const dynoRunFieldsSchema = z.object({
+const dynoRunFieldsSchema = z.object({
   label: z.string().trim().min(1, "Name the run (e.g. “Baseline 7 psi”)").max(80, "Run name: at most 80 characters"),
   ranOn: z.iso.date({ message: "Date must be a date (YYYY-MM-DD)" }),
   boostTarget: numberFromText("Boost target", 0, 60, "(gauge)"),
@@ -35,9 +36,9 @@ const curveSchema = z.discriminatedUnion("source", [
   z.object({ source: z.literal("csv"), fileName: z.string().max(200).default(""), text: z.string() }),
 ]);
 
-export const dynoRunBodySchema = dynoRunFieldsSchema.extend({ curve: curveSchema });
+const dynoRunBodySchema = dynoRunFieldsSchema.extend({ curve: curveSchema });
 
-export type DynoRunFields = z.output<typeof dynoRunFieldsSchema>;
+type DynoRunFields = z.output<typeof dynoRunFieldsSchema>;
 
 /** A checked run ready to store. */
 export interface DynoRunInput extends DynoRunFields {
@@ -46,7 +47,7 @@ export interface DynoRunInput extends DynoRunFields {
   points: Array<{ rpm: number; torque: number; torqueNm: number }>;
 }
 
-export type DynoRunCheck =
+type DynoRunCheck =
   | { ok: true; run: DynoRunInput }
   | { ok: false; fieldErrors: Record<string, string>; curveErrors: CurveRowError[] };
 
@@ -89,4 +90,27 @@ export function checkDynoRunBody(body: unknown): DynoRunCheck {
     return { ok: false, fieldErrors, curveErrors };
   }
   return { ok: true, run: { ...parsed.data, source: parsed.data.curve.source, torqueUnit, points } };
+}
+
+/**
+ * A refused run's problems as one list of issues (the answer's `issues`): each field by its name,
+ * each curve problem as "curve.<row>.<column>" (row as the user sees it: file line or table row).
+ */
+export function runIssues(check: { fieldErrors: Record<string, string>; curveErrors: CurveRowError[] }): FieldIssue[] {
+  return [
+    ...Object.entries(check.fieldErrors).map(([path, message]) => ({ path, message })),
+    ...check.curveErrors.map((e) => ({ path: `curve.${e.row}.${e.column}`, message: e.message })),
+  ];
+}
+
+/** The other way, for the form: field messages by name and the curve problems with row and column. */
+export function runProblems(issues: readonly FieldIssue[]): { fieldErrors: Record<string, string>; curveErrors: CurveRowError[] } {
+  const fieldErrors: Record<string, string> = {};
+  const curveErrors: CurveRowError[] = [];
+  for (const i of issues) {
+    const m = /^curve\.(\d+)\.(.*)$/s.exec(i.path);
+    if (m) curveErrors.push({ row: Number(m[1]), column: m[2], message: i.message });
+    else fieldErrors[i.path] ??= i.message;
+  }
+  return { fieldErrors, curveErrors };
 }

@@ -7,12 +7,12 @@
 //    rounded half-up to the minor unit (amounts are never negative, so half-up = half away from 0);
 //  - total = subtotal + tax.
 
-export interface QuoteLineInput {
+interface QuoteLineInput {
   quantityHundredths: number;
   unitPriceMinor: number;
 }
 
-export interface QuoteTotals {
+interface QuoteTotals {
   lineTotals: number[];
   subtotalMinor: number;
   taxMinor: number;
@@ -21,7 +21,7 @@ export interface QuoteTotals {
 
 // The largest amount we accept anywhere, so every product below stays an exact integer in a double.
 export const MAX_MINOR = 100_000_000_00; // 100 million in major units
-export const MAX_TAX_RATE_BP = 10_000;
+const MAX_TAX_RATE_BP = 10_000;
 
 function assertInt(name: string, v: number, min: number, max: number): void {
   if (!Number.isInteger(v) || v < min || v > max) throw new RangeError(`${name} must be a whole number from ${min} to ${max}, got ${v}`);

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "../zod-issues";
 import { MAX_MINOR } from "../money/quote-totals";
 import { WORK_ORDER_STATUSES } from "../work-orders/status";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS } from "../sync/operations";
@@ -54,7 +55,7 @@ const optionalInt = (label: string, min: number, max: number) =>
     .nullable()
     .default(null);
 
-export const TAG_CODE_PATTERN = /^[A-Z0-9][A-Z0-9-]{2,19}$/;
+const TAG_CODE_PATTERN = /^[A-Z0-9][A-Z0-9-]{2,19}$/;
 
 export const bikeSchema = z.object({
   customerId: z.uuid("choose the owner"),
@@ -100,13 +101,23 @@ export const transitionSchema = z.object({
 
 export const assignSchema = z.object({ mechanicId: z.uuid("choose a mechanic").nullable() });
 
+const NOTE_KINDS = ["intake", "teardown", "general"] as const;
+export type NoteKind = (typeof NOTE_KINDS)[number];
+
 export const noteSchema = z.object({
-  kind: z.enum(["intake", "teardown", "general"]),
+  kind: z.enum(NOTE_KINDS),
   body: z.string().trim().min(2, "write the finding").max(4000),
 });
 
-export const quoteLineSchema = z.object({
-  kind: z.enum(["part", "labour"], "choose part or labour"),
+const QUOTE_LINE_KINDS = ["part", "labour"] as const;
+export type QuoteLineKind = (typeof QUOTE_LINE_KINDS)[number];
+/** A quote is drafted, sent to the customer, approved by them, or replaced by a newer version. */
+export type QuoteStatus = "draft" | "sent" | "approved" | "superseded";
+/** A deposit waits for the payment service, is paid, or failed. */
+export type DepositStatus = "pending" | "paid" | "failed";
+
+const quoteLineSchema = z.object({
+  kind: z.enum(QUOTE_LINE_KINDS, "choose part or labour"),
   description: z.string().trim().min(2, "describe the line").max(200),
   partNumber: optionalText(60),
   quantityHundredths: z.number().int("quantity may have two decimals at most").min(1, "quantity must be more than 0").max(100_000_00),
@@ -138,12 +149,3 @@ export const pageQuerySchema = z.object({
   dir: z.enum(["asc", "desc"]).default("desc"),
   status: z.enum(WORK_ORDER_STATUSES).optional(),
 });
-
-// Flat list of problems for a form: `path` is the field ("lines.2.unitPriceMinor"), `message` the problem.
-export interface FieldIssue {
-  path: string;
-  message: string;
-}
-export function issuesOf(error: z.ZodError): FieldIssue[] {
-  return error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message }));
-}

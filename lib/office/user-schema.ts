@@ -15,6 +15,5 @@ export const newUserSchema = z
     if (u.role === "customer" && !u.customerId) ctx.addIssue({ code: "custom", path: ["customerId"], message: "a customer sign-in needs the customer it belongs to" });
     if (u.role !== "customer" && u.customerId) ctx.addIssue({ code: "custom", path: ["customerId"], message: "only customer sign-ins belong to a customer" });
   });
-export type NewUserInput = z.input<typeof newUserSchema>;
 
 export const userActiveSchema = z.object({ active: z.boolean({ error: "say whether the sign-in is active" }) }).strict();

@@ -1,12 +1,15 @@
 import { z } from "zod";
+import type { FieldIssue } from "../errors";
+import { issuesOf } from "../zod-issues";
 import { templateDocumentSchema, type TemplateDocument } from "./template-schema";
 
 // Template files: one "benchtag-template" document, or a bundle of several
 // ({ "format": "benchtag-template-bundle", "formatVersion": 1, "templates": [ … ] }).
-// Reading a file either gives every document, validated, or the list of problems (path + message);
-// the caller imports all of them in one transaction or none.
+// Reading a file either gives every document, validated, or the list of problems (path as it reads
+// in the file, e.g. "stages[0].steps[2].torque[0].unit" or "(file)", and message); the caller
+// imports all of them in one transaction or none.
 
-export const templateBundleSchema = z
+const templateBundleSchema = z
   .object({
     format: z.literal("benchtag-template-bundle"),
     formatVersion: z.literal(1),
@@ -20,36 +23,26 @@ export const templateBundleSchema = z
     });
   });
 
-export interface FileProblem {
-  path: string; // "stages[0].steps[2].torque[0].unit", or "(file)" for the file as a whole
-  message: string;
-}
-
-export type TemplateFileResult = { ok: true; documents: TemplateDocument[] } | { ok: false; problems: FileProblem[] };
+type TemplateFileResult = { ok: true; documents: TemplateDocument[] } | { ok: false; issues: FieldIssue[] };
 
 export const MAX_TEMPLATE_FILE_BYTES = 1_000_000;
 
-export function pathText(path: ReadonlyArray<PropertyKey>): string {
-  if (!path.length) return "(file)";
-  return path.reduce<string>((acc, p) => (typeof p === "number" ? `${acc}[${p}]` : acc ? `${acc}.${String(p)}` : String(p)), "");
-}
-
 export function readTemplateFile(text: string): TemplateFileResult {
-  if (text.length > MAX_TEMPLATE_FILE_BYTES) return { ok: false, problems: [{ path: "(file)", message: "the file is larger than 1 MB" }] };
+  if (text.length > MAX_TEMPLATE_FILE_BYTES) return { ok: false, issues: [{ path: "(file)", message: "the file is larger than 1 MB" }] };
   let raw: unknown;
   try {
     raw = JSON.parse(text);
   } catch (e) {
-    return { ok: false, problems: [{ path: "(file)", message: `not valid JSON: ${(e as Error).message}` }] };
+    return { ok: false, issues: [{ path: "(file)", message: `not valid JSON: ${(e as Error).message}` }] };
   }
   const format = (raw as { format?: unknown } | null)?.format;
   if (format === "benchtag-template-bundle") {
     const r = templateBundleSchema.safeParse(raw);
-    return r.success ? { ok: true, documents: r.data.templates } : { ok: false, problems: r.error.issues.map((i) => ({ path: pathText(i.path), message: i.message })) };
+    return r.success ? { ok: true, documents: r.data.templates } : { ok: false, issues: issuesOf(r.error, { pathStyle: "document" }) };
   }
   if (format !== "benchtag-template") {
-    return { ok: false, problems: [{ path: "format", message: 'expected "benchtag-template" or "benchtag-template-bundle"' }] };
+    return { ok: false, issues: [{ path: "format", message: 'expected "benchtag-template" or "benchtag-template-bundle"' }] };
   }
   const r = templateDocumentSchema.safeParse(raw);
-  return r.success ? { ok: true, documents: [r.data] } : { ok: false, problems: r.error.issues.map((i) => ({ path: pathText(i.path), message: i.message })) };
+  return r.success ? { ok: true, documents: [r.data] } : { ok: false, issues: issuesOf(r.error, { pathStyle: "document" }) };
 }

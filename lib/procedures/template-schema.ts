@@ -1,4 +1,6 @@
 import { z } from "zod";
+import { LENGTH_UNITS, TORQUE_UNITS } from "../calc/units";
+import "../zod-issues";
 
 // Benchtag's own procedure-template document ("benchtag-template", format version 1).
 // The office imports and exports templates in this shape; the seed writes the demo ones from it.
@@ -6,6 +8,12 @@ import { z } from "zod";
 
 export const CAUTION_KINDS = ["hot", "boost", "fuel", "lifting", "torque-to-yield", "chemical", "general"] as const;
 export type CautionKind = (typeof CAUTION_KINDS)[number];
+/** The order bolts are tightened in, drawn on the bench. */
+export const BOLT_PATTERNS = ["cross", "spiral-out", "linear"] as const;
+export type BoltPattern = (typeof BOLT_PATTERNS)[number];
+/** What a measurement's readings describe, for the worked-out figures (bore taper, oil clearance). */
+export const MEASUREMENT_GEOMETRIES = ["bore", "oil-clearance"] as const;
+export type MeasurementGeometry = (typeof MEASUREMENT_GEOMETRIES)[number];
 
 const key = z
   .string()
@@ -25,26 +33,26 @@ export const torqueSpecSchema = z
   .object({
     label: z.string().trim().min(1).max(120),
     finalValue: z.number().positive(),
-    unit: z.enum(["N·m", "lbf·ft", "lbf·in", "kgf·m"]),
+    unit: z.enum(TORQUE_UNITS),
     passes: z.array(torquePassSchema).max(8).default([]),
     anglePasses: z.array(z.number().gt(0).max(360)).max(4).default([]),
-    pattern: z.enum(["cross", "spiral-out", "linear"]),
+    pattern: z.enum(BOLT_PATTERNS),
     boltCount: z.number().int().min(1).max(64),
     lubricant: z.string().max(200).default(""),
     torqueToYield: z.boolean().default(false),
   })
   .strict();
 
-export const measurementSpecSchema = z
+const measurementSpecSchema = z
   .object({
     key,
     label: z.string().trim().min(1).max(120),
     nominal: z.number().nullable().default(null),
     min: z.number(),
     max: z.number(),
-    unit: z.enum(["mm", "in", "µm"]),
+    unit: z.enum(LENGTH_UNITS),
     readingLabels: z.array(z.string().trim().min(1).max(40)).max(64).default([]),
-    geometry: z.enum(["bore", "oil-clearance"]).nullable().default(null),
+    geometry: z.enum(MEASUREMENT_GEOMETRIES).nullable().default(null),
   })
   .strict()
   .refine((m) => m.min <= m.max, { message: "min must not exceed max", path: ["min"] })
@@ -53,7 +61,7 @@ export const measurementSpecSchema = z
     path: ["nominal"],
   });
 
-export const timerSpecSchema = z
+const timerSpecSchema = z
   .object({
     label: z.string().trim().min(1).max(120),
     durationS: z.number().int().positive().max(7 * 24 * 3600),
@@ -61,7 +69,7 @@ export const timerSpecSchema = z
   })
   .strict();
 
-export const stepSchema = z
+const stepSchema = z
   .object({
     key,
     title: z.string().trim().min(1).max(160),
@@ -74,7 +82,7 @@ export const stepSchema = z
   })
   .strict();
 
-export const stageSchema = z
+const stageSchema = z
   .object({
     key,
     title: z.string().trim().min(1).max(120),
@@ -119,6 +127,3 @@ export const templateDocumentSchema = z
 
 export type TemplateDocument = z.output<typeof templateDocumentSchema>;
 export type TemplateDocumentInput = z.input<typeof templateDocumentSchema>;
-export type TemplateStep = z.output<typeof stepSchema>;
-export type TorqueSpecDoc = z.output<typeof torqueSpecSchema>;
-export type MeasurementSpecDoc = z.output<typeof measurementSpecSchema>;

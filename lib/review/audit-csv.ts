@@ -41,7 +41,7 @@ export interface AuditEntry {
   detail: Record<string, unknown>;
 }
 
-export function auditCsvCells(r: AuditEntry): string[] {
+function auditCsvCells(r: AuditEntry): string[] {
   return [
     r.id,
     r.at,

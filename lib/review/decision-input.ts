@@ -4,10 +4,10 @@
  */
 import { z } from "zod";
 
-export const JUSTIFICATION_MIN = 10;
-export const REASON_MIN = 5;
+const JUSTIFICATION_MIN = 10;
+const REASON_MIN = 5;
 
-export const acceptanceInputSchema = z.object({
+const acceptanceInputSchema = z.object({
   readingId: z.uuid("not a reading id"),
   justification: z
     .string("write why this reading may stand")
@@ -41,4 +41,5 @@ export const decisionInputSchema = z.discriminatedUnion(
 );
 
 export type DecisionInput = z.output<typeof decisionInputSchema>;
-export type AcceptanceInput = z.output<typeof acceptanceInputSchema>;
+/** What a supervisor decided on a sign-off. */
+export type ReviewDecision = DecisionInput["decision"];

@@ -1,5 +1,5 @@
 /**
- * The rules a decision on a sign-off must pass, as a pure function. db/review-decide.ts loads the
+ * The rules a decision on a sign-off must pass, as a pure function. db/review/decide.ts loads the
  * facts under the shop's sync lock and calls `checkDecision`; a refusal is answered with its
  * status and reason (and written to the audit log), nothing else is saved.
  */

@@ -15,7 +15,7 @@ const jobNumber = z
   .transform((v) => (v === "" ? undefined : Number(v)))
   .optional();
 
-export const QUEUE_SORTS = ["signed", "job", "bike", "mechanic", "outOfTolerance"] as const;
+const QUEUE_SORTS = ["signed", "job", "bike", "mechanic", "outOfTolerance"] as const;
 
 export const queueQuerySchema = z.object({
   page,
@@ -31,7 +31,7 @@ export const queueQuerySchema = z.object({
 });
 export type QueueQuery = z.output<typeof queueQuerySchema>;
 
-export const AUDIT_SORTS = ["at", "job", "actor", "action", "outcome"] as const;
+const AUDIT_SORTS = ["at", "job", "actor", "action", "outcome"] as const;
 
 export const auditFilterSchema = z.object({
   job: jobNumber,

@@ -4,6 +4,9 @@
  * from two tablets side by side, torque bolt by bolt, timers, photos, parts fitted, and the readings out of
  * tolerance with any written acceptance. Pure: built from the bench snapshot plus a few extras.
  */
+import type { LengthUnit } from "@/lib/calc/units";
+import type { Verdict } from "@/lib/sync/readings";
+import { expectedReadings } from "../procedures/spec-counts";
 import { torqueStages } from "@/lib/calc/torque-stages";
 import { compareStamps } from "@/lib/sync/hlc";
 import { currentReadings } from "@/lib/sync/readings";
@@ -12,12 +15,12 @@ import type { JobSnapshot } from "@/lib/sync/snapshot";
 type State = JobSnapshot["state"];
 type Step = JobSnapshot["procedures"][number]["stages"][number]["steps"][number];
 
-export interface Receipt {
+interface Receipt {
   receivedAt: string;
   deviceId: string;
 }
 
-export interface AcceptanceFact {
+interface AcceptanceFact {
   measurementId: string;
   decisionId: string;
   justification: string;
@@ -36,7 +39,7 @@ export interface DecisionFact {
   seq: string;
 }
 
-export interface SignOffFact {
+interface SignOffFact {
   id: string;
   jobProcedureId: string;
   stageKey: string;
@@ -69,8 +72,8 @@ export interface Person {
 export interface ReadingLine {
   id: string;
   value: number;
-  unit: "mm" | "in" | "µm";
-  verdict: "in" | "low" | "high";
+  unit: LengthUnit;
+  verdict: Verdict;
   note: string;
   by: Person;
   deviceId: string;
@@ -84,7 +87,7 @@ export interface ReadingLine {
   acceptance: (Omit<AcceptanceFact, "measurementId" | "acceptedBy"> & { by: Person }) | null;
 }
 
-export interface SpotView {
+interface SpotView {
   readingIndex: number;
   label: string;
   current: ReadingLine | null;
@@ -97,7 +100,7 @@ export interface SpotView {
 export interface SpecView {
   id: string;
   label: string;
-  unit: "mm" | "in" | "µm";
+  unit: LengthUnit;
   nominal: number | null;
   min: number;
   max: number;
@@ -274,7 +277,7 @@ function stepReview(
   sendBacks: readonly DecisionFact[],
 ): StepReview {
   const specs: SpecView[] = step.measurementSpecs.map((spec) => {
-    const count = Math.max(1, spec.readingLabels.length);
+    const count = expectedReadings(spec.readingLabels);
     const ofSpec = state.readings.filter((r) => r.specId === spec.id);
     const indexes = new Set<number>([...Array.from({ length: count }, (_, i) => i), ...ofSpec.map((r) => r.readingIndex)]);
     const spots = [...indexes].sort((a, b) => a - b).map((readingIndex): SpotView => {

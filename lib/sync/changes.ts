@@ -7,10 +7,10 @@ import { formatStamp } from "./hlc";
 import { cursorSchema, operationSchema, stampSchema } from "./operations";
 
 /** The device id the server uses in stamps it makes (review decisions). Tablets never use it. */
-export const SERVER_DEVICE_ID = "server";
+const SERVER_DEVICE_ID = "server";
 
 /** An operation another device sent, as stored (flagged ones included, with why). */
-export const operationChangeSchema = z.object({
+const operationChangeSchema = z.object({
   type: z.literal("operation"),
   seq: cursorSchema,
   operation: operationSchema,
@@ -19,7 +19,7 @@ export const operationChangeSchema = z.object({
 });
 
 /** A supervisor's decision on a sign-off. `reopenedStepIds` are steps the tablet must open again. */
-export const reviewChangeSchema = z.object({
+const reviewChangeSchema = z.object({
   type: z.literal("review"),
   seq: cursorSchema,
   /** Server-made clock stamp at the decision time: pass it to the device clock's `receive`. */
@@ -36,12 +36,10 @@ export const reviewChangeSchema = z.object({
   decidedAt: z.iso.datetime({ offset: true }),
 });
 
-export const changeSchema = z.discriminatedUnion("type", [operationChangeSchema, reviewChangeSchema]);
+const changeSchema = z.discriminatedUnion("type", [operationChangeSchema, reviewChangeSchema]);
 export type Change = z.output<typeof changeSchema>;
-export type OperationChange = z.output<typeof operationChangeSchema>;
-export type ReviewChange = z.output<typeof reviewChangeSchema>;
 
-export const outcomeWithReasonSchema = z.object({ id: z.uuid(), reason: z.string() });
+const outcomeWithReasonSchema = z.object({ id: z.uuid(), reason: z.string() });
 
 export const syncResponseSchema = z.object({
   /** Stored by this request: remove from the outbox. Includes the flagged ones. */
@@ -66,7 +64,7 @@ export type SyncResponse = z.output<typeof syncResponseSchema>;
  * added since this tablet loaded the app). The tablet does not fail its sync for it: it reloads
  * the job the change names (its snapshot comes in the shape this version reads) and moves on.
  */
-export interface UnreadChange {
+interface UnreadChange {
   type: "unread";
   seq: string | null;
   workOrderId: string | null;

@@ -27,7 +27,7 @@ const COUNTER_DIGITS = 6;
 /** Largest counter; one more moves the clock on by a millisecond instead. */
 export const MAX_COUNTER = 999_999;
 /** Largest wall time a stamp can hold (15 digits of milliseconds). */
-export const MAX_WALL_MS = 10 ** WALL_DIGITS - 1;
+const MAX_WALL_MS = 10 ** WALL_DIGITS - 1;
 
 export interface HlcState {
   /** The clock's wall part: the highest wall time seen, in ms since 1970. */
@@ -37,7 +37,7 @@ export interface HlcState {
   deviceId: string;
 }
 
-export interface HlcParts {
+interface HlcParts {
   wallMs: number;
   counter: number;
   deviceId: string;
@@ -91,10 +91,6 @@ export function parseStamp(stamp: string): HlcParts {
   return { wallMs: Number(m[1]), counter: Number(m[2]), deviceId: m[3] };
 }
 
-export function isStamp(value: unknown): value is string {
-  return typeof value === "string" && STAMP_PATTERN.test(value);
-}
-
 /** -1, 0 or 1: the order the merge applies operations in (plain string order; stamps are ASCII). */
 export function compareStamps(a: string, b: string): -1 | 0 | 1 {
   return a < b ? -1 : a > b ? 1 : 0;
@@ -144,7 +140,3 @@ export function receive(
   return { state: s, stamp: formatStamp(s) };
 }
 
-/** The wall-clock part of a stamp, ms since 1970. */
-export function stampWallMs(stamp: string): number {
-  return parseStamp(stamp).wallMs;
-}

@@ -1,5 +1,5 @@
 /**
- * The merge rules, as pure functions. db/sync.ts loads the facts, calls `decideOperation` for each
+ * The merge rules, as pure functions. db/sync/merge.ts loads the facts, calls `decideOperation` for each
  * operation in stamp order (calling `noteAccepted` after each one it keeps), and writes the result.
  * The rules in plain words are in ./README.md.
  */
@@ -7,7 +7,7 @@ import { canReach, type Role } from "@/lib/auth/roles";
 import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { compareStamps, parseStamp } from "./hlc";
 import type { Operation } from "./operations";
-import { partSerialOnJob, repeatedSerialReason, type SerialOnFile } from "./parts";
+import { partSerialOnWorkOrder, repeatedSerialReason, type SerialOnFile } from "./parts";
 
 /** A stamp further ahead of the server's clock than this is kept but flagged (the tablet's clock is likely wrong). */
 export const MAX_CLOCK_AHEAD_MS = 5 * 60_000;
@@ -51,7 +51,7 @@ export interface SendBackFacts {
 }
 
 /** What the merge knows about one work order: the job, and the procedures pinned on it. */
-export interface JobFacts {
+export interface WorkOrderFacts {
   id: string;
   shopId: string;
   number: number;
@@ -71,7 +71,7 @@ export interface MergeState {
   attachmentIds: Set<string>;
   /** Part record ids (parts_fitted.id) in use. */
   partIds: Set<string>;
-  /** Serial-numbered parts on the batch's jobs, by `partSerialOnJob` (./parts.ts). */
+  /** Serial-numbered parts on the batch's jobs, by `partSerialOnWorkOrder` (./parts.ts). */
   partSerials: Map<string, SerialOnFile>;
 }
 
@@ -88,7 +88,7 @@ export interface DecisionInput {
   /** The server's clock, ms. */
   nowMs: number;
   /** The work order the operation names; undefined when there is none. */
-  job: JobFacts | undefined;
+  job: WorkOrderFacts | undefined;
   state: MergeState;
 }
 
@@ -104,7 +104,7 @@ const refuse = (reason: string): Decision => ({ outcome: "refuse", reason });
  * Who may record bench work on a job: a user whose role reaches the bench, in the job's shop;
  * a supervisor on any job of the shop; a mechanic on a job assigned to them or assigned to nobody.
  */
-export function mayWorkJob(actor: Actor, job: { shopId: string; assignedMechanicId: string | null }): boolean {
+export function mayWorkOn(actor: Actor, job: { shopId: string; assignedMechanicId: string | null }): boolean {
   if (actor.shopId !== job.shopId || !canReach(actor.role, "bench")) return false;
   if (actor.role !== "mechanic") return true;
   return job.assignedMechanicId === null || job.assignedMechanicId === actor.id;
@@ -116,7 +116,7 @@ export function sortByStamp<T extends { stamp: string; id: string }>(ops: readon
 }
 
 /** Whether the device could not have known of a send-back when it made an operation. */
-export function sendBackUnseen(sendBack: SendBackFacts, opWallMs: number, cursor: number | null): boolean {
+function sendBackUnseen(sendBack: SendBackFacts, opWallMs: number, cursor: number | null): boolean {
   return cursor === null || sendBack.seq > cursor || opWallMs < sendBack.decidedAtMs;
 }
 
@@ -135,7 +135,7 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
   }
   if (!canReach(actor.role, "bench")) return refuse(`Your role (${actor.role}) may not record bench work.`);
   if (!job || job.shopId !== actor.shopId) return refuse(`Work order ${op.workOrderId} is not in your shop.`);
-  if (!mayWorkJob(actor, job)) return refuse(`Work order #${job.number} is assigned to another mechanic.`);
+  if (!mayWorkOn(actor, job)) return refuse(`Work order #${job.number} is assigned to another mechanic.`);
 
   if (op.kind === "timer.overridden" && actor.role !== "supervisor") {
     return refuse("Only a supervisor may override a timer.");
@@ -154,14 +154,14 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
   return flags.length ? { outcome: "flag", reason: flags.join(" ") } : accept;
 }
 
-function jobFlags(job: JobFacts): string[] {
+function jobFlags(job: WorkOrderFacts): string[] {
   const label = STATUS_LABELS[job.status] ?? job.status;
   if (isClosed(job.status)) return [`Work order #${job.number} is closed (${label}); kept for review.`];
   if (!isOpenForBenchWork(job.status)) return [`Work order #${job.number} is not open for bench work (${label}); kept for review.`];
   return [];
 }
 
-function sendBackFlags(op: Operation, job: JobFacts, opWallMs: number, cursor: number | null): string[] {
+function sendBackFlags(op: Operation, job: WorkOrderFacts, opWallMs: number, cursor: number | null): string[] {
   if (op.kind === "step.completed") {
     const step = job.steps.get(op.payload.stepId)!;
     const hit = job.sendBacks.find((s) => s.stepIds.includes(op.payload.stepId) && sendBackUnseen(s, opWallMs, cursor));
@@ -187,17 +187,17 @@ function sendBackFlags(op: Operation, job: JobFacts, opWallMs: number, cursor: n
 }
 
 /** A serial-numbered part already recorded on the job (on file, or earlier in the batch) is kept and flagged. */
-function partFlags(op: Operation, job: JobFacts, state: MergeState): string[] {
+function partFlags(op: Operation, job: WorkOrderFacts, state: MergeState): string[] {
   if (op.kind !== "part.fitted" || op.payload.serial === undefined) return [];
   const serial = op.payload.serial;
-  const earlier = state.partSerials.get(partSerialOnJob(job.id, op.payload.partNumber, serial));
+  const earlier = state.partSerials.get(partSerialOnWorkOrder(job.id, op.payload.partNumber, serial));
   if (!earlier) return [];
   const stepTitle = earlier.stepId === null ? null : (job.steps.get(earlier.stepId)?.title ?? null);
   return [repeatedSerialReason({ partNumber: op.payload.partNumber, serial }, job.number, stepTitle)];
 }
 
 /** The refusal reason when the operation names something that is not on the job, else null. */
-function checkReferences(op: Operation, job: JobFacts, state: MergeState): string | null {
+function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState): string | null {
   const onJob = `on work order #${job.number}`;
   const stepMissing = (stepId: string) =>
     job.steps.has(stepId) ? null : `Step ${stepId} is not part of a procedure ${onJob}.`;
@@ -294,7 +294,7 @@ export function noteAccepted(op: Operation, state: MergeState): void {
     case "part.fitted": {
       const p = op.payload;
       state.partIds.add(p.partFittedId);
-      const key = p.serial === undefined ? null : partSerialOnJob(op.workOrderId, p.partNumber, p.serial);
+      const key = p.serial === undefined ? null : partSerialOnWorkOrder(op.workOrderId, p.partNumber, p.serial);
       if (key !== null && !state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.stepId });
       return;
     }

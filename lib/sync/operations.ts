@@ -41,7 +41,7 @@ const id = () => z.uuid({ error: "must be a UUID" });
 const isoTime = () => z.iso.datetime({ offset: true, error: "must be an ISO 8601 date-time with a time zone (e.g. 2026-12-02T09:30:00.000Z)" });
 const stageKey = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "must be a stage key (lower-case letters, digits and dashes)");
 
-export const deviceIdSchema = z
+const deviceIdSchema = z
   .string()
   .regex(DEVICE_ID_PATTERN, "must be 1–64 letters, digits or . _ : - starting with a letter or digit");
 export const stampSchema = z
@@ -54,9 +54,9 @@ export const cursorSchema = z.string().regex(/^(0|[1-9]\d{0,17})$/, "must be a c
 // Payloads, one per kind
 // ---------------------------------------------------------------------------------------------
 
-export const stepCompletedPayload = z.object({ stepId: id() }).strict();
+const stepCompletedPayload = z.object({ stepId: id() }).strict();
 
-export const measurementRecordedPayload = z
+const measurementRecordedPayload = z
   .object({
     stepId: id(),
     specId: id(),
@@ -70,7 +70,7 @@ export const measurementRecordedPayload = z
   })
   .strict();
 
-export const torqueBoltConfirmedPayload = z
+const torqueBoltConfirmedPayload = z
   .object({
     stepId: id(),
     torqueSpecId: id(),
@@ -86,7 +86,7 @@ export const torqueBoltConfirmedPayload = z
     path: ["wrenchUnit"],
   });
 
-export const timerStartedPayload = z
+const timerStartedPayload = z
   .object({
     timerId: id(),
     stepId: id(),
@@ -97,14 +97,14 @@ export const timerStartedPayload = z
   })
   .strict();
 
-export const timerStoppedPayload = z.object({ timerId: id(), stoppedAt: isoTime() }).strict();
+const timerStoppedPayload = z.object({ timerId: id(), stoppedAt: isoTime() }).strict();
 
 /** A supervisor lets the step a timer holds back go ahead before the time is up, saying why. */
-export const timerOverriddenPayload = z
+const timerOverriddenPayload = z
   .object({ timerId: id(), reason: z.string().trim().min(3, "give the reason in a few words").max(500) })
   .strict();
 
-export const photoQueuedPayload = z
+const photoQueuedPayload = z
   .object({
     attachmentId: id(),
     stepId: id(),
@@ -114,7 +114,7 @@ export const photoQueuedPayload = z
   })
   .strict();
 
-export const stageSignedOffPayload = z.object({ jobProcedureId: id(), stageKey }).strict();
+const stageSignedOffPayload = z.object({ jobProcedureId: id(), stageKey }).strict();
 
 /** Longest texts of a part fitted (the same limits as the office's form). */
 export const PART_TEXT_LIMITS = { partNumber: 60, description: 200, serial: 80, batch: 80, supplier: 120 } as const;

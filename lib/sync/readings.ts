@@ -9,7 +9,11 @@ import { evaluateTolerance, type ToleranceStatus } from "@/lib/calc/tolerance";
 import type { LengthUnit } from "@/lib/calc/units";
 import { compareStamps } from "./hlc";
 
-export interface ReadingLike {
+/** A reading's verdict against its spec, as stored and sent: within the limits, below, above. */
+export const VERDICTS = ["in", "low", "high"] as const satisfies readonly ToleranceStatus[];
+export type Verdict = (typeof VERDICTS)[number];
+
+interface ReadingLike {
   id: string;
   workOrderId?: string;
   specId: string;

@@ -1,19 +1,20 @@
 /**
  * What the bench read endpoints return, for the client to fill IndexedDB. Pure zod schemas and
- * types, shared by db/bench-jobs.ts (which builds them) and the client (which can check them).
+ * types, shared by db/bench/jobs.ts (which builds them) and the client (which can check them).
  * Numbers from numeric columns (specs, readings) come as JSON numbers, exactly as entered.
  */
 import { z } from "zod";
 import { LENGTH_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
-import { cautionSchema, torquePassSchema } from "@/lib/procedures/template-schema";
+import { BOLT_PATTERNS, cautionSchema, MEASUREMENT_GEOMETRIES, torquePassSchema } from "@/lib/procedures/template-schema";
 import { WORK_ORDER_STATUSES } from "@/lib/work-orders/status";
 import { cursorSchema } from "./operations";
+import { VERDICTS } from "./readings";
 
 const id = z.uuid();
 const time = z.iso.datetime({ offset: true });
 const person = z.object({ id, name: z.string() });
 
-export const benchBikeSchema = z.object({
+const benchBikeSchema = z.object({
   id,
   make: z.string(),
   model: z.string(),
@@ -24,7 +25,7 @@ export const benchBikeSchema = z.object({
 });
 
 /** One line of GET /api/bench/jobs. */
-export const benchJobSummarySchema = z.object({
+const benchJobSummarySchema = z.object({
   id,
   number: z.number().int(),
   title: z.string(),
@@ -32,7 +33,7 @@ export const benchJobSummarySchema = z.object({
   statusLabel: z.string(),
   assignedMechanic: person.nullable(),
   assignedToMe: z.boolean(),
-  /** Whether the signed-in user may record work on it (see lib/sync/merge-rules mayWorkJob). */
+  /** Whether the signed-in user may record work on it (see lib/sync/merge-rules mayWorkOn). */
   mayWork: z.boolean(),
   bike: benchBikeSchema,
   updatedAt: time,
@@ -46,20 +47,20 @@ export const tagLookupSchema = z.object({
   bike: z.object({ id, tagCode: z.string(), make: z.string(), model: z.string() }),
 });
 
-export const torqueSpecSnapshotSchema = z.object({
+const torqueSpecSnapshotSchema = z.object({
   id,
   label: z.string(),
   finalValue: z.number(),
   unit: z.enum(TORQUE_UNITS),
   passes: z.array(torquePassSchema),
   anglePasses: z.array(z.number()),
-  pattern: z.enum(["cross", "spiral-out", "linear"]),
+  pattern: z.enum(BOLT_PATTERNS),
   boltCount: z.number().int(),
   lubricant: z.string(),
   torqueToYield: z.boolean(),
 });
 
-export const measurementSpecSnapshotSchema = z.object({
+const measurementSpecSnapshotSchema = z.object({
   id,
   key: z.string(),
   label: z.string(),
@@ -68,17 +69,17 @@ export const measurementSpecSnapshotSchema = z.object({
   max: z.number(),
   unit: z.enum(LENGTH_UNITS),
   readingLabels: z.array(z.string()),
-  geometry: z.enum(["bore", "oil-clearance"]).nullable(),
+  geometry: z.enum(MEASUREMENT_GEOMETRIES).nullable(),
 });
 
-export const timerSpecSnapshotSchema = z.object({
+const timerSpecSnapshotSchema = z.object({
   id,
   label: z.string(),
   durationS: z.number().int(),
   blocksStepKey: z.string().nullable(),
 });
 
-export const stepSnapshotSchema = z.object({
+const stepSnapshotSchema = z.object({
   id,
   key: z.string(),
   title: z.string(),
@@ -92,14 +93,14 @@ export const stepSnapshotSchema = z.object({
   timerSpecs: z.array(timerSpecSnapshotSchema),
 });
 
-export const stageSnapshotSchema = z.object({
+const stageSnapshotSchema = z.object({
   key: z.string(),
   title: z.string(),
   position: z.number().int(),
   steps: z.array(stepSnapshotSchema),
 });
 
-export const procedureSnapshotSchema = z.object({
+const procedureSnapshotSchema = z.object({
   jobProcedureId: id,
   position: z.number().int(),
   templateVersionId: id,
@@ -110,7 +111,7 @@ export const procedureSnapshotSchema = z.object({
   stages: z.array(stageSnapshotSchema),
 });
 
-export const completionSnapshotSchema = z.object({
+const completionSnapshotSchema = z.object({
   id,
   stepId: id,
   completedBy: id,
@@ -121,14 +122,14 @@ export const completionSnapshotSchema = z.object({
   seq: cursorSchema,
 });
 
-export const readingSnapshotSchema = z.object({
+const readingSnapshotSchema = z.object({
   id,
   stepId: id,
   specId: id,
   readingIndex: z.number().int(),
   value: z.number(),
   unit: z.enum(LENGTH_UNITS),
-  verdict: z.enum(["in", "low", "high"]),
+  verdict: z.enum(VERDICTS),
   note: z.string(),
   supersedesId: id.nullable(),
   /** The current reading of its spot (latest stamp, not superseded). */
@@ -141,7 +142,7 @@ export const readingSnapshotSchema = z.object({
   flagReason: z.string().nullable(),
 });
 
-export const torqueRecordSnapshotSchema = z.object({
+const torqueRecordSnapshotSchema = z.object({
   id,
   stepId: id,
   torqueSpecId: id,
@@ -153,7 +154,7 @@ export const torqueRecordSnapshotSchema = z.object({
   deviceTime: time,
 });
 
-export const timerSnapshotSchema = z.object({
+const timerSnapshotSchema = z.object({
   id,
   stepId: id,
   timerSpecId: id.nullable(),
@@ -166,7 +167,7 @@ export const timerSnapshotSchema = z.object({
   overrideReason: z.string().nullable(),
 });
 
-export const signOffSnapshotSchema = z.object({
+const signOffSnapshotSchema = z.object({
   id,
   jobProcedureId: id,
   stageKey: z.string(),
@@ -177,7 +178,7 @@ export const signOffSnapshotSchema = z.object({
 });
 
 /** The latest decision on each sign-off. */
-export const reviewDecisionSnapshotSchema = z.object({
+const reviewDecisionSnapshotSchema = z.object({
   id,
   signOffId: id,
   jobProcedureId: id,
@@ -190,7 +191,7 @@ export const reviewDecisionSnapshotSchema = z.object({
   seq: cursorSchema,
 });
 
-export const photoSnapshotSchema = z.object({
+const photoSnapshotSchema = z.object({
   id,
   stepId: id.nullable(),
   contentType: z.string(),
@@ -201,7 +202,7 @@ export const photoSnapshotSchema = z.object({
 });
 
 /** A part fitted to the job: from the bench (`part.fitted`, with any flag) or from the office (no step, perhaps). */
-export const partSnapshotSchema = z.object({
+const partSnapshotSchema = z.object({
   id,
   stepId: id.nullable(),
   partNumber: z.string(),
@@ -252,6 +253,5 @@ export const jobSnapshotSchema = z.object({
 });
 
 export type BenchJobSummary = z.output<typeof benchJobSummarySchema>;
-export type BenchJobList = z.output<typeof benchJobListSchema>;
 export type TagLookup = z.output<typeof tagLookupSchema>;
 export type JobSnapshot = z.output<typeof jobSnapshotSchema>;

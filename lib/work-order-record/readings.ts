@@ -1,12 +1,13 @@
 /** Readings of a work order: those on record and those waiting, the current one per spot, what is still to read. */
+import { expectedReadings } from "@/lib/procedures/spec-counts";
 import { compareStamps } from "@/lib/sync/hlc";
 import { readingVerdict } from "@/lib/sync/readings";
 import type { PendingWork } from "./pending";
 import type { BenchStep, MeasurementSpecView, ReadingView, Snapshot } from "./types";
 
-/** Readings per spec a step expects: its reading labels, or one. */
+/** Readings per spec a step expects: the rule written once in lib/procedures/spec-counts.ts. */
 export function readingCount(spec: MeasurementSpecView): number {
-  return Math.max(1, spec.readingLabels.length);
+  return expectedReadings(spec.readingLabels);
 }
 
 function findSpec(snapshot: Snapshot, specId: string): MeasurementSpecView | undefined {

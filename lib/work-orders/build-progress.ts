@@ -31,7 +31,7 @@ export interface StageLike {
   steps: ReadonlyArray<{ done: boolean; current: ReadonlyMap<string, ReadonlyMap<number, { verdict: string }>> }>;
 }
 
-export interface StageProgress {
+interface StageProgress {
   procedureName: string;
   key: string;
   title: string;

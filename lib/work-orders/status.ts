@@ -47,11 +47,32 @@ export function canTransition(from: WorkOrderStatus, to: WorkOrderStatus): boole
   return NEXT[from].includes(to);
 }
 
-// Statuses in which bench work (steps, readings, torque, timers) is expected.
+// The status predicates, written once: queries filter by these lists, code asks the functions.
+
+/** Statuses in which bench work (steps, readings, torque, timers) is expected. */
+export const OPEN_FOR_BENCH_WORK = ["in_build", "in_review", "on_dyno"] as const satisfies readonly WorkOrderStatus[];
+/** Closed: the record is finished (handed over) or abandoned (cancelled); nothing more happens. */
+export const CLOSED_STATUSES = ["handed_over", "cancelled"] as const satisfies readonly WorkOrderStatus[];
+/** Being built: the customer sees the build's progress (steps and stages) while in these. */
+const BEING_BUILT = ["in_build", "in_review"] as const satisfies readonly WorkOrderStatus[];
+/** Dyno runs can be recorded and read: from the build on, the handed-over record included. */
+export const DYNO_STATUSES = ["in_build", "in_review", "on_dyno", "ready", "handed_over"] as const satisfies readonly WorkOrderStatus[];
+
+/** A quote may be written (or revised) until the customer approves one. */
+const QUOTABLE = ["booked_in", "inspected", "quoted"] as const satisfies readonly WorkOrderStatus[];
+
+export function isQuotable(status: WorkOrderStatus): boolean {
+  return (QUOTABLE as readonly WorkOrderStatus[]).includes(status);
+}
+
 export function isOpenForBenchWork(status: WorkOrderStatus): boolean {
-  return status === "in_build" || status === "in_review" || status === "on_dyno";
+  return (OPEN_FOR_BENCH_WORK as readonly WorkOrderStatus[]).includes(status);
 }
 
 export function isClosed(status: WorkOrderStatus): boolean {
-  return status === "handed_over" || status === "cancelled";
+  return (CLOSED_STATUSES as readonly WorkOrderStatus[]).includes(status);
+}
+
+export function isBeingBuilt(status: WorkOrderStatus): boolean {
+  return (BEING_BUILT as readonly WorkOrderStatus[]).includes(status);
 }

@@ -11,7 +11,7 @@ export interface TransitionFacts {
   byCustomerApproval?: boolean; // the move is the customer's own approval
 }
 
-export type TransitionCheck = { ok: true } | { ok: false; reason: string };
+type TransitionCheck = { ok: true } | { ok: false; reason: string };
 
 export function checkTransition(from: WorkOrderStatus, to: WorkOrderStatus, f: TransitionFacts): TransitionCheck {
   if (from === to) return { ok: false, reason: `The work order is already "${STATUS_LABELS[to]}".` };

@@ -1,5 +1,5 @@
 /**
- * Sync merge benchmark: `npx tsx tests/bench/sync-merge.ts`
+ * Sync merge benchmark: `npx tsx --conditions=react-server tests/bench/sync-merge.ts` (server modules load only under that condition)
  *
  * Uses the test cluster (db/scripts/pg.sh start test) and a throwaway database, migrated, with a
  * fixture shop. Measures:
@@ -15,12 +15,12 @@ import os from "node:os";
 import path from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { sql, type Kysely } from "kysely";
-import { createDb } from "@/db/client";
-import { ensureDatabase } from "@/db/create-database";
-import { migrateToLatest } from "@/db/migrate";
+import { createDb } from "@/db/setup/client";
+import { ensureDatabase } from "@/db/setup/create-database";
+import { migrateToLatest } from "@/db/setup/migrate";
 import type { Database } from "@/db/schema";
-import { mergeBatch } from "@/db/sync";
-import { handleSyncRequest } from "@/db/sync-http";
+import { mergeBatch } from "@/db/sync/merge";
+import { POST as syncRoute } from "@/app/api/sync/route";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { SyncResponse } from "@/lib/sync/changes";
 import type { Operation } from "@/lib/sync/operations";
@@ -131,10 +131,10 @@ export async function run(): Promise<BenchFigures> {
     for (;;) {
       const request = new Request("http://bench.local/api/sync", {
         method: "POST",
-        headers: { "content-type": "application/json" },
+        headers: { "content-type": "application/json", origin: "http://bench.local" },
         body: JSON.stringify(bay2.batch(body, cursor)),
       });
-      const res = await handleSyncRequest(request, job.sup, db);
+      const res = await syncRoute.handle(request, { user: job.sup, db });
       requests += 1;
       if (res.status !== 200) throw new Error(`catch-up request answered ${res.status}: ${await res.text()}`);
       const answer = (await res.json()) as SyncResponse;

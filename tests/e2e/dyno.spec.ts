@@ -2,6 +2,7 @@ import { readFile } from "node:fs/promises";
 import { expect, test, type Browser, type Page } from "@playwright/test";
 import { PDFParse } from "pdf-parse";
 import { signIn } from "./support/demo-users";
+import { fromOurPage } from "./support/same-origin";
 
 const SHOTS = "test-results/screens";
 const HP_PER_KW = 1 / 0.745699871582270; // NIST SP 811 B.8: 1 hp (550 ft·lbf/s) = 745.699 9 W
@@ -134,7 +135,7 @@ test("the build report route: the owner gets it, another customer and a mechanic
 
   const anon = await browser.newContext();
   expect((await anon.request.get(url)).status()).toBe(401);
-  expect((await anon.request.post(`/api/jobs/${id}/dyno-runs`, { data: {} })).status()).toBe(401);
+  expect((await anon.request.post(`/api/jobs/${id}/dyno-runs`, { data: {}, headers: fromOurPage })).status()).toBe(401);
   await anon.close();
 });
 
@@ -145,7 +146,7 @@ test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing save
   await expect(page.getByTestId("withdraw-run")).toHaveCount(0);
   const jobId = /\/jobs\/([0-9a-f-]{36})\/dyno/.exec(page.url())![1];
   const { runs } = (await (await page.request.get(`/api/jobs/${jobId}/dyno-runs`)).json()) as { runs: Array<{ id: string }> };
-  const refused = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${runs[0].id}/withdraw`, { data: { reason: "Mechanic trying to withdraw" } });
+  const refused = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${runs[0].id}/withdraw`, { data: { reason: "Mechanic trying to withdraw" }, headers: fromOurPage });
   expect(refused.status()).toBe(403);
   expect(JSON.stringify(await refused.json())).not.toContain(runs[0].id);
   const runButtons = page.getByRole("button", { name: /psi/ }).filter({ has: page.locator("span") });
@@ -222,7 +223,7 @@ test("a supervisor types a curve into the table; a bad cell is named by row and 
   // The route checks the reason the same way: a 400 naming the field, and nothing withdrawn.
   const jobId = /\/jobs\/([0-9a-f-]{36})\/dyno/.exec(page.url())![1];
   const typedId = (await runSelect.inputValue())!;
-  const short = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${typedId}/withdraw`, { data: { reason: "no" } });
+  const short = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${typedId}/withdraw`, { data: { reason: "no" }, headers: fromOurPage });
   expect(short.status()).toBe(400);
   expect((await short.json()).issues).toEqual([{ path: "reason", message: "Say why the run is withdrawn (at least 5 characters)." }]);
   await withdraw.getByLabel("Why it is withdrawn").fill("Typed on the wrong job card");

@@ -43,7 +43,7 @@ test("template editor: the structured form and the JSON view are checked as they
   await step.locator("summary").click();
   await step.getByLabel("Duration (seconds)").fill("-5");
   await expect(page.getByTestId("template-problems")).toContainText("stages[1].steps[1].timer.durationS:");
-  await expect(step.getByText("✖ Too small")).toBeVisible();
+  await expect(step.getByText("✖ Duration: must be more than 0")).toBeVisible();
   await expect(page.getByRole("button", { name: "Save as a new version" })).toBeDisabled();
   await step.getByLabel("Duration (seconds)").fill("5400");
   await page.getByLabel("Name", { exact: true }).fill("First start and run-in (our shop)");

@@ -2,6 +2,7 @@ import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { query } from "./support/e2e-db";
 import { signIn } from "./support/demo-users";
+import { fromOurPage } from "./support/same-origin";
 
 // The review and audit pages: the demo job #1001's head-prep sign-off waiting in the queue, the
 // review screen's record of it, role refusals on every page and route, clear answers to bad input,
@@ -80,7 +81,7 @@ test("mechanics and customers reach neither the review nor the audit pages nor t
     { method: "GET", url: "/api/audit/export" },
   ];
   for (const r of routes(signOffId)) {
-    const res = r.method === "GET" ? await request.get(r.url) : await request.post(r.url, { data: r.body });
+    const res = r.method === "GET" ? await request.get(r.url) : await request.post(r.url, { data: r.body, headers: fromOurPage });
     expect(res.status(), `${r.method} ${r.url} signed out`).toBe(401);
   }
   for (const key of ["mechanic", "customer"] as const) {
@@ -93,10 +94,10 @@ test("mechanics and customers reach neither the review nor the audit pages nor t
     await expect(page.getByRole("link", { name: "Review" })).toHaveCount(0);
     await expect(page.getByRole("link", { name: "Audit log" })).toHaveCount(0);
     for (const r of routes(signOffId)) {
-      const res = r.method === "GET" ? await page.request.get(r.url) : await page.request.post(r.url, { data: r.body });
+      const res = r.method === "GET" ? await page.request.get(r.url) : await page.request.post(r.url, { data: r.body, headers: fromOurPage });
       expect(res.status(), `${r.method} ${r.url} as ${u.key}`).toBe(403);
       const body = await res.json();
-      expect(body).toEqual({ error: `Your role (${u.role}) may not use this.` });
+      expect(body).toEqual({ error: `Your role (${u.role}) may not use this.`, issues: [] });
     }
   }
   const decisions = await query("SELECT count(*)::int AS n FROM review_decisions WHERE sign_off_id = $1", [signOffId]);
@@ -106,7 +107,7 @@ test("mechanics and customers reach neither the review nor the audit pages nor t
 test("bad input to the review routes gets a clear answer naming the problem, never a server error", async ({ page }) => {
   const signOffId = await headPrepSignOff();
   await signIn(page, "office");
-  const post = (data: unknown) => page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, { data: data as object });
+  const post = (data: unknown) => page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, { data: data as object, headers: fromOurPage });
 
   const noReason = await post({ decision: "sent_back", expectedDecisionId: null, reason: "", reopenStepIds: [] });
   expect(noReason.status()).toBe(400);
@@ -117,9 +118,9 @@ test("bad input to the review routes gets a clear answer naming the problem, nev
   expect(odd.status()).toBe(400);
   expect((await odd.json()).issues[0]).toMatchObject({ path: "decision", message: 'decision must be "approved" or "sent_back"' });
 
-  const notJson = await page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, { data: Buffer.from("{not json"), headers: { "content-type": "application/json" } });
+  const notJson = await page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, { data: Buffer.from("{not json"), headers: { "content-type": "application/json", ...fromOurPage } });
   expect(notJson.status()).toBe(400);
-  expect((await notJson.json()).error).toBe("The request body is not valid JSON.");
+  expect((await notJson.json()).error).toMatch(/^The body is not valid JSON: /);
 
   expect((await page.request.get("/api/review/sign-offs/not-an-id")).status()).toBe(404);
   expect((await page.request.get("/api/review/sign-offs/00000000-0000-4000-8000-000000000000")).status()).toBe(404);

@@ -7,16 +7,16 @@ cd "$root"
 export NEXT_TELEMETRY_DISABLED=1
 env -u DATABASE_URL bash db/scripts/pg.sh start test
 export DATABASE_URL="${E2E_DATABASE_URL:-$(bash db/scripts/pg.sh url test)/benchtag_e2e}"
-npx tsx db/cli/reset-database.ts
-npx tsx db/cli/migrate.ts
-npx tsx db/cli/seed.ts
+npx tsx db/setup/cli/reset-database.ts
+npx tsx db/setup/cli/migrate.ts
+npx tsx --conditions=react-server db/setup/cli/seed.ts
 port=${E2E_PORT:-3100}
 # Local fakes (maildev, s3rver, payments) and the app pointed at them; the webhook URL registered.
 bash tests/fakes/start-fakes.sh
 export SMTP_URL="smtp://127.0.0.1:${FAKE_SMTP_PORT:-1025}" S3_ENDPOINT="http://127.0.0.1:${FAKE_S3_PORT:-4569}" S3_BUCKET=${S3_BUCKET:-benchtag}
 export STRIPE_API_BASE="http://127.0.0.1:${FAKE_PAYMENTS_PORT:-12111}" STRIPE_SECRET_KEY=${STRIPE_SECRET_KEY:-sk_test_benchtag_local}
 export STRIPE_WEBHOOK_SECRET=${STRIPE_WEBHOOK_SECRET:-whsec_benchtag_local}
-npx tsx tests/fakes/register-webhook.ts "http://localhost:$port/api/payments/webhook"
+npx tsx --conditions=react-server tests/fakes/register-webhook.ts "http://localhost:$port/api/payments/webhook"
 export NEXTAUTH_URL=http://localhost:$port
 export NEXTAUTH_SECRET=${NEXTAUTH_SECRET:-e2e-only-secret-not-for-production}
 exec npx next start -p "$port"

@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { DEMO_PASSWORD } from "@/db/seed/demo-shop";
+import { DEMO_PASSWORD } from "@/db/seed/demo-people";
 import { demoUser, signIn } from "./support/demo-users";
 
 const landings = [
@@ -61,7 +61,7 @@ test("a mechanic cannot reach office or review pages or their route handlers", a
   const office = await page.request.get("/api/office/work-orders");
   expect(office.status()).toBe(403);
   const body = await office.json();
-  expect(body).toEqual({ error: expect.stringContaining("mechanic") });
+  expect(body).toEqual({ error: expect.stringContaining("mechanic"), issues: [] });
   expect(JSON.stringify(body)).not.toContain("GSW-");
   expect((await page.request.get("/api/my-bikes")).status()).toBe(403);
 });

@@ -1,5 +1,5 @@
 // Registers an app's webhook URL with the payment service (the fake, or a real test account)
-// through the SDK: `tsx tests/fakes/register-webhook.ts http://localhost:3200/api/payments/webhook`.
+// through the SDK: `tsx --conditions=react-server tests/fakes/register-webhook.ts http://localhost:3200/api/payments/webhook`.
 import { z } from "zod";
 import { paymentsClient } from "@/app/_server/payments";
 

@@ -1,18 +1,27 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { benchJobsResponse, jobSnapshotResponse, tagLookupResponse } from "@/app/api/bench/handlers";
-import { mergeBatch } from "@/db/sync";
+import { GET as jobSnapshot } from "@/app/api/bench/jobs/[id]/route";
+import { GET as benchJobs } from "@/app/api/bench/jobs/route";
+import { GET as tagLookup } from "@/app/api/bench/tags/[code]/route";
+import type { Db } from "@/db/setup/client";
+import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { bottomEndTemplate } from "@/lib/procedures/demo-templates/bottom-end";
+import type { WorkOrderStatus } from "@/lib/work-orders/status";
 import { benchJobListSchema, jobSnapshotSchema, tagLookupSchema } from "@/lib/sync/snapshot";
 import { fixtureSpecs, Tablet } from "../bench/sync-ops";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
+import { appRequest } from "./support/route-calls";
 import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
+// The three bench read routes, called through the route wrapper with the user and database given.
+const benchJobsResponse = (user: SessionUser | null, db: Db) => benchJobs.handle(appRequest("/api/bench/jobs"), { user, db });
+const jobSnapshotResponse = (user: SessionUser | null, db: Db, id: string) => jobSnapshot.handle(appRequest(`/api/bench/jobs/${id}`), { user, db, params: { id } });
+const tagLookupResponse = (user: SessionUser | null, db: Db, code: string) => tagLookup.handle(appRequest(`/api/bench/tags/${encodeURIComponent(code)}`), { user, db, params: { code } });
 const asUser = (u: ShopFixture["users"]["mechanic"], customerId: string | null = null): SessionUser => ({ ...u, customerId });
 
-async function addJob(fx: ShopFixture, number: number, status: string, mechanicId: string | null) {
+async function addJob(fx: ShopFixture, number: number, status: WorkOrderStatus, mechanicId: string | null) {
   const bike = await db
     .insertInto("bikes")
     .values({ shop_id: fx.shopId, customer_id: fx.customerId, make: "Invented", model: `Model ${number}`, year: 2018, tag_code: `T-${randomUUID().slice(0, 8)}`, vin: null, engine_number: null, displacement_cc: 749, colour: "green" })
@@ -109,7 +118,7 @@ describe("GET /api/bench/jobs/[id]", () => {
     const other = await createShopFixture(db);
     const res = await jobSnapshotResponse(asUser(fx.users.mechanic), db, other.workOrderId);
     expect(res.status).toBe(404);
-    expect(await res.json()).toEqual({ error: `No work order ${other.workOrderId} in this shop.` });
+    expect(await res.json()).toEqual({ error: `No work order ${other.workOrderId} in this shop.`, issues: [] });
     expect((await jobSnapshotResponse(asUser(fx.users.mechanic), db, "42")).status).toBe(400);
   });
 });
@@ -128,11 +137,11 @@ describe("GET /api/bench/tags/[code]", () => {
     const user = asUser(fx.users.mechanic);
     const noBike = await tagLookupResponse(user, db, other.bike.tag_code);
     expect(noBike.status).toBe(404);
-    expect(await noBike.json()).toEqual({ error: `No bike with tag ${other.bike.tag_code} in this shop.` });
+    expect(await noBike.json()).toEqual({ error: `No bike with tag ${other.bike.tag_code} in this shop.`, issues: [] });
     const idle = await addJob(fx, 7, "ready", null);
     const noJob = await tagLookupResponse(user, db, idle.tag);
     expect(noJob.status).toBe(404);
-    expect(await noJob.json()).toEqual({ error: `Bike ${idle.tag} has no open job.` });
+    expect(await noJob.json()).toEqual({ error: `Bike ${idle.tag} has no open job.`, issues: [] });
     expect((await tagLookupResponse(user, db, "x".repeat(65))).status).toBe(400);
   });
 });

@@ -1,10 +1,12 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { photoBytesResponse, uploadPhotoResponse, type PhotoStore } from "@/app/api/bench/photos/handlers";
-import { mergeBatch } from "@/db/sync";
+import { photoBytes, photoUpload, type PhotoStore } from "@/app/api/bench/photos/handlers";
+import type { Db } from "@/db/setup/client";
+import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { fixtureSpecs, Tablet } from "../bench/sync-ops";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
+import { appRequest } from "./support/route-calls";
 import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
@@ -25,7 +27,11 @@ function memoryStore(): PhotoStore & { objects: Map<string, { body: Buffer; cont
 }
 
 const upload = (id: string, body: Buffer, type = "image/jpeg") =>
-  new Request(`http://x/api/bench/photos/${id}`, { method: "POST", headers: { "content-type": type, "content-length": String(body.byteLength) }, body: new Uint8Array(body) });
+  appRequest(`/api/bench/photos/${id}`, { method: "POST", headers: { "content-type": type, "content-length": String(body.byteLength) }, body: new Uint8Array(body) });
+
+// The photo routes, called through the route wrapper with the user, database and store given.
+const uploadPhotoResponse = (user: SessionUser | null, db: Db, store: PhotoStore, id: string, req: Request) => photoUpload(store).handle(req, { user, db, params: { id } });
+const photoBytesResponse = (user: SessionUser | null, db: Db, store: PhotoStore, id: string) => photoBytes(store).handle(appRequest(`/api/bench/photos/${id}`), { user, db, params: { id } });
 
 describe("step photo bytes", () => {
   async function queued(bytes: Buffer) {

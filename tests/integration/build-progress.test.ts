@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { loadBuildProgress } from "@/db/build-progress";
-import { decideOnSignOff } from "@/db/review-decide";
+import { loadBuildProgress } from "@/db/records/build-progress";
+import { decideOnSignOff } from "@/db/review/decide";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { Tablet } from "../bench/sync-ops";
 import { measureStageWork, reviewSetup, sync } from "./support/review-bench";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { importDynoRun } from "@/db/dyno-import";
-import { listDynoRuns, saveDynoRun } from "@/db/dyno";
+import { importDynoRun } from "@/db/records/dyno-import";
+import { listDynoRuns, saveDynoRun } from "@/db/records/dyno";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
 
@@ -57,10 +57,9 @@ describe("dyno run import (real PostgreSQL)", () => {
     expect(r).toEqual({
       ok: false,
       status: 400,
-      fieldErrors: {},
-      curveErrors: [
-        { row: 3, column: "torque_nm", message: 'Torque must be a number; got "ninety"' },
-        { row: 4, column: "rpm", message: expect.stringContaining("must rise") },
+      issues: [
+        { path: "curve.3.torque_nm", message: 'Torque must be a number; got "ninety"' },
+        { path: "curve.4.rpm", message: expect.stringContaining("must rise") },
       ],
     });
     expect(await counts(fx.workOrderId)).toEqual(before);
@@ -74,7 +73,7 @@ describe("dyno run import (real PostgreSQL)", () => {
       ranOn: "20/11/2026",
       curve: { source: "csv", text: "rpm,torque_nm\n4000,80\n5000,90\n" },
     });
-    expect(r).toMatchObject({ ok: false, status: 400, fieldErrors: { ranOn: "Date must be a date (YYYY-MM-DD)" }, curveErrors: [] });
+    expect(r).toEqual({ ok: false, status: 400, issues: [{ path: "ranOn", message: "Date must be a date (YYYY-MM-DD)" }] });
     expect(await counts(fx.workOrderId)).toEqual({ runs: 0, points: 0 });
   });
 

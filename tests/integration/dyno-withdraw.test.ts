@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { importDynoRun } from "@/db/dyno-import";
-import { listDynoJobs, listDynoRuns, withdrawDynoRun } from "@/db/dyno";
-import { loadHandoverReport } from "@/db/handover-report";
+import { importDynoRun } from "@/db/records/dyno-import";
+import { listDynoWorkOrders, listDynoRuns, withdrawDynoRun } from "@/db/records/dyno";
+import { loadHandoverReport } from "@/db/records/handover-report";
 import { runWithdrawalSchema } from "@/lib/dyno";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
@@ -41,7 +41,7 @@ describe("withdrawing a dyno run recorded by mistake", () => {
     ]);
     expect(runs[1].points).toHaveLength(3); // the curve stays on record
 
-    const job = (await listDynoJobs(db, fx.shopId)).find((j) => j.id === fx.workOrderId);
+    const job = (await listDynoWorkOrders(db, fx.shopId)).find((j) => j.id === fx.workOrderId);
     expect(Number(job?.runCount)).toBe(1);
     const report = await loadHandoverReport(db, fx.shopId, fx.workOrderId);
     expect(report?.runs.map((x) => x.label)).toEqual(["9 psi, second pull"]);

@@ -1,9 +1,9 @@
 import { execFileSync } from "node:child_process";
 import path from "node:path";
 import type { TestProject } from "vitest/node";
-import { createDb } from "@/db/client";
-import { ensureDatabase } from "@/db/create-database";
-import { migrateToLatest } from "@/db/migrate";
+import { createDb } from "@/db/setup/client";
+import { ensureDatabase } from "@/db/setup/create-database";
+import { migrateToLatest } from "@/db/setup/migrate";
 
 // Each integration run gets a clean database on the test cluster (port 54339, fsync off),
 // started here when DATABASE_URL is not given. TEST_DATABASE_URL overrides the whole thing.

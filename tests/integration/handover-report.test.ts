@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { PDFParse } from "pdf-parse";
 import { renderHandoverReportPdf, ReportNotFoundError } from "@/app/_server/handover-report";
-import { saveDynoRun } from "@/db/dyno";
-import { reportWorkOrderFor } from "@/db/handover-report";
+import { saveDynoRun } from "@/db/records/dyno";
+import { reportWorkOrderFor } from "@/db/records/handover-report";
 import { seedDemoBuildRecord } from "@/db/seed/demo-dyno";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
@@ -104,9 +104,9 @@ describe("who may have a work order's report", () => {
   it("office and supervisor of the shop, and the bike's owner; not another customer or another shop", async () => {
     const fx = await createShopFixture(db);
     const other = await createShopFixture(db);
-    expect(await reportWorkOrderFor(db, asUser(fx, "office"), fx.workOrderId)).toBe(fx.workOrderId);
-    expect(await reportWorkOrderFor(db, asUser(fx, "supervisor"), fx.workOrderId)).toBe(fx.workOrderId);
-    expect(await reportWorkOrderFor(db, asUser(fx, "customer"), fx.workOrderId)).toBe(fx.workOrderId);
+    expect((await reportWorkOrderFor(db, asUser(fx, "office"), fx.workOrderId))?.id).toBe(fx.workOrderId);
+    expect((await reportWorkOrderFor(db, asUser(fx, "supervisor"), fx.workOrderId))?.id).toBe(fx.workOrderId);
+    expect((await reportWorkOrderFor(db, asUser(fx, "customer"), fx.workOrderId))?.id).toBe(fx.workOrderId);
     // a second customer of the same shop, owning nothing on this work order
     const stranger = await db
       .insertInto("customers")

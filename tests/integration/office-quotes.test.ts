@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { bookIn, moveWorkOrder } from "@/db/office/work-orders";
+import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { quotesOfWorkOrder, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
-import { createBike } from "@/db/office/bikes";
+import { createBike } from "@/db/shop/bikes";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
 
@@ -25,8 +25,8 @@ describe("quotes in the database", () => {
     });
     expect(saved).toMatchObject({ subtotalMinor: 11541, taxMinor: 2020, totalMinor: 13561 });
     const [q] = await quotesOfWorkOrder(db, fx.shopId, wo.id);
-    expect(q).toMatchObject({ status: "draft", tax_rate_bp: 1750, subtotal_minor: 11541, tax_minor: 2020, total_minor: 13561, deposit_minor: 4000 });
-    expect(q.lines.map((l) => l.line_total_minor)).toEqual([10875, 666]);
+    expect(q).toMatchObject({ status: "draft", taxRateBp: 1750, subtotalMinor: 11541, taxMinor: 2020, totalMinor: 13561, depositMinor: 4000 });
+    expect(q.lines.map((l) => l.lineTotalMinor)).toEqual([10875, 666]);
   });
 
   it("refuses a deposit larger than the total, with the field named", async () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { importTemplateDocuments, loadTemplateDocument, templatesWithVersions } from "@/db/office/template-documents";
-import { createTemplateVersion } from "@/db/templates";
+import { importTemplateDocuments, loadTemplateDocument, templatesWithVersions } from "@/db/templates/documents";
+import { createTemplateVersion } from "@/db/templates/versions";
 import { DEMO_TEMPLATES } from "@/lib/procedures/demo-templates";
 import { firstStartTemplate } from "@/lib/procedures/demo-templates/first-start";
 import { turboKitTemplate } from "@/lib/procedures/demo-templates/turbo-kit";
@@ -41,29 +41,31 @@ describe("template export and import", () => {
   });
 
   it("names the path and the problem for a bad file", () => {
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a deliberately broken document
     const bad = structuredClone(turboKitTemplate) as Record<string, any>;
     bad.stages[1].steps[0].torque[0].unit = "ft-lb";
     bad.stages[0].steps[1].measurements[0].min = 2000;
     const r = readTemplateFile(JSON.stringify(bad));
     expect(r.ok).toBe(false);
     if (r.ok) return;
-    expect(r.problems).toContainEqual({ path: "stages[1].steps[0].torque[0].unit", message: expect.stringContaining("N·m") });
-    expect(r.problems).toContainEqual({ path: "stages[0].steps[1].measurements[0].min", message: "min must not exceed max" });
+    expect(r.issues).toContainEqual({ path: "stages[1].steps[0].torque[0].unit", message: expect.stringContaining("N·m") });
+    expect(r.issues).toContainEqual({ path: "stages[0].steps[1].measurements[0].min", message: "min must not exceed max" });
   });
 
   it("refuses text that is not JSON, or not our format, with a reason", () => {
-    expect(readTemplateFile("{ not json")).toMatchObject({ ok: false, problems: [{ path: "(file)", message: expect.stringMatching(/^not valid JSON/) }] });
-    expect(readTemplateFile(JSON.stringify({ format: "something-else" }))).toEqual({ ok: false, problems: [{ path: "format", message: 'expected "benchtag-template" or "benchtag-template-bundle"' }] });
+    expect(readTemplateFile("{ not json")).toMatchObject({ ok: false, issues: [{ path: "(file)", message: expect.stringMatching(/^not valid JSON/) }] });
+    expect(readTemplateFile(JSON.stringify({ format: "something-else" }))).toEqual({ ok: false, issues: [{ path: "format", message: 'expected "benchtag-template" or "benchtag-template-bundle"' }] });
   });
 
   it("imports a bundle all or nothing: one bad template leaves nothing written", async () => {
     const fx = await createShopFixture(db);
     const before = [await count("procedure_templates"), await count("template_versions"), await count("template_steps")];
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a deliberately broken document
     const broken = structuredClone(firstStartTemplate) as Record<string, any>;
     broken.stages[1].steps[1].timer.blocksStepKey = "no-such-step";
     const bundle = { format: "benchtag-template-bundle", formatVersion: 1, templates: [turboKitTemplate, broken] };
     const r = readTemplateFile(JSON.stringify(bundle));
-    expect(r).toEqual({ ok: false, problems: [{ path: "templates[1].stages[1].steps[1].timer.blocksStepKey", message: 'timer blocks unknown step "no-such-step"' }] });
+    expect(r).toEqual({ ok: false, issues: [{ path: "templates[1].stages[1].steps[1].timer.blocksStepKey", message: 'timer blocks unknown step "no-such-step"' }] });
     expect([await count("procedure_templates"), await count("template_versions"), await count("template_steps")]).toEqual(before);
 
     // a failure half-way (the second refused after the first was written in the transaction) writes nothing:

@@ -1,9 +1,9 @@
 import { describe, expect, it } from "vitest";
-import { bookIn, moveWorkOrder, assignMechanic, workOrderDetail } from "@/db/office/work-orders";
+import { bookIn, moveWorkOrder, assignMechanic, workOrderDetail } from "@/db/shop/work-orders";
 import { saveQuoteDraft, sendQuote, approveQuoteAsCustomer } from "@/db/office/quotes";
-import { createBike } from "@/db/office/bikes";
+import { createBike } from "@/db/shop/bikes";
 import { handOver } from "@/db/office/invoices";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
 

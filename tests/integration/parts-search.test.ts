@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { createBike } from "@/db/office/bikes";
+import { createBike } from "@/db/shop/bikes";
 import { addPartFitted, bikesWithPart } from "@/db/office/parts";
-import { bookIn } from "@/db/office/work-orders";
+import { bookIn } from "@/db/shop/work-orders";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
 

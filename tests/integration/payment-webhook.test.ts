@@ -4,10 +4,10 @@ import Stripe from "stripe";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { handlePaymentWebhook } from "@/app/_server/payment-webhook";
 import { paymentsClient, startDepositPayment } from "@/app/_server/payments";
-import { createBike } from "@/db/office/bikes";
+import { createBike } from "@/db/shop/bikes";
 import { attachPaymentIntent, openDeposit } from "@/db/office/deposits";
 import { approveQuoteAsCustomer, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
-import { bookIn, moveWorkOrder } from "@/db/office/work-orders";
+import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { createShopFixture } from "./support/shop-fixture";
 import { mailTo, useFakes } from "./support/fakes";
 import { useTestDb } from "./support/test-db";
@@ -20,7 +20,7 @@ beforeAll(() => {
 });
 
 // A job with an approved quote and a pending deposit of 5000 (GBP pence) tied to payment intent `pi`.
-async function jobWithPendingDeposit(pi: string) {
+async function workOrderWithPendingDeposit(pi: string) {
   const fx = await createShopFixture(db, { status: "handed_over" });
   await db.updateTable("shops").set({ currency: "GBP" }).where("id", "=", fx.shopId).execute();
   const bike = await createBike(db, fx.shopId, { customerId: fx.customerId, make: "Corvid", model: "RX1000" });
@@ -44,7 +44,7 @@ const depositStatus = async (id: string) => (await db.selectFrom("deposits").sel
 describe("payment webhook signature checks", () => {
   it("accepts a correctly signed event and marks the deposit paid", async () => {
     const pi = `pi_test_${Date.now()}a`;
-    const { deposit } = await jobWithPendingDeposit(pi);
+    const { deposit } = await workOrderWithPendingDeposit(pi);
     const body = succeededEvent(pi);
     const answer = await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
     expect(answer).toEqual({ status: 200, body: { received: true, outcome: "deposit paid" } });
@@ -53,7 +53,7 @@ describe("payment webhook signature checks", () => {
 
   it("refuses an unsigned event", async () => {
     const pi = `pi_test_${Date.now()}b`;
-    const { deposit } = await jobWithPendingDeposit(pi);
+    const { deposit } = await workOrderWithPendingDeposit(pi);
     const answer = await handlePaymentWebhook(db, succeededEvent(pi), null, { secret: SECRET, sendMail: false });
     expect(answer.status).toBe(400);
     expect(answer.body.error).toMatch(/missing Stripe-Signature/);
@@ -62,7 +62,7 @@ describe("payment webhook signature checks", () => {
 
   it("refuses an event signed with another secret, and one whose body was altered after signing", async () => {
     const pi = `pi_test_${Date.now()}c`;
-    const { deposit } = await jobWithPendingDeposit(pi);
+    const { deposit } = await workOrderWithPendingDeposit(pi);
     const body = succeededEvent(pi);
     const wrong = await handlePaymentWebhook(db, body, sign(body, "whsec_someone_else"), { secret: SECRET, sendMail: false });
     expect(wrong.status).toBe(400);
@@ -74,7 +74,7 @@ describe("payment webhook signature checks", () => {
 
   it("refuses a stale event (signed more than five minutes ago)", async () => {
     const pi = `pi_test_${Date.now()}d`;
-    const { deposit } = await jobWithPendingDeposit(pi);
+    const { deposit } = await workOrderWithPendingDeposit(pi);
     const body = succeededEvent(pi);
     const answer = await handlePaymentWebhook(db, body, sign(body, SECRET, Math.floor(Date.now() / 1000) - 600), { secret: SECRET, sendMail: false });
     expect(answer.status).toBe(400);
@@ -84,7 +84,7 @@ describe("payment webhook signature checks", () => {
 
   it("refuses a replayed event id, even re-signed, and changes nothing more", async () => {
     const pi = `pi_test_${Date.now()}e`;
-    const { deposit } = await jobWithPendingDeposit(pi);
+    const { deposit } = await workOrderWithPendingDeposit(pi);
     const body = succeededEvent(pi, 5000, `evt_replay_${Date.now()}`);
     expect((await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false })).status).toBe(200);
     const paidAt = (await db.selectFrom("deposits").select("paid_at").where("id", "=", deposit.id).executeTakeFirstOrThrow()).paid_at;
@@ -96,7 +96,7 @@ describe("payment webhook signature checks", () => {
 
   it("does not mark a deposit paid when the amount differs", async () => {
     const pi = `pi_test_${Date.now()}f`;
-    const { deposit } = await jobWithPendingDeposit(pi);
+    const { deposit } = await workOrderWithPendingDeposit(pi);
     const body = succeededEvent(pi, 4999);
     const answer = await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
     expect(answer.body.outcome).toMatch(/amount or currency does not match/);
@@ -121,7 +121,7 @@ describe("deposit through the SDK against the local fake payment service", () =>
   afterAll(() => new Promise<void>((r) => server.close(() => r())));
 
   it("creates and confirms a PaymentIntent; the fake's signed webhook marks the deposit paid and the customer is e-mailed", async () => {
-    const { fx, wo, deposit } = await jobWithPendingDeposit("");
+    const { fx, wo, deposit } = await workOrderWithPendingDeposit("");
     const intent = await startDepositPayment({ depositId: deposit.id, amountMinor: 5000, currency: "GBP", shopId: fx.shopId, workOrderId: wo.id, description: "deposit" });
     expect(intent.status).toBe("succeeded");
     await attachPaymentIntent(db, deposit.id, intent.id);
@@ -151,7 +151,7 @@ describe("a declined deposit", () => {
     await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
     try {
       await paymentsClient().webhookEndpoints.create({ url: `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/payments/webhook`, enabled_events: ["payment_intent.payment_failed"] });
-      const { fx, wo, deposit, quoteId, cust } = await jobWithPendingDeposit("");
+      const { fx, wo, deposit, quoteId, cust } = await workOrderWithPendingDeposit("");
       process.env.STRIPE_TEST_PAYMENT_METHOD = "pm_card_chargeDeclined";
       const intent = await startDepositPayment({ depositId: deposit.id, amountMinor: 5000, currency: "GBP", shopId: fx.shopId, workOrderId: wo.id, description: "deposit" }).finally(() => {
         delete process.env.STRIPE_TEST_PAYMENT_METHOD;

@@ -1,10 +1,10 @@
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
 import { auditCsvResponse } from "@/app/_server/audit-csv-response";
-import { appendAudit } from "@/db/audit";
-import { pageAuditLog } from "@/db/audit-log";
-import { decideOnSignOff } from "@/db/review-decide";
-import { mergeBatch } from "@/db/sync";
+import { appendAudit } from "@/db/audit/append";
+import { pageAuditLog } from "@/db/audit/read";
+import { decideOnSignOff } from "@/db/review/decide";
+import { mergeBatch } from "@/db/sync/merge";
 import { AUDIT_CSV_COLUMNS } from "@/lib/review/audit-csv";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { auditFilterSchema, auditQuerySchema } from "@/lib/review/list-queries";

@@ -1,9 +1,9 @@
 import { sql } from "kysely";
 import { describe, expect, it } from "vitest";
-import { getJobSnapshot } from "@/db/bench-jobs";
-import { decideOnSignOff } from "@/db/review-decide";
-import { loadSignOffReview } from "@/db/review-detail";
-import { countReviewQueue, pageReviewQueue } from "@/db/review-queue";
+import { getJobSnapshot } from "@/db/bench/jobs";
+import { decideOnSignOff } from "@/db/review/decide";
+import { loadSignOffReview } from "@/db/review/detail";
+import { countReviewQueue, pageReviewQueue } from "@/db/review/queue";
 import { buildWorkOrderView } from "@/lib/work-order-record";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { queueQuerySchema } from "@/lib/review/list-queries";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { deliverReviewNotices } from "@/app/_server/review-mail";
-import { decideOnSignOff } from "@/db/review-decide";
+import { decideOnSignOff } from "@/db/review/decide";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { Tablet } from "../bench/sync-ops";
 import { mailTo, useFakes } from "./support/fakes";

@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { mergeBatch } from "@/db/sync";
-import { changesSince } from "@/db/sync-changes";
+import { mergeBatch } from "@/db/sync/merge";
+import { changesSince } from "@/db/sync/changes";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { syncResponseSchema } from "@/lib/sync/changes";
 import { compareStamps, createClock, receive, tick } from "@/lib/sync/hlc";

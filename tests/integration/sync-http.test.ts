@@ -1,18 +1,21 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { handleSyncRequest } from "@/db/sync-http";
+import { POST as syncRoute } from "@/app/api/sync/route";
+import type { Db } from "@/db/setup/client";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { syncResponseSchema } from "@/lib/sync/changes";
 import { SYNC_LIMITS } from "@/lib/sync/operations";
 import { fixtureSpecs, Tablet } from "../bench/sync-ops";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
+import { appRequest } from "./support/route-calls";
 import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
 const asUser = (u: ShopFixture["users"]["mechanic"], customerId: string | null = null): SessionUser => ({ ...u, customerId });
 
-const post = (body: BodyInit | null, headers: Record<string, string> = {}) =>
-  new Request("http://bench.test/api/sync", { method: "POST", body, headers: { "content-type": "application/json", ...headers }, duplex: "half" } as RequestInit);
+const post = (body: BodyInit | null, headers: Record<string, string> = {}) => appRequest("/api/sync", { method: "POST", body, headers: { "content-type": "application/json", ...headers } });
+// POST /api/sync through the route wrapper, with the user and database given.
+const handleSyncRequest = (req: Request, user: SessionUser | null, db: Db) => syncRoute.handle(req, { user, db });
 
 async function setup() {
   const fx = await createShopFixture(db);
@@ -35,7 +38,7 @@ describe("POST /api/sync handler", () => {
   it("answers 401 when nobody is signed in", async () => {
     const res = await handleSyncRequest(post("{}"), null, db);
     expect(res.status).toBe(401);
-    expect(await res.json()).toEqual({ error: "Sign in first." });
+    expect(await res.json()).toEqual({ error: "Sign in first.", issues: [] });
   });
 
   it("answers 403 to office and customer users", async () => {
@@ -69,7 +72,7 @@ describe("POST /api/sync handler", () => {
     const body = await res.json();
     expect(body.issues).toEqual(
       expect.arrayContaining([
-        { path: "operations.1.payload.value", message: expect.stringContaining("expected number") },
+        { path: "operations.1.payload.value", message: "Value: must be a number" },
         { path: "operations.1.payload.unit", message: expect.any(String) },
       ]),
     );

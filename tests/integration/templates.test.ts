@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { createTemplateVersion } from "@/db/templates";
+import { createTemplateVersion } from "@/db/templates/versions";
 import { bottomEndTemplate } from "@/lib/procedures/demo-templates/bottom-end";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";

@@ -1,8 +1,9 @@
+import "server-only";
 import { convertPower } from "@/lib/calc";
 import { niceAxis, type DynoRunSummary } from "@/lib/dyno";
 import { contentWidth, ensureSpace, FONT, INK, pdfText, STEEL, type Pdf } from "./pdf-layout";
 
-export const PDF_RUN_COLOURS = ["#1a56db", "#b4490c", "#0b6b2e", "#7e22ce"];
+const PDF_RUN_COLOURS = ["#1a56db", "#b4490c", "#0b6b2e", "#7e22ce"];
 
 /**
  * Corrected power (solid, left scale, hp and kW) and torque (dashed, right scale, N·m) of each run,

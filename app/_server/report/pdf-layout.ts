@@ -1,3 +1,4 @@
+import "server-only";
 import PDFDocument from "pdfkit";
 
 // Page set-up and small layout helpers for Benchtag's PDF documents (pdfkit, A4).
@@ -21,7 +22,7 @@ export function pdfText(s: string): string {
     })
     .join("");
 }
-export const MARGIN = 48;
+const MARGIN = 48;
 export const INK = "#111418";
 export const STEEL = "#5b6773";
 

@@ -1,11 +1,7 @@
-import { NextResponse } from "next/server";
-import { requireApiArea } from "@/app/_server/session";
-import { bikesOfCustomer } from "@/db/bikes";
-import { db } from "@/db/client";
+import { route } from "@/app/_server/route";
+import { bikesOfCustomer } from "@/db/shop/bikes";
 
-export async function GET() {
-  const auth = await requireApiArea("my-bikes");
-  if (auth.response) return auth.response;
-  const { user } = auth;
-  return NextResponse.json({ bikes: user.customerId ? await bikesOfCustomer(db(), user.shopId, user.customerId) : [] });
-}
+// GET: the signed-in customer's own bikes with their work orders.
+export const GET = route({ access: { area: "my-bikes" } }, async ({ user, db }) => ({
+  bikes: user.customerId ? await bikesOfCustomer(db, user.shopId, user.customerId) : [],
+}));

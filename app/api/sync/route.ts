@@ -1,17 +1,32 @@
-import { after } from "next/server";
-import { requireApiArea } from "@/app/_server/session";
 import { deliverReviewNotices } from "@/app/_server/review-mail";
-import { db } from "@/db/client";
-import { handleSyncRequest } from "@/db/sync-http";
+import { json, route } from "@/app/_server/route";
+import { mergeBatch } from "@/db/sync/merge";
+import { Refusal } from "@/lib/errors";
+import { SYNC_LIMITS, syncBatchSchema } from "@/lib/sync/operations";
 
 // POST /api/sync: a tablet's outbox batch in, outcomes and changes from elsewhere out.
-// The format and rules are in lib/sync (README.md there); the work is in db/sync.ts.
+// The format and rules are in lib/sync (README.md there); the merge is db/sync/merge.ts.
+//   401 not signed in · 403 role cannot reach the bench, or not from our pages · 415 not JSON ·
+//   413 body or batch too large · 400 body not JSON (or not UTF-8) · 422 batch does not match the
+//   format (issues: path + message) · 503 the merge failed and nothing from the batch was saved
+//   (send it again) · 200 the merge result.
 // After a merge has committed, the supervisors' e-mail for new sign-offs is sent (the notices were
-// stored by the merge itself; see db/review-notices.ts), outside the response's time.
-export async function POST(request: Request): Promise<Response> {
-  const auth = await requireApiArea("bench");
-  if (auth.response) return auth.response;
-  const response = await handleSyncRequest(request, auth.user, db());
-  if (response.ok) after(() => deliverReviewNotices(db()).catch((e) => console.error("[review] notice e-mail run failed", e)));
-  return response;
-}
+// stored by the merge itself; see db/review/notices.ts), outside the response's time.
+const batch = json(syncBatchSchema, {
+  maxBytes: SYNC_LIMITS.maxBodyBytes,
+  tooLargeHint: "Send the outbox in smaller batches.",
+  emptyMessage: "The body is empty: send a JSON batch { deviceId, cursor, operations }.",
+  invalid: { status: 422, error: "The batch does not match the sync format; nothing was saved." },
+  before: (raw) => {
+    const ops = (raw as { operations?: unknown } | null)?.operations;
+    if (Array.isArray(ops) && ops.length > SYNC_LIMITS.maxOperations) {
+      throw new Refusal(`The batch has ${ops.length} operations; the limit is ${SYNC_LIMITS.maxOperations}. Send the outbox in smaller batches.`, 413);
+    }
+  },
+});
+
+export const POST = route({ access: { area: "bench" }, body: batch }, async ({ user, body, db, later }) => {
+  const result = await mergeBatch(db, user, body);
+  later(() => deliverReviewNotices(db).catch((e) => console.error("[review] notice e-mail run failed", e)));
+  return result;
+});

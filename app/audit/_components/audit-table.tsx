@@ -4,7 +4,7 @@ import type { ColumnDef } from "@tanstack/react-table";
 import { useCallback, useState } from "react";
 import { DataTable } from "@/app/ui/data-table";
 import { JobNumberFilter, SelectFilter, jobNumberFilter } from "@/app/ui/table-filters";
-import type { AuditRow } from "@/db/audit-log";
+import type { AuditRow } from "@/db/audit/read";
 
 const ACTIONS = [
   { value: "", label: "Anything" },

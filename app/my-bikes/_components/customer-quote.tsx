@@ -5,27 +5,14 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { formatMinor } from "@/lib/money/quote-totals";
 import { api } from "@/app/ui/api-client";
+import type { CustomerQuoteView } from "@/db/office/quotes";
 import { buttonClass, FormMessage } from "@/app/ui/form-field";
 
-export interface CustomerQuoteData {
-  id: string;
-  version: number;
-  status: "sent" | "approved";
-  currency: string;
-  tax_rate_bp: number;
-  subtotal_minor: number;
-  tax_minor: number;
-  total_minor: number;
-  deposit_minor: number;
-  note: string;
-  lines: Array<{ id: string; kind: string; description: string; quantity_hundredths: number; unit_price_minor: number; line_total_minor: number }>;
-  deposits: Array<{ id: string; status: string; amountMinor: number }>;
-}
 
 const qty = (h: number) => (h % 100 === 0 ? String(h / 100) : (h / 100).toFixed(2));
 
 // The customer's view of a quote: the lines, the totals, approve, then pay the deposit.
-export function CustomerQuote({ quote }: { quote: CustomerQuoteData }) {
+export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
   const open = quote.deposits.find((d) => d.status === "pending" || d.status === "paid");
@@ -68,44 +55,44 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteData }) {
             <tr key={l.id} className="border-b border-steel-300">
               <td className="py-1 pr-2">{l.description}</td>
               <td className="py-1 pr-2 font-mono">
-                {qty(l.quantity_hundredths)} × {formatMinor(l.unit_price_minor, c)}
+                {qty(l.quantityHundredths)} × {formatMinor(l.unitPriceMinor, c)}
               </td>
-              <td className="py-1 text-right font-mono">{formatMinor(l.line_total_minor, c)}</td>
+              <td className="py-1 text-right font-mono">{formatMinor(l.lineTotalMinor, c)}</td>
             </tr>
           ))}
           <tr>
             <td colSpan={2} className="pt-2 text-right">
               Subtotal
             </td>
-            <td className="pt-2 text-right font-mono">{formatMinor(quote.subtotal_minor, c)}</td>
+            <td className="pt-2 text-right font-mono">{formatMinor(quote.subtotalMinor, c)}</td>
           </tr>
           <tr>
             <td colSpan={2} className="text-right">
-              Tax ({(quote.tax_rate_bp / 100).toFixed(2)} %)
+              Tax ({(quote.taxRateBp / 100).toFixed(2)} %)
             </td>
-            <td className="text-right font-mono">{formatMinor(quote.tax_minor, c)}</td>
+            <td className="text-right font-mono">{formatMinor(quote.taxMinor, c)}</td>
           </tr>
           <tr>
             <td colSpan={2} className="text-right font-bold">
               Total
             </td>
             <td className="text-right font-mono font-bold" data-testid="customer-quote-total">
-              {formatMinor(quote.total_minor, c)}
+              {formatMinor(quote.totalMinor, c)}
             </td>
           </tr>
         </tbody>
       </table>
       {quote.note && <p className="mt-2 italic">{quote.note}</p>}
-      {quote.deposit_minor > 0 && <p className="mt-2 text-lg">Deposit to start the work: {formatMinor(quote.deposit_minor, c)}</p>}
+      {quote.depositMinor > 0 && <p className="mt-2 text-lg">Deposit to start the work: {formatMinor(quote.depositMinor, c)}</p>}
       <div className="mt-3 flex flex-wrap items-center gap-3">
         {quote.status === "sent" && (
           <button type="button" className={buttonClass} disabled={approve.isPending} onClick={() => approve.mutate()}>
             Approve this quote
           </button>
         )}
-        {quote.status === "approved" && quote.deposit_minor > 0 && depositStatus !== "paid" && (!depositId || failed) && (
+        {quote.status === "approved" && quote.depositMinor > 0 && depositStatus !== "paid" && (!depositId || failed) && (
           <button type="button" className={buttonClass} disabled={pay.isPending} onClick={() => pay.mutate()}>
-            Pay the deposit ({formatMinor(quote.deposit_minor, c)})
+            Pay the deposit ({formatMinor(quote.depositMinor, c)})
           </button>
         )}
         {failed && (

@@ -6,20 +6,12 @@ import { useState } from "react";
 import { STATUS_LABELS, WORK_ORDER_STATUSES } from "@/lib/work-orders/status";
 import { DataTable } from "@/app/ui/data-table";
 import { StatusBadge } from "@/app/ui/status-badge";
+import type { ReplyOf } from "@/app/_server/route";
+import type { GET } from "@/app/api/office/work-orders/route";
+import type { Wire } from "@/app/ui/api-client";
 
-interface Row {
-  id: string;
-  number: number;
-  title: string;
-  status: string;
-  updatedAt: string;
-  bikeId: string;
-  make: string;
-  model: string;
-  tagCode: string;
-  customerName: string;
-  mechanicName: string | null;
-}
+/** One row of GET /api/office/work-orders, taken from the route. */
+type Row = Wire<ReplyOf<typeof GET>>["workOrders"][number];
 
 const columns: ColumnDef<Row, unknown>[] = [
   { id: "number", header: "No.", cell: ({ row }) => <Link className="font-mono font-bold underline" href={`/office/work-orders/${row.original.id}`}>{row.original.number}</Link> },

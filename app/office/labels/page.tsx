@@ -4,8 +4,8 @@ import QRCode from "qrcode";
 import { z } from "zod";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { db } from "@/db/client";
-import { bikesForLabels } from "@/db/office/bikes";
+import { db } from "@/db/setup/client";
+import { bikesForLabels } from "@/db/shop/bikes";
 import { PrintButton } from "./_components/print-button";
 import "./labels.css";
 

@@ -3,8 +3,8 @@ import Link from "next/link";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
 import { day } from "@/app/ui/dates";
-import { db } from "@/db/client";
-import { templatesWithVersions } from "@/db/office/template-documents";
+import { db } from "@/db/setup/client";
+import { templatesWithVersions } from "@/db/templates/documents";
 import { TemplateImport } from "./_components/template-import";
 
 export const metadata: Metadata = { title: "Procedure templates" };

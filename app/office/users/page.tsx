@@ -1,9 +1,9 @@
 import type { Metadata } from "next";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { db } from "@/db/client";
-import { listCustomers } from "@/db/customers";
-import { listShopUsers } from "@/db/office/users";
+import { db } from "@/db/setup/client";
+import { listCustomers } from "@/db/shop/customers";
+import { listShopUsers } from "@/db/shop/users";
 import { ActiveToggle } from "./_components/active-toggle";
 import { UserForm } from "./_components/user-form";
 

@@ -6,7 +6,7 @@ import { useState } from "react";
 import { DataTable } from "@/app/ui/data-table";
 import { dayTime } from "@/app/ui/dates";
 import { JobNumberFilter, SelectFilter, jobNumberFilter } from "@/app/ui/table-filters";
-import type { QueueRow } from "@/db/review-queue";
+import type { QueueRow } from "@/db/review/queue";
 
 const READINGS = [
   { value: "", label: "All" },

@@ -1,4 +1,5 @@
 import { dayTime } from "@/app/ui/dates";
+import type { Verdict } from "@/lib/sync/readings";
 
 /** Device time, and when the server received it (they differ when the tablet was offline). */
 export function When({ device, received }: { device: string; received: string | null }) {
@@ -16,7 +17,7 @@ export function When({ device, received }: { device: string; received: string | 
   );
 }
 
-export function VerdictTag({ verdict }: { verdict: "in" | "low" | "high" }) {
+export function VerdictTag({ verdict }: { verdict: Verdict }) {
   if (verdict === "in")
     return (
       <span className="inline-flex items-center gap-1 rounded border-2 border-pass bg-pass-light px-2 font-bold text-pass">

@@ -1,5 +1,5 @@
 import { expect, type Page } from "@playwright/test";
-import { DEMO_PASSWORD, DEMO_USERS } from "@/db/seed/demo-shop";
+import { DEMO_PASSWORD, DEMO_USERS } from "@/db/seed/demo-people";
 
 export function demoUser(key: string) {
   const u = DEMO_USERS.find((x) => x.key === key);

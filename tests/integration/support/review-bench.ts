@@ -1,9 +1,9 @@
 import type { Kysely } from "kysely";
-import { mergeBatch } from "@/db/sync";
+import { mergeBatch } from "@/db/sync/merge";
 import type { Database } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { Operation } from "@/lib/sync/operations";
-import { Tablet } from "../../bench/sync-ops";
+import { type Tablet } from "../../bench/sync-ops";
 import { createShopFixture, type ShopFixture } from "./shop-fixture";
 
 // A fixture shop whose mechanic works the first stage ("measure") of the bottom-end procedure on a

@@ -4,8 +4,9 @@ import type { Kysely } from "kysely";
 import { bottomEndTemplate } from "@/lib/procedures/demo-templates/bottom-end";
 import { cylinderHeadTemplate } from "@/lib/procedures/demo-templates/cylinder-head";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
-import type { Database, Role } from "@/db/schema";
-import { createTemplateVersion } from "@/db/templates";
+import type { Database } from "@/db/schema";
+import type { Role } from "@/lib/auth/roles";
+import { createTemplateVersion } from "@/db/templates/versions";
 
 export const FIXTURE_PASSWORD = "fixture-pass-1";
 let hashed: string | undefined;

@@ -1,5 +1,5 @@
 import { afterAll, inject } from "vitest";
-import { createDb } from "@/db/client";
+import { createDb } from "@/db/setup/client";
 
 // A Kysely instance on this run's clean database, closed after the file's tests.
 export function useTestDb() {

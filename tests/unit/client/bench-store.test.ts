@@ -2,7 +2,7 @@
 import "fake-indexeddb/auto";
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { BenchDb } from "@/lib/client/bench-db";
+import { type BenchDb } from "@/lib/client/bench-db";
 import { keepSyncAnswer, markMissedCopies, missedCopyCursor, olderCopies, recordPhoto, storeJobCopy, waitingOperations, workOnTop } from "@/lib/client/bench-store";
 import { author, bolt, freshDb } from "../support/tablet-db";
 import { ids, jobSnapshot } from "../support/job-snapshot";

@@ -2,7 +2,7 @@
 import "fake-indexeddb/auto";
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { BenchDb, readSyncMeta } from "@/lib/client/bench-db";
+import { type BenchDb, readSyncMeta } from "@/lib/client/bench-db";
 import { missedCopyCursor, storeJobCopy, workOnTop } from "@/lib/client/bench-store";
 import { singleFlight } from "@/lib/client/single-flight";
 import { syncOnce } from "@/lib/client/sync-client";

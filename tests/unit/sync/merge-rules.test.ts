@@ -4,13 +4,13 @@ import { formatStamp } from "@/lib/sync/hlc";
 import {
   decideOperation,
   emptyMergeState,
-  mayWorkJob,
+  mayWorkOn,
   MAX_CLOCK_AHEAD_MS,
   noteAccepted,
   sortByStamp,
   type Actor,
   type DecisionInput,
-  type JobFacts,
+  type WorkOrderFacts,
 } from "@/lib/sync/merge-rules";
 import type { Operation } from "@/lib/sync/operations";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
@@ -30,7 +30,7 @@ const ids = {
   sealantTimer: randomUUID(),
 };
 
-function job(over: Partial<JobFacts> = {}): JobFacts {
+function job(over: Partial<WorkOrderFacts> = {}): WorkOrderFacts {
   return {
     id: randomUUID(),
     shopId,
@@ -53,7 +53,7 @@ function job(over: Partial<JobFacts> = {}): JobFacts {
 let counter = 0;
 function op<K extends Operation["kind"]>(
   kind: K,
-  j: JobFacts,
+  j: WorkOrderFacts,
   payload: Extract<Operation, { kind: K }>["payload"],
   over: Partial<Operation> = {},
 ): Operation {
@@ -71,12 +71,12 @@ function op<K extends Operation["kind"]>(
   } as Operation;
 }
 
-function input(j: JobFacts | undefined, over: Partial<DecisionInput> = {}): DecisionInput {
+function input(j: WorkOrderFacts | undefined, over: Partial<DecisionInput> = {}): DecisionInput {
   return { actor: mech, batchDeviceId: "tab-1", cursor: 100, nowMs: NOW, job: j, state: emptyMergeState(), ...over };
 }
 
-const complete = (j: JobFacts, stepId = ids.stepBore, over: Partial<Operation> = {}) => op("step.completed", j, { stepId }, over);
-const reading = (j: JobFacts, extra: Partial<{ readingIndex: number; supersedesId: string; specId: string; stepId: string }> = {}) =>
+const complete = (j: WorkOrderFacts, stepId = ids.stepBore, over: Partial<Operation> = {}) => op("step.completed", j, { stepId }, over);
+const reading = (j: WorkOrderFacts, extra: Partial<{ readingIndex: number; supersedesId: string; specId: string; stepId: string }> = {}) =>
   op("measurement.recorded", j, { stepId: ids.stepBore, specId: ids.boreSpec, readingIndex: 0, value: 76.0051, unit: "mm", ...extra });
 
 describe("who may record work", () => {
@@ -127,9 +127,9 @@ describe("who may record work", () => {
     expect(decideOperation(complete(open), input(open)).outcome).toBe("accept");
     const bySupervisor = complete(j, ids.stepBore, { authorId: supervisor.id });
     expect(decideOperation(bySupervisor, input(j, { actor: supervisor })).outcome).toBe("accept");
-    expect(mayWorkJob(mech, { shopId, assignedMechanicId: mech.id })).toBe(true);
-    expect(mayWorkJob(mech, { shopId: randomUUID(), assignedMechanicId: mech.id })).toBe(false);
-    expect(mayWorkJob({ ...mech, role: "customer" }, { shopId, assignedMechanicId: null })).toBe(false);
+    expect(mayWorkOn(mech, { shopId, assignedMechanicId: mech.id })).toBe(true);
+    expect(mayWorkOn(mech, { shopId: randomUUID(), assignedMechanicId: mech.id })).toBe(false);
+    expect(mayWorkOn({ ...mech, role: "customer" }, { shopId, assignedMechanicId: null })).toBe(false);
   });
 });
 

@@ -1,9 +1,9 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { formatStamp } from "@/lib/sync/hlc";
-import { decideOperation, emptyMergeState, noteAccepted, type Actor, type JobFacts } from "@/lib/sync/merge-rules";
+import { decideOperation, emptyMergeState, noteAccepted, type Actor, type WorkOrderFacts } from "@/lib/sync/merge-rules";
 import { operationSchema, partFittedPayload, type Operation } from "@/lib/sync/operations";
-import { partSerialOnJob, serialKey } from "@/lib/sync/parts";
+import { partSerialOnWorkOrder, serialKey } from "@/lib/sync/parts";
 
 // The `part.fitted` operation: its payload schema (what a tablet may send, and the messages when
 // not) and its merge rules (step on the job, one row per record id, a repeated serial flagged).
@@ -108,7 +108,7 @@ describe("merging part.fitted", () => {
   const stepPistons = randomUUID();
   const stepRods = randomUUID();
   const NOW = Date.UTC(2026, 11, 2, 9, 0, 0);
-  const job = (over: Partial<JobFacts> = {}): JobFacts => ({
+  const job = (over: Partial<WorkOrderFacts> = {}): WorkOrderFacts => ({
     id: randomUUID(),
     shopId,
     number: 42,
@@ -125,7 +125,7 @@ describe("merging part.fitted", () => {
     ...over,
   });
   let counter = 0;
-  const part = (j: JobFacts, payload: Partial<ReturnType<typeof good>> = {}): Operation => ({
+  const part = (j: WorkOrderFacts, payload: Partial<ReturnType<typeof good>> = {}): Operation => ({
     id: randomUUID(),
     kind: "part.fitted",
     workOrderId: j.id,
@@ -135,7 +135,7 @@ describe("merging part.fitted", () => {
     stamp: formatStamp({ wallMs: NOW, counter: counter++, deviceId: "tab-1" }),
     payload: { ...good(), stepId: stepPistons, ...payload },
   });
-  const input = (j: JobFacts, state = emptyMergeState(), actor = mech) => ({ actor, batchDeviceId: "tab-1", cursor: 1, nowMs: NOW, job: j, state });
+  const input = (j: WorkOrderFacts, state = emptyMergeState(), actor = mech) => ({ actor, batchDeviceId: "tab-1", cursor: 1, nowMs: NOW, job: j, state });
 
   it("accepts a part at a step of the job, and refuses one at a step that is not", () => {
     const j = job();
@@ -169,7 +169,7 @@ describe("merging part.fitted", () => {
   it("flags a repeat of a part the office recorded without a step, and only on the same job", () => {
     const j = job();
     const state = emptyMergeState();
-    state.partSerials.set(partSerialOnJob(j.id, "GS-PST-7600", "GS-0042"), { stepId: null });
+    state.partSerials.set(partSerialOnWorkOrder(j.id, "GS-PST-7600", "GS-0042"), { stepId: null });
     expect(decideOperation(part(j), input(j, state))).toMatchObject({ outcome: "flag", reason: expect.stringContaining("already recorded on work order #42: check") });
     const other = job({ number: 43 });
     expect(decideOperation(part(other), input(other, state)).outcome).toBe("accept");

@@ -1,11 +1,7 @@
 import { auditCsvResponse } from "@/app/_server/audit-csv-response";
-import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { route } from "@/app/_server/route";
 import { auditFilterSchema } from "@/lib/review/list-queries";
 
 // GET: the shop's audit log as CSV (same filters as the page: job, outcome, action, q; no paging),
 // streamed oldest first. Columns: README.md "Audit log CSV".
-export const GET = guarded("audit", async ({ req, user }) => {
-  const f = auditFilterSchema.parse(Object.fromEntries(new URL(req.url).searchParams));
-  return auditCsvResponse(db(), user.shopId, f);
-});
+export const GET = route({ access: { area: "audit" }, query: auditFilterSchema }, async ({ user, query, db }) => auditCsvResponse(db, user.shopId, query));

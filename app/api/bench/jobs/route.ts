@@ -1,10 +1,5 @@
-import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
-import { benchJobsResponse } from "../handlers";
+import { route } from "@/app/_server/route";
+import { listBenchJobs } from "@/db/bench/jobs";
 
 // GET /api/bench/jobs: the shop's jobs open for bench work, mine first.
-export async function GET(): Promise<Response> {
-  const auth = await requireApiArea("bench");
-  if (auth.response) return auth.response;
-  return benchJobsResponse(auth.user, db());
-}
+export const GET = route({ access: { area: "bench" } }, async ({ user, db }) => ({ jobs: await listBenchJobs(db, user) }));

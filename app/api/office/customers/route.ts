@@ -1,16 +1,14 @@
-import { NextResponse } from "next/server";
-import { guarded, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { createCustomer, pageCustomers } from "@/db/office/customers";
+import { z } from "zod";
+import { created, json, route } from "@/app/_server/route";
+import { createCustomer, pageCustomers } from "@/db/shop/customers";
 import { customerSchema, pageQuerySchema } from "@/lib/office/schemas";
 
-export const GET = guarded("office", async ({ req, user }) => {
-  const q = pageQuerySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
-  const { rows, total } = await pageCustomers(db(), user.shopId, { ...q, dir: new URL(req.url).searchParams.get("dir") ? q.dir : "asc" });
-  return NextResponse.json({ customers: rows, total, page: q.page, size: q.size });
+// Customers sort by name, A to Z, unless the list asks otherwise.
+const customerPageSchema = pageQuerySchema.extend({ dir: z.enum(["asc", "desc"]).default("asc") });
+
+export const GET = route({ access: { area: "office" }, query: customerPageSchema }, async ({ user, query, db }) => {
+  const { rows, total } = await pageCustomers(db, user.shopId, query);
+  return { customers: rows, total, page: query.page, size: query.size };
 });
 
-export const POST = guarded("office", async ({ req, user }) => {
-  const body = await readJson(req, customerSchema);
-  return NextResponse.json(await createCustomer(db(), user.shopId, body), { status: 201 });
-});
+export const POST = route({ access: { area: "office" }, body: json(customerSchema) }, async ({ user, body, db }) => created(await createCustomer(db, user.shopId, body)));

@@ -1,7 +1,5 @@
-import { NextResponse } from "next/server";
 import { z } from "zod";
-import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { route } from "@/app/_server/route";
 import { bikesWithPart } from "@/db/office/parts";
 
 const query = z.object({
@@ -10,7 +8,4 @@ const query = z.object({
 });
 
 // Which bikes got batch (or serial, or part number) X.
-export const GET = guarded("office", async ({ req, user }) => {
-  const q = query.parse(Object.fromEntries(new URL(req.url).searchParams));
-  return NextResponse.json({ fittings: await bikesWithPart(db(), user.shopId, q.code, q.field) });
-});
+export const GET = route({ access: { area: "office" }, query }, async ({ user, query, db }) => ({ fittings: await bikesWithPart(db, user.shopId, query.code, query.field) }));

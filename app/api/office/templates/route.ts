@@ -1,14 +1,12 @@
-import { NextResponse } from "next/server";
-import { guarded, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { importTemplateDocuments, templatesWithVersions } from "@/db/office/template-documents";
+import { created, json, route } from "@/app/_server/route";
+import { importTemplateDocuments, templatesWithVersions } from "@/db/templates/documents";
+import { MAX_TEMPLATE_FILE_BYTES } from "@/lib/procedures/template-file";
 import { templateDocumentSchema } from "@/lib/procedures/template-schema";
 
 // GET: templates with their versions. POST: save an edited document as a new version.
-export const GET = guarded("templates", async ({ user }) => NextResponse.json({ templates: await templatesWithVersions(db(), user.shopId) }));
+export const GET = route({ access: { area: "templates" } }, async ({ user, db }) => ({ templates: await templatesWithVersions(db, user.shopId) }));
 
-export const POST = guarded("templates", async ({ req, user }) => {
-  const doc = await readJson(req, templateDocumentSchema);
-  const [written] = await importTemplateDocuments(db(), user.shopId, user.id, [doc]);
-  return NextResponse.json(written, { status: 201 });
+export const POST = route({ access: { area: "templates" }, body: json(templateDocumentSchema, { maxBytes: MAX_TEMPLATE_FILE_BYTES }) }, async ({ user, body, db }) => {
+  const [written] = await importTemplateDocuments(db, user.shopId, user.id, [body]);
+  return created(written);
 });

@@ -1,14 +1,14 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { parseWorkOrderId } from "@/app/_server/route-params";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
 import { StatusBadge } from "@/app/ui/status-badge";
-import { db } from "@/db/client";
-import { findDynoJob, listDynoRuns } from "@/db/dyno";
+import { db } from "@/db/setup/client";
+import { findDynoWorkOrder, listDynoRuns } from "@/db/records/dyno";
 import { canReach } from "@/lib/auth/roles";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
+import { isUuid } from "@/lib/ids";
 import { DynoWorkspace } from "./_components/dyno-workspace";
 import { WithdrawnRuns, WithdrawRunForm } from "./_components/withdraw-run";
 
@@ -16,9 +16,9 @@ export const metadata: Metadata = { title: "Dyno runs" };
 
 export default async function JobDynoPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requirePageArea("dyno");
-  const id = parseWorkOrderId((await params).id);
-  if (!id) notFound();
-  const job = await findDynoJob(db(), user.shopId, id);
+  const { id } = await params;
+  if (!isUuid(id)) notFound();
+  const job = await findDynoWorkOrder(db(), user.shopId, id);
   if (!job) notFound();
   const all = await listDynoRuns(db(), user.shopId, id);
   const runs = countingRuns(all);

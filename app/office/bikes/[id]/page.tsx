@@ -7,8 +7,8 @@ import { AppFrame } from "@/app/ui/app-frame";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { TagQr } from "@/app/ui/tag-qr";
 import { day } from "@/app/ui/dates";
-import { db } from "@/db/client";
-import { bikeRecord } from "@/db/office/bikes";
+import { db } from "@/db/setup/client";
+import { bikeRecord } from "@/db/records/bike-record";
 import { canReach } from "@/lib/auth/roles";
 
 export const metadata: Metadata = { title: "Bike record" };

@@ -4,8 +4,8 @@ import { notFound } from "next/navigation";
 import { z } from "zod";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { db } from "@/db/client";
-import { getCustomer } from "@/db/office/customers";
+import { db } from "@/db/setup/client";
+import { getCustomer } from "@/db/shop/customers";
 import { BikeForm } from "../_components/bike-form";
 import { CustomerForm } from "../_components/customer-form";
 

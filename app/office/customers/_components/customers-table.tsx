@@ -2,15 +2,13 @@
 
 import type { ColumnDef } from "@tanstack/react-table";
 import Link from "next/link";
+import type { ReplyOf } from "@/app/_server/route";
+import type { GET } from "@/app/api/office/customers/route";
+import type { Wire } from "@/app/ui/api-client";
 import { DataTable } from "@/app/ui/data-table";
 
-interface Row {
-  id: string;
-  name: string;
-  email: string | null;
-  phone: string | null;
-  bikeCount: number;
-}
+/** One row of GET /api/office/customers, taken from the route. */
+type Row = Wire<ReplyOf<typeof GET>>["customers"][number];
 
 const columns: ColumnDef<Row, unknown>[] = [
   { id: "name", header: "Name", cell: ({ row }) => <Link className="font-bold underline" href={`/office/customers/${row.original.id}`}>{row.original.name}</Link> },

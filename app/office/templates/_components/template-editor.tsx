@@ -2,9 +2,10 @@
 
 import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
-import { pathText, readTemplateFile } from "@/lib/procedures/template-file";
+import { readTemplateFile } from "@/lib/procedures/template-file";
 import { templateDocumentSchema, type TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import { api, ApiError } from "@/app/ui/api-client";
+import { issuesOf } from "@/lib/zod-issues";
 import { buttonClass, FormMessage, quietButtonClass } from "@/app/ui/form-field";
 import { TemplateForm } from "./template-form";
 
@@ -23,15 +24,15 @@ export function TemplateEditor({ initial, isNew }: { initial: Doc; isNew: boolea
   const check = useMemo(() => {
     if (mode === "json") {
       const r = readTemplateFile(text);
-      if (!r.ok) return { doc: null, problems: r.problems, fieldErrors: {} };
+      if (!r.ok) return { doc: null, problems: r.issues, fieldErrors: {} };
       if (r.documents.length !== 1) return { doc: null, problems: [{ path: "(file)", message: "the editor saves one template at a time; import a bundle instead" }], fieldErrors: {} };
       return { doc: r.documents[0], problems: [], fieldErrors: {} };
     }
     const r = templateDocumentSchema.safeParse(doc);
     if (r.success) return { doc: r.data, problems: [], fieldErrors: {} };
     const fieldErrors: Record<string, string> = {};
-    for (const i of r.error.issues) fieldErrors[i.path.map(String).join(".")] ??= i.message;
-    return { doc: null, problems: r.error.issues.map((i) => ({ path: pathText(i.path), message: i.message })), fieldErrors };
+    for (const i of issuesOf(r.error)) fieldErrors[i.path] ??= i.message;
+    return { doc: null, problems: issuesOf(r.error, { pathStyle: "document" }), fieldErrors };
   }, [mode, doc, text]);
 
   function switchTo(next: "form" | "json") {

@@ -31,7 +31,7 @@ export function TemplateImport() {
       router.refresh();
     } catch (err) {
       setMessage({ error: (err as Error).message });
-      if (err instanceof ApiError) setProblems(err.problems);
+      if (err instanceof ApiError) setProblems(err.issues);
     } finally {
       setBusy(false);
     }

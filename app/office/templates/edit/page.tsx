@@ -3,8 +3,8 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { db } from "@/db/client";
-import { loadTemplateDocument } from "@/db/office/template-documents";
+import { db } from "@/db/setup/client";
+import { loadTemplateDocument } from "@/db/templates/documents";
 import type { TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import { TemplateEditor } from "../_components/template-editor";
 

@@ -2,8 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { db } from "@/db/client";
-import { bikesForLabels } from "@/db/office/bikes";
+import { db } from "@/db/setup/client";
+import { bikesForLabels } from "@/db/shop/bikes";
 import { IntakeForm } from "./_components/intake-form";
 
 export const metadata: Metadata = { title: "Book a bike in" };

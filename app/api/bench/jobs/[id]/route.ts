@@ -1,11 +1,12 @@
-import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
-import { jobSnapshotResponse } from "../../handlers";
+import { route } from "@/app/_server/route";
+import { getJobSnapshot } from "@/db/bench/jobs";
+import { Refusal } from "@/lib/errors";
+import { isUuid } from "@/lib/ids";
 
 // GET /api/bench/jobs/[id]: a full snapshot of one job for the tablet's store.
-export async function GET(_request: Request, { params }: { params: Promise<{ id: string }> }): Promise<Response> {
-  const auth = await requireApiArea("bench");
-  if (auth.response) return auth.response;
-  const { id } = await params;
-  return jobSnapshotResponse(auth.user, db(), id);
-}
+export const GET = route({ access: { area: "bench" }, params: ["id"] }, async ({ user, params, db }) => {
+  if (!isUuid(params.id)) throw new Refusal(`"${params.id}" is not a work order id (a UUID).`, 400);
+  const snapshot = await getJobSnapshot(db, user, params.id);
+  if (!snapshot) throw new Refusal(`No work order ${params.id} in this shop.`, 404);
+  return snapshot;
+});

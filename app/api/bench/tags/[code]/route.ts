@@ -1,11 +1,21 @@
-import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
-import { tagLookupResponse } from "../../handlers";
+import { z } from "zod";
+import { route } from "@/app/_server/route";
+import { findJobByTag } from "@/db/bench/jobs";
+import { Refusal } from "@/lib/errors";
+
+const tagCodeSchema = z
+  .string()
+  .trim()
+  .min(1, "is empty")
+  .max(64, "is longer than 64 characters")
+  .regex(/^[\p{L}\p{N}._:/ -]+$/u, "may hold letters, digits, spaces and . _ : / - only");
 
 // GET /api/bench/tags/[code]: the job open for bench work on the bike with this tag.
-export async function GET(_request: Request, { params }: { params: Promise<{ code: string }> }): Promise<Response> {
-  const auth = await requireApiArea("bench");
-  if (auth.response) return auth.response;
-  const { code } = await params;
-  return tagLookupResponse(auth.user, db(), code);
-}
+export const GET = route({ access: { area: "bench" }, params: ["code"] }, async ({ user, params, db }) => {
+  const tag = tagCodeSchema.safeParse(params.code);
+  if (!tag.success) throw new Refusal(`The tag code ${tag.error.issues[0].message}.`, 400);
+  const found = await findJobByTag(db, user, tag.data);
+  if (found.found === "nothing") throw new Refusal(`No bike with tag ${tag.data} in this shop.`, 404);
+  if (found.found === "bike-without-job") throw new Refusal(`Bike ${found.tagCode} has no open job.`, 404);
+  return found.job;
+});

@@ -1,27 +1,21 @@
 import { NextResponse } from "next/server";
 import { renderHandoverReportPdf } from "@/app/_server/handover-report";
-import { parseWorkOrderId } from "@/app/_server/route-params";
-import { requireApiArea } from "@/app/_server/session";
-import { db } from "@/db/client";
-import { reportWorkOrderFor } from "@/db/handover-report";
-
-type Params = { params: Promise<{ id: string }> };
+import { route } from "@/app/_server/route";
+import { reportWorkOrderFor } from "@/db/records/handover-report";
+import { Refusal } from "@/lib/errors";
+import { isUuid } from "@/lib/ids";
 
 // The handover build report as a PDF download: office and supervisors for their shop's work
 // orders, customers for their own bikes only. Anyone else gets 401/403/404 and no data.
-export async function GET(_req: Request, { params }: Params) {
-  const auth = await requireApiArea("build-report");
-  if (auth.response) return auth.response;
-  const id = parseWorkOrderId((await params).id);
-  const visible = id ? await reportWorkOrderFor(db(), auth.user, id) : null;
-  if (!visible) return NextResponse.json({ error: "No such work order for you." }, { status: 404 });
-  const job = await db().selectFrom("work_orders as w").innerJoin("bikes as b", "b.id", "w.bike_id").select(["w.number", "b.tag_code"]).where("w.id", "=", visible).executeTakeFirstOrThrow();
-  const pdf = await renderHandoverReportPdf(db(), auth.user.shopId, visible);
+export const GET = route({ access: { area: "build-report" }, params: ["id"] }, async ({ user, params, db }) => {
+  const job = isUuid(params.id) ? await reportWorkOrderFor(db, user, params.id) : null;
+  if (!job) throw new Refusal("No such work order for you.", 404);
+  const pdf = await renderHandoverReportPdf(db, user.shopId, job.id);
   return new NextResponse(new Uint8Array(pdf), {
     headers: {
       "content-type": "application/pdf",
-      "content-disposition": `attachment; filename="build-report-${job.tag_code}-${job.number}.pdf"`,
+      "content-disposition": `attachment; filename="build-report-${job.tagCode}-${job.number}.pdf"`,
       "cache-control": "private, no-store",
     },
   });
-}
+});

@@ -1,11 +1,9 @@
-import { NextResponse } from "next/server";
-import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { idParam, route } from "@/app/_server/route";
 import { depositForCustomer } from "@/db/office/deposits";
-import { Refusal } from "@/lib/office/refusal";
+import { Refusal } from "@/lib/errors";
 
-export const GET = guarded<{ id: string }>("my-bikes", async ({ user, params }) => {
-  const d = await depositForCustomer(db(), user, idFrom(params.id));
+export const GET = route({ access: { area: "my-bikes" }, params: ["id"] }, async ({ user, params, db }) => {
+  const d = await depositForCustomer(db, user, idParam(params.id));
   if (!d) throw new Refusal("No such deposit.", 404);
-  return NextResponse.json({ deposit: d });
+  return { deposit: d };
 });

@@ -1,12 +1,12 @@
 import { getObject } from "@/app/_server/object-store";
-import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { Refusal } from "@/lib/office/refusal";
+import { idParam, route } from "@/app/_server/route";
+import { findAttachment } from "@/db/office/attachments";
+import { Refusal } from "@/lib/errors";
 
 // A stored photo, read from object storage for a signed-in user of the same shop.
-export const GET = guarded<{ id: string }>("bike-records", async ({ user, params }) => {
-  const a = await db().selectFrom("attachments").select(["object_key", "content_type"]).where("id", "=", idFrom(params.id)).where("shop_id", "=", user.shopId).executeTakeFirst();
+export const GET = route({ access: { area: "bike-records" }, params: ["id"] }, async ({ user, params, db }) => {
+  const a = await findAttachment(db, user.shopId, idParam(params.id));
   if (!a) throw new Refusal("No such photo.", 404);
-  const o = await getObject(a.object_key);
-  return new Response(Buffer.from(o.body), { headers: { "content-type": a.content_type, "cache-control": "private, max-age=3600" } });
+  const o = await getObject(a.objectKey);
+  return new Response(Buffer.from(o.body), { headers: { "content-type": a.contentType, "cache-control": "private, max-age=3600" } });
 });

@@ -1,18 +1,15 @@
-import { NextResponse } from "next/server";
-import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { getCustomer, updateCustomer } from "@/db/office/customers";
+import { idParam, json, route } from "@/app/_server/route";
+import { getCustomer, updateCustomer } from "@/db/shop/customers";
+import { Refusal } from "@/lib/errors";
 import { customerSchema } from "@/lib/office/schemas";
-import { Refusal } from "@/lib/office/refusal";
 
-export const GET = guarded<{ id: string }>("office", async ({ user, params }) => {
-  const c = await getCustomer(db(), user.shopId, idFrom(params.id));
+export const GET = route({ access: { area: "office" }, params: ["id"] }, async ({ user, params, db }) => {
+  const c = await getCustomer(db, user.shopId, idParam(params.id));
   if (!c) throw new Refusal("No such customer in this shop.", 404);
-  return NextResponse.json({ customer: c });
+  return { customer: c };
 });
 
-export const PUT = guarded<{ id: string }>("office", async ({ req, user, params }) => {
-  const body = await readJson(req, customerSchema);
-  await updateCustomer(db(), user.shopId, idFrom(params.id), body);
-  return NextResponse.json({ ok: true });
+export const PUT = route({ access: { area: "office" }, params: ["id"], body: json(customerSchema) }, async ({ user, params, body, db }) => {
+  await updateCustomer(db, user.shopId, idParam(params.id), body);
+  return { ok: true };
 });

@@ -1,15 +1,12 @@
-import { NextResponse } from "next/server";
-import { guarded } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { importTemplateDocuments } from "@/db/office/template-documents";
+import { created, route, text } from "@/app/_server/route";
+import { importTemplateDocuments } from "@/db/templates/documents";
+import { Refusal } from "@/lib/errors";
 import { MAX_TEMPLATE_FILE_BYTES, readTemplateFile } from "@/lib/procedures/template-file";
 
-// Import: the file's text as the body. All templates in it are written, or none (422 with problems).
-export const POST = guarded("templates", async ({ req, user }) => {
-  const text = await req.text();
-  if (text.length > MAX_TEMPLATE_FILE_BYTES) return NextResponse.json({ error: "The file is larger than 1 MB.", problems: [] }, { status: 413 });
-  const r = readTemplateFile(text);
-  if (!r.ok) return NextResponse.json({ error: "The file was not imported: nothing was written.", problems: r.problems }, { status: 422 });
-  const written = await importTemplateDocuments(db(), user.shopId, user.id, r.documents);
-  return NextResponse.json({ imported: written }, { status: 201 });
+// Import: the file's text as the body. All templates in it are written, or none (422 with each
+// problem's place in the file and what is wrong).
+export const POST = route({ access: { area: "templates" }, body: text(["application/json"], MAX_TEMPLATE_FILE_BYTES, { tooLargeHint: "A template file may be 1 MB at most." }) }, async ({ user, body, db }) => {
+  const r = readTemplateFile(body);
+  if (!r.ok) throw new Refusal("The file was not imported: nothing was written.", 422, r.issues);
+  return created({ imported: await importTemplateDocuments(db, user.shopId, user.id, r.documents) });
 });

@@ -1,14 +1,11 @@
-import { NextResponse } from "next/server";
-import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { appendAudit } from "@/db/audit";
-import { db } from "@/db/client";
-import { setUserActive } from "@/db/office/users";
+import { idParam, json, route } from "@/app/_server/route";
+import { appendAudit } from "@/db/audit/append";
+import { setUserActive } from "@/db/shop/users";
 import { userActiveSchema } from "@/lib/office/user-schema";
 
-export const PUT = guarded<{ id: string }>("users", async ({ req, user, params }) => {
-  const id = idFrom(params.id);
-  const { active } = await readJson(req, userActiveSchema);
-  await setUserActive(db(), user.shopId, user.id, id, active);
-  await appendAudit(db(), [{ shopId: user.shopId, actorId: user.id, action: active ? "user.activated" : "user.deactivated", entity: "user", entityId: id, outcome: "accepted" }]);
-  return NextResponse.json({ id, active });
+export const PUT = route({ access: { area: "users" }, params: ["id"], body: json(userActiveSchema) }, async ({ user, params, body, db }) => {
+  const id = idParam(params.id);
+  await setUserActive(db, user.shopId, user.id, id, body.active);
+  await appendAudit(db, [{ shopId: user.shopId, actorId: user.id, action: body.active ? "user.activated" : "user.deactivated", entity: "user", entityId: id, outcome: "accepted" }]);
+  return { id, active: body.active };
 });

@@ -1,25 +1,23 @@
-import { NextResponse } from "next/server";
-import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { idParam, route } from "@/app/_server/route";
 import { invoiceOf } from "@/db/office/invoices";
-import { stepsOfJob } from "@/db/office/parts";
+import { stepsOfWorkOrder } from "@/db/office/parts";
 import { quotesOfWorkOrder } from "@/db/office/quotes";
-import { mechanicsOf, workOrderDetail } from "@/db/office/work-orders";
-import { latestTemplateVersions } from "@/db/templates";
-import { Refusal } from "@/lib/office/refusal";
+import { mechanicsOf, workOrderDetail } from "@/db/shop/work-orders";
+import { latestTemplateVersions } from "@/db/templates/versions";
+import { Refusal } from "@/lib/errors";
 import { allowedNextStatuses } from "@/lib/work-orders/status";
 
 // Everything the work-order page shows, in one answer.
-export const GET = guarded<{ id: string }>("office", async ({ user, params }) => {
-  const id = idFrom(params.id);
-  const detail = await workOrderDetail(db(), user.shopId, id);
+export const GET = route({ access: { area: "office" }, params: ["id"] }, async ({ user, params, db }) => {
+  const id = idParam(params.id);
+  const detail = await workOrderDetail(db, user.shopId, id);
   if (!detail) throw new Refusal("No such work order in this shop.", 404);
   const [quotes, invoice, mechanics, templates, steps] = await Promise.all([
-    quotesOfWorkOrder(db(), user.shopId, id),
-    invoiceOf(db(), user.shopId, id),
-    mechanicsOf(db(), user.shopId),
-    latestTemplateVersions(db(), user.shopId),
-    stepsOfJob(db(), id),
+    quotesOfWorkOrder(db, user.shopId, id),
+    invoiceOf(db, user.shopId, id),
+    mechanicsOf(db, user.shopId),
+    latestTemplateVersions(db, user.shopId),
+    stepsOfWorkOrder(db, id),
   ]);
-  return NextResponse.json({ workOrder: detail, next: allowedNextStatuses(detail.status), quotes, invoice, mechanics, templates, steps });
+  return { workOrder: detail, next: allowedNextStatuses(detail.status), quotes, invoice, mechanics, templates, steps };
 });

@@ -12,7 +12,7 @@ export interface ExportLegendItem {
 const SVG_NS = "http://www.w3.org/2000/svg";
 
 /** A standalone copy of the chart's SVG with a title and legend above it. */
-export function standaloneSvg(container: HTMLElement, title: string, legend: ExportLegendItem[]): { text: string; width: number; height: number } {
+function standaloneSvg(container: HTMLElement, title: string, legend: ExportLegendItem[]): { text: string; width: number; height: number } {
   const svg = container.querySelector("svg.recharts-surface") as SVGSVGElement | null;
   if (!svg) throw new Error("The chart is not drawn yet.");
   const width = svg.width.baseVal.value || svg.clientWidth;

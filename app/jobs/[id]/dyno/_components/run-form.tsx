@@ -3,7 +3,8 @@
 import { useRouter } from "next/navigation";
 import { useState, type ReactNode } from "react";
 import { POWER_CORRECTION_STANDARD_IDS, POWER_CORRECTION_STANDARDS } from "@/lib/calc";
-import { BOOST_UNITS, CURVE_TORQUE_UNITS, type CurveRowError } from "@/lib/dyno";
+import { BOOST_UNITS, CURVE_TORQUE_UNITS, runProblems, type CurveRowError } from "@/lib/dyno";
+import type { ErrorBody } from "@/lib/errors";
 import { ToggleGroup } from "./toggle-group";
 
 type Row = { rpm: string; torque: string };
@@ -59,7 +60,7 @@ export function RunForm({ workOrderId }: { workOrderId: string }) {
     };
     try {
       const res = await fetch(`/api/jobs/${workOrderId}/dyno-runs`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-      const json = (await res.json().catch(() => ({}))) as { error?: string; fieldErrors?: Record<string, string>; curveErrors?: CurveRowError[] };
+      const json = (await res.json().catch(() => ({}))) as Partial<ErrorBody>;
       if (res.ok) {
         setFieldErrors({});
         setCurveErrors([]);
@@ -70,8 +71,9 @@ export function RunForm({ workOrderId }: { workOrderId: string }) {
         setMessage({ ok: true, text: `Run “${body.label}” saved.` });
         router.refresh();
       } else {
-        setFieldErrors(json.fieldErrors ?? {});
-        setCurveErrors(json.curveErrors ?? []);
+        const problems = runProblems(json.issues ?? []);
+        setFieldErrors(problems.fieldErrors);
+        setCurveErrors(problems.curveErrors);
         if (source === "csv" && !fileText) setCurveErrors([{ row: 1, column: "(file)", message: "Choose a CSV file first" }]);
         setMessage({ ok: false, text: `${json.error ?? "The run was not saved."} Nothing was saved.` });
       }

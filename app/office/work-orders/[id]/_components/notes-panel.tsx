@@ -1,8 +1,9 @@
 "use client";
 
+import { issuesOf } from "@/lib/zod-issues";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState, type FormEvent } from "react";
-import { issuesOf, noteSchema } from "@/lib/office/schemas";
+import { noteSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
 import { dayTime } from "@/app/ui/dates";
 import { Field, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";

@@ -1,8 +1,9 @@
 "use client";
 
+import { issuesOf } from "@/lib/zod-issues";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState, type FormEvent } from "react";
-import { issuesOf, partFittedSchema } from "@/lib/office/schemas";
+import { partFittedSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
 import { Field, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { WorkOrderData } from "./types";

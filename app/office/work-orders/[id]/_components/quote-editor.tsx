@@ -1,9 +1,10 @@
 "use client";
 
+import { issuesOf } from "@/lib/zod-issues";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
 import { formatMinor, parseHundredths, quoteTotals } from "@/lib/money/quote-totals";
-import { issuesOf, quoteDraftSchema } from "@/lib/office/schemas";
+import { quoteDraftSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
 import { buttonClass, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { Quote, WorkOrderData } from "./types";
@@ -31,9 +32,9 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
   const editable = ["booked_in", "inspected", "quoted"].includes(wo.status);
   const start = draft ?? current;
   const [lines, setLines] = useState<LineText[]>(
-    start?.lines.map((l) => ({ kind: l.kind, description: l.description, partNumber: l.part_number ?? "", quantity: toText(l.quantity_hundredths), unitPrice: toText(l.unit_price_minor) })) ?? [blank()],
+    start?.lines.map((l) => ({ kind: l.kind, description: l.description, partNumber: l.partNumber ?? "", quantity: toText(l.quantityHundredths), unitPrice: toText(l.unitPriceMinor) })) ?? [blank()],
   );
-  const [deposit, setDeposit] = useState(start ? toText(start.deposit_minor) : "0.00");
+  const [deposit, setDeposit] = useState(start ? toText(start.depositMinor) : "0.00");
   const [note, setNote] = useState(start?.note ?? "");
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
@@ -179,7 +180,7 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
         <div className="mt-4 rounded-lg border-2 border-pass bg-pass-light p-3" data-testid="invoice">
           <h3 className="text-lg font-bold">Final invoice {data.invoice.number}</h3>
           <p className="font-mono">
-            Total {formatMinor(data.invoice.total_minor, data.invoice.currency)} · deposit paid {formatMinor(data.invoice.deposits_paid_minor, data.invoice.currency)} · balance due {formatMinor(data.invoice.balance_due_minor, data.invoice.currency)}
+            Total {formatMinor(data.invoice.totalMinor, data.invoice.currency)} · deposit paid {formatMinor(data.invoice.depositsPaidMinor, data.invoice.currency)} · balance due {formatMinor(data.invoice.balanceDueMinor, data.invoice.currency)}
           </p>
         </div>
       )}
@@ -196,20 +197,20 @@ function QuoteLines({ q }: { q: Quote }) {
           <tr key={l.id} className="border-b border-steel-300">
             <td className="py-1 pr-2">{l.kind === "labour" ? "Labour" : "Part"}</td>
             <td className="py-1 pr-2">
-              {l.description} {l.part_number && <span className="font-mono text-steel-700">{l.part_number}</span>}
+              {l.description} {l.partNumber && <span className="font-mono text-steel-700">{l.partNumber}</span>}
             </td>
             <td className="py-1 pr-2 font-mono">
-              {(l.quantity_hundredths / 100).toFixed(2)} × {formatMinor(l.unit_price_minor, c)}
+              {(l.quantityHundredths / 100).toFixed(2)} × {formatMinor(l.unitPriceMinor, c)}
             </td>
-            <td className="py-1 text-right font-mono">{formatMinor(l.line_total_minor, c)}</td>
+            <td className="py-1 text-right font-mono">{formatMinor(l.lineTotalMinor, c)}</td>
           </tr>
         ))}
         <tr>
           <td colSpan={3} className="pt-2 text-right">
-            Subtotal · tax {(q.tax_rate_bp / 100).toFixed(2)} % · total
+            Subtotal · tax {(q.taxRateBp / 100).toFixed(2)} % · total
           </td>
           <td className="pt-2 text-right font-mono">
-            {formatMinor(q.subtotal_minor, c)} · {formatMinor(q.tax_minor, c)} · <strong>{formatMinor(q.total_minor, c)}</strong>
+            {formatMinor(q.subtotalMinor, c)} · {formatMinor(q.taxMinor, c)} · <strong>{formatMinor(q.totalMinor, c)}</strong>
           </td>
         </tr>
       </tbody>
@@ -224,10 +225,10 @@ function QuoteSummary({ q }: { q: Quote }) {
     <li className="flex flex-wrap items-center gap-3 text-lg" data-testid="quote-version">
       <span className="font-bold">v{q.version}</span>
       <span>{QUOTE_STATUS[q.status]}</span>
-      <span className="font-mono">{formatMinor(q.total_minor, q.currency)}</span>
-      {q.deposit_minor > 0 && (
-        <span data-testid="deposit-state" className={`rounded border-2 px-2 font-bold ${paid >= q.deposit_minor ? "border-pass text-pass" : "border-warn text-warn"}`}>
-          {paid >= q.deposit_minor ? `✔ Deposit ${formatMinor(paid, q.currency)} paid` : pending ? `… Deposit ${formatMinor(q.deposit_minor, q.currency)} pending` : `○ Deposit ${formatMinor(q.deposit_minor, q.currency)} not paid`}
+      <span className="font-mono">{formatMinor(q.totalMinor, q.currency)}</span>
+      {q.depositMinor > 0 && (
+        <span data-testid="deposit-state" className={`rounded border-2 px-2 font-bold ${paid >= q.depositMinor ? "border-pass text-pass" : "border-warn text-warn"}`}>
+          {paid >= q.depositMinor ? `✔ Deposit ${formatMinor(paid, q.currency)} paid` : pending ? `… Deposit ${formatMinor(q.depositMinor, q.currency)} pending` : `○ Deposit ${formatMinor(q.depositMinor, q.currency)} not paid`}
         </span>
       )}
     </li>

@@ -3,7 +3,9 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
 import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
-import { api } from "@/app/ui/api-client";
+import type { ReplyOf } from "@/app/_server/route";
+import type { POST } from "@/app/api/office/work-orders/[id]/status/route";
+import { api, type Wire } from "@/app/ui/api-client";
 import { FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { WorkOrderData } from "./types";
 
@@ -16,9 +18,9 @@ export function StatusPanel({ data }: { data: WorkOrderData }) {
   const [pins, setPins] = useState<string[]>([]);
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
   const move = useMutation({
-    mutationFn: (to: string) => api<{ mail?: { ok: boolean; error?: string } }>("POST", `/api/office/work-orders/${wo.id}/status`, { to, note, templateVersionIds: to === "in_build" ? pins : [] }),
+    mutationFn: (to: WorkOrderStatus) => api<Wire<ReplyOf<typeof POST>>>("POST", `/api/office/work-orders/${wo.id}/status`, { to, note, templateVersionIds: to === "in_build" ? pins : [] }),
     onSuccess: (r, to) => {
-      setMessage({ ok: `Moved to ${STATUS_LABELS[to as WorkOrderStatus]}.${r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : ""}` });
+      setMessage({ ok: `Moved to ${STATUS_LABELS[to]}.${r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : ""}` });
       setNote("");
       setPins([]);
       void qc.invalidateQueries({ queryKey: ["work-order", wo.id] });
@@ -58,7 +60,7 @@ export function StatusPanel({ data }: { data: WorkOrderData }) {
           <div className="mt-3 flex flex-wrap gap-3">
             {moves.map((s) => (
               <button key={s} type="button" className={quietButtonClass} disabled={move.isPending} onClick={() => move.mutate(s)}>
-                → {STATUS_LABELS[s as WorkOrderStatus]}
+                → {STATUS_LABELS[s]}
               </button>
             ))}
           </div>

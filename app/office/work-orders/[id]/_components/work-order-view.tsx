@@ -2,7 +2,7 @@
 
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { STATUS_LABELS } from "@/lib/work-orders/status";
 import { dayTime } from "@/app/ui/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { BuildProgressPanel } from "./build-progress-panel";
@@ -78,8 +78,8 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
         <ol className="mt-2 space-y-1" data-testid="transitions">
           {wo.transitions.map((t) => (
             <li key={t.id} className="text-lg">
-              {dayTime(t.at)} · {t.from ? `${STATUS_LABELS[t.from as WorkOrderStatus] ?? t.from} → ` : ""}
-              <span className="font-bold">{STATUS_LABELS[t.to as WorkOrderStatus] ?? t.to}</span> · {t.byName ?? "—"}
+              {dayTime(t.at)} · {t.from ? `${STATUS_LABELS[t.from]} → ` : ""}
+              <span className="font-bold">{STATUS_LABELS[t.to]}</span> · {t.byName ?? "—"}
               {t.note ? ` · “${t.note}”` : ""}
             </li>
           ))}

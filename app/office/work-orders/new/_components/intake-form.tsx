@@ -1,8 +1,9 @@
 "use client";
 
+import { issuesOf } from "@/lib/zod-issues";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
-import { intakeSchema, issuesOf } from "@/lib/office/schemas";
+import { intakeSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
 import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
 

@@ -1,9 +1,5 @@
-import { NextResponse } from "next/server";
-import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
+import { idParam, route } from "@/app/_server/route";
 import { approveQuoteAsCustomer } from "@/db/office/quotes";
 
 // The customer approves their own quote (anyone else's: 403).
-export const POST = guarded<{ id: string }>("my-bikes", async ({ user, params }) => {
-  return NextResponse.json(await approveQuoteAsCustomer(db(), user, idFrom(params.id)));
-});
+export const POST = route({ access: { area: "my-bikes" }, params: ["id"] }, async ({ user, params, db }) => approveQuoteAsCustomer(db, user, idParam(params.id)));

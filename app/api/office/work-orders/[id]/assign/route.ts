@@ -1,11 +1,8 @@
-import { NextResponse } from "next/server";
-import { guarded, idFrom, readJson } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { assignMechanic } from "@/db/office/work-orders";
+import { idParam, json, route } from "@/app/_server/route";
+import { assignMechanic } from "@/db/shop/work-orders";
 import { assignSchema } from "@/lib/office/schemas";
 
-export const POST = guarded<{ id: string }>("office", async ({ req, user, params }) => {
-  const body = await readJson(req, assignSchema);
-  await assignMechanic(db(), user.shopId, user.id, idFrom(params.id), body.mechanicId);
-  return NextResponse.json({ ok: true });
+export const POST = route({ access: { area: "office" }, params: ["id"], body: json(assignSchema) }, async ({ user, params, body, db }) => {
+  await assignMechanic(db, user.shopId, user.id, idParam(params.id), body.mechanicId);
+  return { ok: true };
 });

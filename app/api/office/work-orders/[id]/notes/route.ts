@@ -1,23 +1,20 @@
-import { NextResponse } from "next/server";
-import { checkPhotos, filesOf, storePhotos } from "@/app/_server/photos";
-import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { db } from "@/db/client";
-import { addNote } from "@/db/office/work-orders";
+import { checkPhotos, filesOf, MAX_PHOTO_FORM_BYTES, storePhotos } from "@/app/_server/photos";
+import { created, idParam, multipart, route } from "@/app/_server/route";
+import { addNote } from "@/db/shop/work-orders";
 import { noteSchema } from "@/lib/office/schemas";
 
 // A finding (teardown or general note) with photos, multipart: kind, body, photos[].
-export const POST = guarded<{ id: string }>("office", async ({ req, user, params }) => {
-  const id = idFrom(params.id);
-  const form = await req.formData();
+export const POST = route({ access: { area: "office" }, params: ["id"], body: multipart(MAX_PHOTO_FORM_BYTES) }, async ({ user, params, body: form, db }) => {
+  const id = idParam(params.id);
   const input = noteSchema.parse({ kind: form.get("kind") ?? "teardown", body: form.get("body") });
   const photos = filesOf(form);
   checkPhotos(photos);
-  const note = await addNote(db(), user.shopId, user.id, id, input.kind, input.body);
+  const note = await addNote(db, user.shopId, user.id, id, input.kind, input.body);
   let warning: string | undefined;
   try {
-    await storePhotos(db(), { shopId: user.shopId, userId: user.id, workOrderId: id, bikeId: null, noteId: note.id, purpose: input.kind === "intake" ? "intake" : "teardown" }, photos);
+    await storePhotos(db, { shopId: user.shopId, userId: user.id, workOrderId: id, bikeId: null, noteId: note.id, purpose: input.kind === "intake" ? "intake" : "teardown" }, photos);
   } catch (e) {
     warning = `The note is saved, but the photos could not be stored (${(e as Error).message}).`;
   }
-  return NextResponse.json({ id: note.id, warning }, { status: 201 });
+  return created({ id: note.id, warning });
 });

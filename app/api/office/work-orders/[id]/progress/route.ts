@@ -1,12 +1,10 @@
-import { NextResponse } from "next/server";
-import { guarded, idFrom } from "@/app/_server/route-helpers";
-import { loadBuildProgress } from "@/db/build-progress";
-import { db } from "@/db/client";
-import { Refusal } from "@/lib/office/refusal";
+import { idParam, route } from "@/app/_server/route";
+import { loadBuildProgress } from "@/db/records/build-progress";
+import { Refusal } from "@/lib/errors";
 
 // The build's progress by stage (steps done, sign-offs, review decisions, readings out of tolerance).
-export const GET = guarded<{ id: string }>("office", async ({ user, params }) => {
-  const progress = await loadBuildProgress(db(), user, idFrom(params.id));
+export const GET = route({ access: { area: "office" }, params: ["id"] }, async ({ user, params, db }) => {
+  const progress = await loadBuildProgress(db, user, idParam(params.id));
   if (!progress) throw new Refusal("No such work order in this shop.", 404);
-  return NextResponse.json(progress);
+  return progress;
 });

@@ -1,0 +1,310 @@
+import "server-only";
+import { after, NextResponse } from "next/server";
+import type { z } from "zod";
+import { db as sharedDb, type Db } from "@/db/setup/client";
+import { isDatabaseFailure } from "@/db/setup/failures";
+import { loadSessionUser } from "@/db/shop/users";
+import { canReach, type Area } from "@/lib/auth/roles";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { isUuid } from "@/lib/ids";
+import { CHECK_THE_FIELDS, DATABASE_NOT_ANSWERING, errorBody, Refusal, UNEXPECTED_FAILURE, type FieldIssue } from "@/lib/errors";
+import { issuesOf, workshopErrors, type FieldLabels } from "@/lib/zod-issues";
+import { readLimited, type BodyLimit } from "./request-body";
+import { isSameOrigin, NOT_FROM_OUR_PAGES } from "./same-origin";
+
+// The one wrapper every route handler goes through (app/api/**/route.ts). In this order:
+//   1. same origin, for every state-changing method (POST, PUT, PATCH, DELETE): 403 unless the
+//      request comes from our own pages (./same-origin.ts) — except the signed payment webhook,
+//      whose signature is its check;
+//   2. who is asking: 401 not signed in, 403 the role cannot reach the route's area (lib/auth/roles);
+//      the public routes name the check they make instead (`publicRoute`);
+//   3. the body's content type: 415 unless it is the one the route takes (JSON, multipart form,
+//      or the declared file types); a route that takes no body refuses any type but JSON;
+//   4. the body's size, counted while the stream is read, before anything is buffered: 413;
+//   5. the body and the query string parsed with zod: 400 (or the route's own status) with each
+//      problem in workshop words (lib/zod-issues.ts);
+//   6. the handler. A Refusal it throws becomes its status; a database failure anywhere (the
+//      session lookup included) 503; anything else 500.
+// Every refusal has one body: { error, issues: [{ path, message }] } (lib/errors.ts).
+
+type RawParams = Record<string, string | string[] | undefined>;
+type ParamsOf<N extends readonly string[]> = { [K in N[number]]: string };
+
+/** The route's body: what the handler gets in `body`. */
+export type BodySpec =
+  | ({ kind: "json"; schema: z.ZodType; labels?: FieldLabels; invalid?: { status: 400 | 422; error: string }; emptyMessage?: string; before?: (raw: unknown) => void } & BodyLimit)
+  | ({ kind: "multipart" } & BodyLimit)
+  | ({ kind: "binary"; types: readonly string[] } & BodyLimit)
+  | ({ kind: "text"; types: readonly string[] } & BodyLimit);
+
+type BodyOf<B> = B extends { kind: "json"; schema: infer S extends z.ZodType }
+  ? z.output<S>
+  : B extends { kind: "multipart" }
+    ? FormData
+    : B extends { kind: "binary" }
+      ? { bytes: Uint8Array; type: string }
+      : B extends { kind: "text" }
+        ? string
+        : undefined;
+
+export const KIB = 1024;
+export const MIB = 1024 * KIB;
+
+/** A JSON body checked with `schema` (at most `maxBytes`, 256 KiB unless given). */
+export function json<S extends z.ZodType>(
+  schema: S,
+  opts: { maxBytes?: number; labels?: FieldLabels; invalid?: { status: 400 | 422; error: string }; emptyMessage?: string; tooLargeHint?: string; before?: (raw: unknown) => void } = {},
+) {
+  return { kind: "json" as const, schema, maxBytes: opts.maxBytes ?? 256 * KIB, ...opts };
+}
+/** A multipart form (fields and files), at most `maxBytes`. */
+export function multipart(maxBytes: number) {
+  return { kind: "multipart" as const, maxBytes };
+}
+/** Raw bytes of one of `types` (e.g. a photo), at most `maxBytes`. */
+export function binary(types: readonly string[], maxBytes: number) {
+  return { kind: "binary" as const, types, maxBytes };
+}
+/** The body as UTF-8 text, sent as one of `types`, at most `maxBytes`. */
+export function text(types: readonly string[], maxBytes: number, opts: { tooLargeHint?: string } = {}) {
+  return { kind: "text" as const, types, maxBytes, ...opts };
+}
+
+/** Who may call a route: the roles that reach an area, any of several areas, or anyone signed in. */
+export type Access = { area: Area } | { anyArea: readonly Area[] } | { signedIn: true };
+
+/**
+ * The routes that no session guards, each naming the check it makes instead:
+ * - "next-auth": next-auth's own sign-in endpoints (CSRF token; the credentials check is rate-limited);
+ * - "payment-signature": the payment service's webhook, checked by its signature (no browser, no Origin).
+ */
+export type PublicCheck = "next-auth" | "payment-signature";
+
+export interface RouteContext<P, B, Q, U> {
+  req: Request;
+  user: U;
+  params: P;
+  body: B;
+  query: Q;
+  db: Db;
+  /** Work to do after the answer is sent (next/server `after`; skipped when a test calls `handle`). */
+  later: (work: () => Promise<unknown>) => void;
+}
+
+/** An answer with a status or headers of its own, keeping the body's type for the callers. */
+export class JsonReply<T> {
+  constructor(
+    readonly body: T,
+    readonly init: ResponseInit = {},
+  ) {}
+}
+export const reply = <T>(body: T, init: ResponseInit = {}) => new JsonReply(body, init);
+export const created = <T>(body: T) => new JsonReply(body, { status: 201 });
+
+/** What a test (or a script) passes instead of the request's session and the shared pool. */
+export interface CallOptions {
+  params?: RawParams;
+  /** The signed-in user as given; `undefined` to look `userId` up (or nobody). */
+  user?: SessionUser | null;
+  /** Look this user up in the database, as the session check does. */
+  userId?: string | null;
+  db?: Db;
+  later?: (work: () => Promise<unknown>) => void;
+}
+
+/** What a handler checks, readable by the test that every route goes through this wrapper. */
+export interface RouteRule {
+  access?: Access;
+  check?: PublicCheck;
+  /** The content types its body may have (empty: it takes no body). */
+  takes: readonly string[];
+}
+
+export interface RouteHandler<R> {
+  (req: Request, ctx: { params: Promise<RawParams> }): Promise<Response>;
+  /** The same handler, with the user and database given (integration tests). */
+  handle(req: Request, opts?: CallOptions): Promise<Response>;
+  readonly rule: RouteRule;
+  /** Phantom: the JSON the handler answers with on success (see `ReplyOf`). */
+  readonly __reply?: R;
+}
+
+/** The success body of a route handler: `ReplyOf<typeof GET>`. */
+export type ReplyOf<H> = H extends RouteHandler<infer R> ? (R extends Response ? never : R extends JsonReply<infer T> ? T : R) : never;
+
+const MUTATING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
+const NO_STORE = { "cache-control": "no-store" };
+
+export function refusalResponse(status: number, error: string, issues: FieldIssue[] = []): Response {
+  return NextResponse.json(errorBody(error, issues), { status, headers: NO_STORE });
+}
+
+function answerFailure(e: unknown): Response {
+  if (e instanceof Refusal) return refusalResponse(e.status, e.message, e.issues);
+  if (isZodError(e)) return refusalResponse(400, CHECK_THE_FIELDS, issuesOf(e));
+  if (isDatabaseFailure(e)) {
+    console.error("[route] database failure:", e instanceof Error ? e.message : e);
+    return refusalResponse(503, DATABASE_NOT_ANSWERING);
+  }
+  console.error("[route] unexpected error", e);
+  return refusalResponse(500, UNEXPECTED_FAILURE);
+}
+
+function isZodError(e: unknown): e is z.ZodError {
+  return typeof e === "object" && e !== null && (e as { name?: unknown }).name === "ZodError" && Array.isArray((e as { issues?: unknown }).issues);
+}
+
+function toResponse(result: unknown): Response {
+  if (result instanceof Response) return result;
+  if (result instanceof JsonReply) {
+    const headers = new Headers(result.init.headers);
+    if (!headers.has("cache-control")) headers.set("cache-control", "no-store");
+    return NextResponse.json(result.body, { ...result.init, headers });
+  }
+  return NextResponse.json(result ?? null, { headers: NO_STORE });
+}
+
+function mediaType(req: Request): string {
+  return (req.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
+}
+
+async function readBody(req: Request, spec: BodySpec | undefined): Promise<unknown> {
+  const type = mediaType(req);
+  if (!spec) {
+    // No body taken: a state-changing request may carry an empty JSON body, nothing else.
+    if (MUTATING.has(req.method) && type && type !== "application/json") throw new Refusal(`This request takes no body; ${type} was sent.`, 415);
+    return undefined;
+  }
+  const wanted = spec.kind === "json" ? ["application/json"] : spec.kind === "multipart" ? ["multipart/form-data"] : spec.types;
+  if (!wanted.includes(type)) throw new Refusal(`This request takes ${wanted.join(" or ")}; ${type || "no type"} was sent.`, 415);
+  const bytes = await readLimited(req, spec);
+  switch (spec.kind) {
+    case "binary":
+      return { bytes, type };
+    case "multipart":
+      try {
+        return await new Response(bytes as BodyInit, { headers: { "content-type": req.headers.get("content-type") ?? type } }).formData();
+      } catch {
+        throw new Refusal("The form could not be read: send it again.", 400);
+      }
+    case "text":
+      return utf8(bytes);
+    case "json": {
+      const text = utf8(bytes);
+      if (!text.trim()) throw new Refusal(spec.emptyMessage ?? "The body is empty: send the form's fields as JSON.", 400);
+      let raw: unknown;
+      try {
+        raw = JSON.parse(text);
+      } catch (e) {
+        throw new Refusal(`The body is not valid JSON: ${(e as Error).message}`, 400);
+      }
+      spec.before?.(raw);
+      const parsed = spec.schema.safeParse(raw, { error: workshopErrors(spec.labels) });
+      if (!parsed.success) {
+        const { status = 400, error = CHECK_THE_FIELDS } = spec.invalid ?? {};
+        throw new Refusal(error, status, issuesOf(parsed.error, { max: 50 }));
+      }
+      return parsed.data;
+    }
+  }
+}
+
+function utf8(bytes: Uint8Array): string {
+  try {
+    return new TextDecoder("utf-8", { fatal: true }).decode(bytes);
+  } catch {
+    throw new Refusal("The body is not UTF-8 text.", 400);
+  }
+}
+
+function readQuery(req: Request, schema: z.ZodType | undefined, labels?: FieldLabels): unknown {
+  if (!schema) return undefined;
+  const parsed = schema.safeParse(Object.fromEntries(new URL(req.url).searchParams), { error: workshopErrors(labels) });
+  if (!parsed.success) throw new Refusal(CHECK_THE_FIELDS, 400, issuesOf(parsed.error, { max: 50 }));
+  return parsed.data;
+}
+
+function pickParams(names: readonly string[], raw: RawParams = {}): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const n of names) {
+    const v = raw[n];
+    out[n] = Array.isArray(v) ? v.join("/") : (v ?? "");
+  }
+  return out;
+}
+
+async function whoIsAsking(opts: CallOptions, db: Db): Promise<SessionUser | null> {
+  if (opts.user !== undefined) return opts.user;
+  // next-auth loads only when a real request needs it (tests and scripts hand in the user).
+  const id = opts.userId !== undefined ? opts.userId : await (await import("./signed-in")).signedInUserId();
+  return id ? loadSessionUser(db, id) : null;
+}
+
+function mayPass(user: SessionUser, access: Access): boolean {
+  if ("signedIn" in access) return true;
+  if ("area" in access) return canReach(user.role, access.area);
+  return access.anyArea.some((a) => canReach(user.role, a));
+}
+
+interface Spec<N extends readonly string[], B, Q> {
+  params?: N;
+  body?: B;
+  query?: Q;
+  queryLabels?: FieldLabels;
+}
+
+function build<R>(
+  spec: Spec<readonly string[], BodySpec | undefined, z.ZodType | undefined>,
+  gate: { access: Access } | { publicCheck: PublicCheck },
+  run: (ctx: RouteContext<Record<string, string>, unknown, unknown, SessionUser | null>) => Promise<R>,
+): RouteHandler<R> {
+  async function handle(req: Request, opts: CallOptions = {}): Promise<Response> {
+    try {
+      const originChecked = !("publicCheck" in gate && gate.publicCheck === "payment-signature");
+      if (originChecked && MUTATING.has(req.method) && !isSameOrigin(req)) {
+        return refusalResponse(403, NOT_FROM_OUR_PAGES);
+      }
+      const db = opts.db ?? sharedDb();
+      let user: SessionUser | null = null;
+      if ("access" in gate) {
+        user = await whoIsAsking(opts, db);
+        if (!user) return refusalResponse(401, "Sign in first.");
+        if (!mayPass(user, gate.access)) return refusalResponse(403, `Your role (${user.role}) may not use this.`);
+      }
+      const params = pickParams(spec.params ?? [], opts.params);
+      const query = readQuery(req, spec.query, spec.queryLabels);
+      const body = await readBody(req, spec.body);
+      const later = opts.later ?? (opts.db || opts.user !== undefined || opts.userId !== undefined ? () => undefined : (work: () => Promise<unknown>) => after(work));
+      return toResponse(await run({ req, user, params, body, query, db, later }));
+    } catch (e) {
+      return answerFailure(e);
+    }
+  }
+  const handler = (async (req: Request, ctx: { params: Promise<RawParams> }) => handle(req, { params: ctx?.params ? await ctx.params : {} })) as RouteHandler<R>;
+  const body = spec.body;
+  const takes = !body ? [] : body.kind === "json" ? ["application/json"] : body.kind === "multipart" ? ["multipart/form-data"] : [...body.types];
+  const rule: RouteRule = "access" in gate ? { access: gate.access, takes } : { check: gate.publicCheck, takes };
+  return Object.assign(handler, { handle, rule });
+}
+
+/** A route for signed-in users whose role reaches `access`. */
+export function route<const N extends readonly string[] = [], B extends BodySpec | undefined = undefined, Q extends z.ZodType | undefined = undefined, R = unknown>(
+  spec: Spec<N, B, Q> & { access: Access },
+  handler: (ctx: RouteContext<ParamsOf<N>, BodyOf<B>, Q extends z.ZodType ? z.output<Q> : undefined, SessionUser>) => Promise<R>,
+): RouteHandler<R> {
+  return build(spec, { access: spec.access }, handler as never);
+}
+
+/** A route no session guards; `check` names what it checks instead (see PublicCheck). */
+export function publicRoute<const N extends readonly string[] = [], B extends BodySpec | undefined = undefined, R = unknown>(
+  spec: Spec<N, B, undefined> & { check: PublicCheck },
+  handler: (ctx: RouteContext<ParamsOf<N>, BodyOf<B>, undefined, null>) => Promise<R>,
+): RouteHandler<R> {
+  return build(spec, { publicCheck: spec.check }, handler as never);
+}
+
+/** A route parameter that must be a UUID; anything else is "not found" (never a 500). */
+export function idParam(value: string, what = "Not found."): string {
+  if (!isUuid(value)) throw new Refusal(what, 404);
+  return value;
+}

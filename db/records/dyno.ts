@@ -1,0 +1,187 @@
+import "server-only";
+import { sql, type Kysely } from "kysely";
+import type { DynoRunInput, RunWithdrawalInput, StoredDynoRun } from "@/lib/dyno";
+import { appendAudit } from "../audit/append";
+import { DYNO_STATUSES } from "@/lib/work-orders/status";
+import type { Database } from "../schema";
+import { workOrdersWithBike } from "../shop/work-orders";
+
+// Dyno runs by work order. Every query is scoped by the signed-in user's shop.
+
+/** The work order with its bike and customer, or null when it is not this shop's. */
+export async function findDynoWorkOrder(db: Kysely<Database>, shopId: string, workOrderId: string) {
+  const row = await workOrdersWithBike(db)
+    .select([
+      "w.id",
+      "w.number",
+      "w.title",
+      "w.status",
+      "b.make",
+      "b.model",
+      "b.year",
+      "b.tag_code as tagCode",
+      "b.displacement_cc as displacementCc",
+      "b.customer_id as customerId",
+      "c.name as customerName",
+    ])
+    .where("w.shop_id", "=", shopId)
+    .where("w.id", "=", workOrderId)
+    .executeTakeFirst();
+  return row ?? null;
+}
+
+/** Work orders a dyno run may be recorded on (on the bench or later), with their run counts. */
+export async function listDynoWorkOrders(db: Kysely<Database>, shopId: string) {
+  return db
+    .selectFrom("work_orders as w")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .select((eb) => [
+      "w.id",
+      "w.number",
+      "w.title",
+      "w.status",
+      "b.make",
+      "b.model",
+      "b.tag_code as tagCode",
+      eb.selectFrom("dyno_runs as r").select(eb.fn.countAll<number>().as("n")).whereRef("r.work_order_id", "=", "w.id").where("r.withdrawn_at", "is", null).as("runCount"),
+    ])
+    .where("w.shop_id", "=", shopId)
+    .where("w.status", "in", DYNO_STATUSES)
+    .orderBy("w.number", "desc")
+    .execute();
+}
+
+/** A work order's runs, oldest first, with their points (numbers parsed, units as stored); withdrawn ones included and marked. */
+export async function listDynoRuns(db: Kysely<Database>, shopId: string, workOrderId: string): Promise<StoredDynoRun[]> {
+  const runs = await db
+    .selectFrom("dyno_runs as r")
+    .leftJoin("users as wu", "wu.id", "r.withdrawn_by")
+    .select([
+      "r.id",
+      "r.label",
+      sql<string>`r.ran_on::text`.as("ranOn"),
+      "r.boost_target",
+      "r.boost_unit",
+      "r.pressure_kpa",
+      "r.temperature_c",
+      "r.humidity_percent",
+      "r.correction_standard",
+      "r.torque_unit",
+      "r.notes",
+      "r.withdrawn_at",
+      "r.withdrawn_reason",
+      "wu.name as withdrawnByName",
+    ])
+    .where("r.shop_id", "=", shopId)
+    .where("r.work_order_id", "=", workOrderId)
+    .orderBy("r.ran_on")
+    .orderBy("r.created_at")
+    .execute();
+  if (runs.length === 0) return [];
+  const points = await db
+    .selectFrom("dyno_points")
+    .select(["run_id", "rpm", "torque"])
+    .where(
+      "run_id",
+      "in",
+      runs.map((r) => r.id),
+    )
+    .orderBy("run_id")
+    .orderBy("position")
+    .execute();
+  return runs.map((r) => ({
+    id: r.id,
+    label: r.label,
+    ranOn: r.ranOn,
+    boostTarget: Number(r.boost_target),
+    boostUnit: r.boost_unit,
+    pressureKpa: Number(r.pressure_kpa),
+    temperatureC: Number(r.temperature_c),
+    humidityPercent: Number(r.humidity_percent),
+    standard: r.correction_standard,
+    torqueUnit: r.torque_unit,
+    notes: r.notes,
+    points: points.filter((p) => p.run_id === r.id).map((p) => ({ rpm: Number(p.rpm), torque: Number(p.torque) })),
+    withdrawn: r.withdrawn_at && r.withdrawn_reason ? { at: r.withdrawn_at.toISOString(), byName: r.withdrawnByName, reason: r.withdrawn_reason } : null,
+  }));
+}
+
+/**
+ * Stores a checked run and its points in one transaction (all or nothing). Returns the new id, or
+ * null when the work order is not this shop's.
+ */
+export async function saveDynoRun(
+  db: Kysely<Database>,
+  shopId: string,
+  workOrderId: string,
+  userId: string | null,
+  run: DynoRunInput,
+): Promise<string | null> {
+  return db.transaction().execute(async (trx) => {
+    const job = await trx.selectFrom("work_orders").select("id").where("shop_id", "=", shopId).where("id", "=", workOrderId).executeTakeFirst();
+    if (!job) return null;
+    const { id } = await trx
+      .insertInto("dyno_runs")
+      .values({
+        shop_id: shopId,
+        work_order_id: workOrderId,
+        label: run.label,
+        ran_on: run.ranOn,
+        boost_target: run.boostTarget,
+        boost_unit: run.boostUnit,
+        pressure_kpa: run.pressureKpa,
+        temperature_c: run.temperatureC,
+        humidity_percent: run.humidityPercent,
+        correction_standard: run.standard,
+        torque_unit: run.torqueUnit,
+        notes: run.notes,
+        source: run.source,
+        created_by: userId,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await trx
+      .insertInto("dyno_points")
+      .values(run.points.map((p, position) => ({ run_id: id, position, rpm: p.rpm, torque: p.torque })))
+      .execute();
+    return id;
+  });
+}
+
+type WithdrawRunResult = { ok: true; runId: string } | { ok: false; status: 404 | 409; reason: string };
+
+/**
+ * Withdraws a run of the work order (see lib/dyno/run-withdrawal.ts), with the audit entry, in one
+ * transaction. A run already withdrawn stays as it was (409): the first withdrawal stands.
+ */
+export async function withdrawDynoRun(
+  db: Kysely<Database>,
+  user: { id: string; shopId: string },
+  workOrderId: string,
+  runId: string,
+  input: RunWithdrawalInput,
+): Promise<WithdrawRunResult> {
+  return db.transaction().execute(async (trx) => {
+    const run = await trx
+      .selectFrom("dyno_runs")
+      .select(["id", "label", "withdrawn_at"])
+      .where("shop_id", "=", user.shopId)
+      .where("work_order_id", "=", workOrderId)
+      .where("id", "=", runId)
+      .forUpdate()
+      .executeTakeFirst();
+    if (!run) return { ok: false, status: 404, reason: "No such dyno run on this work order." };
+    const audit = { shopId: user.shopId, actorId: user.id, action: "dyno.run-withdrawn", entity: "dyno_run", entityId: run.id, workOrderId, reason: input.reason };
+    if (run.withdrawn_at) {
+      await appendAudit(trx, [{ ...audit, outcome: "refused", detail: { label: run.label, why: "already withdrawn" } }]);
+      return { ok: false, status: 409, reason: "This run was already withdrawn." };
+    }
+    await trx
+      .updateTable("dyno_runs")
+      .set({ withdrawn_at: sql<Date>`now()`, withdrawn_by: user.id, withdrawn_reason: input.reason })
+      .where("id", "=", run.id)
+      .execute();
+    await appendAudit(trx, [{ ...audit, outcome: "accepted", detail: { label: run.label } }]);
+    return { ok: true, runId: run.id };
+  });
+}

@@ -1,0 +1,114 @@
+import "server-only";
+import { sql, type Kysely } from "kysely";
+import { canReach } from "@/lib/auth/roles";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { buildStageReview, type DecisionFact, type StageReview } from "@/lib/review/stage-review";
+import { getJobSnapshot } from "../bench/jobs";
+import type { Database } from "../schema";
+
+export interface SignOffReview extends StageReview {
+  job: { id: string; number: number; title: string; status: string; statusLabel: string; bike: { make: string; model: string; tagCode: string } };
+  /** The decision standing now (the newest on this sign-off), for the "expectedDecisionId" guard. */
+  standingDecisionId: string | null;
+  mayDecide: boolean;
+  /** Why the signed-in user may not decide, when they may not. */
+  whyNot: string | null;
+}
+
+const iso = (d: unknown) => new Date(d as string | Date).toISOString();
+
+/** Everything the review screen shows for one sign-off of the user's shop; null when there is none. */
+export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser, signOffId: string): Promise<SignOffReview | null> {
+  const so = await db
+    .selectFrom("sign_offs as s")
+    .innerJoin("work_orders as w", "w.id", "s.work_order_id")
+    .select(["s.work_order_id as workOrderId"])
+    .where("s.id", "=", signOffId)
+    .where("w.shop_id", "=", user.shopId)
+    .executeTakeFirst();
+  if (!so) return null;
+  const snapshot = await getJobSnapshot(db, user, so.workOrderId);
+  if (!snapshot) return null;
+
+  const [receipts, names, acceptances, signOffs, decisions] = await Promise.all([
+    db.selectFrom("operations").select(["id", "received_at", "device_id"]).where("work_order_id", "=", so.workOrderId).execute(),
+    db.selectFrom("users").select(["id", "name"]).where("shop_id", "=", user.shopId).execute(),
+    db
+      .selectFrom("reading_acceptances as a")
+      .innerJoin("measurements as m", "m.id", "a.measurement_id")
+      .select(["a.measurement_id", "a.decision_id", "a.justification", "a.accepted_by", "a.accepted_at"])
+      .where("m.work_order_id", "=", so.workOrderId)
+      .where("a.shop_id", "=", user.shopId)
+      .execute(),
+    db
+      .selectFrom("sign_offs as s")
+      .innerJoin("operations as o", "o.id", "s.id")
+      .select(["s.id", "s.job_procedure_id", "s.stage_key", "s.signed_by", "s.device_time", "s.received_at", "o.device_id", sql<string>`o.seq::text`.as("seq"), "o.flagged", "o.flag_reason"])
+      .where("s.work_order_id", "=", so.workOrderId)
+      .execute(),
+    db
+      .selectFrom("review_decisions as d")
+      .innerJoin("sign_offs as s", "s.id", "d.sign_off_id")
+      .select(["d.id", "d.sign_off_id", "d.decision", "d.reason", "d.reopened_step_ids", "d.decided_by", "d.decided_at", sql<string>`d.change_seq::text`.as("change_seq")])
+      .where("s.work_order_id", "=", so.workOrderId)
+      .execute(),
+  ]);
+
+  const review = buildStageReview(
+    snapshot,
+    {
+      receipts: new Map(receipts.map((r) => [r.id, { receivedAt: iso(r.received_at), deviceId: r.device_id }])),
+      names: new Map(names.map((u) => [u.id, u.name])),
+      acceptances: acceptances.map((a) => ({ measurementId: a.measurement_id, decisionId: a.decision_id, justification: a.justification, acceptedBy: a.accepted_by, acceptedAt: iso(a.accepted_at) })),
+      signOffs: signOffs.map((s) => ({
+        id: s.id,
+        jobProcedureId: s.job_procedure_id,
+        stageKey: s.stage_key,
+        signedBy: s.signed_by,
+        deviceTime: iso(s.device_time),
+        receivedAt: iso(s.received_at),
+        deviceId: s.device_id,
+        seq: s.seq,
+        flagged: s.flagged,
+        flagReason: s.flag_reason,
+      })),
+      decisions: decisions.map(
+        (d): DecisionFact => ({
+          id: d.id,
+          signOffId: d.sign_off_id,
+          decision: d.decision,
+          reason: d.reason,
+          reopenedStepIds: d.reopened_step_ids,
+          decidedBy: d.decided_by,
+          decidedAt: iso(d.decided_at),
+          seq: d.change_seq,
+        }),
+      ),
+    },
+    signOffId,
+  );
+  if (!review) return null;
+
+  const standing = review.decisions.at(-1) ?? null;
+  const whyNot = !canReach(user.role, "decide")
+    ? `Your role (${user.role}) may look but not decide.`
+    : review.signOff.by.id === user.id
+      ? "You signed this stage off yourself: another supervisor or the office must review it."
+      : !review.signOff.isLatest
+        ? "This stage has been signed off again since; decide on the newest sign-off."
+        : null;
+  return {
+    ...review,
+    job: {
+      id: snapshot.workOrder.id,
+      number: snapshot.workOrder.number,
+      title: snapshot.workOrder.title,
+      status: snapshot.workOrder.status,
+      statusLabel: snapshot.workOrder.statusLabel,
+      bike: { make: snapshot.bike.make, model: snapshot.bike.model, tagCode: snapshot.bike.tagCode },
+    },
+    standingDecisionId: standing?.id ?? null,
+    mayDecide: whyNot === null,
+    whyNot,
+  };
+}

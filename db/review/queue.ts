@@ -1,0 +1,134 @@
+import "server-only";
+import { sql, type Kysely } from "kysely";
+import type { QueueQuery } from "@/lib/review/list-queries";
+import type { Database } from "../schema";
+
+// The review queue: for each stage of each job of the shop, its newest sign-off when no decision
+// has been made on it yet. Every query is scoped by shop.
+
+export interface QueueRow {
+  signOffId: string;
+  workOrderId: string;
+  number: number;
+  jobTitle: string;
+  make: string;
+  model: string;
+  tagCode: string;
+  stageKey: string;
+  stageTitle: string;
+  procedureName: string;
+  mechanicId: string;
+  mechanicName: string;
+  deviceTime: string;
+  receivedAt: string;
+  flagReason: string | null;
+  outOfTolerance: number;
+  /** The stage was sent back before and this is the sign-off after the redo. */
+  resubmitted: boolean;
+}
+
+const SORT_SQL: Record<QueueQuery["sort"], string> = {
+  signed: "q.seq",
+  job: "q.number",
+  bike: "q.tag_code",
+  mechanic: "q.mechanic_name",
+  outOfTolerance: "q.out_of_tolerance",
+};
+
+function waiting(shopId: string) {
+  return sql`
+    WITH latest AS (
+      SELECT DISTINCT ON (s.job_procedure_id, s.stage_key) s.id, s.work_order_id, s.job_procedure_id, s.stage_key, s.signed_by,
+        s.device_time, s.received_at, o.seq, o.flag_reason
+      FROM sign_offs s
+      JOIN operations o ON o.id = s.id
+      JOIN work_orders w ON w.id = s.work_order_id
+      WHERE w.shop_id = ${shopId}::uuid
+      ORDER BY s.job_procedure_id, s.stage_key, o.seq DESC
+    ),
+    q AS (
+      SELECT l.*, w.number, w.title AS job_title, b.make, b.model, b.tag_code, u.name AS mechanic_name,
+        st.stage_title, v.name AS procedure_name,
+        (SELECT count(*) FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
+           WHERE cm.work_order_id = l.work_order_id AND ts.template_version_id = jp.template_version_id
+             AND ts.stage_key = l.stage_key AND cm.verdict <> 'in'
+             AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id))::int AS out_of_tolerance,
+        EXISTS (SELECT 1 FROM review_decisions d JOIN sign_offs e ON e.id = d.sign_off_id
+           WHERE e.job_procedure_id = l.job_procedure_id AND e.stage_key = l.stage_key AND d.decision = 'sent_back') AS resubmitted
+      FROM latest l
+      JOIN work_orders w ON w.id = l.work_order_id
+      JOIN bikes b ON b.id = w.bike_id
+      JOIN users u ON u.id = l.signed_by
+      JOIN job_procedures jp ON jp.id = l.job_procedure_id
+      JOIN template_versions v ON v.id = jp.template_version_id
+      JOIN LATERAL (SELECT stage_title FROM template_steps ts WHERE ts.template_version_id = jp.template_version_id
+                    AND ts.stage_key = l.stage_key LIMIT 1) st ON true
+      WHERE NOT EXISTS (SELECT 1 FROM review_decisions d WHERE d.sign_off_id = l.id)
+    )
+  `;
+}
+
+function filters(o: Partial<QueueQuery>) {
+  const parts = [sql`true`];
+  if (o.job !== undefined) parts.push(sql`q.number = ${o.job}`);
+  if (o.mechanic) parts.push(sql`q.signed_by = ${o.mechanic}::uuid`);
+  if (o.outOfTolerance === "yes") parts.push(sql`q.out_of_tolerance > 0`);
+  if (o.outOfTolerance === "no") parts.push(sql`q.out_of_tolerance = 0`);
+  if (o.q) {
+    const like = `%${o.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+    parts.push(sql`(q.tag_code ILIKE ${like} OR q.make ILIKE ${like} OR q.model ILIKE ${like} OR (q.make || ' ' || q.model) ILIKE ${like})`);
+  }
+  return sql.join(parts, sql` AND `);
+}
+
+/** One page of the queue, newest sign-off first unless another sort is asked for. */
+export async function pageReviewQueue(db: Kysely<Database>, shopId: string, o: QueueQuery): Promise<{ rows: QueueRow[]; total: number }> {
+  const order = sql.raw(`${SORT_SQL[o.sort]} ${o.dir === "asc" ? "ASC" : "DESC"} NULLS LAST, q.seq DESC`);
+  const [count, rows] = await Promise.all([
+    sql<{ n: number }>`${waiting(shopId)} SELECT count(*)::int AS n FROM q WHERE ${filters(o)}`.execute(db),
+    sql<{
+      id: string; work_order_id: string; number: number; job_title: string; make: string; model: string; tag_code: string; stage_key: string;
+      stage_title: string; procedure_name: string; signed_by: string; mechanic_name: string; device_time: Date; received_at: Date;
+      flag_reason: string | null; out_of_tolerance: number; resubmitted: boolean;
+    }>`${waiting(shopId)} SELECT * FROM q WHERE ${filters(o)} ORDER BY ${order} LIMIT ${o.size} OFFSET ${o.page * o.size}`.execute(db),
+  ]);
+  return {
+    total: count.rows[0]?.n ?? 0,
+    rows: rows.rows.map((r) => ({
+      signOffId: r.id,
+      workOrderId: r.work_order_id,
+      number: r.number,
+      jobTitle: r.job_title,
+      make: r.make,
+      model: r.model,
+      tagCode: r.tag_code,
+      stageKey: r.stage_key,
+      stageTitle: r.stage_title,
+      procedureName: r.procedure_name,
+      mechanicId: r.signed_by,
+      mechanicName: r.mechanic_name,
+      deviceTime: r.device_time.toISOString(),
+      receivedAt: r.received_at.toISOString(),
+      flagReason: r.flag_reason,
+      outOfTolerance: r.out_of_tolerance,
+      resubmitted: r.resubmitted,
+    })),
+  };
+}
+
+/** How many sign-offs wait for review in the shop (the navigation shows it). */
+export async function countReviewQueue(db: Kysely<Database>, shopId: string): Promise<number> {
+  const r = await sql<{ n: number }>`${waiting(shopId)} SELECT count(*)::int AS n FROM q`.execute(db);
+  return r.rows[0]?.n ?? 0;
+}
+
+/** People who have signed off work in the shop (the queue's mechanic filter). */
+export async function signersOfShop(db: Kysely<Database>, shopId: string) {
+  return db
+    .selectFrom("users")
+    .select(["id", "name", "role"])
+    .where("shop_id", "=", shopId)
+    .where("role", "in", ["mechanic", "supervisor"])
+    .orderBy("name")
+    .execute();
+}

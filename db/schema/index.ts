@@ -1,0 +1,22 @@
+import type { Selectable } from "kysely";
+import type { AuditTables } from "./audit";
+import type { BenchTables } from "./bench";
+import type { DynoTables } from "./dyno";
+import type { OfficeTables } from "./office";
+import type { ReviewTables } from "./review";
+import type { ShopTables, UsersTable } from "./shop";
+import type { TemplateTables } from "./templates";
+import type { WorkOrderTables } from "./work-orders";
+
+// The whole database as Kysely sees it: one file per subject in this folder.
+export interface Database
+  extends ShopTables,
+    TemplateTables,
+    WorkOrderTables,
+    BenchTables,
+    ReviewTables,
+    OfficeTables,
+    DynoTables,
+    AuditTables {}
+
+export type User = Selectable<UsersTable>;

@@ -1,0 +1,90 @@
+import "server-only";
+import bcrypt from "bcryptjs";
+import { sql, type Kysely } from "kysely";
+import { SIGN_IN_LIMIT } from "@/lib/auth/credentials";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { Refusal } from "@/lib/errors";
+import type { newUserSchema } from "@/lib/office/user-schema";
+import type { z } from "zod";
+import type { Database } from "../schema";
+
+export async function listShopUsers(db: Kysely<Database>, shopId: string) {
+  return db
+    .selectFrom("users as u")
+    .leftJoin("customers as c", "c.id", "u.customer_id")
+    .select(["u.id", "u.name", "u.email", "u.role", "u.active", "c.name as customerName"])
+    .where("u.shop_id", "=", shopId)
+    .orderBy("u.active", "desc")
+    .orderBy("u.role")
+    .orderBy("u.name")
+    .execute();
+}
+
+export async function createShopUser(db: Kysely<Database>, shopId: string, input: z.output<typeof newUserSchema>): Promise<{ id: string }> {
+  const taken = await db.selectFrom("users").select("id").where("email", "=", input.email).executeTakeFirst();
+  if (taken) throw new Refusal("That e-mail already has a sign-in.", 409, [{ path: "email", message: "already has a sign-in" }]);
+  if (input.customerId) {
+    const c = await db.selectFrom("customers").select("id").where("id", "=", input.customerId).where("shop_id", "=", shopId).executeTakeFirst();
+    if (!c) throw new Refusal("That customer is not in this shop.", 400, [{ path: "customerId", message: "not a customer of this shop" }]);
+    const has = await db.selectFrom("users").select("id").where("customer_id", "=", input.customerId).executeTakeFirst();
+    if (has) throw new Refusal("That customer already has a sign-in.", 409, [{ path: "customerId", message: "already has a sign-in" }]);
+  }
+  return db
+    .insertInto("users")
+    .values({
+      shop_id: shopId,
+      name: input.name,
+      email: input.email,
+      role: input.role,
+      password_hash: await bcrypt.hash(input.password, 10),
+      customer_id: input.customerId,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+}
+
+/** Turns a sign-in on or off (never deletes: the records it made keep their author). */
+export async function setUserActive(db: Kysely<Database>, shopId: string, actorId: string, userId: string, active: boolean): Promise<void> {
+  if (userId === actorId && !active) throw new Refusal("You cannot turn off your own sign-in.", 400);
+  const r = await db.updateTable("users").set({ active }).where("id", "=", userId).where("shop_id", "=", shopId).executeTakeFirst();
+  if (!r.numUpdatedRows) throw new Refusal("Not found.", 404);
+}
+
+export async function findUserForSignIn(db: Kysely<Database>, email: string) {
+  return db
+    .selectFrom("users")
+    .select(["id", "shop_id", "role", "name", "email", "customer_id", "password_hash", "active"])
+    .where("email", "=", email)
+    .executeTakeFirst();
+}
+
+export async function loadSessionUser(db: Kysely<Database>, id: string): Promise<SessionUser | null> {
+  const row = await db
+    .selectFrom("users")
+    .select(["id", "shop_id", "role", "name", "email", "customer_id"])
+    .where("id", "=", id)
+    .where("active", "=", true)
+    .executeTakeFirst();
+  return row
+    ? { id: row.id, shopId: row.shop_id, role: row.role, name: row.name, email: row.email, customerId: row.customer_id }
+    : null;
+}
+
+// Failed attempts for a key (e-mail or client address) inside the rate-limit window.
+export async function recentSignInFailures(db: Kysely<Database>, key: string): Promise<number> {
+  const row = await db
+    .selectFrom("sign_in_attempts")
+    .select((eb) => eb.fn.countAll<number>().as("n"))
+    .where("key", "=", key)
+    .where("succeeded", "=", false)
+    .where(sql<boolean>`at > now() - make_interval(mins => ${SIGN_IN_LIMIT.windowMinutes})`)
+    .executeTakeFirstOrThrow();
+  return Number(row.n);
+}
+
+export async function recordSignInAttempt(db: Kysely<Database>, keys: string[], succeeded: boolean): Promise<void> {
+  await db
+    .insertInto("sign_in_attempts")
+    .values(keys.map((key) => ({ key, succeeded })))
+    .execute();
+}

@@ -1,0 +1,293 @@
+import "server-only";
+import { sql, type Kysely, type Transaction } from "kysely";
+import { intakeSchema, type IntakeInput } from "@/lib/office/schemas";
+import { Refusal } from "@/lib/errors";
+import { checkTransition } from "@/lib/work-orders/transition-rules";
+import { CLOSED_STATUSES, isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { appendAudit } from "../audit/append";
+import type { Database } from "../schema";
+import { partsOfWorkOrder } from "../records/parts-fitted";
+import { containsPattern } from "./search";
+import type { PageOpts } from "./customers";
+
+type Trx = Transaction<Database>;
+
+// Work orders joined to their bike (b), its owner (c) and the assigned mechanic (m, may be null):
+// the starting point of every page that shows a job with its bike. Callers add the shop filter.
+export function workOrdersWithBike(db: Kysely<Database>) {
+  return db
+    .selectFrom("work_orders as w")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .innerJoin("customers as c", "c.id", "b.customer_id")
+    .leftJoin("users as m", "m.id", "w.assigned_mechanic_id");
+}
+
+const SORTS = { number: "w.number", updated: "w.updated_at", status: "w.status", customer: "c.name", tag: "b.tag_code" } as const;
+
+export async function pageWorkOrders(db: Kysely<Database>, shopId: string, o: PageOpts & { status?: WorkOrderStatus }) {
+  let base = workOrdersWithBike(db).where("w.shop_id", "=", shopId);
+  if (o.status) base = base.where("w.status", "=", o.status);
+  if (o.q) {
+    const like = containsPattern(o.q);
+    base = base.where((eb) =>
+      eb.or([
+        eb("w.title", "ilike", like),
+        eb("b.tag_code", "ilike", like),
+        eb("c.name", "ilike", like),
+        eb("b.make", "ilike", like),
+        eb("b.model", "ilike", like),
+        eb(sql<string>`w.number::text`, "=", o.q),
+      ]),
+    );
+  }
+  const { n } = await base.select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow();
+  const rows = await base
+    .select([
+      "w.id",
+      "w.number",
+      "w.title",
+      "w.status",
+      "w.updated_at as updatedAt",
+      "b.id as bikeId",
+      "b.make",
+      "b.model",
+      "b.tag_code as tagCode",
+      "c.name as customerName",
+      "m.name as mechanicName",
+    ])
+    .orderBy(sql.ref(SORTS[o.sort as keyof typeof SORTS] ?? "w.number"), o.dir)
+    .orderBy("w.id")
+    .limit(o.size)
+    .offset(o.page * o.size)
+    .execute();
+  return { total: Number(n), rows };
+}
+
+// Books a bike in: a new work order numbered after the shop's last, its first transition and
+// the intake note, in one transaction.
+export async function bookIn(db: Kysely<Database>, shopId: string, userId: string, input: IntakeInput) {
+  const i = intakeSchema.parse(input);
+  return db.transaction().execute(async (trx) => {
+    const bike = await trx.selectFrom("bikes").select("id").where("id", "=", i.bikeId).where("shop_id", "=", shopId).executeTakeFirst();
+    if (!bike) throw new Refusal("Choose a bike from this shop.", 422, [{ path: "bikeId", message: "unknown bike" }]);
+    const open = await trx
+      .selectFrom("work_orders")
+      .select("number")
+      .where("bike_id", "=", i.bikeId)
+      .where("status", "not in", CLOSED_STATUSES)
+      .executeTakeFirst();
+    if (open) throw new Refusal(`This bike already has an open work order (#${open.number}).`, 409, [{ path: "bikeId", message: `work order #${open.number} is still open` }]);
+    await trx.selectFrom("shops").select("id").where("id", "=", shopId).forUpdate().execute();
+    const last = await trx.selectFrom("work_orders").select((eb) => eb.fn.max("number").as("n")).where("shop_id", "=", shopId).executeTakeFirst();
+    const number = (last?.n ?? 1000) + 1;
+    const wo = await trx
+      .insertInto("work_orders")
+      .values({
+        shop_id: shopId,
+        bike_id: i.bikeId,
+        number,
+        title: i.title,
+        status: "booked_in",
+        complaint: i.complaint,
+        intake_odometer_km: i.odometerKm,
+        assigned_mechanic_id: null,
+        closed_at: null,
+      })
+      .returning(["id", "number"])
+      .executeTakeFirstOrThrow();
+    await trx.insertInto("work_order_transitions").values({ work_order_id: wo.id, from_status: null, to_status: "booked_in", by_user_id: userId, note: "booked in" }).execute();
+    const note = await trx
+      .insertInto("work_order_notes")
+      .values({ shop_id: shopId, work_order_id: wo.id, kind: "intake", body: i.complaint, author_id: userId })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await appendAudit(trx, [{ shopId, actorId: userId, action: "work_order.book_in", entity: "work_order", entityId: wo.id, workOrderId: wo.id, outcome: "accepted", detail: { number, odometerKm: i.odometerKm } }]);
+    return { ...wo, intakeNoteId: note.id };
+  });
+}
+
+async function lockWorkOrder(trx: Trx, shopId: string, id: string) {
+  const wo = await trx
+    .selectFrom("work_orders")
+    .select(["id", "status", "assigned_mechanic_id as mechanicId", "number"])
+    .where("id", "=", id)
+    .where("shop_id", "=", shopId)
+    .forUpdate()
+    .executeTakeFirst();
+  if (!wo) throw new Refusal("No such work order in this shop.", 404);
+  return wo;
+}
+
+// The facts checkTransition needs, read inside the caller's transaction.
+async function transitionFacts(trx: Trx, workOrderId: string) {
+  const quote = await trx
+    .selectFrom("quotes")
+    .select(["id", "status", "deposit_minor as depositMinor"])
+    .where("work_order_id", "=", workOrderId)
+    .where("status", "in", ["sent", "approved"])
+    .orderBy("version", "desc")
+    .executeTakeFirst();
+  const paid = quote
+    ? await trx
+        .selectFrom("deposits")
+        .select((eb) => eb.fn.coalesce(eb.fn.sum<number>("amount_minor"), eb.lit(0)).as("s"))
+        .where("quote_id", "=", quote.id)
+        .where("status", "=", "paid")
+        .executeTakeFirstOrThrow()
+    : { s: 0 };
+  const pinned = await trx.selectFrom("job_procedures").select((eb) => eb.fn.countAll<number>().as("n")).where("work_order_id", "=", workOrderId).executeTakeFirstOrThrow();
+  return {
+    sentQuote: Boolean(quote),
+    approvedQuote: quote?.status === "approved",
+    depositDueMinor: quote?.status === "approved" ? quote.depositMinor : 0,
+    depositPaidMinor: Number(paid.s),
+    proceduresPinned: Number(pinned.n),
+  };
+}
+
+// Moves a work order to `to` when the flow and the shop's rules allow, recording who and when;
+// otherwise refuses with the reason (and writes the refusal to the audit log).
+export async function moveWorkOrder(
+  db: Kysely<Database> | Trx,
+  shopId: string,
+  userId: string,
+  workOrderId: string,
+  to: WorkOrderStatus,
+  opts: { note?: string; templateVersionIds?: string[]; byCustomerApproval?: boolean } = {},
+): Promise<{ from: WorkOrderStatus; to: WorkOrderStatus }> {
+  const run = async (trx: Trx) => {
+    const wo = await lockWorkOrder(trx, shopId, workOrderId);
+    const facts = await transitionFacts(trx, workOrderId);
+    const toPin = opts.templateVersionIds ?? [];
+    if (toPin.length) {
+      const ok = await trx
+        .selectFrom("template_versions as v")
+        .innerJoin("procedure_templates as t", "t.id", "v.template_id")
+        .select("v.id")
+        .where("v.id", "in", toPin)
+        .where("t.shop_id", "=", shopId)
+        .execute();
+      if (ok.length !== new Set(toPin).size) throw new Refusal("One of the chosen templates is not in this shop.", 422);
+    }
+    const check = checkTransition(wo.status, to, {
+      ...facts,
+      mechanicAssigned: Boolean(wo.mechanicId),
+      proceduresPinned: facts.proceduresPinned + toPin.length,
+      byCustomerApproval: opts.byCustomerApproval,
+    });
+    if (!check.ok) return { refused: check.reason, from: wo.status };
+    const position0 = facts.proceduresPinned;
+    for (const [i, versionId] of toPin.entries()) {
+      await trx.insertInto("job_procedures").values({ work_order_id: workOrderId, template_version_id: versionId, position: position0 + i }).execute();
+    }
+    await trx
+      .updateTable("work_orders")
+      .set({ status: to, updated_at: sql`now()`, closed_at: isClosed(to) ? new Date() : null })
+      .where("id", "=", workOrderId)
+      .execute();
+    await trx.insertInto("work_order_transitions").values({ work_order_id: workOrderId, from_status: wo.status, to_status: to, by_user_id: userId, note: opts.note ?? "" }).execute();
+    await appendAudit(trx, [{ shopId, actorId: userId, action: "work_order.move", entity: "work_order", entityId: workOrderId, workOrderId, outcome: "accepted", detail: { from: wo.status, to, pinned: toPin } }]);
+    return { refused: null, from: wo.status };
+  };
+  const result = "isTransaction" in db && db.isTransaction ? await run(db as Trx) : await (db as Kysely<Database>).transaction().execute(run);
+  if (result.refused) {
+    await appendAudit(db, [{ shopId, actorId: userId, action: "work_order.move", entity: "work_order", entityId: workOrderId, workOrderId, outcome: "refused", reason: result.refused, detail: { from: result.from, to } }]);
+    throw new Refusal(result.refused, 409);
+  }
+  return { from: result.from, to };
+}
+
+export async function assignMechanic(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, mechanicId: string | null) {
+  if (mechanicId) {
+    const m = await db.selectFrom("users").select("id").where("id", "=", mechanicId).where("shop_id", "=", shopId).where("role", "in", ["mechanic", "supervisor"]).where("active", "=", true).executeTakeFirst();
+    if (!m) throw new Refusal("Choose an active mechanic of this shop.", 422, [{ path: "mechanicId", message: "not a mechanic here" }]);
+  }
+  const r = await db.updateTable("work_orders").set({ assigned_mechanic_id: mechanicId, updated_at: sql`now()` }).where("id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
+  if (!r.numUpdatedRows) throw new Refusal("No such work order in this shop.", 404);
+  await appendAudit(db, [{ shopId, actorId: userId, action: "work_order.assign", entity: "work_order", entityId: workOrderId, workOrderId, outcome: "accepted", detail: { mechanicId } }]);
+}
+
+export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: string) {
+  const wo = await workOrdersWithBike(db)
+    .select([
+      "w.id",
+      "w.number",
+      "w.title",
+      "w.status",
+      "w.complaint",
+      "w.intake_odometer_km as odometerKm",
+      "w.created_at as createdAt",
+      "w.assigned_mechanic_id as mechanicId",
+      "m.name as mechanicName",
+      "b.id as bikeId",
+      "b.make",
+      "b.model",
+      "b.year",
+      "b.tag_code as tagCode",
+      "c.id as customerId",
+      "c.name as customerName",
+      "c.email as customerEmail",
+      "c.phone as customerPhone",
+    ])
+    .where("w.id", "=", id)
+    .where("w.shop_id", "=", shopId)
+    .executeTakeFirst();
+  if (!wo) return null;
+  const [transitions, notes, photos, procedures, parts, emails] = await Promise.all([
+    db
+      .selectFrom("work_order_transitions as t")
+      .leftJoin("users as u", "u.id", "t.by_user_id")
+      .select(["t.id", "t.from_status as from", "t.to_status as to", "t.note", "t.at", "u.name as byName"])
+      .where("t.work_order_id", "=", id)
+      .orderBy("t.at")
+      .orderBy("t.id")
+      .execute(),
+    db
+      .selectFrom("work_order_notes as n")
+      .leftJoin("users as u", "u.id", "n.author_id")
+      .select(["n.id", "n.kind", "n.body", "n.created_at as at", "u.name as authorName"])
+      .where("n.work_order_id", "=", id)
+      .where("n.shop_id", "=", shopId)
+      .orderBy("n.created_at")
+      .execute(),
+    db
+      .selectFrom("attachments")
+      .select(["id", "purpose", "note_id as noteId", "caption", "content_type as contentType", "created_at as at"])
+      .where("work_order_id", "=", id)
+      .where("shop_id", "=", shopId)
+      .orderBy("created_at")
+      .execute(),
+    db
+      .selectFrom("job_procedures as j")
+      .innerJoin("template_versions as v", "v.id", "j.template_version_id")
+      .innerJoin("procedure_templates as t", "t.id", "v.template_id")
+      .select(["j.id", "j.position", "t.key", "v.name", "v.version"])
+      .where("j.work_order_id", "=", id)
+      .orderBy("j.position")
+      .execute(),
+    partsOfWorkOrder(db, shopId, id),
+    db
+      .selectFrom("outbound_emails")
+      .select(["id", "kind", "recipient", "subject", "error", "sent_at as at"])
+      .where("work_order_id", "=", id)
+      .where("shop_id", "=", shopId)
+      .orderBy("sent_at")
+      .execute(),
+  ]);
+  return { ...wo, transitions, notes, photos, procedures, parts, emails };
+}
+
+/** Whether the work order is one of this shop's. */
+export async function workOrderInShop(db: Kysely<Database>, shopId: string, id: string): Promise<boolean> {
+  return !!(await db.selectFrom("work_orders").select("id").where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst());
+}
+
+export async function mechanicsOf(db: Kysely<Database>, shopId: string) {
+  return db.selectFrom("users").select(["id", "name"]).where("shop_id", "=", shopId).where("role", "in", ["mechanic", "supervisor"]).where("active", "=", true).orderBy("name").execute();
+}
+
+export async function addNote(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, kind: "intake" | "teardown" | "general", body: string) {
+  const wo = await db.selectFrom("work_orders").select("id").where("id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
+  if (!wo) throw new Refusal("No such work order in this shop.", 404);
+  return db.insertInto("work_order_notes").values({ shop_id: shopId, work_order_id: workOrderId, kind, body, author_id: userId }).returning("id").executeTakeFirstOrThrow();
+}

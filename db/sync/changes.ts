@@ -1,0 +1,139 @@
+import "server-only";
+import { sql, type Kysely, type Transaction } from "kysely";
+import { serverStamp, type Change } from "@/lib/sync/changes";
+import { SYNC_LIMITS, type Operation } from "@/lib/sync/operations";
+import { CLOSED_STATUSES } from "@/lib/work-orders/status";
+import type { Database } from "../schema";
+
+// The change feed: operations and review decisions of a shop after a cursor, in seq order.
+// Both share one sequence (operations.seq; review_decisions.change_seq draws from it), and every
+// writer takes the shop's sync lock before drawing numbers, so paging by seq never skips a row.
+// Scope: the shop's work orders that are not closed (handed over / cancelled).
+
+type Db = Kysely<Database> | Transaction<Database>;
+
+
+interface ChangePage {
+  changes: Change[];
+  cursor: string;
+  more: boolean;
+}
+
+/** The highest sequence number in the shop (operations and decisions), 0 when there is none. */
+export async function shopCursor(db: Db, shopId: string): Promise<number> {
+  const r = await sql<{ seq: string | number | null }>`
+    SELECT GREATEST(
+      (SELECT max(seq) FROM operations WHERE shop_id = ${shopId}::uuid),
+      (SELECT d.change_seq FROM review_decisions d
+         JOIN sign_offs so ON so.id = d.sign_off_id JOIN work_orders w ON w.id = so.work_order_id
+         WHERE w.shop_id = ${shopId}::uuid ORDER BY d.change_seq DESC LIMIT 1)
+    ) AS seq
+  `.execute(db);
+  return Number(r.rows[0]?.seq ?? 0);
+}
+
+/**
+ * Changes in the shop after `cursor` (null: from the start), leaving out operations from
+ * `excludeDeviceId` (the asking device has them). At most `limit` entries; `more` says whether
+ * others wait, and `cursor` is where to go on from.
+ */
+export async function changesSince(
+  db: Db,
+  shopId: string,
+  excludeDeviceId: string | null,
+  cursor: number | null,
+  limit: number = SYNC_LIMITS.maxChanges,
+): Promise<ChangePage> {
+  const after = cursor ?? 0;
+  const [ops, decisions, top] = await Promise.all([
+    sql<{
+      seq: string | number;
+      id: string;
+      kind: string;
+      work_order_id: string;
+      author_id: string;
+      device_id: string;
+      device_time: Date;
+      stamp: string;
+      payload: Record<string, unknown>;
+      flagged: boolean;
+      flag_reason: string | null;
+    }>`
+      SELECT o.seq, o.id, o.kind, o.work_order_id, o.author_id, o.device_id, o.device_time, o.stamp, o.payload,
+        o.flagged, o.flag_reason
+      FROM operations o JOIN work_orders w ON w.id = o.work_order_id
+      WHERE o.shop_id = ${shopId}::uuid AND o.seq > ${after}
+        AND o.device_id IS DISTINCT FROM ${excludeDeviceId}::text
+        AND w.status <> ALL(${[...CLOSED_STATUSES]}::text[])
+      ORDER BY o.seq
+      LIMIT ${limit + 1}
+    `.execute(db),
+    sql<{
+      change_seq: string | number;
+      id: string;
+      sign_off_id: string;
+      work_order_id: string;
+      job_procedure_id: string;
+      stage_key: string;
+      decision: "approved" | "sent_back";
+      reason: string;
+      reopened_step_ids: string[];
+      decided_by: string;
+      decided_at: Date;
+    }>`
+      SELECT d.change_seq, d.id, d.sign_off_id, so.work_order_id, so.job_procedure_id, so.stage_key, d.decision, d.reason,
+        d.reopened_step_ids, d.decided_by, d.decided_at
+      FROM review_decisions d
+      JOIN sign_offs so ON so.id = d.sign_off_id
+      JOIN work_orders w ON w.id = so.work_order_id
+      WHERE w.shop_id = ${shopId}::uuid AND d.change_seq > ${after} AND w.status <> ALL(${[...CLOSED_STATUSES]}::text[])
+      ORDER BY d.change_seq
+      LIMIT ${limit + 1}
+    `.execute(db),
+    shopCursor(db, shopId),
+  ]);
+
+  const all: Change[] = [
+    ...ops.rows.map(
+      (o): Change => ({
+        type: "operation",
+        seq: String(o.seq),
+        operation: {
+          id: o.id,
+          kind: o.kind,
+          workOrderId: o.work_order_id,
+          authorId: o.author_id,
+          deviceId: o.device_id,
+          deviceTime: o.device_time.toISOString(),
+          stamp: o.stamp,
+          payload: o.payload,
+        } as Operation,
+        flagged: o.flagged,
+        flagReason: o.flag_reason,
+      }),
+    ),
+    ...decisions.rows.map(
+      (d): Change => ({
+        type: "review",
+        seq: String(d.change_seq),
+        stamp: serverStamp(d.decided_at.getTime()),
+        decisionId: d.id,
+        workOrderId: d.work_order_id,
+        signOffId: d.sign_off_id,
+        jobProcedureId: d.job_procedure_id,
+        stageKey: d.stage_key,
+        decision: d.decision,
+        reason: d.reason,
+        reopenedStepIds: d.reopened_step_ids,
+        decidedBy: d.decided_by,
+        decidedAt: d.decided_at.toISOString(),
+      }),
+    ),
+  ].sort((a, b) => Number(a.seq) - Number(b.seq));
+
+  if (all.length > limit) {
+    const page = all.slice(0, limit);
+    return { changes: page, cursor: page[page.length - 1].seq, more: true };
+  }
+  return { changes: all, cursor: String(Math.max(top, after)), more: false };
+}

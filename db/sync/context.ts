@@ -1,0 +1,177 @@
+import "server-only";
+import { sql, type Kysely, type Transaction } from "kysely";
+import type {
+  WorkOrderFacts,
+  MeasurementSpecFacts,
+  MergeState,
+  SendBackFacts,
+  StepFacts,
+  TimerSpecFacts,
+  TorqueSpecFacts,
+} from "@/lib/sync/merge-rules";
+import { emptyMergeState } from "@/lib/sync/merge-rules";
+import { partSerialOnWorkOrder } from "@/lib/sync/parts";
+import type { Operation } from "@/lib/sync/operations";
+import type { ReadingSpec } from "@/lib/sync/readings";
+import { expectedReadings, torquePassCount } from "@/lib/procedures/spec-counts";
+import type { Database } from "../schema";
+
+// Loads what the merge rules need, in a handful of set-based queries (never one per operation).
+
+type Db = Kysely<Database> | Transaction<Database>;
+
+export interface LoadedWorkOrder extends WorkOrderFacts {
+  bikeId: string;
+  measurementSpecs: Map<string, MeasurementSpecFacts & ReadingSpec>;
+}
+
+/** `= ANY(ids)`: one array parameter for any number of ids (a 10,000-operation batch stays one parameter). */
+const anyId = (ids: Iterable<string>) => sql<string>`ANY(${[...ids]}::uuid[])`;
+
+/** The named work orders (any shop: a job of another shop comes back without its procedures, to be refused). */
+export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonly string[]): Promise<Map<string, LoadedWorkOrder>> {
+  const out = new Map<string, LoadedWorkOrder>();
+  if (!jobIds.length) return out;
+  const jobs = await db.selectFrom("work_orders").select(["id", "shop_id", "bike_id", "number", "status", "assigned_mechanic_id"]).where("id", "=", anyId(jobIds)).execute();
+  for (const j of jobs) {
+    out.set(j.id, {
+      id: j.id,
+      shopId: j.shop_id,
+      bikeId: j.bike_id,
+      number: j.number,
+      status: j.status,
+      assignedMechanicId: j.assigned_mechanic_id,
+      steps: new Map(),
+      measurementSpecs: new Map(),
+      torqueSpecs: new Map(),
+      timerSpecs: new Map(),
+      sendBacks: [],
+    });
+  }
+  const own = jobs.filter((j) => j.shop_id === shopId).map((j) => j.id);
+  if (!own.length) return out;
+
+  // the steps of every procedure pinned on the jobs, and their specs
+  const pinned = db
+    .selectFrom("job_procedures as jp")
+    .innerJoin("template_steps as s", "s.template_version_id", "jp.template_version_id")
+    .where("jp.work_order_id", "=", anyId(own));
+  const [steps, measurementSpecs, torqueSpecs, timerSpecs, sendBacks] = await Promise.all([
+    pinned
+      .select(["jp.work_order_id", "jp.id as job_procedure_id", "s.id", "s.key", "s.title", "s.stage_key"])
+      .orderBy("jp.position")
+      .orderBy("s.stage_position")
+      .orderBy("s.position")
+      .execute(),
+    pinned
+      .innerJoin("measurement_specs as m", "m.step_id", "s.id")
+      .select(["jp.work_order_id", "m.id", "m.step_id", "m.label", "m.reading_labels", "m.unit", "m.min", "m.max", "m.nominal"])
+      .execute(),
+    pinned
+      .innerJoin("torque_specs as t", "t.step_id", "s.id")
+      .select(["jp.work_order_id", "t.id", "t.step_id", "t.label", "t.bolt_count", "t.final_value", "t.unit", "t.passes", "t.angle_passes"])
+      .execute(),
+    pinned.innerJoin("timer_specs as t", "t.step_id", "s.id").select(["jp.work_order_id", "t.id", "t.step_id"]).execute(),
+    db
+      .selectFrom("review_decisions as d")
+      .innerJoin("sign_offs as so", "so.id", "d.sign_off_id")
+      .select(["so.work_order_id", "d.id", "d.reopened_step_ids", "d.change_seq", "d.decided_at", "d.reason"])
+      .where("d.decision", "=", "sent_back")
+      .where("so.work_order_id", "=", anyId(own))
+      .execute(),
+  ]);
+  for (const s of steps) {
+    const steps = out.get(s.work_order_id)!.steps as Map<string, StepFacts>;
+    // A step pinned twice on one job (same version run twice) belongs to the first procedure.
+    if (!steps.has(s.id)) steps.set(s.id, { key: s.key, title: s.title, jobProcedureId: s.job_procedure_id, stageKey: s.stage_key });
+  }
+  for (const m of measurementSpecs) {
+    out.get(m.work_order_id)!.measurementSpecs.set(m.id, {
+      stepId: m.step_id,
+      label: m.label,
+      readingCount: expectedReadings(m.reading_labels),
+      unit: m.unit,
+      min: Number(m.min),
+      max: Number(m.max),
+      nominal: m.nominal === null ? null : Number(m.nominal),
+    });
+  }
+  for (const t of torqueSpecs) {
+    (out.get(t.work_order_id)!.torqueSpecs as Map<string, TorqueSpecFacts>).set(t.id, {
+      stepId: t.step_id,
+      label: t.label,
+      boltCount: t.bolt_count,
+      passCount: torquePassCount({ finalValue: Number(t.final_value), unit: t.unit, passes: t.passes, anglePasses: t.angle_passes }),
+    });
+  }
+  for (const t of timerSpecs) {
+    (out.get(t.work_order_id)!.timerSpecs as Map<string, TimerSpecFacts>).set(t.id, { stepId: t.step_id });
+  }
+  for (const d of sendBacks) {
+    (out.get(d.work_order_id)!.sendBacks as SendBackFacts[]).push({
+      decisionId: d.id,
+      stepIds: d.reopened_step_ids,
+      seq: Number(d.change_seq),
+      decidedAtMs: d.decided_at.getTime(),
+      reason: d.reason,
+    });
+  }
+  return out;
+}
+
+/** Operations already on file among `ids`, with their author. */
+export async function existingOperations(db: Db, ids: readonly string[]): Promise<Map<string, string>> {
+  if (!ids.length) return new Map();
+  const rows = await db.selectFrom("operations").select(["id", "author_id"]).where("id", "=", anyId(ids)).execute();
+  return new Map(rows.map((o) => [o.id, o.author_id]));
+}
+
+/**
+ * The readings, timers, photos and part records on file that the operations name (corrections,
+ * timer stops, photo and part ids), and the serial-numbered parts already on the jobs that get one.
+ */
+export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise<MergeState> {
+  const state = emptyMergeState();
+  const readingIds = new Set<string>();
+  const timerIds = new Set<string>();
+  const attachmentIds = new Set<string>();
+  const partIds = new Set<string>();
+  const serialJobIds = new Set<string>();
+  for (const op of ops) {
+    if (op.kind === "measurement.recorded" && op.payload.supersedesId) readingIds.add(op.payload.supersedesId);
+    else if (op.kind === "timer.started" || op.kind === "timer.stopped" || op.kind === "timer.overridden") timerIds.add(op.payload.timerId);
+    else if (op.kind === "photo.queued") attachmentIds.add(op.payload.attachmentId);
+    else if (op.kind === "part.fitted") {
+      partIds.add(op.payload.partFittedId);
+      if (op.payload.serial !== undefined) serialJobIds.add(op.workOrderId);
+    }
+  }
+  const none = Promise.resolve([]);
+  const [readings, timers, attachments, parts, serials] = await Promise.all([
+    readingIds.size ? db.selectFrom("measurements").select(["id", "work_order_id", "spec_id", "reading_index"]).where("id", "=", anyId(readingIds)).execute() : none,
+    timerIds.size ? db.selectFrom("timers").select(["id", "work_order_id", "started_at", "stopped_at"]).where("id", "=", anyId(timerIds)).execute() : none,
+    attachmentIds.size ? db.selectFrom("attachments").select("id").where("id", "=", anyId(attachmentIds)).execute() : none,
+    partIds.size ? db.selectFrom("parts_fitted").select("id").where("id", "=", anyId(partIds)).execute() : none,
+    serialJobIds.size
+      ? db
+          .selectFrom("parts_fitted")
+          .select(["work_order_id", "part_number", "serial", "step_id"])
+          .where("work_order_id", "=", anyId(serialJobIds))
+          .where("serial", "is not", null)
+          .orderBy("fitted_at")
+          .orderBy("id")
+          .execute()
+      : none,
+  ]);
+  for (const r of readings) state.readings.set(r.id, { workOrderId: r.work_order_id, specId: r.spec_id, readingIndex: r.reading_index });
+  for (const t of timers) {
+    state.timers.set(t.id, { workOrderId: t.work_order_id, startedAtMs: t.started_at.getTime(), stoppedAtMs: t.stopped_at?.getTime() ?? null });
+  }
+  for (const a of attachments) state.attachmentIds.add(a.id);
+  for (const p of parts) state.partIds.add(p.id);
+  for (const p of serials) {
+    const key = partSerialOnWorkOrder(p.work_order_id, p.part_number, p.serial!);
+    if (!state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.step_id });
+  }
+  return state;
+}
