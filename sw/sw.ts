@@ -37,15 +37,24 @@ const runtimeCaching: RuntimeCaching[] = [
   },
   {
     matcher: ({ url, sameOrigin }) => sameOrigin && url.pathname.startsWith("/_next/static/"),
-    handler: new CacheFirst({ cacheName: "next-static", plugins: [new ExpirationPlugin({ maxEntries: 200, maxAgeSeconds: 30 * DAY_S, maxAgeFrom: "last-used" })] }),
+    handler: new CacheFirst({
+      cacheName: "next-static",
+      plugins: [new ExpirationPlugin({ maxEntries: 200, maxAgeSeconds: 30 * DAY_S, maxAgeFrom: "last-used" })],
+    }),
   },
   {
     matcher: ({ url, sameOrigin }) => sameOrigin && !isApi(url) && /\.(?:woff2?|ttf|otf)$/i.test(url.pathname),
-    handler: new StaleWhileRevalidate({ cacheName: "static-font-assets", plugins: [new ExpirationPlugin({ maxEntries: 16, maxAgeSeconds: 30 * DAY_S })] }),
+    handler: new StaleWhileRevalidate({
+      cacheName: "static-font-assets",
+      plugins: [new ExpirationPlugin({ maxEntries: 16, maxAgeSeconds: 30 * DAY_S })],
+    }),
   },
   {
     matcher: ({ url, sameOrigin }) => sameOrigin && !isApi(url) && url.pathname.startsWith("/icons/"),
-    handler: new StaleWhileRevalidate({ cacheName: "static-image-assets", plugins: [new ExpirationPlugin({ maxEntries: 32, maxAgeSeconds: 30 * DAY_S })] }),
+    handler: new StaleWhileRevalidate({
+      cacheName: "static-image-assets",
+      plugins: [new ExpirationPlugin({ maxEntries: 32, maxAgeSeconds: 30 * DAY_S })],
+    }),
   },
   {
     // Other pages: never kept (they hold customers' and users' data); offline they fall back to /offline.

@@ -66,8 +66,16 @@ function checkLine(line: unknown, name: "Surge line" | "Choke line", field: stri
     }
     const point = p as Record<string, unknown>;
     return {
-      correctedFlow: requireQuantity(relabel(flowRule, `${name} point ${i + 1}: corrected air flow`), point.correctedFlow, `${at}.correctedFlow`),
-      pressureRatio: requireQuantity(relabel(INPUT_RULES.pressureRatio, `${name} point ${i + 1}: pressure ratio`), point.pressureRatio, `${at}.pressureRatio`),
+      correctedFlow: requireQuantity(
+        relabel(flowRule, `${name} point ${i + 1}: corrected air flow`),
+        point.correctedFlow,
+        `${at}.correctedFlow`,
+      ),
+      pressureRatio: requireQuantity(
+        relabel(INPUT_RULES.pressureRatio, `${name} point ${i + 1}: pressure ratio`),
+        point.pressureRatio,
+        `${at}.pressureRatio`,
+      ),
     };
   });
   points.sort((a, b) => a.pressureRatio - b.pressureRatio);

@@ -7,13 +7,7 @@ import { CalcInputError, requireObject } from "./errors";
 import { INPUT_RULES } from "./input-rules";
 import { requireQuantity, relabel } from "./quantity";
 import { compressorOutletTemperatureK, intercoolerOutletTemperatureK } from "./charge-air";
-import {
-  checkFlowReference,
-  compressorPressureRatio,
-  correctedAirFlow,
-  engineAirMassFlowKgS,
-  type FlowReference,
-} from "./engine-airflow";
+import { checkFlowReference, compressorPressureRatio, correctedAirFlow, engineAirMassFlowKgS, type FlowReference } from "./engine-airflow";
 import { MAX_CURVE_POINTS, readRpmCurve, type RpmCurveInput } from "./rpm-curve";
 
 export interface OperatingPointsInput {
@@ -105,7 +99,10 @@ export function compressorOperatingPoints(input: OperatingPointsInput): Compress
   } else {
     const need = "is needed to work out the manifold air temperature (or enter the manifold air temperature)";
     if (input.compressorEfficiency === undefined) {
-      throw new CalcInputError(INPUT_RULES.compressorEfficiency.label, undefined, need, { shown: "nothing.", field: "compressorEfficiency" });
+      throw new CalcInputError(INPUT_RULES.compressorEfficiency.label, undefined, need, {
+        shown: "nothing.",
+        field: "compressorEfficiency",
+      });
     }
     if (input.intercoolerEffectiveness === undefined) {
       throw new CalcInputError(INPUT_RULES.intercoolerEffectiveness.label, undefined, `${need}; use 0 without an intercooler`, {
@@ -135,7 +132,11 @@ export function compressorOperatingPoints(input: OperatingPointsInput): Compress
       compressorOutletTempK = compressorOutletTemperatureK(ambientK, pressures.pressureRatio, efficiency);
       manifoldTempK = intercoolerOutletTemperatureK(compressorOutletTempK, ambientK, effectiveness);
       // a worked-out temperature beyond the range means the inputs together are impossible
-      requireQuantity(relabel(INPUT_RULES.manifoldTemperature, "Worked-out manifold air temperature"), manifoldTempK, "compressorEfficiency");
+      requireQuantity(
+        relabel(INPUT_RULES.manifoldTemperature, "Worked-out manifold air temperature"),
+        manifoldTempK,
+        "compressorEfficiency",
+      );
     }
     const airMassFlowKgS = engineAirMassFlowKgS({
       displacementCc: input.displacementCc,

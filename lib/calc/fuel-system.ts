@@ -12,11 +12,10 @@ export const G_PER_KWH_PER_LB_PER_HP_H = (KG_PER_POUND * 1000) / KW_PER_HP;
 
 /** BSFC in g/kWh from the trade's lb/(hp·h). */
 export function bsfcGPerKwhFromLbPerHpH(lbPerHpH: number): number {
-  return requireQuantity(
-    { label: "Brake specific fuel consumption (BSFC)", unit: "lb/hp·h", min: 0.2, max: 1.7 },
-    lbPerHpH,
-    "lbPerHpH",
-  ) * G_PER_KWH_PER_LB_PER_HP_H;
+  return (
+    requireQuantity({ label: "Brake specific fuel consumption (BSFC)", unit: "lb/hp·h", min: 0.2, max: 1.7 }, lbPerHpH, "lbPerHpH") *
+    G_PER_KWH_PER_LB_PER_HP_H
+  );
 }
 
 /** BSFC figures to start from when the engine's own are not known. Common practice, not measurements. */
@@ -86,7 +85,7 @@ export function injectorFlowForAirflowCcMin(input: InjectorFromAirflowInput): nu
   const duty = requireQuantity(INPUT_RULES.maxDuty, input.maxDuty, "maxDuty");
   const rho = requireQuantity(INPUT_RULES.fuelDensity, input.fuelDensityKgPerL, "fuelDensityKgPerL");
   const fuelKgS = air / (lambda * afr);
-  return (fuelKgS / rho) * 60000 / (n * duty);
+  return ((fuelKgS / rho) * 60000) / (n * duty);
 }
 
 /**

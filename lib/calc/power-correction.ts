@@ -147,9 +147,7 @@ function readConditions(conditions: AtmosphericConditions): { pressureKpa: numbe
     throw new CalcInputError("conditions.temperatureC", t, "must be above absolute zero (−273.15 °C)");
   }
   const vapor =
-    conditions.vaporPressureKpa === undefined
-      ? 0
-      : requireNonNegative("conditions.vaporPressureKpa", conditions.vaporPressureKpa);
+    conditions.vaporPressureKpa === undefined ? 0 : requireNonNegative("conditions.vaporPressureKpa", conditions.vaporPressureKpa);
   if (!(vapor < pressureKpa)) {
     throw new CalcInputError("conditions.vaporPressureKpa", vapor, `must be below the barometric pressure (${pressureKpa} kPa)`);
   }
@@ -183,7 +181,8 @@ const J1349_VALIDITY: CorrectionValidity = {
   pressureKind: "dry-air",
   factor: null,
   humidity: "Through dry-air pressure: the water-vapour pressure is taken off the barometric pressure.",
-  basis: "From memory: SAE J1349 gives 15–35 °C intake air and 90–105 kPa dry-air pressure for the correction; the SAE text was not to hand.",
+  basis:
+    "From memory: SAE J1349 gives 15–35 °C intake air and 90–105 kPa dry-air pressure for the correction; the SAE text was not to hand.",
 };
 
 /**

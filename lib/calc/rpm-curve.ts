@@ -45,7 +45,11 @@ export function readRpmCurve(curve: RpmCurveInput, rule: QuantityRule, field: st
         field: at,
       });
     }
-    const rpm = requireQuantity(relabel(INPUT_RULES.engineSpeed, `Engine speed of ${rule.label.toLowerCase()} point ${i + 1}`), p.rpm, `${at}.rpm`);
+    const rpm = requireQuantity(
+      relabel(INPUT_RULES.engineSpeed, `Engine speed of ${rule.label.toLowerCase()} point ${i + 1}`),
+      p.rpm,
+      `${at}.rpm`,
+    );
     const value = requireQuantity(relabel(rule, `${rule.label} at ${withUnit(rpm, "rpm")}`), p.value, `${at}.value`);
     return { rpm, value };
   });
@@ -63,8 +67,7 @@ export function readRpmCurve(curve: RpmCurveInput, rule: QuantityRule, field: st
   return (rpm: number) => {
     const y = interpolateLinear(xs, ys, rpm);
     if (y === null) {
-      const span =
-        xs.length === 1 ? `only ${withUnit(xs[0], "rpm")}` : `${formatNumber(xs[0])} to ${withUnit(xs[xs.length - 1], "rpm")}`;
+      const span = xs.length === 1 ? `only ${withUnit(xs[0], "rpm")}` : `${formatNumber(xs[0])} to ${withUnit(xs[xs.length - 1], "rpm")}`;
       throw new CalcInputError("Engine speed", rpm, `must lie within the ${rule.label.toLowerCase()} curve (${span}); add a point there`, {
         shown: `${withUnit(rpm, "rpm")}.`,
         field,

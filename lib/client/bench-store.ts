@@ -12,7 +12,16 @@ import { createClock, receive, tick, type HlcState } from "@/lib/sync/hlc";
 import { compareCursors, isAtLeast, laterCursor } from "@/lib/sync/cursor";
 import { operationSchema, type Operation, type OperationKind, type PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
 import type { BenchJobSummary, JobSnapshot } from "@/lib/sync/snapshot";
-import { EMPTY_SYNC_META, META, readMeta, type BenchDb, type OutboxEntry, type StoredPhoto, type SyncMeta, type WantedCopy } from "./bench-db";
+import {
+  EMPTY_SYNC_META,
+  META,
+  readMeta,
+  type BenchDb,
+  type OutboxEntry,
+  type StoredPhoto,
+  type SyncMeta,
+  type WantedCopy,
+} from "./bench-db";
 
 type PayloadOf<K extends OperationKind> = Extract<Operation, { kind: K }>["payload"];
 
@@ -29,7 +38,15 @@ export interface Author {
  */
 
 /** The scope of one transaction on meta and outbox (and photos, with `photo`): stamps, validates and appends. */
-function appendOperation<K extends OperationKind>(db: BenchDb, author: Author, workOrderId: string, kind: K, payload: PayloadOf<K>, now: number, photo?: StoredPhoto): Promise<Operation> {
+function appendOperation<K extends OperationKind>(
+  db: BenchDb,
+  author: Author,
+  workOrderId: string,
+  kind: K,
+  payload: PayloadOf<K>,
+  now: number,
+  photo?: StoredPhoto,
+): Promise<Operation> {
   return readMeta(db, META.clock, createClock(author.deviceId)).then((clock: HlcState) => {
     const base = clock.deviceId === author.deviceId ? clock : createClock(author.deviceId);
     const { state, stamp } = tick(base, now);
@@ -74,9 +91,27 @@ export interface NewPhoto {
 /** Keeps a photo's bytes on the tablet and records its `photo.queued` operation, in one transaction. */
 export async function recordPhoto(db: BenchDb, author: Author, workOrderId: string, photo: NewPhoto, now = Date.now()): Promise<Operation> {
   const id = crypto.randomUUID();
-  const row: StoredPhoto = { id, workOrderId, stepId: photo.stepId, blob: photo.blob, contentType: photo.contentType, byteSize: photo.blob.size, caption: photo.caption ?? "", uploaded: 0, createdAt: now };
-  const payload = { attachmentId: id, stepId: photo.stepId, contentType: photo.contentType, byteSize: photo.blob.size, ...(photo.caption ? { caption: photo.caption } : {}) };
-  return db.transaction("rw", [db.meta, db.outbox, db.photos], () => appendOperation(db, author, workOrderId, "photo.queued", payload, now, row));
+  const row: StoredPhoto = {
+    id,
+    workOrderId,
+    stepId: photo.stepId,
+    blob: photo.blob,
+    contentType: photo.contentType,
+    byteSize: photo.blob.size,
+    caption: photo.caption ?? "",
+    uploaded: 0,
+    createdAt: now,
+  };
+  const payload = {
+    attachmentId: id,
+    stepId: photo.stepId,
+    contentType: photo.contentType,
+    byteSize: photo.blob.size,
+    ...(photo.caption ? { caption: photo.caption } : {}),
+  };
+  return db.transaction("rw", [db.meta, db.outbox, db.photos], () =>
+    appendOperation(db, author, workOrderId, "photo.queued", payload, now, row),
+  );
 }
 
 /**
@@ -116,7 +151,11 @@ export async function storeJobCopy(db: BenchDb, snapshot: JobSnapshot, now = Dat
 export async function forgetJobCopy(db: BenchDb, jobId: string): Promise<void> {
   await db.transaction("rw", [db.jobs, db.outbox, db.wanted], async () => {
     await db.jobs.delete(jobId);
-    await db.outbox.where("workOrderId").equals(jobId).filter((e) => e.state === "sent").delete();
+    await db.outbox
+      .where("workOrderId")
+      .equals(jobId)
+      .filter((e) => e.state === "sent")
+      .delete();
     await db.wanted.delete(jobId);
   });
 }
@@ -152,12 +191,19 @@ export async function keepSyncAnswer(db: BenchDb, answer: SyncAnswer, now = Date
     const touched = new Set(answer.touchedJobs);
     const sent: OutboxEntry[] = [];
     for (const entry of await db.outbox.bulkGet([...answer.stored])) if (entry) sent.push(entry);
-    await db.outbox.bulkPut(sent.map((e) => ({ ...e, state: "sent" as const, sentCursor: laterCursor(e.sentCursor, answer.cursor), reason: undefined })));
+    await db.outbox.bulkPut(
+      sent.map((e) => ({ ...e, state: "sent" as const, sentCursor: laterCursor(e.sentCursor, answer.cursor), reason: undefined })),
+    );
     for (const e of sent) touched.add(e.workOrderId);
     for (const r of answer.refused) await db.outbox.update(r.id, { state: "refused", reason: r.reason });
 
     const sentFor = new Set(sent.map((e) => e.workOrderId));
-    const held = new Set(await db.jobs.where("id").anyOf([...touched]).primaryKeys());
+    const held = new Set(
+      await db.jobs
+        .where("id")
+        .anyOf([...touched])
+        .primaryKeys(),
+    );
     for (const jobId of touched) {
       if (!held.has(jobId) && !sentFor.has(jobId)) continue; // a job this tablet never opened
       const wanted = await db.wanted.get(jobId);

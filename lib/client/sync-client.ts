@@ -18,7 +18,17 @@ import { splitIntoBatches } from "@/lib/sync/batching";
 import { tabletSyncResponseSchema } from "@/lib/sync/changes";
 import { benchJobListSchema, jobSnapshotSchema, type JobSnapshot } from "@/lib/sync/snapshot";
 import { readSyncMeta, type BenchDb } from "./bench-db";
-import { forgetJobCopy, keepSyncAnswer, markMissedCopies, markPhotoUploaded, noteSync, olderCopies, replaceJobList, storeJobCopy, waitingOperations } from "./bench-store";
+import {
+  forgetJobCopy,
+  keepSyncAnswer,
+  markMissedCopies,
+  markPhotoUploaded,
+  noteSync,
+  olderCopies,
+  replaceJobList,
+  storeJobCopy,
+  waitingOperations,
+} from "./bench-store";
 
 export class SyncHttpError extends Error {
   constructor(
@@ -166,7 +176,11 @@ async function uploadPhotos(db: BenchDb, fetchFn: typeof fetch): Promise<number>
   let sent = 0;
   for (const photo of pending) {
     if (notOnServer.has(photo.id)) continue;
-    const res = await fetchFn(`/api/bench/photos/${photo.id}`, { method: "POST", headers: { "content-type": photo.contentType }, body: photo.blob });
+    const res = await fetchFn(`/api/bench/photos/${photo.id}`, {
+      method: "POST",
+      headers: { "content-type": photo.contentType },
+      body: photo.blob,
+    });
     if (res.ok) {
       await markPhotoUploaded(db, photo.id);
       sent++;

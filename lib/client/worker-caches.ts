@@ -15,7 +15,16 @@ export const USER_DATA_CACHES = ["bench-pages"] as const;
  * Caches earlier worker versions kept with the library's default runtime caching (API answers,
  * visited pages and page data): deleted when this worker takes over and again at sign-out.
  */
-export const RETIRED_CACHES = ["apis", "pages", "pages-rsc", "pages-rsc-prefetch", "others", "next-data", "static-data-assets", "cross-origin"] as const;
+export const RETIRED_CACHES = [
+  "apis",
+  "pages",
+  "pages-rsc",
+  "pages-rsc-prefetch",
+  "others",
+  "next-data",
+  "static-data-assets",
+  "cross-origin",
+] as const;
 
 export const SIGNED_OUT_MESSAGE = "SIGNED_OUT";
 

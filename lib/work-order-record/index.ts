@@ -38,7 +38,8 @@ export function buildWorkOrderView(snapshot: Snapshot, pending: readonly Operati
         const torque = step.torqueSpecs.map((spec) => torqueProgress(spec, bolts));
         for (const t of torque) if (!t.complete) missing.push(`${t.spec.label}: torque sequence not finished`);
         const stepTimers = timers.filter((t) => t.stepId === step.id);
-        for (const spec of step.timerSpecs) if (!stepTimers.some((t) => t.timerSpecId === spec.id)) missing.push(`Start the timer: ${spec.label}`);
+        for (const spec of step.timerSpecs)
+          if (!stepTimers.some((t) => t.timerSpecId === spec.id)) missing.push(`Start the timer: ${spec.label}`);
         const photoCount = photos.get(step.id) ?? 0;
         if (step.requiresPhoto && photoCount === 0) missing.push("Take at least one photo");
         stageSteps.push({

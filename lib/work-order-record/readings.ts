@@ -11,7 +11,8 @@ export function readingCount(spec: MeasurementSpecView): number {
 }
 
 function findSpec(snapshot: Snapshot, specId: string): MeasurementSpecView | undefined {
-  for (const p of snapshot.procedures) for (const s of p.stages) for (const st of s.steps) for (const m of st.measurementSpecs) if (m.id === specId) return m;
+  for (const p of snapshot.procedures)
+    for (const s of p.stages) for (const st of s.steps) for (const m of st.measurementSpecs) if (m.id === specId) return m;
   return undefined;
 }
 
@@ -53,7 +54,10 @@ export function stepReadings(step: BenchStep, all: readonly ReadingView[], curre
   const missing: string[] = [];
   let outOfTolerance = 0;
   for (const spec of step.measurementSpecs) {
-    readings.set(spec.id, all.filter((r) => r.specId === spec.id).sort((a, b) => compareStamps(a.stamp, b.stamp)));
+    readings.set(
+      spec.id,
+      all.filter((r) => r.specId === spec.id).sort((a, b) => compareStamps(a.stamp, b.stamp)),
+    );
     const perIndex = new Map<number, ReadingView>();
     for (const r of current) if (r.specId === spec.id) perIndex.set(r.readingIndex, r);
     currentBySpec.set(spec.id, perIndex);

@@ -25,7 +25,13 @@ export function decisionOn(decisions: ReadonlyMap<string, Decision>, jobProcedur
 }
 
 /** The sign-off that stands for a stage: one waiting on this tablet, else the latest on record unless a later send-back undid it. */
-export function standingSignOff(snapshot: Snapshot, jobProcedureId: string, key: string, decision: Decision | null, work: PendingWork): StageView["signedOff"] {
+export function standingSignOff(
+  snapshot: Snapshot,
+  jobProcedureId: string,
+  key: string,
+  decision: Decision | null,
+  work: PendingWork,
+): StageView["signedOff"] {
   const pending = work.ofKind("stage.signed-off").find((o) => o.payload.jobProcedureId === jobProcedureId && o.payload.stageKey === key);
   if (pending) return { at: pending.deviceTime, pending: true };
   const latest = snapshot.state.signOffs

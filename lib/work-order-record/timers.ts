@@ -16,7 +16,20 @@ function timerView(
 ): TimerView {
   const endsAtMs = startedAtMs + durationS * 1000;
   const remainingMs = Math.max(0, endsAtMs - nowMs);
-  return { id, stepId, timerSpecId, label, durationS, startedAtMs, endsAtMs, stoppedAtMs, overrideReason, remainingMs, done: remainingMs === 0 || overrideReason !== null, pending };
+  return {
+    id,
+    stepId,
+    timerSpecId,
+    label,
+    durationS,
+    startedAtMs,
+    endsAtMs,
+    stoppedAtMs,
+    overrideReason,
+    remainingMs,
+    done: remainingMs === 0 || overrideReason !== null,
+    pending,
+  };
 }
 
 /** Every timer of the work order: on record (with any stop or override still waiting here), then waiting ones. */
@@ -24,14 +37,39 @@ export function timerViews(snapshot: Snapshot, work: PendingWork, nowMs: number)
   const stopped = new Map<string, number>();
   for (const o of work.ofKind("timer.stopped")) stopped.set(o.payload.timerId, Date.parse(o.payload.stoppedAt));
   const overridden = new Map<string, string>();
-  for (const o of work.ofKind("timer.overridden")) if (!overridden.has(o.payload.timerId)) overridden.set(o.payload.timerId, o.payload.reason);
+  for (const o of work.ofKind("timer.overridden"))
+    if (!overridden.has(o.payload.timerId)) overridden.set(o.payload.timerId, o.payload.reason);
   return [
     ...snapshot.state.timers.map((t) =>
-      timerView(t.id, t.stepId, t.timerSpecId, t.label, t.durationS, Date.parse(t.startedAt), t.stoppedAt ? Date.parse(t.stoppedAt) : (stopped.get(t.id) ?? null), t.overrideReason ?? overridden.get(t.id) ?? null, false, nowMs),
+      timerView(
+        t.id,
+        t.stepId,
+        t.timerSpecId,
+        t.label,
+        t.durationS,
+        Date.parse(t.startedAt),
+        t.stoppedAt ? Date.parse(t.stoppedAt) : (stopped.get(t.id) ?? null),
+        t.overrideReason ?? overridden.get(t.id) ?? null,
+        false,
+        nowMs,
+      ),
     ),
-    ...work.ofKind("timer.started").map((o) =>
-      timerView(o.payload.timerId, o.payload.stepId, o.payload.timerSpecId ?? null, o.payload.label, o.payload.durationS, Date.parse(o.payload.startedAt), stopped.get(o.payload.timerId) ?? null, overridden.get(o.payload.timerId) ?? null, true, nowMs),
-    ),
+    ...work
+      .ofKind("timer.started")
+      .map((o) =>
+        timerView(
+          o.payload.timerId,
+          o.payload.stepId,
+          o.payload.timerSpecId ?? null,
+          o.payload.label,
+          o.payload.durationS,
+          Date.parse(o.payload.startedAt),
+          stopped.get(o.payload.timerId) ?? null,
+          overridden.get(o.payload.timerId) ?? null,
+          true,
+          nowMs,
+        ),
+      ),
   ];
 }
 

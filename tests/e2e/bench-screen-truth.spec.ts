@@ -31,7 +31,9 @@ for (const viewport of [
   { width: 1024, height: 768 },
   { width: 768, height: 1024 },
 ]) {
-  test(`the torque confirm names bolt, pass and target and sits on screen at ${viewport.width}×${viewport.height}, cautions included`, async ({ browser }) => {
+  test(`the torque confirm names bolt, pass and target and sits on screen at ${viewport.width}×${viewport.height}, cautions included`, async ({
+    browser,
+  }) => {
     const context = await browser.newContext({ viewport });
     const page = await context.newPage();
     await signIn(page, "mechanic");
@@ -102,7 +104,10 @@ async function tapConfirm(page: Page) {
   return before;
 }
 
-test("the network cut between the sync answer and the job reload: the screen never offers a bolt already on the server, and the outbox keeps the work until a fresh copy is stored", async ({ page, context }) => {
+test("the network cut between the sync answer and the job reload: the screen never offers a bolt already on the server, and the outbox keeps the work until a fresh copy is stored", async ({
+  page,
+  context,
+}) => {
   page.on("pageerror", (e) => console.log(`[page error] ${e.message}`));
   const mechanic = await signIn(page, "mechanic");
   await waitForServiceWorker(page);
@@ -177,10 +182,15 @@ test("a double tap records one bolt; taps on the bolt drawing record nothing", a
   await expect(page.getByTestId("waiting-count")).toHaveText("1 waiting to send");
   await waitForSynced(page);
   const after = await headBoltRecords();
-  expect(after).toEqual([...before, { pass_index: shown.pass, bolt: shown.bolt, n: 1 }].sort((a, b) => a.pass_index - b.pass_index || a.bolt - b.bolt));
+  expect(after).toEqual(
+    [...before, { pass_index: shown.pass, bolt: shown.bolt, n: 1 }].sort((a, b) => a.pass_index - b.pass_index || a.bolt - b.bolt),
+  );
 });
 
-test("the bolt fixed when the finger goes down is the one recorded, even when another tablet's work arrives before release", async ({ page, browser }) => {
+test("the bolt fixed when the finger goes down is the one recorded, even when another tablet's work arrives before release", async ({
+  page,
+  browser,
+}) => {
   await signIn(page, "mechanic");
   await waitForSynced(page);
   await openHeadBolts(page);
@@ -209,8 +219,13 @@ test("the bolt fixed when the finger goes down is the one recorded, even when an
       cursor: null,
       operations: [
         {
-          id: randomUUID(), kind: "torque.bolt-confirmed", workOrderId: ids.job, authorId: ids.author, deviceId: "tab-supervisor-e2e",
-          deviceTime: new Date(now).toISOString(), stamp: formatStamp({ wallMs: now, counter: 0, deviceId: "tab-supervisor-e2e" }),
+          id: randomUUID(),
+          kind: "torque.bolt-confirmed",
+          workOrderId: ids.job,
+          authorId: ids.author,
+          deviceId: "tab-supervisor-e2e",
+          deviceTime: new Date(now).toISOString(),
+          stamp: formatStamp({ wallMs: now, counter: 0, deviceId: "tab-supervisor-e2e" }),
           payload: { stepId: ids.step, torqueSpecId: ids.spec, passIndex: shown.pass, bolt: shown.bolt },
         },
       ],
@@ -310,11 +325,15 @@ test("after an offline reload, the sync starts within 2 s of the network returni
   await page.waitForTimeout(2500); // long enough for a tablet that thinks it is online to have tried and failed
   await context.setOffline(false);
   const gap = await page
-    .waitForFunction(() => {
-      const w = window as unknown as { onlineAt: number | null; syncAt: number[] };
-      const after = w.onlineAt === null ? undefined : w.syncAt.find((t) => t >= w.onlineAt!);
-      return after === undefined ? false : after - w.onlineAt!;
-    }, undefined, { timeout: 20_000 })
+    .waitForFunction(
+      () => {
+        const w = window as unknown as { onlineAt: number | null; syncAt: number[] };
+        const after = w.onlineAt === null ? undefined : w.syncAt.find((t) => t >= w.onlineAt!);
+        return after === undefined ? false : after - w.onlineAt!;
+      },
+      undefined,
+      { timeout: 20_000 },
+    )
     .then((h) => h.jsonValue());
   console.log(`sync started ${Math.round(gap as number)} ms after the online event`);
   expect(gap).toBeLessThan(2000);
@@ -331,7 +350,8 @@ test("no /api/ answer is kept in any cache; signing out clears the bench pages a
   const cached = () =>
     page.evaluate(async () => {
       const out: string[] = [];
-      for (const name of await caches.keys()) for (const r of await (await caches.open(name)).keys()) out.push(`${name} ${new URL(r.url).pathname}`);
+      for (const name of await caches.keys())
+        for (const r of await (await caches.open(name)).keys()) out.push(`${name} ${new URL(r.url).pathname}`);
       return out;
     });
   const before = await cached();

@@ -30,11 +30,19 @@ export function Cautions({
   if (!cautions.length) return null;
   if (acknowledged && !open) {
     return (
-      <section aria-label="Cautions" className="flex flex-wrap items-center gap-3 rounded-xl border-4 border-ink bg-signal px-4 py-2 text-ink">
+      <section
+        aria-label="Cautions"
+        className="flex flex-wrap items-center gap-3 rounded-xl border-4 border-ink bg-signal px-4 py-2 text-ink"
+      >
         <p className="flex-1 text-lg font-bold">
           <span aria-hidden="true">⚠ </span>✔ Cautions read: {[...new Set(cautions.map((c) => KIND_LABEL[c.kind]))].join(", ")}
         </p>
-        <button type="button" onClick={() => setOpen(true)} aria-expanded={false} className="min-h-target rounded-xl border-4 border-ink bg-white px-4 text-lg font-bold">
+        <button
+          type="button"
+          onClick={() => setOpen(true)}
+          aria-expanded={false}
+          className="min-h-target rounded-xl border-4 border-ink bg-white px-4 text-lg font-bold"
+        >
           Show the cautions
         </button>
       </section>
@@ -56,12 +64,21 @@ export function Cautions({
       {acknowledged ? (
         <div className="mt-3 flex flex-wrap items-center gap-3">
           <p className="flex-1 text-lg font-bold">✔ Read and understood</p>
-          <button type="button" onClick={() => setOpen(false)} aria-expanded={true} className="min-h-target rounded-xl border-4 border-ink bg-white px-4 text-lg font-bold">
+          <button
+            type="button"
+            onClick={() => setOpen(false)}
+            aria-expanded={true}
+            className="min-h-target rounded-xl border-4 border-ink bg-white px-4 text-lg font-bold"
+          >
             Fold the cautions
           </button>
         </div>
       ) : (
-        <button type="button" onClick={onAcknowledge} className="mt-3 min-h-target w-full rounded-xl border-4 border-ink bg-white text-xl font-bold">
+        <button
+          type="button"
+          onClick={onAcknowledge}
+          className="mt-3 min-h-target w-full rounded-xl border-4 border-ink bg-white text-xl font-bold"
+        >
           I have read these cautions
         </button>
       )}

@@ -15,7 +15,11 @@ export function CopyFreshness({ job }: { job: JobData }) {
   const online = useOnline();
   if (job.olderThanSync === null) return null;
   return (
-    <div role="status" data-testid="copy-older" className="flex flex-wrap items-center gap-4 rounded-xl border-4 border-warn bg-warn-light p-3 text-warn">
+    <div
+      role="status"
+      data-testid="copy-older"
+      className="flex flex-wrap items-center gap-4 rounded-xl border-4 border-warn bg-warn-light p-3 text-warn"
+    >
       <p className="flex-1 text-xl font-bold">
         <span aria-hidden="true">⟳ </span>
         Older copy: this tablet&apos;s copy of job #{job.snapshot.workOrder.number} is older than the last sync.{" "}

@@ -38,6 +38,15 @@ export function useJob(jobId: string): { data: JobData | null; loading: boolean;
     if (olderThanSync !== null) syncNow();
   }, [olderThanSync, syncNow]);
   if (stored === undefined) return { data: null, loading: true, error: null };
-  if (!stored) return { data: null, loading: navigator.onLine && !error, error: error ?? (navigator.onLine ? null : "This job is not on this tablet yet, and there is no network.") };
-  return { data: { snapshot: stored.snapshot, view: buildWorkOrderView(stored.snapshot, pending, now), pending, olderThanSync }, loading: false, error: null };
+  if (!stored)
+    return {
+      data: null,
+      loading: navigator.onLine && !error,
+      error: error ?? (navigator.onLine ? null : "This job is not on this tablet yet, and there is no network."),
+    };
+  return {
+    data: { snapshot: stored.snapshot, view: buildWorkOrderView(stored.snapshot, pending, now), pending, olderThanSync },
+    loading: false,
+    error: null,
+  };
 }

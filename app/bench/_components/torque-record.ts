@@ -30,7 +30,9 @@ export function passTarget(p: TorqueProgress["passes"][number], shopUnit: "N·m"
 /** The bolt a confirm shows now, or null when every pass is done. */
 export function nextBolt(progress: TorqueProgress): BoltTarget | null {
   const { next, spec, sequence } = progress;
-  return next ? { torqueSpecId: spec.id, passIndex: next.passIndex, bolt: next.bolt, endsPass: next.positionInPass === sequence.length - 1 } : null;
+  return next
+    ? { torqueSpecId: spec.id, passIndex: next.passIndex, bolt: next.bolt, endsPass: next.positionInPass === sequence.length - 1 }
+    : null;
 }
 
 /** "Bolt 5 of 10 — pass 2 of 3 — 45 N·m (33.19 lbf·ft)": the bolt, pass and target a confirm records. */

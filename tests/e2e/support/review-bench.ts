@@ -45,7 +45,12 @@ export async function readOpenSpots(page: Page, values: Record<string, string>) 
       await section.getByRole("button", { name: "Save reading" }).click();
       await expect(section.getByRole("status").filter({ hasText: "saved" })).toContainText(`${slotName}: ${value}`);
       // The spot shows its reading before the next count (the status line can come first).
-      await expect(section.getByRole("button").filter({ has: page.getByText(slotName, { exact: true }) }).first()).not.toContainText("not read");
+      await expect(
+        section
+          .getByRole("button")
+          .filter({ has: page.getByText(slotName, { exact: true }) })
+          .first(),
+      ).not.toContainText("not read");
     }
   }
 }

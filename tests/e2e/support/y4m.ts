@@ -39,7 +39,8 @@ export function qrY4m(text: string, options: Y4mOptions = {}): Buffer {
   modules.forEach((row, r) =>
     row.forEach((dark, c) => {
       if (!dark) return;
-      for (let y = 0; y < scale; y++) luma.fill(0, (top + r * scale + y) * width + left + c * scale, (top + r * scale + y) * width + left + (c + 1) * scale);
+      for (let y = 0; y < scale; y++)
+        luma.fill(0, (top + r * scale + y) * width + left + c * scale, (top + r * scale + y) * width + left + (c + 1) * scale);
     }),
   );
   const chroma = Buffer.alloc((width / 2) * (height / 2) * 2, 128);

@@ -44,10 +44,7 @@ describe("stationPressureKpa — standard-atmosphere barometric relation (ISO 25
         (p0, h, dh) => {
           const higher = Math.min(h + dh, 11000);
           const a = stationPressureKpa(p0, h);
-          return (
-            stationPressureKpa(p0, higher) < a &&
-            Math.abs(a / p0 - stationPressureKpa(101.325, h) / 101.325) < 1e-12
-          );
+          return stationPressureKpa(p0, higher) < a && Math.abs(a / p0 - stationPressureKpa(101.325, h) / 101.325) < 1e-12;
         },
       ),
     );

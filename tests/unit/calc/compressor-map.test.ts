@@ -44,23 +44,51 @@ describe("checkCompressorMapOutline", () => {
       "surgeLine",
     );
     expectWorkshopError(
-      () => checkCompressorMapOutline({ ...outline, chokeLine: [{ correctedFlow: 18, pressureRatio: 1.3 }, { correctedFlow: 19, pressureRatio: 1.3 }] }),
+      () =>
+        checkCompressorMapOutline({
+          ...outline,
+          chokeLine: [
+            { correctedFlow: 18, pressureRatio: 1.3 },
+            { correctedFlow: 19, pressureRatio: 1.3 },
+          ],
+        }),
       "Choke line",
       /each pressure ratio once .*; got two points at pressure ratio 1\.3\./,
     );
     expectWorkshopError(
-      () => checkCompressorMapOutline({ ...outline, surgeLine: [{ correctedFlow: 5, pressureRatio: 1.3 }, { correctedFlow: 25, pressureRatio: 2.5 }] }),
+      () =>
+        checkCompressorMapOutline({
+          ...outline,
+          surgeLine: [
+            { correctedFlow: 5, pressureRatio: 1.3 },
+            { correctedFlow: 25, pressureRatio: 2.5 },
+          ],
+        }),
       "Surge line",
       /must lie left of the choke line .* at pressure ratio 2\.5 the choke line is at 20\.75 lb\/min; got 25 lb\/min there\. Check the points\./,
     );
     expectWorkshopError(
-      () => checkCompressorMapOutline({ ...outline, surgeLine: [{ correctedFlow: -5, pressureRatio: 1.3 }, { correctedFlow: 10, pressureRatio: 2 }] }),
+      () =>
+        checkCompressorMapOutline({
+          ...outline,
+          surgeLine: [
+            { correctedFlow: -5, pressureRatio: 1.3 },
+            { correctedFlow: 10, pressureRatio: 2 },
+          ],
+        }),
       "Surge line point 1: corrected air flow",
       /more than 0 and at most 500 lb\/min; got -5 lb\/min\./,
       "surgeLine[0].correctedFlow",
     );
     expectWorkshopError(
-      () => checkCompressorMapOutline({ ...outline, chokeLine: [{ correctedFlow: 18, pressureRatio: 0.9 }, { correctedFlow: 20, pressureRatio: 2 }] }),
+      () =>
+        checkCompressorMapOutline({
+          ...outline,
+          chokeLine: [
+            { correctedFlow: 18, pressureRatio: 0.9 },
+            { correctedFlow: 20, pressureRatio: 2 },
+          ],
+        }),
       "Choke line point 1: pressure ratio",
       /between 1 and 8/,
     );
@@ -125,8 +153,32 @@ describe("checkCompressorPoint — pure geometry against the user's outline", ()
     );
   });
   it("refuses a bad point in workshop words", () => {
-    expectWorkshopError(() => checkCompressorPoint(outline, { correctedFlow: 15, pressureRatio: Number.NaN }), "Pressure ratio", /not a number/, "pressureRatio");
-    expectWorkshopError(() => checkCompressorPoint({ ...outline, flowUnit: "kg/s", surgeLine: [{ correctedFlow: 0.05, pressureRatio: 1.3 }, { correctedFlow: 0.1, pressureRatio: 2.8 }], chokeLine: [{ correctedFlow: 0.2, pressureRatio: 1.3 }, { correctedFlow: 0.25, pressureRatio: 2.8 }] }, { correctedFlow: 15, pressureRatio: 2 }), "Corrected air flow", /at most 4 kg\/s; got 15 kg\/s\./);
+    expectWorkshopError(
+      () => checkCompressorPoint(outline, { correctedFlow: 15, pressureRatio: Number.NaN }),
+      "Pressure ratio",
+      /not a number/,
+      "pressureRatio",
+    );
+    expectWorkshopError(
+      () =>
+        checkCompressorPoint(
+          {
+            ...outline,
+            flowUnit: "kg/s",
+            surgeLine: [
+              { correctedFlow: 0.05, pressureRatio: 1.3 },
+              { correctedFlow: 0.1, pressureRatio: 2.8 },
+            ],
+            chokeLine: [
+              { correctedFlow: 0.2, pressureRatio: 1.3 },
+              { correctedFlow: 0.25, pressureRatio: 2.8 },
+            ],
+          },
+          { correctedFlow: 15, pressureRatio: 2 },
+        ),
+      "Corrected air flow",
+      /at most 4 kg\/s; got 15 kg\/s\./,
+    );
   });
 });
 

@@ -60,7 +60,12 @@ describe("compressorOperatingPoints — the compressor's points across the rev r
     expectWithin(top.correctedFlowLbMin, 19.71, 0.005);
   });
   it("takes a given manifold temperature as it is (no compressor temperature worked out)", () => {
-    const { points } = compressorOperatingPoints({ ...kit, manifoldTempK: 320, compressorEfficiency: undefined, intercoolerEffectiveness: undefined });
+    const { points } = compressorOperatingPoints({
+      ...kit,
+      manifoldTempK: 320,
+      compressorEfficiency: undefined,
+      intercoolerEffectiveness: undefined,
+    });
     for (const p of points) {
       expect(p.manifoldTempK).toBe(320);
       expect(p.compressorOutletTempK).toBeNull();
@@ -93,7 +98,12 @@ describe("compressorOperatingPoints — the compressor's points across the rev r
     );
   });
   it("refuses impossible input in workshop words", () => {
-    expectWorkshopError(() => compressorOperatingPoints({ ...kit, rpm: [] }), "The rev range", /from 1 to 200 engine speeds; got 0 engine speeds\./, "rpm");
+    expectWorkshopError(
+      () => compressorOperatingPoints({ ...kit, rpm: [] }),
+      "The rev range",
+      /from 1 to 200 engine speeds; got 0 engine speeds\./,
+      "rpm",
+    );
     expectWorkshopError(() => compressorOperatingPoints({ ...kit, rpm: [4000, -1] }), "Engine speed", /got -1 rpm/, "rpm[1]");
     expectWorkshopError(
       () => compressorOperatingPoints({ ...kit, rpm: [12000] }),
@@ -102,12 +112,26 @@ describe("compressorOperatingPoints — the compressor's points across the rev r
       "volumetricEfficiency",
     );
     expectWorkshopError(
-      () => compressorOperatingPoints({ ...kit, volumetricEfficiency: [{ rpm: 4000, value: 0.8 }, { rpm: 4000, value: 0.9 }] }),
+      () =>
+        compressorOperatingPoints({
+          ...kit,
+          volumetricEfficiency: [
+            { rpm: 4000, value: 0.8 },
+            { rpm: 4000, value: 0.9 },
+          ],
+        }),
       "Volumetric efficiency curve",
       /must give each engine speed once; got 4000 rpm twice\./,
     );
     expectWorkshopError(
-      () => compressorOperatingPoints({ ...kit, volumetricEfficiency: [{ rpm: 4000, value: 80 }, { rpm: 11000, value: 0.9 }] }),
+      () =>
+        compressorOperatingPoints({
+          ...kit,
+          volumetricEfficiency: [
+            { rpm: 4000, value: 80 },
+            { rpm: 11000, value: 0.9 },
+          ],
+        }),
       "Volumetric efficiency at 4000 rpm",
       /0\.9 means 90 %\); got 80\./,
       "volumetricEfficiency[0].value",
@@ -123,6 +147,10 @@ describe("compressorOperatingPoints — the compressor's points across the rev r
       /use 0 without an intercooler/,
     );
     expectWorkshopError(() => compressorOperatingPoints({ ...kit, compressorEfficiency: 72 }), "Compressor efficiency", /0\.72 means 72 %/);
-    expectWorkshopError(() => compressorOperatingPoints({ ...kit, ambientTempK: 25 }), "Ambient air temperature", /got 25 K \(-248\.15 °C\)/);
+    expectWorkshopError(
+      () => compressorOperatingPoints({ ...kit, ambientTempK: 25 }),
+      "Ambient air temperature",
+      /got 25 K \(-248\.15 °C\)/,
+    );
   });
 });

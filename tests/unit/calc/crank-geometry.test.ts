@@ -32,7 +32,11 @@ describe("pistonPositionFromTdcMm — Heywood eq. 2.5 slider-crank", () => {
     expectWithin(pistonPositionFromTdcMm({ strokeMm: 55, rodLengthMm: 110, crankAngleDeg: 0 }), 0, 1e-12);
     expectWithin(pistonPositionFromTdcMm({ strokeMm: 55, rodLengthMm: 110, crankAngleDeg: 180 }), 55, 1e-12);
     // by the triangle at 90°: pin height √(l² − a²), so distance = l + a − √(l² − a²)
-    expectWithin(pistonPositionFromTdcMm({ strokeMm: 55, rodLengthMm: 110, crankAngleDeg: 90 }), 110 + 27.5 - Math.sqrt(110 ** 2 - 27.5 ** 2), 1e-12);
+    expectWithin(
+      pistonPositionFromTdcMm({ strokeMm: 55, rodLengthMm: 110, crankAngleDeg: 90 }),
+      110 + 27.5 - Math.sqrt(110 ** 2 - 27.5 ** 2),
+      1e-12,
+    );
     expect(pistonPositionFromTdcMm({ strokeMm: 55, rodLengthMm: 110, crankAngleDeg: 90 })).toBeGreaterThan(27.5);
   });
   it("matches the crank-pin and rod triangle drawn with coordinates (property)", () => {
@@ -61,12 +65,24 @@ describe("dynamicCompressionRatio — (Vc + A·x(180° + IVC)) / Vc", () => {
   });
   it("equals the static ratio when the intake closes at BDC; closing 30° before BDC equals 30° after (slider-crank symmetry)", () => {
     expectRelClose(dynamicCompressionRatio({ ...short, intakeClosesDegAbdc: 0 }), 9.5, 1e-12);
-    expectRelClose(dynamicCompressionRatio({ ...short, intakeClosesDegAbdc: -30 }), dynamicCompressionRatio({ ...short, intakeClosesDegAbdc: 30 }), 1e-12);
+    expectRelClose(
+      dynamicCompressionRatio({ ...short, intakeClosesDegAbdc: -30 }),
+      dynamicCompressionRatio({ ...short, intakeClosesDegAbdc: 30 }),
+      1e-12,
+    );
   });
   it("agrees with the static-CR sheet: a chamber giving 9.5:1 there gives the same DCR here (Heywood ch. 2)", () => {
     // 76 × 55 mm: swept 249.5 cc; a chamber of swept/8.5 with no gasket, deck or dish is 9.5:1
     const swept = (Math.PI / 4) * 7.6 ** 2 * 5.5;
-    const cr = staticCompressionRatio({ boreMm: 76, strokeMm: 55, chamberCc: swept / 8.5, gasketBoreMm: 77, gasketThicknessMm: 0, deckClearanceMm: 0, pistonDishCc: 0 });
+    const cr = staticCompressionRatio({
+      boreMm: 76,
+      strokeMm: 55,
+      chamberCc: swept / 8.5,
+      gasketBoreMm: 77,
+      gasketThicknessMm: 0,
+      deckClearanceMm: 0,
+      pistonDishCc: 0,
+    });
     expectRelClose(cr, 9.5, 1e-12);
     expectRelClose(dynamicCompressionRatio({ ...short, staticCompressionRatio: cr }), dynamicCompressionRatio(short), 1e-12);
   });
@@ -79,7 +95,13 @@ describe("dynamicCompressionRatio — (Vc + A·x(180° + IVC)) / Vc", () => {
         fc.double({ min: 7, max: 15, noNaN: true }),
         fc.double({ min: 1, max: 100, noNaN: true }),
         (bore, stroke, ratio, cr, ivc) => {
-          const input = { boreMm: bore, strokeMm: stroke, rodLengthMm: stroke * ratio, staticCompressionRatio: cr, intakeClosesDegAbdc: ivc };
+          const input = {
+            boreMm: bore,
+            strokeMm: stroke,
+            rodLengthMm: stroke * ratio,
+            staticCompressionRatio: cr,
+            intakeClosesDegAbdc: ivc,
+          };
           const dcr = dynamicCompressionRatio(input);
           return dcr < cr && dcr > 1 && dynamicCompressionRatio({ ...input, intakeClosesDegAbdc: ivc + 5 }) < dcr;
         },
@@ -87,9 +109,22 @@ describe("dynamicCompressionRatio — (Vc + A·x(180° + IVC)) / Vc", () => {
     );
   });
   it("refuses impossible input in workshop words", () => {
-    expectWorkshopError(() => dynamicCompressionRatio({ ...short, rodLengthMm: 40 }), "Rod length (centre to centre)", /must be at least the stroke \(55 mm\); got 40 mm\./, "rodLengthMm");
-    expectWorkshopError(() => dynamicCompressionRatio({ ...short, staticCompressionRatio: 1 }), "Static compression ratio", /between 2 and 25 \(9\.5 means 9\.5:1\); got 1\./);
-    expectWorkshopError(() => dynamicCompressionRatio({ ...short, intakeClosesDegAbdc: 245 }), "Intake valve closing", /between -90 and 150° \(crank degrees after bottom dead centre; .*\); got 245°\./);
+    expectWorkshopError(
+      () => dynamicCompressionRatio({ ...short, rodLengthMm: 40 }),
+      "Rod length (centre to centre)",
+      /must be at least the stroke \(55 mm\); got 40 mm\./,
+      "rodLengthMm",
+    );
+    expectWorkshopError(
+      () => dynamicCompressionRatio({ ...short, staticCompressionRatio: 1 }),
+      "Static compression ratio",
+      /between 2 and 25 \(9\.5 means 9\.5:1\); got 1\./,
+    );
+    expectWorkshopError(
+      () => dynamicCompressionRatio({ ...short, intakeClosesDegAbdc: 245 }),
+      "Intake valve closing",
+      /between -90 and 150° \(crank degrees after bottom dead centre; .*\); got 245°\./,
+    );
     expectWorkshopError(() => dynamicCompressionRatio({ ...short, boreMm: 0.076 }), "Bore", /between 20 and 200 mm; got 0\.076 mm\./);
     expectWorkshopError(() => dynamicCompressionRatio({ ...short, strokeMm: Number.NaN }), "Stroke", /not a number/);
   });
@@ -113,8 +148,16 @@ describe("boostedDynamicCompressionRatio — DCR × (station + boost) / station,
     expect(high).toBeGreaterThan(sea);
   });
   it("refuses impossible input in workshop words", () => {
-    expectWorkshopError(() => boostedDynamicCompressionRatio({ ...short, boostKpa: 1000 }), "Boost (gauge, above the air pressure)", /got 1000 kPa/);
-    expectWorkshopError(() => boostedDynamicCompressionRatio({ ...short, boostKpa: 69, stationPressureKpa: 14.7 }), "Air pressure at the engine (station pressure)", /got 14\.7 kPa/);
+    expectWorkshopError(
+      () => boostedDynamicCompressionRatio({ ...short, boostKpa: 1000 }),
+      "Boost (gauge, above the air pressure)",
+      /got 1000 kPa/,
+    );
+    expectWorkshopError(
+      () => boostedDynamicCompressionRatio({ ...short, boostKpa: 69, stationPressureKpa: 14.7 }),
+      "Air pressure at the engine (station pressure)",
+      /got 14\.7 kPa/,
+    );
   });
 });
 
@@ -126,7 +169,12 @@ describe("meanPistonSpeedMS — Heywood ch. 2: 2·L·N/60", () => {
     expectWithin(meanPistonSpeedMS(3 * 25.4, 6000), (3000 * 0.3048) / 60, 1e-12);
   });
   it("refuses impossible input in workshop words", () => {
-    expectWorkshopError(() => meanPistonSpeedMS(55, -5), "Engine speed", /^Engine speed must be between 1 and 25 000 rpm; got -5 rpm\.$/, "rpm");
+    expectWorkshopError(
+      () => meanPistonSpeedMS(55, -5),
+      "Engine speed",
+      /^Engine speed must be between 1 and 25 000 rpm; got -5 rpm\.$/,
+      "rpm",
+    );
     expectWorkshopError(() => meanPistonSpeedMS(5500, 6000), "Stroke", /between 10 and 250 mm; got 5500 mm\./);
   });
 });
@@ -156,6 +204,10 @@ describe("squishClearanceMm — compressed gasket + piston-to-deck (negative whe
       "Squish clearance",
       /^Squish clearance must be more than 0 mm: the piston would hit the head \(gasket 1 mm, piston to deck -1\.2 mm\); got -0\.2 mm\.$/,
     );
-    expectWorkshopError(() => squishClearanceMm({ compressedGasketMm: -1, deckClearanceMm: 0 }), "Compressed head gasket thickness", /got -1 mm/);
+    expectWorkshopError(
+      () => squishClearanceMm({ compressedGasketMm: -1, deckClearanceMm: 0 }),
+      "Compressed head gasket thickness",
+      /got -1 mm/,
+    );
   });
 });

@@ -48,8 +48,20 @@ describe("engineAirMassFlowKgS — Heywood ch. 2: ṁ = ηv · ρ · Vd · N/2, 
         fc.double({ min: 20, max: 300, noNaN: true }),
         fc.double({ min: 250, max: 400, noNaN: true }),
         (cc, rpm, ve, p, t) => {
-          const base = engineAirMassFlowKgS({ displacementCc: cc, rpm, volumetricEfficiency: ve, manifoldPressureKpa: p, manifoldTempK: t });
-          const doubled = engineAirMassFlowKgS({ displacementCc: cc, rpm: rpm * 2, volumetricEfficiency: ve * 2, manifoldPressureKpa: p * 2, manifoldTempK: t });
+          const base = engineAirMassFlowKgS({
+            displacementCc: cc,
+            rpm,
+            volumetricEfficiency: ve,
+            manifoldPressureKpa: p,
+            manifoldTempK: t,
+          });
+          const doubled = engineAirMassFlowKgS({
+            displacementCc: cc,
+            rpm: rpm * 2,
+            volumetricEfficiency: ve * 2,
+            manifoldPressureKpa: p * 2,
+            manifoldTempK: t,
+          });
           return Math.abs(doubled / base - 8) < 1e-9;
         },
       ),
@@ -57,10 +69,27 @@ describe("engineAirMassFlowKgS — Heywood ch. 2: ṁ = ηv · ρ · Vd · N/2, 
   });
   it("refuses impossible input in workshop words", () => {
     expectWorkshopError(() => engineAirMassFlowKgS({ ...litre, rpm: -5 }), "Engine speed", /got -5 rpm\.$/, "rpm");
-    expectWorkshopError(() => engineAirMassFlowKgS({ ...litre, volumetricEfficiency: 95 }), "Volumetric efficiency", /0\.9 means 90 %/, "volumetricEfficiency");
-    expectWorkshopError(() => engineAirMassFlowKgS({ ...litre, manifoldPressureKpa: 0 }), "Manifold pressure (absolute)", /between 10 and 700 kPa/);
-    expectWorkshopError(() => engineAirMassFlowKgS({ ...litre, manifoldTempK: 47 }), "Manifold air temperature", /got 47 K \(-226\.15 °C\)/);
-    expectWorkshopError(() => engineAirMassFlowKgS({ ...litre, displacementCc: Number.NaN }), "Engine displacement (all cylinders)", /not a number/);
+    expectWorkshopError(
+      () => engineAirMassFlowKgS({ ...litre, volumetricEfficiency: 95 }),
+      "Volumetric efficiency",
+      /0\.9 means 90 %/,
+      "volumetricEfficiency",
+    );
+    expectWorkshopError(
+      () => engineAirMassFlowKgS({ ...litre, manifoldPressureKpa: 0 }),
+      "Manifold pressure (absolute)",
+      /between 10 and 700 kPa/,
+    );
+    expectWorkshopError(
+      () => engineAirMassFlowKgS({ ...litre, manifoldTempK: 47 }),
+      "Manifold air temperature",
+      /got 47 K \(-226\.15 °C\)/,
+    );
+    expectWorkshopError(
+      () => engineAirMassFlowKgS({ ...litre, displacementCc: Number.NaN }),
+      "Engine displacement (all cylinders)",
+      /not a number/,
+    );
   });
 });
 
@@ -103,9 +132,14 @@ describe("correctedAirFlow — ṁ·√(T₁/T_ref)/(p₁/p_ref), default refere
   });
   it("refuses impossible input in workshop words", () => {
     expectWorkshopError(() => correctedAirFlow({ massFlowKgS: 0, inletPressureKpa: 100, inletTempK: 300 }), "Air mass flow", /more than 0/);
-    expectWorkshopError(() => correctedAirFlow({ massFlowKgS: 0.1, inletPressureKpa: 170, inletTempK: 300 }), "Compressor inlet pressure (absolute)", /got 170 kPa/);
     expectWorkshopError(
-      () => correctedAirFlow({ massFlowKgS: 0.1, inletPressureKpa: 100, inletTempK: 300, reference: { pressureKpa: 14.7, temperatureK: 288 } }),
+      () => correctedAirFlow({ massFlowKgS: 0.1, inletPressureKpa: 170, inletTempK: 300 }),
+      "Compressor inlet pressure (absolute)",
+      /got 170 kPa/,
+    );
+    expectWorkshopError(
+      () =>
+        correctedAirFlow({ massFlowKgS: 0.1, inletPressureKpa: 100, inletTempK: 300, reference: { pressureKpa: 14.7, temperatureK: 288 } }),
       "Map reference pressure",
       /between 50 and 110 kPa; got 14\.7 kPa/,
       "reference.pressureKpa",
@@ -121,7 +155,13 @@ describe("compressorPressureRatio — (station + boost + intercooler + piping) /
   });
   it("losses before and after the compressor raise the ratio it must make (calc)", () => {
     const boost = 10 * KPA_PER_PSI;
-    const r = compressorPressureRatio({ boostKpa: boost, stationPressureKpa: 89.875, filterLossKpa: 1.5, intercoolerDropKpa: 6, pipingDropKpa: 2 });
+    const r = compressorPressureRatio({
+      boostKpa: boost,
+      stationPressureKpa: 89.875,
+      filterLossKpa: 1.5,
+      intercoolerDropKpa: 6,
+      pipingDropKpa: 2,
+    });
     expectWithin(r.inletKpa, 88.375, 1e-12);
     expectWithin(r.manifoldKpa, 89.875 + boost, 1e-12);
     expectWithin(r.outletKpa, 89.875 + boost + 8, 1e-12);
@@ -151,11 +191,29 @@ describe("compressorPressureRatio — (station + boost + intercooler + piping) /
     );
   });
   it("refuses impossible input in workshop words", () => {
-    expectWorkshopError(() => compressorPressureRatio({ boostKpa: -10, stationPressureKpa: 100 }), "Boost (gauge, above the air pressure)", /between 0 and 600 kPa; got -10 kPa/);
-    expectWorkshopError(() => compressorPressureRatio({ boostKpa: 69, stationPressureKpa: 1013 }), "Air pressure at the engine (station pressure)", /got 1013 kPa/);
-    expectWorkshopError(() => compressorPressureRatio({ boostKpa: 69, stationPressureKpa: 100, filterLossKpa: -1 }), "Air filter pressure loss");
-    expectWorkshopError(() => compressorPressureRatio({ boostKpa: 69, stationPressureKpa: 100, intercoolerDropKpa: 80 }), "Intercooler pressure drop");
-    expectWorkshopError(() => compressorPressureRatio({ boostKpa: 69, stationPressureKpa: 100, pipingDropKpa: Infinity }), "Charge piping pressure drop", /too large/);
+    expectWorkshopError(
+      () => compressorPressureRatio({ boostKpa: -10, stationPressureKpa: 100 }),
+      "Boost (gauge, above the air pressure)",
+      /between 0 and 600 kPa; got -10 kPa/,
+    );
+    expectWorkshopError(
+      () => compressorPressureRatio({ boostKpa: 69, stationPressureKpa: 1013 }),
+      "Air pressure at the engine (station pressure)",
+      /got 1013 kPa/,
+    );
+    expectWorkshopError(
+      () => compressorPressureRatio({ boostKpa: 69, stationPressureKpa: 100, filterLossKpa: -1 }),
+      "Air filter pressure loss",
+    );
+    expectWorkshopError(
+      () => compressorPressureRatio({ boostKpa: 69, stationPressureKpa: 100, intercoolerDropKpa: 80 }),
+      "Intercooler pressure drop",
+    );
+    expectWorkshopError(
+      () => compressorPressureRatio({ boostKpa: 69, stationPressureKpa: 100, pipingDropKpa: Infinity }),
+      "Charge piping pressure drop",
+      /too large/,
+    );
   });
 });
 

@@ -21,7 +21,11 @@ const KPA_PER_PSI = 6.894757293168; // NIST SP 811 B.8
 
 describe("requiredInjectorFlowCcMin — BSFC method (common practice)", () => {
   it("190 kW, 300 g/kWh, 4 injectors, 80 % duty, petrol 0.74 kg/L → 401.18 cc/min (REFERENCE-CHECKS, calc)", () => {
-    expectWithin(requiredInjectorFlowCcMin({ powerKw: 190, bsfcGPerKwh: 300, injectors: 4, maxDuty: 0.8, fuelDensityKgPerL: 0.74 }), 401.18, 0.005);
+    expectWithin(
+      requiredInjectorFlowCcMin({ powerKw: 190, bsfcGPerKwh: 300, injectors: 4, maxDuty: 0.8, fuelDensityKgPerL: 0.74 }),
+      401.18,
+      0.005,
+    );
   });
   it("agrees with the US form lb/hr = hp · BSFC / (n · duty): 200 hp, 0.60, 4, 0.8 → 37.5 lb/hr (REFERENCE-CHECKS, calc)", () => {
     const lbHr = (200 * 0.6) / (4 * 0.8);
@@ -61,11 +65,27 @@ describe("requiredInjectorFlowCcMin — BSFC method (common practice)", () => {
   });
   it("refuses impossible input in workshop words", () => {
     const ok = { powerKw: 190, bsfcGPerKwh: 380, injectors: 4, maxDuty: 0.8, fuelDensityKgPerL: 0.745 };
-    expectWorkshopError(() => requiredInjectorFlowCcMin({ ...ok, injectors: 0 }), "Number of injectors", /whole number from 1 to 32; got 0\./);
-    expectWorkshopError(() => requiredInjectorFlowCcMin({ ...ok, maxDuty: 80 }), "Highest injector duty cycle", /0\.8 means 80 %\); got 80\./);
-    expectWorkshopError(() => requiredInjectorFlowCcMin({ ...ok, bsfcGPerKwh: 0.62 }), "Brake specific fuel consumption (BSFC)", /between 150 and 1000 g\/kWh; got 0\.62 g\/kWh\./);
+    expectWorkshopError(
+      () => requiredInjectorFlowCcMin({ ...ok, injectors: 0 }),
+      "Number of injectors",
+      /whole number from 1 to 32; got 0\./,
+    );
+    expectWorkshopError(
+      () => requiredInjectorFlowCcMin({ ...ok, maxDuty: 80 }),
+      "Highest injector duty cycle",
+      /0\.8 means 80 %\); got 80\./,
+    );
+    expectWorkshopError(
+      () => requiredInjectorFlowCcMin({ ...ok, bsfcGPerKwh: 0.62 }),
+      "Brake specific fuel consumption (BSFC)",
+      /between 150 and 1000 g\/kWh; got 0\.62 g\/kWh\./,
+    );
     expectWorkshopError(() => requiredInjectorFlowCcMin({ ...ok, fuelDensityKgPerL: 745 }), "Fuel density", /got 745 kg\/L/);
-    expectWorkshopError(() => requiredInjectorFlowCcMin({ ...ok, powerKw: -1 }), "Target power", /more than 0 and at most 3000 kW; got -1 kW\./);
+    expectWorkshopError(
+      () => requiredInjectorFlowCcMin({ ...ok, powerKw: -1 }),
+      "Target power",
+      /more than 0 and at most 3000 kW; got -1 kW\./,
+    );
   });
 });
 
@@ -74,15 +94,35 @@ describe("injectorFlowForAirflowCcMin — fuel = air / (λ · AFR_stoich)", () =
     const fuelKgS = 0.160845 / (0.8 * 14.7);
     const expected = ((fuelKgS / 0.745) * 1000 * 60) / 4 / 0.8;
     expectRelClose(
-      injectorFlowForAirflowCcMin({ airMassFlowKgS: 0.160845, lambda: 0.8, stoichiometricAfr: 14.7, injectors: 4, maxDuty: 0.8, fuelDensityKgPerL: 0.745 }),
+      injectorFlowForAirflowCcMin({
+        airMassFlowKgS: 0.160845,
+        lambda: 0.8,
+        stoichiometricAfr: 14.7,
+        injectors: 4,
+        maxDuty: 0.8,
+        fuelDensityKgPerL: 0.745,
+      }),
       expected,
       1e-12,
     );
   });
   it("E85 needs about 43 % more injector than petrol for the same air and λ (calc from the two fuels' AFR and density)", () => {
-    const air = engineAirMassFlowKgS({ displacementCc: 998, rpm: 11000, volumetricEfficiency: 0.95, manifoldPressureKpa: 170, manifoldTempK: 320 });
+    const air = engineAirMassFlowKgS({
+      displacementCc: 998,
+      rpm: 11000,
+      volumetricEfficiency: 0.95,
+      manifoldPressureKpa: 170,
+      manifoldTempK: 320,
+    });
     const on = (fuel: "petrol" | "E85") =>
-      injectorFlowForAirflowCcMin({ airMassFlowKgS: air, lambda: 0.8, stoichiometricAfr: FUELS[fuel].stoichiometricAfr, injectors: 4, maxDuty: 0.8, fuelDensityKgPerL: FUELS[fuel].densityKgPerL });
+      injectorFlowForAirflowCcMin({
+        airMassFlowKgS: air,
+        lambda: 0.8,
+        stoichiometricAfr: FUELS[fuel].stoichiometricAfr,
+        injectors: 4,
+        maxDuty: 0.8,
+        fuelDensityKgPerL: FUELS[fuel].densityKgPerL,
+      });
     const ratio = on("E85") / on("petrol");
     expectRelClose(ratio, (14.7 * 0.745) / (FUELS.E85.stoichiometricAfr * FUELS.E85.densityKgPerL), 1e-12);
     expectWithin(ratio, 1.43, 0.01);
@@ -159,7 +199,14 @@ describe("fuelPressureUnderBoost — rail = base + ratio·boost, across the inje
 describe("fuelPumpFlowNeeded — L/h at the rail pressure under boost", () => {
   it("190 kW at 300 g/kWh on 0.74 kg/L with 25 % margin → 96.28 L/h at 300 kPa + boost (calc)", () => {
     const boost = 10 * KPA_PER_PSI;
-    const r = fuelPumpFlowNeeded({ powerKw: 190, bsfcGPerKwh: 300, fuelDensityKgPerL: 0.74, basePressureKpa: 300, boostKpa: boost, marginFraction: 0.25 });
+    const r = fuelPumpFlowNeeded({
+      powerKw: 190,
+      bsfcGPerKwh: 300,
+      fuelDensityKgPerL: 0.74,
+      basePressureKpa: 300,
+      boostKpa: boost,
+      marginFraction: 0.25,
+    });
     expectWithin(r.fuelKgH, 57, 1e-12);
     expectWithin(r.flowLh, (57 / 0.74) * 1.25, 1e-12);
     expectWithin(r.flowLh, 96.28, 0.005);
@@ -171,7 +218,15 @@ describe("fuelPumpFlowNeeded — L/h at the rail pressure under boost", () => {
   });
   it("refuses impossible input in workshop words", () => {
     expectWorkshopError(
-      () => fuelPumpFlowNeeded({ powerKw: 100, bsfcGPerKwh: 380, fuelDensityKgPerL: 0.745, basePressureKpa: 300, boostKpa: 0, marginFraction: 25 }),
+      () =>
+        fuelPumpFlowNeeded({
+          powerKw: 100,
+          bsfcGPerKwh: 380,
+          fuelDensityKgPerL: 0.745,
+          basePressureKpa: 300,
+          boostKpa: 0,
+          marginFraction: 25,
+        }),
       "Fuel pump margin",
       /0\.25 means 25 % extra\); got 25\./,
     );

@@ -1,6 +1,17 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { ETHANOL, FUELS, FUEL_IDS, METHANOL, PETROL, afrToLambda, ethanolBlend, fuelProperties, lambdaToAfr, type FuelId } from "@/lib/calc";
+import {
+  ETHANOL,
+  FUELS,
+  FUEL_IDS,
+  METHANOL,
+  PETROL,
+  afrToLambda,
+  ethanolBlend,
+  fuelProperties,
+  lambdaToAfr,
+  type FuelId,
+} from "@/lib/calc";
 import { expectRelClose, expectWithin, expectWorkshopError } from "./helpers";
 
 // Stoichiometric AFR of CxHyOz from its combustion equation (Heywood, ICE Fundamentals, ch. 3):
@@ -54,7 +65,12 @@ describe("fuels — stoichiometric air-fuel ratio and density", () => {
     expect(PETROL.source).toMatch(/from memory/);
   });
   it("refuses an unknown fuel and an impossible blend", () => {
-    expectWorkshopError(() => fuelProperties("diesel" as FuelId), "Fuel", /^Fuel must be one of petrol, E10, E85, methanol; got "diesel"\.$/, "fuel");
+    expectWorkshopError(
+      () => fuelProperties("diesel" as FuelId),
+      "Fuel",
+      /^Fuel must be one of petrol, E10, E85, methanol; got "diesel"\.$/,
+      "fuel",
+    );
     expectWorkshopError(() => fuelProperties(undefined as unknown as FuelId), "Fuel", /got nothing usable\.$/);
     expectWorkshopError(() => ethanolBlend(110), "Ethanol content", /between 0 and 100 % by volume; got 110 % by volume\./);
   });

@@ -10,7 +10,13 @@ describe("intercoolerFromLog — ε = (Tin − Tout)/(Tin − Tamb), Δp = pin �
     expectWithin(intercoolerFromLog({ inletTempK: K(25), outletTempK: K(22), ambientTempK: K(20) }).effectiveness, 0.6, 1e-12);
   });
   it("a logged pull: 112.07 °C in, 46.77 °C out at 25 °C ambient → ε 0.75 (REFERENCE-CHECKS, calc)", () => {
-    const r = intercoolerFromLog({ inletTempK: K(112.07), outletTempK: K(46.77), ambientTempK: K(25), inletPressureKpa: 176, outletPressureKpa: 169 });
+    const r = intercoolerFromLog({
+      inletTempK: K(112.07),
+      outletTempK: K(46.77),
+      ambientTempK: K(25),
+      inletPressureKpa: 176,
+      outletPressureKpa: 169,
+    });
     expectWithin(r.effectiveness, 0.75, 0.0001);
     expectWithin(r.temperatureDropK, 65.3, 1e-9);
     expectWithin(r.pressureDropKpa!, 7, 1e-12);
@@ -26,12 +32,17 @@ describe("intercoolerFromLog — ε = (Tin − Tout)/(Tin − Tamb), Δp = pin �
   });
   it("an outlet between ambient and inlet gives ε between 0 and 1 (property)", () => {
     fc.assert(
-      fc.property(fc.double({ min: -10, max: 45, noNaN: true }), fc.double({ min: 1, max: 150, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true }), (amb, rise, share) => {
-        const tin = K(amb + rise);
-        const tout = K(amb + rise * (1 - share));
-        const e = intercoolerFromLog({ inletTempK: tin, outletTempK: tout, ambientTempK: K(amb) }).effectiveness;
-        return e >= -1e-9 && e <= 1 + 1e-9 && Math.abs(e - share) < 1e-9;
-      }),
+      fc.property(
+        fc.double({ min: -10, max: 45, noNaN: true }),
+        fc.double({ min: 1, max: 150, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (amb, rise, share) => {
+          const tin = K(amb + rise);
+          const tout = K(amb + rise * (1 - share));
+          const e = intercoolerFromLog({ inletTempK: tin, outletTempK: tout, ambientTempK: K(amb) }).effectiveness;
+          return e >= -1e-9 && e <= 1 + 1e-9 && Math.abs(e - share) < 1e-9;
+        },
+      ),
     );
   });
   it("refuses what cannot be rated, in workshop words", () => {
@@ -47,9 +58,14 @@ describe("intercoolerFromLog — ε = (Tin − Tout)/(Tin − Tamb), Δp = pin �
       /give both or neither/,
       "outletPressureKpa",
     );
-    expectWorkshopError(() => intercoolerFromLog({ inletTempK: 90, outletTempK: K(40), ambientTempK: K(20) }), "Intercooler inlet temperature", /got 90 K \(-183\.15 °C\)/);
     expectWorkshopError(
-      () => intercoolerFromLog({ inletTempK: K(90), outletTempK: K(40), ambientTempK: K(20), inletPressureKpa: 70, outletPressureKpa: 1e9 }),
+      () => intercoolerFromLog({ inletTempK: 90, outletTempK: K(40), ambientTempK: K(20) }),
+      "Intercooler inlet temperature",
+      /got 90 K \(-183\.15 °C\)/,
+    );
+    expectWorkshopError(
+      () =>
+        intercoolerFromLog({ inletTempK: K(90), outletTempK: K(40), ambientTempK: K(20), inletPressureKpa: 70, outletPressureKpa: 1e9 }),
       "Pressure after the intercooler (absolute)",
       /got 1 000 000 000 kPa/,
     );

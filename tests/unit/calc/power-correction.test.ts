@@ -73,7 +73,11 @@ describe("SAE J1349, current form (from memory): CF = 1.176·(99/pd)·√((t+273
   });
   it("a station pressure from altitude feeds it: 1 000 m on a 101.325 kPa day, 25 °C → about 1.10 (calc)", () => {
     const p = stationPressureKpa(101.325, 1000);
-    expectWithin(powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: p, temperatureC: 25 }), 1.176 * (99 / p) * Math.sqrt(298.15 / 298) - 0.176, 1e-12);
+    expectWithin(
+      powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: p, temperatureC: 25 }),
+      1.176 * (99 / p) * Math.sqrt(298.15 / 298) - 0.176,
+      1e-12,
+    );
     // entering the sea-level figure instead would understate the correction by about 12 %
     expect(powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: p, temperatureC: 25 })).toBeGreaterThan(
       powerCorrectionFactor("SAE_J1349_CURRENT", { pressureKpa: 101.325, temperatureC: 25 }) + 0.1,

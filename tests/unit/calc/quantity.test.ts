@@ -1,14 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import {
-  CalcInputError,
-  INPUT_RULES,
-  describeRange,
-  formatNumber,
-  isInRange,
-  requireQuantity,
-  type QuantityRule,
-} from "@/lib/calc";
+import { CalcInputError, INPUT_RULES, describeRange, formatNumber, isInRange, requireQuantity, type QuantityRule } from "@/lib/calc";
 import { expectWorkshopError } from "./helpers";
 
 describe("formatNumber — numbers as a person writes them", () => {
@@ -26,10 +18,13 @@ describe("formatNumber — numbers as a person writes them", () => {
   });
   it("reads back as the same number to 10 significant digits (property)", () => {
     fc.assert(
-      fc.property(fc.double({ min: -1e12, max: 1e12, noNaN: true }).filter((x) => Math.abs(x) >= 1e-6 || x === 0), (x) => {
-        const back = Number(formatNumber(x).replace(/ /g, ""));
-        return Math.abs(back - x) <= 1e-9 * Math.max(1, Math.abs(x));
-      }),
+      fc.property(
+        fc.double({ min: -1e12, max: 1e12, noNaN: true }).filter((x) => Math.abs(x) >= 1e-6 || x === 0),
+        (x) => {
+          const back = Number(formatNumber(x).replace(/ /g, ""));
+          return Math.abs(back - x) <= 1e-9 * Math.max(1, Math.abs(x));
+        },
+      ),
     );
   });
 });
@@ -46,7 +41,11 @@ describe("requireQuantity — range checks in workshop words", () => {
     expect(err.value).toBe(-5);
   });
   it("names what was entered when it is not a number, without NaN or Infinity", () => {
-    expectWorkshopError(() => requireQuantity(INPUT_RULES.engineSpeed, Number.NaN), "Engine speed", /got something that is not a number\.$/);
+    expectWorkshopError(
+      () => requireQuantity(INPUT_RULES.engineSpeed, Number.NaN),
+      "Engine speed",
+      /got something that is not a number\.$/,
+    );
     expectWorkshopError(() => requireQuantity(INPUT_RULES.engineSpeed, Infinity), "Engine speed", /got a number too large to use\.$/);
     expectWorkshopError(() => requireQuantity(INPUT_RULES.engineSpeed, -Infinity), "Engine speed", /too large/);
     expectWorkshopError(() => requireQuantity(INPUT_RULES.engineSpeed, undefined), "Engine speed", /got nothing\.$/);

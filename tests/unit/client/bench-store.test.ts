@@ -3,7 +3,16 @@ import "fake-indexeddb/auto";
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { type BenchDb } from "@/lib/client/bench-db";
-import { keepSyncAnswer, markMissedCopies, missedCopyCursor, olderCopies, recordPhoto, storeJobCopy, waitingOperations, workOnTop } from "@/lib/client/bench-store";
+import {
+  keepSyncAnswer,
+  markMissedCopies,
+  missedCopyCursor,
+  olderCopies,
+  recordPhoto,
+  storeJobCopy,
+  waitingOperations,
+  workOnTop,
+} from "@/lib/client/bench-store";
 import { author, bolt, freshDb } from "../support/tablet-db";
 import { ids, jobSnapshot } from "../support/job-snapshot";
 
@@ -27,7 +36,10 @@ describe("a job copy is never replaced by an older one", () => {
   });
 
   it("two overlapping stores (two sync runs, or a sync and a job opening) end with the newer copy", async () => {
-    for (const order of [["15", "11"], ["11", "15"]]) {
+    for (const order of [
+      ["15", "11"],
+      ["11", "15"],
+    ]) {
       const db = freshDb();
       await storeJobCopy(db, jobSnapshot({}, "10"));
       await Promise.all(order.map((c) => storeJobCopy(db, jobSnapshot({}, c))));
@@ -44,7 +56,14 @@ describe("sent work leaves the outbox only with a copy at least as new as the an
     const b = await bolt(db, 1, 2);
     expect((await waitingOperations(db)).map((o) => o.id)).toEqual([a.id, b.id]);
 
-    await keepSyncAnswer(db, { deviceId: "tab-1", stored: [a.id, b.id], refused: [], touchedJobs: [ids.job], cursor: "14", remoteStamps: [] });
+    await keepSyncAnswer(db, {
+      deviceId: "tab-1",
+      stored: [a.id, b.id],
+      refused: [],
+      touchedJobs: [ids.job],
+      cursor: "14",
+      remoteStamps: [],
+    });
     expect(await waitingOperations(db)).toEqual([]); // nothing left to send…
     expect((await workOnTop(db, ids.job)).map((o) => o.id)).toEqual([a.id, b.id]); // …but still on screen
     expect(await toRefresh(db)).toEqual([ids.job]);
@@ -68,11 +87,21 @@ describe("sent work leaves the outbox only with a copy at least as new as the an
     const a = await bolt(db, 1, 1);
     const refused = await bolt(db, 1, 2);
     const later = await bolt(db, 2, 1);
-    await keepSyncAnswer(db, { deviceId: "tab-1", stored: [a.id], refused: [{ id: refused.id, reason: "Bolt 2 is not on this torque spec" }], touchedJobs: [], cursor: "11", remoteStamps: [] });
+    await keepSyncAnswer(db, {
+      deviceId: "tab-1",
+      stored: [a.id],
+      refused: [{ id: refused.id, reason: "Bolt 2 is not on this torque spec" }],
+      touchedJobs: [],
+      cursor: "11",
+      remoteStamps: [],
+    });
     await storeJobCopy(db, jobSnapshot({}, "11"));
     const rows = await db.outbox.toArray();
     expect(rows.map((r) => [r.id, r.state, r.reason ?? null]).sort()).toEqual(
-      [[refused.id, "refused", "Bolt 2 is not on this torque spec"], [later.id, "waiting", null]].sort(),
+      [
+        [refused.id, "refused", "Bolt 2 is not on this torque spec"],
+        [later.id, "waiting", null],
+      ].sort(),
     );
   });
 
@@ -80,7 +109,14 @@ describe("sent work leaves the outbox only with a copy at least as new as the an
     const db = freshDb();
     await storeJobCopy(db, jobSnapshot({}, "10"));
     const stranger = randomUUID();
-    await keepSyncAnswer(db, { deviceId: "tab-1", stored: [], refused: [], touchedJobs: [ids.job, stranger], cursor: "20", remoteStamps: [] });
+    await keepSyncAnswer(db, {
+      deviceId: "tab-1",
+      stored: [],
+      refused: [],
+      touchedJobs: [ids.job, stranger],
+      cursor: "20",
+      remoteStamps: [],
+    });
     expect(await toRefresh(db)).toEqual([ids.job]);
     expect((await db.meta.get("sync"))?.value).toMatchObject({ cursor: "20" });
   });

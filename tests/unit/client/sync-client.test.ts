@@ -15,7 +15,6 @@ import { ids, jobSnapshot, torqueRecord } from "../support/job-snapshot";
 // The sync run (lib/client/sync-client.ts) against a stand-in server: what the tablet keeps when
 // the network goes between the sync answer and the job reload, and that runs never overlap.
 
-
 interface FakeServer {
   fetch: typeof fetch;
   syncRequests: Array<{ cursor: string | null; operations: Operation[] }>;
@@ -40,7 +39,15 @@ function fakeServer(cursorAfter: () => string, jobCopy: FakeServer["jobCopy"]): 
         server.syncRequests.push(body);
         await new Promise((r) => setTimeout(r, 20));
         inSync--;
-        return Response.json({ accepted: body.operations.map((o) => o.id), duplicates: [], refused: [], flagged: [], changes: [], cursor: cursorAfter(), more: false });
+        return Response.json({
+          accepted: body.operations.map((o) => o.id),
+          duplicates: [],
+          refused: [],
+          flagged: [],
+          changes: [],
+          cursor: cursorAfter(),
+          more: false,
+        });
       }
       if (url === "/api/bench/jobs") return Response.json({ jobs: [] });
       if (url === `/api/bench/jobs/${ids.job}`) {
@@ -65,7 +72,10 @@ describe("the network cut between the sync answer and the job reload", () => {
     await storeJobCopy(db, jobSnapshot({}, "10"));
     const a = await bolt(db, 1, 1);
     const b = await bolt(db, 1, 2);
-    const server = fakeServer(() => "12", () => "network down");
+    const server = fakeServer(
+      () => "12",
+      () => "network down",
+    );
 
     await expect(syncOnce(db, "tab-1", server.fetch)).rejects.toThrow("Failed to fetch");
     expect(server.syncRequests[0].operations.map((o) => o.id)).toEqual([a.id, b.id]);
@@ -91,10 +101,13 @@ describe("the network cut between the sync answer and the job reload", () => {
     const other = randomUUID();
     // The reload is answered with a copy at cursor 11, but while it was on its way a newer copy
     // (13: another tablet's bolt too) reached the tablet by another path (the job being opened).
-    const server = fakeServer(() => "11", async () => {
-      await storeJobCopy(db, jobSnapshot({ torqueRecords: [torqueRecord(a.id, 1, 1), torqueRecord(other, 1, 2)] }, "13"));
-      return jobSnapshot({ torqueRecords: [torqueRecord(a.id, 1, 1)] }, "11");
-    });
+    const server = fakeServer(
+      () => "11",
+      async () => {
+        await storeJobCopy(db, jobSnapshot({ torqueRecords: [torqueRecord(a.id, 1, 1), torqueRecord(other, 1, 2)] }, "13"));
+        return jobSnapshot({ torqueRecords: [torqueRecord(a.id, 1, 1)] }, "11");
+      },
+    );
     await syncOnce(db, "tab-1", server.fetch);
     expect((await db.jobs.get(ids.job))!.snapshot.cursor).toBe("13");
     expect(await db.outbox.count()).toBe(0);
@@ -107,7 +120,10 @@ describe("one sync run at a time", () => {
     const db = freshDb();
     await storeJobCopy(db, jobSnapshot({}, "10"));
     let cursor = 10;
-    const server = fakeServer(() => String(++cursor), () => jobSnapshot({}, String(cursor)));
+    const server = fakeServer(
+      () => String(++cursor),
+      () => jobSnapshot({}, String(cursor)),
+    );
     const runner = singleFlight(() => syncOnce(db, "tab-1", server.fetch));
     await bolt(db, 1, 1);
     const first = runner.run(); // a save

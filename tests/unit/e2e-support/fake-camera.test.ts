@@ -19,7 +19,8 @@ describe("fake camera Y4M", () => {
 
   it("holds whole frames, each marked FRAME", () => {
     expect(file.length).toBe(headerEnd + frames * frameBytes);
-    for (let f = 0; f < frames; f++) expect(file.subarray(headerEnd + f * frameBytes, headerEnd + f * frameBytes + 6).toString("ascii")).toBe("FRAME\n");
+    for (let f = 0; f < frames; f++)
+      expect(file.subarray(headerEnd + f * frameBytes, headerEnd + f * frameBytes + 6).toString("ascii")).toBe("FRAME\n");
   });
 
   it("draws every module of the code black on white in the Y plane, with neutral colour planes", () => {

@@ -18,8 +18,15 @@ describe("send-back and redo", () => {
   it("a step the supervisor sent back is open again with the reason, and the stage needs a new sign-off", () => {
     const view = buildWorkOrderView(sentBack, [], NOW);
     const bore = stepOf(view, ids.stepBore);
-    expect(bore).toMatchObject({ done: false, donePending: false, reopened: { reason: "Bore reading looks off: measure again", decidedAt: at(12) } });
-    expect(stageOf(view, "measure")).toMatchObject({ signedOff: null, decision: { decision: "sent_back", reason: "Bore reading looks off: measure again" } });
+    expect(bore).toMatchObject({
+      done: false,
+      donePending: false,
+      reopened: { reason: "Bore reading looks off: measure again", decidedAt: at(12) },
+    });
+    expect(stageOf(view, "measure")).toMatchObject({
+      signedOff: null,
+      decision: { decision: "sent_back", reason: "Bore reading looks off: measure again" },
+    });
   });
 
   it("a completion after the send-back (on record, or waiting on the tablet) is the redo", () => {
@@ -30,7 +37,10 @@ describe("send-back and redo", () => {
   });
 
   it("a completion from before the send-back does not count as the redo", () => {
-    const early = jobSnapshot({ ...sentBack.state, completions: [completion(u(101), ids.stepBore, "3"), completion(u(105), ids.stepBore, "2")] });
+    const early = jobSnapshot({
+      ...sentBack.state,
+      completions: [completion(u(101), ids.stepBore, "3"), completion(u(105), ids.stepBore, "2")],
+    });
     expect(stepOf(buildWorkOrderView(early, [], NOW), ids.stepBore).done).toBe(false);
   });
 
@@ -42,8 +52,14 @@ describe("send-back and redo", () => {
 
 describe("sign-off standing", () => {
   it("an approved sign-off stands; so does a sign-off made after a send-back", () => {
-    const approved = jobSnapshot({ signOffs: [signOff(u(110), "measure", "4")], reviewDecisions: [decision(u(111), "measure", "approved", "5")] });
-    expect(stageOf(buildWorkOrderView(approved, [], NOW), "measure")).toMatchObject({ signedOff: { at: at(8), pending: false }, canSignOff: false });
+    const approved = jobSnapshot({
+      signOffs: [signOff(u(110), "measure", "4")],
+      reviewDecisions: [decision(u(111), "measure", "approved", "5")],
+    });
+    expect(stageOf(buildWorkOrderView(approved, [], NOW), "measure")).toMatchObject({
+      signedOff: { at: at(8), pending: false },
+      canSignOff: false,
+    });
     const resigned = jobSnapshot({
       completions: [completion(u(112), ids.stepBore, "3"), completion(u(113), ids.stepBore, "6")],
       signOffs: [signOff(u(114), "measure", "4"), signOff(u(115), "measure", "7")],
@@ -56,16 +72,35 @@ describe("sign-off standing", () => {
     const done = jobSnapshot({ completions: [completion(u(120), ids.stepBore, "3")] });
     expect(stageOf(buildWorkOrderView(done, [], NOW), "measure")).toMatchObject({ allDone: true, signedOff: null, canSignOff: true });
     const waiting = tabletOp("stage.signed-off", { jobProcedureId: ids.proc, stageKey: "measure" }, 40);
-    expect(stageOf(buildWorkOrderView(done, [waiting], NOW), "measure")).toMatchObject({ signedOff: { at: at(40), pending: true }, canSignOff: false });
+    expect(stageOf(buildWorkOrderView(done, [waiting], NOW), "measure")).toMatchObject({
+      signedOff: { at: at(40), pending: true },
+      canSignOff: false,
+    });
   });
 });
 
 describe("holds (cure timer)", () => {
-  const started = (min: number) => ({ id: u(130), stepId: ids.stepSealant, timerSpecId: ids.cureSpec, label: "Sealant cure", durationS: 1800, startedAt: at(min), startedBy: ids.mech, stoppedAt: null, overrideBy: null, overrideReason: null });
+  const started = (min: number) => ({
+    id: u(130),
+    stepId: ids.stepSealant,
+    timerSpecId: ids.cureSpec,
+    label: "Sealant cure",
+    durationS: 1800,
+    startedAt: at(min),
+    startedBy: ids.mech,
+    stoppedAt: null,
+    overrideBy: null,
+    overrideReason: null,
+  });
 
   it("holds the guarded step while the timer was never started, with the spec's full time", () => {
     const view = buildWorkOrderView(jobSnapshot(), [], NOW);
-    expect(stepOf(view, ids.stepCase).blockedBy).toMatchObject({ label: "Sealant cure", started: false, timerId: null, remainingMs: 1_800_000 });
+    expect(stepOf(view, ids.stepCase).blockedBy).toMatchObject({
+      label: "Sealant cure",
+      started: false,
+      timerId: null,
+      remainingMs: 1_800_000,
+    });
     expect(stepOf(view, ids.stepSealant).missing).toContain("Start the timer: Sealant cure");
   });
 
@@ -80,7 +115,14 @@ describe("holds (cure timer)", () => {
     expect(stepOf(buildWorkOrderView(jobSnapshot({ timers: [overridden] }), [], NOW), ids.stepCase).blockedBy).toBeNull();
     const waitingOverride = tabletOp("timer.overridden", { timerId: u(130), reason: "Fast-cure sealant" });
     expect(stepOf(buildWorkOrderView(jobSnapshot({ timers: [started(50)] }), [waitingOverride], NOW), ids.stepCase).blockedBy).toBeNull();
-    const startedHere = tabletOp("timer.started", { timerId: u(131), stepId: ids.stepSealant, timerSpecId: ids.cureSpec, label: "Sealant cure", durationS: 1800, startedAt: at(55) });
+    const startedHere = tabletOp("timer.started", {
+      timerId: u(131),
+      stepId: ids.stepSealant,
+      timerSpecId: ids.cureSpec,
+      label: "Sealant cure",
+      durationS: 1800,
+      startedAt: at(55),
+    });
     const view = buildWorkOrderView(jobSnapshot(), [startedHere], NOW);
     expect(stepOf(view, ids.stepCase).blockedBy).toMatchObject({ started: true, timerId: u(131), remainingMs: 25 * 60_000 });
     expect(stepOf(view, ids.stepSealant).timers[0]).toMatchObject({ pending: true, done: false });
@@ -88,7 +130,8 @@ describe("holds (cure timer)", () => {
 });
 
 describe("work on the tablet drawn on top of an older copy", () => {
-  const bolt = (passIndex: number, b: number, id: string) => tabletOp("torque.bolt-confirmed", { stepId: ids.stepBolts, torqueSpecId: ids.rodSpec, passIndex, bolt: b }, 30, id);
+  const bolt = (passIndex: number, b: number, id: string) =>
+    tabletOp("torque.bolt-confirmed", { stepId: ids.stepBolts, torqueSpecId: ids.rodSpec, passIndex, bolt: b }, 30, id);
 
   it("bolts sent but not yet in the stored copy still count: the next bolt offered is the one after them", () => {
     const older = jobSnapshot({ torqueRecords: [torqueRecord(u(140), 1, 1)] }, "10");
@@ -97,14 +140,49 @@ describe("work on the tablet drawn on top of an older copy", () => {
   });
 
   it("an operation the copy already holds is not counted twice", () => {
-    const reading = tabletOp("measurement.recorded", { stepId: ids.stepBore, specId: ids.boreSpec, readingIndex: 0, value: 76.004, unit: "mm" }, 30, u(150));
-    const onRecord = jobSnapshot({
-      readings: [{ id: u(150), stepId: ids.stepBore, specId: ids.boreSpec, readingIndex: 0, value: 76.004, unit: "mm", verdict: "in", note: "", supersedesId: null, current: true, recordedBy: ids.mech, deviceId: "tab-1", deviceTime: at(30), stamp: reading.stamp, flagged: false, flagReason: null }],
-    }, "12");
+    const reading = tabletOp(
+      "measurement.recorded",
+      { stepId: ids.stepBore, specId: ids.boreSpec, readingIndex: 0, value: 76.004, unit: "mm" },
+      30,
+      u(150),
+    );
+    const onRecord = jobSnapshot(
+      {
+        readings: [
+          {
+            id: u(150),
+            stepId: ids.stepBore,
+            specId: ids.boreSpec,
+            readingIndex: 0,
+            value: 76.004,
+            unit: "mm",
+            verdict: "in",
+            note: "",
+            supersedesId: null,
+            current: true,
+            recordedBy: ids.mech,
+            deviceId: "tab-1",
+            deviceTime: at(30),
+            stamp: reading.stamp,
+            flagged: false,
+            flagReason: null,
+          },
+        ],
+      },
+      "12",
+    );
     const view = buildWorkOrderView(onRecord, [reading], NOW);
-    expect(stepOf(view, ids.stepBore).readings.get(ids.boreSpec)!.map((r) => [r.id, r.pending])).toEqual([[u(150), false]]);
+    expect(
+      stepOf(view, ids.stepBore)
+        .readings.get(ids.boreSpec)!
+        .map((r) => [r.id, r.pending]),
+    ).toEqual([[u(150), false]]);
     const photo = tabletOp("photo.queued", { attachmentId: u(151), stepId: ids.stepBore, contentType: "image/png", byteSize: 10 });
-    const withPhoto = jobSnapshot({ photos: [{ id: u(151), stepId: ids.stepBore, contentType: "image/png", byteSize: 10, caption: "", awaitingUpload: true, createdAt: at(30) }] });
+    const withPhoto = jobSnapshot({
+      photos: [
+        { id: u(151), stepId: ids.stepBore, contentType: "image/png", byteSize: 10, caption: "", awaitingUpload: true, createdAt: at(30) },
+      ],
+    });
     expect(stepOf(buildWorkOrderView(withPhoto, [photo], NOW), ids.stepBore).photoCount).toBe(1);
   });
 
