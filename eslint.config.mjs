@@ -10,7 +10,16 @@ import { defineConfig, globalIgnores } from "eslint/config";
 import tseslint from "typescript-eslint";
 
 export default defineConfig(
-  globalIgnores(["node_modules/", ".next/", ".data/", "public/", "test-results/", "playwright-report/", "next-env.d.ts", "tests/e2e/.generated/"]),
+  globalIgnores([
+    "node_modules/",
+    ".next/",
+    ".data/",
+    "public/",
+    "test-results/",
+    "playwright-report/",
+    "next-env.d.ts",
+    "tests/e2e/.generated/",
+  ]),
   js.configs.recommended,
   tseslint.configs.recommended,
   nextPlugin.configs["core-web-vitals"],

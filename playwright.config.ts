@@ -35,7 +35,11 @@ export default defineConfig({
     {
       name: "tablet-chromium",
       testIgnore: /camera\.spec\.ts/,
-      use: { ...devices["Desktop Chrome"], viewport: { width: 1024, height: 768 }, launchOptions: { executablePath: "/usr/bin/chromium", args: chromiumArgs } },
+      use: {
+        ...devices["Desktop Chrome"],
+        viewport: { width: 1024, height: 768 },
+        launchOptions: { executablePath: "/usr/bin/chromium", args: chromiumArgs },
+      },
     },
     {
       // Chromium's fake camera plays a QR tag; only the scan tests run here.
@@ -47,7 +51,12 @@ export default defineConfig({
         permissions: ["camera"],
         launchOptions: {
           executablePath: "/usr/bin/chromium",
-          args: [...chromiumArgs, "--use-fake-ui-for-media-stream", "--use-fake-device-for-media-stream", `--use-file-for-fake-video-capture=${fakeCamera}`],
+          args: [
+            ...chromiumArgs,
+            "--use-fake-ui-for-media-stream",
+            "--use-fake-device-for-media-stream",
+            `--use-file-for-fake-video-capture=${fakeCamera}`,
+          ],
         },
       },
     },

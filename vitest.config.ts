@@ -3,7 +3,10 @@ import path from "node:path";
 
 // "server-only" throws when loaded outside a React server build; tests load server modules on
 // purpose, so it resolves to the package's empty module here (as the react-server condition does).
-const alias = { "@": path.resolve(import.meta.dirname), "server-only": path.resolve(import.meta.dirname, "node_modules/server-only/empty.js") };
+const alias = {
+  "@": path.resolve(import.meta.dirname),
+  "server-only": path.resolve(import.meta.dirname, "node_modules/server-only/empty.js"),
+};
 
 export default defineConfig({
   resolve: { alias },

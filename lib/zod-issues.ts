@@ -227,7 +227,9 @@ function sizeRule(big: boolean, i: SizeIssue): string {
     case "file":
       return big ? `at most ${n} bytes` : `at least ${n} bytes`;
     case "date":
-      return big ? `no later than ${new Date(Number(n)).toISOString().slice(0, 10)}` : `no earlier than ${new Date(Number(n)).toISOString().slice(0, 10)}`;
+      return big
+        ? `no later than ${new Date(Number(n)).toISOString().slice(0, 10)}`
+        : `no earlier than ${new Date(Number(n)).toISOString().slice(0, 10)}`;
     default:
       if (big) return inclusive ? `must be at most ${n}` : `must be less than ${n}`;
       return inclusive ? `must be at least ${n}` : `must be more than ${n}`;

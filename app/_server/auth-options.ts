@@ -33,7 +33,9 @@ export const authOptions: NextAuthOptions = {
         const d = db();
         const [byEmail, byAddress] = await Promise.all(keys.map((k) => recentSignInFailures(d, k)));
         if (byEmail >= SIGN_IN_LIMIT.maxFailuresPerEmail || byAddress >= SIGN_IN_LIMIT.maxFailuresPerAddress) {
-          await appendAudit(d, [{ shopId: null, actorId: null, action: "sign-in", entity: "user", entityId: email, outcome: "refused", reason: "rate limited" }]);
+          await appendAudit(d, [
+            { shopId: null, actorId: null, action: "sign-in", entity: "user", entityId: email, outcome: "refused", reason: "rate limited" },
+          ]);
           throw new Error(`Too many failed sign-ins. Wait ${SIGN_IN_LIMIT.windowMinutes} minutes and try again.`);
         }
         const user = await findUserForSignIn(d, email);
@@ -43,7 +45,9 @@ export const authOptions: NextAuthOptions = {
           throw new Error("That e-mail and password do not match an active account.");
         }
         await recordSignInAttempt(d, keys, true);
-        await appendAudit(d, [{ shopId: user.shop_id, actorId: user.id, action: "sign-in", entity: "user", entityId: user.id, outcome: "accepted" }]);
+        await appendAudit(d, [
+          { shopId: user.shop_id, actorId: user.id, action: "sign-in", entity: "user", entityId: user.id, outcome: "accepted" },
+        ]);
         return { id: user.id, name: user.name, email: user.email, role: user.role };
       },
     }),

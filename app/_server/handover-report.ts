@@ -46,7 +46,10 @@ function theBike(doc: Pdf, d: HandoverReportData) {
     [
       ["Bike", `${j.make} ${j.model}${j.year ? ` (${j.year})` : ""}`],
       ["Tag", j.tagCode],
-      ["Engine", `${j.displacementCc ? `${j.displacementCc} cc` : "—"}${j.engineNumber ? `, engine no. ${j.engineNumber}` : ""}${j.vin ? `, VIN ${j.vin}` : ""}`],
+      [
+        "Engine",
+        `${j.displacementCc ? `${j.displacementCc} cc` : "—"}${j.engineNumber ? `, engine no. ${j.engineNumber}` : ""}${j.vin ? `, VIN ${j.vin}` : ""}`,
+      ],
       ["Owner", j.customerName],
       ["Work order", `#${j.number}: ${j.title}`],
       ["Status", STATUS_LABELS[j.status]],
@@ -131,7 +134,13 @@ function measurements(doc: Pdf, d: HandoverReportData) {
     }),
   );
   const out = d.readings.filter((r) => r.verdict !== "in").length;
-  paragraph(doc, out === 0 ? `All ${d.readings.length} current readings are within spec.` : `${out} of ${d.readings.length} current readings are out of spec (marked above).`, { bold: true });
+  paragraph(
+    doc,
+    out === 0
+      ? `All ${d.readings.length} current readings are within spec.`
+      : `${out} of ${d.readings.length} current readings are out of spec (marked above).`,
+    { bold: true },
+  );
 
   // bore geometry from the six bore-gauge readings of each bore spec
   const bores = [...new Set(d.readings.filter((r) => r.geometry === "bore").map((r) => r.specId))];
@@ -147,7 +156,10 @@ function measurements(doc: Pdf, d: HandoverReportData) {
       middle: { thrust: v("middle", "thrust"), pin: v("middle", "pin") },
       bottom: { thrust: v("bottom", "thrust"), pin: v("bottom", "pin") },
     });
-    paragraph(doc, `${rs[0].label}: taper ${g.taper.max.toFixed(4)} ${rs[0].unit}, out-of-round ${g.outOfRound.max.toFixed(4)} ${rs[0].unit} (largest of the six readings ${g.largest} ${rs[0].unit}).`);
+    paragraph(
+      doc,
+      `${rs[0].label}: taper ${g.taper.max.toFixed(4)} ${rs[0].unit}, out-of-round ${g.outOfRound.max.toFixed(4)} ${rs[0].unit} (largest of the six readings ${g.largest} ${rs[0].unit}).`,
+    );
   }
 }
 
@@ -166,7 +178,8 @@ function torqueApplied(doc: Pdf, d: HandoverReportData) {
     applied.map((t) => {
       const passes = t.passes.map((p) => ("percent" in p ? `${p.percent} %` : `${p.value} ${t.unit}`));
       const angles = t.anglePasses.map((a) => `+${a}°`);
-      const expected = torquePassCount({ finalValue: Number(t.finalValue), unit: t.unit, passes: t.passes, anglePasses: t.anglePasses }) * t.boltCount;
+      const expected =
+        torquePassCount({ finalValue: Number(t.finalValue), unit: t.unit, passes: t.passes, anglePasses: t.anglePasses }) * t.boltCount;
       const value = Number(t.finalValue);
       const other = t.unit === "N·m" ? `${convertTorque(value, "N·m", "lbf·ft").toFixed(1)} lbf·ft` : "";
       return [
@@ -193,7 +206,12 @@ function signOffs(doc: Pdf, d: HandoverReportData) {
     d.signOffs.map((s) => {
       const ds = d.decisions.filter((x) => x.signOffId === s.id);
       const review = ds.length
-        ? ds.map((x) => `${x.decision === "approved" ? "Approved" : "Sent back"} by ${x.decidedBy}, ${day(x.decidedAt as unknown as Date)}${x.reason ? `: ${x.reason}` : ""}`).join("; ")
+        ? ds
+            .map(
+              (x) =>
+                `${x.decision === "approved" ? "Approved" : "Sent back"} by ${x.decidedBy}, ${day(x.decidedAt as unknown as Date)}${x.reason ? `: ${x.reason}` : ""}`,
+            )
+            .join("; ")
         : "waiting for review";
       return [stageTitle(s.stageKey), `${s.signedBy}, ${day(s.signedAt)}`, review];
     }),
@@ -248,8 +266,15 @@ export async function renderHandoverReportPdf(db: Db, shopId: string, workOrderI
   const j = d.job;
   const doc = newPdf(`Build report: ${j.make} ${j.model}, ${j.tagCode}`);
   doc.font(FONT.bold).fontSize(20).text("Build report");
-  doc.font(FONT.body).fontSize(12).text(pdfText(`${j.make} ${j.model} · ${j.tagCode} · work order #${j.number}`));
-  doc.fontSize(10).fillColor("#5b6773").text(pdfText(`${j.shopName} · made ${day(new Date())}`)).fillColor("#111418");
+  doc
+    .font(FONT.body)
+    .fontSize(12)
+    .text(pdfText(`${j.make} ${j.model} · ${j.tagCode} · work order #${j.number}`));
+  doc
+    .fontSize(10)
+    .fillColor("#5b6773")
+    .text(pdfText(`${j.shopName} · made ${day(new Date())}`))
+    .fillColor("#111418");
 
   heading(doc, "The bike");
   theBike(doc, d);
@@ -269,7 +294,13 @@ export async function renderHandoverReportPdf(db: Db, shopId: string, workOrderI
   for (const line of RUN_IN_ADVICE) paragraph(doc, `• ${line}`);
   heading(doc, "Cautions");
   for (const line of CAUTIONS) paragraph(doc, `• ${line}`);
-  const cautions = [...new Set(d.steps.filter((s) => d.completed.some((c) => c.stepId === s.id)).flatMap((s) => (s.cautions as Array<{ text: string }>).map((c) => c.text)))];
+  const cautions = [
+    ...new Set(
+      d.steps
+        .filter((s) => d.completed.some((c) => c.stepId === s.id))
+        .flatMap((s) => (s.cautions as Array<{ text: string }>).map((c) => c.text)),
+    ),
+  ];
   if (cautions.length) {
     doc.moveDown(0.3);
     paragraph(doc, "Cautions from the procedures followed:", { bold: true });

@@ -21,11 +21,27 @@ export async function sendMail(db: Db, m: OutgoingMail): Promise<{ ok: boolean; 
   const transport = nodemailer.createTransport(cfg.SMTP_URL);
   try {
     const info = await transport.sendMail({ from: cfg.MAIL_FROM, to: m.to, subject: m.subject, text: m.text, attachments: m.attachments });
-    await recordEmail(db, { shopId: m.shopId, workOrderId: m.workOrderId, kind: m.kind, recipient: m.to, subject: m.subject, messageId: info.messageId ?? null, error: null });
+    await recordEmail(db, {
+      shopId: m.shopId,
+      workOrderId: m.workOrderId,
+      kind: m.kind,
+      recipient: m.to,
+      subject: m.subject,
+      messageId: info.messageId ?? null,
+      error: null,
+    });
     return { ok: true };
   } catch (e) {
     const error = (e as Error).message.slice(0, 500);
-    await recordEmail(db, { shopId: m.shopId, workOrderId: m.workOrderId, kind: m.kind, recipient: m.to, subject: m.subject, messageId: null, error });
+    await recordEmail(db, {
+      shopId: m.shopId,
+      workOrderId: m.workOrderId,
+      kind: m.kind,
+      recipient: m.to,
+      subject: m.subject,
+      messageId: null,
+      error,
+    });
     return { ok: false, error };
   } finally {
     transport.close();

@@ -25,7 +25,9 @@ export async function handlePaymentWebhook(
     event = verifyPaymentWebhook(rawBody, signature, opts.secret);
   } catch (e) {
     const reason = (e as Error).message.split("\n")[0].slice(0, 200);
-    await appendAudit(db, [{ shopId: null, actorId: null, action: "payment.webhook", entity: "payment_event", outcome: "refused", reason }]);
+    await appendAudit(db, [
+      { shopId: null, actorId: null, action: "payment.webhook", entity: "payment_event", outcome: "refused", reason },
+    ]);
     return { status: 400, body: { error: `Webhook refused: ${reason}` } };
   }
   const obj = event.data?.object as Partial<Stripe.PaymentIntent> | undefined;
@@ -37,7 +39,17 @@ export async function handlePaymentWebhook(
     currency: typeof obj?.currency === "string" ? obj.currency : null,
   });
   if (outcome.kind === "replayed") {
-    await appendAudit(db, [{ shopId: null, actorId: null, action: "payment.webhook", entity: "payment_event", entityId: event.id, outcome: "refused", reason: "event already processed" }]);
+    await appendAudit(db, [
+      {
+        shopId: null,
+        actorId: null,
+        action: "payment.webhook",
+        entity: "payment_event",
+        entityId: event.id,
+        outcome: "refused",
+        reason: "event already processed",
+      },
+    ]);
     return { status: 409, body: { error: "Webhook refused: event already processed" } };
   }
   if (outcome.kind === "ignored") return { status: 200, body: { received: true, outcome: `ignored: ${outcome.reason}` } };

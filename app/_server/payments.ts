@@ -19,7 +19,14 @@ export function paymentsClient(): Stripe {
 
 // Creates the PaymentIntent for a deposit (idempotent per deposit) and, in test mode, confirms it
 // with the configured test payment method; the provider then reports success by webhook.
-export async function startDepositPayment(d: { depositId: string; amountMinor: number; currency: string; shopId: string; workOrderId: string; description: string }) {
+export async function startDepositPayment(d: {
+  depositId: string;
+  amountMinor: number;
+  currency: string;
+  shopId: string;
+  workOrderId: string;
+  description: string;
+}) {
   const cfg = officeConfig();
   const stripe = paymentsClient();
   const intent = await stripe.paymentIntents.create(
@@ -32,7 +39,11 @@ export async function startDepositPayment(d: { depositId: string; amountMinor: n
     { idempotencyKey: `deposit-${d.depositId}` },
   );
   if (intent.status !== "succeeded" && intent.status !== "processing" && cfg.STRIPE_TEST_PAYMENT_METHOD) {
-    const confirmed = await stripe.paymentIntents.confirm(intent.id, { payment_method: cfg.STRIPE_TEST_PAYMENT_METHOD }, { idempotencyKey: `deposit-confirm-${d.depositId}` });
+    const confirmed = await stripe.paymentIntents.confirm(
+      intent.id,
+      { payment_method: cfg.STRIPE_TEST_PAYMENT_METHOD },
+      { idempotencyKey: `deposit-confirm-${d.depositId}` },
+    );
     return { id: confirmed.id, status: confirmed.status };
   }
   return { id: intent.id, status: intent.status };
@@ -40,7 +51,12 @@ export async function startDepositPayment(d: { depositId: string; amountMinor: n
 
 // Verifies a webhook's signature (Stripe's scheme: HMAC-SHA256 over "timestamp.body", 5-minute
 // tolerance) and returns the event; throws when unsigned, wrongly signed or stale.
-export function verifyPaymentWebhook(rawBody: string, signature: string | null, secret = officeConfig().STRIPE_WEBHOOK_SECRET, toleranceS = 300): Stripe.Event {
+export function verifyPaymentWebhook(
+  rawBody: string,
+  signature: string | null,
+  secret = officeConfig().STRIPE_WEBHOOK_SECRET,
+  toleranceS = 300,
+): Stripe.Event {
   if (!signature) throw new Error("missing Stripe-Signature header");
   return Stripe.webhooks.constructEvent(rawBody, signature, secret, toleranceS);
 }

@@ -14,10 +14,13 @@ export const MAX_PHOTO_FORM_BYTES = MAX_PHOTOS * MAX_PHOTO_BYTES + 1024 * 1024;
 
 // Checks uploaded photos before anything is written, so a bad file refuses the whole request.
 export function checkPhotos(files: File[]): void {
-  if (files.length > MAX_PHOTOS) throw new Refusal(`Attach at most ${MAX_PHOTOS} photos at once.`, 422, [{ path: "photos", message: `Photos: at most ${MAX_PHOTOS}` }]);
+  if (files.length > MAX_PHOTOS)
+    throw new Refusal(`Attach at most ${MAX_PHOTOS} photos at once.`, 422, [{ path: "photos", message: `Photos: at most ${MAX_PHOTOS}` }]);
   for (const f of files) {
-    if (!TYPES[f.type]) throw new Refusal(`${f.name} is not a JPEG, PNG or WebP photo.`, 422, [{ path: "photos", message: `${f.name}: not a photo` }]);
-    if (f.size > MAX_PHOTO_BYTES) throw new Refusal(`${f.name} is larger than 10 MB.`, 422, [{ path: "photos", message: `${f.name}: over 10 MB` }]);
+    if (!TYPES[f.type])
+      throw new Refusal(`${f.name} is not a JPEG, PNG or WebP photo.`, 422, [{ path: "photos", message: `${f.name}: not a photo` }]);
+    if (f.size > MAX_PHOTO_BYTES)
+      throw new Refusal(`${f.name} is larger than 10 MB.`, 422, [{ path: "photos", message: `${f.name}: over 10 MB` }]);
   }
 }
 

@@ -41,7 +41,14 @@ export async function deliverReviewNotices(db: Db): Promise<{ sent: number; skip
         const { subject, text } = noticeMail(facts, n.signOffId, officeConfig().NEXTAUTH_URL);
         const errors: string[] = [];
         for (const r of facts.recipients) {
-          const sent = await sendMail(db, { shopId: n.shopId, workOrderId: n.workOrderId, kind: "review_needed", to: r.email, subject, text });
+          const sent = await sendMail(db, {
+            shopId: n.shopId,
+            workOrderId: n.workOrderId,
+            kind: "review_needed",
+            to: r.email,
+            subject,
+            text,
+          });
           if (!sent.ok) errors.push(`${r.email}: ${sent.error}`);
         }
         if (errors.length) {

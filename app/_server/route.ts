@@ -32,7 +32,14 @@ type ParamsOf<N extends readonly string[]> = { [K in N[number]]: string };
 
 /** The route's body: what the handler gets in `body`. */
 export type BodySpec =
-  | ({ kind: "json"; schema: z.ZodType; labels?: FieldLabels; invalid?: { status: 400 | 422; error: string }; emptyMessage?: string; before?: (raw: unknown) => void } & BodyLimit)
+  | ({
+      kind: "json";
+      schema: z.ZodType;
+      labels?: FieldLabels;
+      invalid?: { status: 400 | 422; error: string };
+      emptyMessage?: string;
+      before?: (raw: unknown) => void;
+    } & BodyLimit)
   | ({ kind: "multipart" } & BodyLimit)
   | ({ kind: "binary"; types: readonly string[] } & BodyLimit)
   | ({ kind: "text"; types: readonly string[] } & BodyLimit);
@@ -53,7 +60,14 @@ export const MIB = 1024 * KIB;
 /** A JSON body checked with `schema` (at most `maxBytes`, 256 KiB unless given). */
 export function json<S extends z.ZodType>(
   schema: S,
-  opts: { maxBytes?: number; labels?: FieldLabels; invalid?: { status: 400 | 422; error: string }; emptyMessage?: string; tooLargeHint?: string; before?: (raw: unknown) => void } = {},
+  opts: {
+    maxBytes?: number;
+    labels?: FieldLabels;
+    invalid?: { status: 400 | 422; error: string };
+    emptyMessage?: string;
+    tooLargeHint?: string;
+    before?: (raw: unknown) => void;
+  } = {},
 ) {
   return { kind: "json" as const, schema, maxBytes: opts.maxBytes ?? 256 * KIB, ...opts };
 }
@@ -151,7 +165,12 @@ function answerFailure(e: unknown): Response {
 }
 
 function isZodError(e: unknown): e is z.ZodError {
-  return typeof e === "object" && e !== null && (e as { name?: unknown }).name === "ZodError" && Array.isArray((e as { issues?: unknown }).issues);
+  return (
+    typeof e === "object" &&
+    e !== null &&
+    (e as { name?: unknown }).name === "ZodError" &&
+    Array.isArray((e as { issues?: unknown }).issues)
+  );
 }
 
 function toResponse(result: unknown): Response {
@@ -172,7 +191,8 @@ async function readBody(req: Request, spec: BodySpec | undefined): Promise<unkno
   const type = mediaType(req);
   if (!spec) {
     // No body taken: a state-changing request may carry an empty JSON body, nothing else.
-    if (MUTATING.has(req.method) && type && type !== "application/json") throw new Refusal(`This request takes no body; ${type} was sent.`, 415);
+    if (MUTATING.has(req.method) && type && type !== "application/json")
+      throw new Refusal(`This request takes no body; ${type} was sent.`, 415);
     return undefined;
   }
   const wanted = spec.kind === "json" ? ["application/json"] : spec.kind === "multipart" ? ["multipart/form-data"] : spec.types;
@@ -274,21 +294,35 @@ function build<R>(
       const params = pickParams(spec.params ?? [], opts.params);
       const query = readQuery(req, spec.query, spec.queryLabels);
       const body = await readBody(req, spec.body);
-      const later = opts.later ?? (opts.db || opts.user !== undefined || opts.userId !== undefined ? () => undefined : (work: () => Promise<unknown>) => after(work));
+      const later =
+        opts.later ??
+        (opts.db || opts.user !== undefined || opts.userId !== undefined ? () => undefined : (work: () => Promise<unknown>) => after(work));
       return toResponse(await run({ req, user, params, body, query, db, later }));
     } catch (e) {
       return answerFailure(e);
     }
   }
-  const handler = (async (req: Request, ctx: { params: Promise<RawParams> }) => handle(req, { params: ctx?.params ? await ctx.params : {} })) as RouteHandler<R>;
+  const handler = (async (req: Request, ctx: { params: Promise<RawParams> }) =>
+    handle(req, { params: ctx?.params ? await ctx.params : {} })) as RouteHandler<R>;
   const body = spec.body;
-  const takes = !body ? [] : body.kind === "json" ? ["application/json"] : body.kind === "multipart" ? ["multipart/form-data"] : [...body.types];
+  const takes = !body
+    ? []
+    : body.kind === "json"
+      ? ["application/json"]
+      : body.kind === "multipart"
+        ? ["multipart/form-data"]
+        : [...body.types];
   const rule: RouteRule = "access" in gate ? { access: gate.access, takes } : { check: gate.publicCheck, takes };
   return Object.assign(handler, { handle, rule });
 }
 
 /** A route for signed-in users whose role reaches `access`. */
-export function route<const N extends readonly string[] = [], B extends BodySpec | undefined = undefined, Q extends z.ZodType | undefined = undefined, R = unknown>(
+export function route<
+  const N extends readonly string[] = [],
+  B extends BodySpec | undefined = undefined,
+  Q extends z.ZodType | undefined = undefined,
+  R = unknown,
+>(
   spec: Spec<N, B, Q> & { access: Access },
   handler: (ctx: RouteContext<ParamsOf<N>, BodyOf<B>, Q extends z.ZodType ? z.output<Q> : undefined, SessionUser>) => Promise<R>,
 ): RouteHandler<R> {

@@ -15,8 +15,8 @@ export default async function CalculatorsPage() {
     <AppFrame user={user} current="/calculators">
       <h1 className="text-3xl font-bold">Engine numbers</h1>
       <p className="mt-2 max-w-3xl text-lg">
-        Quick arithmetic for a build. Figures here are worked from what you type and from rules of thumb where marked; the engine maker&apos;s
-        service data and the parts makers&apos; sheets always win.
+        Quick arithmetic for a build. Figures here are worked from what you type and from rules of thumb where marked; the engine
+        maker&apos;s service data and the parts makers&apos; sheets always win.
       </p>
       <div className="mt-6 grid gap-6">
         <CompressionCard />

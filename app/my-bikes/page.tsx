@@ -37,7 +37,14 @@ export default async function MyBikesPage() {
                 <li key={w.id} className="text-lg" data-testid="my-work-order">
                   <div className="flex flex-wrap items-center gap-3">
                     <span className="font-mono">#{w.number}</span> {w.title} <StatusBadge status={w.status} />
-                    <a href={`/api/jobs/${w.id}/build-report`} download className="flex min-h-12 items-center rounded-lg border-2 border-ink px-3 text-base font-bold" data-testid="my-build-report">Build report (PDF)</a>
+                    <a
+                      href={`/api/jobs/${w.id}/build-report`}
+                      download
+                      className="flex min-h-12 items-center rounded-lg border-2 border-ink px-3 text-base font-bold"
+                      data-testid="my-build-report"
+                    >
+                      Build report (PDF)
+                    </a>
                   </div>
                   <BuildLine progress={progress.get(w.id) ?? null} />
                   {quoteOf(w.id) && <CustomerQuote quote={quoteOf(w.id)!} />}
@@ -56,7 +63,8 @@ function BuildLine({ progress }: { progress: BuildProgress | null }) {
   if (!progress || progress.stepsTotal === 0) return null;
   return (
     <p className="mt-1 text-base" data-testid="my-build-progress">
-      Build: {progress.stepsDone} of {progress.stepsTotal} steps done · {progress.approvedStages} of {progress.stages.length} stages checked by the workshop supervisor
+      Build: {progress.stepsDone} of {progress.stepsTotal} steps done · {progress.approvedStages} of {progress.stages.length} stages checked
+      by the workshop supervisor
     </p>
   );
 }

@@ -12,7 +12,10 @@ export default async function OfficePage() {
     <AppFrame user={user} current="/office">
       <div className="flex flex-wrap items-center gap-4">
         <h1 className="text-3xl font-bold">Work orders</h1>
-        <Link href="/office/work-orders/new" className="ml-auto flex min-h-12 items-center rounded-lg bg-steel-900 px-5 text-lg font-bold text-white">
+        <Link
+          href="/office/work-orders/new"
+          className="ml-auto flex min-h-12 items-center rounded-lg bg-steel-900 px-5 text-lg font-bold text-white"
+        >
           + Book a bike in
         </Link>
       </div>

@@ -13,7 +13,9 @@ export default async function ReviewPage() {
   return (
     <AppFrame user={user} current="/review">
       <h1 className="text-3xl font-bold">Sign-offs waiting for review</h1>
-      <p className="mt-2 text-lg text-steel-700">Each stage a mechanic has signed off, newest first, until someone approves it or sends it back.</p>
+      <p className="mt-2 text-lg text-steel-700">
+        Each stage a mechanic has signed off, newest first, until someone approves it or sends it back.
+      </p>
       <ReviewQueue people={people.map((p) => ({ id: p.id, name: p.name }))} />
     </AppFrame>
   );

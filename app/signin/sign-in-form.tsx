@@ -53,7 +53,11 @@ export function SignInForm() {
         />
       </label>
       {error && (
-        <p role="alert" data-testid="form-error" className="rounded-lg border-2 border-fail bg-fail-light px-4 py-3 text-lg font-bold text-fail">
+        <p
+          role="alert"
+          data-testid="form-error"
+          className="rounded-lg border-2 border-fail bg-fail-light px-4 py-3 text-lg font-bold text-fail"
+        >
           {error}
         </p>
       )}

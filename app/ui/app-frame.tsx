@@ -23,7 +23,17 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
 const ROLE_LABEL = { mechanic: "Mechanic", supervisor: "Supervisor", office: "Office", customer: "Customer" } as const;
 
 // The frame around every signed-in page: who you are, where you can go, sign out.
-export function AppFrame({ user, current, children, flush = false }: { user: SessionUser; current: string; children: ReactNode; flush?: boolean }) {
+export function AppFrame({
+  user,
+  current,
+  children,
+  flush = false,
+}: {
+  user: SessionUser;
+  current: string;
+  children: ReactNode;
+  flush?: boolean;
+}) {
   const links = NAV.filter((n) => canReach(user.role, n.area));
   return (
     <div className="flex min-h-screen flex-col">

@@ -62,7 +62,9 @@ export function DataTable<Row>({
   const rows = (query.data?.[rowsKey] as Row[] | undefined) ?? [];
   const total = query.data?.total ?? 0;
   // Sorting happens on the server: a sortable column needs an accessor for TanStack to offer it.
-  const cols = columns.map((c) => (c.enableSorting === false || "accessorFn" in c ? c : { ...c, accessorFn: () => null, sortDescFirst: false }));
+  const cols = columns.map((c) =>
+    c.enableSorting === false || "accessorFn" in c ? c : { ...c, accessorFn: () => null, sortDescFirst: false },
+  );
   const table = useReactTable({
     data: rows,
     columns: cols,
@@ -82,7 +84,12 @@ export function DataTable<Row>({
       <div className="flex flex-wrap items-end gap-3">
         <label className="flex flex-col gap-1 text-base font-bold">
           {searchLabel}
-          <input type="search" value={search} onChange={(e) => setSearch(e.target.value)} className="min-h-12 w-72 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal" />
+          <input
+            type="search"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            className="min-h-12 w-72 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal"
+          />
         </label>
         {toolbar}
       </div>
@@ -99,9 +106,17 @@ export function DataTable<Row>({
                 {hg.headers.map((h) => {
                   const sorted = h.column.getIsSorted();
                   return (
-                    <th key={h.id} className="py-2 pr-3 align-bottom" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}>
+                    <th
+                      key={h.id}
+                      className="py-2 pr-3 align-bottom"
+                      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
+                    >
                       {h.column.getCanSort() ? (
-                        <button type="button" onClick={h.column.getToggleSortingHandler()} className="flex min-h-10 items-center gap-1 font-bold underline-offset-4 hover:underline">
+                        <button
+                          type="button"
+                          onClick={h.column.getToggleSortingHandler()}
+                          className="flex min-h-10 items-center gap-1 font-bold underline-offset-4 hover:underline"
+                        >
                           {flexRender(h.column.columnDef.header, h.getContext())}
                           <span aria-hidden="true">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
                         </button>
@@ -135,13 +150,23 @@ export function DataTable<Row>({
         </table>
       </div>
       <div className="mt-3 flex flex-wrap items-center gap-3">
-        <button type="button" className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-4 font-bold disabled:opacity-40" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
+        <button
+          type="button"
+          className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-4 font-bold disabled:opacity-40"
+          onClick={() => table.previousPage()}
+          disabled={!table.getCanPreviousPage()}
+        >
           ◀ Previous
         </button>
         <span data-testid={`${testId}-page`}>
           Page {pagination.pageIndex + 1} of {pages} · {total} in all
         </span>
-        <button type="button" className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-4 font-bold disabled:opacity-40" onClick={() => table.nextPage()} disabled={pagination.pageIndex + 1 >= pages}>
+        <button
+          type="button"
+          className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-4 font-bold disabled:opacity-40"
+          onClick={() => table.nextPage()}
+          disabled={pagination.pageIndex + 1 >= pages}
+        >
           Next ▶
         </button>
       </div>

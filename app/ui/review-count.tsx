@@ -35,7 +35,10 @@ export function ReviewCount() {
   }, []);
   if (waiting === null) return null;
   return (
-    <span data-testid="review-count" className={`ml-2 inline-flex min-w-7 items-center justify-center rounded-full border-2 px-2 text-sm font-bold ${waiting > 0 ? "border-ink bg-white text-ink" : "border-current"}`}>
+    <span
+      data-testid="review-count"
+      className={`ml-2 inline-flex min-w-7 items-center justify-center rounded-full border-2 px-2 text-sm font-bold ${waiting > 0 ? "border-ink bg-white text-ink" : "border-current"}`}
+    >
       {waiting}
       <span className="sr-only"> waiting for review</span>
     </span>

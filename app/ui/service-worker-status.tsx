@@ -25,7 +25,10 @@ export function ServiceWorkerStatus() {
 
   if (!waiting) return null;
   return (
-    <div role="status" className="no-print fixed inset-x-0 bottom-0 z-50 flex items-center gap-4 bg-signal px-4 py-3 text-lg font-bold text-ink">
+    <div
+      role="status"
+      className="no-print fixed inset-x-0 bottom-0 z-50 flex items-center gap-4 bg-signal px-4 py-3 text-lg font-bold text-ink"
+    >
       A new version of Benchtag is ready.
       <button
         type="button"

@@ -20,7 +20,11 @@ export function useCheckedForm() {
   const [message, setMessage] = useState<FormMessageState>({});
   const [busy, setBusy] = useState(false);
 
-  async function submit<S extends z.ZodType>(schema: S, values: unknown, send: (data: z.output<S>) => Promise<string | void>): Promise<boolean> {
+  async function submit<S extends z.ZodType>(
+    schema: S,
+    values: unknown,
+    send: (data: z.output<S>) => Promise<string | void>,
+  ): Promise<boolean> {
     const parsed = schema.safeParse(values);
     if (!parsed.success) {
       setErrors(fieldErrors(issuesOf(parsed.error)));

@@ -10,7 +10,13 @@ import type { Database } from "../schema";
 /** An entry of the log with the names it refers to (see lib/review/audit-csv.ts). */
 export type AuditRow = AuditEntry;
 
-const SORT_SQL: Record<AuditQuery["sort"], string> = { at: "a.id", job: "w.number", actor: "u.name", action: "a.action", outcome: "a.outcome" };
+const SORT_SQL: Record<AuditQuery["sort"], string> = {
+  at: "a.id",
+  job: "w.number",
+  actor: "u.name",
+  action: "a.action",
+  outcome: "a.outcome",
+};
 
 function where(shopId: string, f: AuditFilter) {
   const parts = [sql`a.shop_id = ${shopId}::uuid`];
@@ -19,7 +25,9 @@ function where(shopId: string, f: AuditFilter) {
   if (f.action) parts.push(sql`a.action LIKE ${`${f.action.replace(/[\\%_]/g, (m) => `\\${m}`)}%`}`);
   if (f.q) {
     const like = `%${f.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
-    parts.push(sql`(u.name ILIKE ${like} OR u.email ILIKE ${like} OR a.device_id ILIKE ${like} OR a.reason ILIKE ${like} OR a.entity_id ILIKE ${like})`);
+    parts.push(
+      sql`(u.name ILIKE ${like} OR u.email ILIKE ${like} OR a.device_id ILIKE ${like} OR a.reason ILIKE ${like} OR a.entity_id ILIKE ${like})`,
+    );
   }
   return sql.join(parts, sql` AND `);
 }
@@ -27,9 +35,19 @@ function where(shopId: string, f: AuditFilter) {
 const from = sql`audit_log a LEFT JOIN work_orders w ON w.id = a.work_order_id AND w.shop_id = a.shop_id LEFT JOIN users u ON u.id = a.actor_id`;
 
 type Raw = {
-  id: string; at: Date; number: number | null; actor_name: string | null; actor_email: string | null; actor_role: string | null;
-  device_id: string | null; action: string; entity: string; entity_id: string | null; outcome: "accepted" | "refused";
-  reason: string | null; detail: Record<string, unknown>;
+  id: string;
+  at: Date;
+  number: number | null;
+  actor_name: string | null;
+  actor_email: string | null;
+  actor_role: string | null;
+  device_id: string | null;
+  action: string;
+  entity: string;
+  entity_id: string | null;
+  outcome: "accepted" | "refused";
+  reason: string | null;
+  detail: Record<string, unknown>;
 };
 const columns = sql`a.id::text AS id, a.at, w.number, u.name AS actor_name, u.email AS actor_email, u.role AS actor_role, a.device_id,
   a.action, a.entity, a.entity_id, a.outcome, a.reason, a.detail`;
@@ -56,7 +74,9 @@ export async function pageAuditLog(db: Kysely<Database>, shopId: string, q: Audi
   const order = sql.raw(`${SORT_SQL[q.sort]} ${q.dir === "asc" ? "ASC" : "DESC"} NULLS LAST, a.id DESC`);
   const [count, rows] = await Promise.all([
     sql<{ n: number }>`SELECT count(*)::int AS n FROM ${from} WHERE ${where(shopId, q)}`.execute(db),
-    sql<Raw>`SELECT ${columns} FROM ${from} WHERE ${where(shopId, q)} ORDER BY ${order} LIMIT ${q.size} OFFSET ${q.page * q.size}`.execute(db),
+    sql<Raw>`SELECT ${columns} FROM ${from} WHERE ${where(shopId, q)} ORDER BY ${order} LIMIT ${q.size} OFFSET ${q.page * q.size}`.execute(
+      db,
+    ),
   ]);
   return { total: count.rows[0]?.n ?? 0, rows: rows.rows.map(row) };
 }

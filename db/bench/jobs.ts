@@ -41,7 +41,15 @@ const jobColumns = sql`
 const jobFrom = sql`work_orders w JOIN bikes b ON b.id = w.bike_id LEFT JOIN users u ON u.id = w.assigned_mechanic_id`;
 
 function bikeOf(r: JobRow) {
-  return { id: r.bike_id, make: r.make, model: r.model, year: r.year, tagCode: r.tag_code, colour: r.colour, displacementCc: r.displacement_cc };
+  return {
+    id: r.bike_id,
+    make: r.make,
+    model: r.model,
+    year: r.year,
+    tagCode: r.tag_code,
+    colour: r.colour,
+    displacementCc: r.displacement_cc,
+  };
 }
 
 function assignment(user: SessionUser, r: JobRow) {
@@ -74,10 +82,7 @@ export async function listBenchJobs(db: Kysely<Database>, user: SessionUser): Pr
     }));
 }
 
-export type TagResult =
-  | { found: "job"; job: TagLookup }
-  | { found: "bike-without-job"; tagCode: string }
-  | { found: "nothing" };
+export type TagResult = { found: "job"; job: TagLookup } | { found: "bike-without-job"; tagCode: string } | { found: "nothing" };
 
 /** The bike with this tag in the user's shop, and its job open for bench work (the newest, if several). */
 export async function findJobByTag(db: Kysely<Database>, user: SessionUser, tagCode: string): Promise<TagResult> {
@@ -276,13 +281,34 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
     db
       .selectFrom("torque_records as t")
       .innerJoin("operations as o", "o.id", "t.id")
-      .select(["t.id", "t.step_id", "t.torque_spec_id", "t.pass_index", "t.bolt", "t.wrench_reading", "t.wrench_unit", "t.recorded_by", "t.device_time"])
+      .select([
+        "t.id",
+        "t.step_id",
+        "t.torque_spec_id",
+        "t.pass_index",
+        "t.bolt",
+        "t.wrench_reading",
+        "t.wrench_unit",
+        "t.recorded_by",
+        "t.device_time",
+      ])
       .where("t.work_order_id", "=", jobId)
       .orderBy(stampOrder("o.stamp"))
       .execute(),
     db
       .selectFrom("timers")
-      .select(["id", "step_id", "timer_spec_id", "label", "duration_s", "started_at", "started_by", "stopped_at", "override_by", "override_reason"])
+      .select([
+        "id",
+        "step_id",
+        "timer_spec_id",
+        "label",
+        "duration_s",
+        "started_at",
+        "started_by",
+        "stopped_at",
+        "override_by",
+        "override_reason",
+      ])
       .where("work_order_id", "=", jobId)
       .orderBy("started_at")
       .execute(),
@@ -297,7 +323,18 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       .selectFrom("review_decisions as d")
       .innerJoin("sign_offs as s", "s.id", "d.sign_off_id")
       .distinctOn("d.sign_off_id")
-      .select(["d.id", "d.sign_off_id", "s.job_procedure_id", "s.stage_key", "d.decision", "d.reason", "d.reopened_step_ids", "d.decided_by", "d.decided_at", "d.change_seq"])
+      .select([
+        "d.id",
+        "d.sign_off_id",
+        "s.job_procedure_id",
+        "s.stage_key",
+        "d.decision",
+        "d.reason",
+        "d.reopened_step_ids",
+        "d.decided_by",
+        "d.decided_at",
+        "d.change_seq",
+      ])
       .where("s.work_order_id", "=", jobId)
       .orderBy("d.sign_off_id")
       .orderBy("d.change_seq", "desc")

@@ -38,5 +38,10 @@ export async function recordAttachment(db: Kysely<Database>, a: NewAttachment): 
 
 /** A stored photo of this shop: where its bytes are and their type. */
 export async function findAttachment(db: Kysely<Database>, shopId: string, id: string) {
-  return db.selectFrom("attachments").select(["object_key as objectKey", "content_type as contentType"]).where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst();
+  return db
+    .selectFrom("attachments")
+    .select(["object_key as objectKey", "content_type as contentType"])
+    .where("id", "=", id)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
 }

@@ -12,20 +12,43 @@ export async function openDeposit(db: Kysely<Database>, user: { id: string; shop
       .selectFrom("quotes as q")
       .innerJoin("work_orders as w", "w.id", "q.work_order_id")
       .innerJoin("bikes as b", "b.id", "w.bike_id")
-      .select(["q.id", "q.status", "q.deposit_minor as depositMinor", "q.currency", "q.work_order_id as workOrderId", "b.customer_id as customerId", "q.shop_id as shopId", "w.number"])
+      .select([
+        "q.id",
+        "q.status",
+        "q.deposit_minor as depositMinor",
+        "q.currency",
+        "q.work_order_id as workOrderId",
+        "b.customer_id as customerId",
+        "q.shop_id as shopId",
+        "w.number",
+      ])
       .where("q.id", "=", quoteId)
       .forUpdate("q")
       .executeTakeFirst();
     if (!q || q.shopId !== user.shopId || q.customerId !== user.customerId) throw new Refusal("This quote is not yours.", 403);
     if (q.status !== "approved") throw new Refusal("Approve the quote before paying the deposit.", 409);
     if (q.depositMinor <= 0) throw new Refusal("No deposit is asked for this quote.", 409);
-    const existing = await trx.selectFrom("deposits").selectAll().where("quote_id", "=", quoteId).where("status", "in", ["pending", "paid"]).executeTakeFirst();
+    const existing = await trx
+      .selectFrom("deposits")
+      .selectAll()
+      .where("quote_id", "=", quoteId)
+      .where("status", "in", ["pending", "paid"])
+      .executeTakeFirst();
     if (existing?.status === "paid") throw new Refusal("The deposit is already paid.", 409);
     const deposit =
       existing ??
       (await trx
         .insertInto("deposits")
-        .values({ shop_id: q.shopId, work_order_id: q.workOrderId, quote_id: q.id, amount_minor: q.depositMinor, currency: q.currency, status: "pending", payment_intent_id: null, paid_at: null })
+        .values({
+          shop_id: q.shopId,
+          work_order_id: q.workOrderId,
+          quote_id: q.id,
+          amount_minor: q.depositMinor,
+          currency: q.currency,
+          status: "pending",
+          payment_intent_id: null,
+          paid_at: null,
+        })
         .returningAll()
         .executeTakeFirstOrThrow());
     return { deposit, workOrderNumber: q.number };
@@ -33,7 +56,12 @@ export async function openDeposit(db: Kysely<Database>, user: { id: string; shop
 }
 
 export async function attachPaymentIntent(db: Kysely<Database>, depositId: string, paymentIntentId: string) {
-  await db.updateTable("deposits").set({ payment_intent_id: paymentIntentId }).where("id", "=", depositId).where("payment_intent_id", "is", null).execute();
+  await db
+    .updateTable("deposits")
+    .set({ payment_intent_id: paymentIntentId })
+    .where("id", "=", depositId)
+    .where("payment_intent_id", "is", null)
+    .execute();
 }
 
 type PaymentOutcome =
@@ -53,7 +81,12 @@ export async function applyPaymentEvent(
     if (seen) return { kind: "replayed" } as const;
     const used = event.type === "payment_intent.succeeded" || event.type === "payment_intent.payment_failed";
     if (!used || !event.paymentIntentId) return { kind: "ignored", reason: `event type ${event.type} is not used` } as const;
-    const dep = await trx.selectFrom("deposits").selectAll().where("payment_intent_id", "=", event.paymentIntentId).forUpdate().executeTakeFirst();
+    const dep = await trx
+      .selectFrom("deposits")
+      .selectAll()
+      .where("payment_intent_id", "=", event.paymentIntentId)
+      .forUpdate()
+      .executeTakeFirst();
     if (!dep) return { kind: "ignored", reason: "no deposit for this payment" } as const;
     const inserted = await trx
       .insertInto("payment_events")
@@ -66,24 +99,65 @@ export async function applyPaymentEvent(
       // a declined card: the deposit can be paid again (a new deposit row and payment intent)
       if (dep.status === "pending") {
         await trx.updateTable("deposits").set({ status: "failed" }).where("id", "=", dep.id).execute();
-        await appendAudit(trx, [{ shopId: dep.shop_id, actorId: null, action: "deposit.failed", entity: "deposit", entityId: dep.id, workOrderId: dep.work_order_id, outcome: "accepted", detail: { eventId: event.id } }]);
+        await appendAudit(trx, [
+          {
+            shopId: dep.shop_id,
+            actorId: null,
+            action: "deposit.failed",
+            entity: "deposit",
+            entityId: dep.id,
+            workOrderId: dep.work_order_id,
+            outcome: "accepted",
+            detail: { eventId: event.id },
+          },
+        ]);
       }
       return { kind: "failed", depositId: dep.id } as const;
     }
     if (event.amount !== dep.amount_minor || (event.currency ?? "").toUpperCase() !== dep.currency.toUpperCase()) {
-      await appendAudit(trx, [{ shopId: dep.shop_id, actorId: null, action: "deposit.paid", entity: "deposit", entityId: dep.id, workOrderId: dep.work_order_id, outcome: "refused", reason: "amount or currency does not match", detail: { eventId: event.id } }]);
+      await appendAudit(trx, [
+        {
+          shopId: dep.shop_id,
+          actorId: null,
+          action: "deposit.paid",
+          entity: "deposit",
+          entityId: dep.id,
+          workOrderId: dep.work_order_id,
+          outcome: "refused",
+          reason: "amount or currency does not match",
+          detail: { eventId: event.id },
+        },
+      ]);
       return { kind: "ignored", reason: "amount or currency does not match the deposit" } as const;
     }
     if (dep.status !== "paid") {
       await trx.updateTable("deposits").set({ status: "paid", paid_at: new Date() }).where("id", "=", dep.id).execute();
-      await appendAudit(trx, [{ shopId: dep.shop_id, actorId: null, action: "deposit.paid", entity: "deposit", entityId: dep.id, workOrderId: dep.work_order_id, outcome: "accepted", detail: { eventId: event.id, paymentIntentId: event.paymentIntentId } }]);
+      await appendAudit(trx, [
+        {
+          shopId: dep.shop_id,
+          actorId: null,
+          action: "deposit.paid",
+          entity: "deposit",
+          entityId: dep.id,
+          workOrderId: dep.work_order_id,
+          outcome: "accepted",
+          detail: { eventId: event.id, paymentIntentId: event.paymentIntentId },
+        },
+      ]);
     }
     return { kind: "paid", depositId: dep.id, shopId: dep.shop_id, workOrderId: dep.work_order_id } as const;
   });
 }
 
 /** A deposit as every reader sees it (the quote's list, the customer's payment check). */
-export const DEPOSIT_COLUMNS = ["id", "status", "amount_minor as amountMinor", "currency", "paid_at as paidAt", "payment_intent_id as paymentIntentId"] as const;
+export const DEPOSIT_COLUMNS = [
+  "id",
+  "status",
+  "amount_minor as amountMinor",
+  "currency",
+  "paid_at as paidAt",
+  "payment_intent_id as paymentIntentId",
+] as const;
 
 export async function depositForCustomer(db: Kysely<Database>, user: { shopId: string; customerId: string | null }, depositId: string) {
   return db

@@ -4,11 +4,27 @@ import type { Database } from "../schema";
 
 export async function recordEmail(
   db: Kysely<Database>,
-  e: { shopId: string; workOrderId: string | null; kind: string; recipient: string; subject: string; messageId: string | null; error: string | null },
+  e: {
+    shopId: string;
+    workOrderId: string | null;
+    kind: string;
+    recipient: string;
+    subject: string;
+    messageId: string | null;
+    error: string | null;
+  },
 ) {
   await db
     .insertInto("outbound_emails")
-    .values({ shop_id: e.shopId, work_order_id: e.workOrderId, kind: e.kind, recipient: e.recipient, subject: e.subject, message_id: e.messageId, error: e.error })
+    .values({
+      shop_id: e.shopId,
+      work_order_id: e.workOrderId,
+      kind: e.kind,
+      recipient: e.recipient,
+      subject: e.subject,
+      message_id: e.messageId,
+      error: e.error,
+    })
     .execute();
 }
 
@@ -19,7 +35,17 @@ export async function emailContext(db: Kysely<Database>, shopId: string, workOrd
     .innerJoin("bikes as b", "b.id", "w.bike_id")
     .innerJoin("customers as c", "c.id", "b.customer_id")
     .innerJoin("shops as s", "s.id", "w.shop_id")
-    .select(["w.number", "w.title", "b.make", "b.model", "b.tag_code as tagCode", "c.name as customerName", "c.email", "s.name as shopName", "s.currency"])
+    .select([
+      "w.number",
+      "w.title",
+      "b.make",
+      "b.model",
+      "b.tag_code as tagCode",
+      "c.name as customerName",
+      "c.email",
+      "s.name as shopName",
+      "s.currency",
+    ])
     .where("w.id", "=", workOrderId)
     .where("w.shop_id", "=", shopId)
     .executeTakeFirst();

@@ -31,7 +31,11 @@ async function createFinalInvoice(trx: Kysely<Database> | Transaction<Database>,
     .where("quote_id", "=", q.id)
     .where("status", "=", "paid")
     .executeTakeFirstOrThrow();
-  const last = await trx.selectFrom("invoices").select((eb) => eb.fn.max("number").as("n")).where("shop_id", "=", shopId).executeTakeFirst();
+  const last = await trx
+    .selectFrom("invoices")
+    .select((eb) => eb.fn.max("number").as("n"))
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
   const depositsPaid = Number(paid.s);
   return trx
     .insertInto("invoices")
@@ -63,5 +67,10 @@ const INVOICE_COLUMNS = [
 ] as const;
 
 export async function invoiceOf(db: Kysely<Database>, shopId: string, workOrderId: string) {
-  return db.selectFrom("invoices").select(INVOICE_COLUMNS).where("work_order_id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
+  return db
+    .selectFrom("invoices")
+    .select(INVOICE_COLUMNS)
+    .where("work_order_id", "=", workOrderId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
 }

@@ -6,7 +6,13 @@ import type { z } from "zod";
 import { partColumns } from "../records/parts-fitted";
 import type { Database } from "../schema";
 
-export async function addPartFitted(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, input: z.input<typeof partFittedSchema>) {
+export async function addPartFitted(
+  db: Kysely<Database>,
+  shopId: string,
+  userId: string,
+  workOrderId: string,
+  input: z.input<typeof partFittedSchema>,
+) {
   const p = partFittedSchema.parse(input);
   const wo = await db.selectFrom("work_orders").select("id").where("id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
   if (!wo) throw new Refusal("No such work order in this shop.", 404);
@@ -18,18 +24,35 @@ export async function addPartFitted(db: Kysely<Database>, shopId: string, userId
       .where("s.id", "=", p.stepId)
       .where("j.work_order_id", "=", workOrderId)
       .executeTakeFirst();
-    if (!step) throw new Refusal("That step is not part of this job's procedures.", 422, [{ path: "stepId", message: "not a step of this job" }]);
+    if (!step)
+      throw new Refusal("That step is not part of this job's procedures.", 422, [{ path: "stepId", message: "not a step of this job" }]);
   }
   return db
     .insertInto("parts_fitted")
-    .values({ shop_id: shopId, work_order_id: workOrderId, step_id: p.stepId, part_number: p.partNumber, description: p.description, supplier: p.supplier, serial: p.serial, batch: p.batch, quantity: p.quantity, fitted_by: userId })
+    .values({
+      shop_id: shopId,
+      work_order_id: workOrderId,
+      step_id: p.stepId,
+      part_number: p.partNumber,
+      description: p.description,
+      supplier: p.supplier,
+      serial: p.serial,
+      batch: p.batch,
+      quantity: p.quantity,
+      fitted_by: userId,
+    })
     .returning("id")
     .executeTakeFirstOrThrow();
 }
 
 // "Which bikes got batch X?" — one query: every fitting of a part whose batch or serial matches
 // exactly (case-insensitive), with the bike, its owner and the work order.
-export async function bikesWithPart(db: Kysely<Database>, shopId: string, code: string, field: "batch" | "serial" | "part_number" = "batch") {
+export async function bikesWithPart(
+  db: Kysely<Database>,
+  shopId: string,
+  code: string,
+  field: "batch" | "serial" | "part_number" = "batch",
+) {
   return db
     .selectFrom("parts_fitted as p")
     .innerJoin("work_orders as w", "w.id", "p.work_order_id")

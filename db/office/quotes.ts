@@ -14,20 +14,48 @@ import { DEPOSIT_COLUMNS } from "./deposits";
 export async function saveQuoteDraft(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, input: QuoteDraftInput) {
   const d = quoteDraftSchema.parse(input);
   return db.transaction().execute(async (trx) => {
-    const wo = await trx.selectFrom("work_orders").select(["id", "status"]).where("id", "=", workOrderId).where("shop_id", "=", shopId).forUpdate().executeTakeFirst();
+    const wo = await trx
+      .selectFrom("work_orders")
+      .select(["id", "status"])
+      .where("id", "=", workOrderId)
+      .where("shop_id", "=", shopId)
+      .forUpdate()
+      .executeTakeFirst();
     if (!wo) throw new Refusal("No such work order in this shop.", 404);
     if (!isQuotable(wo.status)) throw new Refusal("A quote can be written only before the customer approves one.", 409);
     const shop = await trx.selectFrom("shops").select(["tax_rate_bp", "currency"]).where("id", "=", shopId).executeTakeFirstOrThrow();
     const totals = quoteTotals(d.lines, shop.tax_rate_bp);
     if (d.depositMinor > totals.totalMinor) {
-      throw new Refusal("The deposit cannot be more than the quote total.", 422, [{ path: "depositMinor", message: "more than the total" }]);
+      throw new Refusal("The deposit cannot be more than the quote total.", 422, [
+        { path: "depositMinor", message: "more than the total" },
+      ]);
     }
-    let draft = await trx.selectFrom("quotes").select(["id", "version"]).where("work_order_id", "=", workOrderId).where("status", "=", "draft").executeTakeFirst();
+    let draft = await trx
+      .selectFrom("quotes")
+      .select(["id", "version"])
+      .where("work_order_id", "=", workOrderId)
+      .where("status", "=", "draft")
+      .executeTakeFirst();
     if (!draft) {
-      const last = await trx.selectFrom("quotes").select((eb) => eb.fn.max("version").as("v")).where("work_order_id", "=", workOrderId).executeTakeFirst();
+      const last = await trx
+        .selectFrom("quotes")
+        .select((eb) => eb.fn.max("version").as("v"))
+        .where("work_order_id", "=", workOrderId)
+        .executeTakeFirst();
       draft = await trx
         .insertInto("quotes")
-        .values({ shop_id: shopId, work_order_id: workOrderId, version: (last?.v ?? 0) + 1, status: "draft", currency: shop.currency, tax_rate_bp: shop.tax_rate_bp, created_by: userId, sent_at: null, approved_at: null, approved_by: null })
+        .values({
+          shop_id: shopId,
+          work_order_id: workOrderId,
+          version: (last?.v ?? 0) + 1,
+          status: "draft",
+          currency: shop.currency,
+          tax_rate_bp: shop.tax_rate_bp,
+          created_by: userId,
+          sent_at: null,
+          approved_at: null,
+          approved_by: null,
+        })
         .returning(["id", "version"])
         .executeTakeFirstOrThrow();
     }
@@ -49,7 +77,15 @@ export async function saveQuoteDraft(db: Kysely<Database>, shopId: string, userI
       .execute();
     await trx
       .updateTable("quotes")
-      .set({ tax_rate_bp: shop.tax_rate_bp, currency: shop.currency, subtotal_minor: totals.subtotalMinor, tax_minor: totals.taxMinor, total_minor: totals.totalMinor, deposit_minor: d.depositMinor, note: d.note })
+      .set({
+        tax_rate_bp: shop.tax_rate_bp,
+        currency: shop.currency,
+        subtotal_minor: totals.subtotalMinor,
+        tax_minor: totals.taxMinor,
+        total_minor: totals.totalMinor,
+        deposit_minor: d.depositMinor,
+        note: d.note,
+      })
       .where("id", "=", draft.id)
       .execute();
     return { quoteId: draft.id, version: draft.version, ...totals };
@@ -60,20 +96,39 @@ export async function saveQuoteDraft(db: Kysely<Database>, shopId: string, userI
 // work order moves to "quoted" (from booked in / inspected; it stays quoted on a revision).
 export async function sendQuote(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string) {
   return db.transaction().execute(async (trx) => {
-    const draft = await trx.selectFrom("quotes").select(["id", "version"]).where("work_order_id", "=", workOrderId).where("shop_id", "=", shopId).where("status", "=", "draft").forUpdate().executeTakeFirst();
+    const draft = await trx
+      .selectFrom("quotes")
+      .select(["id", "version"])
+      .where("work_order_id", "=", workOrderId)
+      .where("shop_id", "=", shopId)
+      .where("status", "=", "draft")
+      .forUpdate()
+      .executeTakeFirst();
     if (!draft) throw new Refusal("There is no draft quote to send.", 409);
     const wo = await trx.selectFrom("work_orders").select("status").where("id", "=", workOrderId).executeTakeFirstOrThrow();
-    if (wo.status === "booked_in") throw new Refusal("Record the inspection first: move the work order to Inspected, then send the quote.", 409);
-    await trx.updateTable("quotes").set({ status: "superseded" }).where("work_order_id", "=", workOrderId).where("status", "=", "sent").execute();
+    if (wo.status === "booked_in")
+      throw new Refusal("Record the inspection first: move the work order to Inspected, then send the quote.", 409);
+    await trx
+      .updateTable("quotes")
+      .set({ status: "superseded" })
+      .where("work_order_id", "=", workOrderId)
+      .where("status", "=", "sent")
+      .execute();
     await trx.updateTable("quotes").set({ status: "sent", sent_at: new Date() }).where("id", "=", draft.id).execute();
     if (wo.status !== "quoted") await moveWorkOrder(trx, shopId, userId, workOrderId, "quoted", { note: `quote v${draft.version} sent` });
-    await appendAudit(trx, [{ shopId, actorId: userId, action: "quote.send", entity: "quote", entityId: draft.id, workOrderId, outcome: "accepted" }]);
+    await appendAudit(trx, [
+      { shopId, actorId: userId, action: "quote.send", entity: "quote", entityId: draft.id, workOrderId, outcome: "accepted" },
+    ]);
     return { quoteId: draft.id };
   });
 }
 
 // The customer's approval from their own sign-in. Refused unless the quote is on a bike they own.
-export async function approveQuoteAsCustomer(db: Kysely<Database>, user: { id: string; shopId: string; customerId: string | null }, quoteId: string) {
+export async function approveQuoteAsCustomer(
+  db: Kysely<Database>,
+  user: { id: string; shopId: string; customerId: string | null },
+  quoteId: string,
+) {
   return db.transaction().execute(async (trx) => {
     const q = await trx
       .selectFrom("quotes as q")
@@ -84,14 +139,41 @@ export async function approveQuoteAsCustomer(db: Kysely<Database>, user: { id: s
       .forUpdate("q")
       .executeTakeFirst();
     if (!q || q.shopId !== user.shopId || !user.customerId || q.customerId !== user.customerId) {
-      await appendAudit(db, [{ shopId: user.shopId, actorId: user.id, action: "quote.approve", entity: "quote", entityId: quoteId, outcome: "refused", reason: "not this customer's quote" }]);
+      await appendAudit(db, [
+        {
+          shopId: user.shopId,
+          actorId: user.id,
+          action: "quote.approve",
+          entity: "quote",
+          entityId: quoteId,
+          outcome: "refused",
+          reason: "not this customer's quote",
+        },
+      ]);
       throw new Refusal("This quote is not yours to approve.", 403);
     }
     if (q.status === "approved") throw new Refusal("You have already approved this quote.", 409);
     if (q.status !== "sent") throw new Refusal("This quote has been replaced by a newer one; please look at the latest.", 409);
-    await trx.updateTable("quotes").set({ status: "approved", approved_at: new Date(), approved_by: user.id }).where("id", "=", quoteId).execute();
-    await moveWorkOrder(trx, user.shopId, user.id, q.workOrderId, "approved", { byCustomerApproval: true, note: "customer approved the quote" });
-    await appendAudit(trx, [{ shopId: user.shopId, actorId: user.id, action: "quote.approve", entity: "quote", entityId: quoteId, workOrderId: q.workOrderId, outcome: "accepted" }]);
+    await trx
+      .updateTable("quotes")
+      .set({ status: "approved", approved_at: new Date(), approved_by: user.id })
+      .where("id", "=", quoteId)
+      .execute();
+    await moveWorkOrder(trx, user.shopId, user.id, q.workOrderId, "approved", {
+      byCustomerApproval: true,
+      note: "customer approved the quote",
+    });
+    await appendAudit(trx, [
+      {
+        shopId: user.shopId,
+        actorId: user.id,
+        action: "quote.approve",
+        entity: "quote",
+        entityId: quoteId,
+        workOrderId: q.workOrderId,
+        outcome: "accepted",
+      },
+    ]);
     return { workOrderId: q.workOrderId };
   });
 }
@@ -132,7 +214,13 @@ export async function quoteWithLines(db: Kysely<Database>, shopId: string, quote
 
 // The quotes of a work order, newest first, each with lines and deposits.
 export async function quotesOfWorkOrder(db: Kysely<Database>, shopId: string, workOrderId: string) {
-  const ids = await db.selectFrom("quotes").select("id").where("work_order_id", "=", workOrderId).where("shop_id", "=", shopId).orderBy("version", "desc").execute();
+  const ids = await db
+    .selectFrom("quotes")
+    .select("id")
+    .where("work_order_id", "=", workOrderId)
+    .where("shop_id", "=", shopId)
+    .orderBy("version", "desc")
+    .execute();
   const out = [];
   for (const { id } of ids) out.push((await quoteWithLines(db, shopId, id))!);
   return out;

@@ -5,10 +5,7 @@ import type { FieldIssue } from "@/lib/errors";
 import { saveDynoRun } from "./dyno";
 import type { Database } from "../schema";
 
-type DynoImportResult =
-  | { ok: true; id: string }
-  | { ok: false; status: 400; issues: FieldIssue[] }
-  | { ok: false; status: 404 };
+type DynoImportResult = { ok: true; id: string } | { ok: false; status: 400; issues: FieldIssue[] } | { ok: false; status: 404 };
 
 /**
  * Checks a new run (fields and curve, from the table or a CSV file) and stores it, or stores

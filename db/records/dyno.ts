@@ -43,7 +43,12 @@ export async function listDynoWorkOrders(db: Kysely<Database>, shopId: string) {
       "b.make",
       "b.model",
       "b.tag_code as tagCode",
-      eb.selectFrom("dyno_runs as r").select(eb.fn.countAll<number>().as("n")).whereRef("r.work_order_id", "=", "w.id").where("r.withdrawn_at", "is", null).as("runCount"),
+      eb
+        .selectFrom("dyno_runs as r")
+        .select(eb.fn.countAll<number>().as("n"))
+        .whereRef("r.work_order_id", "=", "w.id")
+        .where("r.withdrawn_at", "is", null)
+        .as("runCount"),
     ])
     .where("w.shop_id", "=", shopId)
     .where("w.status", "in", DYNO_STATUSES)
@@ -102,7 +107,10 @@ export async function listDynoRuns(db: Kysely<Database>, shopId: string, workOrd
     torqueUnit: r.torque_unit,
     notes: r.notes,
     points: points.filter((p) => p.run_id === r.id).map((p) => ({ rpm: Number(p.rpm), torque: Number(p.torque) })),
-    withdrawn: r.withdrawn_at && r.withdrawn_reason ? { at: r.withdrawn_at.toISOString(), byName: r.withdrawnByName, reason: r.withdrawn_reason } : null,
+    withdrawn:
+      r.withdrawn_at && r.withdrawn_reason
+        ? { at: r.withdrawn_at.toISOString(), byName: r.withdrawnByName, reason: r.withdrawn_reason }
+        : null,
   }));
 }
 
@@ -118,7 +126,12 @@ export async function saveDynoRun(
   run: DynoRunInput,
 ): Promise<string | null> {
   return db.transaction().execute(async (trx) => {
-    const job = await trx.selectFrom("work_orders").select("id").where("shop_id", "=", shopId).where("id", "=", workOrderId).executeTakeFirst();
+    const job = await trx
+      .selectFrom("work_orders")
+      .select("id")
+      .where("shop_id", "=", shopId)
+      .where("id", "=", workOrderId)
+      .executeTakeFirst();
     if (!job) return null;
     const { id } = await trx
       .insertInto("dyno_runs")
@@ -171,7 +184,15 @@ export async function withdrawDynoRun(
       .forUpdate()
       .executeTakeFirst();
     if (!run) return { ok: false, status: 404, reason: "No such dyno run on this work order." };
-    const audit = { shopId: user.shopId, actorId: user.id, action: "dyno.run-withdrawn", entity: "dyno_run", entityId: run.id, workOrderId, reason: input.reason };
+    const audit = {
+      shopId: user.shopId,
+      actorId: user.id,
+      action: "dyno.run-withdrawn",
+      entity: "dyno_run",
+      entityId: run.id,
+      workOrderId,
+      reason: input.reason,
+    };
     if (run.withdrawn_at) {
       await appendAudit(trx, [{ ...audit, outcome: "refused", detail: { label: run.label, why: "already withdrawn" } }]);
       return { ok: false, status: 409, reason: "This run was already withdrawn." };

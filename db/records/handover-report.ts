@@ -13,7 +13,11 @@ import { workOrdersWithBike } from "../shop/work-orders";
  * The work order (id, number, bike tag) when `user` may have its report: staff of the same shop,
  * or the customer who owns the bike. null otherwise (the caller answers 404 and shows nothing).
  */
-export async function reportWorkOrderFor(db: Kysely<Database>, user: SessionUser, workOrderId: string): Promise<{ id: string; number: number; tagCode: string } | null> {
+export async function reportWorkOrderFor(
+  db: Kysely<Database>,
+  user: SessionUser,
+  workOrderId: string,
+): Promise<{ id: string; number: number; tagCode: string } | null> {
   let q = db
     .selectFrom("work_orders as w")
     .innerJoin("bikes as b", "b.id", "w.bike_id")
@@ -103,7 +107,9 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
       "t.position as stepPosition",
     ])
     .where("m.work_order_id", "=", workOrderId)
-    .where(({ not, exists, selectFrom }) => not(exists(selectFrom("measurements as later").select("later.id").whereRef("later.supersedes_id", "=", "m.id"))))
+    .where(({ not, exists, selectFrom }) =>
+      not(exists(selectFrom("measurements as later").select("later.id").whereRef("later.supersedes_id", "=", "m.id"))),
+    )
     .orderBy("t.stage_position")
     .orderBy("t.position")
     .orderBy("s.key")
@@ -141,7 +147,13 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
   const signOffs = await db
     .selectFrom("sign_offs as so")
     .innerJoin("users as u", "u.id", "so.signed_by")
-    .select(["so.id", "so.job_procedure_id as jobProcedureId", "so.stage_key as stageKey", "u.name as signedBy", "so.device_time as signedAt"])
+    .select([
+      "so.id",
+      "so.job_procedure_id as jobProcedureId",
+      "so.stage_key as stageKey",
+      "u.name as signedBy",
+      "so.device_time as signedAt",
+    ])
     .where("so.work_order_id", "=", workOrderId)
     .orderBy("so.device_time")
     .execute();

@@ -26,7 +26,13 @@ export async function partsOfWorkOrder(db: Kysely<Database>, shopId: string, wor
     .leftJoin("template_steps as s", "s.id", "p.step_id")
     .leftJoin("users as u", "u.id", "p.fitted_by")
     .leftJoin("operations as o", "o.id", "p.operation_id")
-    .select([...partColumns, "s.title as stepTitle", "u.name as fittedByName", "p.operation_id as operationId", "o.flag_reason as flagReason"])
+    .select([
+      ...partColumns,
+      "s.title as stepTitle",
+      "u.name as fittedByName",
+      "p.operation_id as operationId",
+      "o.flag_reason as flagReason",
+    ])
     .where("p.work_order_id", "=", workOrderId)
     .where("p.shop_id", "=", shopId)
     .orderBy("p.fitted_at")

@@ -19,7 +19,13 @@ type DecideResult =
  * out-of-tolerance readings, and the audit entry. A refusal saves nothing but its audit entry.
  * A send-back reaches the mechanic's tablet through the sync change feed (db/sync/changes.ts).
  */
-export async function decideOnSignOff(db: Kysely<Database>, user: SessionUser, signOffId: string, input: DecisionInput, deviceId: string | null = null): Promise<DecideResult> {
+export async function decideOnSignOff(
+  db: Kysely<Database>,
+  user: SessionUser,
+  signOffId: string,
+  input: DecisionInput,
+  deviceId: string | null = null,
+): Promise<DecideResult> {
   return db.transaction().execute(async (trx) => {
     await sql`SELECT benchtag_lock_shop_sync(${user.shopId}::uuid)`.execute(trx);
     const so = await signOffInShop(trx, user.shopId, signOffId);
@@ -104,7 +110,11 @@ export async function decideOnSignOff(db: Kysely<Database>, user: SessionUser, s
           stageKey: so.stageKey,
           reopenedStepIds: check.reopenStepIds,
           reopenedSteps: steps.filter((s) => check.reopenStepIds.includes(s.id)).map((s) => s.title),
-          acceptances: input.acceptances.map((a) => ({ readingId: a.readingId, reading: described.get(a.readingId), justification: a.justification })),
+          acceptances: input.acceptances.map((a) => ({
+            readingId: a.readingId,
+            reading: described.get(a.readingId),
+            justification: a.justification,
+          })),
         },
       },
     ]);

@@ -7,7 +7,14 @@ import { getJobSnapshot } from "../bench/jobs";
 import type { Database } from "../schema";
 
 export interface SignOffReview extends StageReview {
-  job: { id: string; number: number; title: string; status: string; statusLabel: string; bike: { make: string; model: string; tagCode: string } };
+  job: {
+    id: string;
+    number: number;
+    title: string;
+    status: string;
+    statusLabel: string;
+    bike: { make: string; model: string; tagCode: string };
+  };
   /** The decision standing now (the newest on this sign-off), for the "expectedDecisionId" guard. */
   standingDecisionId: string | null;
   mayDecide: boolean;
@@ -43,13 +50,33 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
     db
       .selectFrom("sign_offs as s")
       .innerJoin("operations as o", "o.id", "s.id")
-      .select(["s.id", "s.job_procedure_id", "s.stage_key", "s.signed_by", "s.device_time", "s.received_at", "o.device_id", sql<string>`o.seq::text`.as("seq"), "o.flagged", "o.flag_reason"])
+      .select([
+        "s.id",
+        "s.job_procedure_id",
+        "s.stage_key",
+        "s.signed_by",
+        "s.device_time",
+        "s.received_at",
+        "o.device_id",
+        sql<string>`o.seq::text`.as("seq"),
+        "o.flagged",
+        "o.flag_reason",
+      ])
       .where("s.work_order_id", "=", so.workOrderId)
       .execute(),
     db
       .selectFrom("review_decisions as d")
       .innerJoin("sign_offs as s", "s.id", "d.sign_off_id")
-      .select(["d.id", "d.sign_off_id", "d.decision", "d.reason", "d.reopened_step_ids", "d.decided_by", "d.decided_at", sql<string>`d.change_seq::text`.as("change_seq")])
+      .select([
+        "d.id",
+        "d.sign_off_id",
+        "d.decision",
+        "d.reason",
+        "d.reopened_step_ids",
+        "d.decided_by",
+        "d.decided_at",
+        sql<string>`d.change_seq::text`.as("change_seq"),
+      ])
       .where("s.work_order_id", "=", so.workOrderId)
       .execute(),
   ]);
@@ -59,7 +86,13 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
     {
       receipts: new Map(receipts.map((r) => [r.id, { receivedAt: iso(r.received_at), deviceId: r.device_id }])),
       names: new Map(names.map((u) => [u.id, u.name])),
-      acceptances: acceptances.map((a) => ({ measurementId: a.measurement_id, decisionId: a.decision_id, justification: a.justification, acceptedBy: a.accepted_by, acceptedAt: iso(a.accepted_at) })),
+      acceptances: acceptances.map((a) => ({
+        measurementId: a.measurement_id,
+        decisionId: a.decision_id,
+        justification: a.justification,
+        acceptedBy: a.accepted_by,
+        acceptedAt: iso(a.accepted_at),
+      })),
       signOffs: signOffs.map((s) => ({
         id: s.id,
         jobProcedureId: s.job_procedure_id,
@@ -72,18 +105,16 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
         flagged: s.flagged,
         flagReason: s.flag_reason,
       })),
-      decisions: decisions.map(
-        (d): DecisionFact => ({
-          id: d.id,
-          signOffId: d.sign_off_id,
-          decision: d.decision,
-          reason: d.reason,
-          reopenedStepIds: d.reopened_step_ids,
-          decidedBy: d.decided_by,
-          decidedAt: iso(d.decided_at),
-          seq: d.change_seq,
-        }),
-      ),
+      decisions: decisions.map((d): DecisionFact => ({
+        id: d.id,
+        signOffId: d.sign_off_id,
+        decision: d.decision,
+        reason: d.reason,
+        reopenedStepIds: d.reopened_step_ids,
+        decidedBy: d.decided_by,
+        decidedAt: iso(d.decided_at),
+        seq: d.change_seq,
+      })),
     },
     signOffId,
   );

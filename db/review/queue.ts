@@ -76,7 +76,9 @@ function filters(o: Partial<QueueQuery>) {
   if (o.outOfTolerance === "no") parts.push(sql`q.out_of_tolerance = 0`);
   if (o.q) {
     const like = `%${o.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
-    parts.push(sql`(q.tag_code ILIKE ${like} OR q.make ILIKE ${like} OR q.model ILIKE ${like} OR (q.make || ' ' || q.model) ILIKE ${like})`);
+    parts.push(
+      sql`(q.tag_code ILIKE ${like} OR q.make ILIKE ${like} OR q.model ILIKE ${like} OR (q.make || ' ' || q.model) ILIKE ${like})`,
+    );
   }
   return sql.join(parts, sql` AND `);
 }
@@ -87,9 +89,23 @@ export async function pageReviewQueue(db: Kysely<Database>, shopId: string, o: Q
   const [count, rows] = await Promise.all([
     sql<{ n: number }>`${waiting(shopId)} SELECT count(*)::int AS n FROM q WHERE ${filters(o)}`.execute(db),
     sql<{
-      id: string; work_order_id: string; number: number; job_title: string; make: string; model: string; tag_code: string; stage_key: string;
-      stage_title: string; procedure_name: string; signed_by: string; mechanic_name: string; device_time: Date; received_at: Date;
-      flag_reason: string | null; out_of_tolerance: number; resubmitted: boolean;
+      id: string;
+      work_order_id: string;
+      number: number;
+      job_title: string;
+      make: string;
+      model: string;
+      tag_code: string;
+      stage_key: string;
+      stage_title: string;
+      procedure_name: string;
+      signed_by: string;
+      mechanic_name: string;
+      device_time: Date;
+      received_at: Date;
+      flag_reason: string | null;
+      out_of_tolerance: number;
+      resubmitted: boolean;
     }>`${waiting(shopId)} SELECT * FROM q WHERE ${filters(o)} ORDER BY ${order} LIMIT ${o.size} OFFSET ${o.page * o.size}`.execute(db),
   ]);
   return {

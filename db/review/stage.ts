@@ -67,10 +67,25 @@ export async function stageSteps(db: Db, templateVersionId: string, stageKey: st
 }
 
 /** Current readings of the stage's steps on the job that are out of tolerance, with whether each is accepted. */
-export async function stageOutOfTolerance(db: Db, workOrderId: string, templateVersionId: string, stageKey: string): Promise<StageOutOfTolerance[]> {
+export async function stageOutOfTolerance(
+  db: Db,
+  workOrderId: string,
+  templateVersionId: string,
+  stageKey: string,
+): Promise<StageOutOfTolerance[]> {
   const r = await sql<{
-    id: string; step_id: string; step_title: string; label: string; reading_labels: string[]; reading_index: number;
-    value: string; unit: string; verdict: "low" | "high"; min: string; max: string; accepted: boolean;
+    id: string;
+    step_id: string;
+    step_title: string;
+    label: string;
+    reading_labels: string[];
+    reading_index: number;
+    value: string;
+    unit: string;
+    verdict: "low" | "high";
+    min: string;
+    max: string;
+    accepted: boolean;
   }>`
     SELECT cm.id, cm.step_id, ts.title AS step_title, ms.label, ms.reading_labels, cm.reading_index, cm.value::text AS value,
       cm.unit, cm.verdict, ms.min::text AS min, ms.max::text AS max,

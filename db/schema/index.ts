@@ -10,13 +10,6 @@ import type { WorkOrderTables } from "./work-orders";
 
 // The whole database as Kysely sees it: one file per subject in this folder.
 export interface Database
-  extends ShopTables,
-    TemplateTables,
-    WorkOrderTables,
-    BenchTables,
-    ReviewTables,
-    OfficeTables,
-    DynoTables,
-    AuditTables {}
+  extends ShopTables, TemplateTables, WorkOrderTables, BenchTables, ReviewTables, OfficeTables, DynoTables, AuditTables {}
 
 export type User = Selectable<UsersTable>;

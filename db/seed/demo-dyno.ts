@@ -26,7 +26,14 @@ const DEVICE = "demo-tablet-1";
 const ts = (d: Date) => sql<never>`${d.toISOString()}::timestamptz`;
 
 /** One operation row (the append-only record every bench row points at); returns its id. */
-async function operation<K extends Operation["kind"]>(db: Kysely<Database>, ctx: BuildRecordContext, kind: K, at: Date, counter: number, payload: Extract<Operation, { kind: K }>["payload"]) {
+async function operation<K extends Operation["kind"]>(
+  db: Kysely<Database>,
+  ctx: BuildRecordContext,
+  kind: K,
+  at: Date,
+  counter: number,
+  payload: Extract<Operation, { kind: K }>["payload"],
+) {
   const id = randomUUID();
   await db
     .insertInto("operations")
@@ -57,15 +64,43 @@ const READINGS: Record<string, number[]> = {
 };
 
 const PARTS = [
-  { part: "KF-7600-FP", description: "Forged pistons, 76.00 mm, 8.8:1 set of 4", supplier: "Keelforge Components", serial: "KF24-1187 … 1190", batch: "B24-331" },
-  { part: "KF-RS76-T", description: "Ring set, turbo top-ring material, 76.00 mm", supplier: "Keelforge Components", serial: null, batch: "R24-072" },
+  {
+    part: "KF-7600-FP",
+    description: "Forged pistons, 76.00 mm, 8.8:1 set of 4",
+    supplier: "Keelforge Components",
+    serial: "KF24-1187 … 1190",
+    batch: "B24-331",
+  },
+  {
+    part: "KF-RS76-T",
+    description: "Ring set, turbo top-ring material, 76.00 mm",
+    supplier: "Keelforge Components",
+    serial: null,
+    batch: "R24-072",
+  },
   { part: "HRD-RB8", description: "Rod bolts, set of 8 (new, stretch type)", supplier: "Harrow Fasteners", serial: null, batch: "HF-5519" },
-  { part: "MLS-998-070", description: "Multi-layer head gasket, 0.70 mm", supplier: "Layerline Gaskets", serial: "LL-88213", batch: "LL-2411" },
-  { part: "CA-IC-320", description: "Charge-air cooler core, 320 × 180 mm", supplier: "Fenwick Thermal", serial: "FT-320-0457", batch: null },
+  {
+    part: "MLS-998-070",
+    description: "Multi-layer head gasket, 0.70 mm",
+    supplier: "Layerline Gaskets",
+    serial: "LL-88213",
+    batch: "LL-2411",
+  },
+  {
+    part: "CA-IC-320",
+    description: "Charge-air cooler core, 320 × 180 mm",
+    supplier: "Fenwick Thermal",
+    serial: "FT-320-0457",
+    batch: null,
+  },
 ];
 
 /** Completes the bottom-end procedure and the head prep stage with readings, torque, parts and reviews. */
-export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecordContext, parts: readonly (typeof PARTS)[number][] = PARTS): Promise<void> {
+export async function seedDemoBuildRecord(
+  db: Kysely<Database>,
+  ctx: BuildRecordContext,
+  parts: readonly (typeof PARTS)[number][] = PARTS,
+): Promise<void> {
   const procedures = await db
     .selectFrom("job_procedures as jp")
     .innerJoin("template_versions as tv", "tv.id", "jp.template_version_id")
@@ -93,45 +128,116 @@ export async function seedDemoBuildRecord(db: Kysely<Database>, ctx: BuildRecord
         for (const spec of specs) {
           for (const [i, value] of (READINGS[spec.key] ?? []).entries()) {
             const when = at();
-            const verdict = evaluateTolerance(value, { unit: spec.unit, nominal: spec.nominal === null ? undefined : Number(spec.nominal), min: Number(spec.min), max: Number(spec.max) }).status;
+            const verdict = evaluateTolerance(value, {
+              unit: spec.unit,
+              nominal: spec.nominal === null ? undefined : Number(spec.nominal),
+              min: Number(spec.min),
+              max: Number(spec.max),
+            }).status;
             const stamp = formatStamp({ wallMs: when.getTime(), counter, deviceId: DEVICE });
-            const id = await operation(db, ctx, "measurement.recorded", when, counter++, { stepId: step.id, specId: spec.id, readingIndex: i, value, unit: spec.unit });
+            const id = await operation(db, ctx, "measurement.recorded", when, counter++, {
+              stepId: step.id,
+              specId: spec.id,
+              readingIndex: i,
+              value,
+              unit: spec.unit,
+            });
             await db
               .insertInto("measurements")
-              .values({ id, work_order_id: ctx.workOrderId, step_id: step.id, spec_id: spec.id, reading_index: i, value, unit: spec.unit, verdict, recorded_by: ctx.mechanicId, device_id: DEVICE, device_time: when, stamp })
+              .values({
+                id,
+                work_order_id: ctx.workOrderId,
+                step_id: step.id,
+                spec_id: spec.id,
+                reading_index: i,
+                value,
+                unit: spec.unit,
+                verdict,
+                recorded_by: ctx.mechanicId,
+                device_id: DEVICE,
+                device_time: when,
+                stamp,
+              })
               .execute();
           }
         }
         const torqueSpecs = await db.selectFrom("torque_specs").selectAll().where("step_id", "=", step.id).execute();
         for (const spec of torqueSpecs) {
-          const passes = torquePassCount({ finalValue: Number(spec.final_value), unit: spec.unit, passes: spec.passes, anglePasses: spec.angle_passes });
+          const passes = torquePassCount({
+            finalValue: Number(spec.final_value),
+            unit: spec.unit,
+            passes: spec.passes,
+            anglePasses: spec.angle_passes,
+          });
           for (let pass = 1; pass <= passes; pass++) {
             for (let bolt = 1; bolt <= spec.bolt_count; bolt++) {
               const when = at();
-              const id = await operation(db, ctx, "torque.bolt-confirmed", when, counter++, { stepId: step.id, torqueSpecId: spec.id, passIndex: pass, bolt });
+              const id = await operation(db, ctx, "torque.bolt-confirmed", when, counter++, {
+                stepId: step.id,
+                torqueSpecId: spec.id,
+                passIndex: pass,
+                bolt,
+              });
               await db
                 .insertInto("torque_records")
-                .values({ id, work_order_id: ctx.workOrderId, step_id: step.id, torque_spec_id: spec.id, pass_index: pass, bolt, wrench_reading: null, wrench_unit: null, recorded_by: ctx.mechanicId, device_time: when })
+                .values({
+                  id,
+                  work_order_id: ctx.workOrderId,
+                  step_id: step.id,
+                  torque_spec_id: spec.id,
+                  pass_index: pass,
+                  bolt,
+                  wrench_reading: null,
+                  wrench_unit: null,
+                  recorded_by: ctx.mechanicId,
+                  device_time: when,
+                })
                 .execute();
             }
           }
         }
         const when = at();
         const id = await operation(db, ctx, "step.completed", when, counter++, { stepId: step.id });
-        await db.insertInto("step_completions").values({ id, work_order_id: ctx.workOrderId, step_id: step.id, completed_by: ctx.mechanicId, device_time: when }).execute();
+        await db
+          .insertInto("step_completions")
+          .values({ id, work_order_id: ctx.workOrderId, step_id: step.id, completed_by: ctx.mechanicId, device_time: when })
+          .execute();
       }
       const when = at();
       const signOffId = await operation(db, ctx, "stage.signed-off", when, counter++, { jobProcedureId: proc.id, stageKey: stage });
-      await db.insertInto("sign_offs").values({ id: signOffId, work_order_id: ctx.workOrderId, job_procedure_id: proc.id, stage_key: stage, signed_by: ctx.mechanicId, device_time: when }).execute();
+      await db
+        .insertInto("sign_offs")
+        .values({
+          id: signOffId,
+          work_order_id: ctx.workOrderId,
+          job_procedure_id: proc.id,
+          stage_key: stage,
+          signed_by: ctx.mechanicId,
+          device_time: when,
+        })
+        .execute();
       if (stage !== "head-prep") {
-        await db.insertInto("review_decisions").values({ sign_off_id: signOffId, decision: "approved", decided_by: ctx.supervisorId, decided_at: ts(at()) }).execute();
+        await db
+          .insertInto("review_decisions")
+          .values({ sign_off_id: signOffId, decision: "approved", decided_by: ctx.supervisorId, decided_at: ts(at()) })
+          .execute();
       }
     }
   }
   for (const p of parts) {
     await db
       .insertInto("parts_fitted")
-      .values({ shop_id: ctx.shopId, work_order_id: ctx.workOrderId, part_number: p.part, description: p.description, supplier: p.supplier, serial: p.serial, batch: p.batch, fitted_by: ctx.mechanicId, fitted_at: ts(at()) })
+      .values({
+        shop_id: ctx.shopId,
+        work_order_id: ctx.workOrderId,
+        part_number: p.part,
+        description: p.description,
+        supplier: p.supplier,
+        serial: p.serial,
+        batch: p.batch,
+        fitted_by: ctx.mechanicId,
+        fitted_at: ts(at()),
+      })
       .execute();
   }
 }
@@ -185,10 +291,31 @@ async function seedDemoDynoRuns(db: Kysely<Database>, ctx: BuildRecordContext): 
 
 /** Adds the build record and dyno runs to the demo shop's work order 1001. */
 export async function seedDemoDyno(db: Kysely<Database>, shopId: string): Promise<void> {
-  const job = await db.selectFrom("work_orders").select(["id", "assigned_mechanic_id"]).where("shop_id", "=", shopId).where("number", "=", 1001).executeTakeFirstOrThrow();
-  const supervisor = await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("role", "=", "supervisor").orderBy("email").executeTakeFirstOrThrow();
-  const ctx = { shopId, workOrderId: job.id, mechanicId: job.assigned_mechanic_id!, supervisorId: supervisor.id, start: new Date("2026-11-10T08:30:00Z") };
+  const job = await db
+    .selectFrom("work_orders")
+    .select(["id", "assigned_mechanic_id"])
+    .where("shop_id", "=", shopId)
+    .where("number", "=", 1001)
+    .executeTakeFirstOrThrow();
+  const supervisor = await db
+    .selectFrom("users")
+    .select("id")
+    .where("shop_id", "=", shopId)
+    .where("role", "=", "supervisor")
+    .orderBy("email")
+    .executeTakeFirstOrThrow();
+  const ctx = {
+    shopId,
+    workOrderId: job.id,
+    mechanicId: job.assigned_mechanic_id!,
+    supervisorId: supervisor.id,
+    start: new Date("2026-11-10T08:30:00Z"),
+  };
   // The office demo data already lists the pistons, rings and rod bolts of this job; add the rest.
-  await seedDemoBuildRecord(db, ctx, PARTS.filter((p) => ["MLS-998-070", "CA-IC-320"].includes(p.part)));
+  await seedDemoBuildRecord(
+    db,
+    ctx,
+    PARTS.filter((p) => ["MLS-998-070", "CA-IC-320"].includes(p.part)),
+  );
   await seedDemoDynoRuns(db, ctx);
 }

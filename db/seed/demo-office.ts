@@ -66,7 +66,10 @@ export async function seedDemoOffice(db: Kysely<Database>, shopId: string, offic
 
   for (const [num, q] of Object.entries(QUOTES)) {
     const workOrderId = idOf(Number(num));
-    const t = quoteTotals(q.lines.map((l) => ({ quantityHundredths: l.qty, unitPriceMinor: l.price })), shop.tax_rate_bp);
+    const t = quoteTotals(
+      q.lines.map((l) => ({ quantityHundredths: l.qty, unitPriceMinor: l.price })),
+      shop.tax_rate_bp,
+    );
     const quote = await db
       .insertInto("quotes")
       .values({
@@ -89,18 +92,50 @@ export async function seedDemoOffice(db: Kysely<Database>, shopId: string, offic
       .executeTakeFirstOrThrow();
     await db
       .insertInto("quote_lines")
-      .values(q.lines.map((l, i) => ({ quote_id: quote.id, position: i, kind: l.kind, description: l.description, part_number: l.partNumber ?? null, quantity_hundredths: l.qty, unit_price_minor: l.price, line_total_minor: t.lineTotals[i] })))
+      .values(
+        q.lines.map((l, i) => ({
+          quote_id: quote.id,
+          position: i,
+          kind: l.kind,
+          description: l.description,
+          part_number: l.partNumber ?? null,
+          quantity_hundredths: l.qty,
+          unit_price_minor: l.price,
+          line_total_minor: t.lineTotals[i],
+        })),
+      )
       .execute();
     if (q.paid) {
       await db
         .insertInto("deposits")
-        .values({ shop_id: shopId, work_order_id: workOrderId, quote_id: quote.id, amount_minor: q.deposit, currency: shop.currency, payment_intent_id: `pi_demo_${num}`, status: "paid", paid_at: new Date() })
+        .values({
+          shop_id: shopId,
+          work_order_id: workOrderId,
+          quote_id: quote.id,
+          amount_minor: q.deposit,
+          currency: shop.currency,
+          payment_intent_id: `pi_demo_${num}`,
+          status: "paid",
+          paid_at: new Date(),
+        })
         .execute();
     }
     if (Number(num) === 1005) {
       await db
         .insertInto("invoices")
-        .values({ shop_id: shopId, work_order_id: workOrderId, quote_id: quote.id, number: 5001, currency: shop.currency, subtotal_minor: t.subtotalMinor, tax_minor: t.taxMinor, total_minor: t.totalMinor, deposits_paid_minor: q.deposit, balance_due_minor: t.totalMinor - q.deposit, created_by: officeUserId })
+        .values({
+          shop_id: shopId,
+          work_order_id: workOrderId,
+          quote_id: quote.id,
+          number: 5001,
+          currency: shop.currency,
+          subtotal_minor: t.subtotalMinor,
+          tax_minor: t.taxMinor,
+          total_minor: t.totalMinor,
+          deposits_paid_minor: q.deposit,
+          balance_due_minor: t.totalMinor - q.deposit,
+          created_by: officeUserId,
+        })
         .execute();
     }
   }
@@ -116,14 +151,33 @@ export async function seedDemoOffice(db: Kysely<Database>, shopId: string, offic
   for (const p of parts) {
     await db
       .insertInto("parts_fitted")
-      .values({ shop_id: shopId, work_order_id: idOf(p.wo), step_id: null, part_number: p.part, description: p.desc, supplier: p.supplier, serial: p.serial ?? null, batch: p.batch ?? null, quantity: p.qty ?? 1, fitted_by: mechanicId })
+      .values({
+        shop_id: shopId,
+        work_order_id: idOf(p.wo),
+        step_id: null,
+        part_number: p.part,
+        description: p.desc,
+        supplier: p.supplier,
+        serial: p.serial ?? null,
+        batch: p.batch ?? null,
+        quantity: p.qty ?? 1,
+        fitted_by: mechanicId,
+      })
       .execute();
   }
 
   const notes: Array<{ wo: number; kind: "intake" | "teardown"; body: string }> = [
-    { wo: 1001, kind: "teardown", body: "Cylinder 2 piston crown eroded at the exhaust side; top ring land cracked. Bores within limits after hone." },
+    {
+      wo: 1001,
+      kind: "teardown",
+      body: "Cylinder 2 piston crown eroded at the exhaust side; top ring land cracked. Bores within limits after hone.",
+    },
     { wo: 1002, kind: "teardown", body: "Head gasket breached between cylinder 3 and the water jacket; head flat within 0.03 mm." },
     { wo: 1004, kind: "intake", body: "Tapping noise from the cam cover when warm." },
   ];
-  for (const n of notes) await db.insertInto("work_order_notes").values({ shop_id: shopId, work_order_id: idOf(n.wo), kind: n.kind, body: n.body, author_id: officeUserId }).execute();
+  for (const n of notes)
+    await db
+      .insertInto("work_order_notes")
+      .values({ shop_id: shopId, work_order_id: idOf(n.wo), kind: n.kind, body: n.body, author_id: officeUserId })
+      .execute();
 }

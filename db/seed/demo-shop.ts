@@ -57,9 +57,31 @@ const WORK_ORDERS: Array<{
     mechanic: "mechanic2",
     templates: ["cylinder-head-installation"],
   },
-  { bike: "halden", title: "Intake and exhaust upgrade, dyno tune", status: "quoted", complaint: "Wants more midrange.", odometer: 12040, templates: [] },
-  { bike: "marlin", title: "Rattle from top end at idle", status: "booked_in", complaint: "Tapping noise from the cam cover when warm.", odometer: 30110, templates: [] },
-  { bike: "corvid2", title: "Annual service and dyno check", status: "handed_over", complaint: "Routine service.", odometer: 22300, mechanic: "mechanic", templates: [] },
+  {
+    bike: "halden",
+    title: "Intake and exhaust upgrade, dyno tune",
+    status: "quoted",
+    complaint: "Wants more midrange.",
+    odometer: 12040,
+    templates: [],
+  },
+  {
+    bike: "marlin",
+    title: "Rattle from top end at idle",
+    status: "booked_in",
+    complaint: "Tapping noise from the cam cover when warm.",
+    odometer: 30110,
+    templates: [],
+  },
+  {
+    bike: "corvid2",
+    title: "Annual service and dyno check",
+    status: "handed_over",
+    complaint: "Routine service.",
+    odometer: 22300,
+    mechanic: "mechanic",
+    templates: [],
+  },
   {
     bike: "vireo",
     title: "Bottom-end refresh and head service",
@@ -169,7 +191,10 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
       .values({ work_order_id: id, from_status: null, to_status: w.status, by_user_id: userIds.get("office")!, note: "demo data" })
       .execute();
     for (const [position, key] of w.templates.entries()) {
-      await db.insertInto("job_procedures").values({ work_order_id: id, template_version_id: versionIds.get(key)!, position }).execute();
+      await db
+        .insertInto("job_procedures")
+        .values({ work_order_id: id, template_version_id: versionIds.get(key)!, position })
+        .execute();
     }
   }
   await seedDemoDyno(db, shopId);

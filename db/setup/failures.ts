@@ -6,12 +6,23 @@
 // pool giving up), the server shutting down or out of resources, and a transaction that lost a
 // serialization or deadlock race. A constraint or data error is a bug of ours (500), not this.
 
-const NETWORK_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "ETIMEDOUT", "EPIPE", "ENOTFOUND", "EAI_AGAIN", "EHOSTUNREACH", "ENETUNREACH", "ENETDOWN"]);
+const NETWORK_CODES = new Set([
+  "ECONNREFUSED",
+  "ECONNRESET",
+  "ETIMEDOUT",
+  "EPIPE",
+  "ENOTFOUND",
+  "EAI_AGAIN",
+  "EHOSTUNREACH",
+  "ENETUNREACH",
+  "ENETDOWN",
+]);
 // SQLSTATE classes: 08 connection exception, 53 insufficient resources, 57 operator intervention
 // (shutdown, statement timeout), 58 system error; and the two retryable transaction failures.
 const SQLSTATE_CLASSES = ["08", "53", "57", "58"];
 const SQLSTATE_CODES = new Set(["40001", "40P01"]);
-const MESSAGES = /Connection terminated|timeout exceeded when trying to connect|Client has encountered a connection error|Connection ended unexpectedly|the database system is (starting up|shutting down|in recovery mode)/i;
+const MESSAGES =
+  /Connection terminated|timeout exceeded when trying to connect|Client has encountered a connection error|Connection ended unexpectedly|the database system is (starting up|shutting down|in recovery mode)/i;
 
 export function isDatabaseFailure(e: unknown, depth = 0): boolean {
   if (!e || typeof e !== "object" || depth > 4) return false;

@@ -19,7 +19,11 @@ async function nextTagCode(db: Kysely<Database>, shopId: string): Promise<string
   }
   if (!prefix) {
     const shop = await db.selectFrom("shops").select("slug").where("id", "=", shopId).executeTakeFirstOrThrow();
-    prefix = shop.slug.replace(/[^a-z]/gi, "").slice(0, 3).toUpperCase() || "TAG";
+    prefix =
+      shop.slug
+        .replace(/[^a-z]/gi, "")
+        .slice(0, 3)
+        .toUpperCase() || "TAG";
   }
   // Tags are unique across shops (a scanned tag finds one bike): step past any taken elsewhere.
   for (let n = max + 1; ; n++) {
@@ -31,11 +35,17 @@ async function nextTagCode(db: Kysely<Database>, shopId: string): Promise<string
 
 export async function createBike(db: Kysely<Database>, shopId: string, input: BikeInput) {
   const b = bikeSchema.parse(input);
-  const owner = await db.selectFrom("customers").select("id").where("id", "=", b.customerId).where("shop_id", "=", shopId).executeTakeFirst();
+  const owner = await db
+    .selectFrom("customers")
+    .select("id")
+    .where("id", "=", b.customerId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
   if (!owner) throw new Refusal("Choose an owner from this shop's customers.", 422, [{ path: "customerId", message: "unknown customer" }]);
   const tag = b.tagCode || (await nextTagCode(db, shopId));
   const clash = await db.selectFrom("bikes").select("id").where("tag_code", "=", tag).executeTakeFirst();
-  if (clash) throw new Refusal(`Tag ${tag} is already on another bike.`, 422, [{ path: "tagCode", message: `tag ${tag} is already in use` }]);
+  if (clash)
+    throw new Refusal(`Tag ${tag} is already on another bike.`, 422, [{ path: "tagCode", message: `tag ${tag} is already in use` }]);
   return db
     .insertInto("bikes")
     .values({
@@ -100,7 +110,9 @@ export async function searchBikes(db: Kysely<Database>, shopId: string, search: 
     .where("b.shop_id", "=", shopId);
   if (q) {
     const like = containsPattern(q);
-    query = query.where((eb) => eb.or([eb("b.tag_code", "ilike", like), eb("b.make", "ilike", like), eb("b.model", "ilike", like), eb("c.name", "ilike", like)]));
+    query = query.where((eb) =>
+      eb.or([eb("b.tag_code", "ilike", like), eb("b.make", "ilike", like), eb("b.model", "ilike", like), eb("c.name", "ilike", like)]),
+    );
   }
   return query.orderBy("b.tag_code").limit(50).execute();
 }

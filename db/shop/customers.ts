@@ -39,7 +39,12 @@ export async function pageCustomers(db: Kysely<Database>, shopId: string, o: Pag
       "c.email",
       "c.phone",
       "c.created_at as createdAt",
-      (eb) => eb.selectFrom("bikes as b").select((e) => e.fn.countAll<number>().as("n")).whereRef("b.customer_id", "=", "c.id").as("bikeCount"),
+      (eb) =>
+        eb
+          .selectFrom("bikes as b")
+          .select((e) => e.fn.countAll<number>().as("n"))
+          .whereRef("b.customer_id", "=", "c.id")
+          .as("bikeCount"),
     ])
     .orderBy(sql.ref(sortCol), o.dir)
     .orderBy("c.id")
@@ -88,10 +93,5 @@ export async function getCustomer(db: Kysely<Database>, shopId: string, id: stri
 }
 
 export async function listCustomers(db: Kysely<Database>, shopId: string) {
-  return db
-    .selectFrom("customers")
-    .select(["id", "name", "email", "phone"])
-    .where("shop_id", "=", shopId)
-    .orderBy("name")
-    .execute();
+  return db.selectFrom("customers").select(["id", "name", "email", "phone"]).where("shop_id", "=", shopId).orderBy("name").execute();
 }

@@ -24,7 +24,12 @@ export async function createShopUser(db: Kysely<Database>, shopId: string, input
   const taken = await db.selectFrom("users").select("id").where("email", "=", input.email).executeTakeFirst();
   if (taken) throw new Refusal("That e-mail already has a sign-in.", 409, [{ path: "email", message: "already has a sign-in" }]);
   if (input.customerId) {
-    const c = await db.selectFrom("customers").select("id").where("id", "=", input.customerId).where("shop_id", "=", shopId).executeTakeFirst();
+    const c = await db
+      .selectFrom("customers")
+      .select("id")
+      .where("id", "=", input.customerId)
+      .where("shop_id", "=", shopId)
+      .executeTakeFirst();
     if (!c) throw new Refusal("That customer is not in this shop.", 400, [{ path: "customerId", message: "not a customer of this shop" }]);
     const has = await db.selectFrom("users").select("id").where("customer_id", "=", input.customerId).executeTakeFirst();
     if (has) throw new Refusal("That customer already has a sign-in.", 409, [{ path: "customerId", message: "already has a sign-in" }]);
@@ -65,9 +70,7 @@ export async function loadSessionUser(db: Kysely<Database>, id: string): Promise
     .where("id", "=", id)
     .where("active", "=", true)
     .executeTakeFirst();
-  return row
-    ? { id: row.id, shopId: row.shop_id, role: row.role, name: row.name, email: row.email, customerId: row.customer_id }
-    : null;
+  return row ? { id: row.id, shopId: row.shop_id, role: row.role, name: row.name, email: row.email, customerId: row.customer_id } : null;
 }
 
 // Failed attempts for a key (e-mail or client address) inside the rate-limit window.

@@ -76,9 +76,16 @@ export async function bookIn(db: Kysely<Database>, shopId: string, userId: strin
       .where("bike_id", "=", i.bikeId)
       .where("status", "not in", CLOSED_STATUSES)
       .executeTakeFirst();
-    if (open) throw new Refusal(`This bike already has an open work order (#${open.number}).`, 409, [{ path: "bikeId", message: `work order #${open.number} is still open` }]);
+    if (open)
+      throw new Refusal(`This bike already has an open work order (#${open.number}).`, 409, [
+        { path: "bikeId", message: `work order #${open.number} is still open` },
+      ]);
     await trx.selectFrom("shops").select("id").where("id", "=", shopId).forUpdate().execute();
-    const last = await trx.selectFrom("work_orders").select((eb) => eb.fn.max("number").as("n")).where("shop_id", "=", shopId).executeTakeFirst();
+    const last = await trx
+      .selectFrom("work_orders")
+      .select((eb) => eb.fn.max("number").as("n"))
+      .where("shop_id", "=", shopId)
+      .executeTakeFirst();
     const number = (last?.n ?? 1000) + 1;
     const wo = await trx
       .insertInto("work_orders")
@@ -95,13 +102,27 @@ export async function bookIn(db: Kysely<Database>, shopId: string, userId: strin
       })
       .returning(["id", "number"])
       .executeTakeFirstOrThrow();
-    await trx.insertInto("work_order_transitions").values({ work_order_id: wo.id, from_status: null, to_status: "booked_in", by_user_id: userId, note: "booked in" }).execute();
+    await trx
+      .insertInto("work_order_transitions")
+      .values({ work_order_id: wo.id, from_status: null, to_status: "booked_in", by_user_id: userId, note: "booked in" })
+      .execute();
     const note = await trx
       .insertInto("work_order_notes")
       .values({ shop_id: shopId, work_order_id: wo.id, kind: "intake", body: i.complaint, author_id: userId })
       .returning("id")
       .executeTakeFirstOrThrow();
-    await appendAudit(trx, [{ shopId, actorId: userId, action: "work_order.book_in", entity: "work_order", entityId: wo.id, workOrderId: wo.id, outcome: "accepted", detail: { number, odometerKm: i.odometerKm } }]);
+    await appendAudit(trx, [
+      {
+        shopId,
+        actorId: userId,
+        action: "work_order.book_in",
+        entity: "work_order",
+        entityId: wo.id,
+        workOrderId: wo.id,
+        outcome: "accepted",
+        detail: { number, odometerKm: i.odometerKm },
+      },
+    ]);
     return { ...wo, intakeNoteId: note.id };
   });
 }
@@ -135,7 +156,11 @@ async function transitionFacts(trx: Trx, workOrderId: string) {
         .where("status", "=", "paid")
         .executeTakeFirstOrThrow()
     : { s: 0 };
-  const pinned = await trx.selectFrom("job_procedures").select((eb) => eb.fn.countAll<number>().as("n")).where("work_order_id", "=", workOrderId).executeTakeFirstOrThrow();
+  const pinned = await trx
+    .selectFrom("job_procedures")
+    .select((eb) => eb.fn.countAll<number>().as("n"))
+    .where("work_order_id", "=", workOrderId)
+    .executeTakeFirstOrThrow();
   return {
     sentQuote: Boolean(quote),
     approvedQuote: quote?.status === "approved",
@@ -178,20 +203,50 @@ export async function moveWorkOrder(
     if (!check.ok) return { refused: check.reason, from: wo.status };
     const position0 = facts.proceduresPinned;
     for (const [i, versionId] of toPin.entries()) {
-      await trx.insertInto("job_procedures").values({ work_order_id: workOrderId, template_version_id: versionId, position: position0 + i }).execute();
+      await trx
+        .insertInto("job_procedures")
+        .values({ work_order_id: workOrderId, template_version_id: versionId, position: position0 + i })
+        .execute();
     }
     await trx
       .updateTable("work_orders")
       .set({ status: to, updated_at: sql`now()`, closed_at: isClosed(to) ? new Date() : null })
       .where("id", "=", workOrderId)
       .execute();
-    await trx.insertInto("work_order_transitions").values({ work_order_id: workOrderId, from_status: wo.status, to_status: to, by_user_id: userId, note: opts.note ?? "" }).execute();
-    await appendAudit(trx, [{ shopId, actorId: userId, action: "work_order.move", entity: "work_order", entityId: workOrderId, workOrderId, outcome: "accepted", detail: { from: wo.status, to, pinned: toPin } }]);
+    await trx
+      .insertInto("work_order_transitions")
+      .values({ work_order_id: workOrderId, from_status: wo.status, to_status: to, by_user_id: userId, note: opts.note ?? "" })
+      .execute();
+    await appendAudit(trx, [
+      {
+        shopId,
+        actorId: userId,
+        action: "work_order.move",
+        entity: "work_order",
+        entityId: workOrderId,
+        workOrderId,
+        outcome: "accepted",
+        detail: { from: wo.status, to, pinned: toPin },
+      },
+    ]);
     return { refused: null, from: wo.status };
   };
-  const result = "isTransaction" in db && db.isTransaction ? await run(db as Trx) : await (db as Kysely<Database>).transaction().execute(run);
+  const result =
+    "isTransaction" in db && db.isTransaction ? await run(db as Trx) : await (db as Kysely<Database>).transaction().execute(run);
   if (result.refused) {
-    await appendAudit(db, [{ shopId, actorId: userId, action: "work_order.move", entity: "work_order", entityId: workOrderId, workOrderId, outcome: "refused", reason: result.refused, detail: { from: result.from, to } }]);
+    await appendAudit(db, [
+      {
+        shopId,
+        actorId: userId,
+        action: "work_order.move",
+        entity: "work_order",
+        entityId: workOrderId,
+        workOrderId,
+        outcome: "refused",
+        reason: result.refused,
+        detail: { from: result.from, to },
+      },
+    ]);
     throw new Refusal(result.refused, 409);
   }
   return { from: result.from, to };
@@ -199,12 +254,35 @@ export async function moveWorkOrder(
 
 export async function assignMechanic(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, mechanicId: string | null) {
   if (mechanicId) {
-    const m = await db.selectFrom("users").select("id").where("id", "=", mechanicId).where("shop_id", "=", shopId).where("role", "in", ["mechanic", "supervisor"]).where("active", "=", true).executeTakeFirst();
+    const m = await db
+      .selectFrom("users")
+      .select("id")
+      .where("id", "=", mechanicId)
+      .where("shop_id", "=", shopId)
+      .where("role", "in", ["mechanic", "supervisor"])
+      .where("active", "=", true)
+      .executeTakeFirst();
     if (!m) throw new Refusal("Choose an active mechanic of this shop.", 422, [{ path: "mechanicId", message: "not a mechanic here" }]);
   }
-  const r = await db.updateTable("work_orders").set({ assigned_mechanic_id: mechanicId, updated_at: sql`now()` }).where("id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
+  const r = await db
+    .updateTable("work_orders")
+    .set({ assigned_mechanic_id: mechanicId, updated_at: sql`now()` })
+    .where("id", "=", workOrderId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
   if (!r.numUpdatedRows) throw new Refusal("No such work order in this shop.", 404);
-  await appendAudit(db, [{ shopId, actorId: userId, action: "work_order.assign", entity: "work_order", entityId: workOrderId, workOrderId, outcome: "accepted", detail: { mechanicId } }]);
+  await appendAudit(db, [
+    {
+      shopId,
+      actorId: userId,
+      action: "work_order.assign",
+      entity: "work_order",
+      entityId: workOrderId,
+      workOrderId,
+      outcome: "accepted",
+      detail: { mechanicId },
+    },
+  ]);
 }
 
 export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: string) {
@@ -283,11 +361,29 @@ export async function workOrderInShop(db: Kysely<Database>, shopId: string, id: 
 }
 
 export async function mechanicsOf(db: Kysely<Database>, shopId: string) {
-  return db.selectFrom("users").select(["id", "name"]).where("shop_id", "=", shopId).where("role", "in", ["mechanic", "supervisor"]).where("active", "=", true).orderBy("name").execute();
+  return db
+    .selectFrom("users")
+    .select(["id", "name"])
+    .where("shop_id", "=", shopId)
+    .where("role", "in", ["mechanic", "supervisor"])
+    .where("active", "=", true)
+    .orderBy("name")
+    .execute();
 }
 
-export async function addNote(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, kind: "intake" | "teardown" | "general", body: string) {
+export async function addNote(
+  db: Kysely<Database>,
+  shopId: string,
+  userId: string,
+  workOrderId: string,
+  kind: "intake" | "teardown" | "general",
+  body: string,
+) {
   const wo = await db.selectFrom("work_orders").select("id").where("id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
   if (!wo) throw new Refusal("No such work order in this shop.", 404);
-  return db.insertInto("work_order_notes").values({ shop_id: shopId, work_order_id: workOrderId, kind, body, author_id: userId }).returning("id").executeTakeFirstOrThrow();
+  return db
+    .insertInto("work_order_notes")
+    .values({ shop_id: shopId, work_order_id: workOrderId, kind, body, author_id: userId })
+    .returning("id")
+    .executeTakeFirstOrThrow();
 }

@@ -12,7 +12,6 @@ import type { Database } from "../schema";
 
 type Db = Kysely<Database> | Transaction<Database>;
 
-
 interface ChangePage {
   changes: Change[];
   cursor: string;
@@ -94,41 +93,37 @@ export async function changesSince(
   ]);
 
   const all: Change[] = [
-    ...ops.rows.map(
-      (o): Change => ({
-        type: "operation",
-        seq: String(o.seq),
-        operation: {
-          id: o.id,
-          kind: o.kind,
-          workOrderId: o.work_order_id,
-          authorId: o.author_id,
-          deviceId: o.device_id,
-          deviceTime: o.device_time.toISOString(),
-          stamp: o.stamp,
-          payload: o.payload,
-        } as Operation,
-        flagged: o.flagged,
-        flagReason: o.flag_reason,
-      }),
-    ),
-    ...decisions.rows.map(
-      (d): Change => ({
-        type: "review",
-        seq: String(d.change_seq),
-        stamp: serverStamp(d.decided_at.getTime()),
-        decisionId: d.id,
-        workOrderId: d.work_order_id,
-        signOffId: d.sign_off_id,
-        jobProcedureId: d.job_procedure_id,
-        stageKey: d.stage_key,
-        decision: d.decision,
-        reason: d.reason,
-        reopenedStepIds: d.reopened_step_ids,
-        decidedBy: d.decided_by,
-        decidedAt: d.decided_at.toISOString(),
-      }),
-    ),
+    ...ops.rows.map((o): Change => ({
+      type: "operation",
+      seq: String(o.seq),
+      operation: {
+        id: o.id,
+        kind: o.kind,
+        workOrderId: o.work_order_id,
+        authorId: o.author_id,
+        deviceId: o.device_id,
+        deviceTime: o.device_time.toISOString(),
+        stamp: o.stamp,
+        payload: o.payload,
+      } as Operation,
+      flagged: o.flagged,
+      flagReason: o.flag_reason,
+    })),
+    ...decisions.rows.map((d): Change => ({
+      type: "review",
+      seq: String(d.change_seq),
+      stamp: serverStamp(d.decided_at.getTime()),
+      decisionId: d.id,
+      workOrderId: d.work_order_id,
+      signOffId: d.sign_off_id,
+      jobProcedureId: d.job_procedure_id,
+      stageKey: d.stage_key,
+      decision: d.decision,
+      reason: d.reason,
+      reopenedStepIds: d.reopened_step_ids,
+      decidedBy: d.decided_by,
+      decidedAt: d.decided_at.toISOString(),
+    })),
   ].sort((a, b) => Number(a.seq) - Number(b.seq));
 
   if (all.length > limit) {

@@ -32,7 +32,11 @@ const anyId = (ids: Iterable<string>) => sql<string>`ANY(${[...ids]}::uuid[])`;
 export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonly string[]): Promise<Map<string, LoadedWorkOrder>> {
   const out = new Map<string, LoadedWorkOrder>();
   if (!jobIds.length) return out;
-  const jobs = await db.selectFrom("work_orders").select(["id", "shop_id", "bike_id", "number", "status", "assigned_mechanic_id"]).where("id", "=", anyId(jobIds)).execute();
+  const jobs = await db
+    .selectFrom("work_orders")
+    .select(["id", "shop_id", "bike_id", "number", "status", "assigned_mechanic_id"])
+    .where("id", "=", anyId(jobIds))
+    .execute();
   for (const j of jobs) {
     out.set(j.id, {
       id: j.id,
@@ -148,8 +152,16 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
   }
   const none = Promise.resolve([]);
   const [readings, timers, attachments, parts, serials] = await Promise.all([
-    readingIds.size ? db.selectFrom("measurements").select(["id", "work_order_id", "spec_id", "reading_index"]).where("id", "=", anyId(readingIds)).execute() : none,
-    timerIds.size ? db.selectFrom("timers").select(["id", "work_order_id", "started_at", "stopped_at"]).where("id", "=", anyId(timerIds)).execute() : none,
+    readingIds.size
+      ? db
+          .selectFrom("measurements")
+          .select(["id", "work_order_id", "spec_id", "reading_index"])
+          .where("id", "=", anyId(readingIds))
+          .execute()
+      : none,
+    timerIds.size
+      ? db.selectFrom("timers").select(["id", "work_order_id", "started_at", "stopped_at"]).where("id", "=", anyId(timerIds)).execute()
+      : none,
     attachmentIds.size ? db.selectFrom("attachments").select("id").where("id", "=", anyId(attachmentIds)).execute() : none,
     partIds.size ? db.selectFrom("parts_fitted").select("id").where("id", "=", anyId(partIds)).execute() : none,
     serialJobIds.size
@@ -165,7 +177,11 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
   ]);
   for (const r of readings) state.readings.set(r.id, { workOrderId: r.work_order_id, specId: r.spec_id, readingIndex: r.reading_index });
   for (const t of timers) {
-    state.timers.set(t.id, { workOrderId: t.work_order_id, startedAtMs: t.started_at.getTime(), stoppedAtMs: t.stopped_at?.getTime() ?? null });
+    state.timers.set(t.id, {
+      workOrderId: t.work_order_id,
+      startedAtMs: t.started_at.getTime(),
+      stoppedAtMs: t.stopped_at?.getTime() ?? null,
+    });
   }
   for (const a of attachments) state.attachmentIds.add(a.id);
   for (const p of parts) state.partIds.add(p.id);

@@ -75,26 +75,27 @@ export async function mergeBatch(
     }
 
     // Accepted operations were audited by writeKept; refusals are audited here (once per reason).
-    const logged = await refusalsOnRecord(trx, refused.map((r) => r.id));
+    const logged = await refusalsOnRecord(
+      trx,
+      refused.map((r) => r.id),
+    );
     await appendAuditBatch(
       trx,
       refused
         .filter((r) => !logged.has(`${r.id}\n${r.reason}`))
-        .map(
-          (r): AuditEntry => ({
-            shopId: actor.shopId,
-            actorId: actor.id,
-            deviceId: batch.deviceId,
-            action: `sync.${r.op.kind}`,
-            entity: "operation",
-            entityId: r.id,
-            // Only a job of this shop is linked; the named id stays in the detail.
-            workOrderId: jobs.get(r.op.workOrderId)?.shopId === actor.shopId ? r.op.workOrderId : null,
-            outcome: "refused",
-            reason: r.reason,
-            detail: { operation: r.op },
-          }),
-        ),
+        .map((r): AuditEntry => ({
+          shopId: actor.shopId,
+          actorId: actor.id,
+          deviceId: batch.deviceId,
+          action: `sync.${r.op.kind}`,
+          entity: "operation",
+          entityId: r.id,
+          // Only a job of this shop is linked; the named id stays in the detail.
+          workOrderId: jobs.get(r.op.workOrderId)?.shopId === actor.shopId ? r.op.workOrderId : null,
+          outcome: "refused",
+          reason: r.reason,
+          detail: { operation: r.op },
+        })),
     );
 
     const page = await changesSince(trx, actor.shopId, batch.deviceId, cursor);

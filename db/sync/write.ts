@@ -20,7 +20,11 @@ type PgType = "uuid" | "int" | "numeric" | "text" | "timestamptz" | "jsonb" | "b
 
 /** `json_to_recordset(...) AS x(<these>)`: every field of the row, with its PostgreSQL type. */
 function recordset<R>(columns: { [K in keyof R]-?: PgType }) {
-  return sql.raw(Object.entries(columns).map(([name, type]) => `${name} ${type}`).join(", "));
+  return sql.raw(
+    Object.entries(columns)
+      .map(([name, type]) => `${name} ${type}`)
+      .join(", "),
+  );
 }
 
 /** A field of one operation kind's payload, read from the row's JSON as `type`. */

@@ -10,7 +10,16 @@ export async function templatesWithVersions(db: Kysely<Database>, shopId: string
     .selectFrom("template_versions as v")
     .innerJoin("procedure_templates as t", "t.id", "v.template_id")
     .leftJoin("users as u", "u.id", "v.created_by")
-    .select(["t.id as templateId", "t.key", "v.id as versionId", "v.version", "v.name", "v.example_only as exampleOnly", "v.created_at as createdAt", "u.name as createdByName"])
+    .select([
+      "t.id as templateId",
+      "t.key",
+      "v.id as versionId",
+      "v.version",
+      "v.name",
+      "v.example_only as exampleOnly",
+      "v.created_at as createdAt",
+      "u.name as createdByName",
+    ])
     .where("t.shop_id", "=", shopId)
     .orderBy("t.key")
     .orderBy("v.version", "desc")
@@ -27,7 +36,12 @@ export async function templatesWithVersions(db: Kysely<Database>, shopId: string
 const num = (v: string | null) => (v === null ? null : Number(v));
 
 // A stored version as our own template document (the export format). Latest when version is omitted.
-export async function loadTemplateDocument(db: Kysely<Database>, shopId: string, key: string, version?: number): Promise<TemplateDocument | null> {
+export async function loadTemplateDocument(
+  db: Kysely<Database>,
+  shopId: string,
+  key: string,
+  version?: number,
+): Promise<TemplateDocument | null> {
   let q = db
     .selectFrom("template_versions as v")
     .innerJoin("procedure_templates as t", "t.id", "v.template_id")
@@ -37,13 +51,32 @@ export async function loadTemplateDocument(db: Kysely<Database>, shopId: string,
   q = version ? q.where("v.version", "=", version) : q.orderBy("v.version", "desc");
   const v = await q.executeTakeFirst();
   if (!v) return null;
-  const steps = await db.selectFrom("template_steps").selectAll().where("template_version_id", "=", v.id).orderBy("stage_position").orderBy("position").execute();
+  const steps = await db
+    .selectFrom("template_steps")
+    .selectAll()
+    .where("template_version_id", "=", v.id)
+    .orderBy("stage_position")
+    .orderBy("position")
+    .execute();
   const stepIds = steps.map((s) => s.id);
   const none = ["00000000-0000-0000-0000-000000000000"];
   const [torque, meas, timers] = await Promise.all([
-    db.selectFrom("torque_specs").selectAll().where("step_id", "in", stepIds.length ? stepIds : none).orderBy("id").execute(),
-    db.selectFrom("measurement_specs").selectAll().where("step_id", "in", stepIds.length ? stepIds : none).execute(),
-    db.selectFrom("timer_specs").selectAll().where("step_id", "in", stepIds.length ? stepIds : none).execute(),
+    db
+      .selectFrom("torque_specs")
+      .selectAll()
+      .where("step_id", "in", stepIds.length ? stepIds : none)
+      .orderBy("id")
+      .execute(),
+    db
+      .selectFrom("measurement_specs")
+      .selectAll()
+      .where("step_id", "in", stepIds.length ? stepIds : none)
+      .execute(),
+    db
+      .selectFrom("timer_specs")
+      .selectAll()
+      .where("step_id", "in", stepIds.length ? stepIds : none)
+      .execute(),
   ]);
   const stages: TemplateDocumentInput["stages"] = [];
   for (const s of steps) {
@@ -59,16 +92,31 @@ export async function loadTemplateDocument(db: Kysely<Database>, shopId: string,
       instructions: s.instructions,
       cautions: s.cautions,
       requiresPhoto: s.requires_photo,
-      torque: torque
-        .filter((t) => t.step_id === s.id)
-        .map(torqueSpecOfRow),
+      torque: torque.filter((t) => t.step_id === s.id).map(torqueSpecOfRow),
       measurements: meas
         .filter((m) => m.step_id === s.id)
-        .map((m) => ({ key: m.key, label: m.label, nominal: num(m.nominal), min: Number(m.min), max: Number(m.max), unit: m.unit, readingLabels: m.reading_labels, geometry: m.geometry })),
+        .map((m) => ({
+          key: m.key,
+          label: m.label,
+          nominal: num(m.nominal),
+          min: Number(m.min),
+          max: Number(m.max),
+          unit: m.unit,
+          readingLabels: m.reading_labels,
+          geometry: m.geometry,
+        })),
       timer: timer ? { label: timer.label, durationS: timer.duration_s, blocksStepKey: timer.blocks_step_key } : null,
     });
   }
-  return templateDocumentSchema.parse({ format: "benchtag-template", formatVersion: 1, key: v.key, name: v.name, summary: v.summary, exampleOnly: v.example_only, stages });
+  return templateDocumentSchema.parse({
+    format: "benchtag-template",
+    formatVersion: 1,
+    key: v.key,
+    name: v.name,
+    summary: v.summary,
+    exampleOnly: v.example_only,
+    stages,
+  });
 }
 
 // Imports validated documents as new versions, all in one transaction: every one or none.

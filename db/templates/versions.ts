@@ -57,11 +57,7 @@ export async function createTemplateVersion(
   return db.isTransaction ? run(db as Transaction<Database>) : (db as Kysely<Database>).transaction().execute(run);
 }
 
-async function writeSteps(
-  trx: Db,
-  versionId: string,
-  stages: ReturnType<typeof templateDocumentSchema.parse>["stages"],
-): Promise<void> {
+async function writeSteps(trx: Db, versionId: string, stages: ReturnType<typeof templateDocumentSchema.parse>["stages"]): Promise<void> {
   for (const [stagePosition, stage] of stages.entries()) {
     for (const [position, step] of stage.steps.entries()) {
       const { id: stepId } = await trx

@@ -80,7 +80,15 @@ export interface StepView {
   torque: TorqueProgress[];
   timers: TimerView[];
   /** A timer on another step that must run out before this step may be done. */
-  blockedBy: { label: string; remainingMs: number; started: boolean; timerId: string | null; timerSpecId: string; stepId: string; durationS: number } | null;
+  blockedBy: {
+    label: string;
+    remainingMs: number;
+    started: boolean;
+    timerId: string | null;
+    timerSpecId: string;
+    stepId: string;
+    durationS: number;
+  } | null;
   photoCount: number;
   /** Parts fitted at this step, in the order they were fitted. */
   parts: PartView[];
@@ -107,7 +115,6 @@ export interface JobView {
   totalCount: number;
   outOfTolerance: number;
 }
-
 
 /** Readings per spec a step expects: its reading labels, or one. */
 export function readingCount(spec: MeasurementSpecView): number {
@@ -151,9 +158,33 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
   const overridden = new Map<string, string>();
   for (const o of ofKind("timer.overridden")) if (!overridden.has(o.payload.timerId)) overridden.set(o.payload.timerId, o.payload.reason);
   const timers: TimerView[] = [
-    ...snapshot.state.timers.map((t) => timerView(t.id, t.stepId, t.timerSpecId, t.label, t.durationS, Date.parse(t.startedAt), t.stoppedAt ? Date.parse(t.stoppedAt) : (stopped.get(t.id) ?? null), t.overrideReason ?? overridden.get(t.id) ?? null, false, nowMs)),
+    ...snapshot.state.timers.map((t) =>
+      timerView(
+        t.id,
+        t.stepId,
+        t.timerSpecId,
+        t.label,
+        t.durationS,
+        Date.parse(t.startedAt),
+        t.stoppedAt ? Date.parse(t.stoppedAt) : (stopped.get(t.id) ?? null),
+        t.overrideReason ?? overridden.get(t.id) ?? null,
+        false,
+        nowMs,
+      ),
+    ),
     ...ofKind("timer.started").map((o) =>
-      timerView(o.payload.timerId, o.payload.stepId, o.payload.timerSpecId ?? null, o.payload.label, o.payload.durationS, Date.parse(o.payload.startedAt), stopped.get(o.payload.timerId) ?? null, overridden.get(o.payload.timerId) ?? null, true, nowMs),
+      timerView(
+        o.payload.timerId,
+        o.payload.stepId,
+        o.payload.timerSpecId ?? null,
+        o.payload.label,
+        o.payload.durationS,
+        Date.parse(o.payload.startedAt),
+        stopped.get(o.payload.timerId) ?? null,
+        overridden.get(o.payload.timerId) ?? null,
+        true,
+        nowMs,
+      ),
     ),
   ];
 
@@ -191,7 +222,8 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
   }
 
   const stepKeyToId = new Map<string, string>();
-  for (const p of snapshot.procedures) for (const s of p.stages) for (const st of s.steps) stepKeyToId.set(`${p.jobProcedureId}|${st.key}`, st.id);
+  for (const p of snapshot.procedures)
+    for (const s of p.stages) for (const st of s.steps) stepKeyToId.set(`${p.jobProcedureId}|${st.key}`, st.id);
 
   const steps: StepView[] = [];
   const stages: StageView[] = [];
@@ -217,7 +249,10 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
         const current = new Map<string, Map<number, ReadingView>>();
         const missing: string[] = [];
         for (const spec of step.measurementSpecs) {
-          stepReadings.set(spec.id, readings.filter((r) => r.specId === spec.id).sort((a, b) => compareStamps(a.stamp, b.stamp)));
+          stepReadings.set(
+            spec.id,
+            readings.filter((r) => r.specId === spec.id).sort((a, b) => compareStamps(a.stamp, b.stamp)),
+          );
           const perIndex = new Map<number, ReadingView>();
           for (const r of currentAll) if (r.specId === spec.id) perIndex.set(r.readingIndex, r);
           current.set(spec.id, perIndex);
@@ -272,7 +307,9 @@ export function buildJobView(snapshot: Snap, pending: readonly Operation[], nowM
       const latestSignOff = [...snapshot.state.signOffs]
         .filter((s) => s.jobProcedureId === proc.jobProcedureId && s.stageKey === stage.key)
         .sort((a, b) => (BigInt(a.seq) < BigInt(b.seq) ? 1 : -1))[0];
-      const pendingSignOff = ofKind("stage.signed-off").find((o) => o.payload.jobProcedureId === proc.jobProcedureId && o.payload.stageKey === stage.key);
+      const pendingSignOff = ofKind("stage.signed-off").find(
+        (o) => o.payload.jobProcedureId === proc.jobProcedureId && o.payload.stageKey === stage.key,
+      );
       const allDone = stageSteps.every((s) => s.done);
       // A send-back needs a new sign-off once its steps are redone.
       const signOffStillStands =
@@ -306,7 +343,8 @@ export function stepWithSerial(view: JobView, partNumber: string, serial: string
 }
 
 function findSpec(snapshot: Snap, specId: string): MeasurementSpecView | undefined {
-  for (const p of snapshot.procedures) for (const s of p.stages) for (const st of s.steps) for (const m of st.measurementSpecs) if (m.id === specId) return m;
+  for (const p of snapshot.procedures)
+    for (const s of p.stages) for (const st of s.steps) for (const m of st.measurementSpecs) if (m.id === specId) return m;
   return undefined;
 }
 
@@ -324,7 +362,20 @@ function timerView(
 ): TimerView {
   const endsAtMs = startedAtMs + durationS * 1000;
   const remainingMs = Math.max(0, endsAtMs - nowMs);
-  return { id, stepId, timerSpecId, label, durationS, startedAtMs, endsAtMs, stoppedAtMs, overrideReason, remainingMs, done: remainingMs === 0 || overrideReason !== null, pending };
+  return {
+    id,
+    stepId,
+    timerSpecId,
+    label,
+    durationS,
+    startedAtMs,
+    endsAtMs,
+    stoppedAtMs,
+    overrideReason,
+    remainingMs,
+    done: remainingMs === 0 || overrideReason !== null,
+    pending,
+  };
 }
 
 /** Passes, tightening order and the next bolt for one torque spec. */
@@ -344,4 +395,3 @@ export function torqueProgress(spec: TorqueSpecView, confirmedKeys: ReadonlySet<
   }
   return { spec, passes, sequence, confirmed, next, complete: next === null };
 }
-

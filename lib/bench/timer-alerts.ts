@@ -13,6 +13,11 @@ export interface AlertTimer {
   endsAtMs: number;
 }
 
-export function dueAlerts<T extends AlertTimer>(timers: readonly T[], nowMs: number, acknowledged: ReadonlySet<string>, windowMs = ALERT_WINDOW_MS): T[] {
+export function dueAlerts<T extends AlertTimer>(
+  timers: readonly T[],
+  nowMs: number,
+  acknowledged: ReadonlySet<string>,
+  windowMs = ALERT_WINDOW_MS,
+): T[] {
   return timers.filter((t) => t.endsAtMs <= nowMs && nowMs - t.endsAtMs <= windowMs && !acknowledged.has(t.id));
 }

@@ -31,12 +31,7 @@ export function pressureRatioFromBoost(boostKpa: number, ambientKpa: number = ST
  * @param efficiency isentropic efficiency η in (0, 1]
  * @param gamma ratio of specific heats γ (> 1), default 1.4 for air
  */
-export function compressorOutletTemperatureK(
-  inletK: number,
-  pressureRatio: number,
-  efficiency: number,
-  gamma = 1.4,
-): number {
+export function compressorOutletTemperatureK(inletK: number, pressureRatio: number, efficiency: number, gamma = 1.4): number {
   requirePositive("inletK", inletK);
   requireFinite("pressureRatio", pressureRatio);
   if (!(pressureRatio >= 1)) {

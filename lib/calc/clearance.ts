@@ -22,11 +22,7 @@ export function oilClearance(journalDiameters: number[], bearingBores: number[])
     throw new CalcInputError("journalDiameters", journalDiameters, "must be a non-empty array of readings");
   }
   if (!Array.isArray(bearingBores) || bearingBores.length !== journalDiameters.length) {
-    throw new CalcInputError(
-      "bearingBores",
-      bearingBores,
-      `must be an array with one reading per journal (${journalDiameters.length})`,
-    );
+    throw new CalcInputError("bearingBores", bearingBores, `must be an array with one reading per journal (${journalDiameters.length})`);
   }
   const each = journalDiameters.map((journal, i) => {
     requirePositive(`journalDiameters[${i}]`, journal);

@@ -11,7 +11,7 @@ import { pressureRatioFromBoost } from "./charge-air";
 
 /** Volume in cc (cm³) of a cylinder of diameter `diameterMm` and height `heightMm`: π/4·d²·h / 1000. */
 function discVolumeCc(diameterMm: number, heightMm: number): number {
-  return (Math.PI / 4) * diameterMm * diameterMm * heightMm / 1000;
+  return ((Math.PI / 4) * diameterMm * diameterMm * heightMm) / 1000;
 }
 
 /**
@@ -74,11 +74,7 @@ export function compressionVolumes(input: CompressionInput): CompressionVolumes 
   const deckCc = discVolumeCc(boreMm, deckClearanceMm);
   const clearanceCc = chamberCc + gasketCc + deckCc + pistonDishCc;
   if (!(clearanceCc > 0)) {
-    throw new CalcInputError(
-      "clearance volume (chamberCc + gasket + deck + pistonDishCc)",
-      clearanceCc,
-      "must be > 0 cc",
-    );
+    throw new CalcInputError("clearance volume (chamberCc + gasket + deck + pistonDishCc)", clearanceCc, "must be > 0 cc");
   }
   return { sweptCc, chamberCc, gasketCc, deckCc, dishCc: pistonDishCc, clearanceCc };
 }
@@ -101,11 +97,7 @@ export function staticCompressionRatio(input: CompressionInput): number {
  * `boostKpa` is gauge boost (manifold pressure above ambient); `ambientKpa` defaults to
  * 101.325 kPa (ISO 2533 sea level). Another form in use, (CR − 1)·PR + 1, is not implemented.
  */
-export function boostedCompressionRatio(
-  staticCr: number,
-  boostKpa: number,
-  ambientKpa: number = STANDARD_ATMOSPHERE_KPA,
-): number {
+export function boostedCompressionRatio(staticCr: number, boostKpa: number, ambientKpa: number = STANDARD_ATMOSPHERE_KPA): number {
   requireFinite("staticCr", staticCr);
   if (!(staticCr > 1)) throw new CalcInputError("staticCr", staticCr, "must be > 1");
   return staticCr * pressureRatioFromBoost(boostKpa, ambientKpa);

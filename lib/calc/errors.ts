@@ -79,10 +79,7 @@ export function requireInRange(
   { lowOpen = false, highOpen = false }: { lowOpen?: boolean; highOpen?: boolean } = {},
 ): number {
   const n = typeof value === "number" ? value : Number.NaN;
-  const ok =
-    Number.isFinite(n) &&
-    (lowOpen ? n > low : n >= low) &&
-    (highOpen ? n < high : n <= high);
+  const ok = Number.isFinite(n) && (lowOpen ? n > low : n >= low) && (highOpen ? n < high : n <= high);
   if (!ok) {
     const interval = `${lowOpen ? "(" : "["}${low}, ${high}${highOpen ? ")" : "]"}`;
     throw new CalcInputError(argument, value, `must be a finite number in ${interval}`);
@@ -99,11 +96,7 @@ export function requireInteger(argument: string, value: unknown, min: number, ma
 }
 
 /** Throws unless `value` is one of the allowed strings. */
-export function requireOneOf<T extends string>(
-  argument: string,
-  value: unknown,
-  allowed: readonly T[],
-): T {
+export function requireOneOf<T extends string>(argument: string, value: unknown, allowed: readonly T[]): T {
   if (typeof value !== "string" || !(allowed as readonly string[]).includes(value)) {
     throw new CalcInputError(argument, value, `must be one of ${allowed.map((a) => `"${a}"`).join(", ")}`);
   }

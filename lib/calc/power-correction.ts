@@ -86,9 +86,7 @@ export function powerCorrectionFactor(standard: PowerCorrectionStandard, conditi
     throw new CalcInputError("conditions.temperatureC", t, "must be above absolute zero (−273.15 °C)");
   }
   const vapor =
-    conditions.vaporPressureKpa === undefined
-      ? 0
-      : requireNonNegative("conditions.vaporPressureKpa", conditions.vaporPressureKpa);
+    conditions.vaporPressureKpa === undefined ? 0 : requireNonNegative("conditions.vaporPressureKpa", conditions.vaporPressureKpa);
   if (!(vapor < pressureKpa)) {
     throw new CalcInputError("conditions.vaporPressureKpa", vapor, `must be below the barometric pressure (${pressureKpa} kPa)`);
   }

@@ -50,7 +50,6 @@ export function ringGapGuide(boreMm: number, duty: RingGapDuty): RingGapGuide {
     topRing: { minMm: topMin, maxMm: topMax, factorMin: f.min, factorMax: f.max },
     secondRing: { minMm: SECOND_RING_GAP_RATIO * topMin, maxMm: SECOND_RING_GAP_RATIO * topMax },
     basis: "Common practice: end gap as a fraction of bore, wider for boost; second ring about 1.25 × the top ring.",
-    caution:
-      "A rule of thumb only. Use the ring maker's end-gap figure for this ring set, bore and use; it always takes precedence.",
+    caution: "A rule of thumb only. Use the ring maker's end-gap figure for this ring set, bore and use; it always takes precedence.",
   };
 }

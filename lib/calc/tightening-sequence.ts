@@ -26,7 +26,7 @@ function checkPatternAndCount(pattern: unknown, boltCount: unknown): TighteningP
   const min = p === "linear" ? 1 : 2;
   requireInteger("boltCount", boltCount, min, MAX_BOLT_COUNT);
   if (p === "spiral-out" && (boltCount as number) % 2 !== 0) {
-    throw new CalcInputError("boltCount", boltCount, "must be even for \"spiral-out\" (two rows of bolts)");
+    throw new CalcInputError("boltCount", boltCount, 'must be even for "spiral-out" (two rows of bolts)');
   }
   return p;
 }

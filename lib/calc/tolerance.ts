@@ -45,7 +45,7 @@ interface Decimal {
 const UNIT_IN_MM: Record<LengthUnit, Decimal> = {
   mm: { m: 1n, e: 0 },
   in: { m: 254n, e: -1 },
-  "µm": { m: 1n, e: -3 },
+  µm: { m: 1n, e: -3 },
 };
 
 /** The shortest decimal that reads back as `x` (JavaScript's own number-to-string), as m × 10^e. */

@@ -101,11 +101,7 @@ export function torqueStages(spec: TorqueSpec): TorquePass[] {
     out.push({ index: out.length + 1, kind: "torque", target, unit, percentOfFinal, label });
   });
   if (!reachedFinal) {
-    throw new CalcInputError(
-      "spec.passes",
-      spec.passes,
-      `must end with a pass at the final value (${finalValue} ${unit} / 100 %)`,
-    );
+    throw new CalcInputError("spec.passes", spec.passes, `must end with a pass at the final value (${finalValue} ${unit} / 100 %)`);
   }
   anglePasses.forEach((deg, i) => {
     const angle = requireInRange(`spec.anglePasses[${i}]`, deg, 0, 360, { lowOpen: true });

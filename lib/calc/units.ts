@@ -41,8 +41,7 @@ export const KPA_PER_PSI = N_PER_LBF / ((MM_PER_INCH / 1000) * (MM_PER_INCH / 10
  * 1 conventional inch of mercury in kPa = 13 595.1 kg/m³ × gₙ × 0.0254 m / 1000
  * ≈ 3.386 388 64 (NIST SP 811 lists 3.386 389 E+03 Pa).
  */
-export const KPA_PER_INHG =
-  (MERCURY_CONVENTIONAL_DENSITY_KG_M3 * STANDARD_GRAVITY_M_S2 * (MM_PER_INCH / 1000)) / 1000;
+export const KPA_PER_INHG = (MERCURY_CONVENTIONAL_DENSITY_KG_M3 * STANDARD_GRAVITY_M_S2 * (MM_PER_INCH / 1000)) / 1000;
 
 /** 1 mechanical horsepower (550 ft·lbf/s) in kW ≈ 0.745 699 871 582 27 (NIST SP 811: 7.456 999 E+02 W). */
 export const KW_PER_HP = (550 * M_PER_FOOT * N_PER_LBF) / 1000;
@@ -109,16 +108,10 @@ const POWER_IN_KW: Record<PowerUnit, number> = {
 const LENGTH_IN_MM: Record<LengthUnit, number> = {
   mm: 1,
   in: MM_PER_INCH,
-  "µm": 0.001,
+  µm: 0.001,
 };
 
-function convertLinear<U extends string>(
-  table: Record<U, number>,
-  units: readonly U[],
-  value: number,
-  from: U,
-  to: U,
-): number {
+function convertLinear<U extends string>(table: Record<U, number>, units: readonly U[], value: number, from: U, to: U): number {
   requireFinite("value", value);
   requireOneOf("from", from, units);
   requireOneOf("to", to, units);
@@ -165,8 +158,7 @@ export function convertTemperature(value: number, from: TemperatureUnit, to: Tem
   requireFinite("value", value);
   requireOneOf("from", from, TEMPERATURE_UNITS);
   requireOneOf("to", to, TEMPERATURE_UNITS);
-  const kelvin =
-    from === "K" ? value : from === "C" ? value + KELVIN_AT_0_C : ((value + 459.67) * 5) / 9;
+  const kelvin = from === "K" ? value : from === "C" ? value + KELVIN_AT_0_C : ((value + 459.67) * 5) / 9;
   if (kelvin < 0) {
     throw new CalcInputError("value", value, `must not be below absolute zero (0 K) in ${from}`);
   }

@@ -163,7 +163,11 @@ async function uploadPhotos(db: BenchDb, fetchFn: typeof fetch): Promise<number>
   let sent = 0;
   for (const photo of pending) {
     if (waiting.has(photo.id)) continue;
-    const res = await fetchFn(`/api/bench/photos/${photo.id}`, { method: "POST", headers: { "content-type": photo.contentType }, body: photo.blob });
+    const res = await fetchFn(`/api/bench/photos/${photo.id}`, {
+      method: "POST",
+      headers: { "content-type": photo.contentType },
+      body: photo.blob,
+    });
     if (res.ok) {
       await db.photos.update(photo.id, { uploaded: 1 });
       sent++;

@@ -30,7 +30,10 @@ export function parseCurveCsv(text: string): CurveCsvResult {
   }
   const header = (lines[0] ?? []).map((h) => h.trim().toLowerCase());
   if (header.length === 0 || header.every((h) => h === "")) {
-    return { ok: false, errors: [{ row: 1, column: "(header)", message: "The file is empty: line 1 must name the columns rpm and torque_nm or torque_lbft" }] };
+    return {
+      ok: false,
+      errors: [{ row: 1, column: "(header)", message: "The file is empty: line 1 must name the columns rpm and torque_nm or torque_lbft" }],
+    };
   }
   const rpmIndex = header.indexOf("rpm");
   const torqueColumns = header.filter((h) => h in CURVE_CSV_TORQUE_COLUMNS);
@@ -44,7 +47,9 @@ export function parseCurveCsv(text: string): CurveCsvResult {
     errors.push({
       row: 1,
       column: torqueColumns.join(", ") || "torque_nm",
-      message: torqueColumns.length ? "Give one torque column only (torque_nm or torque_lbft)" : "Column torque_nm or torque_lbft is missing",
+      message: torqueColumns.length
+        ? "Give one torque column only (torque_nm or torque_lbft)"
+        : "Column torque_nm or torque_lbft is missing",
     });
   }
   if (errors.length) return { ok: false, errors };

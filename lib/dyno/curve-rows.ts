@@ -45,8 +45,7 @@ interface CurveColumnNames {
 }
 
 type CurveRowsResult =
-  | { ok: true; points: Array<{ rpm: number; torque: number; torqueNm: number }> }
-  | { ok: false; errors: CurveRowError[] };
+  { ok: true; points: Array<{ rpm: number; torque: number; torqueNm: number }> } | { ok: false; errors: CurveRowError[] };
 
 /**
  * Checks every row, then the curve as a whole (rising rpm, point count). Torque is kept as given
@@ -76,10 +75,18 @@ export function validateCurveRows(rows: readonly RawCurveRow[], unit: CurveTorqu
     }
   }
   if (rows.length < MIN_CURVE_POINTS) {
-    errors.push({ row: rows.length ? rows[rows.length - 1].row : 1, column: "(whole curve)", message: `A curve needs at least ${MIN_CURVE_POINTS} points; got ${rows.length}` });
+    errors.push({
+      row: rows.length ? rows[rows.length - 1].row : 1,
+      column: "(whole curve)",
+      message: `A curve needs at least ${MIN_CURVE_POINTS} points; got ${rows.length}`,
+    });
   }
   if (rows.length > MAX_CURVE_POINTS) {
-    errors.push({ row: rows[MAX_CURVE_POINTS].row, column: "(whole curve)", message: `A curve may hold at most ${MAX_CURVE_POINTS} points; got ${rows.length}` });
+    errors.push({
+      row: rows[MAX_CURVE_POINTS].row,
+      column: "(whole curve)",
+      message: `A curve may hold at most ${MAX_CURVE_POINTS} points; got ${rows.length}`,
+    });
   }
   if (errors.length) return { ok: false, errors: errors.sort((a, b) => a.row - b.row) };
   return { ok: true, points: points.map((p) => ({ rpm: p.rpm, torque: p.torque, torqueNm: convertTorque(p.torque, unit, "N·m") })) };

@@ -15,7 +15,10 @@ export function numberFromText(label: string, min: number, max: number, unit: st
       }
       const n = Number(text);
       if (!Number.isFinite(n)) {
-        ctx.addIssue({ code: "custom", message: opts.quoteBadValue ? `${label} must be a number; got "${text}"` : `${label} must be a number` });
+        ctx.addIssue({
+          code: "custom",
+          message: opts.quoteBadValue ? `${label} must be a number; got "${text}"` : `${label} must be a number`,
+        });
         return z.NEVER;
       }
       return n;

@@ -47,9 +47,7 @@ export interface DynoRunInput extends DynoRunFields {
   points: Array<{ rpm: number; torque: number; torqueNm: number }>;
 }
 
-type DynoRunCheck =
-  | { ok: true; run: DynoRunInput }
-  | { ok: false; fieldErrors: Record<string, string>; curveErrors: CurveRowError[] };
+type DynoRunCheck = { ok: true; run: DynoRunInput } | { ok: false; fieldErrors: Record<string, string>; curveErrors: CurveRowError[] };
 
 /**
  * Checks a request body. Blank table rows (both cells empty) are skipped; every other row counts.

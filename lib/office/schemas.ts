@@ -80,16 +80,14 @@ export const intakeSchema = z.object({
   bikeId: z.uuid("choose the bike"),
   title: z.string().trim().min(3, "say in a few words what the job is").max(160),
   complaint: z.string().trim().min(3, "write down the customer's complaint or goal").max(4000),
-  odometerKm: z
-    .union([z.number(), z.string()])
-    .transform((v, ctx) => {
-      const n = typeof v === "number" ? v : v.trim() === "" ? NaN : Number(v);
-      if (!Number.isInteger(n) || n < 0 || n > 2_000_000) {
-        ctx.addIssue({ code: "custom", message: "enter the odometer reading in km as a whole number" });
-        return z.NEVER;
-      }
-      return n;
-    }),
+  odometerKm: z.union([z.number(), z.string()]).transform((v, ctx) => {
+    const n = typeof v === "number" ? v : v.trim() === "" ? NaN : Number(v);
+    if (!Number.isInteger(n) || n < 0 || n > 2_000_000) {
+      ctx.addIssue({ code: "custom", message: "enter the odometer reading in km as a whole number" });
+      return z.NEVER;
+    }
+    return n;
+  }),
 });
 export type IntakeInput = z.input<typeof intakeSchema>;
 

@@ -12,8 +12,10 @@ export const newUserSchema = z
     customerId: z.union([z.uuid("choose the customer"), z.literal(""), z.null()]).transform((v) => v || null),
   })
   .superRefine((u, ctx) => {
-    if (u.role === "customer" && !u.customerId) ctx.addIssue({ code: "custom", path: ["customerId"], message: "a customer sign-in needs the customer it belongs to" });
-    if (u.role !== "customer" && u.customerId) ctx.addIssue({ code: "custom", path: ["customerId"], message: "only customer sign-ins belong to a customer" });
+    if (u.role === "customer" && !u.customerId)
+      ctx.addIssue({ code: "custom", path: ["customerId"], message: "a customer sign-in needs the customer it belongs to" });
+    if (u.role !== "customer" && u.customerId)
+      ctx.addIssue({ code: "custom", path: ["customerId"], message: "only customer sign-ins belong to a customer" });
   });
 
 export const userActiveSchema = z.object({ active: z.boolean({ error: "say whether the sign-in is active" }) }).strict();

@@ -19,7 +19,8 @@ const templateBundleSchema = z
   .superRefine((b, ctx) => {
     const keys = b.templates.map((t) => t.key);
     keys.forEach((k, i) => {
-      if (keys.indexOf(k) !== i) ctx.addIssue({ code: "custom", message: `template key "${k}" appears twice in the bundle`, path: ["templates", i, "key"] });
+      if (keys.indexOf(k) !== i)
+        ctx.addIssue({ code: "custom", message: `template key "${k}" appears twice in the bundle`, path: ["templates", i, "key"] });
     });
   });
 

@@ -15,9 +15,7 @@ export type BoltPattern = (typeof BOLT_PATTERNS)[number];
 export const MEASUREMENT_GEOMETRIES = ["bore", "oil-clearance"] as const;
 export type MeasurementGeometry = (typeof MEASUREMENT_GEOMETRIES)[number];
 
-const key = z
-  .string()
-  .regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "use lower-case letters, digits and dashes (max 63)");
+const key = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "use lower-case letters, digits and dashes (max 63)");
 
 export const cautionSchema = z.object({
   kind: z.enum(CAUTION_KINDS),
@@ -64,7 +62,11 @@ const measurementSpecSchema = z
 const timerSpecSchema = z
   .object({
     label: z.string().trim().min(1).max(120),
-    durationS: z.number().int().positive().max(7 * 24 * 3600),
+    durationS: z
+      .number()
+      .int()
+      .positive()
+      .max(7 * 24 * 3600),
     blocksStepKey: key.nullable().default(null),
   })
   .strict();
@@ -115,7 +117,11 @@ export const templateDocumentSchema = z
       stage.steps.forEach((step, pi) => {
         const blocks = step.timer?.blocksStepKey;
         if (blocks && !stepKeys.has(blocks)) {
-          ctx.addIssue({ code: "custom", message: `timer blocks unknown step "${blocks}"`, path: ["stages", si, "steps", pi, "timer", "blocksStepKey"] });
+          ctx.addIssue({
+            code: "custom",
+            message: `timer blocks unknown step "${blocks}"`,
+            path: ["stages", si, "steps", pi, "timer", "blocksStepKey"],
+          });
         }
       }),
     );

@@ -61,10 +61,7 @@ function auditCsvCells(r: AuditEntry): string[] {
 export function auditCsvChunk(rows: readonly AuditEntry[], header: boolean): string {
   const data = rows.map(auditCsvCells);
   if (!data.length && !header) return "";
-  const text = Papa.unparse(
-    { fields: [...AUDIT_CSV_COLUMNS], data },
-    { header, newline: "\r\n", quotes: false, escapeFormulae: true },
-  );
+  const text = Papa.unparse({ fields: [...AUDIT_CSV_COLUMNS], data }, { header, newline: "\r\n", quotes: false, escapeFormulae: true });
   if (!text) return "";
   return text.endsWith("\r\n") ? text : `${text}\r\n`;
 }

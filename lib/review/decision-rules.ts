@@ -23,7 +23,12 @@ export type DecisionCheck =
   | { ok: true; reopenStepIds: string[] }
   | { ok: false; status: 403 | 409 | 422; reason: string; issues: Array<{ path: string; message: string }> };
 
-const refuse = (status: 403 | 409 | 422, reason: string, issues: Array<{ path: string; message: string }> = []): DecisionCheck => ({ ok: false, status, reason, issues });
+const refuse = (status: 403 | 409 | 422, reason: string, issues: Array<{ path: string; message: string }> = []): DecisionCheck => ({
+  ok: false,
+  status,
+  reason,
+  issues,
+});
 
 export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionCheck {
   if (!canReach(f.actor.role, "decide")) return refuse(403, `Your role (${f.actor.role}) may not approve or send back work.`);
@@ -45,9 +50,11 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
   const acceptedNow = new Set<string>();
   input.acceptances.forEach((a, i) => {
     const o = oot.get(a.readingId);
-    if (!o) issues.push({ path: `acceptances.${i}.readingId`, message: "This reading is not a current out-of-tolerance reading of this stage." });
+    if (!o)
+      issues.push({ path: `acceptances.${i}.readingId`, message: "This reading is not a current out-of-tolerance reading of this stage." });
     else if (o.accepted) issues.push({ path: `acceptances.${i}.readingId`, message: `${o.description} was already accepted.` });
-    else if (acceptedNow.has(a.readingId)) issues.push({ path: `acceptances.${i}.readingId`, message: `${o.description} is listed twice.` });
+    else if (acceptedNow.has(a.readingId))
+      issues.push({ path: `acceptances.${i}.readingId`, message: `${o.description} is listed twice.` });
     acceptedNow.add(a.readingId);
   });
 
@@ -55,7 +62,10 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
   if (input.decision === "approved") {
     for (const o of f.outOfTolerance) {
       if (!o.accepted && !acceptedNow.has(o.readingId)) {
-        issues.push({ path: `reading.${o.readingId}`, message: `${o.description} is out of tolerance: accept it with a written reason, or send the step back.` });
+        issues.push({
+          path: `reading.${o.readingId}`,
+          message: `${o.description} is out of tolerance: accept it with a written reason, or send the step back.`,
+        });
       }
     }
   } else {

@@ -25,9 +25,15 @@ export const queueQuerySchema = z.object({
   /** Bike: tag code, make or model (part of it). */
   q: z.string().trim().max(100).default(""),
   job: jobNumber,
-  mechanic: z.union([z.literal(""), z.uuid("mechanic must be a user id")]).optional().transform((v) => v || undefined),
+  mechanic: z
+    .union([z.literal(""), z.uuid("mechanic must be a user id")])
+    .optional()
+    .transform((v) => v || undefined),
   /** "yes": only sign-offs with readings out of tolerance not yet accepted; "no": only those without. */
-  outOfTolerance: z.enum(["", "yes", "no"], "outOfTolerance must be yes or no").optional().transform((v) => v || undefined),
+  outOfTolerance: z
+    .enum(["", "yes", "no"], "outOfTolerance must be yes or no")
+    .optional()
+    .transform((v) => v || undefined),
 });
 export type QueueQuery = z.output<typeof queueQuerySchema>;
 
@@ -35,9 +41,17 @@ const AUDIT_SORTS = ["at", "job", "actor", "action", "outcome"] as const;
 
 export const auditFilterSchema = z.object({
   job: jobNumber,
-  outcome: z.enum(["", "accepted", "refused"], "outcome must be accepted or refused").optional().transform((v) => v || undefined),
+  outcome: z
+    .enum(["", "accepted", "refused"], "outcome must be accepted or refused")
+    .optional()
+    .transform((v) => v || undefined),
   /** What was done: an action name or the start of one ("review", "sync.measurement"). */
-  action: z.string().trim().max(60).optional().transform((v) => v || undefined),
+  action: z
+    .string()
+    .trim()
+    .max(60)
+    .optional()
+    .transform((v) => v || undefined),
   /** Free text: actor name or e-mail, device, reason. */
   q: z.string().trim().max(100).default(""),
 });

@@ -128,10 +128,25 @@ export interface StepReview {
   key: string;
   title: string;
   number: number;
-  completions: Array<{ id: string; by: Person; deviceTime: string; receivedAt: string; deviceId: string | null; flagReason: string | null }>;
+  completions: Array<{
+    id: string;
+    by: Person;
+    deviceTime: string;
+    receivedAt: string;
+    deviceId: string | null;
+    flagReason: string | null;
+  }>;
   specs: SpecView[];
   torque: TorqueView[];
-  timers: Array<{ id: string; label: string; durationS: number; startedAt: string; startedBy: Person; stoppedAt: string | null; override: { by: Person; reason: string } | null }>;
+  timers: Array<{
+    id: string;
+    label: string;
+    durationS: number;
+    startedAt: string;
+    startedBy: Person;
+    stoppedAt: string | null;
+    override: { by: Person; reason: string } | null;
+  }>;
   photos: Array<{ id: string; contentType: string; byteSize: number; caption: string; awaitingUpload: boolean; createdAt: string }>;
   /** Parts fitted at this step, with who fitted them (null: not a user of the shop) and any flag of the sync. */
   parts: Array<Omit<State["parts"][number], "stepId" | "fittedBy" | "flagged"> & { by: Person | null }>;
@@ -164,7 +179,13 @@ export interface StageReview {
   /** Decisions on this sign-off, oldest first (the last one stands). */
   decisions: Array<Omit<DecisionFact, "decidedBy"> & { by: Person }>;
   /** Earlier sign-offs of the same stage and what became of them, newest first. */
-  earlier: Array<{ id: string; by: Person; deviceTime: string; receivedAt: string; decisions: Array<{ decision: "approved" | "sent_back"; reason: string; decidedAt: string; by: Person }> }>;
+  earlier: Array<{
+    id: string;
+    by: Person;
+    deviceTime: string;
+    receivedAt: string;
+    decisions: Array<{ decision: "approved" | "sent_back"; reason: string; decidedAt: string; by: Person }>;
+  }>;
 }
 
 export function readingLabelOf(labels: readonly string[], index: number): string {
@@ -202,7 +223,9 @@ export function buildStageReview(snapshot: JobSnapshot, extras: ReviewExtras, si
       current: currentIds.has(r.id),
       supersededBy: supersededBy.get(r.id) ?? null,
       flagReason: r.flagged ? r.flagReason : null,
-      acceptance: a ? { decisionId: a.decisionId, justification: a.justification, acceptedAt: a.acceptedAt, by: person(a.acceptedBy) } : null,
+      acceptance: a
+        ? { decisionId: a.decisionId, justification: a.justification, acceptedAt: a.acceptedAt, by: person(a.acceptedBy) }
+        : null,
     };
   };
 
@@ -237,9 +260,7 @@ export function buildStageReview(snapshot: JobSnapshot, extras: ReviewExtras, si
     }
   }
   const unaccepted = outOfTolerance.filter((o) => !o.acceptance);
-  const defaultReopenStepIds = unaccepted.length
-    ? [...new Set(unaccepted.map((o) => o.stepId))]
-    : steps.map((s) => s.id);
+  const defaultReopenStepIds = unaccepted.length ? [...new Set(unaccepted.map((o) => o.stepId))] : steps.map((s) => s.id);
 
   const sameStage = extras.signOffs
     .filter((s) => s.jobProcedureId === signOff.jobProcedureId && s.stageKey === signOff.stageKey)
@@ -262,7 +283,12 @@ export function buildStageReview(snapshot: JobSnapshot, extras: ReviewExtras, si
         by: person(s.signedBy),
         deviceTime: s.deviceTime,
         receivedAt: s.receivedAt,
-        decisions: decisionsOf(s.id).map((d) => ({ decision: d.decision, reason: d.reason, decidedAt: d.decidedAt, by: person(d.decidedBy) })),
+        decisions: decisionsOf(s.id).map((d) => ({
+          decision: d.decision,
+          reason: d.reason,
+          decidedAt: d.decidedAt,
+          by: person(d.decidedBy),
+        })),
       })),
   };
 }
@@ -280,37 +306,53 @@ function stepReview(
     const count = expectedReadings(spec.readingLabels);
     const ofSpec = state.readings.filter((r) => r.specId === spec.id);
     const indexes = new Set<number>([...Array.from({ length: count }, (_, i) => i), ...ofSpec.map((r) => r.readingIndex)]);
-    const spots = [...indexes].sort((a, b) => a - b).map((readingIndex): SpotView => {
-      const history = ofSpec
-        .filter((r) => r.readingIndex === readingIndex)
-        .sort((a, b) => compareStamps(a.stamp, b.stamp))
-        .map(line);
-      const heads = history.filter((r) => !r.supersededBy);
-      // The newest unreplaced reading of each tablet; two or more tablets means a conflict.
-      const perDevice = new Map<string, ReadingLine>();
-      for (const r of heads) perDevice.set(r.deviceId, r);
-      const rivals = perDevice.size > 1 ? [...perDevice.values()] : [];
-      return { readingIndex, label: readingLabelOf(spec.readingLabels, readingIndex), current: history.find((r) => r.current) ?? null, history, rivals };
-    });
+    const spots = [...indexes]
+      .sort((a, b) => a - b)
+      .map((readingIndex): SpotView => {
+        const history = ofSpec
+          .filter((r) => r.readingIndex === readingIndex)
+          .sort((a, b) => compareStamps(a.stamp, b.stamp))
+          .map(line);
+        const heads = history.filter((r) => !r.supersededBy);
+        // The newest unreplaced reading of each tablet; two or more tablets means a conflict.
+        const perDevice = new Map<string, ReadingLine>();
+        for (const r of heads) perDevice.set(r.deviceId, r);
+        const rivals = perDevice.size > 1 ? [...perDevice.values()] : [];
+        return {
+          readingIndex,
+          label: readingLabelOf(spec.readingLabels, readingIndex),
+          current: history.find((r) => r.current) ?? null,
+          history,
+          rivals,
+        };
+      });
     return { id: spec.id, label: spec.label, unit: spec.unit, nominal: spec.nominal, min: spec.min, max: spec.max, spots };
   });
 
   const torque: TorqueView[] = step.torqueSpecs.map((spec) => {
     const done = new Map<string, State["torqueRecords"][number]>();
-    for (const t of state.torqueRecords) if (t.torqueSpecId === spec.id && !done.has(`${t.passIndex}:${t.bolt}`)) done.set(`${t.passIndex}:${t.bolt}`, t);
-    const passes = torqueStages({ finalValue: spec.finalValue, unit: spec.unit, passes: spec.passes, anglePasses: spec.anglePasses }).map((p) => ({
-      index: p.index,
-      label: p.kind === "torque" ? `${p.target} ${p.unit} (${p.label})` : `turn ${p.label}`,
-      bolts: Array.from({ length: spec.boltCount }, (_, i) => {
-        const t = done.get(`${p.index}:${i + 1}`);
-        return {
-          bolt: i + 1,
-          done: t
-            ? { by: person(t.recordedBy), deviceTime: t.deviceTime, receivedAt: extras.receipts.get(t.id)?.receivedAt ?? null, wrench: t.wrenchReading === null ? null : `${t.wrenchReading} ${t.wrenchUnit ?? ""}`.trim() }
-            : null,
-        };
+    for (const t of state.torqueRecords)
+      if (t.torqueSpecId === spec.id && !done.has(`${t.passIndex}:${t.bolt}`)) done.set(`${t.passIndex}:${t.bolt}`, t);
+    const passes = torqueStages({ finalValue: spec.finalValue, unit: spec.unit, passes: spec.passes, anglePasses: spec.anglePasses }).map(
+      (p) => ({
+        index: p.index,
+        label: p.kind === "torque" ? `${p.target} ${p.unit} (${p.label})` : `turn ${p.label}`,
+        bolts: Array.from({ length: spec.boltCount }, (_, i) => {
+          const t = done.get(`${p.index}:${i + 1}`);
+          return {
+            bolt: i + 1,
+            done: t
+              ? {
+                  by: person(t.recordedBy),
+                  deviceTime: t.deviceTime,
+                  receivedAt: extras.receipts.get(t.id)?.receivedAt ?? null,
+                  wrench: t.wrenchReading === null ? null : `${t.wrenchReading} ${t.wrenchUnit ?? ""}`.trim(),
+                }
+              : null,
+          };
+        }),
       }),
-    }));
+    );
     return {
       id: spec.id,
       label: spec.label,
@@ -331,7 +373,14 @@ function stepReview(
     number,
     completions: state.completions
       .filter((c) => c.stepId === step.id)
-      .map((c) => ({ id: c.id, by: person(c.completedBy), deviceTime: c.deviceTime, receivedAt: c.receivedAt, deviceId: extras.receipts.get(c.id)?.deviceId ?? null, flagReason: c.flagged ? c.flagReason : null })),
+      .map((c) => ({
+        id: c.id,
+        by: person(c.completedBy),
+        deviceTime: c.deviceTime,
+        receivedAt: c.receivedAt,
+        deviceId: extras.receipts.get(c.id)?.deviceId ?? null,
+        flagReason: c.flagged ? c.flagReason : null,
+      })),
     specs,
     torque,
     timers: state.timers

@@ -139,4 +139,3 @@ export function receive(
   const s: HlcState = { ...next, deviceId: state.deviceId };
   return { state: s, stamp: formatStamp(s) };
 }
-

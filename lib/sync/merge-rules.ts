@@ -92,10 +92,7 @@ export interface DecisionInput {
   state: MergeState;
 }
 
-export type Decision =
-  | { outcome: "accept" }
-  | { outcome: "flag"; reason: string }
-  | { outcome: "refuse"; reason: string };
+export type Decision = { outcome: "accept" } | { outcome: "flag"; reason: string } | { outcome: "refuse"; reason: string };
 
 const accept: Decision = { outcome: "accept" };
 const refuse = (reason: string): Decision => ({ outcome: "refuse", reason });
@@ -166,7 +163,9 @@ function sendBackFlags(op: Operation, job: WorkOrderFacts, opWallMs: number, cur
     const step = job.steps.get(op.payload.stepId)!;
     const hit = job.sendBacks.find((s) => s.stepIds.includes(op.payload.stepId) && sendBackUnseen(s, opWallMs, cursor));
     return hit
-      ? [`Step "${step.title}" was sent back by the supervisor (${new Date(hit.decidedAtMs).toISOString()}: ${hit.reason}) and this completion was made before the tablet knew; check the step was redone.`]
+      ? [
+          `Step "${step.title}" was sent back by the supervisor (${new Date(hit.decidedAtMs).toISOString()}: ${hit.reason}) and this completion was made before the tablet knew; check the step was redone.`,
+        ]
       : [];
   }
   if (op.kind === "stage.signed-off") {
@@ -180,7 +179,9 @@ function sendBackFlags(op: Operation, job: WorkOrderFacts, opWallMs: number, cur
         }),
     );
     return hit
-      ? [`Stage "${stageKey}" had steps sent back by the supervisor (${new Date(hit.decidedAtMs).toISOString()}: ${hit.reason}) that the tablet did not know of when signing off.`]
+      ? [
+          `Stage "${stageKey}" had steps sent back by the supervisor (${new Date(hit.decidedAtMs).toISOString()}: ${hit.reason}) that the tablet did not know of when signing off.`,
+        ]
       : [];
   }
   return [];
@@ -199,15 +200,15 @@ function partFlags(op: Operation, job: WorkOrderFacts, state: MergeState): strin
 /** The refusal reason when the operation names something that is not on the job, else null. */
 function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState): string | null {
   const onJob = `on work order #${job.number}`;
-  const stepMissing = (stepId: string) =>
-    job.steps.has(stepId) ? null : `Step ${stepId} is not part of a procedure ${onJob}.`;
+  const stepMissing = (stepId: string) => (job.steps.has(stepId) ? null : `Step ${stepId} is not part of a procedure ${onJob}.`);
   switch (op.kind) {
     case "step.completed":
       return stepMissing(op.payload.stepId);
     case "measurement.recorded": {
       const p = op.payload;
       const spec = job.measurementSpecs.get(p.specId);
-      if (!spec || spec.stepId !== p.stepId) return stepMissing(p.stepId) ?? `Measurement spec ${p.specId} is not a spec of step ${p.stepId} ${onJob}.`;
+      if (!spec || spec.stepId !== p.stepId)
+        return stepMissing(p.stepId) ?? `Measurement spec ${p.specId} is not a spec of step ${p.stepId} ${onJob}.`;
       if (p.readingIndex >= spec.readingCount) {
         return `Reading index ${p.readingIndex} is out of range: "${spec.label}" takes ${spec.readingCount} reading${spec.readingCount === 1 ? "" : "s"} (index 0–${spec.readingCount - 1}).`;
       }
@@ -223,9 +224,12 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
     case "torque.bolt-confirmed": {
       const p = op.payload;
       const spec = job.torqueSpecs.get(p.torqueSpecId);
-      if (!spec || spec.stepId !== p.stepId) return stepMissing(p.stepId) ?? `Torque spec ${p.torqueSpecId} is not a spec of step ${p.stepId} ${onJob}.`;
-      if (p.passIndex > spec.passCount) return `Pass ${p.passIndex} is out of range: "${spec.label}" has ${spec.passCount} pass${spec.passCount === 1 ? "" : "es"}.`;
-      if (p.bolt > spec.boltCount) return `Bolt ${p.bolt} is out of range: "${spec.label}" has ${spec.boltCount} bolt${spec.boltCount === 1 ? "" : "s"}.`;
+      if (!spec || spec.stepId !== p.stepId)
+        return stepMissing(p.stepId) ?? `Torque spec ${p.torqueSpecId} is not a spec of step ${p.stepId} ${onJob}.`;
+      if (p.passIndex > spec.passCount)
+        return `Pass ${p.passIndex} is out of range: "${spec.label}" has ${spec.passCount} pass${spec.passCount === 1 ? "" : "es"}.`;
+      if (p.bolt > spec.boltCount)
+        return `Bolt ${p.bolt} is out of range: "${spec.label}" has ${spec.boltCount} bolt${spec.boltCount === 1 ? "" : "s"}.`;
       return null;
     }
     case "timer.started": {
@@ -280,7 +284,11 @@ export function noteAccepted(op: Operation, state: MergeState): void {
       state.readings.set(op.id, { workOrderId: op.workOrderId, specId: op.payload.specId, readingIndex: op.payload.readingIndex });
       return;
     case "timer.started":
-      state.timers.set(op.payload.timerId, { workOrderId: op.workOrderId, startedAtMs: Date.parse(op.payload.startedAt), stoppedAtMs: null });
+      state.timers.set(op.payload.timerId, {
+        workOrderId: op.workOrderId,
+        startedAtMs: Date.parse(op.payload.startedAt),
+        stoppedAtMs: null,
+      });
       return;
     case "timer.stopped": {
       const t = state.timers.get(op.payload.timerId);

@@ -38,15 +38,14 @@ export const PHOTO_CONTENT_TYPES = ["image/jpeg", "image/png", "image/webp", "im
 export const MAX_PHOTO_BYTES = 50 * 1024 * 1024;
 
 const id = () => z.uuid({ error: "must be a UUID" });
-const isoTime = () => z.iso.datetime({ offset: true, error: "must be an ISO 8601 date-time with a time zone (e.g. 2026-12-02T09:30:00.000Z)" });
+const isoTime = () =>
+  z.iso.datetime({ offset: true, error: "must be an ISO 8601 date-time with a time zone (e.g. 2026-12-02T09:30:00.000Z)" });
 const stageKey = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "must be a stage key (lower-case letters, digits and dashes)");
 
-const deviceIdSchema = z
-  .string()
-  .regex(DEVICE_ID_PATTERN, "must be 1–64 letters, digits or . _ : - starting with a letter or digit");
+const deviceIdSchema = z.string().regex(DEVICE_ID_PATTERN, "must be 1–64 letters, digits or . _ : - starting with a letter or digit");
 export const stampSchema = z
   .string()
-  .regex(STAMP_PATTERN, "must be a clock stamp: 15-digit ms, 6-digit counter and the device id, joined by \"-\"");
+  .regex(STAMP_PATTERN, 'must be a clock stamp: 15-digit ms, 6-digit counter and the device id, joined by "-"');
 /** The server's cursor: a decimal sequence number. */
 export const cursorSchema = z.string().regex(/^(0|[1-9]\d{0,17})$/, "must be a cursor returned by the server (digits)");
 
@@ -92,7 +91,11 @@ const timerStartedPayload = z
     stepId: id(),
     timerSpecId: id().optional(),
     label: z.string().trim().min(1).max(120),
-    durationS: z.number().int().positive().max(7 * 24 * 3600),
+    durationS: z
+      .number()
+      .int()
+      .positive()
+      .max(7 * 24 * 3600),
     startedAt: isoTime(),
   })
   .strict();

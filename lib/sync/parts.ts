@@ -13,7 +13,8 @@ export function serialKey(partNumber: string, serial: string): string {
 }
 
 /** The merge's key for a serial-numbered part on one job. */
-export const partSerialOnWorkOrder = (workOrderId: string, partNumber: string, serial: string) => `${workOrderId}|${serialKey(partNumber, serial)}`;
+export const partSerialOnWorkOrder = (workOrderId: string, partNumber: string, serial: string) =>
+  `${workOrderId}|${serialKey(partNumber, serial)}`;
 
 /** What the merge knows of a serial-numbered part already on a job. */
 export interface SerialOnFile {

@@ -65,7 +65,8 @@ export function buildProgress(stages: readonly StageLike[], status: WorkOrderSta
   const out: StageProgress[] = stages.map((stage) => {
     const state = stageState(stage);
     let outOfTolerance = 0;
-    for (const step of stage.steps) for (const spots of step.current.values()) for (const r of spots.values()) if (r.verdict !== "in") outOfTolerance++;
+    for (const step of stage.steps)
+      for (const spots of step.current.values()) for (const r of spots.values()) if (r.verdict !== "in") outOfTolerance++;
     return {
       procedureName: stage.procedureName,
       key: stage.key,
@@ -86,7 +87,10 @@ export function buildProgress(stages: readonly StageLike[], status: WorkOrderSta
   } else if (status === "in_build" && out.some((s) => s.state === "waiting_review")) {
     due = { to: "in_review", why: "Signed-off stages are waiting for the supervisor." };
   } else if (status === "in_review" && allApproved) {
-    due = { to: "on_dyno", why: "Every stage is approved by the supervisor: the engine can go on the dyno (or to ready when no dyno work is booked)." };
+    due = {
+      to: "on_dyno",
+      why: "Every stage is approved by the supervisor: the engine can go on the dyno (or to ready when no dyno work is booked).",
+    };
   } else if (status === "in_review" && out.some((s) => s.state === "sent_back")) {
     due = { to: "in_build", why: "The supervisor sent work back to the bench." };
   }

@@ -148,9 +148,12 @@ function makeSheet(sheetNumber: number): SheetInput {
     const nominal = 0.05 + (i % 25) * 0.4;
     extraChecks.push({
       reading: inchOrMm(jitter(nominal, nominal * 0.03)),
-      spec: { unit: i % 3 === 0 ? "in" : "mm", ...(i % 3 === 0
-        ? { nominal: nominal / 25.4, min: (nominal * 0.98) / 25.4, max: (nominal * 1.02) / 25.4 }
-        : { nominal, min: nominal * 0.98, max: nominal * 1.02 }) },
+      spec: {
+        unit: i % 3 === 0 ? "in" : "mm",
+        ...(i % 3 === 0
+          ? { nominal: nominal / 25.4, min: (nominal * 0.98) / 25.4, max: (nominal * 1.02) / 25.4 }
+          : { nominal, min: nominal * 0.98, max: nominal * 1.02 }),
+      },
     });
   }
   const torqueSpecs: TorqueSpec[] = [
@@ -322,7 +325,11 @@ function computeSheet(s: SheetInput): SheetCounts {
 
   // dyno: correction and a power curve
   const pv = vaporPressureKpa(s.dyno.temperatureC, s.dyno.rh);
-  const cf = powerCorrectionFactor("SAE_J1349", { pressureKpa: s.dyno.pressureKpa, temperatureC: s.dyno.temperatureC, vaporPressureKpa: pv });
+  const cf = powerCorrectionFactor("SAE_J1349", {
+    pressureKpa: s.dyno.pressureKpa,
+    temperatureC: s.dyno.temperatureC,
+    vaporPressureKpa: pv,
+  });
   evaluations += 2;
   readings += 3;
   for (const [rpm, tq] of s.dyno.torquePoints) {

@@ -76,7 +76,10 @@ async function rawInsert(db: Kysely<Database>, ops: Operation[]): Promise<number
     for (let i = 0; i < ops.length; i += 5_000) {
       const chunk = ops.slice(i, i + 5_000);
       await sql`INSERT INTO bench_scratch (id, work_order_id, kind, author_id, device_id, device_time, stamp, payload) VALUES ${sql.join(
-        chunk.map((o) => sql`(${o.id}, ${o.workOrderId}, ${o.kind}, ${o.authorId}, ${o.deviceId}, ${o.deviceTime}, ${o.stamp}, ${JSON.stringify(o.payload)})`),
+        chunk.map(
+          (o) =>
+            sql`(${o.id}, ${o.workOrderId}, ${o.kind}, ${o.authorId}, ${o.deviceId}, ${o.deviceTime}, ${o.stamp}, ${JSON.stringify(o.payload)})`,
+        ),
       )}`.execute(trx);
     }
   });
@@ -108,7 +111,8 @@ export async function run(): Promise<BenchFigures> {
         const t0 = performance.now();
         const res = await mergeBatch(db, job.user, tablet.batch(ops));
         mergeTimes.push(performance.now() - t0);
-        if (res.accepted.length !== n) throw new Error(`expected ${n} accepted, got ${res.accepted.length} (refused: ${JSON.stringify(res.refused.slice(0, 3))})`);
+        if (res.accepted.length !== n)
+          throw new Error(`expected ${n} accepted, got ${res.accepted.length} (refused: ${JSON.stringify(res.refused.slice(0, 3))})`);
         rawTimes.push(await rawInsert(db, ops));
       }
       const mergeMs = median(mergeTimes);
@@ -170,7 +174,9 @@ export async function run(): Promise<BenchFigures> {
 export function print(f: BenchFigures): void {
   const pad = (s: string | number, n: number) => String(s).padStart(n);
   console.log("\nSync merge (mergeBatch, one transaction per batch; median of 3) vs raw multi-row INSERT of the same rows");
-  console.log(`${pad("operations", 11)} ${pad("merge ms", 10)} ${pad("merge ops/s", 12)} ${pad("raw ms", 9)} ${pad("raw rows/s", 11)} ${pad("merge/raw", 10)}`);
+  console.log(
+    `${pad("operations", 11)} ${pad("merge ms", 10)} ${pad("merge ops/s", 12)} ${pad("raw ms", 9)} ${pad("raw rows/s", 11)} ${pad("merge/raw", 10)}`,
+  );
   for (const s of f.sizes) {
     console.log(
       `${pad(s.operations.toLocaleString("en"), 11)} ${pad(s.mergeMs.toFixed(1), 10)} ${pad(s.mergeOpsPerS.toLocaleString("en"), 12)} ${pad(s.rawInsertMs.toFixed(1), 9)} ${pad(s.rawRowsPerS.toLocaleString("en"), 11)} ${pad((s.mergeMs / s.rawInsertMs).toFixed(1) + "×", 10)}`,

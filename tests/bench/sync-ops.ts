@@ -30,8 +30,16 @@ export async function fixtureSpecs(
   fx: { procedures: { id: string; templateVersionId: string }[]; stepByKey: Record<string, { id: string }> },
 ): Promise<FixtureSpecs> {
   const step = (key: string) => fx.stepByKey[key].id;
-  const m = await db.selectFrom("measurement_specs").select(["id", "key", "step_id", "reading_labels"]).where("step_id", "in", [step("bore-cyl-1"), step("piston-clearance")]).execute();
-  const t = await db.selectFrom("torque_specs").select(["id", "step_id"]).where("step_id", "in", [step("rod-bolts"), step("case-bolts")]).execute();
+  const m = await db
+    .selectFrom("measurement_specs")
+    .select(["id", "key", "step_id", "reading_labels"])
+    .where("step_id", "in", [step("bore-cyl-1"), step("piston-clearance")])
+    .execute();
+  const t = await db
+    .selectFrom("torque_specs")
+    .select(["id", "step_id"])
+    .where("step_id", "in", [step("rod-bolts"), step("case-bolts")])
+    .execute();
   const timer = await db.selectFrom("timer_specs").select(["id"]).where("step_id", "=", step("case-sealant")).executeTakeFirstOrThrow();
   const bore = m.find((x) => x.key === "bore-1")!;
   return {
@@ -86,8 +94,22 @@ export class Tablet {
     return this.make("step.completed", { stepId }, over);
   }
 
-  read(stepId: string, specId: string, readingIndex: number, value: number, extra: { supersedesId?: string; note?: string; unit?: "mm" | "in" | "µm" } = {}) {
-    return this.make("measurement.recorded", { stepId, specId, readingIndex, value, unit: extra.unit ?? "mm", ...(extra.note ? { note: extra.note } : {}), ...(extra.supersedesId ? { supersedesId: extra.supersedesId } : {}) });
+  read(
+    stepId: string,
+    specId: string,
+    readingIndex: number,
+    value: number,
+    extra: { supersedesId?: string; note?: string; unit?: "mm" | "in" | "µm" } = {},
+  ) {
+    return this.make("measurement.recorded", {
+      stepId,
+      specId,
+      readingIndex,
+      value,
+      unit: extra.unit ?? "mm",
+      ...(extra.note ? { note: extra.note } : {}),
+      ...(extra.supersedesId ? { supersedesId: extra.supersedesId } : {}),
+    });
   }
 
   bolt(stepId: string, torqueSpecId: string, passIndex: number, bolt: number) {

@@ -40,7 +40,9 @@ test("a mechanic records a step offline, reloads offline, and every entry reache
   await expect(page.getByTestId("waiting-count")).toHaveText("7 waiting to send");
   await expect(page.getByTestId("step-title")).toHaveText("Piston-to-wall clearance");
 
-  const before = await query("SELECT count(*)::int AS n FROM measurements m JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1006");
+  const before = await query(
+    "SELECT count(*)::int AS n FROM measurements m JOIN work_orders w ON w.id = m.work_order_id WHERE w.number = 1006",
+  );
   expect(before[0].n).toBe(0);
 
   await context.setOffline(false);
@@ -55,9 +57,13 @@ test("a mechanic records a step offline, reloads offline, and every entry reache
   expect(readings.map((r) => r.value)).toEqual(BORE);
   expect(readings.map((r) => r.reading_index)).toEqual([0, 1, 2, 3, 4, 5]);
   expect(readings.every((r) => r.verdict === "in")).toBe(true);
-  const done = await query("SELECT count(*)::int AS n FROM step_completions c JOIN work_orders w ON w.id = c.work_order_id WHERE w.number = 1006");
+  const done = await query(
+    "SELECT count(*)::int AS n FROM step_completions c JOIN work_orders w ON w.id = c.work_order_id WHERE w.number = 1006",
+  );
   expect(done[0].n).toBe(1);
-  const ops = await query("SELECT count(*)::int AS n, count(DISTINCT o.id)::int AS d FROM operations o JOIN work_orders w ON w.id = o.work_order_id WHERE w.number = 1006");
+  const ops = await query(
+    "SELECT count(*)::int AS n, count(DISTINCT o.id)::int AS d FROM operations o JOIN work_orders w ON w.id = o.work_order_id WHERE w.number = 1006",
+  );
   expect(ops[0]).toEqual({ n: 7, d: 7 });
 });
 

@@ -8,7 +8,11 @@ import { demoUser, signIn } from "./support/demo-users";
 // "Torque connecting-rod bolts", where a serial-numbered connecting rod goes in.
 const SERIAL = "GSE-R-2231";
 
-test("a mechanic records a serial-numbered part at a step offline; it reaches PostgreSQL once and shows on the office's work order", async ({ page, context, browser }) => {
+test("a mechanic records a serial-numbered part at a step offline; it reaches PostgreSQL once and shows on the office's work order", async ({
+  page,
+  context,
+  browser,
+}) => {
   page.on("pageerror", (e) => console.log(`[page error] ${e.message}`));
   const mechanic = await signIn(page, "mechanic");
   await waitForServiceWorker(page);
@@ -32,7 +36,10 @@ test("a mechanic records a serial-numbered part at a step offline; it reaches Po
   await expect(parts.getByText("give the serial number or the batch number (or both)")).toBeVisible();
   await expect(page.getByTestId("waiting-count")).toHaveText("Nothing waiting to send");
   // The open form, with its error showing, passes the same checks as the other bench screens.
-  const axe = await new AxeBuilder({ page }).include("section[aria-labelledby^='parts-']").withTags(["wcag2a", "wcag2aa", "wcag21aa", "wcag22aa"]).analyze();
+  const axe = await new AxeBuilder({ page })
+    .include("section[aria-labelledby^='parts-']")
+    .withTags(["wcag2a", "wcag2aa", "wcag21aa", "wcag22aa"])
+    .analyze();
   expect(axe.violations.map((v) => `${v.id} (${v.nodes.length}) ${v.help}`)).toEqual([]);
 
   await parts.getByLabel("Serial number").fill(SERIAL);
@@ -59,16 +66,35 @@ test("a mechanic records a serial-numbered part at a step offline; it reaches Po
   await waitForSynced(page);
   await expect(page.getByTestId("step-part")).toContainText("fitted by Tomas Reyes · ✔ on record");
 
-  const rows = await query<{ id: string; part_number: string; quantity: number; fitted_by: string; step: string; number: number; operation_id: string }>(
+  const rows = await query<{
+    id: string;
+    part_number: string;
+    quantity: number;
+    fitted_by: string;
+    step: string;
+    number: number;
+    operation_id: string;
+  }>(
     `SELECT p.id, p.part_number, p.quantity, u.email AS fitted_by, s.title AS step, w.number, p.operation_id
      FROM parts_fitted p JOIN users u ON u.id = p.fitted_by JOIN template_steps s ON s.id = p.step_id JOIN work_orders w ON w.id = p.work_order_id
      WHERE p.serial = $1`,
     [SERIAL],
   );
   expect(rows).toEqual([
-    { id: expect.any(String), part_number: "GSE-CR-130", quantity: 1, fitted_by: mechanic.email, step: "Torque connecting-rod bolts", number: 1006, operation_id: expect.any(String) },
+    {
+      id: expect.any(String),
+      part_number: "GSE-CR-130",
+      quantity: 1,
+      fitted_by: mechanic.email,
+      step: "Torque connecting-rod bolts",
+      number: 1006,
+      operation_id: expect.any(String),
+    },
   ]);
-  const ops = await query<{ n: number }>("SELECT count(*)::int AS n FROM operations WHERE kind = 'part.fitted' AND payload->>'serial' = $1", [SERIAL]);
+  const ops = await query<{ n: number }>(
+    "SELECT count(*)::int AS n FROM operations WHERE kind = 'part.fitted' AND payload->>'serial' = $1",
+    [SERIAL],
+  );
   expect(ops).toEqual([{ n: 1 }]);
   const audit = await query<{ outcome: string }>("SELECT outcome FROM audit_log WHERE entity_id = $1", [rows[0].operation_id]);
   expect(audit).toEqual([{ outcome: "accepted" }]);

@@ -16,7 +16,10 @@ async function openStep(page: Page, n: number) {
   await expect(page.getByText(new RegExp(`^Step ${n} of \\d+$`))).toBeVisible();
 }
 
-test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer that survives a reload — offline, then synced", async ({ page, context }) => {
+test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer that survives a reload — offline, then synced", async ({
+  page,
+  context,
+}) => {
   page.on("pageerror", (e) => console.log(`[page error] ${e.message}`));
   await page.clock.install();
   await signIn(page, "mechanic");

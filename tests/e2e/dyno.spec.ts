@@ -5,7 +5,7 @@ import { signIn } from "./support/demo-users";
 import { fromOurPage } from "./support/same-origin";
 
 const SHOTS = "test-results/screens";
-const HP_PER_KW = 1 / 0.745699871582270; // NIST SP 811 B.8: 1 hp (550 ft·lbf/s) = 745.699 9 W
+const HP_PER_KW = 1 / 0.74569987158227; // NIST SP 811 B.8: 1 hp (550 ft·lbf/s) = 745.699 9 W
 const LBFFT_PER_NM = 1 / 1.3558179483314; // NIST SP 811 B.8: 1 lbf·ft = 1.355 818 N·m
 
 async function pdfText(path: string) {
@@ -23,7 +23,8 @@ async function openDemoTurboJob(page: Page) {
   await expect(page.getByRole("heading", { level: 1, name: "Corvid RX1000 Turbo" })).toBeVisible();
 }
 
-const firstNumber = async (page: Page, testId: string, row = 0) => Number((await page.getByTestId(testId).nth(row).locator("strong").innerText()).trim());
+const firstNumber = async (page: Page, testId: string, row = 0) =>
+  Number((await page.getByTestId(testId).nth(row).locator("strong").innerText()).trim());
 
 async function demoJobId(browser: Browser): Promise<string> {
   const ctx = await browser.newContext();
@@ -146,7 +147,10 @@ test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing save
   await expect(page.getByTestId("withdraw-run")).toHaveCount(0);
   const jobId = /\/jobs\/([0-9a-f-]{36})\/dyno/.exec(page.url())![1];
   const { runs } = (await (await page.request.get(`/api/jobs/${jobId}/dyno-runs`)).json()) as { runs: Array<{ id: string }> };
-  const refused = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${runs[0].id}/withdraw`, { data: { reason: "Mechanic trying to withdraw" }, headers: fromOurPage });
+  const refused = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${runs[0].id}/withdraw`, {
+    data: { reason: "Mechanic trying to withdraw" },
+    headers: fromOurPage,
+  });
   expect(refused.status()).toBe(403);
   expect(JSON.stringify(await refused.json())).not.toContain(runs[0].id);
   const runButtons = page.getByRole("button", { name: /psi/ }).filter({ has: page.locator("span") });
@@ -156,7 +160,9 @@ test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing save
   await page.getByLabel("Air pressure (kPa)").fill("100.1");
   await page.getByLabel("Air temperature (°C)").fill("21");
   await page.getByLabel("Humidity (%)").fill("50");
-  await page.getByLabel(/^Columns:/).setInputFiles({ name: "bad.csv", mimeType: "text/csv", buffer: Buffer.from("rpm,torque_nm\n4000,100\n4500,lots\n3900,110\n") });
+  await page
+    .getByLabel(/^Columns:/)
+    .setInputFiles({ name: "bad.csv", mimeType: "text/csv", buffer: Buffer.from("rpm,torque_nm\n4000,100\n4500,lots\n3900,110\n") });
   await page.getByRole("button", { name: "Save run" }).click();
   const errors = page.getByTestId("curve-errors");
   await expect(errors).toContainText("Line 3, torque_nm: Torque must be a number");
@@ -170,7 +176,11 @@ test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing save
   await page.getByLabel("Air pressure (kPa)").fill("abc");
   await page.getByLabel("Air temperature (°C)").fill("21");
   await page.getByLabel("Humidity (%)").fill("50");
-  await page.getByLabel(/^Columns:/).setInputFiles({ name: "good.csv", mimeType: "text/csv", buffer: Buffer.from("rpm,torque_nm\n4000,100\n6000,130\n8000,128\n10000,110\n") });
+  await page.getByLabel(/^Columns:/).setInputFiles({
+    name: "good.csv",
+    mimeType: "text/csv",
+    buffer: Buffer.from("rpm,torque_nm\n4000,100\n6000,130\n8000,128\n10000,110\n"),
+  });
   await page.getByRole("button", { name: "Save run" }).click();
   await expect(page.getByTestId("error-pressureKpa")).toContainText("Air pressure must be a number");
   await page.getByLabel("Air pressure (kPa)").fill("100.1");
@@ -223,7 +233,10 @@ test("a supervisor types a curve into the table; a bad cell is named by row and 
   // The route checks the reason the same way: a 400 naming the field, and nothing withdrawn.
   const jobId = /\/jobs\/([0-9a-f-]{36})\/dyno/.exec(page.url())![1];
   const typedId = (await runSelect.inputValue())!;
-  const short = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${typedId}/withdraw`, { data: { reason: "no" }, headers: fromOurPage });
+  const short = await page.request.post(`/api/jobs/${jobId}/dyno-runs/${typedId}/withdraw`, {
+    data: { reason: "no" },
+    headers: fromOurPage,
+  });
   expect(short.status()).toBe(400);
   expect((await short.json()).issues).toEqual([{ path: "reason", message: "Say why the run is withdrawn (at least 5 characters)." }]);
   await withdraw.getByLabel("Why it is withdrawn").fill("Typed on the wrong job card");
@@ -232,6 +245,8 @@ test("a supervisor types a curve into the table; a bad cell is named by row and 
   await expect(page.getByRole("row", { name: /Typed check/ })).toHaveCount(0);
   await expect(page.getByRole("button", { name: /Typed check/ })).toHaveCount(0);
   await expect(page.getByTestId("curve-chart").locator("path.recharts-line-curve")).toHaveCount(curves - 2);
-  await expect(page.getByTestId("withdrawn-run").filter({ hasText: "Typed check" })).toContainText("by Dana Kowal: “Typed on the wrong job card”");
+  await expect(page.getByTestId("withdrawn-run").filter({ hasText: "Typed check" })).toContainText(
+    "by Dana Kowal: “Typed on the wrong job card”",
+  );
   await page.screenshot({ path: `${SHOTS}/dyno-withdrawn.png`, fullPage: true });
 });

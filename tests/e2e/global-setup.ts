@@ -14,5 +14,20 @@ export default async function globalSetup() {
   mkdirSync(dir, { recursive: true });
   const png = path.join(dir, "tag.png");
   await QRCode.toFile(png, FAKE_CAMERA_TAG, { width: 260, margin: 4 });
-  execFileSync("ffmpeg", ["-y", "-loglevel", "error", "-loop", "1", "-i", png, "-vf", "pad=640:480:(ow-iw)/2:(oh-ih)/2:white,format=yuv420p", "-t", "2", "-r", "10", fakeCameraFile]);
+  execFileSync("ffmpeg", [
+    "-y",
+    "-loglevel",
+    "error",
+    "-loop",
+    "1",
+    "-i",
+    png,
+    "-vf",
+    "pad=640:480:(ow-iw)/2:(oh-ih)/2:white,format=yuv420p",
+    "-t",
+    "2",
+    "-r",
+    "10",
+    fakeCameraFile,
+  ]);
 }

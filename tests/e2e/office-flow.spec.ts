@@ -93,11 +93,19 @@ test("intake → quote → customer approval → deposit paid → in build", asy
 
   // the payment event is in the fake, and its signed webhook reached the app and was accepted
   const events = await paymentEvents();
-  const paid = events.find((e) => e.type === "payment_intent.succeeded" && e.data.object.amount === 5000 && e.data.object.currency === "gbp");
+  const paid = events.find(
+    (e) => e.type === "payment_intent.succeeded" && e.data.object.amount === 5000 && e.data.object.currency === "gbp",
+  );
   expect(paid).toBeTruthy();
   // the fake records a delivery once it has read the app's answer, which can be just after the page shows "paid"
   await expect
-    .poll(async () => (await webhookDeliveries()).find((d) => d.eventId === paid!.id && d.url.endsWith("/api/payments/webhook") && d.url.includes(`:${process.env.E2E_PORT ?? 3100}/`))?.status, { timeout: 10_000 })
+    .poll(
+      async () =>
+        (await webhookDeliveries()).find(
+          (d) => d.eventId === paid!.id && d.url.endsWith("/api/payments/webhook") && d.url.includes(`:${process.env.E2E_PORT ?? 3100}/`),
+        )?.status,
+      { timeout: 10_000 },
+    )
     .toBe(200);
   await expectMail(rider.email, "Deposit received for work order 1008");
 

@@ -20,13 +20,17 @@ test("templates: export, a bad import refused with path and message, a good impo
 
   const bad = structuredClone(exported);
   bad.stages[1].steps[0].torque[0].boltCount = 0;
-  await page.getByLabel("Template file (.json)").setInputFiles({ name: "bad.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(bad)) });
+  await page
+    .getByLabel("Template file (.json)")
+    .setInputFiles({ name: "bad.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(bad)) });
   await page.getByRole("button", { name: "Import" }).click();
   await expect(page.getByTestId("form-error")).toHaveText("The file was not imported: nothing was written.");
   await expect(page.getByTestId("import-problems")).toContainText("stages[1].steps[0].torque[0].boltCount:");
 
   const good = { ...exported, name: "Turbo kit and intercooler fitting (shop edition)" };
-  await page.getByLabel("Template file (.json)").setInputFiles({ name: "good.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(good)) });
+  await page
+    .getByLabel("Template file (.json)")
+    .setInputFiles({ name: "good.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(good)) });
   await page.getByRole("button", { name: "Import" }).click();
   await expect(page.getByTestId("form-ok")).toHaveText("✔ Imported: turbo-kit-intercooler (version 2).");
   await expect(page.getByRole("heading", { name: "Turbo kit and intercooler fitting (shop edition)" })).toBeVisible();
@@ -121,7 +125,10 @@ test("tag labels: a printable A4 sheet with a QR code and the tag code per bike"
   await expect(labels.first()).toContainText("GSW-0001");
   await expect(labels.first().locator("svg")).toHaveCount(1);
   // the sheet is 210 mm wide: at 96 px per inch that is ~794 px
-  const width = await page.getByTestId("label-sheet").first().evaluate((el) => el.getBoundingClientRect().width);
+  const width = await page
+    .getByTestId("label-sheet")
+    .first()
+    .evaluate((el) => el.getBoundingClientRect().width);
   expect(Math.round(width)).toBe(794);
   await page.emulateMedia({ media: "print" });
   await expect(page.getByRole("button", { name: "Print the sheet" })).toBeHidden();
@@ -180,13 +187,17 @@ test("the customer sees how far the build has got, in the same figures the offic
   await office.getByRole("link", { name: "1001", exact: true }).click();
   const summary = office.getByTestId("build-progress").getByTestId("progress-summary");
   await expect(summary).toContainText("steps done");
-  const [, done, total, approved, stages] = /^(\d+) of (\d+) steps done · (\d+) of (\d+) stages approved/.exec((await summary.textContent())!)!;
+  const [, done, total, approved, stages] = /^(\d+) of (\d+) steps done · (\d+) of (\d+) stages approved/.exec(
+    (await summary.textContent())!,
+  )!;
   expect(Number(done)).toBeGreaterThan(0); // the demo turbo build has its bottom end done
 
   const customer = await (await browser.newContext()).newPage();
   await signIn(customer, "customer"); // Felix Amadi owns the bike of job #1001
   const card = customer.getByTestId("my-work-order").filter({ hasText: "#1001" });
-  await expect(card.getByTestId("my-build-progress")).toHaveText(`Build: ${done} of ${total} steps done · ${approved} of ${stages} stages checked by the workshop supervisor`);
+  await expect(card.getByTestId("my-build-progress")).toHaveText(
+    `Build: ${done} of ${total} steps done · ${approved} of ${stages} stages checked by the workshop supervisor`,
+  );
   // a job not on the bench shows no build line
   await expect(customer.getByTestId("my-work-order").filter({ hasText: "#1003" }).getByTestId("my-build-progress")).toHaveCount(0);
 });

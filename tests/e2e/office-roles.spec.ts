@@ -106,7 +106,10 @@ test("bad input to an office route is a specific 400, not a server error", async
       { path: "email", message: "enter a valid e-mail address, or leave it empty" },
     ]),
   );
-  const notJson = await page.request.post("/api/office/customers", { headers: { "content-type": "application/json", ...fromOurPage }, data: Buffer.from("{oops") });
+  const notJson = await page.request.post("/api/office/customers", {
+    headers: { "content-type": "application/json", ...fromOurPage },
+    data: Buffer.from("{oops"),
+  });
   expect(notJson.status()).toBe(400);
   expect((await notJson.json()).error).toMatch(/^The body is not valid JSON: /);
   const badId = await page.request.get("/api/office/work-orders/not-a-uuid");

@@ -3,7 +3,9 @@ import { signIn } from "./support/demo-users";
 import { fromOurPage } from "./support/same-origin";
 
 // Sam Okafor is a demo customer without a sign-in (bikes GSW-0004, GSW-0005, GSW-0006).
-test("the office gives a customer a sign-in; the customer sees only their bikes; turned off, it no longer signs in", async ({ browser }) => {
+test("the office gives a customer a sign-in; the customer sees only their bikes; turned off, it no longer signs in", async ({
+  browser,
+}) => {
   const office = await (await browser.newContext()).newPage();
   await signIn(office, "office");
   await office.getByRole("link", { name: "Sign-ins" }).click();
@@ -54,7 +56,10 @@ test("the office gives a customer a sign-in; the customer sees only their bikes;
 test("only the office manages sign-ins", async ({ page }) => {
   await signIn(page, "supervisor");
   expect((await page.request.get("/api/office/users")).status()).toBe(403);
-  const res = await page.request.post("/api/office/users", { data: { name: "X Y", email: "x@y.test", role: "office", password: "0123456789", customerId: null }, headers: fromOurPage });
+  const res = await page.request.post("/api/office/users", {
+    data: { name: "X Y", email: "x@y.test", role: "office", password: "0123456789", customerId: null },
+    headers: fromOurPage,
+  });
   expect(res.status()).toBe(403);
   await page.goto("/office/users");
   await expect(page).toHaveURL(/\/review\?refused=users/);

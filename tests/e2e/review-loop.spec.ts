@@ -28,11 +28,14 @@ async function mailAbout(address: string, signOffId: string) {
   type Mail = { subject: string; text?: string; to: Array<{ address: string }> };
   let found: Mail | undefined;
   await expect
-    .poll(async () => {
-      const all = (await (await fetch(`${MAIL_WEB}/api/email`)).json()) as Mail[];
-      found = all.find((m) => m.to.some((t) => t.address === address) && (m.text ?? "").includes(`/review/${signOffId}`));
-      return Boolean(found);
-    }, { timeout: 20_000, message: `e-mail to ${address} about sign-off ${signOffId}` })
+    .poll(
+      async () => {
+        const all = (await (await fetch(`${MAIL_WEB}/api/email`)).json()) as Mail[];
+        found = all.find((m) => m.to.some((t) => t.address === address) && (m.text ?? "").includes(`/review/${signOffId}`));
+        return Boolean(found);
+      },
+      { timeout: 20_000, message: `e-mail to ${address} about sign-off ${signOffId}` },
+    )
     .toBe(true);
   return found!;
 }
@@ -46,7 +49,9 @@ async function reviewCount(page: Page): Promise<number> {
 // Job #1007 is seeded for this test alone: no other test reads on it or starts its timers, so the
 // counts below are exact. (On a shared job, another test's cure timer ran out mid-test and its
 // banner sat over the step.)
-test("offline sign-off → send back with a reason → reopened on the tablet → redo → approve, with e-mail and audit trail", async ({ browser }) => {
+test("offline sign-off → send back with a reason → reopened on the tablet → redo → approve, with e-mail and audit trail", async ({
+  browser,
+}) => {
   test.setTimeout(300_000);
   const bench = await browser.newContext({ viewport: { width: 1024, height: 768 } });
   const mech = await bench.newPage();
@@ -71,12 +76,16 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   await mech.getByRole("button", { name: "All steps" }).click();
   await mech.getByRole("button", { name: `Sign off “${STAGE}” as Tomas Reyes` }).click();
   await expect(mech.getByTestId("stage-signed").first()).toContainText("(waiting to send)");
-  const offlineSignOffs = await query("SELECT count(*)::int AS n FROM sign_offs s JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1007");
+  const offlineSignOffs = await query(
+    "SELECT count(*)::int AS n FROM sign_offs s JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1007",
+  );
   expect(offlineSignOffs[0].n).toBe(0);
 
   await bench.setOffline(false);
   await waitForSynced(mech);
-  const [signOff] = await query<{ id: string }>("SELECT s.id FROM sign_offs s JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1007 AND s.stage_key = 'measure'");
+  const [signOff] = await query<{ id: string }>(
+    "SELECT s.id FROM sign_offs s JOIN work_orders w ON w.id = s.work_order_id WHERE w.number = 1007 AND s.stage_key = 'measure'",
+  );
   expect(signOff).toBeTruthy();
 
   // --- The supervisor finds it in the queue and sends it back.
@@ -151,12 +160,20 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   await expect(again).toContainText("none");
   await again.getByRole("link", { name: /Review #1007/ }).click();
   await expect(sup.getByText("Earlier sign-offs of this stage (1)")).toBeVisible();
-  await expect(sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" })).toContainText(`Sent back once — latest: “${REASON}”`);
+  await expect(sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" })).toContainText(
+    `Sent back once — latest: “${REASON}”`,
+  );
   // The corrected spot now counts; the reading it replaced stays on record.
-  const corrected = sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" }).getByTestId("reading-row").filter({ hasText: "0.44 mm" });
+  const corrected = sup
+    .getByTestId("review-step")
+    .filter({ hasText: "Top ring end gap" })
+    .getByTestId("reading-row")
+    .filter({ hasText: "0.44 mm" });
   await expect(corrected).toHaveCount(1);
   await expect(corrected).toContainText("current");
-  await expect(sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" }).getByTestId("reading-row").filter({ hasText: "0.5 mm" })).toContainText("replaced by a correction");
+  await expect(
+    sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" }).getByTestId("reading-row").filter({ hasText: "0.5 mm" }),
+  ).toContainText("replaced by a correction");
   await sup.getByRole("radio", { name: "✔ Approve" }).check();
   await sup.getByRole("button", { name: `Approve “${STAGE}”` }).click();
   await expect(sup.getByTestId("form-ok")).toContainText("Approved");
@@ -192,7 +209,13 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   expect(download.suggestedFilename()).toMatch(/^audit-log-job-1007-\d{4}-\d\d-\d\d\.csv$/);
   const csv = Papa.parse<Record<string, string>>(await readFile(await download.path(), "utf8"), { header: true, skipEmptyLines: true });
   const sendBack = csv.data.find((r) => r.action === "review.send-back" && r.outcome === "accepted");
-  expect(sendBack).toMatchObject({ work_order: "1007", actor_email: demoUser("supervisor").email, actor_role: "supervisor", reason: REASON, entity_id: signOff.id });
+  expect(sendBack).toMatchObject({
+    work_order: "1007",
+    actor_email: demoUser("supervisor").email,
+    actor_role: "supervisor",
+    reason: REASON,
+    entity_id: signOff.id,
+  });
   expect(csv.data.filter((r) => r.action === "sync.stage.signed-off").map((r) => r.actor_name)).toEqual(["Tomas Reyes", "Tomas Reyes"]);
   expect(csv.data.every((r) => r.work_order === "1007")).toBe(true);
 
@@ -207,7 +230,9 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   await expect(measured).toContainText("✔ Approved");
   await expect(measured).toContainText("4/4");
   await expect(measured).toContainText("none");
-  await expect(progress.getByTestId("progress-summary")).toContainText(/^4 of \d+ steps done · 1 of \d+ stages approved · no readings out of tolerance$/);
+  await expect(progress.getByTestId("progress-summary")).toContainText(
+    /^4 of \d+ steps done · 1 of \d+ stages approved · no readings out of tolerance$/,
+  );
   await expect(progress.getByTestId("progress-due")).toHaveCount(0);
   await officePage.screenshot({ path: test.info().outputPath("office-build-progress.png"), fullPage: true });
 

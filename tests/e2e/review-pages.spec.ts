@@ -20,10 +20,16 @@ async function headPrepSignOff(): Promise<string> {
   return row.id;
 }
 
-for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024 }]) {
-  test(`supervisor: demo sign-off in the queue, its full record, the audit page (${viewport.width}×${viewport.height})`, async ({ page }) => {
+for (const viewport of [
+  { width: 1024, height: 768 },
+  { width: 768, height: 1024 },
+]) {
+  test(`supervisor: demo sign-off in the queue, its full record, the audit page (${viewport.width}×${viewport.height})`, async ({
+    page,
+  }) => {
     await page.setViewportSize(viewport);
-    const shot = (name: string) => page.screenshot({ path: `test-results/review-screens/${name}-${viewport.width}x${viewport.height}.png`, fullPage: false });
+    const shot = (name: string) =>
+      page.screenshot({ path: `test-results/review-screens/${name}-${viewport.width}x${viewport.height}.png`, fullPage: false });
     await signIn(page, "supervisor");
     await expect(page).toHaveURL(/\/review$/);
     await expect(page.getByTestId("review-count")).toHaveText(/^[1-9]\d* waiting for review$/);
@@ -32,7 +38,9 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
     await expect(row).toContainText("Corvid RX1000 Turbo");
     await expect(row).toContainText("Tomas Reyes");
     // The bottom-end stages of #1001 were approved in the demo: not waiting.
-    await expect(page.getByTestId("review-queue").getByRole("row").filter({ hasText: "Measure before assembly" }).filter({ hasText: "#1001" })).toHaveCount(0);
+    await expect(
+      page.getByTestId("review-queue").getByRole("row").filter({ hasText: "Measure before assembly" }).filter({ hasText: "#1001" }),
+    ).toHaveCount(0);
     // Filters: a job number, a bike search and the signer, all answered by the server.
     await page.getByLabel("Job number").fill("1001");
     await expect(page.getByTestId("review-queue-page")).toContainText("1 in all");
@@ -70,7 +78,10 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
   });
 }
 
-test("mechanics and customers reach neither the review nor the audit pages nor their routes; nobody signed out does", async ({ page, request }) => {
+test("mechanics and customers reach neither the review nor the audit pages nor their routes; nobody signed out does", async ({
+  page,
+  request,
+}) => {
   const signOffId = await headPrepSignOff();
   const routes = (id: string) => [
     { method: "GET", url: "/api/review/queue" },
@@ -94,7 +105,8 @@ test("mechanics and customers reach neither the review nor the audit pages nor t
     await expect(page.getByRole("link", { name: "Review" })).toHaveCount(0);
     await expect(page.getByRole("link", { name: "Audit log" })).toHaveCount(0);
     for (const r of routes(signOffId)) {
-      const res = r.method === "GET" ? await page.request.get(r.url) : await page.request.post(r.url, { data: r.body, headers: fromOurPage });
+      const res =
+        r.method === "GET" ? await page.request.get(r.url) : await page.request.post(r.url, { data: r.body, headers: fromOurPage });
       expect(res.status(), `${r.method} ${r.url} as ${u.key}`).toBe(403);
       const body = await res.json();
       expect(body).toEqual({ error: `Your role (${u.role}) may not use this.`, issues: [] });
@@ -107,7 +119,8 @@ test("mechanics and customers reach neither the review nor the audit pages nor t
 test("bad input to the review routes gets a clear answer naming the problem, never a server error", async ({ page }) => {
   const signOffId = await headPrepSignOff();
   await signIn(page, "office");
-  const post = (data: unknown) => page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, { data: data as object, headers: fromOurPage });
+  const post = (data: unknown) =>
+    page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, { data: data as object, headers: fromOurPage });
 
   const noReason = await post({ decision: "sent_back", expectedDecisionId: null, reason: "", reopenStepIds: [] });
   expect(noReason.status()).toBe(400);
@@ -118,7 +131,10 @@ test("bad input to the review routes gets a clear answer naming the problem, nev
   expect(odd.status()).toBe(400);
   expect((await odd.json()).issues[0]).toMatchObject({ path: "decision", message: 'decision must be "approved" or "sent_back"' });
 
-  const notJson = await page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, { data: Buffer.from("{not json"), headers: { "content-type": "application/json", ...fromOurPage } });
+  const notJson = await page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, {
+    data: Buffer.from("{not json"),
+    headers: { "content-type": "application/json", ...fromOurPage },
+  });
   expect(notJson.status()).toBe(400);
   expect((await notJson.json()).error).toMatch(/^The body is not valid JSON: /);
 
@@ -138,7 +154,9 @@ test("bad input to the review routes gets a clear answer naming the problem, nev
   expect(queue.signOffs.map((s: { signOffId: string }) => s.signOffId)).toContain(signOffId);
   const csv = await page.request.get("/api/audit/export?job=1001");
   expect(csv.status()).toBe(200);
-  expect((await csv.text()).split("\r\n")[0]).toBe("entry,logged_at,work_order,actor_name,actor_email,actor_role,device,action,entity,entity_id,outcome,reason,detail_json");
+  expect((await csv.text()).split("\r\n")[0]).toBe(
+    "entry,logged_at,work_order,actor_name,actor_email,actor_role,device,action,entity,entity_id,outcome,reason,detail_json",
+  );
   // None of the refused requests above changed anything.
   const decisions = await query("SELECT count(*)::int AS n FROM review_decisions WHERE sign_off_id = $1", [signOffId]);
   expect(decisions[0].n).toBe(0);

@@ -50,14 +50,34 @@ const fail = (res: http.ServerResponse, status: number, message: string, param?:
   send(res, status, { error: { type: "invalid_request_error", message, ...(param ? { param } : {}) } });
 
 async function emit(type: string, object: Obj) {
-  const event = { id: newId("evt"), object: "event", api_version: "2026-10-28.endive", created: Math.floor(Date.now() / 1000), livemode: false, type, data: { object }, pending_webhooks: endpoints.length };
+  const event = {
+    id: newId("evt"),
+    object: "event",
+    api_version: "2026-10-28.endive",
+    created: Math.floor(Date.now() / 1000),
+    livemode: false,
+    type,
+    data: { object },
+    pending_webhooks: endpoints.length,
+  };
   events.unshift(event);
   const payload = JSON.stringify(event);
   for (const ep of endpoints) {
     const header = Stripe.webhooks.generateTestHeaderString({ payload, secret });
     try {
-      const r = await fetch(ep.url, { method: "POST", headers: { "content-type": "application/json", "stripe-signature": header }, body: payload, signal: AbortSignal.timeout(5000) });
-      deliveries.unshift({ eventId: event.id, url: ep.url, status: r.status, answer: (await r.text()).slice(0, 300), at: new Date().toISOString() });
+      const r = await fetch(ep.url, {
+        method: "POST",
+        headers: { "content-type": "application/json", "stripe-signature": header },
+        body: payload,
+        signal: AbortSignal.timeout(5000),
+      });
+      deliveries.unshift({
+        eventId: event.id,
+        url: ep.url,
+        status: r.status,
+        answer: (await r.text()).slice(0, 300),
+        at: new Date().toISOString(),
+      });
     } catch (e) {
       deliveries.unshift({ eventId: event.id, url: ep.url, status: null, answer: (e as Error).message, at: new Date().toISOString() });
     }
@@ -89,10 +109,24 @@ async function handle(req: http.IncomingMessage, res: http.ServerResponse) {
 
   if (req.method === "POST" && url.pathname === "/v1/payment_intents") {
     const amount = Number(body.amount);
-    if (!Number.isInteger(amount) || amount < 1) return fail(res, 400, "amount must be a positive integer in the smallest currency unit", "amount");
-    if (typeof body.currency !== "string" || !/^[a-z]{3}$/.test(body.currency)) return fail(res, 400, "currency must be a three-letter lower-case code", "currency");
+    if (!Number.isInteger(amount) || amount < 1)
+      return fail(res, 400, "amount must be a positive integer in the smallest currency unit", "amount");
+    if (typeof body.currency !== "string" || !/^[a-z]{3}$/.test(body.currency))
+      return fail(res, 400, "currency must be a three-letter lower-case code", "currency");
     const id = newId("pi");
-    const pi = { id, object: "payment_intent", amount, currency: body.currency, description: body.description ?? null, metadata: body.metadata ?? {}, status: "requires_payment_method", client_secret: `${id}_secret_${randomBytes(6).toString("hex")}`, created: Math.floor(Date.now() / 1000), livemode: false, payment_method: null };
+    const pi = {
+      id,
+      object: "payment_intent",
+      amount,
+      currency: body.currency,
+      description: body.description ?? null,
+      metadata: body.metadata ?? {},
+      status: "requires_payment_method",
+      client_secret: `${id}_secret_${randomBytes(6).toString("hex")}`,
+      created: Math.floor(Date.now() / 1000),
+      livemode: false,
+      payment_method: null,
+    };
     intents.set(id, pi);
     return remember(200, pi);
   }
@@ -116,7 +150,15 @@ async function handle(req: http.IncomingMessage, res: http.ServerResponse) {
     if (typeof body.url !== "string" || !/^https?:\/\//.test(body.url)) return fail(res, 400, "url must be an http(s) address", "url");
     let ep = endpoints.find((e) => e.url === body.url);
     if (!ep) endpoints.push((ep = { id: newId("we"), url: body.url }));
-    return remember(200, { id: ep.id, object: "webhook_endpoint", url: ep.url, enabled_events: ["*"], secret, status: "enabled", livemode: false });
+    return remember(200, {
+      id: ep.id,
+      object: "webhook_endpoint",
+      url: ep.url,
+      enabled_events: ["*"],
+      secret,
+      status: "enabled",
+      livemode: false,
+    });
   }
   if (req.method === "GET" && url.pathname === "/v1/events") {
     const limit = Math.min(100, Number(url.searchParams.get("limit") ?? 10) || 10);

@@ -4,5 +4,8 @@ import { z } from "zod";
 import { paymentsClient } from "@/app/_server/payments";
 
 const url = z.url().parse(process.argv[2]);
-const ep = await paymentsClient().webhookEndpoints.create({ url, enabled_events: ["payment_intent.succeeded", "payment_intent.payment_failed"] });
+const ep = await paymentsClient().webhookEndpoints.create({
+  url,
+  enabled_events: ["payment_intent.succeeded", "payment_intent.payment_failed"],
+});
 console.log(`[fakes] webhook endpoint ${ep.id} → ${ep.url}`);

@@ -17,19 +17,41 @@ import { useTestDb } from "./support/test-db";
 const db = useTestDb();
 // The three bench read routes, called through the route wrapper with the user and database given.
 const benchJobsResponse = (user: SessionUser | null, db: Db) => benchJobs.handle(appRequest("/api/bench/jobs"), { user, db });
-const jobSnapshotResponse = (user: SessionUser | null, db: Db, id: string) => jobSnapshot.handle(appRequest(`/api/bench/jobs/${id}`), { user, db, params: { id } });
-const tagLookupResponse = (user: SessionUser | null, db: Db, code: string) => tagLookup.handle(appRequest(`/api/bench/tags/${encodeURIComponent(code)}`), { user, db, params: { code } });
+const jobSnapshotResponse = (user: SessionUser | null, db: Db, id: string) =>
+  jobSnapshot.handle(appRequest(`/api/bench/jobs/${id}`), { user, db, params: { id } });
+const tagLookupResponse = (user: SessionUser | null, db: Db, code: string) =>
+  tagLookup.handle(appRequest(`/api/bench/tags/${encodeURIComponent(code)}`), { user, db, params: { code } });
 const asUser = (u: ShopFixture["users"]["mechanic"], customerId: string | null = null): SessionUser => ({ ...u, customerId });
 
 async function addJob(fx: ShopFixture, number: number, status: WorkOrderStatus, mechanicId: string | null) {
   const bike = await db
     .insertInto("bikes")
-    .values({ shop_id: fx.shopId, customer_id: fx.customerId, make: "Invented", model: `Model ${number}`, year: 2018, tag_code: `T-${randomUUID().slice(0, 8)}`, vin: null, engine_number: null, displacement_cc: 749, colour: "green" })
+    .values({
+      shop_id: fx.shopId,
+      customer_id: fx.customerId,
+      make: "Invented",
+      model: `Model ${number}`,
+      year: 2018,
+      tag_code: `T-${randomUUID().slice(0, 8)}`,
+      vin: null,
+      engine_number: null,
+      displacement_cc: 749,
+      colour: "green",
+    })
     .returning(["id", "tag_code"])
     .executeTakeFirstOrThrow();
   const wo = await db
     .insertInto("work_orders")
-    .values({ shop_id: fx.shopId, bike_id: bike.id, number, title: `Job ${number}`, status, intake_odometer_km: 10, assigned_mechanic_id: mechanicId, closed_at: null })
+    .values({
+      shop_id: fx.shopId,
+      bike_id: bike.id,
+      number,
+      title: `Job ${number}`,
+      status,
+      intake_odometer_km: 10,
+      assigned_mechanic_id: mechanicId,
+      closed_at: null,
+    })
     .returning("id")
     .executeTakeFirstOrThrow();
   return { id: wo.id, tag: bike.tag_code };
@@ -50,7 +72,13 @@ describe("GET /api/bench/jobs", () => {
     expect(res.status).toBe(200);
     const { jobs } = benchJobListSchema.parse(await res.json());
     expect(jobs.map((j) => j.id)).toEqual([fx.workOrderId, mine.id, unassigned.id, others.id]);
-    expect(jobs[0]).toMatchObject({ number: 1, assignedToMe: true, mayWork: true, statusLabel: "In build", bike: { tagCode: fx.bike.tag_code, model: "Test 1000" } });
+    expect(jobs[0]).toMatchObject({
+      number: 1,
+      assignedToMe: true,
+      mayWork: true,
+      statusLabel: "In build",
+      bike: { tagCode: fx.bike.tag_code, model: "Test 1000" },
+    });
     expect(jobs[2]).toMatchObject({ assignedMechanic: null, mayWork: true });
     expect(jobs[3]).toMatchObject({ assignedToMe: false, mayWork: false, assignedMechanic: { id: fx.users.mechanic2.id } });
   });
@@ -78,13 +106,25 @@ describe("GET /api/bench/jobs/[id]", () => {
     const merged = await mergeBatch(db, mech, t.batch([first, fix, done, bolt, signOff]));
     await db
       .insertInto("review_decisions")
-      .values({ sign_off_id: signOff.id, decision: "sent_back", reason: "Photo missing", reopened_step_ids: [specs.boreStepId], decided_by: fx.users.supervisor.id })
+      .values({
+        sign_off_id: signOff.id,
+        decision: "sent_back",
+        reason: "Photo missing",
+        reopened_step_ids: [specs.boreStepId],
+        decided_by: fx.users.supervisor.id,
+      })
       .execute();
 
     const res = await jobSnapshotResponse(mech, db, fx.workOrderId);
     expect(res.status).toBe(200);
     const snap = jobSnapshotSchema.parse(await res.json());
-    expect(snap.workOrder).toMatchObject({ id: fx.workOrderId, status: "in_build", openForBenchWork: true, assignedToMe: true, mayWork: true });
+    expect(snap.workOrder).toMatchObject({
+      id: fx.workOrderId,
+      status: "in_build",
+      openForBenchWork: true,
+      assignedToMe: true,
+      mayWork: true,
+    });
     expect(snap.bike.tagCode).toBe(fx.bike.tag_code);
 
     // the procedures as pinned: stages and steps in the template's order, with specs and cautions
@@ -95,10 +135,22 @@ describe("GET /api/bench/jobs/[id]", () => {
     const boreStep = bottom.stages[0].steps[0];
     const boreDoc = bottomEndTemplate.stages[0].steps[0];
     expect(boreStep.cautions).toEqual(boreDoc.cautions);
-    expect(boreStep.measurementSpecs[0]).toMatchObject({ min: boreDoc.measurements![0].min, max: boreDoc.measurements![0].max, readingLabels: boreDoc.measurements![0].readingLabels });
+    expect(boreStep.measurementSpecs[0]).toMatchObject({
+      min: boreDoc.measurements![0].min,
+      max: boreDoc.measurements![0].max,
+      readingLabels: boreDoc.measurements![0].readingLabels,
+    });
     const rodDoc = bottomEndTemplate.stages[1].steps[0].torque![0];
-    expect(bottom.stages[1].steps[0].torqueSpecs[0]).toMatchObject({ finalValue: rodDoc.finalValue, passes: rodDoc.passes, anglePasses: rodDoc.anglePasses, torqueToYield: true });
-    expect(bottom.stages[1].steps.find((s) => s.key === "case-sealant")!.timerSpecs[0]).toMatchObject({ durationS: 1800, blocksStepKey: "case-bolts" });
+    expect(bottom.stages[1].steps[0].torqueSpecs[0]).toMatchObject({
+      finalValue: rodDoc.finalValue,
+      passes: rodDoc.passes,
+      anglePasses: rodDoc.anglePasses,
+      torqueToYield: true,
+    });
+    expect(bottom.stages[1].steps.find((s) => s.key === "case-sealant")!.timerSpecs[0]).toMatchObject({
+      durationS: 1800,
+      blocksStepKey: "case-bolts",
+    });
 
     // the recorded work
     expect(snap.state.readings.map((r) => [r.id, r.value, r.current, r.supersedesId])).toEqual([
@@ -108,7 +160,14 @@ describe("GET /api/bench/jobs/[id]", () => {
     expect(snap.state.completions.map((c) => c.id)).toEqual([done.id]);
     expect(snap.state.torqueRecords).toEqual([expect.objectContaining({ id: bolt.id, passIndex: 1, bolt: 2 })]);
     expect(snap.state.signOffs.map((s) => s.id)).toEqual([signOff.id]);
-    expect(snap.state.reviewDecisions).toEqual([expect.objectContaining({ signOffId: signOff.id, decision: "sent_back", reason: "Photo missing", reopenedStepIds: [specs.boreStepId] })]);
+    expect(snap.state.reviewDecisions).toEqual([
+      expect.objectContaining({
+        signOffId: signOff.id,
+        decision: "sent_back",
+        reason: "Photo missing",
+        reopenedStepIds: [specs.boreStepId],
+      }),
+    ]);
     expect(Number(snap.cursor)).toBeGreaterThan(Number(merged.cursor));
     expect(snap.people.map((p) => p.id).sort()).toEqual([fx.users.mechanic.id, fx.users.mechanic2.id, fx.users.supervisor.id].sort());
   });
@@ -128,7 +187,11 @@ describe("GET /api/bench/tags/[code]", () => {
     const fx = await createShopFixture(db);
     const res = await tagLookupResponse(asUser(fx.users.mechanic2), db, fx.bike.tag_code);
     expect(res.status).toBe(200);
-    expect(tagLookupSchema.parse(await res.json())).toEqual({ workOrderId: fx.workOrderId, number: 1, bike: { id: fx.bike.id, tagCode: fx.bike.tag_code, make: "Fixture", model: "Test 1000" } });
+    expect(tagLookupSchema.parse(await res.json())).toEqual({
+      workOrderId: fx.workOrderId,
+      number: 1,
+      bike: { id: fx.bike.id, tagCode: fx.bike.tag_code, make: "Fixture", model: "Test 1000" },
+    });
   });
 
   it("says which is missing: the bike, or an open job", async () => {

@@ -27,11 +27,17 @@ function memoryStore(): PhotoStore & { objects: Map<string, { body: Buffer; cont
 }
 
 const upload = (id: string, body: Buffer, type = "image/jpeg") =>
-  appRequest(`/api/bench/photos/${id}`, { method: "POST", headers: { "content-type": type, "content-length": String(body.byteLength) }, body: new Uint8Array(body) });
+  appRequest(`/api/bench/photos/${id}`, {
+    method: "POST",
+    headers: { "content-type": type, "content-length": String(body.byteLength) },
+    body: new Uint8Array(body),
+  });
 
 // The photo routes, called through the route wrapper with the user, database and store given.
-const uploadPhotoResponse = (user: SessionUser | null, db: Db, store: PhotoStore, id: string, req: Request) => photoUpload(store).handle(req, { user, db, params: { id } });
-const photoBytesResponse = (user: SessionUser | null, db: Db, store: PhotoStore, id: string) => photoBytes(store).handle(appRequest(`/api/bench/photos/${id}`), { user, db, params: { id } });
+const uploadPhotoResponse = (user: SessionUser | null, db: Db, store: PhotoStore, id: string, req: Request) =>
+  photoUpload(store).handle(req, { user, db, params: { id } });
+const photoBytesResponse = (user: SessionUser | null, db: Db, store: PhotoStore, id: string) =>
+  photoBytes(store).handle(appRequest(`/api/bench/photos/${id}`), { user, db, params: { id } });
 
 describe("step photo bytes", () => {
   async function queued(bytes: Buffer) {
@@ -40,7 +46,18 @@ describe("step photo bytes", () => {
     const mech = asUser(fx.users.mechanic);
     const tablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, mech.id, fx.workOrderId);
     const photoId = randomUUID();
-    await mergeBatch(db, mech, tablet.batch([tablet.make("photo.queued", { attachmentId: photoId, stepId: specs.boreStepId, contentType: "image/jpeg", byteSize: bytes.byteLength })]));
+    await mergeBatch(
+      db,
+      mech,
+      tablet.batch([
+        tablet.make("photo.queued", {
+          attachmentId: photoId,
+          stepId: specs.boreStepId,
+          contentType: "image/jpeg",
+          byteSize: bytes.byteLength,
+        }),
+      ]),
+    );
     return { fx, mech, photoId };
   }
 
@@ -51,11 +68,18 @@ describe("step photo bytes", () => {
     const res = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes));
     expect(res.status).toBe(200);
     expect(await res.json()).toEqual({ stored: true, already: false });
-    const row = await db.selectFrom("attachments").select(["object_key", "awaiting_upload"]).where("id", "=", photoId).executeTakeFirstOrThrow();
+    const row = await db
+      .selectFrom("attachments")
+      .select(["object_key", "awaiting_upload"])
+      .where("id", "=", photoId)
+      .executeTakeFirstOrThrow();
     expect(row.awaiting_upload).toBe(false);
     expect(store.objects.get(row.object_key)?.body.equals(bytes)).toBe(true);
     // sending again changes nothing
-    expect(await (await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes))).json()).toEqual({ stored: true, already: true });
+    expect(await (await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes))).json()).toEqual({
+      stored: true,
+      already: true,
+    });
     const back = await photoBytesResponse(asUser(fx.users.supervisor), db, store, photoId);
     expect(back.status).toBe(200);
     expect(Buffer.from(await back.arrayBuffer()).equals(bytes)).toBe(true);
@@ -68,7 +92,10 @@ describe("step photo bytes", () => {
     const wrongType = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes, "image/png"));
     expect([wrongType.status, (await wrongType.json()).error]).toEqual([415, "The photo was queued as image/jpeg but image/png was sent."]);
     const wrongSize = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, Buffer.from("eleven byte")));
-    expect([wrongSize.status, (await wrongSize.json()).error]).toEqual([422, `The photo was queued as ${bytes.byteLength} bytes but 11 arrived.`]);
+    expect([wrongSize.status, (await wrongSize.json()).error]).toEqual([
+      422,
+      `The photo was queued as ${bytes.byteLength} bytes but 11 arrived.`,
+    ]);
     const unknown = randomUUID();
     expect((await uploadPhotoResponse(mech, db, store, unknown, upload(unknown, bytes))).status).toBe(404);
     expect((await uploadPhotoResponse(mech, db, store, "not-a-uuid", upload(photoId, bytes))).status).toBe(400);

@@ -29,16 +29,37 @@ describe("build progress for the office, from the synced bench record", () => {
 
     const ringGap = fx.stepByKey["ring-gap"].id;
     const reason = "Regap cylinder 2 and read it again";
-    const sent = await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason, reopenStepIds: [ringGap] }));
+    const sent = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason, reopenStepIds: [ringGap] }),
+    );
     if (!sent.ok) throw new Error(sent.reason);
     expect(await measure()).toMatchObject({ state: "sent_back", reason, stepsDone: 3, signedOffAt: null });
 
-    const high = (await db.selectFrom("measurements").select("id").where("spec_id", "=", specs["top-ring-gap"].id).where("reading_index", "=", 1).executeTakeFirstOrThrow()).id;
+    const high = (
+      await db
+        .selectFrom("measurements")
+        .select("id")
+        .where("spec_id", "=", specs["top-ring-gap"].id)
+        .where("reading_index", "=", 1)
+        .executeTakeFirstOrThrow()
+    ).id;
     const again = tablet.make("stage.signed-off", stage);
-    await sync(db, users.mech, tablet, [tablet.read(ringGap, specs["top-ring-gap"].id, 1, 0.44, { supersedesId: high }), tablet.complete(ringGap), again]);
+    await sync(db, users.mech, tablet, [
+      tablet.read(ringGap, specs["top-ring-gap"].id, 1, 0.44, { supersedesId: high }),
+      tablet.complete(ringGap),
+      again,
+    ]);
     expect(await measure()).toMatchObject({ state: "waiting_review", stepsDone: 4, outOfTolerance: 0 });
 
-    const ok = await decideOnSignOff(db, users.sup, again.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }));
+    const ok = await decideOnSignOff(
+      db,
+      users.sup,
+      again.id,
+      decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }),
+    );
     expect(ok).toMatchObject({ ok: true });
     const done = (await loadBuildProgress(db, users.office, fx.workOrderId))!;
     expect(done.stages.find((s) => s.key === "measure")).toMatchObject({ state: "approved", reason: null });

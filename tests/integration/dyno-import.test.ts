@@ -19,7 +19,11 @@ const fields = {
 };
 
 async function counts(workOrderId: string) {
-  const runs = await db.selectFrom("dyno_runs").select(db.fn.countAll<number>().as("n")).where("work_order_id", "=", workOrderId).executeTakeFirstOrThrow();
+  const runs = await db
+    .selectFrom("dyno_runs")
+    .select(db.fn.countAll<number>().as("n"))
+    .where("work_order_id", "=", workOrderId)
+    .executeTakeFirstOrThrow();
   const points = await db
     .selectFrom("dyno_points")
     .innerJoin("dyno_runs", "dyno_runs.id", "dyno_points.run_id")
@@ -37,7 +41,14 @@ describe("dyno run import (real PostgreSQL)", () => {
     expect(r.ok).toBe(true);
     const runs = await listDynoRuns(db, fx.shopId, fx.workOrderId);
     expect(runs).toHaveLength(1);
-    expect(runs[0]).toMatchObject({ label: "Baseline 7 psi", ranOn: "2026-11-20", boostTarget: 7, boostUnit: "psi", torqueUnit: "lbf·ft", notes: "Baffle in" });
+    expect(runs[0]).toMatchObject({
+      label: "Baseline 7 psi",
+      ranOn: "2026-11-20",
+      boostTarget: 7,
+      boostUnit: "psi",
+      torqueUnit: "lbf·ft",
+      notes: "Baffle in",
+    });
     expect(runs[0].points).toEqual([
       { rpm: 4000, torque: 58.5 },
       { rpm: 5000, torque: 66.25 },
@@ -49,7 +60,14 @@ describe("dyno run import (real PostgreSQL)", () => {
     const fx = await createShopFixture(db);
     await importDynoRun(db, fx.shopId, fx.workOrderId, fx.users.mechanic.id, {
       ...fields,
-      curve: { source: "table", torqueUnit: "N·m", rows: [{ rpm: "4000", torque: "80" }, { rpm: "5000", torque: "90" }] },
+      curve: {
+        source: "table",
+        torqueUnit: "N·m",
+        rows: [
+          { rpm: "4000", torque: "80" },
+          { rpm: "5000", torque: "90" },
+        ],
+      },
     });
     const before = await counts(fx.workOrderId);
     const csv = "rpm,torque_nm\n4000,80\n5000,ninety\n3500,85\n";

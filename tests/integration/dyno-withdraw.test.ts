@@ -48,7 +48,14 @@ describe("withdrawing a dyno run recorded by mistake", () => {
 
     const audit = await db.selectFrom("audit_log").selectAll().where("action", "=", "dyno.run-withdrawn").execute();
     expect(audit).toEqual([
-      expect.objectContaining({ actor_id: sup.id, entity: "dyno_run", entity_id: bad.id, work_order_id: fx.workOrderId, outcome: "accepted", reason: "Air temperature typed as 18 instead of 28" }),
+      expect.objectContaining({
+        actor_id: sup.id,
+        entity: "dyno_run",
+        entity_id: bad.id,
+        work_order_id: fx.workOrderId,
+        outcome: "accepted",
+        reason: "Air temperature typed as 18 instead of 28",
+      }),
     ]);
   });
 
@@ -71,9 +78,21 @@ describe("withdrawing a dyno run recorded by mistake", () => {
     const other = await createShopFixture(db);
     const made = await importDynoRun(db, fx.shopId, fx.workOrderId, fx.users.mechanic.id, run("Keep me"));
     if (!made.ok) throw new Error("fixture run refused");
-    const foreign = await withdrawDynoRun(db, { id: other.users.supervisor.id, shopId: other.shopId }, fx.workOrderId, made.id, reason("Not yours to withdraw"));
+    const foreign = await withdrawDynoRun(
+      db,
+      { id: other.users.supervisor.id, shopId: other.shopId },
+      fx.workOrderId,
+      made.id,
+      reason("Not yours to withdraw"),
+    );
     expect(foreign).toMatchObject({ ok: false, status: 404 });
-    const wrongJob = await withdrawDynoRun(db, { id: fx.users.supervisor.id, shopId: fx.shopId }, other.workOrderId, made.id, reason("Wrong job given"));
+    const wrongJob = await withdrawDynoRun(
+      db,
+      { id: fx.users.supervisor.id, shopId: fx.shopId },
+      other.workOrderId,
+      made.id,
+      reason("Wrong job given"),
+    );
     expect(wrongJob).toMatchObject({ ok: false, status: 404 });
     expect((await listDynoRuns(db, fx.shopId, fx.workOrderId))[0].withdrawn).toBeNull();
   });

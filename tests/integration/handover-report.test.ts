@@ -21,7 +21,14 @@ async function pdfText(buf: Buffer): Promise<string> {
 
 const asUser = (fx: ShopFixture, key: keyof ShopFixture["users"]): SessionUser => {
   const u = fx.users[key];
-  return { id: u.id, shopId: fx.shopId, role: u.role, name: u.name, email: u.email, customerId: u.role === "customer" ? fx.customerId : null };
+  return {
+    id: u.id,
+    shopId: fx.shopId,
+    role: u.role,
+    name: u.name,
+    email: u.email,
+    customerId: u.role === "customer" ? fx.customerId : null,
+  };
 };
 
 // A run whose figures the test works out by hand: ISO 1585 at its own reference air (99 kPa dry,
@@ -62,7 +69,18 @@ describe("handover build report PDF (real PostgreSQL, parsed with pdf-parse)", (
     const buf = await renderHandoverReportPdf(db, fx.shopId, fx.workOrderId);
     expect(buf.subarray(0, 5).toString()).toBe("%PDF-");
     const text = await pdfText(buf);
-    for (const section of ["Build report", "The bike", "Work done", "Parts fitted", "Measurements against spec", "Torque applied", "Sign-offs and reviews", "Dyno results", "Run-in advice", "Cautions"]) {
+    for (const section of [
+      "Build report",
+      "The bike",
+      "Work done",
+      "Parts fitted",
+      "Measurements against spec",
+      "Torque applied",
+      "Sign-offs and reviews",
+      "Dyno results",
+      "Run-in advice",
+      "Cautions",
+    ]) {
       expect(text, section).toContain(section);
     }
     expect(text).toContain("Fixture Test 1000");

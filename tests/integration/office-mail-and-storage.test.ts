@@ -22,19 +22,36 @@ describe("customer e-mails through SMTP (maildev)", () => {
     const [m] = await mailTo(ports.mailWeb, email!);
     expect(m.subject).toBe("Your quote for work order 1 is ready");
     expect(m.text).toContain("€817.15 including tax, with a deposit of €200.00");
-    const logged = await db.selectFrom("outbound_emails").select(["kind", "recipient", "error"]).where("work_order_id", "=", fx.workOrderId).execute();
+    const logged = await db
+      .selectFrom("outbound_emails")
+      .select(["kind", "recipient", "error"])
+      .where("work_order_id", "=", fx.workOrderId)
+      .execute();
     expect(logged).toEqual([{ kind: "quote_ready", recipient: email, error: null }]);
   });
 
   it("attaches the handover build report PDF to the bike-ready mail", async () => {
     const fx = await createShopFixture(db);
-    await db.insertInto("parts_fitted").values({ shop_id: fx.shopId, work_order_id: fx.workOrderId, part_number: "PST-76", batch: "B-77", step_id: null, serial: null, fitted_by: null }).execute();
+    await db
+      .insertInto("parts_fitted")
+      .values({
+        shop_id: fx.shopId,
+        work_order_id: fx.workOrderId,
+        part_number: "PST-76",
+        batch: "B-77",
+        step_id: null,
+        serial: null,
+        fitted_by: null,
+      })
+      .execute();
     const { email } = await db.selectFrom("customers").select("email").where("id", "=", fx.customerId).executeTakeFirstOrThrow();
     expect(await mailBikeReady(db, fx.shopId, fx.workOrderId)).toEqual({ ok: true });
     const [m] = await mailTo(ports.mailWeb, email!);
     expect(m.attachments).toHaveLength(1);
     expect(m.attachments![0].contentType).toBe("application/pdf");
-    const pdf = await fetch(`http://127.0.0.1:${ports.mailWeb}/api/email/${m.id}/attachment/${m.attachments![0].generatedFileName ?? m.attachments![0].fileName}`);
+    const pdf = await fetch(
+      `http://127.0.0.1:${ports.mailWeb}/api/email/${m.id}/attachment/${m.attachments![0].generatedFileName ?? m.attachments![0].fileName}`,
+    );
     expect(pdf.status).toBe(200);
     const text = (await new PDFParse({ data: new Uint8Array(await pdf.arrayBuffer()) }).getText()).text;
     expect(text).toContain("Build report");
@@ -53,7 +70,11 @@ describe("customer e-mails through SMTP (maildev)", () => {
     } finally {
       process.env.SMTP_URL = saved;
     }
-    const logged = await db.selectFrom("outbound_emails").select(["error"]).where("work_order_id", "=", fx.workOrderId).executeTakeFirstOrThrow();
+    const logged = await db
+      .selectFrom("outbound_emails")
+      .select(["error"])
+      .where("work_order_id", "=", fx.workOrderId)
+      .executeTakeFirstOrThrow();
     expect(logged.error).toMatch(/ECONNREFUSED|connect/i);
   });
 });

@@ -11,7 +11,14 @@ import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
 const count = async (table: "template_versions" | "template_steps" | "procedure_templates") =>
-  Number((await db.selectFrom(table).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);
+  Number(
+    (
+      await db
+        .selectFrom(table)
+        .select((eb) => eb.fn.countAll<number>().as("n"))
+        .executeTakeFirstOrThrow()
+    ).n,
+  );
 
 describe("template export and import", () => {
   it("exports a stored version as the same document that was imported (round trip)", async () => {
@@ -27,7 +34,11 @@ describe("template export and import", () => {
   it("editing makes a new version; a job keeps the version it was started with", async () => {
     const fx = await createShopFixture(db);
     const v1 = await createTemplateVersion(db, fx.shopId, firstStartTemplate, fx.users.office.id);
-    const pinned = await db.insertInto("job_procedures").values({ work_order_id: fx.workOrderId, template_version_id: v1.versionId, position: 5 }).returning("id").executeTakeFirstOrThrow();
+    const pinned = await db
+      .insertInto("job_procedures")
+      .values({ work_order_id: fx.workOrderId, template_version_id: v1.versionId, position: 5 })
+      .returning("id")
+      .executeTakeFirstOrThrow();
     const edited = structuredClone(firstStartTemplate);
     edited.stages[0].steps[0].title = "Prime the oil system (edited)";
     const v2 = await createTemplateVersion(db, fx.shopId, edited, fx.users.office.id);
@@ -35,7 +46,9 @@ describe("template export and import", () => {
     const still = await db.selectFrom("job_procedures").select("template_version_id").where("id", "=", pinned.id).executeTakeFirstOrThrow();
     expect(still.template_version_id).toBe(v1.versionId);
     expect((await loadTemplateDocument(db, fx.shopId, "first-start-run-in", 1))!.stages[0].steps[0].title).toBe("Prime the oil system");
-    expect((await loadTemplateDocument(db, fx.shopId, "first-start-run-in"))!.stages[0].steps[0].title).toBe("Prime the oil system (edited)");
+    expect((await loadTemplateDocument(db, fx.shopId, "first-start-run-in"))!.stages[0].steps[0].title).toBe(
+      "Prime the oil system (edited)",
+    );
     const list = await templatesWithVersions(db, fx.shopId);
     expect(list.find((t) => t.key === "first-start-run-in")!.versions.map((v) => v.version)).toEqual([2, 1]);
   });
@@ -53,8 +66,14 @@ describe("template export and import", () => {
   });
 
   it("refuses text that is not JSON, or not our format, with a reason", () => {
-    expect(readTemplateFile("{ not json")).toMatchObject({ ok: false, issues: [{ path: "(file)", message: expect.stringMatching(/^not valid JSON/) }] });
-    expect(readTemplateFile(JSON.stringify({ format: "something-else" }))).toEqual({ ok: false, issues: [{ path: "format", message: 'expected "benchtag-template" or "benchtag-template-bundle"' }] });
+    expect(readTemplateFile("{ not json")).toMatchObject({
+      ok: false,
+      issues: [{ path: "(file)", message: expect.stringMatching(/^not valid JSON/) }],
+    });
+    expect(readTemplateFile(JSON.stringify({ format: "something-else" }))).toEqual({
+      ok: false,
+      issues: [{ path: "format", message: 'expected "benchtag-template" or "benchtag-template-bundle"' }],
+    });
   });
 
   it("imports a bundle all or nothing: one bad template leaves nothing written", async () => {
@@ -65,14 +84,42 @@ describe("template export and import", () => {
     broken.stages[1].steps[1].timer.blocksStepKey = "no-such-step";
     const bundle = { format: "benchtag-template-bundle", formatVersion: 1, templates: [turboKitTemplate, broken] };
     const r = readTemplateFile(JSON.stringify(bundle));
-    expect(r).toEqual({ ok: false, issues: [{ path: "templates[1].stages[1].steps[1].timer.blocksStepKey", message: 'timer blocks unknown step "no-such-step"' }] });
+    expect(r).toEqual({
+      ok: false,
+      issues: [{ path: "templates[1].stages[1].steps[1].timer.blocksStepKey", message: 'timer blocks unknown step "no-such-step"' }],
+    });
     expect([await count("procedure_templates"), await count("template_versions"), await count("template_steps")]).toEqual(before);
 
     // a failure half-way (the second refused after the first was written in the transaction) writes nothing:
     const good = readTemplateFile(JSON.stringify({ ...bundle, templates: [turboKitTemplate, firstStartTemplate] }));
     expect(good.ok).toBe(true);
     if (!good.ok) return;
-    const sabotaged = [good.documents[0], { ...good.documents[1], stages: [{ ...good.documents[1].stages[0], steps: [{ ...good.documents[1].stages[0].steps[0], torque: [{ ...turboKitTemplate.stages[1].steps[0].torque![0], passes: [], anglePasses: [], lubricant: "", torqueToYield: false, boltCount: 99 }] }] }] }];
+    const sabotaged = [
+      good.documents[0],
+      {
+        ...good.documents[1],
+        stages: [
+          {
+            ...good.documents[1].stages[0],
+            steps: [
+              {
+                ...good.documents[1].stages[0].steps[0],
+                torque: [
+                  {
+                    ...turboKitTemplate.stages[1].steps[0].torque![0],
+                    passes: [],
+                    anglePasses: [],
+                    lubricant: "",
+                    torqueToYield: false,
+                    boltCount: 99,
+                  },
+                ],
+              },
+            ],
+          },
+        ],
+      },
+    ];
     await expect(importTemplateDocuments(db, fx.shopId, fx.users.office.id, sabotaged as typeof good.documents)).rejects.toThrow();
     expect([await count("procedure_templates"), await count("template_versions"), await count("template_steps")]).toEqual(before);
 
@@ -84,7 +131,12 @@ describe("template export and import", () => {
   });
 
   it("ships four valid demo templates, each marked example-only, with cautions", () => {
-    expect(DEMO_TEMPLATES.map((t) => t.key)).toEqual(["bottom-end-assembly", "cylinder-head-installation", "turbo-kit-intercooler", "first-start-run-in"]);
+    expect(DEMO_TEMPLATES.map((t) => t.key)).toEqual([
+      "bottom-end-assembly",
+      "cylinder-head-installation",
+      "turbo-kit-intercooler",
+      "first-start-run-in",
+    ]);
     for (const t of DEMO_TEMPLATES) {
       const doc = templateDocumentSchema.parse(t);
       expect(doc.exampleOnly).toBe(true);

@@ -12,7 +12,12 @@ const db = useTestDb();
 async function freshJob() {
   const fx = await createShopFixture(db, { status: "handed_over" });
   const bike = await createBike(db, fx.shopId, { customerId: fx.customerId, make: "Halden", model: "Tracer 900" });
-  const wo = await bookIn(db, fx.shopId, fx.users.office.id, { bikeId: bike.id, title: "Top-end rebuild", complaint: "Rattle when warm", odometerKm: "30110" });
+  const wo = await bookIn(db, fx.shopId, fx.users.office.id, {
+    bikeId: bike.id,
+    title: "Top-end rebuild",
+    complaint: "Rattle when warm",
+    odometerKm: "30110",
+  });
   return { fx, bike, wo };
 }
 
@@ -31,17 +36,26 @@ describe("work-order state flow", () => {
 
   it("refuses a second open work order for the same bike", async () => {
     const { fx, bike } = await freshJob();
-    await expect(bookIn(db, fx.shopId, fx.users.office.id, { bikeId: bike.id, title: "Again", complaint: "Again", odometerKm: 1 })).rejects.toThrow(/already has an open work order/);
+    await expect(
+      bookIn(db, fx.shopId, fx.users.office.id, { bikeId: bike.id, title: "Again", complaint: "Again", odometerKm: 1 }),
+    ).rejects.toThrow(/already has an open work order/);
   });
 
   it("refuses illegal moves with the reason, records the refusal, and keeps the status", async () => {
     const { fx, wo } = await freshJob();
-    await expect(moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "in_build")).rejects.toThrow('A work order cannot go from "Booked in" to "In build".');
+    await expect(moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "in_build")).rejects.toThrow(
+      'A work order cannot go from "Booked in" to "In build".',
+    );
     await expect(moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "handed_over")).rejects.toBeInstanceOf(Refusal);
     const d = (await workOrderDetail(db, fx.shopId, wo.id))!;
     expect(d.status).toBe("booked_in");
     expect(d.transitions).toHaveLength(1);
-    const refused = await db.selectFrom("audit_log").select(["reason"]).where("work_order_id", "=", wo.id).where("outcome", "=", "refused").execute();
+    const refused = await db
+      .selectFrom("audit_log")
+      .select(["reason"])
+      .where("work_order_id", "=", wo.id)
+      .where("outcome", "=", "refused")
+      .execute();
     expect(refused.map((r) => r.reason)).toContain('A work order cannot go from "Booked in" to "In build".');
   });
 
@@ -80,7 +94,9 @@ describe("work-order state flow", () => {
     const { quoteId } = await sendQuote(db, fx.shopId, office, wo.id);
     await approveQuoteAsCustomer(db, { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId }, quoteId);
     await assignMechanic(db, fx.shopId, office, wo.id, fx.users.mechanic.id);
-    await expect(moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [fx.templates.head.versionId] })).rejects.toThrow("The deposit has not been paid yet.");
+    await expect(
+      moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [fx.templates.head.versionId] }),
+    ).rejects.toThrow("The deposit has not been paid yet.");
     // nothing was pinned by the refused move
     const pinned = await db.selectFrom("job_procedures").select("id").where("work_order_id", "=", wo.id).execute();
     expect(pinned).toHaveLength(0);
@@ -89,7 +105,9 @@ describe("work-order state flow", () => {
   it("does not let one shop move another shop's work order", async () => {
     const { wo } = await freshJob();
     const other = await createShopFixture(db);
-    await expect(moveWorkOrder(db, other.shopId, other.users.office.id, wo.id, "inspected")).rejects.toThrow("No such work order in this shop.");
+    await expect(moveWorkOrder(db, other.shopId, other.users.office.id, wo.id, "inspected")).rejects.toThrow(
+      "No such work order in this shop.",
+    );
   });
 });
 
@@ -100,12 +118,22 @@ describe("customer approval", () => {
     await saveQuoteDraft(db, fx.shopId, fx.users.office.id, wo.id, { lines: [line], depositMinor: 0 });
     const { quoteId } = await sendQuote(db, fx.shopId, fx.users.office.id, wo.id);
     const stranger = await createShopFixture(db);
-    const err = await approveQuoteAsCustomer(db, { id: stranger.users.customer.id, shopId: stranger.shopId, customerId: stranger.customerId }, quoteId).catch((e) => e);
+    const err = await approveQuoteAsCustomer(
+      db,
+      { id: stranger.users.customer.id, shopId: stranger.shopId, customerId: stranger.customerId },
+      quoteId,
+    ).catch((e) => e);
     expect(err).toBeInstanceOf(Refusal);
     expect(err.status).toBe(403);
     // same shop, different customer
-    const c2 = await db.insertInto("customers").values({ shop_id: fx.shopId, name: "Other Rider", email: null, phone: null }).returning("id").executeTakeFirstOrThrow();
-    const err2 = await approveQuoteAsCustomer(db, { id: fx.users.office.id, shopId: fx.shopId, customerId: c2.id }, quoteId).catch((e) => e);
+    const c2 = await db
+      .insertInto("customers")
+      .values({ shop_id: fx.shopId, name: "Other Rider", email: null, phone: null })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const err2 = await approveQuoteAsCustomer(db, { id: fx.users.office.id, shopId: fx.shopId, customerId: c2.id }, quoteId).catch(
+      (e) => e,
+    );
     expect(err2.status).toBe(403);
     const q = await db.selectFrom("quotes").select("status").where("id", "=", quoteId).executeTakeFirstOrThrow();
     expect(q.status).toBe("sent");
@@ -121,11 +149,26 @@ describe("handover", () => {
     const office = fx.users.office.id;
     await moveWorkOrder(db, fx.shopId, office, wo.id, "inspected");
     // by hand: 4 h × £70.00 = £280.00; tax 20 % = £56.00; total £336.00; deposit £100.00 → balance £236.00
-    await saveQuoteDraft(db, fx.shopId, office, wo.id, { lines: [{ kind: "labour", description: "Rebuild", quantityHundredths: 400, unitPriceMinor: 7000 }], depositMinor: 10000 });
+    await saveQuoteDraft(db, fx.shopId, office, wo.id, {
+      lines: [{ kind: "labour", description: "Rebuild", quantityHundredths: 400, unitPriceMinor: 7000 }],
+      depositMinor: 10000,
+    });
     const { quoteId } = await sendQuote(db, fx.shopId, office, wo.id);
     const cust = { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId };
     await approveQuoteAsCustomer(db, cust, quoteId);
-    await db.insertInto("deposits").values({ shop_id: fx.shopId, work_order_id: wo.id, quote_id: quoteId, amount_minor: 10000, currency: "EUR", payment_intent_id: null, status: "paid", paid_at: new Date() }).execute();
+    await db
+      .insertInto("deposits")
+      .values({
+        shop_id: fx.shopId,
+        work_order_id: wo.id,
+        quote_id: quoteId,
+        amount_minor: 10000,
+        currency: "EUR",
+        payment_intent_id: null,
+        status: "paid",
+        paid_at: new Date(),
+      })
+      .execute();
     await assignMechanic(db, fx.shopId, office, wo.id, fx.users.mechanic.id);
     await moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [fx.templates.bottom.versionId] });
     await moveWorkOrder(db, fx.shopId, office, wo.id, "in_review");
@@ -133,7 +176,14 @@ describe("handover", () => {
     expect(await db.selectFrom("invoices").select("id").where("work_order_id", "=", wo.id).execute()).toHaveLength(0);
     await moveWorkOrder(db, fx.shopId, office, wo.id, "ready");
     const inv = await handOver(db, fx.shopId, office, wo.id);
-    expect(inv).toMatchObject({ number: 5001, subtotal_minor: 28000, tax_minor: 5600, total_minor: 33600, deposits_paid_minor: 10000, balance_due_minor: 23600 });
+    expect(inv).toMatchObject({
+      number: 5001,
+      subtotal_minor: 28000,
+      tax_minor: 5600,
+      total_minor: 33600,
+      deposits_paid_minor: 10000,
+      balance_due_minor: 23600,
+    });
     const d = (await workOrderDetail(db, fx.shopId, wo.id))!;
     expect(d.status).toBe("handed_over");
     const closed = await db.selectFrom("work_orders").select("closed_at").where("id", "=", wo.id).executeTakeFirstOrThrow();

@@ -26,7 +26,10 @@ async function workOrderWithPendingDeposit(pi: string) {
   const bike = await createBike(db, fx.shopId, { customerId: fx.customerId, make: "Corvid", model: "RX1000" });
   const wo = await bookIn(db, fx.shopId, fx.users.office.id, { bikeId: bike.id, title: "Rebuild", complaint: "Smoke", odometerKm: 10 });
   await moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "inspected");
-  await saveQuoteDraft(db, fx.shopId, fx.users.office.id, wo.id, { lines: [{ kind: "labour", description: "Rebuild", quantityHundredths: 1000, unitPriceMinor: 7000 }], depositMinor: 5000 });
+  await saveQuoteDraft(db, fx.shopId, fx.users.office.id, wo.id, {
+    lines: [{ kind: "labour", description: "Rebuild", quantityHundredths: 1000, unitPriceMinor: 7000 }],
+    depositMinor: 5000,
+  });
   const { quoteId } = await sendQuote(db, fx.shopId, fx.users.office.id, wo.id);
   const cust = { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId };
   await approveQuoteAsCustomer(db, cust, quoteId);
@@ -36,10 +39,18 @@ async function workOrderWithPendingDeposit(pi: string) {
 }
 
 function succeededEvent(pi: string, amount = 5000, id = `evt_test_${Math.random().toString(36).slice(2)}`) {
-  return JSON.stringify({ id, object: "event", type: "payment_intent.succeeded", created: Math.floor(Date.now() / 1000), data: { object: { id: pi, object: "payment_intent", amount, currency: "gbp", status: "succeeded" } } });
+  return JSON.stringify({
+    id,
+    object: "event",
+    type: "payment_intent.succeeded",
+    created: Math.floor(Date.now() / 1000),
+    data: { object: { id: pi, object: "payment_intent", amount, currency: "gbp", status: "succeeded" } },
+  });
 }
-const sign = (payload: string, secret = SECRET, timestamp?: number) => Stripe.webhooks.generateTestHeaderString({ payload, secret, timestamp });
-const depositStatus = async (id: string) => (await db.selectFrom("deposits").select("status").where("id", "=", id).executeTakeFirstOrThrow()).status;
+const sign = (payload: string, secret = SECRET, timestamp?: number) =>
+  Stripe.webhooks.generateTestHeaderString({ payload, secret, timestamp });
+const depositStatus = async (id: string) =>
+  (await db.selectFrom("deposits").select("status").where("id", "=", id).executeTakeFirstOrThrow()).status;
 
 describe("payment webhook signature checks", () => {
   it("accepts a correctly signed event and marks the deposit paid", async () => {
@@ -67,7 +78,10 @@ describe("payment webhook signature checks", () => {
     const wrong = await handlePaymentWebhook(db, body, sign(body, "whsec_someone_else"), { secret: SECRET, sendMail: false });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error).toMatch(/signature/i);
-    const altered = await handlePaymentWebhook(db, body.replace('"amount":5000', '"amount":1'), sign(body), { secret: SECRET, sendMail: false });
+    const altered = await handlePaymentWebhook(db, body.replace('"amount":5000', '"amount":1'), sign(body), {
+      secret: SECRET,
+      sendMail: false,
+    });
     expect(altered.status).toBe(400);
     expect(await depositStatus(deposit.id)).toBe("pending");
   });
@@ -76,7 +90,10 @@ describe("payment webhook signature checks", () => {
     const pi = `pi_test_${Date.now()}d`;
     const { deposit } = await workOrderWithPendingDeposit(pi);
     const body = succeededEvent(pi);
-    const answer = await handlePaymentWebhook(db, body, sign(body, SECRET, Math.floor(Date.now() / 1000) - 600), { secret: SECRET, sendMail: false });
+    const answer = await handlePaymentWebhook(db, body, sign(body, SECRET, Math.floor(Date.now() / 1000) - 600), {
+      secret: SECRET,
+      sendMail: false,
+    });
     expect(answer.status).toBe(400);
     expect(answer.body.error).toMatch(/tolerance/i);
     expect(await depositStatus(deposit.id)).toBe("pending");
@@ -122,7 +139,14 @@ describe("deposit through the SDK against the local fake payment service", () =>
 
   it("creates and confirms a PaymentIntent; the fake's signed webhook marks the deposit paid and the customer is e-mailed", async () => {
     const { fx, wo, deposit } = await workOrderWithPendingDeposit("");
-    const intent = await startDepositPayment({ depositId: deposit.id, amountMinor: 5000, currency: "GBP", shopId: fx.shopId, workOrderId: wo.id, description: "deposit" });
+    const intent = await startDepositPayment({
+      depositId: deposit.id,
+      amountMinor: 5000,
+      currency: "GBP",
+      shopId: fx.shopId,
+      workOrderId: wo.id,
+      description: "deposit",
+    });
     expect(intent.status).toBe("succeeded");
     await attachPaymentIntent(db, deposit.id, intent.id);
     // the fake delivers the event shortly after confirming; wait for the deposit to turn paid
@@ -145,15 +169,30 @@ describe("a declined deposit", () => {
     const server = http.createServer(async (req, res) => {
       const chunks: Buffer[] = [];
       for await (const c of req) chunks.push(c as Buffer);
-      const a = await handlePaymentWebhook(db, Buffer.concat(chunks).toString("utf8"), (req.headers["stripe-signature"] as string) ?? null, { sendMail: false });
+      const a = await handlePaymentWebhook(
+        db,
+        Buffer.concat(chunks).toString("utf8"),
+        (req.headers["stripe-signature"] as string) ?? null,
+        { sendMail: false },
+      );
       res.writeHead(a.status, { "content-type": "application/json" }).end(JSON.stringify(a.body));
     });
     await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
     try {
-      await paymentsClient().webhookEndpoints.create({ url: `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/payments/webhook`, enabled_events: ["payment_intent.payment_failed"] });
+      await paymentsClient().webhookEndpoints.create({
+        url: `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/payments/webhook`,
+        enabled_events: ["payment_intent.payment_failed"],
+      });
       const { fx, wo, deposit, quoteId, cust } = await workOrderWithPendingDeposit("");
       process.env.STRIPE_TEST_PAYMENT_METHOD = "pm_card_chargeDeclined";
-      const intent = await startDepositPayment({ depositId: deposit.id, amountMinor: 5000, currency: "GBP", shopId: fx.shopId, workOrderId: wo.id, description: "deposit" }).finally(() => {
+      const intent = await startDepositPayment({
+        depositId: deposit.id,
+        amountMinor: 5000,
+        currency: "GBP",
+        shopId: fx.shopId,
+        workOrderId: wo.id,
+        description: "deposit",
+      }).finally(() => {
         delete process.env.STRIPE_TEST_PAYMENT_METHOD;
       });
       expect(intent.status).toBe("requires_payment_method");

@@ -31,17 +31,36 @@ describe("audit log: who did what, when, from which device, accepted or refused 
     const stray = tablet.complete(other.stepIds[0], { workOrderId: other.fx.workOrderId });
     const refused = await mergeBatch(db, users.mech, tablet.batch([stray]));
     expect(refused.refused).toHaveLength(1);
-    const reason = "=HYPERLINK(\"x\") ring gap, cylinder 1 — regap";
+    const reason = '=HYPERLINK("x") ring gap, cylinder 1 — regap';
     await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }));
-    await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason, reopenStepIds: [stepIds[2]] }));
+    await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason, reopenStepIds: [stepIds[2]] }),
+    );
 
     const page = await pageAuditLog(db, fx.shopId, auditQuerySchema.parse({ job: "1", size: "100" }));
     expect(page.total).toBe(ops.length + 2);
-    expect(page.rows[0]).toMatchObject({ action: "review.send-back", outcome: "accepted", actorName: users.sup.name, workOrderNumber: 1, reason });
-    expect(page.rows[1]).toMatchObject({ action: "review.approve", outcome: "refused", reason: expect.stringMatching(/Top ring gap, Cyl 1: 0\.5 mm/) });
+    expect(page.rows[0]).toMatchObject({
+      action: "review.send-back",
+      outcome: "accepted",
+      actorName: users.sup.name,
+      workOrderNumber: 1,
+      reason,
+    });
+    expect(page.rows[1]).toMatchObject({
+      action: "review.approve",
+      outcome: "refused",
+      reason: expect.stringMatching(/Top ring gap, Cyl 1: 0\.5 mm/),
+    });
     const refusedPage = await pageAuditLog(db, fx.shopId, auditQuerySchema.parse({ outcome: "refused" }));
     expect(refusedPage.rows.map((r) => r.action).sort()).toEqual(["review.approve", "sync.step.completed"]);
-    expect(refusedPage.rows.find((r) => r.action === "sync.step.completed")).toMatchObject({ deviceId: "bay-7", workOrderNumber: null, reason: expect.stringMatching(/not in your shop/) });
+    expect(refusedPage.rows.find((r) => r.action === "sync.step.completed")).toMatchObject({
+      deviceId: "bay-7",
+      workOrderNumber: null,
+      reason: expect.stringMatching(/not in your shop/),
+    });
     const byAction = await pageAuditLog(db, fx.shopId, auditQuerySchema.parse({ action: "sync.measurement" }));
     expect(byAction.total).toBe(ops.filter((o) => o.kind === "measurement.recorded").length);
     // The other shop sees none of it.
@@ -55,9 +74,22 @@ describe("audit log: who did what, when, from which device, accepted or refused 
     expect(parsed.data).toHaveLength(ops.length + 2);
     // Oldest first: the tablet's operations in stamp order, then the two decisions.
     expect(parsed.data.slice(0, ops.length).map((r) => r.entity_id)).toEqual(ops.map((o) => o.id));
-    expect(parsed.data[0]).toMatchObject({ work_order: "1", actor_email: users.mech.email, actor_role: "mechanic", device: "bay-7", action: "sync.measurement.recorded", outcome: "accepted" });
+    expect(parsed.data[0]).toMatchObject({
+      work_order: "1",
+      actor_email: users.mech.email,
+      actor_role: "mechanic",
+      device: "bay-7",
+      action: "sync.measurement.recorded",
+      outcome: "accepted",
+    });
     const [approve, sendBack] = parsed.data.slice(-2);
-    expect(approve).toMatchObject({ action: "review.approve", outcome: "refused", entity: "sign_off", entity_id: signOff.id, actor_name: users.sup.name });
+    expect(approve).toMatchObject({
+      action: "review.approve",
+      outcome: "refused",
+      entity: "sign_off",
+      entity_id: signOff.id,
+      actor_name: users.sup.name,
+    });
     // A reason that a spreadsheet would run as a formula is written neutralised, the rest as typed.
     expect(sendBack).toMatchObject({ action: "review.send-back", outcome: "accepted", reason: `'${reason}` });
     expect(JSON.parse(sendBack.detail_json)).toMatchObject({ reopenedStepIds: [stepIds[2]], reopenedSteps: ["Top ring end gap"] });
@@ -74,14 +106,14 @@ describe("audit log: who did what, when, from which device, accepted or refused 
       entityId: String(i),
       workOrderId: fx.workOrderId,
       outcome: "accepted" as const,
-      detail: { i, note: "comma, \"quote\" and\nnew line" },
+      detail: { i, note: 'comma, "quote" and\nnew line' },
     }));
     await appendAudit(db, entries.slice(0, 600));
     await appendAudit(db, entries.slice(600));
     const { parsed } = await csvOf(fx.shopId, { action: "test.bulk" });
     expect(parsed.data).toHaveLength(1203);
     expect(parsed.data.map((r) => Number(r.entity_id))).toEqual(entries.map((_, i) => i));
-    expect(JSON.parse(parsed.data[1202].detail_json)).toEqual({ i: 1202, note: "comma, \"quote\" and\nnew line" });
+    expect(JSON.parse(parsed.data[1202].detail_json)).toEqual({ i: 1202, note: 'comma, "quote" and\nnew line' });
 
     const none = await csvOf(fx.shopId, { job: "999" });
     expect(none.text).toBe(`${AUDIT_CSV_COLUMNS.join(",")}\r\n`);

@@ -25,18 +25,35 @@ describe("review decisions on synced sign-offs", () => {
 
     const waiting = await queue(fx.shopId);
     expect(waiting.total).toBe(1);
-    expect(waiting.rows[0]).toMatchObject({ signOffId: signOff.id, stageTitle: "Measure before assembly", mechanicName: users.mech.name, outOfTolerance: 0, resubmitted: false, number: 1 });
+    expect(waiting.rows[0]).toMatchObject({
+      signOffId: signOff.id,
+      stageTitle: "Measure before assembly",
+      mechanicName: users.mech.name,
+      outOfTolerance: 0,
+      resubmitted: false,
+      number: 1,
+    });
     expect(await countReviewQueue(db, fx.shopId)).toBe(1);
 
     const review = await loadSignOffReview(db, users.sup, signOff.id);
     expect(review?.mayDecide).toBe(true);
-    expect(review?.steps.map((s) => s.title)).toEqual(["Bore gauge cylinder 1", "Piston-to-wall clearance", "Top ring end gap", "Main bearing oil clearance"]);
+    expect(review?.steps.map((s) => s.title)).toEqual([
+      "Bore gauge cylinder 1",
+      "Piston-to-wall clearance",
+      "Top ring end gap",
+      "Main bearing oil clearance",
+    ]);
     expect(review?.steps[0].specs[0].spots).toHaveLength(6);
     expect(review?.steps[0].completions[0]).toMatchObject({ by: { id: users.mech.id }, deviceId: "bay-1" });
     expect(review?.outOfTolerance).toEqual([]);
     expect(review?.defaultReopenStepIds).toEqual(stepIds);
 
-    const r = await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }));
+    const r = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }),
+    );
     expect(r).toMatchObject({ ok: true, decision: "approved", reopenedStepIds: [] });
     expect((await queue(fx.shopId)).total).toBe(0);
 
@@ -45,7 +62,9 @@ describe("review decisions on synced sign-offs", () => {
     expect(logged[0]).toMatchObject({ actor_id: users.sup.id, outcome: "accepted", entity: "sign_off", entity_id: signOff.id });
 
     const next = await sync(db, users.mech, tablet);
-    expect(next.changes).toEqual([expect.objectContaining({ type: "review", signOffId: signOff.id, decision: "approved", reopenedStepIds: [] })]);
+    expect(next.changes).toEqual([
+      expect.objectContaining({ type: "review", signOffId: signOff.id, decision: "approved", reopenedStepIds: [] }),
+    ]);
   });
 
   it("send back with a reason: exactly the chosen steps reopen on the tablet, a redo and a new sign-off go back in the queue, then approve", async () => {
@@ -59,29 +78,62 @@ describe("review decisions on synced sign-offs", () => {
     expect(row).toMatchObject({ signOffId: signOff.id, outOfTolerance: 1 });
     const review = await loadSignOffReview(db, users.sup, signOff.id);
     expect(review?.outOfTolerance).toEqual([
-      expect.objectContaining({ stepId: ringGapStep, specLabel: "Top ring gap", readingLabel: "Cyl 2", value: 0.5, verdict: "high", acceptance: null }),
+      expect.objectContaining({
+        stepId: ringGapStep,
+        specLabel: "Top ring gap",
+        readingLabel: "Cyl 2",
+        value: 0.5,
+        verdict: "high",
+        acceptance: null,
+      }),
     ]);
     // the default choice for a send-back: the step holding the reading out of tolerance
     expect(review?.defaultReopenStepIds).toEqual([ringGapStep]);
 
     // A send-back without a reason never reaches the database.
-    const noReason = decisionInputSchema.safeParse({ decision: "sent_back", expectedDecisionId: null, reason: "  ", reopenStepIds: [ringGapStep] });
+    const noReason = decisionInputSchema.safeParse({
+      decision: "sent_back",
+      expectedDecisionId: null,
+      reason: "  ",
+      reopenStepIds: [ringGapStep],
+    });
     expect(noReason.success).toBe(false);
     expect(noReason.error?.issues[0]).toMatchObject({ path: ["reason"] });
     expect(noReason.error?.issues[0].message).toMatch(/Say why it goes back/);
 
     // A step from another stage cannot be reopened by this sign-off.
-    const wrongStep = await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason: "Regap cylinder 2", reopenStepIds: [fx.stepByKey["rod-bolts"].id] }));
-    expect(wrongStep).toMatchObject({ ok: false, status: 422, issues: [{ path: "reopenStepIds.0", message: "This step is not part of the signed-off stage." }] });
+    const wrongStep = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({
+        decision: "sent_back",
+        expectedDecisionId: null,
+        reason: "Regap cylinder 2",
+        reopenStepIds: [fx.stepByKey["rod-bolts"].id],
+      }),
+    );
+    expect(wrongStep).toMatchObject({
+      ok: false,
+      status: 422,
+      issues: [{ path: "reopenStepIds.0", message: "This step is not part of the signed-off stage." }],
+    });
 
     const reason = "Cyl 2 ring gap over the limit: regap the ring and read it again";
-    const sent = await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason, reopenStepIds: [ringGapStep] }));
+    const sent = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason, reopenStepIds: [ringGapStep] }),
+    );
     if (!sent.ok) throw new Error(sent.reason);
     expect(sent.reopenedStepIds).toEqual([ringGapStep]);
 
     // The tablet's next sync carries the send-back; the bench view reopens exactly that step, with the reason.
     const next = await sync(db, users.mech, tablet);
-    expect(next.changes).toEqual([expect.objectContaining({ type: "review", decision: "sent_back", reason, reopenedStepIds: [ringGapStep] })]);
+    expect(next.changes).toEqual([
+      expect.objectContaining({ type: "review", decision: "sent_back", reason, reopenedStepIds: [ringGapStep] }),
+    ]);
     const snapshot = await getJobSnapshot(db, users.mech, fx.workOrderId);
     const view = buildJobView(snapshot!, [], Date.now());
     const measure = view.stages.find((s) => s.key === "measure")!;
@@ -91,7 +143,14 @@ describe("review decisions on synced sign-offs", () => {
     expect((await queue(fx.shopId)).total).toBe(0);
 
     // Redo: correct the reading (the old one stays), do the step again, sign off again.
-    const high = (await db.selectFrom("measurements").select("id").where("spec_id", "=", specs["top-ring-gap"].id).where("reading_index", "=", 1).executeTakeFirstOrThrow()).id;
+    const high = (
+      await db
+        .selectFrom("measurements")
+        .select("id")
+        .where("spec_id", "=", specs["top-ring-gap"].id)
+        .where("reading_index", "=", 1)
+        .executeTakeFirstOrThrow()
+    ).id;
     const fix = tablet.read(ringGapStep, specs["top-ring-gap"].id, 1, 0.44, { supersedesId: high });
     const redo = tablet.complete(ringGapStep);
     const signOff2 = tablet.make("stage.signed-off", stage);
@@ -102,7 +161,9 @@ describe("review decisions on synced sign-offs", () => {
     expect(after.stages.find((s) => s.key === "measure")?.steps.every((s) => s.done && !s.reopened)).toBe(true);
 
     const again = await queue(fx.shopId);
-    expect(again.rows.map((r) => ({ id: r.signOffId, oot: r.outOfTolerance, resubmitted: r.resubmitted }))).toEqual([{ id: signOff2.id, oot: 0, resubmitted: true }]);
+    expect(again.rows.map((r) => ({ id: r.signOffId, oot: r.outOfTolerance, resubmitted: r.resubmitted }))).toEqual([
+      { id: signOff2.id, oot: 0, resubmitted: true },
+    ]);
     const review2 = await loadSignOffReview(db, users.sup, signOff2.id);
     const spot = review2!.steps.find((s) => s.id === ringGapStep)!.specs[0].spots[1];
     expect(spot.history.map((h) => ({ value: h.value, current: h.current, supersededBy: h.supersededBy }))).toEqual([
@@ -110,12 +171,24 @@ describe("review decisions on synced sign-offs", () => {
       { value: 0.44, current: true, supersededBy: null },
     ]);
     expect(review2!.steps.find((s) => s.id === ringGapStep)!.sentBack).toEqual([expect.objectContaining({ reason })]);
-    expect(review2!.earlier).toEqual([expect.objectContaining({ id: signOff.id, decisions: [expect.objectContaining({ decision: "sent_back", reason })] })]);
+    expect(review2!.earlier).toEqual([
+      expect.objectContaining({ id: signOff.id, decisions: [expect.objectContaining({ decision: "sent_back", reason })] }),
+    ]);
 
     // The old sign-off can no longer be decided on; the new one can.
-    const stale = await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: sent.decisionId }));
+    const stale = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({ decision: "approved", expectedDecisionId: sent.decisionId }),
+    );
     expect(stale).toMatchObject({ ok: false, status: 409 });
-    const ok = await decideOnSignOff(db, users.sup, signOff2.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }));
+    const ok = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff2.id,
+      decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }),
+    );
     expect(ok).toMatchObject({ ok: true, decision: "approved" });
     expect((await queue(fx.shopId)).total).toBe(0);
 
@@ -143,29 +216,60 @@ describe("review decisions on synced sign-offs", () => {
     const [oot] = review!.outOfTolerance;
     expect(oot).toMatchObject({ readingLabel: "Main 3", value: 0.046, verdict: "high" });
 
-    const plain = await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }));
+    const plain = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }),
+    );
     expect(plain).toMatchObject({ ok: false, status: 422 });
     if (plain.ok) throw new Error("unexpected");
-    expect(plain.issues).toEqual([{ path: `reading.${oot.readingId}`, message: expect.stringMatching(/^Main bearing oil clearance, Main 3: 0\.046 mm \(high; limits 0\.02–0\.044 mm\) is out of tolerance/) }]);
+    expect(plain.issues).toEqual([
+      {
+        path: `reading.${oot.readingId}`,
+        message: expect.stringMatching(
+          /^Main bearing oil clearance, Main 3: 0\.046 mm \(high; limits 0\.02–0\.044 mm\) is out of tolerance/,
+        ),
+      },
+    ]);
 
-    const short = decisionInputSchema.safeParse({ decision: "approved", expectedDecisionId: null, acceptances: [{ readingId: oot.readingId, justification: "ok" }] });
+    const short = decisionInputSchema.safeParse({
+      decision: "approved",
+      expectedDecisionId: null,
+      acceptances: [{ readingId: oot.readingId, justification: "ok" }],
+    });
     expect(short.success).toBe(false);
     expect(short.error?.issues[0]).toMatchObject({ path: ["acceptances", 0, "justification"] });
 
     const justification = "Bearing maker's sheet allows 0.048 mm for this shell grade; Plastigauge check agrees.";
-    const ok = await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null, acceptances: [{ readingId: oot.readingId, justification }] }));
+    const ok = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({
+        decision: "approved",
+        expectedDecisionId: null,
+        acceptances: [{ readingId: oot.readingId, justification }],
+      }),
+    );
     expect(ok).toMatchObject({ ok: true, accepted: 1 });
     if (!ok.ok) throw new Error("unexpected");
 
     const kept = await db.selectFrom("reading_acceptances").selectAll().where("measurement_id", "=", oot.readingId).execute();
-    expect(kept).toEqual([expect.objectContaining({ decision_id: ok.decisionId, justification, accepted_by: users.sup.id, shop_id: fx.shopId })]);
+    expect(kept).toEqual([
+      expect.objectContaining({ decision_id: ok.decisionId, justification, accepted_by: users.sup.id, shop_id: fx.shopId }),
+    ]);
     const [entry] = await audits(fx.workOrderId, "review.approve").then((a) => a.filter((x) => x.outcome === "accepted"));
-    expect((entry.detail as { acceptances: unknown[] }).acceptances).toEqual([{ readingId: oot.readingId, reading: expect.stringContaining("Main 3"), justification }]);
+    expect((entry.detail as { acceptances: unknown[] }).acceptances).toEqual([
+      { readingId: oot.readingId, reading: expect.stringContaining("Main 3"), justification },
+    ]);
     const shown = await loadSignOffReview(db, users.office, signOff.id);
     expect(shown!.outOfTolerance[0].acceptance).toMatchObject({ justification, by: { id: users.sup.id } });
 
     // Decisions and acceptances are final records: the database refuses edits and deletions.
-    await expect(sql`UPDATE reading_acceptances SET justification = 'changed' WHERE id = ${kept[0].id}::uuid`.execute(db)).rejects.toThrow(/append-only/);
+    await expect(sql`UPDATE reading_acceptances SET justification = 'changed' WHERE id = ${kept[0].id}::uuid`.execute(db)).rejects.toThrow(
+      /append-only/,
+    );
     await expect(sql`DELETE FROM review_decisions WHERE id = ${ok.decisionId}::uuid`.execute(db)).rejects.toThrow(/append-only/);
   });
 
@@ -178,13 +282,27 @@ describe("review decisions on synced sign-offs", () => {
 
     const review = await loadSignOffReview(db, users.sup, signOff.id);
     expect(review).toMatchObject({ mayDecide: false, whyNot: expect.stringMatching(/signed this stage off yourself/) });
-    const own = await decideOnSignOff(db, users.sup, signOff.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }));
-    expect(own).toMatchObject({ ok: false, status: 403, reason: "You signed this stage off yourself: another supervisor or the office must review it." });
+    const own = await decideOnSignOff(
+      db,
+      users.sup,
+      signOff.id,
+      decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }),
+    );
+    expect(own).toMatchObject({
+      ok: false,
+      status: 403,
+      reason: "You signed this stage off yourself: another supervisor or the office must review it.",
+    });
     const refusedEntry = (await audits(fx.workOrderId, "review.approve"))[0];
     expect(refusedEntry).toMatchObject({ outcome: "refused", actor_id: users.sup.id, reason: expect.stringMatching(/yourself/) });
     expect(await db.selectFrom("review_decisions").select("id").where("sign_off_id", "=", signOff.id).execute()).toEqual([]);
 
-    const office = await decideOnSignOff(db, users.office, signOff.id, decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }));
+    const office = await decideOnSignOff(
+      db,
+      users.office,
+      signOff.id,
+      decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null }),
+    );
     expect(office).toMatchObject({ ok: true });
   });
 
@@ -196,8 +314,16 @@ describe("review decisions on synced sign-offs", () => {
     await sync(db, users.mech, tablet, ops);
     const approve = decisionInputSchema.parse({ decision: "approved", expectedDecisionId: null });
 
-    expect(await decideOnSignOff(db, users.mech2, signOff.id, approve)).toMatchObject({ ok: false, status: 403, reason: "Your role (mechanic) may not approve or send back work." });
-    expect(await decideOnSignOff(db, users.customer, signOff.id, approve)).toMatchObject({ ok: false, status: 403, reason: "Your role (customer) may not approve or send back work." });
+    expect(await decideOnSignOff(db, users.mech2, signOff.id, approve)).toMatchObject({
+      ok: false,
+      status: 403,
+      reason: "Your role (mechanic) may not approve or send back work.",
+    });
+    expect(await decideOnSignOff(db, users.customer, signOff.id, approve)).toMatchObject({
+      ok: false,
+      status: 403,
+      reason: "Your role (customer) may not approve or send back work.",
+    });
     expect(await decideOnSignOff(db, other.users.sup, signOff.id, approve)).toMatchObject({ ok: false, status: 404 });
     expect(await loadSignOffReview(db, other.users.sup, signOff.id)).toBeNull();
     expect((await queue(other.fx.shopId)).total).toBe(0);
@@ -205,13 +331,38 @@ describe("review decisions on synced sign-offs", () => {
     const first = await decideOnSignOff(db, users.sup, signOff.id, approve);
     expect(first.ok).toBe(true);
     // The office looked at the screen before the supervisor's approval and now sends it back: refused.
-    const late = await decideOnSignOff(db, users.office, signOff.id, decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason: "Bore readings look odd", reopenStepIds: [stepIds[0]] }));
+    const late = await decideOnSignOff(
+      db,
+      users.office,
+      signOff.id,
+      decisionInputSchema.parse({
+        decision: "sent_back",
+        expectedDecisionId: null,
+        reason: "Bore readings look odd",
+        reopenStepIds: [stepIds[0]],
+      }),
+    );
     expect(late).toMatchObject({ ok: false, status: 409, reason: expect.stringMatching(/Someone else decided/) });
     // Knowing the standing decision, a later decision supersedes it (a new row; the old one stays).
     if (!first.ok) throw new Error("unexpected");
-    const later = await decideOnSignOff(db, users.office, signOff.id, decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: first.decisionId, reason: "Bore readings look odd", reopenStepIds: [stepIds[0]] }));
+    const later = await decideOnSignOff(
+      db,
+      users.office,
+      signOff.id,
+      decisionInputSchema.parse({
+        decision: "sent_back",
+        expectedDecisionId: first.decisionId,
+        reason: "Bore readings look odd",
+        reopenStepIds: [stepIds[0]],
+      }),
+    );
     expect(later).toMatchObject({ ok: true, decision: "sent_back" });
-    const rows = await db.selectFrom("review_decisions").select(["decision"]).where("sign_off_id", "=", signOff.id).orderBy("change_seq").execute();
+    const rows = await db
+      .selectFrom("review_decisions")
+      .select(["decision"])
+      .where("sign_off_id", "=", signOff.id)
+      .orderBy("change_seq")
+      .execute();
     expect(rows.map((r) => r.decision)).toEqual(["approved", "sent_back"]);
   });
 

@@ -9,7 +9,8 @@ import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
 const ports = useFakes();
-const notice = (signOffId: string) => db.selectFrom("review_notices").selectAll().where("sign_off_id", "=", signOffId).executeTakeFirstOrThrow();
+const notice = (signOffId: string) =>
+  db.selectFrom("review_notices").selectAll().where("sign_off_id", "=", signOffId).executeTakeFirstOrThrow();
 
 describe("supervisor e-mail when a stage with readings out of tolerance is signed off", () => {
   it("the merge leaves the intent; after commit the supervisor gets the e-mail through SMTP (maildev), once", async () => {
@@ -25,7 +26,9 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
     const mails = await mailTo(ports.mailWeb, users.sup.email);
     expect(mails).toHaveLength(1);
     expect(mails[0].subject).toBe('Work order 1: "Measure before assembly" signed off with 1 reading out of tolerance');
-    expect(mails[0].text).toContain(`${users.mech.name} signed off "Measure before assembly" on work order 1 (Fixture Test 1000, tag ${fx.bike.tag_code})`);
+    expect(mails[0].text).toContain(
+      `${users.mech.name} signed off "Measure before assembly" on work order 1 (Fixture Test 1000, tag ${fx.bike.tag_code})`,
+    );
     expect(mails[0].text).toContain("Top ring end gap — Top ring gap, Cyl 4: 0.31 mm (low; limits 0.35–0.48 mm)");
     expect(mails[0].text).toContain(`/review/${signOff.id}`);
     // Only supervisors are written to while there is one; never the mechanic.
@@ -34,7 +37,12 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
 
     const recorded = await db.selectFrom("outbound_emails").selectAll().where("work_order_id", "=", fx.workOrderId).execute();
     expect(recorded).toEqual([expect.objectContaining({ kind: "review_needed", recipient: users.sup.email, error: null })]);
-    const audit = await db.selectFrom("audit_log").selectAll().where("work_order_id", "=", fx.workOrderId).where("action", "=", "review.notice-mail").execute();
+    const audit = await db
+      .selectFrom("audit_log")
+      .selectAll()
+      .where("work_order_id", "=", fx.workOrderId)
+      .where("action", "=", "review.notice-mail")
+      .execute();
     expect(audit).toEqual([expect.objectContaining({ outcome: "accepted", entity_id: signOff.id })]);
 
     // A later run sends nothing again.
@@ -53,7 +61,17 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
     // Out of tolerance, but the office decided before the e-mail went out.
     const { ops, signOff } = measureStageWork(tablet, specs, stepIds, stage, { "bore-1:5": 75.99 });
     await sync(db, users.mech, tablet, ops);
-    await decideOnSignOff(db, users.office, signOff.id, decisionInputSchema.parse({ decision: "sent_back", expectedDecisionId: null, reason: "Bore 1 below the limit at the bottom", reopenStepIds: [stepIds[0]] }));
+    await decideOnSignOff(
+      db,
+      users.office,
+      signOff.id,
+      decisionInputSchema.parse({
+        decision: "sent_back",
+        expectedDecisionId: null,
+        reason: "Bore 1 below the limit at the bottom",
+        reopenStepIds: [stepIds[0]],
+      }),
+    );
     await deliverReviewNotices(db);
     expect(await notice(signOff.id)).toMatchObject({ state: "not_needed" });
     expect(await mailTo(ports.mailWeb, users.sup.email, 1, 300)).toEqual([]);

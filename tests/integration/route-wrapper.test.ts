@@ -12,7 +12,11 @@ import { useTestDb } from "./support/test-db";
 // one error body, and the 503 when the database does not answer (the session lookup included).
 const db = useTestDb();
 const asUser = (u: ShopFixture["users"]["office"]): SessionUser => ({ ...u, customerId: null });
-const json = (body: unknown, headers: Record<string, string> = {}) => ({ method: "POST", headers: { "content-type": "application/json", ...headers }, body: JSON.stringify(body) });
+const json = (body: unknown, headers: Record<string, string> = {}) => ({
+  method: "POST",
+  headers: { "content-type": "application/json", ...headers },
+  body: JSON.stringify(body),
+});
 
 describe("the route wrapper", () => {
   it("writes a customer from our own page (Origin or Sec-Fetch-Site) and refuses one from elsewhere", async () => {
@@ -20,9 +24,15 @@ describe("the route wrapper", () => {
     const office = asUser(fx.users.office);
     const ok = await addCustomer.handle(appRequest("/api/office/customers", json({ name: "Ada Example" })), { user: office, db });
     expect(ok.status).toBe(201);
-    const fetchMeta = await addCustomer.handle(new Request(`${APP_ORIGIN}/api/office/customers`, json({ name: "Bo Example" }, { "sec-fetch-site": "same-origin" })), { user: office, db });
+    const fetchMeta = await addCustomer.handle(
+      new Request(`${APP_ORIGIN}/api/office/customers`, json({ name: "Bo Example" }, { "sec-fetch-site": "same-origin" })),
+      { user: office, db },
+    );
     expect(fetchMeta.status).toBe(201);
-    const forged = await addCustomer.handle(new Request(`${APP_ORIGIN}/api/office/customers`, json({ name: "Cy Forged" }, { origin: "https://elsewhere.example" })), { user: office, db });
+    const forged = await addCustomer.handle(
+      new Request(`${APP_ORIGIN}/api/office/customers`, json({ name: "Cy Forged" }, { origin: "https://elsewhere.example" })),
+      { user: office, db },
+    );
     expect(forged.status).toBe(403);
     const names = await db.selectFrom("customers").select("name").where("shop_id", "=", fx.shopId).execute();
     expect(names.map((n) => n.name).sort()).toEqual(expect.not.arrayContaining(["Cy Forged"]));
@@ -32,8 +42,14 @@ describe("the route wrapper", () => {
   it("refuses a text/plain post (415), an oversized body (413) and bad fields (400, in workshop words)", async () => {
     const fx = await createShopFixture(db);
     const office = asUser(fx.users.office);
-    const plain = await addCustomer.handle(appRequest("/api/office/customers", { method: "POST", headers: { "content-type": "text/plain" }, body: '{"name":"Di Plain"}' }), { user: office, db });
-    expect([plain.status, await plain.json()]).toEqual([415, { error: "This request takes application/json; text/plain was sent.", issues: [] }]);
+    const plain = await addCustomer.handle(
+      appRequest("/api/office/customers", { method: "POST", headers: { "content-type": "text/plain" }, body: '{"name":"Di Plain"}' }),
+      { user: office, db },
+    );
+    expect([plain.status, await plain.json()]).toEqual([
+      415,
+      { error: "This request takes application/json; text/plain was sent.", issues: [] },
+    ]);
     const huge = new TextEncoder().encode(JSON.stringify({ name: "Ed Huge", notes: "n".repeat(300 * 1024) }));
     const stream = new ReadableStream<Uint8Array>({
       start(c) {
@@ -41,9 +57,15 @@ describe("the route wrapper", () => {
         c.close();
       },
     });
-    const big = await addCustomer.handle(appRequest("/api/office/customers", { method: "POST", headers: { "content-type": "application/json" }, body: stream }), { user: office, db });
+    const big = await addCustomer.handle(
+      appRequest("/api/office/customers", { method: "POST", headers: { "content-type": "application/json" }, body: stream }),
+      { user: office, db },
+    );
     expect(big.status).toBe(413);
-    const bad = await addCustomer.handle(appRequest("/api/office/customers", json({ name: "Fay Example", notes: "n".repeat(2001), phone: 12 })), { user: office, db });
+    const bad = await addCustomer.handle(
+      appRequest("/api/office/customers", json({ name: "Fay Example", notes: "n".repeat(2001), phone: 12 })),
+      { user: office, db },
+    );
     expect(bad.status).toBe(400);
     expect(await bad.json()).toEqual({
       error: "Check the marked fields.",
@@ -60,7 +82,14 @@ describe("the route wrapper", () => {
         { path: "dir", message: "Sort order: choose asc or desc" },
       ],
     ]);
-    expect(await db.selectFrom("customers").select("id").where("shop_id", "=", fx.shopId).where("name", "in", ["Di Plain", "Ed Huge", "Fay Example"]).execute()).toEqual([]);
+    expect(
+      await db
+        .selectFrom("customers")
+        .select("id")
+        .where("shop_id", "=", fx.shopId)
+        .where("name", "in", ["Di Plain", "Ed Huge", "Fay Example"])
+        .execute(),
+    ).toEqual([]);
   });
 
   it("answers 503 with the one body when the database does not answer, the session lookup included", async () => {
@@ -69,7 +98,10 @@ describe("the route wrapper", () => {
     try {
       const lookup = await customers.handle(appRequest("/api/office/customers"), { userId: fx.users.office.id, db: gone });
       expect([lookup.status, await lookup.json()]).toEqual([503, { error: DATABASE_NOT_ANSWERING, issues: [] }]);
-      const merge = await sync.handle(appRequest("/api/sync", json({ deviceId: "tab-gone", cursor: null, operations: [] })), { user: asUser(fx.users.mechanic), db: gone });
+      const merge = await sync.handle(appRequest("/api/sync", json({ deviceId: "tab-gone", cursor: null, operations: [] })), {
+        user: asUser(fx.users.mechanic),
+        db: gone,
+      });
       expect([merge.status, await merge.json()]).toEqual([503, { error: DATABASE_NOT_ANSWERING, issues: [] }]);
     } finally {
       await gone.destroy();

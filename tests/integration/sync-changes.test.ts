@@ -49,7 +49,13 @@ describe("changes and cursor", () => {
     const r1 = await mergeBatch(db, mech, t1.batch([signOff]));
     const d = await db
       .insertInto("review_decisions")
-      .values({ sign_off_id: signOff.id, decision: "sent_back", reason: "Ring gaps missing", reopened_step_ids: [specs.boreStepId, fx.stepByKey["ring-gap"].id], decided_by: sup.id })
+      .values({
+        sign_off_id: signOff.id,
+        decision: "sent_back",
+        reason: "Ring gaps missing",
+        reopened_step_ids: [specs.boreStepId, fx.stepByKey["ring-gap"].id],
+        decided_by: sup.id,
+      })
       .returning(["id", "change_seq"])
       .executeTakeFirstOrThrow();
     const r2 = await mergeBatch(db, mech, t1.batch([], r1.cursor));

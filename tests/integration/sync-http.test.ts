@@ -13,7 +13,8 @@ import { useTestDb } from "./support/test-db";
 const db = useTestDb();
 const asUser = (u: ShopFixture["users"]["mechanic"], customerId: string | null = null): SessionUser => ({ ...u, customerId });
 
-const post = (body: BodyInit | null, headers: Record<string, string> = {}) => appRequest("/api/sync", { method: "POST", body, headers: { "content-type": "application/json", ...headers } });
+const post = (body: BodyInit | null, headers: Record<string, string> = {}) =>
+  appRequest("/api/sync", { method: "POST", body, headers: { "content-type": "application/json", ...headers } });
 // POST /api/sync through the route wrapper, with the user and database given.
 const handleSyncRequest = (req: Request, user: SessionUser | null, db: Db) => syncRoute.handle(req, { user, db });
 
@@ -66,8 +67,15 @@ describe("POST /api/sync handler", () => {
   it("answers 422 with each zod issue's path and message, saving nothing", async () => {
     const { fx, specs, mech, tablet } = await setup();
     const good = tablet.complete(specs.boreStepId);
-    const bad = { ...tablet.read(specs.boreStepId, specs.boreSpecId, 0, 76), payload: { stepId: specs.boreStepId, specId: specs.boreSpecId, readingIndex: 0, value: "76.01", unit: "cm" } };
-    const res = await handleSyncRequest(post(JSON.stringify({ deviceId: tablet.deviceId, cursor: null, operations: [good, bad] })), mech, db);
+    const bad = {
+      ...tablet.read(specs.boreStepId, specs.boreSpecId, 0, 76),
+      payload: { stepId: specs.boreStepId, specId: specs.boreSpecId, readingIndex: 0, value: "76.01", unit: "cm" },
+    };
+    const res = await handleSyncRequest(
+      post(JSON.stringify({ deviceId: tablet.deviceId, cursor: null, operations: [good, bad] })),
+      mech,
+      db,
+    );
     expect(res.status).toBe(422);
     const body = await res.json();
     expect(body.issues).toEqual(
@@ -88,7 +96,9 @@ describe("POST /api/sync handler", () => {
 
   it("answers 413 when the body itself is over the limit, whatever the headers say", async () => {
     const { mech } = await setup();
-    const big = new TextEncoder().encode(JSON.stringify({ deviceId: "tab-1", cursor: null, operations: [], pad: "x".repeat(SYNC_LIMITS.maxBodyBytes) }));
+    const big = new TextEncoder().encode(
+      JSON.stringify({ deviceId: "tab-1", cursor: null, operations: [], pad: "x".repeat(SYNC_LIMITS.maxBodyBytes) }),
+    );
     // streamed in chunks with no Content-Length
     const stream = new ReadableStream<Uint8Array>({
       start(c) {
@@ -107,6 +117,8 @@ describe("POST /api/sync handler", () => {
     const ops = Array.from({ length: SYNC_LIMITS.maxOperations + 1 }, () => one);
     const res = await handleSyncRequest(post(JSON.stringify(tablet.batch(ops))), mech, db);
     expect(res.status).toBe(413);
-    expect((await res.json()).error).toBe(`The batch has ${SYNC_LIMITS.maxOperations + 1} operations; the limit is ${SYNC_LIMITS.maxOperations}. Send the outbox in smaller batches.`);
+    expect((await res.json()).error).toBe(
+      `The batch has ${SYNC_LIMITS.maxOperations + 1} operations; the limit is ${SYNC_LIMITS.maxOperations}. Send the outbox in smaller batches.`,
+    );
   });
 });

@@ -21,7 +21,8 @@ async function setup() {
 /** Rows a merge writes for one job, in a comparable form (ids and values, not receive times or seq). */
 async function jobState(workOrderId: string) {
   const q = async (table: string, cols: string) =>
-    (await sql.raw<Record<string, unknown>>(`SELECT ${cols} FROM ${table} WHERE work_order_id = '${workOrderId}' ORDER BY id`).execute(db)).rows;
+    (await sql.raw<Record<string, unknown>>(`SELECT ${cols} FROM ${table} WHERE work_order_id = '${workOrderId}' ORDER BY id`).execute(db))
+      .rows;
   return {
     operations: await q("operations", "id, kind, stamp, flagged, flag_reason"),
     completions: await q("step_completions", "id, step_id, flagged"),
@@ -44,9 +45,22 @@ describe("merging a batch", () => {
       tablet.read(specs.boreStepId, specs.boreSpecId, 1, 2.9925, { unit: "in" }),
       tablet.read(specs.boreStepId, specs.boreSpecId, 2, 76.02),
       tablet.bolt(specs.rodStepId, specs.rodSpecId, 3, 2),
-      tablet.make("timer.started", { timerId, stepId: specs.sealantStepId, timerSpecId: specs.sealantTimerSpecId, label: "Sealant cure", durationS: 1800, startedAt: new Date(Date.now() - 60_000).toISOString() }),
+      tablet.make("timer.started", {
+        timerId,
+        stepId: specs.sealantStepId,
+        timerSpecId: specs.sealantTimerSpecId,
+        label: "Sealant cure",
+        durationS: 1800,
+        startedAt: new Date(Date.now() - 60_000).toISOString(),
+      }),
       tablet.make("timer.stopped", { timerId, stoppedAt: new Date().toISOString() }),
-      tablet.make("photo.queued", { attachmentId: photoId, stepId: specs.boreStepId, contentType: "image/jpeg", byteSize: 123_456, caption: "Bore at top" }),
+      tablet.make("photo.queued", {
+        attachmentId: photoId,
+        stepId: specs.boreStepId,
+        contentType: "image/jpeg",
+        byteSize: 123_456,
+        caption: "Bore at top",
+      }),
       tablet.complete(specs.boreStepId),
       tablet.make("stage.signed-off", specs.measureStage),
     ];
@@ -54,7 +68,12 @@ describe("merging a batch", () => {
     expect(res.refused).toEqual([]);
     expect(res.accepted).toEqual(ops.map((o) => o.id));
 
-    const m = await db.selectFrom("measurements").select(["id", sql<string>`value::text`.as("v"), "unit", "verdict"]).where("work_order_id", "=", fx.workOrderId).orderBy("reading_index").execute();
+    const m = await db
+      .selectFrom("measurements")
+      .select(["id", sql<string>`value::text`.as("v"), "unit", "verdict"])
+      .where("work_order_id", "=", fx.workOrderId)
+      .orderBy("reading_index")
+      .execute();
     expect(m.map((r) => [r.v, r.unit, r.verdict])).toEqual([
       ["76.00512345678901", "mm", "in"],
       ["2.9925", "in", "in"],
@@ -64,14 +83,29 @@ describe("merging a batch", () => {
     expect(timer.stopped_at).not.toBeNull();
     expect(timer.started_by).toBe(mech.id);
     const photo = await db.selectFrom("attachments").selectAll().where("id", "=", photoId).executeTakeFirstOrThrow();
-    expect(photo).toMatchObject({ awaiting_upload: true, byte_size: 123_456, caption: "Bore at top", step_id: specs.boreStepId, purpose: "step", bike_id: fx.bike.id });
-    expect(await db.selectFrom("sign_offs").select("stage_key").where("work_order_id", "=", fx.workOrderId).execute()).toEqual([{ stage_key: "measure" }]);
-    expect(await db.selectFrom("torque_records").select(["pass_index", "bolt"]).where("work_order_id", "=", fx.workOrderId).execute()).toEqual([{ pass_index: 3, bolt: 2 }]);
+    expect(photo).toMatchObject({
+      awaiting_upload: true,
+      byte_size: 123_456,
+      caption: "Bore at top",
+      step_id: specs.boreStepId,
+      purpose: "step",
+      bike_id: fx.bike.id,
+    });
+    expect(await db.selectFrom("sign_offs").select("stage_key").where("work_order_id", "=", fx.workOrderId).execute()).toEqual([
+      { stage_key: "measure" },
+    ]);
+    expect(
+      await db.selectFrom("torque_records").select(["pass_index", "bolt"]).where("work_order_id", "=", fx.workOrderId).execute(),
+    ).toEqual([{ pass_index: 3, bolt: 2 }]);
   });
 
   it("treats a replayed batch as duplicates and leaves the database as if it came once", async () => {
     const { fx, specs, mech, tablet } = await setup();
-    const ops = [tablet.read(specs.boreStepId, specs.boreSpecId, 0, 76.001), tablet.bolt(specs.rodStepId, specs.rodSpecId, 1, 1), tablet.complete(specs.rodStepId)];
+    const ops = [
+      tablet.read(specs.boreStepId, specs.boreSpecId, 0, 76.001),
+      tablet.bolt(specs.rodStepId, specs.rodSpecId, 1, 1),
+      tablet.complete(specs.rodStepId),
+    ];
     const batch = tablet.batch(ops);
     const first = await mergeBatch(db, mech, batch);
     expect(first.accepted).toHaveLength(3);
@@ -88,15 +122,27 @@ describe("merging a batch", () => {
     // the first half arrived (the answer was lost); the tablet then resends everything
     await mergeBatch(db, mech, tablet.batch(ops.slice(0, 5)));
     const retry = await mergeBatch(db, mech, tablet.batch(ops));
-    expect(retry.duplicates.sort()).toEqual(ops.slice(0, 5).map((o) => o.id).sort());
+    expect(retry.duplicates.sort()).toEqual(
+      ops
+        .slice(0, 5)
+        .map((o) => o.id)
+        .sort(),
+    );
     expect(retry.accepted).toEqual(ops.slice(5).map((o) => o.id));
 
     // the same outbox in one go on a twin job gives the same rows
     const twin = await setup();
-    const twinOps = ops.map((o) => ({ ...o, id: randomUUID(), workOrderId: twin.fx.workOrderId, authorId: twin.mech.id, payload: { ...o.payload, stepId: twin.specs.boreStepId, specId: twin.specs.boreSpecId } }));
+    const twinOps = ops.map((o) => ({
+      ...o,
+      id: randomUUID(),
+      workOrderId: twin.fx.workOrderId,
+      authorId: twin.mech.id,
+      payload: { ...o.payload, stepId: twin.specs.boreStepId, specId: twin.specs.boreSpecId },
+    }));
     await mergeBatch(db, twin.mech, { deviceId: tablet.deviceId, cursor: null, operations: twinOps });
     const count = async (wo: string) => (await db.selectFrom("measurements").select("id").where("work_order_id", "=", wo).execute()).length;
-    const audits = async (wo: string) => (await db.selectFrom("audit_log").select("entity_id").where("work_order_id", "=", wo).execute()).length;
+    const audits = async (wo: string) =>
+      (await db.selectFrom("audit_log").select("entity_id").where("work_order_id", "=", wo).execute()).length;
     expect(await count(fx.workOrderId)).toBe(10);
     expect(await count(fx.workOrderId)).toBe(await count(twin.fx.workOrderId));
     expect(await audits(fx.workOrderId)).toBe(await audits(twin.fx.workOrderId));
@@ -128,9 +174,19 @@ describe("merging a batch", () => {
     await mergeBatch(db, b.mech, rb.t1.batch(rb.one));
 
     const current = async (wo: string) =>
-      (await db.selectFrom("current_measurements").select(["reading_index", sql<string>`value::text`.as("v")]).where("work_order_id", "=", wo).orderBy("reading_index").execute()).map((r) => [r.reading_index, r.v]);
+      (
+        await db
+          .selectFrom("current_measurements")
+          .select(["reading_index", sql<string>`value::text`.as("v")])
+          .where("work_order_id", "=", wo)
+          .orderBy("reading_index")
+          .execute()
+      ).map((r) => [r.reading_index, r.v]);
     // index 0: tablet two's reading has the later stamp
-    expect(await current(a.fx.workOrderId)).toEqual([[0, "76.004"], [1, "76.006"]]);
+    expect(await current(a.fx.workOrderId)).toEqual([
+      [0, "76.004"],
+      [1, "76.006"],
+    ]);
     expect(await current(b.fx.workOrderId)).toEqual(await current(a.fx.workOrderId));
     const all = await db.selectFrom("measurements").select("id").where("work_order_id", "=", b.fx.workOrderId).execute();
     expect(all).toHaveLength(3);
@@ -162,11 +218,21 @@ describe("merging a batch", () => {
     const fix = tablet.read(specs.boreStepId, specs.boreSpecId, 3, 76.009, { supersedesId: wrong.id });
     const res = await mergeBatch(db, mech, tablet.batch([fix]));
     expect(res.accepted).toEqual([fix.id]);
-    const rows = await db.selectFrom("measurements").select(["id", "supersedes_id", "verdict"]).where("work_order_id", "=", fx.workOrderId).where("reading_index", "=", 3).execute();
+    const rows = await db
+      .selectFrom("measurements")
+      .select(["id", "supersedes_id", "verdict"])
+      .where("work_order_id", "=", fx.workOrderId)
+      .where("reading_index", "=", 3)
+      .execute();
     expect(rows).toHaveLength(2);
     expect(rows.find((r) => r.id === wrong.id)).toMatchObject({ verdict: "low", supersedes_id: null });
     expect(rows.find((r) => r.id === fix.id)).toMatchObject({ verdict: "in", supersedes_id: wrong.id });
-    const current = await db.selectFrom("current_measurements").select("id").where("work_order_id", "=", fx.workOrderId).where("reading_index", "=", 3).execute();
+    const current = await db
+      .selectFrom("current_measurements")
+      .select("id")
+      .where("work_order_id", "=", fx.workOrderId)
+      .where("reading_index", "=", 3)
+      .execute();
     expect(current).toEqual([{ id: fix.id }]);
     // and the old one cannot be changed or removed
     await expect(sql`UPDATE measurements SET value = 1 WHERE id = ${wrong.id}::uuid`.execute(db)).rejects.toThrow(/append-only/);
@@ -179,7 +245,19 @@ describe("merging a batch", () => {
     const t2 = new Tablet("bay-2", sup.id, fx.workOrderId);
     const timerId = randomUUID();
     const start = Date.now() - 600_000;
-    await mergeBatch(db, mech, t1.batch([t1.make("timer.started", { timerId, stepId: specs.sealantStepId, label: "Cure", durationS: 300, startedAt: new Date(start).toISOString() })]));
+    await mergeBatch(
+      db,
+      mech,
+      t1.batch([
+        t1.make("timer.started", {
+          timerId,
+          stepId: specs.sealantStepId,
+          label: "Cure",
+          durationS: 300,
+          startedAt: new Date(start).toISOString(),
+        }),
+      ]),
+    );
     const late = new Date(start + 400_000).toISOString();
     const early = new Date(start + 310_000).toISOString();
     await mergeBatch(db, sup, t2.batch([t2.make("timer.stopped", { timerId, stoppedAt: late })]));

@@ -42,14 +42,25 @@ const partRows = (workOrderId: string) =>
   // (ops made in one test often share a millisecond: sorted by what they hold)
   db.selectFrom("parts_fitted").selectAll().where("work_order_id", "=", workOrderId).orderBy("part_number").orderBy("serial").execute();
 const auditOf = (ids: string[]) =>
-  db.selectFrom("audit_log").select(["entity_id", "action", "outcome", "reason", "actor_id", "work_order_id"]).where("entity_id", "in", ids).orderBy("id").execute();
+  db
+    .selectFrom("audit_log")
+    .select(["entity_id", "action", "outcome", "reason", "actor_id", "work_order_id"])
+    .where("entity_id", "in", ids)
+    .orderBy("id")
+    .execute();
 
 describe("part.fitted merged into PostgreSQL", () => {
   it("stores one row with the tablet's id, the step, the fitter and the fitting time, and audits it", async () => {
     const { fx, mech, stepId, tablet } = await setup();
     const payload = piston(stepId);
     const op = tablet.make("part.fitted", payload);
-    const { supplier: _s, ...noSupplier } = piston(stepId, { serial: undefined, batch: "L24-118", quantity: 8, partNumber: "GS-RB-8", description: "Rod bolt" });
+    const { supplier: _s, ...noSupplier } = piston(stepId, {
+      serial: undefined,
+      batch: "L24-118",
+      quantity: 8,
+      partNumber: "GS-RB-8",
+      description: "Rod bolt",
+    });
     const bolts = tablet.make("part.fitted", noSupplier);
     const res = await mergeBatch(db, mech, tablet.batch([op, bolts]));
     expect(res).toMatchObject({ accepted: [op.id, bolts.id], refused: [], flagged: [], duplicates: [] });
@@ -71,11 +82,25 @@ describe("part.fitted merged into PostgreSQL", () => {
         fitted_at: op.deviceTime,
         operation_id: op.id,
       },
-      expect.objectContaining({ id: noSupplier.partFittedId, supplier: "", serial: null, batch: "L24-118", quantity: 8, operation_id: bolts.id }),
+      expect.objectContaining({
+        id: noSupplier.partFittedId,
+        supplier: "",
+        serial: null,
+        batch: "L24-118",
+        quantity: 8,
+        operation_id: bolts.id,
+      }),
     ]);
     expect(await auditOf([op.id, bolts.id])).toEqual([
       { entity_id: op.id, action: "sync.part.fitted", outcome: "accepted", reason: null, actor_id: mech.id, work_order_id: fx.workOrderId },
-      { entity_id: bolts.id, action: "sync.part.fitted", outcome: "accepted", reason: null, actor_id: mech.id, work_order_id: fx.workOrderId },
+      {
+        entity_id: bolts.id,
+        action: "sync.part.fitted",
+        outcome: "accepted",
+        reason: null,
+        actor_id: mech.id,
+        work_order_id: fx.workOrderId,
+      },
     ]);
   });
 
@@ -100,12 +125,16 @@ describe("part.fitted merged into PostgreSQL", () => {
     const mech2 = asUser(fx.users.mechanic2);
     const t2 = new Tablet("bay-2", mech2.id, fx.workOrderId);
     const op = t2.make("part.fitted", piston(stepId));
-    expect((await mergeBatch(db, mech2, t2.batch([op]))).refused).toEqual([{ id: op.id, reason: "Work order #1 is assigned to another mechanic." }]);
+    expect((await mergeBatch(db, mech2, t2.batch([op]))).refused).toEqual([
+      { id: op.id, reason: "Work order #1 is assigned to another mechanic." },
+    ]);
 
     const office = asUser(fx.users.office);
     const t3 = new Tablet("office-pc", office.id, fx.workOrderId);
     const op3 = t3.make("part.fitted", piston(stepId));
-    expect((await mergeBatch(db, office, t3.batch([op3]))).refused).toEqual([{ id: op3.id, reason: "Your role (office) may not record bench work." }]);
+    expect((await mergeBatch(db, office, t3.batch([op3]))).refused).toEqual([
+      { id: op3.id, reason: "Your role (office) may not record bench work." },
+    ]);
 
     expect(await partRows(fx.workOrderId)).toEqual([]);
     expect((await auditOf([op.id, op3.id])).map((a) => [a.entity_id, a.action, a.outcome])).toEqual([
@@ -131,7 +160,14 @@ describe("part.fitted merged into PostgreSQL", () => {
 
   it("keeps a serial recorded twice on the job — by two tablets, or after the office — and flags it", async () => {
     const { fx, mech, stepId, tablet } = await setup();
-    await addPartFitted(db, fx.shopId, fx.users.office.id, fx.workOrderId, { partNumber: "GS-ROD-130", description: "H-beam rod", serial: "GR-7", batch: null, quantity: 1, stepId: null });
+    await addPartFitted(db, fx.shopId, fx.users.office.id, fx.workOrderId, {
+      partNumber: "GS-ROD-130",
+      description: "H-beam rod",
+      serial: "GR-7",
+      batch: null,
+      quantity: 1,
+      stepId: null,
+    });
     expect((await mergeBatch(db, mech, tablet.batch([tablet.make("part.fitted", piston(stepId))]))).flagged).toEqual([]);
 
     const sup = asUser(fx.users.supervisor);
@@ -141,8 +177,16 @@ describe("part.fitted merged into PostgreSQL", () => {
     const res = await mergeBatch(db, sup, t2.batch([twice, afterOffice]));
     expect(res.accepted).toEqual([twice.id, afterOffice.id]);
     expect(res.flagged).toEqual([
-      { id: twice.id, reason: 'Serial number gs 0042 of part GS-PST-7600 is already recorded on work order #1 at step "Torque connecting-rod bolts": check the part was not recorded twice or fitted twice.' },
-      { id: afterOffice.id, reason: "Serial number GR-7 of part gs-rod-130 is already recorded on work order #1: check the part was not recorded twice or fitted twice." },
+      {
+        id: twice.id,
+        reason:
+          'Serial number gs 0042 of part GS-PST-7600 is already recorded on work order #1 at step "Torque connecting-rod bolts": check the part was not recorded twice or fitted twice.',
+      },
+      {
+        id: afterOffice.id,
+        reason:
+          "Serial number GR-7 of part gs-rod-130 is already recorded on work order #1: check the part was not recorded twice or fitted twice.",
+      },
     ]);
     expect(await partRows(fx.workOrderId)).toHaveLength(4);
     const [audit] = await auditOf([twice.id]);
@@ -153,8 +197,12 @@ describe("part.fitted merged into PostgreSQL", () => {
     const { fx, mech, stepId, tablet } = await setup();
     const payload = piston(stepId);
     await mergeBatch(db, mech, tablet.batch([tablet.make("part.fitted", payload)]));
-    await expect(db.updateTable("parts_fitted").set({ serial: "GS-9999" }).where("id", "=", payload.partFittedId).execute()).rejects.toThrow(/parts_fitted is append-only: UPDATE refused/);
-    await expect(db.deleteFrom("parts_fitted").where("id", "=", payload.partFittedId).execute()).rejects.toThrow(/append-only: DELETE refused/);
+    await expect(
+      db.updateTable("parts_fitted").set({ serial: "GS-9999" }).where("id", "=", payload.partFittedId).execute(),
+    ).rejects.toThrow(/parts_fitted is append-only: UPDATE refused/);
+    await expect(db.deleteFrom("parts_fitted").where("id", "=", payload.partFittedId).execute()).rejects.toThrow(
+      /append-only: DELETE refused/,
+    );
     expect((await partRows(fx.workOrderId))[0].serial).toBe("GS-0042");
   });
 });
@@ -182,7 +230,11 @@ describe("bench-recorded parts read back", () => {
         flagged: false,
         flagReason: null,
       },
-      expect.objectContaining({ id: repeat.payload.partFittedId, flagged: true, flagReason: expect.stringContaining("already recorded on work order #1") }),
+      expect.objectContaining({
+        id: repeat.payload.partFittedId,
+        flagged: true,
+        flagReason: expect.stringContaining("already recorded on work order #1"),
+      }),
     ]);
 
     const feed = await changesSince(db, fx.shopId, "another-tablet", null);
@@ -205,7 +257,12 @@ describe("bench-recorded parts read back", () => {
     const step = review.steps.find((s) => s.id === stepId)!;
     expect(step.parts.map((p) => [p.id, p.serial, p.by?.name, p.flagReason])).toEqual([
       [first.payload.partFittedId, "GS-0042", mech.name, null],
-      [repeat.payload.partFittedId, "GS 0042", mech.name, expect.stringContaining("Serial number GS 0042 of part GS-PST-7600 is already recorded")],
+      [
+        repeat.payload.partFittedId,
+        "GS 0042",
+        mech.name,
+        expect.stringContaining("Serial number GS 0042 of part GS-PST-7600 is already recorded"),
+      ],
     ]);
     expect(review.steps.filter((s) => s.id !== stepId).flatMap((s) => s.parts)).toEqual([]);
   });
@@ -214,12 +271,41 @@ describe("bench-recorded parts read back", () => {
     const { fx, mech, stepId, tablet } = await setup();
     const op = tablet.make("part.fitted", piston(stepId));
     await mergeBatch(db, mech, tablet.batch([op]));
-    await addPartFitted(db, fx.shopId, fx.users.office.id, fx.workOrderId, { partNumber: "GS-HG-1", description: "Head gasket", serial: null, batch: "HG-24", quantity: 1, stepId: null });
+    await addPartFitted(db, fx.shopId, fx.users.office.id, fx.workOrderId, {
+      partNumber: "GS-HG-1",
+      description: "Head gasket",
+      serial: null,
+      batch: "HG-24",
+      quantity: 1,
+      stepId: null,
+    });
 
     const list = await partsOfWorkOrder(db, fx.shopId, fx.workOrderId);
     expect(list.map(({ id: _id, fittedAt: _at, ...p }) => p)).toEqual([
-      { partNumber: "GS-PST-7600", description: "Forged piston, 76.00 mm", supplier: "Harbour Pistons", serial: "GS-0042", batch: null, quantity: 1, stepTitle: "Torque connecting-rod bolts", fittedByName: mech.name, flagReason: null, atBench: true },
-      { partNumber: "GS-HG-1", description: "Head gasket", supplier: "", serial: null, batch: "HG-24", quantity: 1, stepTitle: null, fittedByName: fx.users.office.name, flagReason: null, atBench: false },
+      {
+        partNumber: "GS-PST-7600",
+        description: "Forged piston, 76.00 mm",
+        supplier: "Harbour Pistons",
+        serial: "GS-0042",
+        batch: null,
+        quantity: 1,
+        stepTitle: "Torque connecting-rod bolts",
+        fittedByName: mech.name,
+        flagReason: null,
+        atBench: true,
+      },
+      {
+        partNumber: "GS-HG-1",
+        description: "Head gasket",
+        supplier: "",
+        serial: null,
+        batch: "HG-24",
+        quantity: 1,
+        stepTitle: null,
+        fittedByName: fx.users.office.name,
+        flagReason: null,
+        atBench: false,
+      },
     ]);
     expect(await partsOfWorkOrder(db, randomUUID(), fx.workOrderId)).toEqual([]);
 

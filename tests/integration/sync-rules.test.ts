@@ -18,7 +18,12 @@ async function setup(status?: Parameters<typeof createShopFixture>[1]) {
 }
 
 const auditFor = (ids: string[]) =>
-  db.selectFrom("audit_log").select(["entity_id", "outcome", "reason", "actor_id", "device_id", "work_order_id", "action", "detail"]).where("entity_id", "in", ids).orderBy("id").execute();
+  db
+    .selectFrom("audit_log")
+    .select(["entity_id", "outcome", "reason", "actor_id", "device_id", "work_order_id", "action", "detail"])
+    .where("entity_id", "in", ids)
+    .orderBy("id")
+    .execute();
 
 describe("authorisation, per operation", () => {
   it("refuses an operation with a forged author, with the reason, and keeps the honest ones", async () => {
@@ -27,7 +32,9 @@ describe("authorisation, per operation", () => {
     const forged = tablet.complete(specs.rodStepId, { authorId: fx.users.mechanic2.id });
     const res = await mergeBatch(db, mech, tablet.batch([honest, forged]));
     expect(res.accepted).toEqual([honest.id]);
-    expect(res.refused).toEqual([{ id: forged.id, reason: expect.stringContaining(`names author ${fx.users.mechanic2.id}, who is not the signed-in user`) }]);
+    expect(res.refused).toEqual([
+      { id: forged.id, reason: expect.stringContaining(`names author ${fx.users.mechanic2.id}, who is not the signed-in user`) },
+    ]);
     expect(await db.selectFrom("operations").select("id").where("id", "=", forged.id).execute()).toEqual([]);
   });
 
@@ -56,7 +63,9 @@ describe("authorisation, per operation", () => {
     const mech2 = asUser(fx.users.mechanic2);
     const t2 = new Tablet("bay-9", mech2.id, fx.workOrderId);
     const op = t2.complete(specs.boreStepId);
-    expect((await mergeBatch(db, mech2, t2.batch([op]))).refused).toEqual([{ id: op.id, reason: "Work order #1 is assigned to another mechanic." }]);
+    expect((await mergeBatch(db, mech2, t2.batch([op]))).refused).toEqual([
+      { id: op.id, reason: "Work order #1 is assigned to another mechanic." },
+    ]);
     const sup = asUser(fx.users.supervisor);
     const ts = new Tablet("bay-s", sup.id, fx.workOrderId);
     const sop = ts.complete(specs.boreStepId);
@@ -77,7 +86,13 @@ describe("kept but flagged", () => {
     await new Promise((r) => setTimeout(r, 5));
     const decision = await db
       .insertInto("review_decisions")
-      .values({ sign_off_id: signOff.id, decision: "sent_back", reason: "Bore readings taken warm", reopened_step_ids: [specs.boreStepId], decided_by: fx.users.supervisor.id })
+      .values({
+        sign_off_id: signOff.id,
+        decision: "sent_back",
+        reason: "Bore readings taken warm",
+        reopened_step_ids: [specs.boreStepId],
+        decided_by: fx.users.supervisor.id,
+      })
       .returning(["id", "change_seq"])
       .executeTakeFirstOrThrow();
     expect(Number(decision.change_seq)).toBeGreaterThan(Number(first.cursor));
@@ -85,13 +100,19 @@ describe("kept but flagged", () => {
     const res = await mergeBatch(db, mech, tablet.batch([stale]));
     expect(res.accepted).toEqual([stale.id]);
     expect(res.flagged).toEqual([{ id: stale.id, reason: expect.stringContaining("Bore readings taken warm") }]);
-    const row = await db.selectFrom("step_completions").select(["flagged", "flag_reason"]).where("id", "=", stale.id).executeTakeFirstOrThrow();
+    const row = await db
+      .selectFrom("step_completions")
+      .select(["flagged", "flag_reason"])
+      .where("id", "=", stale.id)
+      .executeTakeFirstOrThrow();
     expect(row.flagged).toBe(true);
     expect(row.flag_reason).toContain("was sent back");
     const opRow = await db.selectFrom("operations").select(["flagged", "flag_reason"]).where("id", "=", stale.id).executeTakeFirstOrThrow();
     expect(opRow).toEqual({ flagged: true, flag_reason: row.flag_reason });
     // the reopened step comes back to the tablet
-    expect(res.changes).toContainEqual(expect.objectContaining({ type: "review", decision: "sent_back", reopenedStepIds: [specs.boreStepId] }));
+    expect(res.changes).toContainEqual(
+      expect.objectContaining({ type: "review", decision: "sent_back", reopenedStepIds: [specs.boreStepId] }),
+    );
 
     // having the decision now, the tablet redoes the step: not flagged
     tablet.cursor = res.cursor;
@@ -109,7 +130,11 @@ describe("kept but flagged", () => {
     expect(res.accepted).toEqual([done.id, reading.id]);
     expect(res.flagged.map((f) => f.id)).toEqual([done.id, reading.id]);
     expect(res.flagged[0].reason).toBe("Work order #1 is closed (Handed over); kept for review.");
-    const c = await db.selectFrom("step_completions").select(["flagged", "flag_reason"]).where("work_order_id", "=", fx.workOrderId).executeTakeFirstOrThrow();
+    const c = await db
+      .selectFrom("step_completions")
+      .select(["flagged", "flag_reason"])
+      .where("work_order_id", "=", fx.workOrderId)
+      .executeTakeFirstOrThrow();
     expect(c).toEqual({ flagged: true, flag_reason: "Work order #1 is closed (Handed over); kept for review." });
   });
 
@@ -135,7 +160,14 @@ describe("audit log", () => {
     expect(rows).toHaveLength(2);
     const accepted = rows.find((r) => r.entity_id === ok.id)!;
     const refused = rows.find((r) => r.entity_id === bad.id)!;
-    expect(accepted).toMatchObject({ outcome: "accepted", action: "sync.measurement.recorded", actor_id: mech.id, device_id: tablet.deviceId, work_order_id: fx.workOrderId, reason: null });
+    expect(accepted).toMatchObject({
+      outcome: "accepted",
+      action: "sync.measurement.recorded",
+      actor_id: mech.id,
+      device_id: tablet.deviceId,
+      work_order_id: fx.workOrderId,
+      reason: null,
+    });
     expect(refused).toMatchObject({ outcome: "refused", reason: res.refused[0].reason, work_order_id: fx.workOrderId });
     // nothing refused is lost: the whole operation is in the audit detail
     expect((refused.detail as { operation: unknown }).operation).toEqual(bad);

@@ -19,7 +19,14 @@ describe("overriding a cure timer", () => {
     const mechTablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, mech.id, fx.workOrderId);
     const supTablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, sup.id, fx.workOrderId);
     const timerId = randomUUID();
-    const start = mechTablet.make("timer.started", { timerId, stepId: specs.sealantStepId, timerSpecId: specs.sealantTimerSpecId, label: "Sealant cure", durationS: 1800, startedAt: new Date().toISOString() });
+    const start = mechTablet.make("timer.started", {
+      timerId,
+      stepId: specs.sealantStepId,
+      timerSpecId: specs.sealantTimerSpecId,
+      label: "Sealant cure",
+      durationS: 1800,
+      startedAt: new Date().toISOString(),
+    });
     return { fx, mech, sup, mechTablet, supTablet, timerId, start };
   }
 
@@ -53,7 +60,14 @@ describe("overriding a cure timer", () => {
     const tablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, sup.id, fx.workOrderId);
     const timerId = randomUUID();
     const ops = [
-      tablet.make("timer.started", { timerId, stepId: specs.sealantStepId, timerSpecId: specs.sealantTimerSpecId, label: "Sealant cure", durationS: 1800, startedAt: new Date().toISOString() }),
+      tablet.make("timer.started", {
+        timerId,
+        stepId: specs.sealantStepId,
+        timerSpecId: specs.sealantTimerSpecId,
+        label: "Sealant cure",
+        durationS: 1800,
+        startedAt: new Date().toISOString(),
+      }),
       tablet.make("timer.overridden", { timerId, reason: "Cases closed yesterday, cure long done" }),
     ];
     const res = await mergeBatch(db, sup, tablet.batch(ops));

@@ -37,7 +37,8 @@ function resolve(fromFile: string, spec: string): string | null {
   return base;
 }
 
-const IMPORT = /(?:^|\n)\s*(import|export)\s+(type\s+)?([^"';]*?)\s*from\s*["']([^"']+)["']|(?:^|\n)\s*import\s+["']([^"']+)["']|import\(\s*["']([^"']+)["']\s*\)/g;
+const IMPORT =
+  /(?:^|\n)\s*(import|export)\s+(type\s+)?([^"';]*?)\s*from\s*["']([^"']+)["']|(?:^|\n)\s*import\s+["']([^"']+)["']|import\(\s*["']([^"']+)["']\s*\)/g;
 
 function importsOf(file: string): Import[] {
   const code = readFileSync(path.join(root, file), "utf8");
@@ -47,8 +48,16 @@ function importsOf(file: string): Import[] {
     let typeOnly = !!m[2];
     if (!typeOnly && m[3]) {
       const names = /\{([^}]*)\}/.exec(m[3])?.[1];
-      const bare = m[3].replace(/\{[^}]*\}/, "").replace(/,/g, "").trim();
-      if (names && !bare) typeOnly = names.split(",").map((n) => n.trim()).filter(Boolean).every((n) => n.startsWith("type "));
+      const bare = m[3]
+        .replace(/\{[^}]*\}/, "")
+        .replace(/,/g, "")
+        .trim();
+      if (names && !bare)
+        typeOnly = names
+          .split(",")
+          .map((n) => n.trim())
+          .filter(Boolean)
+          .every((n) => n.startsWith("type "));
     }
     out.push({ from: file, spec, target: resolve(file, spec), typeOnly });
   }
@@ -70,7 +79,14 @@ describe("layering: what may import what", () => {
   });
 
   it("lib/ is pure: nothing from app/ or db/, no React, Next, database or server-only packages (lib/client/ may use the browser's store)", () => {
-    const bad = imports.filter(under("lib")).filter((i) => into(i, "app") || into(i, "db") || pkg(i, "react", "react-dom", "next", "next-auth", "kysely", "pg", "server-only", "nodemailer", "@aws-sdk", "stripe", "pdfkit"));
+    const bad = imports
+      .filter(under("lib"))
+      .filter(
+        (i) =>
+          into(i, "app") ||
+          into(i, "db") ||
+          pkg(i, "react", "react-dom", "next", "next-auth", "kysely", "pg", "server-only", "nodemailer", "@aws-sdk", "stripe", "pdfkit"),
+      );
     expect(show(bad)).toEqual([]);
     const browserOnly = imports.filter(under("lib")).filter((i) => !i.from.startsWith("lib/client/") && pkg(i, "dexie"));
     expect(show(browserOnly)).toEqual([]);
@@ -91,7 +107,9 @@ describe("layering: what may import what", () => {
     const bad = imports
       .filter(under("app"))
       .filter(clientSide)
-      .filter((i) => !i.typeOnly && (into(i, "db") || into(i, "app/_server") || (i.target ?? "").startsWith("app/api/") || pkg(i, "server-only")));
+      .filter(
+        (i) => !i.typeOnly && (into(i, "db") || into(i, "app/_server") || (i.target ?? "").startsWith("app/api/") || pkg(i, "server-only")),
+      );
     expect(show(bad)).toEqual([]);
   });
 

@@ -25,8 +25,16 @@ export function drawCurvePlot(doc: Pdf, runs: DynoRunSummary[]) {
 
   doc.save();
   doc.lineWidth(0.4).strokeColor("#c8cfd6");
-  for (const t of x.ticks) doc.moveTo(sx(t), top).lineTo(sx(t), top + height).stroke();
-  for (const t of yp.ticks) doc.moveTo(left, syP(t)).lineTo(left + width, syP(t)).stroke();
+  for (const t of x.ticks)
+    doc
+      .moveTo(sx(t), top)
+      .lineTo(sx(t), top + height)
+      .stroke();
+  for (const t of yp.ticks)
+    doc
+      .moveTo(left, syP(t))
+      .lineTo(left + width, syP(t))
+      .stroke();
   doc.lineWidth(1).strokeColor(INK).rect(left, top, width, height).stroke();
   doc.font(FONT.figures).fontSize(7.5).fillColor(INK);
   for (const t of x.ticks) doc.text(String(t), sx(t) - 20, top + height + 4, { width: 40, align: "center", lineBreak: false });
@@ -55,7 +63,12 @@ export function drawCurvePlot(doc: Pdf, runs: DynoRunSummary[]) {
   runs.forEach((r, i) => {
     const colour = PDF_RUN_COLOURS[i % PDF_RUN_COLOURS.length];
     const y = doc.y + 5;
-    doc.lineWidth(2).strokeColor(colour).moveTo(doc.page.margins.left, y).lineTo(doc.page.margins.left + 26, y).stroke();
+    doc
+      .lineWidth(2)
+      .strokeColor(colour)
+      .moveTo(doc.page.margins.left, y)
+      .lineTo(doc.page.margins.left + 26, y)
+      .stroke();
     const peak = r.curve.peaks.correctedPowerKw;
     doc
       .font(FONT.body)
@@ -68,6 +81,9 @@ export function drawCurvePlot(doc: Pdf, runs: DynoRunSummary[]) {
         { width: contentWidth(doc) - 32 },
       );
   });
-  doc.fillColor(STEEL).fontSize(8).text("Corrected figures; observed torque × correction factor of each run's standard.", doc.page.margins.left);
+  doc
+    .fillColor(STEEL)
+    .fontSize(8)
+    .text("Corrected figures; observed torque × correction factor of each run's standard.", doc.page.margins.left);
   doc.fillColor(INK).fontSize(10);
 }

@@ -10,7 +10,7 @@ export type Pdf = PDFKit.PDFDocument;
 
 export const FONT = { body: "Helvetica", bold: "Helvetica-Bold", figures: "Helvetica" } as const;
 
-const REPLACE: Record<string, string> = { "−": "-", "≤": "<=", "≥": ">=", "✓": "", "✕": "x", "→": "->", "…": "...", "μ": "µ" };
+const REPLACE: Record<string, string> = { "−": "-", "≤": "<=", "≥": ">=", "✓": "", "✕": "x", "→": "->", "…": "...", μ: "µ" };
 
 /** Text safe for the standard fonts' WinAnsi encoding: known signs replaced, others as "?". */
 export function pdfText(s: string): string {
@@ -50,7 +50,12 @@ export function heading(doc: Pdf, text: string) {
   doc.moveDown(0.8);
   doc.font(FONT.bold).fontSize(14).fillColor(INK).text(pdfText(text), doc.page.margins.left);
   const y = doc.y + 2;
-  doc.moveTo(doc.page.margins.left, y).lineTo(doc.page.margins.left + contentWidth(doc), y).lineWidth(1).strokeColor(INK).stroke();
+  doc
+    .moveTo(doc.page.margins.left, y)
+    .lineTo(doc.page.margins.left + contentWidth(doc), y)
+    .lineWidth(1)
+    .strokeColor(INK)
+    .stroke();
   doc.moveDown(0.5);
   doc.font(FONT.body).fontSize(10);
 }
@@ -84,7 +89,11 @@ export function table(doc: Pdf, columns: Column[], rows: string[][]) {
     const h = Math.max(...heights, 10) + 6;
     if (doc.y + h > bottom(doc)) {
       doc.addPage();
-      if (!header) drawRow(columns.map((c) => c.header), true);
+      if (!header)
+        drawRow(
+          columns.map((c) => c.header),
+          true,
+        );
     }
     const y = doc.y;
     let x = left;
@@ -93,10 +102,18 @@ export function table(doc: Pdf, columns: Column[], rows: string[][]) {
       doc.text(c, x + 3, y + 3, { width: widths[i] - 6, align: columns[i].align ?? "left" });
       x += widths[i];
     });
-    doc.moveTo(left, y + h).lineTo(left + total, y + h).lineWidth(header ? 1 : 0.4).strokeColor(header ? INK : "#a9b3bd").stroke();
+    doc
+      .moveTo(left, y + h)
+      .lineTo(left + total, y + h)
+      .lineWidth(header ? 1 : 0.4)
+      .strokeColor(header ? INK : "#a9b3bd")
+      .stroke();
     doc.y = y + h;
   };
-  drawRow(columns.map((c) => c.header), true);
+  drawRow(
+    columns.map((c) => c.header),
+    true,
+  );
   for (const r of rows) drawRow(r, false);
   doc.x = left;
   doc.font(FONT.body).fontSize(10);
@@ -111,7 +128,11 @@ export function footers(doc: Pdf, text: string) {
     const y = doc.page.height - margin + 16;
     doc.page.margins.bottom = 0; // writing below the margin would otherwise start a new page
     doc.font(FONT.body).fontSize(8).fillColor(STEEL);
-    doc.text(`${pdfText(text)} · page ${i + 1} of ${range.count}`, doc.page.margins.left, y, { width: contentWidth(doc), align: "center", lineBreak: false });
+    doc.text(`${pdfText(text)} · page ${i + 1} of ${range.count}`, doc.page.margins.left, y, {
+      width: contentWidth(doc),
+      align: "center",
+      lineBreak: false,
+    });
     doc.page.margins.bottom = margin;
   }
   doc.fillColor(INK);

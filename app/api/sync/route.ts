@@ -20,7 +20,10 @@ const batch = json(syncBatchSchema, {
   before: (raw) => {
     const ops = (raw as { operations?: unknown } | null)?.operations;
     if (Array.isArray(ops) && ops.length > SYNC_LIMITS.maxOperations) {
-      throw new Refusal(`The batch has ${ops.length} operations; the limit is ${SYNC_LIMITS.maxOperations}. Send the outbox in smaller batches.`, 413);
+      throw new Refusal(
+        `The batch has ${ops.length} operations; the limit is ${SYNC_LIMITS.maxOperations}. Send the outbox in smaller batches.`,
+        413,
+      );
     }
   },
 });

@@ -20,11 +20,24 @@ const OUTCOMES = [
   { value: "refused", label: "Refused" },
 ];
 
-const time = (v: string) => new Date(v).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" });
+const time = (v: string) =>
+  new Date(v).toLocaleString("en-GB", {
+    day: "numeric",
+    month: "short",
+    year: "numeric",
+    hour: "2-digit",
+    minute: "2-digit",
+    second: "2-digit",
+  });
 
 const columns: ColumnDef<AuditRow, unknown>[] = [
   { id: "at", header: "When", cell: ({ row }) => <span className="whitespace-nowrap">{time(row.original.at)}</span> },
-  { id: "job", header: "Job", cell: ({ row }) => (row.original.workOrderNumber === null ? "—" : <span className="font-mono font-bold">#{row.original.workOrderNumber}</span>) },
+  {
+    id: "job",
+    header: "Job",
+    cell: ({ row }) =>
+      row.original.workOrderNumber === null ? "—" : <span className="font-mono font-bold">#{row.original.workOrderNumber}</span>,
+  },
   {
     id: "actor",
     header: "Who",
@@ -94,7 +107,12 @@ export function AuditTable({ initialJob }: { initialJob: string }) {
           <JobNumberFilter value={job} onChange={setJob} />
           <SelectFilter label="What" value={action} onChange={setAction} options={ACTIONS} />
           <SelectFilter label="Outcome" value={outcome} onChange={setOutcome} options={OUTCOMES} />
-          <a href={exportUrl} download className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 text-lg font-bold text-white" data-testid="audit-export">
+          <a
+            href={exportUrl}
+            download
+            className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 text-lg font-bold text-white"
+            data-testid="audit-export"
+          >
             Download CSV
           </a>
         </>

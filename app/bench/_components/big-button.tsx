@@ -12,7 +12,12 @@ const TONES: Record<Tone, string> = {
 };
 
 /** A bench button: at least 64 px tall, bold, high contrast. */
-export function BigButton({ tone = "primary", className = "", children, ...rest }: ButtonHTMLAttributes<HTMLButtonElement> & { tone?: Tone; children: ReactNode }) {
+export function BigButton({
+  tone = "primary",
+  className = "",
+  children,
+  ...rest
+}: ButtonHTMLAttributes<HTMLButtonElement> & { tone?: Tone; children: ReactNode }) {
   return (
     <button
       type="button"

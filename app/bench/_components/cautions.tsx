@@ -37,7 +37,11 @@ export function Cautions({
       {acknowledged ? (
         <p className="mt-3 text-lg font-bold">✔ Read and understood</p>
       ) : (
-        <button type="button" onClick={onAcknowledge} className="mt-3 min-h-target w-full rounded-xl border-4 border-ink bg-white text-xl font-bold">
+        <button
+          type="button"
+          onClick={onAcknowledge}
+          className="mt-3 min-h-target w-full rounded-xl border-4 border-ink bg-white text-xl font-bold"
+        >
           I have read these cautions
         </button>
       )}

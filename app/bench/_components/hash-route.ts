@@ -5,10 +5,7 @@ import { useEffect, useState } from "react";
 // The bench is one page; its screens live in the URL hash (#/job/<id>/step/<n>) so the page the
 // service worker keeps opens any screen offline.
 export type BenchRoute =
-  | { screen: "home" }
-  | { screen: "scan" }
-  | { screen: "job"; jobId: string }
-  | { screen: "step"; jobId: string; stepIndex: number };
+  { screen: "home" } | { screen: "scan" } | { screen: "job"; jobId: string } | { screen: "step"; jobId: string; stepIndex: number };
 
 export function parseRoute(hash: string): BenchRoute {
   const parts = hash.replace(/^#\/?/, "").split("/").filter(Boolean);

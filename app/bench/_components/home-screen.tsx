@@ -19,7 +19,14 @@ export function HomeScreen() {
   const storedIds = new Set(stored.map((s) => s.id));
   const jobs = listed.length
     ? [...listed].sort((a, b) => Number(b.assignedToMe) - Number(a.assignedToMe) || a.number - b.number)
-    : stored.map((s) => ({ id: s.id, number: s.snapshot.workOrder.number, title: s.snapshot.workOrder.title, status: s.snapshot.workOrder.status, bike: s.snapshot.bike, assignedToMe: s.snapshot.workOrder.assignedToMe }));
+    : stored.map((s) => ({
+        id: s.id,
+        number: s.snapshot.workOrder.number,
+        title: s.snapshot.workOrder.title,
+        status: s.snapshot.workOrder.status,
+        bike: s.snapshot.bike,
+        assignedToMe: s.snapshot.workOrder.assignedToMe,
+      }));
 
   async function open(code: string) {
     setBusy(true);
@@ -47,7 +54,11 @@ export function HomeScreen() {
         <p className="text-lg font-bold">Or type the tag code:</p>
         <TagKeypad onSubmit={open} busy={busy} />
         {message && (
-          <p role="alert" data-testid="tag-message" className="rounded-xl border-4 border-fail bg-fail-light p-4 text-xl font-bold text-fail">
+          <p
+            role="alert"
+            data-testid="tag-message"
+            className="rounded-xl border-4 border-fail bg-fail-light p-4 text-xl font-bold text-fail"
+          >
             {message}
           </p>
         )}

@@ -21,7 +21,12 @@ export function useJob(jobId: string): { data: JobData | null; loading: boolean;
   const now = useNow(1000);
   const stored = useLive<StoredJob | null | undefined>(() => db.jobs.get(jobId).then((j) => j ?? null), [db, jobId], undefined);
   const pending = useLive(
-    () => db.outbox.where("workOrderId").equals(jobId).sortBy("stamp").then((rows) => rows.filter((r) => r.state === "waiting").map((r) => r.op)),
+    () =>
+      db.outbox
+        .where("workOrderId")
+        .equals(jobId)
+        .sortBy("stamp")
+        .then((rows) => rows.filter((r) => r.state === "waiting").map((r) => r.op)),
     [db, jobId],
     [] as Operation[],
   );
@@ -33,6 +38,11 @@ export function useJob(jobId: string): { data: JobData | null; loading: boolean;
       .catch((e) => setError(e instanceof Error ? e.message : String(e)));
   }, [stored, db, jobId]);
   if (stored === undefined) return { data: null, loading: true, error: null };
-  if (!stored) return { data: null, loading: navigator.onLine && !error, error: error ?? (navigator.onLine ? null : "This job is not on this tablet yet, and there is no network.") };
+  if (!stored)
+    return {
+      data: null,
+      loading: navigator.onLine && !error,
+      error: error ?? (navigator.onLine ? null : "This job is not on this tablet yet, and there is no network."),
+    };
   return { data: { snapshot: stored.snapshot, view: buildJobView(stored.snapshot, pending, now), pending }, loading: false, error: null };
 }

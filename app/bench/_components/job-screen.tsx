@@ -69,11 +69,16 @@ export function JobScreen({ jobId }: { jobId: string }) {
       )}
       {snapshot.procedures.some((p) => p.exampleOnly) && (
         <p className="rounded-xl border-2 border-steel-700 bg-white p-3 text-base">
-          <strong>Example figures.</strong> The procedures on this job carry example values: the engine maker&apos;s service data and the parts makers&apos; sheets always win.
+          <strong>Example figures.</strong> The procedures on this job carry example values: the engine maker&apos;s service data and the
+          parts makers&apos; sheets always win.
         </p>
       )}
       {view.stages.map((stage) => (
-        <section key={`${stage.jobProcedureId}|${stage.key}`} className="rounded-xl border-4 border-steel-300 bg-white p-4" aria-label={`Stage ${stage.title}`}>
+        <section
+          key={`${stage.jobProcedureId}|${stage.key}`}
+          className="rounded-xl border-4 border-steel-300 bg-white p-4"
+          aria-label={`Stage ${stage.title}`}
+        >
           <p className="text-base text-steel-700">{stage.procedureName}</p>
           <h2 className="text-2xl font-bold">{stage.title}</h2>
           {stage.decision?.decision === "sent_back" && !stage.signedOff && (
@@ -81,7 +86,9 @@ export function JobScreen({ jobId }: { jobId: string }) {
               Sent back by the supervisor: {stage.decision.reason}
             </p>
           )}
-          {stage.decision?.decision === "approved" && stage.signedOff && <p className="mt-2 text-lg font-bold text-pass">✔ Approved by the supervisor</p>}
+          {stage.decision?.decision === "approved" && stage.signedOff && (
+            <p className="mt-2 text-lg font-bold text-pass">✔ Approved by the supervisor</p>
+          )}
           <ol className="mt-3 grid gap-2 md:grid-cols-2">
             {stage.steps.map((s) => (
               <li key={s.step.id}>
@@ -113,11 +120,7 @@ export function JobScreen({ jobId }: { jobId: string }) {
                 {stage.decision === null || stage.decision.decision === "sent_back" ? " — waiting for review" : ""}
               </p>
             ) : (
-              <BigButton
-                tone="go"
-                disabled={!stage.canSignOff || busy !== null}
-                onClick={() => signOff(stage.jobProcedureId, stage.key)}
-              >
+              <BigButton tone="go" disabled={!stage.canSignOff || busy !== null} onClick={() => signOff(stage.jobProcedureId, stage.key)}>
                 {stage.allDone ? `Sign off “${stage.title}” as ${user.name}` : "Sign off when every step is done"}
               </BigButton>
             )}

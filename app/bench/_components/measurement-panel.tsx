@@ -50,7 +50,13 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
   const [note, setNote] = useState("");
   const [saved, setSaved] = useState<string | null>(null);
   const value = parseEntry(entry);
-  const live = value === null ? null : evaluateTolerance({ value, unit: spec.unit }, { unit: spec.unit, min: spec.min, max: spec.max, ...(spec.nominal === null ? {} : { nominal: spec.nominal }) });
+  const live =
+    value === null
+      ? null
+      : evaluateTolerance(
+          { value, unit: spec.unit },
+          { unit: spec.unit, min: spec.min, max: spec.max, ...(spec.nominal === null ? {} : { nominal: spec.nominal }) },
+        );
   const label = (i: number) => spec.readingLabels[i] ?? (count > 1 ? `Reading ${i + 1}` : "Reading");
 
   async function save() {
@@ -65,7 +71,9 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
       ...(note.trim() ? { note: note.trim() } : {}),
       ...(previous ? { supersedesId: previous.id } : {}),
     });
-    setSaved(`${label(slot)}: ${entry.replace("−", "-")} ${spec.unit} saved${previous ? " (correction; the earlier reading stays on record)" : ""}`);
+    setSaved(
+      `${label(slot)}: ${entry.replace("−", "-")} ${spec.unit} saved${previous ? " (correction; the earlier reading stays on record)" : ""}`,
+    );
     setEntry("");
     setNote("");
     const next = Array.from({ length: count }, (_, i) => i).find((i) => i !== slot && !current.has(i));
@@ -109,7 +117,8 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
           })}
           {bore && (
             <p className="rounded-lg border-2 border-steel-700 p-2 font-mono text-lg" data-testid="bore-geometry">
-              Taper (max) {derived(bore.taper.max, ...bore.inputs)} {spec.unit} · out-of-round (max) {derived(bore.outOfRound.max, ...bore.inputs)} {spec.unit}
+              Taper (max) {derived(bore.taper.max, ...bore.inputs)} {spec.unit} · out-of-round (max){" "}
+              {derived(bore.outOfRound.max, ...bore.inputs)} {spec.unit}
             </p>
           )}
         </div>
@@ -130,7 +139,11 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
           {live && live.status !== "in" && (
             <label className="flex flex-col gap-1 text-lg font-bold">
               Note for the supervisor (optional)
-              <input value={note} onChange={(e) => setNote(e.target.value)} className="min-h-target rounded-lg border-2 border-steel-700 px-3 text-lg font-normal" />
+              <input
+                value={note}
+                onChange={(e) => setNote(e.target.value)}
+                className="min-h-target rounded-lg border-2 border-steel-700 px-3 text-lg font-normal"
+              />
             </label>
           )}
           <BigButton tone="go" disabled={value === null} onClick={save}>

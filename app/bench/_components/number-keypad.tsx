@@ -22,7 +22,11 @@ export function NumberKeypad({ value, onChange, label }: { value: string; onChan
   return (
     <div className="flex flex-col gap-2">
       <div className="flex gap-2">
-        <output aria-label={label} data-testid="keypad-display" className="flex min-h-target flex-1 items-center justify-end rounded-xl border-4 border-steel-900 bg-white px-4 font-mono text-4xl">
+        <output
+          aria-label={label}
+          data-testid="keypad-display"
+          className="flex min-h-target flex-1 items-center justify-end rounded-xl border-4 border-steel-900 bg-white px-4 font-mono text-4xl"
+        >
           {value || <span className="text-steel-500">0</span>}
         </output>
         <BigButton tone="plain" aria-label="Delete last digit" onClick={() => onChange(value.slice(0, -1))}>

@@ -23,7 +23,17 @@ const FIELDS: Array<{ key: TextField; label: string; code?: boolean }> = [
  * asked for, to record one more: part number, description, serial and/or batch number, quantity.
  * Works offline: the part is an operation in the outbox until the next sync.
  */
-export function PartsFittedPanel({ jobId, view, job, people }: { jobId: string; view: StepView; job: JobView; people: JobSnapshot["people"] }) {
+export function PartsFittedPanel({
+  jobId,
+  view,
+  job,
+  people,
+}: {
+  jobId: string;
+  view: StepView;
+  job: JobView;
+  people: JobSnapshot["people"];
+}) {
   const { db, user, deviceId, syncNow } = useBench();
   const [open, setOpen] = useState(false);
   const [text, setText] = useState(EMPTY);
@@ -125,13 +135,23 @@ export function PartsFittedPanel({ jobId, view, job, people }: { jobId: string; 
           </div>
           <div className="flex flex-wrap items-center gap-4" role="group" aria-label="Quantity">
             <span className="text-lg font-bold">Quantity</span>
-            <BigButton tone="plain" aria-label="One fewer" disabled={hasSerial || quantity <= 1} onClick={() => setQuantity((q) => Math.max(1, q - 1))}>
+            <BigButton
+              tone="plain"
+              aria-label="One fewer"
+              disabled={hasSerial || quantity <= 1}
+              onClick={() => setQuantity((q) => Math.max(1, q - 1))}
+            >
               −
             </BigButton>
             <output className="min-w-target text-center font-mono text-3xl font-bold" data-testid="part-quantity" aria-live="polite">
               {hasSerial ? 1 : quantity}
             </output>
-            <BigButton tone="plain" aria-label="One more" disabled={hasSerial || quantity >= MAX_PART_QUANTITY} onClick={() => setQuantity((q) => Math.min(MAX_PART_QUANTITY, q + 1))}>
+            <BigButton
+              tone="plain"
+              aria-label="One more"
+              disabled={hasSerial || quantity >= MAX_PART_QUANTITY}
+              onClick={() => setQuantity((q) => Math.min(MAX_PART_QUANTITY, q + 1))}
+            >
               +
             </BigButton>
             {hasSerial && <span className="text-lg">One serial number, one part.</span>}

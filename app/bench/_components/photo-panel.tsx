@@ -9,7 +9,15 @@ import { useBench } from "./bench-context";
 import { useLive } from "./use-live";
 
 /** Take or pick a photo at a step. Kept in IndexedDB until it is sent with the next sync. */
-export function PhotoPanel({ jobId, view, snapshotPhotos }: { jobId: string; view: StepView; snapshotPhotos: JobSnapshot["state"]["photos"] }) {
+export function PhotoPanel({
+  jobId,
+  view,
+  snapshotPhotos,
+}: {
+  jobId: string;
+  view: StepView;
+  snapshotPhotos: JobSnapshot["state"]["photos"];
+}) {
   const { db, user, deviceId, syncNow } = useBench();
   const [error, setError] = useState<string | null>(null);
   const photos = useLive(() => db.photos.where("stepId").equals(view.step.id).toArray(), [db, view.step.id], []);
@@ -30,7 +38,17 @@ export function PhotoPanel({ jobId, view, snapshotPhotos }: { jobId: string; vie
       return;
     }
     const id = crypto.randomUUID();
-    await db.photos.add({ id, workOrderId: jobId, stepId: view.step.id, blob: file, contentType: file.type, byteSize: file.size, caption: "", uploaded: 0, createdAt: Date.now() });
+    await db.photos.add({
+      id,
+      workOrderId: jobId,
+      stepId: view.step.id,
+      blob: file,
+      contentType: file.type,
+      byteSize: file.size,
+      caption: "",
+      uploaded: 0,
+      createdAt: Date.now(),
+    });
     await recordOperation(db, { userId: user.id, deviceId }, jobId, "photo.queued", {
       attachmentId: id,
       stepId: view.step.id,
@@ -45,7 +63,14 @@ export function PhotoPanel({ jobId, view, snapshotPhotos }: { jobId: string; vie
       <h3 className="text-2xl font-bold">Photos{view.step.requiresPhoto ? " (at least one needed)" : ""}</h3>
       <label className="mt-2 flex min-h-target cursor-pointer items-center justify-center rounded-xl border-4 border-steel-900 bg-steel-900 px-5 text-xl font-bold text-white">
         Take or add a photo
-        <input type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => void onFile(e.target.files?.[0])} data-testid="photo-input" />
+        <input
+          type="file"
+          accept="image/*"
+          capture="environment"
+          className="sr-only"
+          onChange={(e) => void onFile(e.target.files?.[0])}
+          data-testid="photo-input"
+        />
       </label>
       {error && (
         <p role="alert" className="mt-2 text-lg font-bold text-fail">
@@ -66,10 +91,16 @@ export function PhotoPanel({ jobId, view, snapshotPhotos }: { jobId: string; vie
           {others.map((p) => (
             <li key={p.id} className="text-center">
               {p.awaitingUpload ? (
-                <span className="flex h-28 w-28 items-center justify-center rounded-lg border-2 border-dashed border-steel-700 p-2 text-sm">still on the tablet that took it</span>
+                <span className="flex h-28 w-28 items-center justify-center rounded-lg border-2 border-dashed border-steel-700 p-2 text-sm">
+                  still on the tablet that took it
+                </span>
               ) : (
                 // eslint-disable-next-line @next/next/no-img-element
-                <img src={`/api/bench/photos/${p.id}`} alt="Step photo from another tablet" className="h-28 w-28 rounded-lg border-2 border-steel-700 object-cover" />
+                <img
+                  src={`/api/bench/photos/${p.id}`}
+                  alt="Step photo from another tablet"
+                  className="h-28 w-28 rounded-lg border-2 border-steel-700 object-cover"
+                />
               )}
             </li>
           ))}

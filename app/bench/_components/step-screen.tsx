@@ -49,7 +49,8 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
   }
 
   // The side buttons run the full height of the screen at both edges, within a thumb's reach.
-  const edge = "no-print sticky top-0 flex h-[100dvh] w-20 shrink-0 items-center justify-center bg-steel-900 text-4xl font-bold text-white dim:bg-steel-100 dim:text-ink disabled:bg-steel-300 disabled:text-steel-700 md:w-24";
+  const edge =
+    "no-print sticky top-0 flex h-[100dvh] w-20 shrink-0 items-center justify-center bg-steel-900 text-4xl font-bold text-white dim:bg-steel-100 dim:text-ink disabled:bg-steel-300 disabled:text-steel-700 md:w-24";
   return (
     <div
       className="flex items-start"
@@ -86,12 +87,22 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
           {sv.step.title}
         </h1>
         {sv.reopened && (
-          <p role="alert" data-testid="reopened-reason" className="rounded-xl border-4 border-fail bg-fail-light p-4 text-xl font-bold text-fail">
+          <p
+            role="alert"
+            data-testid="reopened-reason"
+            className="rounded-xl border-4 border-fail bg-fail-light p-4 text-xl font-bold text-fail"
+          >
             ↺ Sent back by the supervisor: {sv.reopened.reason}
           </p>
         )}
-        {sv.flagged && <p className="rounded-xl border-4 border-warn bg-warn-light p-3 text-lg font-bold text-warn">Flagged for review: {sv.flagged}</p>}
-        <Cautions cautions={sv.step.cautions} acknowledged={cautionsOk} onAcknowledge={() => setAcknowledged((s) => new Set(s).add(sv.step.id))} />
+        {sv.flagged && (
+          <p className="rounded-xl border-4 border-warn bg-warn-light p-3 text-lg font-bold text-warn">Flagged for review: {sv.flagged}</p>
+        )}
+        <Cautions
+          cautions={sv.step.cautions}
+          acknowledged={cautionsOk}
+          onAcknowledge={() => setAcknowledged((s) => new Set(s).add(sv.step.id))}
+        />
         {sv.step.instructions && <p className="max-w-4xl whitespace-pre-line text-2xl leading-snug">{sv.step.instructions}</p>}
         {sv.step.torqueSpecs.length > 0 && <TorquePanel jobId={jobId} view={sv} />}
         {sv.step.measurementSpecs.length > 0 && <MeasurementPanel jobId={jobId} view={sv} />}
@@ -109,7 +120,8 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
               {sv.blockedBy && (
                 <p className="mb-3 text-xl font-bold text-warn" data-testid="step-blocked">
                   Waiting for “{sv.blockedBy.label}”:{" "}
-                  {sv.blockedBy.started ? `${clock(sv.blockedBy.remainingMs)} left` : "its timer has not been started yet"}. Only a supervisor can let it go ahead sooner.
+                  {sv.blockedBy.started ? `${clock(sv.blockedBy.remainingMs)} left` : "its timer has not been started yet"}. Only a
+                  supervisor can let it go ahead sooner.
                 </p>
               )}
               {sv.blockedBy && <TimerOverride jobId={jobId} blocked={sv.blockedBy} />}

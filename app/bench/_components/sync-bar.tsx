@@ -70,7 +70,9 @@ export function SyncBar({ syncing, bayLight, onToggleBayLight }: { syncing: bool
       )}
       {refused.length > 0 && (
         <details className="mt-2 rounded-lg border-2 border-fail bg-fail-light p-2" data-testid="refused-list">
-          <summary className="cursor-pointer text-lg font-bold text-fail">{refused.length} entr{refused.length === 1 ? "y" : "ies"} refused by the server — tap to see why</summary>
+          <summary className="cursor-pointer text-lg font-bold text-fail">
+            {refused.length} entr{refused.length === 1 ? "y" : "ies"} refused by the server — tap to see why
+          </summary>
           <ul className="mt-2 space-y-1">
             {refused.map((r) => (
               <li key={r.id}>

@@ -40,11 +40,25 @@ export function TimerAlerts() {
       const jobs = await db.jobs.toArray();
       const out: RunningTimer[] = [];
       const numberOf = new Map(jobs.map((j) => [j.id, j.snapshot.workOrder.number]));
-      for (const j of jobs) for (const t of j.snapshot.state.timers) if (!t.stoppedAt && !t.overrideReason) out.push({ id: t.id, label: t.label, endsAtMs: Date.parse(t.startedAt) + t.durationS * 1000, jobNumber: j.snapshot.workOrder.number });
+      for (const j of jobs)
+        for (const t of j.snapshot.state.timers)
+          if (!t.stoppedAt && !t.overrideReason)
+            out.push({
+              id: t.id,
+              label: t.label,
+              endsAtMs: Date.parse(t.startedAt) + t.durationS * 1000,
+              jobNumber: j.snapshot.workOrder.number,
+            });
       const outbox = await db.outbox.toArray();
       const overridden = new Set(outbox.flatMap((o) => (o.op.kind === "timer.overridden" ? [o.op.payload.timerId] : [])));
       for (const o of outbox) {
-        if (o.op.kind === "timer.started" && !overridden.has(o.op.payload.timerId)) out.push({ id: o.op.payload.timerId, label: o.op.payload.label, endsAtMs: Date.parse(o.op.payload.startedAt) + o.op.payload.durationS * 1000, jobNumber: numberOf.get(o.workOrderId) ?? null });
+        if (o.op.kind === "timer.started" && !overridden.has(o.op.payload.timerId))
+          out.push({
+            id: o.op.payload.timerId,
+            label: o.op.payload.label,
+            endsAtMs: Date.parse(o.op.payload.startedAt) + o.op.payload.durationS * 1000,
+            jobNumber: numberOf.get(o.workOrderId) ?? null,
+          });
       }
       return out.filter((t) => !overridden.has(t.id));
     },
@@ -66,10 +80,12 @@ export function TimerAlerts() {
   }, [due]);
   if (!due.length) return null;
   return (
-    <div role="alert" data-testid="timer-alert" className="no-print sticky top-0 z-40 flex flex-wrap items-center gap-4 border-b-4 border-ink bg-signal px-4 py-3 text-xl font-bold text-ink">
-      <span className="flex-1">
-        Timer done: {due.map((t) => `${t.label}${t.jobNumber ? ` (job #${t.jobNumber})` : ""}`).join("; ")}
-      </span>
+    <div
+      role="alert"
+      data-testid="timer-alert"
+      className="no-print sticky top-0 z-40 flex flex-wrap items-center gap-4 border-b-4 border-ink bg-signal px-4 py-3 text-xl font-bold text-ink"
+    >
+      <span className="flex-1">Timer done: {due.map((t) => `${t.label}${t.jobNumber ? ` (job #${t.jobNumber})` : ""}`).join("; ")}</span>
       <button
         type="button"
         className="min-h-target rounded-xl border-4 border-ink bg-white px-6"

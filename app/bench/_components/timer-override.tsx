@@ -41,7 +41,11 @@ export function TimerOverride({ jobId, blocked }: { jobId: string; blocked: NonN
     <div className="mb-3 flex flex-col gap-2 rounded-xl border-4 border-warn bg-warn-light p-3">
       <label className="flex flex-col gap-1 text-lg font-bold">
         Supervisor: reason to go ahead without waiting
-        <input value={reason} onChange={(e) => setReason(e.target.value)} className="min-h-target rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal" />
+        <input
+          value={reason}
+          onChange={(e) => setReason(e.target.value)}
+          className="min-h-target rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal"
+        />
       </label>
       {error && <p className="font-bold text-fail">{error}</p>}
       <BigButton tone="danger" onClick={override}>

@@ -19,14 +19,21 @@ export function TimerPanel({ jobId, view }: { jobId: string; view: StepView }) {
   const { db, user, deviceId, syncNow } = useBench();
   async function start(spec: StepView["step"]["timerSpecs"][number]) {
     const now = Date.now();
-    await recordOperation(db, { userId: user.id, deviceId }, jobId, "timer.started", {
-      timerId: crypto.randomUUID(),
-      stepId: view.step.id,
-      timerSpecId: spec.id,
-      label: spec.label,
-      durationS: spec.durationS,
-      startedAt: new Date(now).toISOString(),
-    }, now);
+    await recordOperation(
+      db,
+      { userId: user.id, deviceId },
+      jobId,
+      "timer.started",
+      {
+        timerId: crypto.randomUUID(),
+        stepId: view.step.id,
+        timerSpecId: spec.id,
+        label: spec.label,
+        durationS: spec.durationS,
+        startedAt: new Date(now).toISOString(),
+      },
+      now,
+    );
     syncNow();
   }
   return (

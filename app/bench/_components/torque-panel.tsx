@@ -63,15 +63,22 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
     <section aria-label={`Torque ${spec.label}`} className="rounded-xl border-4 border-steel-700 bg-white p-4">
       <h3 className="text-2xl font-bold">{spec.label}</h3>
       <p className="text-lg">
-        {spec.boltCount} bolts · {spec.pattern === "cross" ? "cross pattern" : spec.pattern === "spiral-out" ? "centre outwards" : "in order"} · final{" "}
-        {passTarget({ index: 0, kind: "torque", target: spec.finalValue, unit: spec.unit, percentOfFinal: 100, label: "" }, user.torqueUnit)}
+        {spec.boltCount} bolts ·{" "}
+        {spec.pattern === "cross" ? "cross pattern" : spec.pattern === "spiral-out" ? "centre outwards" : "in order"} · final{" "}
+        {passTarget(
+          { index: 0, kind: "torque", target: spec.finalValue, unit: spec.unit, percentOfFinal: 100, label: "" },
+          user.torqueUnit,
+        )}
         {spec.lubricant ? ` · ${spec.lubricant}` : ""}
       </p>
       <ol className="mt-2 flex flex-wrap gap-2" aria-label="Passes">
         {passes.map((p) => {
           const state = next === null || p.index < next.passIndex ? "done" : p.index === next.passIndex ? "now" : "later";
           return (
-            <li key={p.index} className={`rounded-lg border-2 px-3 py-1 text-lg font-bold ${state === "done" ? "border-pass bg-pass-light text-pass" : state === "now" ? "border-ink bg-signal" : "border-steel-300 text-steel-700"}`}>
+            <li
+              key={p.index}
+              className={`rounded-lg border-2 px-3 py-1 text-lg font-bold ${state === "done" ? "border-pass bg-pass-light text-pass" : state === "now" ? "border-ink bg-signal" : "border-steel-300 text-steel-700"}`}
+            >
               {state === "done" ? "✔ " : ""}Pass {p.index}: {p.label}
             </li>
           );
@@ -85,14 +92,33 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
           aria-label={next ? `Confirm bolt ${next.bolt} tightened` : "All passes done"}
           className="rounded-xl border-4 border-steel-900 bg-steel-50 p-2 disabled:cursor-default"
         >
-          <svg viewBox={`-0.1 ${top} 1.2 ${height}`} className="mx-auto w-full max-w-md" role="img" aria-label={`Bolt pattern, ${spec.boltCount} bolts`}>
+          <svg
+            viewBox={`-0.1 ${top} 1.2 ${height}`}
+            className="mx-auto w-full max-w-md"
+            role="img"
+            aria-label={`Bolt pattern, ${spec.boltCount} bolts`}
+          >
             {layout.map((b) => {
               const isNext = next?.bolt === b.bolt;
               const isDone = next ? confirmed.has(`${next.passIndex}:${b.bolt}`) : true;
               return (
                 <g key={b.bolt} data-bolt={b.bolt} data-state={isNext ? "next" : isDone ? "done" : "todo"}>
-                  <circle cx={b.x} cy={b.y} r={isNext ? r * 1.35 : r} style={{ fill: isNext ? "var(--c-signal)" : isDone ? "var(--c-pass)" : "var(--c-white)", stroke: "var(--c-ink)" }} strokeWidth={isNext ? 0.02 : 0.01} />
-                  <text x={b.x} y={b.y} dy="0.025" textAnchor="middle" fontSize={isNext ? 0.075 : 0.06} fontWeight="bold" style={{ fill: isDone && !isNext ? "var(--c-white)" : "var(--c-ink)" }}>
+                  <circle
+                    cx={b.x}
+                    cy={b.y}
+                    r={isNext ? r * 1.35 : r}
+                    style={{ fill: isNext ? "var(--c-signal)" : isDone ? "var(--c-pass)" : "var(--c-white)", stroke: "var(--c-ink)" }}
+                    strokeWidth={isNext ? 0.02 : 0.01}
+                  />
+                  <text
+                    x={b.x}
+                    y={b.y}
+                    dy="0.025"
+                    textAnchor="middle"
+                    fontSize={isNext ? 0.075 : 0.06}
+                    fontWeight="bold"
+                    style={{ fill: isDone && !isNext ? "var(--c-white)" : "var(--c-ink)" }}
+                  >
                     {b.bolt}
                   </text>
                   <text x={b.x} y={b.y + r * 1.35 + 0.05} textAnchor="middle" fontSize="0.035" style={{ fill: "var(--c-steel-700)" }}>
@@ -123,7 +149,11 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
               ) : (
                 <div className="flex flex-col gap-2">
                   <NumberKeypad value={wrench} onChange={setWrench} label={`Wrench reading in ${user.torqueUnit}`} />
-                  <BigButton tone="go" disabled={parseEntry(wrench) === null || (parseEntry(wrench) ?? 0) <= 0} onClick={() => confirm(parseEntry(wrench)!)}>
+                  <BigButton
+                    tone="go"
+                    disabled={parseEntry(wrench) === null || (parseEntry(wrench) ?? 0) <= 0}
+                    onClick={() => confirm(parseEntry(wrench)!)}
+                  >
                     Save {user.torqueUnit} reading for bolt {next.bolt}
                   </BigButton>
                 </div>
@@ -135,7 +165,9 @@ function TorqueSpecPanel({ jobId, view, progress }: { jobId: string; view: StepV
             </p>
           )}
           {spec.torqueToYield && (
-            <p className="rounded-lg border-4 border-ink bg-signal p-2 text-lg font-bold">⚠ Torque-to-yield: new bolts only, never reused.</p>
+            <p className="rounded-lg border-4 border-ink bg-signal p-2 text-lg font-bold">
+              ⚠ Torque-to-yield: new bolts only, never reused.
+            </p>
           )}
         </div>
       </div>

@@ -10,7 +10,10 @@ const LOOK: Record<ToleranceStatus, { words: string; mark: string; cls: string }
 export function Verdict({ status, compact = false }: { status: ToleranceStatus; compact?: boolean }) {
   const l = LOOK[status];
   return (
-    <span data-verdict={status} className={`inline-flex items-center gap-2 rounded-lg border-2 px-2 font-bold ${compact ? "text-base" : "py-1 text-xl"} ${l.cls}`}>
+    <span
+      data-verdict={status}
+      className={`inline-flex items-center gap-2 rounded-lg border-2 px-2 font-bold ${compact ? "text-base" : "py-1 text-xl"} ${l.cls}`}
+    >
       <span aria-hidden="true">{l.mark}</span>
       {l.words}
     </span>

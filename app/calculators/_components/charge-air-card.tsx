@@ -1,7 +1,13 @@
 "use client";
 
 import { useState } from "react";
-import { chargeDensityKgM3, compressorOutletTemperatureK, convertPressure, intercoolerOutletTemperatureK, pressureRatioFromBoost } from "@/lib/calc";
+import {
+  chargeDensityKgM3,
+  compressorOutletTemperatureK,
+  convertPressure,
+  intercoolerOutletTemperatureK,
+  pressureRatioFromBoost,
+} from "@/lib/calc";
 import { fixed, NumberField, readNumber } from "./number-field";
 
 const START = { inletC: "25", boostPsi: "10", ambientKpa: "101.3", efficiency: "72", effectiveness: "75" };
@@ -21,13 +27,22 @@ export function ChargeAirCard() {
     const hot = compressorOutletTemperatureK(inletK, pr, readNumber("Compressor efficiency", v.efficiency) / 100);
     const cool = intercoolerOutletTemperatureK(hot, inletK, readNumber("Intercooler effectiveness", v.effectiveness) / 100);
     const manifold = ambient + boostKpa;
-    r = { pr, hotC: hot - K, coolC: cool - K, hotRho: chargeDensityKgM3(manifold, hot), coolRho: chargeDensityKgM3(manifold, cool), ambientRho: chargeDensityKgM3(ambient, inletK) };
+    r = {
+      pr,
+      hotC: hot - K,
+      coolC: cool - K,
+      hotRho: chargeDensityKgM3(manifold, hot),
+      coolRho: chargeDensityKgM3(manifold, cool),
+      ambientRho: chargeDensityKgM3(ambient, inletK),
+    };
   } catch (e) {
     error = (e as Error).message;
   }
   return (
     <section aria-labelledby="ca-h" className="rounded-xl border-2 border-steel-300 bg-white p-4">
-      <h2 id="ca-h" className="text-2xl font-bold">Charge air</h2>
+      <h2 id="ca-h" className="text-2xl font-bold">
+        Charge air
+      </h2>
       <div className="mt-3 grid grid-cols-2 gap-3 md:grid-cols-5">
         <NumberField id="ca-inlet" label="Inlet air" unit="°C" value={v.inletC} onChange={set("inletC")} />
         <NumberField id="ca-boost" label="Boost" unit="psi" value={v.boostPsi} onChange={set("boostPsi")} />
@@ -56,8 +71,8 @@ export function ChargeAirCard() {
         )
       )}
       <p className="mt-3 text-base">
-        Charge pipes routed near the exhaust pick up heat and undo the intercooler&apos;s work (common practice). Boost pipework and intercoolers
-        are hot after a run; let them cool before you touch them.
+        Charge pipes routed near the exhaust pick up heat and undo the intercooler&apos;s work (common practice). Boost pipework and
+        intercoolers are hot after a run; let them cool before you touch them.
       </p>
     </section>
   );

@@ -4,7 +4,16 @@ import { useState } from "react";
 import { boostedCompressionRatio, compressionVolumes, convertPressure, staticCompressionRatio } from "@/lib/calc";
 import { fixed, NumberField, readNumber } from "./number-field";
 
-const START = { bore: "76", stroke: "55", chamber: "12.5", gasketBore: "77", gasketThickness: "0.7", deck: "0.2", dish: "1.5", boostPsi: "10" };
+const START = {
+  bore: "76",
+  stroke: "55",
+  chamber: "12.5",
+  gasketBore: "77",
+  gasketThickness: "0.7",
+  deck: "0.2",
+  dish: "1.5",
+  boostPsi: "10",
+};
 
 // Static compression from the build's measured volumes, and the boosted ("effective") figure.
 export function CompressionCard() {
@@ -31,7 +40,9 @@ export function CompressionCard() {
   }
   return (
     <section aria-labelledby="cr-h" className="rounded-xl border-2 border-steel-300 bg-white p-4">
-      <h2 id="cr-h" className="text-2xl font-bold">Compression</h2>
+      <h2 id="cr-h" className="text-2xl font-bold">
+        Compression
+      </h2>
       <div className="mt-3 grid grid-cols-2 gap-3 md:grid-cols-4">
         <NumberField id="cr-bore" label="Bore" unit="mm" value={v.bore} onChange={set("bore")} />
         <NumberField id="cr-stroke" label="Stroke" unit="mm" value={v.stroke} onChange={set("stroke")} />
@@ -61,8 +72,8 @@ export function CompressionCard() {
         )
       )}
       <p className="mt-3 text-base">
-        The boosted figure is the usual rule of thumb, static ratio × absolute manifold pressure ÷ ambient. It is a way to compare builds, not a
-        knock limit: fuel, timing, charge temperature and the tuner&apos;s judgement decide what an engine will take.
+        The boosted figure is the usual rule of thumb, static ratio × absolute manifold pressure ÷ ambient. It is a way to compare builds,
+        not a knock limit: fuel, timing, charge temperature and the tuner&apos;s judgement decide what an engine will take.
       </p>
     </section>
   );

@@ -20,7 +20,11 @@ export function GapsCard() {
   let oil: ReturnType<typeof oilClearance> | null = null;
   let oilError: string | null = null;
   try {
-    const list = (label: string, s: string) => s.split(/[\s;]+|,\s+/).filter(Boolean).map((x, i) => readNumber(`${label} ${i + 1}`, x));
+    const list = (label: string, s: string) =>
+      s
+        .split(/[\s;]+|,\s+/)
+        .filter(Boolean)
+        .map((x, i) => readNumber(`${label} ${i + 1}`, x));
     oil = oilClearance(list("Journal", journals), list("Bearing bore", bores));
   } catch (e) {
     oilError = (e as Error).message;
@@ -29,23 +33,33 @@ export function GapsCard() {
   const mm = (x: number) => `${fixed(x, 3)} mm`;
   return (
     <section aria-labelledby="gap-h" className="rounded-xl border-2 border-steel-300 bg-white p-4">
-      <h2 id="gap-h" className="text-2xl font-bold">Ring gaps and oil clearance</h2>
+      <h2 id="gap-h" className="text-2xl font-bold">
+        Ring gaps and oil clearance
+      </h2>
       <div className="mt-3 grid gap-3 md:grid-cols-3">
         <NumberField id="rg-bore" label="Bore" unit="mm" value={bore} onChange={setBore} />
         <label htmlFor="rg-duty" className="flex flex-col gap-1 text-base font-bold">
           Engine
-          <select id="rg-duty" value={duty} onChange={(e) => setDuty(e.target.value as RingGapDuty)} className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg">
+          <select
+            id="rg-duty"
+            value={duty}
+            onChange={(e) => setDuty(e.target.value as RingGapDuty)}
+            className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg"
+          >
             <option value="naturally-aspirated">Naturally aspirated</option>
             <option value="boosted">Boosted</option>
           </select>
         </label>
       </div>
       {ringError ? (
-        <p role="alert" className="mt-2 font-bold text-fail">{ringError}</p>
+        <p role="alert" className="mt-2 font-bold text-fail">
+          {ringError}
+        </p>
       ) : (
         ring && (
           <p className="mt-2 font-mono text-lg" data-testid="ring-result">
-            Top ring {fixed(ring.topRing.minMm, 2)}–{fixed(ring.topRing.maxMm, 2)} mm · second ring {fixed(ring.secondRing.minMm, 2)}–{fixed(ring.secondRing.maxMm, 2)} mm
+            Top ring {fixed(ring.topRing.minMm, 2)}–{fixed(ring.topRing.maxMm, 2)} mm · second ring {fixed(ring.secondRing.minMm, 2)}–
+            {fixed(ring.secondRing.maxMm, 2)} mm
           </p>
         )
       )}
@@ -53,15 +67,27 @@ export function GapsCard() {
       <div className="mt-4 grid gap-3 md:grid-cols-2">
         <label htmlFor="oc-j" className="flex flex-col gap-1 text-base font-bold">
           Journal diameters (mm, comma-separated)
-          <input id="oc-j" value={journals} onChange={(e) => setJournals(e.target.value)} className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 font-mono text-lg" />
+          <input
+            id="oc-j"
+            value={journals}
+            onChange={(e) => setJournals(e.target.value)}
+            className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 font-mono text-lg"
+          />
         </label>
         <label htmlFor="oc-b" className="flex flex-col gap-1 text-base font-bold">
           Bearing bores, same order (mm)
-          <input id="oc-b" value={bores} onChange={(e) => setBores(e.target.value)} className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 font-mono text-lg" />
+          <input
+            id="oc-b"
+            value={bores}
+            onChange={(e) => setBores(e.target.value)}
+            className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 font-mono text-lg"
+          />
         </label>
       </div>
       {oilError ? (
-        <p role="alert" className="mt-2 font-bold text-fail" data-testid="oil-error">{oilError}</p>
+        <p role="alert" className="mt-2 font-bold text-fail" data-testid="oil-error">
+          {oilError}
+        </p>
       ) : (
         oil && (
           <p className="mt-2 font-mono text-lg" data-testid="oil-result">

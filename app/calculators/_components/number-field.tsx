@@ -1,7 +1,19 @@
 "use client";
 
 // A labelled number input for the calculators (typed at a desk or on a tablet keyboard).
-export function NumberField({ label, unit, value, onChange, id }: { label: string; unit: string; value: string; onChange: (v: string) => void; id: string }) {
+export function NumberField({
+  label,
+  unit,
+  value,
+  onChange,
+  id,
+}: {
+  label: string;
+  unit: string;
+  value: string;
+  onChange: (v: string) => void;
+  id: string;
+}) {
   return (
     <label htmlFor={id} className="flex flex-col gap-1 text-base font-bold">
       {label} <span className="font-normal text-steel-700">({unit})</span>

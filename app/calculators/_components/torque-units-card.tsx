@@ -18,12 +18,19 @@ export function TorqueUnitsCard() {
   }
   return (
     <section aria-labelledby="tq-h" className="rounded-xl border-2 border-steel-300 bg-white p-4">
-      <h2 id="tq-h" className="text-2xl font-bold">Torque units</h2>
+      <h2 id="tq-h" className="text-2xl font-bold">
+        Torque units
+      </h2>
       <div className="mt-3 grid grid-cols-2 gap-3">
         <NumberField id="tq-v" label="Torque" unit={unit} value={value} onChange={setValue} />
         <label htmlFor="tq-u" className="flex flex-col gap-1 text-base font-bold">
           Unit
-          <select id="tq-u" value={unit} onChange={(e) => setUnit(e.target.value as TorqueUnit)} className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg">
+          <select
+            id="tq-u"
+            value={unit}
+            onChange={(e) => setUnit(e.target.value as TorqueUnit)}
+            className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg"
+          >
             {TORQUE_UNITS.map((u) => (
               <option key={u}>{u}</option>
             ))}
@@ -31,7 +38,9 @@ export function TorqueUnitsCard() {
         </label>
       </div>
       {error ? (
-        <p role="alert" className="mt-2 font-bold text-fail">{error}</p>
+        <p role="alert" className="mt-2 font-bold text-fail">
+          {error}
+        </p>
       ) : (
         <ul className="mt-2 grid grid-cols-2 gap-1 font-mono text-lg" data-testid="torque-result">
           {rows.map(([u, x]) => (

@@ -8,7 +8,6 @@ import { api } from "@/app/ui/api-client";
 import type { CustomerQuoteView } from "@/db/office/quotes";
 import { buttonClass, FormMessage } from "@/app/ui/form-field";
 
-
 const qty = (h: number) => (h % 100 === 0 ? String(h / 100) : (h / 100).toFixed(2));
 
 // The customer's view of a quote: the lines, the totals, approve, then pay the deposit.
@@ -38,7 +37,8 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
   const deposit = useQuery({
     queryKey: ["deposit", depositId],
     enabled: Boolean(depositId),
-    queryFn: async () => (await api<{ deposit: { status: string; amountMinor: number } }>("GET", `/api/my-bikes/deposits/${depositId}`)).deposit,
+    queryFn: async () =>
+      (await api<{ deposit: { status: string; amountMinor: number } }>("GET", `/api/my-bikes/deposits/${depositId}`)).deposit,
     refetchInterval: (q) => (q.state.data?.status === "pending" || !q.state.data ? 1000 : false),
   });
   const depositStatus = deposit.data?.status ?? open?.status;

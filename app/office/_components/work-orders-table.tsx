@@ -14,8 +14,24 @@ import type { Wire } from "@/app/ui/api-client";
 type Row = Wire<ReplyOf<typeof GET>>["workOrders"][number];
 
 const columns: ColumnDef<Row, unknown>[] = [
-  { id: "number", header: "No.", cell: ({ row }) => <Link className="font-mono font-bold underline" href={`/office/work-orders/${row.original.id}`}>{row.original.number}</Link> },
-  { id: "tag", header: "Bike", cell: ({ row }) => <span>{row.original.make} {row.original.model} <span className="font-mono text-steel-700">{row.original.tagCode}</span></span> },
+  {
+    id: "number",
+    header: "No.",
+    cell: ({ row }) => (
+      <Link className="font-mono font-bold underline" href={`/office/work-orders/${row.original.id}`}>
+        {row.original.number}
+      </Link>
+    ),
+  },
+  {
+    id: "tag",
+    header: "Bike",
+    cell: ({ row }) => (
+      <span>
+        {row.original.make} {row.original.model} <span className="font-mono text-steel-700">{row.original.tagCode}</span>
+      </span>
+    ),
+  },
   { id: "customer", header: "Customer", cell: ({ row }) => row.original.customerName },
   { id: "title", header: "Job", enableSorting: false, cell: ({ row }) => row.original.title },
   { id: "status", header: "Status", cell: ({ row }) => <StatusBadge status={row.original.status} /> },
@@ -37,7 +53,11 @@ export function WorkOrdersTable() {
       toolbar={
         <label className="flex flex-col gap-1 text-base font-bold">
           Status
-          <select value={status} onChange={(e) => setStatus(e.target.value)} className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal">
+          <select
+            value={status}
+            onChange={(e) => setStatus(e.target.value)}
+            className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal"
+          >
             <option value="">Any</option>
             {WORK_ORDER_STATUSES.map((s) => (
               <option key={s} value={s}>

@@ -22,7 +22,9 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
   const chosen = ids.safeParse(bike === undefined ? [] : Array.isArray(bike) ? bike : [bike]);
   const list = chosen.success && chosen.data.length ? chosen.data : null;
   const bikes = await bikesForLabels(db(), user.shopId, list);
-  const labels = await Promise.all(bikes.map(async (b) => ({ ...b, svg: await QRCode.toString(b.tagCode, { type: "svg", margin: 0, errorCorrectionLevel: "M" }) })));
+  const labels = await Promise.all(
+    bikes.map(async (b) => ({ ...b, svg: await QRCode.toString(b.tagCode, { type: "svg", margin: 0, errorCorrectionLevel: "M" }) })),
+  );
   const sheets: (typeof labels)[] = [];
   for (let i = 0; i < labels.length; i += PER_SHEET) sheets.push(labels.slice(i, i + PER_SHEET));
   return (
@@ -30,9 +32,21 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
       <div className="no-print">
         <h1 className="text-3xl font-bold">Tag labels</h1>
         <p className="mt-2 max-w-3xl text-lg">
-          {labels.length} label{labels.length === 1 ? "" : "s"} on {sheets.length} A4 sheet{sheets.length === 1 ? "" : "s"} (3 × 7 labels, 70 × 42 mm). {list ? <Link href="/office/labels" className="underline">Show every bike</Link> : "Every bike of the shop."}
+          {labels.length} label{labels.length === 1 ? "" : "s"} on {sheets.length} A4 sheet{sheets.length === 1 ? "" : "s"} (3 × 7 labels,
+          70 × 42 mm).{" "}
+          {list ? (
+            <Link href="/office/labels" className="underline">
+              Show every bike
+            </Link>
+          ) : (
+            "Every bike of the shop."
+          )}
         </p>
-        {!chosen.success && <p role="alert" className="mt-2 font-bold text-fail">That list of bikes could not be read; showing every bike instead.</p>}
+        {!chosen.success && (
+          <p role="alert" className="mt-2 font-bold text-fail">
+            That list of bikes could not be read; showing every bike instead.
+          </p>
+        )}
         <div className="mt-4 mb-6">
           <PrintButton />
         </div>

@@ -10,7 +10,9 @@ export default async function PartsPage() {
   return (
     <AppFrame user={user} current="/office/parts">
       <h1 className="text-3xl font-bold">Parts search</h1>
-      <p className="mt-2 max-w-3xl text-lg">Find every bike a batch, serial or part number went into — for a supplier recall or a warranty question.</p>
+      <p className="mt-2 max-w-3xl text-lg">
+        Find every bike a batch, serial or part number went into — for a supplier recall or a warranty question.
+      </p>
       <PartsSearch />
     </AppFrame>
   );

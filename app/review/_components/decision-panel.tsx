@@ -24,7 +24,8 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
   const [issues, setIssues] = useState<Record<string, string>>({});
 
   const mutation = useMutation({
-    mutationFn: (body: unknown) => api<{ decision: Choice; reopenedStepIds: string[] }>("POST", `/api/review/sign-offs/${review.signOff.id}/decisions`, body),
+    mutationFn: (body: unknown) =>
+      api<{ decision: Choice; reopenedStepIds: string[] }>("POST", `/api/review/sign-offs/${review.signOff.id}/decisions`, body),
     onSuccess: (r) => {
       onDecided(
         r.decision === "approved"
@@ -51,10 +52,19 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
     const b = body();
     const found: Record<string, string> = {};
     if (b.decision === "approved") {
-      for (const o of open) if (!letStand[o.readingId]) found[`reading.${o.readingId}`] = "Out of tolerance: let it stand with a written reason, or send the step back.";
+      for (const o of open)
+        if (!letStand[o.readingId])
+          found[`reading.${o.readingId}`] = "Out of tolerance: let it stand with a written reason, or send the step back.";
     }
     const parsed = decisionInputSchema.safeParse(b);
-    if (!parsed.success) Object.assign(found, mapIssues(parsed.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })), b));
+    if (!parsed.success)
+      Object.assign(
+        found,
+        mapIssues(
+          parsed.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })),
+          b,
+        ),
+      );
     if (Object.keys(found).length) {
       setIssues(found);
       return;
@@ -77,16 +87,25 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
       {open.length > 0 && (
         <div className="mt-3">
           <h3 className="text-lg font-bold">Readings out of tolerance</h3>
-          <p className="text-base">To approve, let each one stand with a written reason (kept with the reading for good); or send its step back.</p>
+          <p className="text-base">
+            To approve, let each one stand with a written reason (kept with the reading for good); or send its step back.
+          </p>
           <ul className="mt-2 space-y-3">
             {open.map((o) => {
               const err = issues[`reading.${o.readingId}`] ?? issues[`why.${o.readingId}`];
               return (
-                <li key={o.readingId} className={`rounded-lg border-2 p-3 ${err ? "border-fail" : "border-steel-300"}`} data-testid="oot-reading">
+                <li
+                  key={o.readingId}
+                  className={`rounded-lg border-2 p-3 ${err ? "border-fail" : "border-steel-300"}`}
+                  data-testid="oot-reading"
+                >
                   <p className="flex flex-wrap items-center gap-2 text-lg">
                     <VerdictTag verdict={o.verdict} />
                     <span className="font-bold">
-                      {o.specLabel}, {o.readingLabel}: <span className="font-mono">{o.value} {o.unit}</span>
+                      {o.specLabel}, {o.readingLabel}:{" "}
+                      <span className="font-mono">
+                        {o.value} {o.unit}
+                      </span>
                     </span>
                     <span className="text-base">
                       (limits {o.min} to {o.max} {o.unit}; step “{o.stepTitle}”)
@@ -94,7 +113,12 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
                   </p>
                   {o.note && <p className="text-base">Mechanic’s note: “{o.note}”</p>}
                   <label className="mt-2 flex min-h-12 items-center gap-3 text-lg font-bold">
-                    <input type="checkbox" className="h-7 w-7" checked={Boolean(letStand[o.readingId])} onChange={(e) => setLetStand({ ...letStand, [o.readingId]: e.target.checked })} />
+                    <input
+                      type="checkbox"
+                      className="h-7 w-7"
+                      checked={Boolean(letStand[o.readingId])}
+                      onChange={(e) => setLetStand({ ...letStand, [o.readingId]: e.target.checked })}
+                    />
                     Let this reading stand
                   </label>
                   {letStand[o.readingId] && (
@@ -125,7 +149,10 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
         <legend className="text-lg font-bold">Decide</legend>
         <div className="mt-2 flex flex-wrap gap-3">
           {(["approved", "sent_back"] as const).map((c) => (
-            <label key={c} className={`flex min-h-target cursor-pointer items-center gap-3 rounded-xl border-4 px-5 text-xl font-bold ${choice === c ? "border-ink bg-signal" : "border-steel-700 bg-white"}`}>
+            <label
+              key={c}
+              className={`flex min-h-target cursor-pointer items-center gap-3 rounded-xl border-4 px-5 text-xl font-bold ${choice === c ? "border-ink bg-signal" : "border-steel-700 bg-white"}`}
+            >
               <input type="radio" name="choice" className="h-6 w-6" checked={choice === c} onChange={() => setChoice(c)} />
               {c === "approved" ? "✔ Approve" : "↺ Send back"}
             </label>
@@ -180,7 +207,11 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
       <div className="mt-4 flex flex-col gap-3">
         {serverError && <FormMessage error={serverError} />}
         <button type="button" className={`${buttonClass} min-h-target text-xl`} disabled={!choice || mutation.isPending} onClick={submit}>
-          {choice === "sent_back" ? "Send back to the bench" : choice === "approved" ? `Approve “${review.stage.title}”` : "Choose approve or send back"}
+          {choice === "sent_back"
+            ? "Send back to the bench"
+            : choice === "approved"
+              ? `Approve “${review.stage.title}”`
+              : "Choose approve or send back"}
         </button>
       </div>
     </section>

@@ -31,7 +31,8 @@ const columns: ColumnDef<QueueRow, unknown>[] = [
     header: "Bike",
     cell: ({ row }) => (
       <span>
-        {row.original.make} {row.original.model} <span className="block whitespace-nowrap font-mono text-steel-700">{row.original.tagCode}</span>
+        {row.original.make} {row.original.model}{" "}
+        <span className="block whitespace-nowrap font-mono text-steel-700">{row.original.tagCode}</span>
       </span>
     ),
   },
@@ -52,7 +53,10 @@ const columns: ColumnDef<QueueRow, unknown>[] = [
     header: "Out of tolerance",
     cell: ({ row }) =>
       row.original.outOfTolerance > 0 ? (
-        <span className="inline-flex items-center gap-1 rounded border-2 border-fail bg-fail-light px-2 font-bold text-fail" data-testid="queue-oot">
+        <span
+          className="inline-flex items-center gap-1 rounded border-2 border-fail bg-fail-light px-2 font-bold text-fail"
+          data-testid="queue-oot"
+        >
           <span aria-hidden="true">▲</span>
           {row.original.outOfTolerance} reading{row.original.outOfTolerance === 1 ? "" : "s"}
         </span>
@@ -66,7 +70,11 @@ const columns: ColumnDef<QueueRow, unknown>[] = [
     enableSorting: false,
     cell: ({ row }) => (
       <span className="flex flex-col items-start gap-1">
-        <Link href={`/review/${row.original.signOffId}`} className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 font-bold text-white" aria-label={`Review #${row.original.number} ${row.original.stageTitle}`}>
+        <Link
+          href={`/review/${row.original.signOffId}`}
+          className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 font-bold text-white"
+          aria-label={`Review #${row.original.number} ${row.original.stageTitle}`}
+        >
           Review
         </Link>
         {row.original.flagReason && <span className="text-sm font-bold text-warn">⚑ flagged by the sync</span>}
@@ -92,7 +100,12 @@ export function ReviewQueue({ people }: { people: Array<{ id: string; name: stri
       toolbar={
         <>
           <JobNumberFilter value={job} onChange={setJob} />
-          <SelectFilter label="Signed by" value={mechanic} onChange={setMechanic} options={[{ value: "", label: "Anyone" }, ...people.map((p) => ({ value: p.id, label: p.name }))]} />
+          <SelectFilter
+            label="Signed by"
+            value={mechanic}
+            onChange={setMechanic}
+            options={[{ value: "", label: "Anyone" }, ...people.map((p) => ({ value: p.id, label: p.name }))]}
+          />
           <SelectFilter label="Readings" value={outOfTolerance} onChange={setOutOfTolerance} options={READINGS} />
         </>
       }

@@ -39,7 +39,8 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
       </nav>
       <header>
         <p className="text-lg">
-          <span className="font-mono font-bold">#{r.job.number}</span> · {r.job.bike.make} {r.job.bike.model} <span className="font-mono">{r.job.bike.tagCode}</span> · {r.job.title} · {r.job.statusLabel}
+          <span className="font-mono font-bold">#{r.job.number}</span> · {r.job.bike.make} {r.job.bike.model}{" "}
+          <span className="font-mono">{r.job.bike.tagCode}</span> · {r.job.title} · {r.job.statusLabel}
         </p>
         <h1 className="text-3xl font-bold">{r.stage.title}</h1>
         <p className="text-base text-steel-700">{r.stage.procedureName}</p>
@@ -48,13 +49,25 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
           <When device={r.signOff.deviceTime} received={r.signOff.receivedAt} />
           <span className="font-mono text-sm">tablet {r.signOff.deviceId}</span>
         </p>
-        {r.signOff.flagReason && <p className="mt-2 rounded-lg border-4 border-warn bg-warn-light p-3 font-bold text-warn">⚑ The sync flagged this sign-off: {r.signOff.flagReason}</p>}
-        {!r.signOff.isLatest && <p className="mt-2 rounded-lg border-4 border-warn bg-warn-light p-3 font-bold text-warn">This stage has been signed off again since; this is an older sign-off.</p>}
+        {r.signOff.flagReason && (
+          <p className="mt-2 rounded-lg border-4 border-warn bg-warn-light p-3 font-bold text-warn">
+            ⚑ The sync flagged this sign-off: {r.signOff.flagReason}
+          </p>
+        )}
+        {!r.signOff.isLatest && (
+          <p className="mt-2 rounded-lg border-4 border-warn bg-warn-light p-3 font-bold text-warn">
+            This stage has been signed off again since; this is an older sign-off.
+          </p>
+        )}
       </header>
 
       {standing && (
-        <p className={`rounded-lg border-4 p-3 text-lg font-bold ${standing.decision === "approved" ? "border-pass bg-pass-light text-pass" : "border-fail bg-fail-light text-fail"}`} data-testid="standing-decision">
-          {standing.decision === "approved" ? "✔ Approved" : `↺ Sent back: “${standing.reason}”`} by {standing.by.name}, {dayTime(standing.decidedAt)}
+        <p
+          className={`rounded-lg border-4 p-3 text-lg font-bold ${standing.decision === "approved" ? "border-pass bg-pass-light text-pass" : "border-fail bg-fail-light text-fail"}`}
+          data-testid="standing-decision"
+        >
+          {standing.decision === "approved" ? "✔ Approved" : `↺ Sent back: “${standing.reason}”`} by {standing.by.name},{" "}
+          {dayTime(standing.decidedAt)}
           {r.decisions.length > 1 ? ` (replaces ${r.decisions.length - 1} earlier decision${r.decisions.length > 2 ? "s" : ""})` : ""}
         </p>
       )}
@@ -77,7 +90,11 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
             {r.earlier.map((e) => (
               <li key={e.id}>
                 {dayTime(e.deviceTime)} by {e.by.name}:{" "}
-                {e.decisions.length === 0 ? "no decision" : e.decisions.map((d) => `${d.decision === "approved" ? "approved" : `sent back (“${d.reason}”)`} by ${d.by.name}`).join("; then ")}
+                {e.decisions.length === 0
+                  ? "no decision"
+                  : e.decisions
+                      .map((d) => `${d.decision === "approved" ? "approved" : `sent back (“${d.reason}”)`} by ${d.by.name}`)
+                      .join("; then ")}
               </li>
             ))}
           </ul>
@@ -91,7 +108,14 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
       {message && <FormMessage ok={message} />}
       {standing && !changing ? (
         r.mayDecide && (
-          <button type="button" className={`${quietButtonClass} self-start`} onClick={() => { setMessage(null); setChanging(true); }}>
+          <button
+            type="button"
+            className={`${quietButtonClass} self-start`}
+            onClick={() => {
+              setMessage(null);
+              setChanging(true);
+            }}
+          >
             Make a new decision (it replaces the standing one)
           </button>
         )

@@ -6,13 +6,18 @@ import { VerdictTag, When } from "./when";
 // (replaced ones too), two tablets' readings of one spot side by side, torque bolt by bolt, timers, photos, parts.
 export function StepRecord({ step }: { step: StepReview }) {
   return (
-    <section className="rounded-xl border-2 border-steel-300 bg-white p-4" aria-label={`Step ${step.number}: ${step.title}`} data-testid="review-step">
+    <section
+      className="rounded-xl border-2 border-steel-300 bg-white p-4"
+      aria-label={`Step ${step.number}: ${step.title}`}
+      data-testid="review-step"
+    >
       <h3 className="text-xl font-bold">
         Step {step.number} · {step.title}
       </h3>
       {step.sentBack.length > 0 && (
         <p className="mt-1 text-base font-bold text-warn">
-          ↺ Sent back {step.sentBack.length === 1 ? "once" : `${step.sentBack.length} times`} — latest: “{step.sentBack[0].reason}” ({step.sentBack[0].by.name}, {dayTime(step.sentBack[0].decidedAt)})
+          ↺ Sent back {step.sentBack.length === 1 ? "once" : `${step.sentBack.length} times`} — latest: “{step.sentBack[0].reason}” (
+          {step.sentBack[0].by.name}, {dayTime(step.sentBack[0].decidedAt)})
         </p>
       )}
       <div className="mt-2">
@@ -64,13 +69,20 @@ export function StepRecord({ step }: { step: StepReview }) {
             {step.photos.map((p) => (
               <li key={p.id} className="w-36 text-sm">
                 {p.awaitingUpload ? (
-                  <span className="flex h-24 items-center justify-center rounded-lg border-2 border-dashed border-steel-500 p-2 text-center">Still on the tablet</span>
+                  <span className="flex h-24 items-center justify-center rounded-lg border-2 border-dashed border-steel-500 p-2 text-center">
+                    Still on the tablet
+                  </span>
                 ) : (
                   // eslint-disable-next-line @next/next/no-img-element
-                  <img src={`/api/office/attachments/${p.id}`} alt={p.caption || "Step photo"} className="h-24 w-36 rounded-lg border-2 border-steel-700 object-cover" />
+                  <img
+                    src={`/api/office/attachments/${p.id}`}
+                    alt={p.caption || "Step photo"}
+                    className="h-24 w-36 rounded-lg border-2 border-steel-700 object-cover"
+                  />
                 )}
                 <span className="block">
-                  {p.contentType.replace("image/", "").toUpperCase()}, {Math.max(1, Math.round(p.byteSize / 1024))} kB · {dayTime(p.createdAt)}
+                  {p.contentType.replace("image/", "").toUpperCase()}, {Math.max(1, Math.round(p.byteSize / 1024))} kB ·{" "}
+                  {dayTime(p.createdAt)}
                 </span>
                 {p.caption && <span className="block">{p.caption}</span>}
               </li>
@@ -86,7 +98,8 @@ export function StepRecord({ step }: { step: StepReview }) {
               <li key={p.id} data-testid="review-part">
                 {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description}
                 {p.serial && <span className="font-mono"> · serial {p.serial}</span>}
-                {p.batch && <span className="font-mono"> · batch {p.batch}</span>} · {p.by ? p.by.name : "recorded in the office"} · {dayTime(p.fittedAt)}
+                {p.batch && <span className="font-mono"> · batch {p.batch}</span>} · {p.by ? p.by.name : "recorded in the office"} ·{" "}
+                {dayTime(p.fittedAt)}
                 {p.flagReason && <span className="block font-bold text-warn">⚑ {p.flagReason}</span>}
               </li>
             ))}
@@ -138,7 +151,9 @@ function SpecReadings({ spec }: { spec: SpecView }) {
         .filter((s) => s.rivals.length > 1)
         .map((spot) => (
           <div key={spot.readingIndex} className="mt-2 rounded-lg border-4 border-warn bg-warn-light p-3" data-testid="rival-readings">
-            <p className="font-bold text-warn">⚑ {spot.label}: read on {spot.rivals.length} tablets and neither replaced the other</p>
+            <p className="font-bold text-warn">
+              ⚑ {spot.label}: read on {spot.rivals.length} tablets and neither replaced the other
+            </p>
             <div className="mt-2 grid gap-3 md:grid-cols-2">
               {spot.rivals.map((r) => (
                 <div key={r.id} className="rounded-lg border-2 border-steel-700 bg-white p-2">
@@ -176,7 +191,13 @@ function ReadingRow({ label, r }: { label: string; r: ReadingLine }) {
         <When device={r.deviceTime} received={r.receivedAt} />
       </td>
       <td className="py-1 pr-3 text-sm">
-        {r.current ? <span className="font-bold">✔ current</span> : r.supersededBy ? "replaced by a correction" : "earlier stamp, not current"}
+        {r.current ? (
+          <span className="font-bold">✔ current</span>
+        ) : r.supersededBy ? (
+          "replaced by a correction"
+        ) : (
+          "earlier stamp, not current"
+        )}
         {r.acceptance && (
           <span className="mt-1 block rounded border-2 border-pass bg-pass-light p-1 font-bold text-pass">
             Let stand by {r.acceptance.by.name}: “{r.acceptance.justification}”
@@ -217,7 +238,11 @@ function TorqueGrid({ t }: { t: TorqueView }) {
                   <td key={b.bolt} className="px-1 text-center">
                     <span
                       className={`inline-flex h-8 w-8 items-center justify-center rounded border-2 font-bold ${b.done ? "border-pass bg-pass-light text-pass" : "border-fail text-fail"}`}
-                      aria-label={b.done ? `pass ${p.index} bolt ${b.bolt} done by ${b.done.by.name} ${dayTime(b.done.deviceTime)}` : `pass ${p.index} bolt ${b.bolt} not done`}
+                      aria-label={
+                        b.done
+                          ? `pass ${p.index} bolt ${b.bolt} done by ${b.done.by.name} ${dayTime(b.done.deviceTime)}`
+                          : `pass ${p.index} bolt ${b.bolt} not done`
+                      }
                     >
                       {b.done ? "✔" : "✖"}
                     </span>
@@ -235,8 +260,14 @@ function TorqueGrid({ t }: { t: TorqueView }) {
         const times = all.map((d) => Date.parse(d!.deviceTime));
         return (
           <p className="text-sm">
-            By {by}, {dayTime(new Date(Math.min(...times)).toISOString())} to {dayTime(new Date(Math.max(...times)).toISOString())} on the tablet
-            {all.some((d) => d!.wrench) ? ` · wrench readings: ${all.filter((d) => d!.wrench).map((d) => d!.wrench).join(", ")}` : ""}
+            By {by}, {dayTime(new Date(Math.min(...times)).toISOString())} to {dayTime(new Date(Math.max(...times)).toISOString())} on the
+            tablet
+            {all.some((d) => d!.wrench)
+              ? ` · wrench readings: ${all
+                  .filter((d) => d!.wrench)
+                  .map((d) => d!.wrench)
+                  .join(", ")}`
+              : ""}
           </p>
         );
       })()}

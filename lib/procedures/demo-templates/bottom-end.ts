@@ -48,9 +48,19 @@ export const bottomEndTemplate: TemplateDocumentInput = {
           title: "Top ring end gap",
           instructions:
             "Square each top ring in its bore with an inverted piston and read the gap with feeler gauges. Boosted engines run a wider gap than stock.",
-          cautions: [{ kind: "boost", text: "Too small a gap on a boosted engine lets the ring ends butt when hot. Use the ring maker's figure." }],
+          cautions: [
+            { kind: "boost", text: "Too small a gap on a boosted engine lets the ring ends butt when hot. Use the ring maker's figure." },
+          ],
           measurements: [
-            { key: "top-ring-gap", label: "Top ring gap", nominal: 0.4, min: 0.35, max: 0.48, unit: "mm", readingLabels: ["Cyl 1", "Cyl 2", "Cyl 3", "Cyl 4"] },
+            {
+              key: "top-ring-gap",
+              label: "Top ring gap",
+              nominal: 0.4,
+              min: 0.35,
+              max: 0.48,
+              unit: "mm",
+              readingLabels: ["Cyl 1", "Cyl 2", "Cyl 3", "Cyl 4"],
+            },
           ],
         },
         {
@@ -82,7 +92,10 @@ export const bottomEndTemplate: TemplateDocumentInput = {
           instructions:
             "Oil threads and seats with the bolt maker's lube. Tighten each rod cap in passes, then turn the angle. Check free rotation after each rod.",
           cautions: [
-            { kind: "torque-to-yield", text: "Rod bolts tightened by angle stretch past yield: never reuse them. Fit new bolts every time." },
+            {
+              kind: "torque-to-yield",
+              text: "Rod bolts tightened by angle stretch past yield: never reuse them. Fit new bolts every time.",
+            },
           ],
           torque: [
             {
@@ -101,7 +114,8 @@ export const bottomEndTemplate: TemplateDocumentInput = {
         {
           key: "case-sealant",
           title: "Apply case sealant and close the cases",
-          instructions: "Thin even bead of sealant on the case face, keep it clear of oil passages, fit the upper case within the working time.",
+          instructions:
+            "Thin even bead of sealant on the case face, keep it clear of oil passages, fit the upper case within the working time.",
           cautions: [{ kind: "chemical", text: "Use gloves and ventilation with anaerobic sealants." }],
           timer: { label: "Sealant cure before torquing cases", durationS: 1800, blocksStepKey: "case-bolts" },
         },

@@ -19,7 +19,15 @@ export const cylinderHeadTemplate: TemplateDocumentInput = {
           title: "Piston deck clearance",
           instructions: "Dial indicator at TDC on each piston; record how far the crown sits below the deck.",
           measurements: [
-            { key: "deck-clearance", label: "Deck clearance", nominal: 0.2, min: 0.1, max: 0.3, unit: "mm", readingLabels: ["Cyl 1", "Cyl 2", "Cyl 3", "Cyl 4"] },
+            {
+              key: "deck-clearance",
+              label: "Deck clearance",
+              nominal: 0.2,
+              min: 0.1,
+              max: 0.3,
+              unit: "mm",
+              readingLabels: ["Cyl 1", "Cyl 2", "Cyl 3", "Cyl 4"],
+            },
           ],
         },
         {
@@ -39,13 +47,14 @@ export const cylinderHeadTemplate: TemplateDocumentInput = {
           key: "gasket",
           title: "Fit multi-layer head gasket",
           instructions: "Dry, clean faces. Gasket marking up. Check dowels are seated.",
-          cautions: [{ kind: "lifting", text: "The head is heavy and awkward: lift with two people or a hoist, keep fingers clear of the dowels." }],
+          cautions: [
+            { kind: "lifting", text: "The head is heavy and awkward: lift with two people or a hoist, keep fingers clear of the dowels." },
+          ],
         },
         {
           key: "head-bolts",
           title: "Torque head bolts",
-          instructions:
-            "Oil threads and washers. Follow the sequence from the centre outwards for every pass, then the angle passes.",
+          instructions: "Oil threads and washers. Follow the sequence from the centre outwards for every pass, then the angle passes.",
           cautions: [{ kind: "torque-to-yield", text: "Head bolts tightened by angle are stretch bolts: fit new ones, never reuse." }],
           torque: [
             {

@@ -18,9 +18,13 @@ export const firstStartTemplate: TemplateDocumentInput = {
         {
           key: "oil-prime",
           title: "Prime the oil system",
-          instructions: "Fill with run-in oil to the mark. With the plugs out and the ignition and injectors disabled, crank in short bursts until the oil pressure light goes out or the gauge shows pressure.",
+          instructions:
+            "Fill with run-in oil to the mark. With the plugs out and the ignition and injectors disabled, crank in short bursts until the oil pressure light goes out or the gauge shows pressure.",
           cautions: [
-            { kind: "fuel", text: "Injectors disabled and plug caps grounded while cranking with the plugs out: fuel vapour and open sparks do not mix." },
+            {
+              kind: "fuel",
+              text: "Injectors disabled and plug caps grounded while cranking with the plugs out: fuel vapour and open sparks do not mix.",
+            },
             { kind: "general", text: "Crank in bursts and let the starter cool between them." },
           ],
           timer: { label: "Rest the starter between cranking bursts", durationS: 30, blocksStepKey: null },
@@ -28,8 +32,11 @@ export const firstStartTemplate: TemplateDocumentInput = {
         {
           key: "pre-start-checks",
           title: "Pre-start checks",
-          instructions: "Coolant filled and bled, oil at the mark, fuel lines and clamps checked, no tools or rags in the intake, fire extinguisher to hand, extraction on.",
-          cautions: [{ kind: "hot", text: "Exhaust and coolant become hot within a minute of starting: no loose clothing near the headers." }],
+          instructions:
+            "Coolant filled and bled, oil at the mark, fuel lines and clamps checked, no tools or rags in the intake, fire extinguisher to hand, extraction on.",
+          cautions: [
+            { kind: "hot", text: "Exhaust and coolant become hot within a minute of starting: no loose clothing near the headers." },
+          ],
         },
       ],
     },
@@ -40,7 +47,8 @@ export const firstStartTemplate: TemplateDocumentInput = {
         {
           key: "first-start",
           title: "First start",
-          instructions: "Start and hold a fast idle (around 2,000–2,500 rpm) rather than letting it idle slowly. Watch oil pressure and coolant temperature, listen for knocks, look for leaks and smoke. Shut down at once on any warning.",
+          instructions:
+            "Start and hold a fast idle (around 2,000–2,500 rpm) rather than letting it idle slowly. Watch oil pressure and coolant temperature, listen for knocks, look for leaks and smoke. Shut down at once on any warning.",
           cautions: [{ kind: "hot", text: "Keep hands away from the exhaust and the radiator cap; never open a hot cooling system." }],
           requiresPhoto: false,
         },
@@ -60,17 +68,39 @@ export const firstStartTemplate: TemplateDocumentInput = {
         {
           key: "leak-check",
           title: "Leak check",
-          instructions: "With the engine cold, check every joint: head gasket line, base gasket, oil feed and return, coolant hoses, sump plug, oil filter. Clean and recheck after a short run.",
+          instructions:
+            "With the engine cold, check every joint: head gasket line, base gasket, oil feed and return, coolant hoses, sump plug, oil filter. Clean and recheck after a short run.",
           requiresPhoto: true,
         },
         {
           key: "retorque",
           title: "Retorque where the maker asks",
-          instructions: "Only if the head gasket or fasteners call for it: retorque the head bolts cold, one at a time, in the tightening sequence. Skip this step for torque-to-yield bolts or multi-layer steel gaskets that must not be retorqued.",
-          cautions: [{ kind: "torque-to-yield", text: "Never retorque a torque-to-yield bolt: follow the gasket and bolt maker's instruction." }],
-          torque: [{ label: "Head bolts, cold retorque", finalValue: 45, unit: "N·m", passes: [{ percent: 100 }], pattern: "spiral-out", boltCount: 10, lubricant: "As assembled" }],
+          instructions:
+            "Only if the head gasket or fasteners call for it: retorque the head bolts cold, one at a time, in the tightening sequence. Skip this step for torque-to-yield bolts or multi-layer steel gaskets that must not be retorqued.",
+          cautions: [
+            { kind: "torque-to-yield", text: "Never retorque a torque-to-yield bolt: follow the gasket and bolt maker's instruction." },
+          ],
+          torque: [
+            {
+              label: "Head bolts, cold retorque",
+              finalValue: 45,
+              unit: "N·m",
+              passes: [{ percent: 100 }],
+              pattern: "spiral-out",
+              boltCount: 10,
+              lubricant: "As assembled",
+            },
+          ],
           measurements: [
-            { key: "valve-lash-in", label: "Valve clearance, intake, after heat cycles", nominal: 0.15, min: 0.1, max: 0.2, unit: "mm", readingLabels: ["Cyl 1", "Cyl 2", "Cyl 3", "Cyl 4"] },
+            {
+              key: "valve-lash-in",
+              label: "Valve clearance, intake, after heat cycles",
+              nominal: 0.15,
+              min: 0.1,
+              max: 0.2,
+              unit: "mm",
+              readingLabels: ["Cyl 1", "Cyl 2", "Cyl 3", "Cyl 4"],
+            },
           ],
         },
       ],
@@ -82,7 +112,8 @@ export const firstStartTemplate: TemplateDocumentInput = {
         {
           key: "oil-change",
           title: "First oil and filter change",
-          instructions: "Change the run-in oil and filter after the heat cycles and the dyno check; cut the filter open and look for metal.",
+          instructions:
+            "Change the run-in oil and filter after the heat cycles and the dyno check; cut the filter open and look for metal.",
           cautions: [{ kind: "hot", text: "Drain warm, not hot: oil at running temperature scalds." }],
         },
         {

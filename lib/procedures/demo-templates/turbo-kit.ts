@@ -18,10 +18,17 @@ export const turboKitTemplate: TemplateDocumentInput = {
         {
           key: "lift-and-secure",
           title: "Lift and secure the bike",
-          instructions: "Put the bike on a paddock stand and a front stand, or strap it to the lift. Drain the coolant and the oil if the kit needs the oil feed and return tapped into the sump.",
+          instructions:
+            "Put the bike on a paddock stand and a front stand, or strap it to the lift. Drain the coolant and the oil if the kit needs the oil feed and return tapped into the sump.",
           cautions: [
-            { kind: "lifting", text: "Strap the bike to the lift before removing the exhaust or the fairing: the balance point moves as parts come off." },
-            { kind: "fuel", text: "Disconnect the battery and cap the fuel lines before work near the fuel rail; no flames or sparks nearby." },
+            {
+              kind: "lifting",
+              text: "Strap the bike to the lift before removing the exhaust or the fairing: the balance point moves as parts come off.",
+            },
+            {
+              kind: "fuel",
+              text: "Disconnect the battery and cap the fuel lines before work near the fuel rail; no flames or sparks nearby.",
+            },
           ],
         },
         {
@@ -32,7 +39,15 @@ export const turboKitTemplate: TemplateDocumentInput = {
           cautions: [{ kind: "hot", text: "Exhaust parts stay hot long after a run: check the gaps with the engine cold." }],
           requiresPhoto: true,
           measurements: [
-            { key: "charge-pipe-gap", label: "Smallest gap, charge pipe to exhaust", nominal: null, min: 50, max: 1000, unit: "mm", readingLabels: ["Compressor outlet", "Intercooler inlet", "Throttle-body side"] },
+            {
+              key: "charge-pipe-gap",
+              label: "Smallest gap, charge pipe to exhaust",
+              nominal: null,
+              min: 50,
+              max: 1000,
+              unit: "mm",
+              readingLabels: ["Compressor outlet", "Intercooler inlet", "Throttle-body side"],
+            },
           ],
         },
       ],
@@ -44,25 +59,65 @@ export const turboKitTemplate: TemplateDocumentInput = {
         {
           key: "mount-turbo",
           title: "Mount the turbo on the manifold",
-          instructions: "New gasket, studs with high-temperature anti-seize, nuts tightened in a cross pattern in two passes. Turn the compressor wheel by hand: it must spin freely without touching the housing.",
-          cautions: [{ kind: "hot", text: "Manifold and turbine housing reach several hundred °C in use; route every hose and wire clear of them." }],
+          instructions:
+            "New gasket, studs with high-temperature anti-seize, nuts tightened in a cross pattern in two passes. Turn the compressor wheel by hand: it must spin freely without touching the housing.",
+          cautions: [
+            { kind: "hot", text: "Manifold and turbine housing reach several hundred °C in use; route every hose and wire clear of them." },
+          ],
           torque: [
-            { label: "Turbine flange nuts M8", finalValue: 24, unit: "N·m", passes: [{ percent: 50 }, { percent: 100 }], pattern: "cross", boltCount: 4, lubricant: "High-temperature anti-seize on studs" },
+            {
+              label: "Turbine flange nuts M8",
+              finalValue: 24,
+              unit: "N·m",
+              passes: [{ percent: 50 }, { percent: 100 }],
+              pattern: "cross",
+              boltCount: 4,
+              lubricant: "High-temperature anti-seize on studs",
+            },
           ],
         },
         {
           key: "oil-feed-return",
           title: "Oil feed and return",
-          instructions: "Prime the turbo with clean engine oil through the feed port before connecting. The return line must fall all the way to the sump with no dips. Fit the restrictor if the kit supplies one.",
-          cautions: [{ kind: "general", text: "A turbo run dry for even a few seconds can lose its bearings: prime it before the first start." }],
-          torque: [{ label: "Oil feed banjo bolt", finalValue: 15, unit: "N·m", passes: [], pattern: "linear", boltCount: 1, lubricant: "New copper washers, dry threads" }],
+          instructions:
+            "Prime the turbo with clean engine oil through the feed port before connecting. The return line must fall all the way to the sump with no dips. Fit the restrictor if the kit supplies one.",
+          cautions: [
+            { kind: "general", text: "A turbo run dry for even a few seconds can lose its bearings: prime it before the first start." },
+          ],
+          torque: [
+            {
+              label: "Oil feed banjo bolt",
+              finalValue: 15,
+              unit: "N·m",
+              passes: [],
+              pattern: "linear",
+              boltCount: 1,
+              lubricant: "New copper washers, dry threads",
+            },
+          ],
         },
         {
           key: "wastegate",
           title: "Fit the external wastegate",
-          instructions: "Mount the wastegate on the manifold take-off, fit the spring for the planned base boost, and route its vent away from the intake and from hoses. Connect the signal line from the compressor outlet.",
-          cautions: [{ kind: "boost", text: "Start on the softest spring. Boost is raised only on the dyno, with fuel and ignition checked at every step." }],
-          torque: [{ label: "Wastegate V-band clamp", finalValue: 9, unit: "N·m", passes: [], pattern: "linear", boltCount: 1, lubricant: "Anti-seize on the clamp thread" }],
+          instructions:
+            "Mount the wastegate on the manifold take-off, fit the spring for the planned base boost, and route its vent away from the intake and from hoses. Connect the signal line from the compressor outlet.",
+          cautions: [
+            {
+              kind: "boost",
+              text: "Start on the softest spring. Boost is raised only on the dyno, with fuel and ignition checked at every step.",
+            },
+          ],
+          torque: [
+            {
+              label: "Wastegate V-band clamp",
+              finalValue: 9,
+              unit: "N·m",
+              passes: [],
+              pattern: "linear",
+              boltCount: 1,
+              lubricant: "Anti-seize on the clamp thread",
+            },
+          ],
         },
       ],
     },
@@ -73,29 +128,47 @@ export const turboKitTemplate: TemplateDocumentInput = {
         {
           key: "intercooler",
           title: "Mount the intercooler",
-          instructions: "Mount the intercooler in clean air, on rubber isolators, with the core facing the airflow and clear of the radiator's outlet air. Clamp every joint with T-bolt clamps and check the couplers sit fully over the beads.",
-          torque: [{ label: "Intercooler bracket bolts M6", finalValue: 10, unit: "N·m", passes: [], pattern: "cross", boltCount: 4, lubricant: "Dry" }],
+          instructions:
+            "Mount the intercooler in clean air, on rubber isolators, with the core facing the airflow and clear of the radiator's outlet air. Clamp every joint with T-bolt clamps and check the couplers sit fully over the beads.",
+          torque: [
+            {
+              label: "Intercooler bracket bolts M6",
+              finalValue: 10,
+              unit: "N·m",
+              passes: [],
+              pattern: "cross",
+              boltCount: 4,
+              lubricant: "Dry",
+            },
+          ],
         },
         {
           key: "larger-intake",
           title: "Fit the larger intake",
           instructions:
             "Fit the larger air filter or plenum. A common rule of thumb (common practice, no source) sizes the airbox or plenum at roughly ten times the engine's displacement, so a 1000 cc engine wants about 10 litres; follow the kit maker's layout where it differs. Seal the filter base fully.",
-          cautions: [{ kind: "general", text: "Unfiltered air or a loose clamp lets grit into a compressor wheel spinning at very high speed." }],
+          cautions: [
+            { kind: "general", text: "Unfiltered air or a loose clamp lets grit into a compressor wheel spinning at very high speed." },
+          ],
         },
         {
           key: "boost-leak-test",
           title: "Leak-test the charge side",
-          instructions: "Block the intake at the filter, pressurise the charge side with the leak tester to the planned boost plus a margin, and listen and spray every joint with soapy water. Hold the pressure for the timer and note any drop.",
+          instructions:
+            "Block the intake at the filter, pressurise the charge side with the leak tester to the planned boost plus a margin, and listen and spray every joint with soapy water. Hold the pressure for the timer and note any drop.",
           cautions: [{ kind: "boost", text: "Never pressurise past the tester's rating; stand clear of couplers while under pressure." }],
           timer: { label: "Hold leak-test pressure", durationS: 300, blocksStepKey: "sign-off-fitting" },
         },
         {
           key: "sign-off-fitting",
           title: "Check fuel and ignition before any boost",
-          instructions: "Confirm the fuel pump, injectors and engine management can support boost before the first run under load. The first boosted runs happen on the dyno with air-fuel ratio logged.",
+          instructions:
+            "Confirm the fuel pump, injectors and engine management can support boost before the first run under load. The first boosted runs happen on the dyno with air-fuel ratio logged.",
           cautions: [
-            { kind: "fuel", text: "A lean mixture under boost melts pistons within seconds: no boost on the road before the dyno session." },
+            {
+              kind: "fuel",
+              text: "A lean mixture under boost melts pistons within seconds: no boost on the road before the dyno session.",
+            },
             { kind: "boost", text: "Figures here are examples only; the kit maker's and engine maker's limits come first." },
           ],
         },

@@ -34,6 +34,9 @@ export async function waitForServiceWorker(page: Page) {
 
 export async function waitForSynced(page: Page) {
   await expect(page.getByTestId("net-state")).toHaveText(/Online/);
-  await page.getByRole("button", { name: "Sync now" }).click().catch(() => undefined);
+  await page
+    .getByRole("button", { name: "Sync now" })
+    .click()
+    .catch(() => undefined);
   await expect(page.getByTestId("waiting-count")).toHaveText("Nothing waiting to send", { timeout: 30_000 });
 }

@@ -21,7 +21,11 @@ export interface MeasureSpec {
 export async function reviewSetup(db: Kysely<Database>) {
   const fx = await createShopFixture(db);
   const stepIds = ["bore-cyl-1", "piston-clearance", "ring-gap", "main-clearance"].map((k) => fx.stepByKey[k].id);
-  const specRows = await db.selectFrom("measurement_specs").select(["id", "key", "step_id", "reading_labels"]).where("step_id", "in", stepIds).execute();
+  const specRows = await db
+    .selectFrom("measurement_specs")
+    .select(["id", "key", "step_id", "reading_labels"])
+    .where("step_id", "in", stepIds)
+    .execute();
   const specs: Record<string, MeasureSpec> = Object.fromEntries(
     specRows.map((s) => [s.key, { id: s.id, key: s.key, stepId: s.step_id, readings: Math.max(1, s.reading_labels.length) }]),
   );
@@ -49,7 +53,13 @@ export const GOOD: Record<string, number> = {
  * Operations that read every spot of the measure stage (with `override` values per "key:index"),
  * complete its four steps and sign it off.
  */
-export function measureStageWork(tablet: Tablet, specs: Record<string, MeasureSpec>, stepIds: string[], stage: { jobProcedureId: string; stageKey: string }, override: Record<string, number> = {}) {
+export function measureStageWork(
+  tablet: Tablet,
+  specs: Record<string, MeasureSpec>,
+  stepIds: string[],
+  stage: { jobProcedureId: string; stageKey: string },
+  override: Record<string, number> = {},
+) {
   const ops: Operation[] = [];
   for (const spec of Object.values(specs)) {
     for (let i = 0; i < spec.readings; i++) ops.push(tablet.read(spec.stepId, spec.id, i, override[`${spec.key}:${i}`] ?? GOOD[spec.key]));

@@ -7,5 +7,9 @@ export function appRequest(path: string, init: RequestInit & { duplex?: "half" }
   const headers = new Headers(init.headers);
   const method = (init.method ?? "GET").toUpperCase();
   if (method !== "GET" && method !== "HEAD" && !headers.has("origin")) headers.set("origin", APP_ORIGIN);
-  return new Request(new URL(path, APP_ORIGIN), { ...init, headers, ...(init.body instanceof ReadableStream ? { duplex: "half" } : {}) } as RequestInit);
+  return new Request(new URL(path, APP_ORIGIN), {
+    ...init,
+    headers,
+    ...(init.body instanceof ReadableStream ? { duplex: "half" } : {}),
+  } as RequestInit);
 }

@@ -97,5 +97,14 @@ export async function createShopFixture(db: Kysely<Database>, opts: { status?: W
     .where("template_version_id", "in", [bottom.versionId, head.versionId])
     .execute();
   const stepByKey = Object.fromEntries(steps.map((s) => [s.key, s]));
-  return { shopId: shop.id, customerId: customer.id, users, bike, workOrderId: workOrder.id, procedures, stepByKey, templates: { bottom, head } };
+  return {
+    shopId: shop.id,
+    customerId: customer.id,
+    users,
+    bike,
+    workOrderId: workOrder.id,
+    procedures,
+    stepByKey,
+    templates: { bottom, head },
+  };
 }

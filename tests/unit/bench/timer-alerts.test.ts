@@ -15,11 +15,19 @@ describe("timer alerts on the bench", () => {
   ];
 
   it("alerts for timers that ran out within the window, not for running or long-finished ones", () => {
-    expect(dueAlerts(timers, now, new Set()).map((t) => t.id)).toEqual(["just-done", "done-at-now", "done-50-min-ago", "done-at-window-edge"]);
+    expect(dueAlerts(timers, now, new Set()).map((t) => t.id)).toEqual([
+      "just-done",
+      "done-at-now",
+      "done-50-min-ago",
+      "done-at-window-edge",
+    ]);
   });
 
   it("an acknowledged timer stays quiet", () => {
-    expect(dueAlerts(timers, now, new Set(["just-done", "done-50-min-ago"])).map((t) => t.id)).toEqual(["done-at-now", "done-at-window-edge"]);
+    expect(dueAlerts(timers, now, new Set(["just-done", "done-50-min-ago"])).map((t) => t.id)).toEqual([
+      "done-at-now",
+      "done-at-window-edge",
+    ]);
   });
 
   it("a running timer alerts once its end passes", () => {

@@ -26,7 +26,10 @@ describe("oilClearance — bearing bore minus journal diameter", () => {
           maxLength: 10,
         }),
         (pairs) => {
-          const r = oilClearance(pairs.map(([j]) => j), pairs.map(([j, c]) => j + c));
+          const r = oilClearance(
+            pairs.map(([j]) => j),
+            pairs.map(([j, c]) => j + c),
+          );
           return r.each.every((c) => c >= r.min && c <= r.max);
         },
       ),

@@ -1,12 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import {
-  boostedCompressionRatio,
-  compressionVolumes,
-  staticCompressionRatio,
-  sweptVolumeCc,
-  type CompressionInput,
-} from "@/lib/calc";
+import { boostedCompressionRatio, compressionVolumes, staticCompressionRatio, sweptVolumeCc, type CompressionInput } from "@/lib/calc";
 import { expectCalcError, expectRelClose, expectWithin } from "./helpers";
 
 const MM_PER_IN = 25.4; // NIST SP 811 B.8, exact
@@ -67,19 +61,21 @@ describe("staticCompressionRatio — Heywood ch. 2: CR = (Vs + Vc) / Vc", () => 
     expectRelClose(v.clearanceCc, 45 + v.gasketCc + v.deckCc + 5, 1e-15);
   });
 
-  const geometry = fc.record({
-    boreMm: fc.double({ min: 30, max: 120, noNaN: true }),
-    strokeMm: fc.double({ min: 20, max: 120, noNaN: true }),
-    chamberCc: fc.double({ min: 5, max: 120, noNaN: true }),
-    gasketBoreMm: fc.double({ min: 30, max: 125, noNaN: true }),
-    gasketThicknessMm: fc.double({ min: 0, max: 3, noNaN: true }),
-    deckClearanceMm: fc.double({ min: -0.5, max: 1, noNaN: true }),
-    pistonDishCc: fc.double({ min: -4, max: 20, noNaN: true }),
-  }).filter((g) => {
-    // keep physically possible builds: clearance volume (Heywood ch. 2) of at least 1 cc
-    const slice = (d: number, h: number) => ((Math.PI / 4) * d * d * h) / 1000;
-    return g.chamberCc + slice(g.gasketBoreMm, g.gasketThicknessMm) + slice(g.boreMm, g.deckClearanceMm) + g.pistonDishCc >= 1;
-  });
+  const geometry = fc
+    .record({
+      boreMm: fc.double({ min: 30, max: 120, noNaN: true }),
+      strokeMm: fc.double({ min: 20, max: 120, noNaN: true }),
+      chamberCc: fc.double({ min: 5, max: 120, noNaN: true }),
+      gasketBoreMm: fc.double({ min: 30, max: 125, noNaN: true }),
+      gasketThicknessMm: fc.double({ min: 0, max: 3, noNaN: true }),
+      deckClearanceMm: fc.double({ min: -0.5, max: 1, noNaN: true }),
+      pistonDishCc: fc.double({ min: -4, max: 20, noNaN: true }),
+    })
+    .filter((g) => {
+      // keep physically possible builds: clearance volume (Heywood ch. 2) of at least 1 cc
+      const slice = (d: number, h: number) => ((Math.PI / 4) * d * d * h) / 1000;
+      return g.chamberCc + slice(g.gasketBoreMm, g.gasketThicknessMm) + slice(g.boreMm, g.deckClearanceMm) + g.pistonDishCc >= 1;
+    });
 
   it("CR falls when any clearance component rises (property)", () => {
     fc.assert(

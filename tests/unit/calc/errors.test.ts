@@ -22,7 +22,19 @@ describe("CalcInputError", () => {
   // Every numeric entry point refuses NaN instead of returning it.
   const nanCalls: Array<[string, () => unknown]> = [
     ["sweptVolumeCc", () => calc.sweptVolumeCc(Number.NaN, 50)],
-    ["staticCompressionRatio", () => calc.staticCompressionRatio({ boreMm: 80, strokeMm: 60, chamberCc: Number.NaN, gasketBoreMm: 81, gasketThicknessMm: 0.8, deckClearanceMm: 0.1, pistonDishCc: 0 })],
+    [
+      "staticCompressionRatio",
+      () =>
+        calc.staticCompressionRatio({
+          boreMm: 80,
+          strokeMm: 60,
+          chamberCc: Number.NaN,
+          gasketBoreMm: 81,
+          gasketThicknessMm: 0.8,
+          deckClearanceMm: 0.1,
+          pistonDishCc: 0,
+        }),
+    ],
     ["boostedCompressionRatio", () => calc.boostedCompressionRatio(10, 50, Number.NaN)],
     ["compressorOutletTemperatureK", () => calc.compressorOutletTemperatureK(Number.NaN, 2, 0.7)],
     ["intercoolerOutletTemperatureK", () => calc.intercoolerOutletTemperatureK(380, 300, Number.NaN)],
@@ -39,7 +51,10 @@ describe("CalcInputError", () => {
     ["tighteningSequence", () => calc.tighteningSequence("cross", Number.NaN)],
     ["boltLayout", () => calc.boltLayout("cross", Number.NaN)],
     ["torqueStages", () => calc.torqueStages({ finalValue: Number.NaN, unit: "N·m", passes: [] })],
-    ["boreGeometry", () => calc.boreGeometry({ top: { thrust: Number.NaN, pin: 80 }, middle: { thrust: 80, pin: 80 }, bottom: { thrust: 80, pin: 80 } })],
+    [
+      "boreGeometry",
+      () => calc.boreGeometry({ top: { thrust: Number.NaN, pin: 80 }, middle: { thrust: 80, pin: 80 }, bottom: { thrust: 80, pin: 80 } }),
+    ],
     ["oilClearance", () => calc.oilClearance([Number.NaN], [40])],
     ["evaluateTolerance", () => calc.evaluateTolerance(Number.NaN, { unit: "mm", min: 0, max: 1 })],
     ["ringGapGuide", () => calc.ringGapGuide(Number.NaN, "boosted")],

@@ -21,8 +21,10 @@ describe("powerKw / torqueNm — kW = N·m · rpm · 2π / 60 000", () => {
   });
   it("torqueNm inverts powerKw (property)", () => {
     fc.assert(
-      fc.property(fc.double({ min: -500, max: 2000, noNaN: true }), fc.double({ min: 1, max: 25000, noNaN: true }), (t, rpm) =>
-        isRelClose(torqueNm(powerKw(t, rpm), rpm), t, 1e-13) || Math.abs(t) < 1e-300,
+      fc.property(
+        fc.double({ min: -500, max: 2000, noNaN: true }),
+        fc.double({ min: 1, max: 25000, noNaN: true }),
+        (t, rpm) => isRelClose(torqueNm(powerKw(t, rpm), rpm), t, 1e-13) || Math.abs(t) < 1e-300,
       ),
     );
   });

@@ -3,8 +3,7 @@ import fc from "fast-check";
 import { boltLayout, MAX_BOLT_COUNT, tighteningSequence, type TighteningPattern } from "@/lib/calc";
 import { expectCalcError } from "./helpers";
 
-const isPermutation = (seq: number[], n: number) =>
-  seq.length === n && [...seq].sort((a, b) => a - b).every((b, i) => b === i + 1);
+const isPermutation = (seq: number[], n: number) => seq.length === n && [...seq].sort((a, b) => a - b).every((b, i) => b === i + 1);
 
 /** Steps clockwise from bolt a to bolt b on an N-bolt circle, folded to the shorter way (0 … N/2). */
 const circleSteps = (a: number, b: number, n: number) => {
@@ -23,10 +22,12 @@ describe("'cross' — ASME PCC-1 legacy cross pattern (from memory: the standard
   const count = fc.integer({ min: 2, max: 200 });
 
   it("is a permutation of 1..N starting at bolt 1, for any N ≥ 2 (property)", () => {
-    fc.assert(fc.property(count, (n) => {
-      const seq = tighteningSequence("cross", n);
-      return isPermutation(seq, n) && seq[0] === 1;
-    }));
+    fc.assert(
+      fc.property(count, (n) => {
+        const seq = tighteningSequence("cross", n);
+        return isPermutation(seq, n) && seq[0] === 1;
+      }),
+    );
   });
 
   // The property we hold the cross pattern to. "Every move ≥ 90°" is NOT it: PCC-1's own 16-bolt
@@ -37,33 +38,42 @@ describe("'cross' — ASME PCC-1 legacy cross pattern (from memory: the standard
   // (c) odd N — no bolt is opposite another, so every move is the nearest-to-opposite step of
   // (N−1)/2 bolts (180°·(N−1)/N ≥ 120°).
   it("(a) even N: every second bolt is diametrically opposite the one before it (property)", () => {
-    fc.assert(fc.property(count.map((n) => 2 * Math.ceil(n / 2)), (n) => {
-      const seq = tighteningSequence("cross", n);
-      for (let i = 0; i < n; i += 2) if (circleSteps(seq[i], seq[i + 1], n) !== n / 2) return false;
-      return true;
-    }));
+    fc.assert(
+      fc.property(
+        count.map((n) => 2 * Math.ceil(n / 2)),
+        (n) => {
+          const seq = tighteningSequence("cross", n);
+          for (let i = 0; i < n; i += 2) if (circleSteps(seq[i], seq[i + 1], n) !== n / 2) return false;
+          return true;
+        },
+      ),
+    );
   });
 
   it("(b) N = 2^k·m: the first 2^j bolts are evenly spaced for every j ≤ k (property)", () => {
-    fc.assert(fc.property(fc.integer({ min: 1, max: 6 }), fc.integer({ min: 0, max: 7 }), (k, mHalf) => {
-      const m = 2 * mHalf + 1;
-      const n = 2 ** k * m;
-      const seq = tighteningSequence("cross", n);
-      for (let j = 1; j <= k; j++) {
-        const first = seq.slice(0, 2 ** j).sort((a, b) => a - b);
-        const gap = n / 2 ** j;
-        if (!first.every((b, i) => b === 1 + i * gap)) return false;
-      }
-      return true;
-    }));
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 6 }), fc.integer({ min: 0, max: 7 }), (k, mHalf) => {
+        const m = 2 * mHalf + 1;
+        const n = 2 ** k * m;
+        const seq = tighteningSequence("cross", n);
+        for (let j = 1; j <= k; j++) {
+          const first = seq.slice(0, 2 ** j).sort((a, b) => a - b);
+          const gap = n / 2 ** j;
+          if (!first.every((b, i) => b === 1 + i * gap)) return false;
+        }
+        return true;
+      }),
+    );
   });
 
   it("(c) odd N: every move is (N−1)/2 bolts round, the nearest to opposite (property)", () => {
-    fc.assert(fc.property(fc.integer({ min: 1, max: 100 }), (h) => {
-      const n = 2 * h + 1;
-      const seq = tighteningSequence("cross", n);
-      return seq.every((b, i) => i === 0 || circleSteps(seq[i - 1], b, n) === (n - 1) / 2);
-    }));
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 100 }), (h) => {
+        const n = 2 * h + 1;
+        const seq = tighteningSequence("cross", n);
+        return seq.every((b, i) => i === 0 || circleSteps(seq[i - 1], b, n) === (n - 1) / 2);
+      }),
+    );
   });
 
   it("odd counts form a star: 5 → 1-3-5-2-4 (pentagram)", () => {
@@ -78,8 +88,7 @@ describe("'spiral-out' — two-row head, centre first (our convention, see the d
 
   const even = fc.integer({ min: 1, max: 100 }).map((h) => 2 * h);
   /** Column (0-based, left → right) and row of a bolt under the documented numbering. */
-  const place = (bolt: number, n: number) =>
-    bolt <= n / 2 ? { column: bolt - 1, row: "intake" } : { column: n - bolt, row: "exhaust" };
+  const place = (bolt: number, n: number) => (bolt <= n / 2 ? { column: bolt - 1, row: "intake" } : { column: n - bolt, row: "exhaust" });
   /** Distance of a column from the head's centre line, in column pitches. */
   const fromCentre = (column: number, n: number) => Math.abs(column - (n / 2 - 1) / 2);
 
@@ -90,16 +99,20 @@ describe("'spiral-out' — two-row head, centre first (our convention, see the d
     fc.assert(fc.property(even, (n) => fromCentre(place(tighteningSequence("spiral-out", n)[0], n).column, n) <= 0.5));
   });
   it("works outwards: distance from the centre never decreases along the sequence (property)", () => {
-    fc.assert(fc.property(even, (n) => {
-      const d = tighteningSequence("spiral-out", n).map((b) => fromCentre(place(b, n).column, n));
-      return d.every((x, i) => i === 0 || x >= d[i - 1]);
-    }));
+    fc.assert(
+      fc.property(even, (n) => {
+        const d = tighteningSequence("spiral-out", n).map((b) => fromCentre(place(b, n).column, n));
+        return d.every((x, i) => i === 0 || x >= d[i - 1]);
+      }),
+    );
   });
   it("alternates sides: each move crosses from one row to the other (property)", () => {
-    fc.assert(fc.property(even, (n) => {
-      const rows = tighteningSequence("spiral-out", n).map((b) => place(b, n).row);
-      return rows.every((r, i) => i === 0 || r !== rows[i - 1]);
-    }));
+    fc.assert(
+      fc.property(even, (n) => {
+        const rows = tighteningSequence("spiral-out", n).map((b) => place(b, n).row);
+        return rows.every((r, i) => i === 0 || r !== rows[i - 1]);
+      }),
+    );
   });
 });
 
@@ -112,18 +125,15 @@ describe("'linear'", () => {
 
 describe("boltLayout", () => {
   const patterns: TighteningPattern[] = ["cross", "spiral-out", "linear"];
-  const anyLayout = fc
-    .tuple(fc.constantFrom(...patterns), fc.integer({ min: 1, max: 60 }))
-    .map(([p, h]) => [p, 2 * h] as const);
+  const anyLayout = fc.tuple(fc.constantFrom(...patterns), fc.integer({ min: 1, max: 60 })).map(([p, h]) => [p, 2 * h] as const);
 
   it("gives every bolt once, in bolt order, inside the unit box (property)", () => {
-    fc.assert(fc.property(anyLayout, ([p, n]) => {
-      const layout = boltLayout(p, n);
-      return (
-        layout.length === n &&
-        layout.every((b, i) => b.bolt === i + 1 && b.x >= 0 && b.x <= 1 && b.y >= 0 && b.y <= 1)
-      );
-    }));
+    fc.assert(
+      fc.property(anyLayout, ([p, n]) => {
+        const layout = boltLayout(p, n);
+        return layout.length === n && layout.every((b, i) => b.bolt === i + 1 && b.x >= 0 && b.x <= 1 && b.y >= 0 && b.y <= 1);
+      }),
+    );
   });
   it("'cross' puts bolt 1 at 12 o'clock and numbers clockwise on screen (y down)", () => {
     const layout = boltLayout("cross", 8);

@@ -98,7 +98,7 @@ const MATHJS_POWER: Record<PowerUnit, [string, number]> = {
 const MATHJS_LENGTH: Record<LengthUnit, [string, number]> = {
   mm: ["mm", 1],
   in: ["in", 1],
-  "µm": ["um", 1],
+  µm: ["um", 1],
 };
 const MATHJS_TEMPERATURE: Record<TemperatureUnit, string> = { C: "degC", K: "K", F: "degF" };
 
@@ -110,9 +110,7 @@ function viaMathjs<U extends string>(table: Record<U, [string, number]>, value: 
 
 // Any workshop magnitude, sign included; subnormal doubles (< 1e-300) are left out because they
 // carry too few significant bits for a relative comparison to mean anything.
-const magnitude = fc
-  .double({ min: -1e9, max: 1e9, noNaN: true, noDefaultInfinity: true })
-  .filter((v) => v === 0 || Math.abs(v) > 1e-300);
+const magnitude = fc.double({ min: -1e9, max: 1e9, noNaN: true, noDefaultInfinity: true }).filter((v) => v === 0 || Math.abs(v) > 1e-300);
 
 function crossCheck<U extends string>(
   name: string,

@@ -16,11 +16,18 @@ describe("power per unit of boost", () => {
     expect(powerPerBoost(100, { value: 0, unit: "kPa" })).toBeNull();
   });
   it("130 kW at 7 psi → 150 kW at 10 psi: 6.667 kW per extra psi (arithmetic)", () => {
-    const g = powerGainPerBoost({ powerKw: 130, boost: { value: 7, unit: "psi" } }, { powerKw: 150, boost: { value: 10, unit: "psi" } }, "kW", "psi");
+    const g = powerGainPerBoost(
+      { powerKw: 130, boost: { value: 7, unit: "psi" } },
+      { powerKw: 150, boost: { value: 10, unit: "psi" } },
+      "kW",
+      "psi",
+    );
     expectWithin(g!, 20 / 3, 1e-12);
   });
   it("same boost in two units → null", () => {
-    expect(powerGainPerBoost({ powerKw: 1, boost: { value: 1, unit: "bar" } }, { powerKw: 2, boost: { value: 100, unit: "kPa" } })).toBeNull();
+    expect(
+      powerGainPerBoost({ powerKw: 1, boost: { value: 1, unit: "bar" } }, { powerKw: 2, boost: { value: 100, unit: "kPa" } }),
+    ).toBeNull();
   });
   it("negative boost is refused", () => {
     expect(() => powerPerBoost(100, { value: -1, unit: "psi" })).toThrow(/boost.value/);

@@ -87,7 +87,15 @@ describe("a run's request body", () => {
   it("accepts text fields and table rows, skipping blank rows", () => {
     const r = checkDynoRunBody({
       ...fields,
-      curve: { source: "table", torqueUnit: "N·m", rows: [{ rpm: "4000", torque: "70" }, { rpm: "", torque: "" }, { rpm: "5000", torque: "80" }] },
+      curve: {
+        source: "table",
+        torqueUnit: "N·m",
+        rows: [
+          { rpm: "4000", torque: "70" },
+          { rpm: "", torque: "" },
+          { rpm: "5000", torque: "80" },
+        ],
+      },
     });
     if (!r.ok) throw new Error(JSON.stringify(r));
     expect(r.run.boostTarget).toBe(7);
@@ -100,7 +108,14 @@ describe("a run's request body", () => {
       pressureKpa: "12",
       humidityPercent: "wet",
       standard: "NONE",
-      curve: { source: "table", torqueUnit: "N·m", rows: [{ rpm: "4000", torque: "x" }, { rpm: "5000", torque: "80" }] },
+      curve: {
+        source: "table",
+        torqueUnit: "N·m",
+        rows: [
+          { rpm: "4000", torque: "x" },
+          { rpm: "5000", torque: "80" },
+        ],
+      },
     });
     if (r.ok) throw new Error("should fail");
     expect(r.fieldErrors.label).toMatch(/Name the run/);

@@ -79,7 +79,15 @@ describe("peaks", () => {
     expectWithin(c.peaks.correctedPowerKw.value, 75.398, 0.0005);
   });
   it("a tie keeps the lower rpm (our rule)", () => {
-    expect(peakOf([{ rpm: 1, v: 5 }, { rpm: 2, v: 5 }], (p) => p.v)).toEqual({ value: 5, rpm: 1 });
+    expect(
+      peakOf(
+        [
+          { rpm: 1, v: 5 },
+          { rpm: 2, v: 5 },
+        ],
+        (p) => p.v,
+      ),
+    ).toEqual({ value: 5, rpm: 1 });
   });
 });
 

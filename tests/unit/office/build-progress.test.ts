@@ -29,7 +29,9 @@ describe("stage state for the office", () => {
     // Sent back: the bench drops the sign-off until the reopened steps are redone and signed again.
     expect(stageState(stage({ steps: [step(true), step(false)], decision: { decision: "sent_back", reason: "gap" } }))).toBe("sent_back");
     // Redone and signed off again after a send-back: back with the supervisor.
-    expect(stageState(stage({ steps: [step(true)], signedOff: signed, decision: { decision: "sent_back", reason: "gap" } }))).toBe("waiting_review");
+    expect(stageState(stage({ steps: [step(true)], signedOff: signed, decision: { decision: "sent_back", reason: "gap" } }))).toBe(
+      "waiting_review",
+    );
   });
 });
 
@@ -37,7 +39,11 @@ describe("build progress", () => {
   it("adds up steps and current readings out of tolerance, and keeps the send-back reason", () => {
     const p = buildProgress(
       [
-        stage({ key: "measure", steps: [step(true, ["in", "high"]), step(false, ["low"])], decision: { decision: "sent_back", reason: "ring gap" } }),
+        stage({
+          key: "measure",
+          steps: [step(true, ["in", "high"]), step(false, ["low"])],
+          decision: { decision: "sent_back", reason: "ring gap" },
+        }),
         stage({ key: "assemble", steps: [step(false), step(false), step(false)] }),
       ],
       "in_build",

@@ -15,11 +15,15 @@ describe("how much work a spec asks for", () => {
   it("counts torque passes as the tablet walks them: one pass at the final value when none are listed, then the angle passes", () => {
     expect(torquePassCount({ finalValue: 45, unit: "N·m", passes: [], anglePasses: [] })).toBe(1);
     expect(torquePassCount({ finalValue: 45, unit: "N·m", passes: [], anglePasses: [90, 90] })).toBe(3);
-    expect(torquePassCount({ finalValue: 45, unit: "N·m", passes: [{ percent: 30 }, { percent: 60 }, { percent: 100 }], anglePasses: [90] })).toBe(4);
+    expect(
+      torquePassCount({ finalValue: 45, unit: "N·m", passes: [{ percent: 30 }, { percent: 60 }, { percent: 100 }], anglePasses: [90] }),
+    ).toBe(4);
   });
 
   it("agrees with the tablet's pass list for every torque spec of the demo templates", () => {
-    const specs = DEMO_TEMPLATES.flatMap((t) => t.stages.flatMap((s) => s.steps.flatMap((st) => (st.torque ?? []).map((spec) => torqueSpecSchema.parse(spec)))));
+    const specs = DEMO_TEMPLATES.flatMap((t) =>
+      t.stages.flatMap((s) => s.steps.flatMap((st) => (st.torque ?? []).map((spec) => torqueSpecSchema.parse(spec)))),
+    );
     expect(specs.length).toBeGreaterThan(0);
     for (const t of specs) expect(torquePassCount(t)).toBe(torqueStages(t).length);
   });

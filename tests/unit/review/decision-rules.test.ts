@@ -2,7 +2,15 @@ import { describe, expect, it } from "vitest";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { checkDecision, type DecisionFacts } from "@/lib/review/decision-rules";
 
-const ids = { sup: "00000000-0000-4000-8000-000000000001", mech: "00000000-0000-4000-8000-000000000002", so: "00000000-0000-4000-8000-0000000000a1", s1: "00000000-0000-4000-8000-0000000000b1", s2: "00000000-0000-4000-8000-0000000000b2", r1: "00000000-0000-4000-8000-0000000000c1", d1: "00000000-0000-4000-8000-0000000000d1" };
+const ids = {
+  sup: "00000000-0000-4000-8000-000000000001",
+  mech: "00000000-0000-4000-8000-000000000002",
+  so: "00000000-0000-4000-8000-0000000000a1",
+  s1: "00000000-0000-4000-8000-0000000000b1",
+  s2: "00000000-0000-4000-8000-0000000000b2",
+  r1: "00000000-0000-4000-8000-0000000000c1",
+  d1: "00000000-0000-4000-8000-0000000000d1",
+};
 
 const facts = (over: Partial<DecisionFacts> = {}): DecisionFacts => ({
   actor: { id: ids.sup, role: "supervisor" },
@@ -10,46 +18,95 @@ const facts = (over: Partial<DecisionFacts> = {}): DecisionFacts => ({
   job: { number: 1006, closed: false },
   latestSignOffId: ids.so,
   latestDecisionId: null,
-  stageSteps: [{ id: ids.s1, title: "Bore" }, { id: ids.s2, title: "Ring gap" }],
+  stageSteps: [
+    { id: ids.s1, title: "Bore" },
+    { id: ids.s2, title: "Ring gap" },
+  ],
   outOfTolerance: [{ readingId: ids.r1, description: "Top ring gap, Cyl 2: 0.5 mm (high)", accepted: false }],
   ...over,
 });
 const input = (v: unknown) => decisionInputSchema.parse(v);
-const approve = (acceptances: unknown[] = [], expectedDecisionId: string | null = null) => input({ decision: "approved", expectedDecisionId, acceptances });
-const sendBack = (reopenStepIds: string[]) => input({ decision: "sent_back", expectedDecisionId: null, reason: "Regap cylinder 2", reopenStepIds });
+const approve = (acceptances: unknown[] = [], expectedDecisionId: string | null = null) =>
+  input({ decision: "approved", expectedDecisionId, acceptances });
+const sendBack = (reopenStepIds: string[]) =>
+  input({ decision: "sent_back", expectedDecisionId: null, reason: "Regap cylinder 2", reopenStepIds });
 const why = "Ring maker allows 0.50 mm for this bore size";
 
 describe("checkDecision", () => {
   it("refuses roles that may not decide, and the one who signed off — whatever their role", () => {
     expect(checkDecision(facts({ actor: { id: ids.sup, role: "mechanic" } }), approve())).toMatchObject({ ok: false, status: 403 });
-    expect(checkDecision(facts({ actor: { id: ids.mech, role: "supervisor" } }), approve([{ readingId: ids.r1, justification: why }]))).toMatchObject({ ok: false, status: 403, reason: expect.stringMatching(/yourself/) });
-    expect(checkDecision(facts({ actor: { id: ids.mech, role: "office" } }), approve([{ readingId: ids.r1, justification: why }]))).toMatchObject({ ok: false, status: 403 });
+    expect(
+      checkDecision(facts({ actor: { id: ids.mech, role: "supervisor" } }), approve([{ readingId: ids.r1, justification: why }])),
+    ).toMatchObject({ ok: false, status: 403, reason: expect.stringMatching(/yourself/) });
+    expect(
+      checkDecision(facts({ actor: { id: ids.mech, role: "office" } }), approve([{ readingId: ids.r1, justification: why }])),
+    ).toMatchObject({ ok: false, status: 403 });
   });
 
   it("decides only on the newest sign-off of the stage, and only knowing the standing decision", () => {
-    expect(checkDecision(facts({ latestSignOffId: ids.s1 }), sendBack([ids.s2]))).toMatchObject({ ok: false, status: 409, reason: expect.stringMatching(/signed off again/) });
+    expect(checkDecision(facts({ latestSignOffId: ids.s1 }), sendBack([ids.s2]))).toMatchObject({
+      ok: false,
+      status: 409,
+      reason: expect.stringMatching(/signed off again/),
+    });
     expect(checkDecision(facts({ latestDecisionId: ids.d1 }), sendBack([ids.s2]))).toMatchObject({ ok: false, status: 409 });
-    expect(checkDecision(facts({ latestDecisionId: ids.d1 }), approve([{ readingId: ids.r1, justification: why }], ids.d1))).toEqual({ ok: true, reopenStepIds: [] });
+    expect(checkDecision(facts({ latestDecisionId: ids.d1 }), approve([{ readingId: ids.r1, justification: why }], ids.d1))).toEqual({
+      ok: true,
+      reopenStepIds: [],
+    });
   });
 
   it("approves only when every reading out of tolerance is let stand with a reason", () => {
     const r = checkDecision(facts(), approve());
-    expect(r).toEqual({ ok: false, status: 422, reason: "Top ring gap, Cyl 2: 0.5 mm (high) is out of tolerance: accept it with a written reason, or send the step back.", issues: [{ path: `reading.${ids.r1}`, message: expect.any(String) }] });
+    expect(r).toEqual({
+      ok: false,
+      status: 422,
+      reason: "Top ring gap, Cyl 2: 0.5 mm (high) is out of tolerance: accept it with a written reason, or send the step back.",
+      issues: [{ path: `reading.${ids.r1}`, message: expect.any(String) }],
+    });
     expect(checkDecision(facts(), approve([{ readingId: ids.r1, justification: why }]))).toEqual({ ok: true, reopenStepIds: [] });
-    expect(checkDecision(facts({ outOfTolerance: [{ readingId: ids.r1, description: "x", accepted: true }] }), approve())).toEqual({ ok: true, reopenStepIds: [] });
+    expect(checkDecision(facts({ outOfTolerance: [{ readingId: ids.r1, description: "x", accepted: true }] }), approve())).toEqual({
+      ok: true,
+      reopenStepIds: [],
+    });
   });
 
   it("refuses acceptances of readings that are not open out-of-tolerance readings of the stage", () => {
     const other = "00000000-0000-4000-8000-0000000000c9";
-    expect(checkDecision(facts(), approve([{ readingId: ids.r1, justification: why }, { readingId: other, justification: why }]))).toMatchObject({ ok: false, status: 422, issues: [{ path: "acceptances.1.readingId" }] });
-    expect(checkDecision(facts({ outOfTolerance: [{ readingId: ids.r1, description: "x", accepted: true }] }), approve([{ readingId: ids.r1, justification: why }]))).toMatchObject({ ok: false, issues: [{ message: "x was already accepted." }] });
-    expect(checkDecision(facts(), approve([{ readingId: ids.r1, justification: why }, { readingId: ids.r1, justification: why }]))).toMatchObject({ ok: false, issues: [{ path: "acceptances.1.readingId" }] });
+    expect(
+      checkDecision(
+        facts(),
+        approve([
+          { readingId: ids.r1, justification: why },
+          { readingId: other, justification: why },
+        ]),
+      ),
+    ).toMatchObject({ ok: false, status: 422, issues: [{ path: "acceptances.1.readingId" }] });
+    expect(
+      checkDecision(
+        facts({ outOfTolerance: [{ readingId: ids.r1, description: "x", accepted: true }] }),
+        approve([{ readingId: ids.r1, justification: why }]),
+      ),
+    ).toMatchObject({ ok: false, issues: [{ message: "x was already accepted." }] });
+    expect(
+      checkDecision(
+        facts(),
+        approve([
+          { readingId: ids.r1, justification: why },
+          { readingId: ids.r1, justification: why },
+        ]),
+      ),
+    ).toMatchObject({ ok: false, issues: [{ path: "acceptances.1.readingId" }] });
   });
 
   it("sends back only steps of the stage, each once; not on a closed job", () => {
     expect(checkDecision(facts(), sendBack([ids.s2, ids.s2]))).toEqual({ ok: true, reopenStepIds: [ids.s2] });
     expect(checkDecision(facts(), sendBack([ids.r1]))).toMatchObject({ ok: false, status: 422, issues: [{ path: "reopenStepIds.0" }] });
-    expect(checkDecision(facts({ job: { number: 1005, closed: true } }), sendBack([ids.s1]))).toMatchObject({ ok: false, status: 409, reason: "Work order #1005 is closed: nothing on it can be reopened." });
+    expect(checkDecision(facts({ job: { number: 1005, closed: true } }), sendBack([ids.s1]))).toMatchObject({
+      ok: false,
+      status: 409,
+      reason: "Work order #1005 is closed: nothing on it can be reopened.",
+    });
   });
 });
 
@@ -61,8 +118,12 @@ describe("decisionInputSchema", () => {
       ["reason", "Say why it goes back (at least 5 characters); the mechanic sees this on the step."],
       ["reopenStepIds", "Choose at least one step to reopen."],
     ]);
-    expect(decisionInputSchema.safeParse({ decision: "approved", expectedDecisionId: null, acceptances: [{ readingId: ids.r1, justification: "   fine    " }] }).error?.issues[0].message).toBe(
-      "Write at least 10 characters: why may this reading stand?",
-    );
+    expect(
+      decisionInputSchema.safeParse({
+        decision: "approved",
+        expectedDecisionId: null,
+        acceptances: [{ readingId: ids.r1, justification: "   fine    " }],
+      }).error?.issues[0].message,
+    ).toBe("Write at least 10 characters: why may this reading stand?");
   });
 });

@@ -30,12 +30,25 @@ function routeFiles(dir: string): string[] {
 
 /** The public routes and the check each makes instead of a session, looked for in its code. */
 const PUBLIC: Record<string, { check: string; mustContain: Array<{ file: string; text: string }> }> = {
-  "app/api/auth/[...nextauth]/route.ts": { check: "next-auth", mustContain: [{ file: "app/api/auth/[...nextauth]/route.ts", text: "NextAuth(authOptions)" }] },
-  "app/api/payments/webhook/route.ts": { check: "payment-signature", mustContain: [{ file: "app/_server/payment-webhook.ts", text: "verifyPaymentWebhook(rawBody, signature" }] },
+  "app/api/auth/[...nextauth]/route.ts": {
+    check: "next-auth",
+    mustContain: [{ file: "app/api/auth/[...nextauth]/route.ts", text: "NextAuth(authOptions)" }],
+  },
+  "app/api/payments/webhook/route.ts": {
+    check: "payment-signature",
+    mustContain: [{ file: "app/_server/payment-webhook.ts", text: "verifyPaymentWebhook(rawBody, signature" }],
+  },
 };
 
 const noDb = {} as Db; // never used: every call below is refused before a query
-const userWith = (role: Role): SessionUser => ({ id: "00000000-0000-4000-8000-000000000001", shopId: "00000000-0000-4000-8000-000000000002", role, name: "Test", email: "t@example.test", customerId: null });
+const userWith = (role: Role): SessionUser => ({
+  id: "00000000-0000-4000-8000-000000000001",
+  shopId: "00000000-0000-4000-8000-000000000002",
+  role,
+  name: "Test",
+  email: "t@example.test",
+  customerId: null,
+});
 
 function rolesAllowed(h: RouteHandler<unknown>): Role[] {
   const access = h.rule.access;
@@ -57,7 +70,9 @@ describe("every route handler goes through the route wrapper", () => {
       it("exports only wrapped handlers, one for each method in its code", async () => {
         const mod = (await import(path.join(root, file))) as Record<string, unknown>;
         const code = readFileSync(path.join(root, file), "utf8");
-        const named = METHODS.filter((m) => new RegExp(`export\\s+(?:const|let|async\\s+function|function)\\s+${m}\\b|\\bas\\s+${m}\\b`).test(code));
+        const named = METHODS.filter((m) =>
+          new RegExp(`export\\s+(?:const|let|async\\s+function|function)\\s+${m}\\b|\\bas\\s+${m}\\b`).test(code),
+        );
         const exported = METHODS.filter((m) => m in mod);
         expect(exported.length, "exports at least one handler").toBeGreaterThan(0);
         expect(exported).toEqual(named);
@@ -85,7 +100,11 @@ describe("every route handler goes through the route wrapper", () => {
           const outsider = ROLES.find((r) => !rolesAllowed(h).includes(r));
           if (!outsider) continue;
           const refused = await h.handle(req(), { user: userWith(outsider), db: noDb, params: { id: "x" } });
-          expect([m, refused.status, await refused.json()]).toEqual([m, 403, { error: `Your role (${outsider}) may not use this.`, issues: [] }]);
+          expect([m, refused.status, await refused.json()]).toEqual([
+            m,
+            403,
+            { error: `Your role (${outsider}) may not use this.`, issues: [] },
+          ]);
         }
       });
 
@@ -96,12 +115,21 @@ describe("every route handler goes through the route wrapper", () => {
           const user = userWith(rolesAllowed(h)[0]);
           const opts = { user, db: noDb, params: { id: "00000000-0000-4000-8000-000000000003" } };
           if (h.rule.check !== "payment-signature") {
-            for (const headers of [{}, { origin: "https://elsewhere.example" }, { "sec-fetch-site": "cross-site" }] as Record<string, string>[]) {
-              const res = await h.handle(new Request(`${ORIGIN}/x`, { method: m, headers: { "content-type": "application/json", ...headers }, body: "{}" }), opts);
+            for (const headers of [{}, { origin: "https://elsewhere.example" }, { "sec-fetch-site": "cross-site" }] as Record<
+              string,
+              string
+            >[]) {
+              const res = await h.handle(
+                new Request(`${ORIGIN}/x`, { method: m, headers: { "content-type": "application/json", ...headers }, body: "{}" }),
+                opts,
+              );
               expect([m, res.status, await res.json()]).toEqual([m, 403, { error: NOT_FROM_OUR_PAGES, issues: [] }]);
             }
           }
-          const plain = await h.handle(new Request(`${ORIGIN}/x`, { method: m, headers: { origin: ORIGIN, "content-type": "text/plain" }, body: "x" }), opts);
+          const plain = await h.handle(
+            new Request(`${ORIGIN}/x`, { method: m, headers: { origin: ORIGIN, "content-type": "text/plain" }, body: "x" }),
+            opts,
+          );
           expect([m, plain.status], `${m} refuses a text/plain body`).toEqual([m, 415]);
           expect((await plain.json()).issues).toEqual([]);
         }

@@ -54,7 +54,10 @@ describe("reading a body within its limit", () => {
 
   it("refuses a declared length over the limit before reading", async () => {
     const req = new Request("http://x/", { method: "POST", headers: { "content-length": "5001" }, body: "x" });
-    await expect(readLimited(req, { maxBytes: 5000, tooLargeHint: "Send less." })).rejects.toMatchObject({ status: 413, message: "The body is 5001 bytes; the limit is 5000 bytes. Send less." });
+    await expect(readLimited(req, { maxBytes: 5000, tooLargeHint: "Send less." })).rejects.toMatchObject({
+      status: 413,
+      message: "The body is 5001 bytes; the limit is 5000 bytes. Send less.",
+    });
   });
 
   it("stops a streamed body as soon as it passes the limit, whatever the headers say", async () => {
@@ -67,7 +70,16 @@ describe("reading a body within its limit", () => {
 describe("which errors are the database failing", () => {
   it("counts lost connections, shutdowns, exhausted resources and lost transaction races", () => {
     const coded = (code: string) => Object.assign(new Error("x"), { code });
-    for (const e of [coded("ECONNREFUSED"), coded("57P01"), coded("08006"), coded("53300"), coded("40001"), coded("40P01"), new Error("Connection terminated unexpectedly"), new Error("timeout exceeded when trying to connect")]) {
+    for (const e of [
+      coded("ECONNREFUSED"),
+      coded("57P01"),
+      coded("08006"),
+      coded("53300"),
+      coded("40001"),
+      coded("40P01"),
+      new Error("Connection terminated unexpectedly"),
+      new Error("timeout exceeded when trying to connect"),
+    ]) {
       expect(isDatabaseFailure(e), String((e as { code?: string }).code ?? e.message)).toBe(true);
     }
     expect(isDatabaseFailure(new AggregateError([coded("ECONNREFUSED")], "connect"))).toBe(true);
@@ -76,7 +88,15 @@ describe("which errors are the database failing", () => {
 
   it("does not count our own mistakes: constraint and data errors, refusals, plain bugs", () => {
     const coded = (code: string) => Object.assign(new Error("x"), { code });
-    for (const e of [coded("23505"), coded("22P02"), coded("42P01"), new Refusal("no"), new TypeError("undefined is not a function"), null, "text"]) {
+    for (const e of [
+      coded("23505"),
+      coded("22P02"),
+      coded("42P01"),
+      new Refusal("no"),
+      new TypeError("undefined is not a function"),
+      null,
+      "text",
+    ]) {
       expect(isDatabaseFailure(e)).toBe(false);
     }
   });

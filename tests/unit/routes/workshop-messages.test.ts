@@ -10,7 +10,11 @@ const ZOD_WORDING = /expected|received|Invalid input|Too big|Too small|<=|>=/;
 
 describe("zod problems in workshop words", () => {
   it("names the field by its label and says the rule", () => {
-    const schema = z.object({ note: z.string().max(4000), odometerKm: z.number().int().min(0), lines: z.array(z.object({ unitPriceMinor: z.number() })).min(1) });
+    const schema = z.object({
+      note: z.string().max(4000),
+      odometerKm: z.number().int().min(0),
+      lines: z.array(z.object({ unitPriceMinor: z.number() })).min(1),
+    });
     const r = checkInput(schema, { note: "x".repeat(4001), odometerKm: Number.NaN, lines: [] });
     expect(r).toEqual({
       ok: false,
@@ -33,7 +37,15 @@ describe("zod problems in workshop words", () => {
       year: z.number().min(1900),
       inletK: z.number(),
     });
-    const r = checkInput(schema, { quantity: 2.5, value: Infinity, unit: "cm", ranOn: "0000-13-45", readingId: "nope", email: "nobody", year: 12 });
+    const r = checkInput(schema, {
+      quantity: 2.5,
+      value: Infinity,
+      unit: "cm",
+      ranOn: "0000-13-45",
+      readingId: "nope",
+      email: "nobody",
+      year: 12,
+    });
     expect(r.ok).toBe(false);
     const messages = r.ok ? [] : r.issues.map((i) => i.message);
     expect(messages).toEqual([
@@ -53,7 +65,11 @@ describe("zod problems in workshop words", () => {
   it("keeps the messages written on the schemas", () => {
     const r = checkInput(customerSchema, { name: "" });
     expect(r).toMatchObject({ ok: false, issues: [{ path: "name", message: "enter the customer's name" }] });
-    const q = checkInput(quoteDraftSchema, { lines: [{ kind: "part", description: "Piston", partNumber: "", quantityHundredths: 0, unitPriceMinor: 10 }], depositMinor: 0, note: "n".repeat(2001) });
+    const q = checkInput(quoteDraftSchema, {
+      lines: [{ kind: "part", description: "Piston", partNumber: "", quantityHundredths: 0, unitPriceMinor: 10 }],
+      depositMinor: 0,
+      note: "n".repeat(2001),
+    });
     expect(q.ok ? [] : q.issues).toEqual([
       { path: "lines.0.quantityHundredths", message: "quantity must be more than 0" },
       { path: "note", message: "Note: at most 2000 characters" },

@@ -91,9 +91,7 @@ describe("tick", () => {
         let last = "";
         for (const s of steps) {
           const r =
-            s.type === "local"
-              ? tick(c, s.now)
-              : receive(c, formatStamp({ wallMs: s.wall, counter: s.counter, deviceId: "dev-b" }), s.now);
+            s.type === "local" ? tick(c, s.now) : receive(c, formatStamp({ wallMs: s.wall, counter: s.counter, deviceId: "dev-b" }), s.now);
           if (s.type === "remote") {
             // what follows a received stamp sorts after it
             expect(r.state.wallMs * 1e7 + r.state.counter).toBeGreaterThan(s.wall * 1e7 + s.counter);

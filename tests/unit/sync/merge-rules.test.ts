@@ -115,14 +115,23 @@ describe("who may record work", () => {
 
   it("refuses work on another shop's job and on a job that does not exist", () => {
     const foreign = job({ shopId: randomUUID() });
-    expect(decideOperation(complete(foreign), input(foreign))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("not in your shop") });
+    expect(decideOperation(complete(foreign), input(foreign))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("not in your shop"),
+    });
     const ghost = job();
-    expect(decideOperation(complete(ghost), input(undefined))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("not in your shop") });
+    expect(decideOperation(complete(ghost), input(undefined))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("not in your shop"),
+    });
   });
 
   it("lets a mechanic work their own or an unassigned job, and a supervisor any job of the shop", () => {
     const j = job({ assignedMechanicId: otherMech.id });
-    expect(decideOperation(complete(j), input(j))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("assigned to another mechanic") });
+    expect(decideOperation(complete(j), input(j))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("assigned to another mechanic"),
+    });
     const open = job({ assignedMechanicId: null });
     expect(decideOperation(complete(open), input(open)).outcome).toBe("accept");
     const bySupervisor = complete(j, ids.stepBore, { authorId: supervisor.id });
@@ -177,8 +186,14 @@ describe("what an operation may name", () => {
     const bolt = (passIndex: number, b: number) =>
       op("torque.bolt-confirmed", j, { stepId: ids.stepBolts, torqueSpecId: ids.rodSpec, passIndex, bolt: b });
     expect(decideOperation(bolt(3, 2), input(j)).outcome).toBe("accept");
-    expect(decideOperation(bolt(4, 1), input(j))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("Pass 4 is out of range") });
-    expect(decideOperation(bolt(1, 3), input(j))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("Bolt 3 is out of range") });
+    expect(decideOperation(bolt(4, 1), input(j))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("Pass 4 is out of range"),
+    });
+    expect(decideOperation(bolt(1, 3), input(j))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("Bolt 3 is out of range"),
+    });
   });
 
   it("checks timers: one start per timer, a stop needs a start on the same job and not before it", () => {
@@ -186,26 +201,58 @@ describe("what an operation may name", () => {
     const state = emptyMergeState();
     const timerId = randomUUID();
     const startedAt = new Date(NOW - 3_600_000).toISOString();
-    const start = op("timer.started", j, { timerId, stepId: ids.stepSealant, timerSpecId: ids.sealantTimer, label: "Cure", durationS: 1800, startedAt });
+    const start = op("timer.started", j, {
+      timerId,
+      stepId: ids.stepSealant,
+      timerSpecId: ids.sealantTimer,
+      label: "Cure",
+      durationS: 1800,
+      startedAt,
+    });
     const stop = (at: number) => op("timer.stopped", j, { timerId, stoppedAt: new Date(at).toISOString() });
-    expect(decideOperation(stop(NOW), input(j, { state }))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("not on record") });
+    expect(decideOperation(stop(NOW), input(j, { state }))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("not on record"),
+    });
     expect(decideOperation(start, input(j, { state })).outcome).toBe("accept");
     noteAccepted(start, state);
     expect(decideOperation({ ...start, id: randomUUID() }, input(j, { state }))).toMatchObject({
       outcome: "refuse",
       reason: `Timer ${timerId} is already on record.`,
     });
-    expect(decideOperation(stop(NOW - 7_200_000), input(j, { state }))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("before it started") });
+    expect(decideOperation(stop(NOW - 7_200_000), input(j, { state }))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("before it started"),
+    });
     expect(decideOperation(stop(NOW), input(j, { state })).outcome).toBe("accept");
-    const wrongSpec = op("timer.started", j, { timerId: randomUUID(), stepId: ids.stepBore, timerSpecId: ids.sealantTimer, label: "x", durationS: 5, startedAt });
-    expect(decideOperation(wrongSpec, input(j))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("is not a timer of step") });
+    const wrongSpec = op("timer.started", j, {
+      timerId: randomUUID(),
+      stepId: ids.stepBore,
+      timerSpecId: ids.sealantTimer,
+      label: "x",
+      durationS: 5,
+      startedAt,
+    });
+    expect(decideOperation(wrongSpec, input(j))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("is not a timer of step"),
+    });
   });
 
   it("keeps the earliest stop of a timer, whatever order stops come in", () => {
     const j = job();
     const state = emptyMergeState();
     const timerId = randomUUID();
-    noteAccepted(op("timer.started", j, { timerId, stepId: ids.stepSealant, label: "Cure", durationS: 60, startedAt: new Date(NOW - 10_000).toISOString() }), state);
+    noteAccepted(
+      op("timer.started", j, {
+        timerId,
+        stepId: ids.stepSealant,
+        label: "Cure",
+        durationS: 60,
+        startedAt: new Date(NOW - 10_000).toISOString(),
+      }),
+      state,
+    );
     noteAccepted(op("timer.stopped", j, { timerId, stoppedAt: new Date(NOW - 2_000).toISOString() }), state);
     noteAccepted(op("timer.stopped", j, { timerId, stoppedAt: new Date(NOW - 5_000).toISOString() }), state);
     noteAccepted(op("timer.stopped", j, { timerId, stoppedAt: new Date(NOW - 1_000).toISOString() }), state);
@@ -218,7 +265,10 @@ describe("what an operation may name", () => {
     const photo = op("photo.queued", j, { attachmentId: randomUUID(), stepId: ids.stepBore, contentType: "image/jpeg", byteSize: 2048 });
     expect(decideOperation(photo, input(j, { state })).outcome).toBe("accept");
     noteAccepted(photo, state);
-    expect(decideOperation({ ...photo, id: randomUUID() }, input(j, { state }))).toMatchObject({ outcome: "refuse", reason: expect.stringContaining("already on record") });
+    expect(decideOperation({ ...photo, id: randomUUID() }, input(j, { state }))).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining("already on record"),
+    });
     expect(decideOperation(op("stage.signed-off", j, { jobProcedureId: ids.proc, stageKey: "measure" }), input(j)).outcome).toBe("accept");
     expect(decideOperation(op("stage.signed-off", j, { jobProcedureId: ids.proc, stageKey: "paint" }), input(j))).toMatchObject({
       outcome: "refuse",
@@ -235,14 +285,22 @@ describe("what an operation may name", () => {
 describe("flags: kept, but marked for review", () => {
   it("flags work on a closed job and on a job not open for bench work", () => {
     const closed = job({ status: "handed_over" });
-    expect(decideOperation(complete(closed), input(closed))).toMatchObject({ outcome: "flag", reason: expect.stringContaining("closed (Handed over)") });
+    expect(decideOperation(complete(closed), input(closed))).toMatchObject({
+      outcome: "flag",
+      reason: expect.stringContaining("closed (Handed over)"),
+    });
     const quoted = job({ status: "quoted" });
-    expect(decideOperation(reading(quoted), input(quoted))).toMatchObject({ outcome: "flag", reason: expect.stringContaining("not open for bench work (Quoted)") });
+    expect(decideOperation(reading(quoted), input(quoted))).toMatchObject({
+      outcome: "flag",
+      reason: expect.stringContaining("not open for bench work (Quoted)"),
+    });
   });
 
   it("flags a completion of a sent-back step the tablet had not yet heard of", () => {
     const decidedAtMs = NOW - 30_000;
-    const j = job({ sendBacks: [{ decisionId: randomUUID(), stepIds: [ids.stepBore], seq: 150, decidedAtMs, reason: "Re-measure at room temperature" }] });
+    const j = job({
+      sendBacks: [{ decisionId: randomUUID(), stepIds: [ids.stepBore], seq: 150, decidedAtMs, reason: "Re-measure at room temperature" }],
+    });
     // the tablet's cursor (100) is older than the decision (150)
     expect(decideOperation(complete(j), input(j, { cursor: 100 }))).toMatchObject({
       outcome: "flag",
@@ -259,7 +317,9 @@ describe("flags: kept, but marked for review", () => {
   });
 
   it("flags a sign-off of a stage holding a sent-back step the tablet had not heard of", () => {
-    const j = job({ sendBacks: [{ decisionId: randomUUID(), stepIds: [ids.stepBolts], seq: 150, decidedAtMs: NOW - 30_000, reason: "Bolt 2 not marked" }] });
+    const j = job({
+      sendBacks: [{ decisionId: randomUUID(), stepIds: [ids.stepBolts], seq: 150, decidedAtMs: NOW - 30_000, reason: "Bolt 2 not marked" }],
+    });
     expect(decideOperation(op("stage.signed-off", j, { jobProcedureId: ids.proc, stageKey: "assemble" }), input(j))).toMatchObject({
       outcome: "flag",
       reason: expect.stringContaining("Bolt 2 not marked"),
@@ -269,8 +329,13 @@ describe("flags: kept, but marked for review", () => {
 
   it("flags a stamp from a clock far ahead of the server's", () => {
     const j = job();
-    const ahead = complete(j, ids.stepBore, { stamp: formatStamp({ wallMs: NOW + MAX_CLOCK_AHEAD_MS + 3 * 60_000, counter: 0, deviceId: "tab-1" }) });
-    expect(decideOperation(ahead, input(j))).toMatchObject({ outcome: "flag", reason: expect.stringContaining("min ahead of the server clock") });
+    const ahead = complete(j, ids.stepBore, {
+      stamp: formatStamp({ wallMs: NOW + MAX_CLOCK_AHEAD_MS + 3 * 60_000, counter: 0, deviceId: "tab-1" }),
+    });
+    expect(decideOperation(ahead, input(j))).toMatchObject({
+      outcome: "flag",
+      reason: expect.stringContaining("min ahead of the server clock"),
+    });
   });
 
   it("does not flag refused operations: a refusal wins", () => {

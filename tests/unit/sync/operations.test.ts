@@ -15,13 +15,21 @@ const base = () => ({
 
 describe("operation schema", () => {
   it("keeps a reading's value as sent (no rounding)", () => {
-    const op = { ...base(), kind: "measurement.recorded", payload: { stepId: randomUUID(), specId: randomUUID(), readingIndex: 0, value: 76.00512345678901, unit: "µm" } };
+    const op = {
+      ...base(),
+      kind: "measurement.recorded",
+      payload: { stepId: randomUUID(), specId: randomUUID(), readingIndex: 0, value: 76.00512345678901, unit: "µm" },
+    };
     const parsed = operationSchema.parse(op);
     expect(parsed.kind === "measurement.recorded" && parsed.payload.value).toBe(76.00512345678901);
   });
 
   it("checks the payload against its kind, naming the path", () => {
-    const bad = operationSchema.safeParse({ ...base(), kind: "torque.bolt-confirmed", payload: { stepId: randomUUID(), torqueSpecId: randomUUID(), passIndex: 0, bolt: 1, wrenchReading: 20 } });
+    const bad = operationSchema.safeParse({
+      ...base(),
+      kind: "torque.bolt-confirmed",
+      payload: { stepId: randomUUID(), torqueSpecId: randomUUID(), passIndex: 0, bolt: 1, wrenchReading: 20 },
+    });
     expect(bad.success).toBe(false);
     const paths = bad.error!.issues.map((i) => i.path.join("."));
     expect(paths).toContain("payload.passIndex");
@@ -58,6 +66,9 @@ describe("splitting an outbox", () => {
     const batches = splitIntoBatches(ops, { maxBodyBytes: 256 + size * 4 });
     expect(batches.every((b) => b.length <= 4)).toBe(true);
     expect(batches.flat()).toEqual(ops);
-    for (const b of batches) expect(new TextEncoder().encode(JSON.stringify({ deviceId: "tab-1", cursor: "1", operations: b })).byteLength).toBeLessThanOrEqual(256 + size * 4);
+    for (const b of batches)
+      expect(new TextEncoder().encode(JSON.stringify({ deviceId: "tab-1", cursor: "1", operations: b })).byteLength).toBeLessThanOrEqual(
+        256 + size * 4,
+      );
   });
 });

@@ -8,7 +8,16 @@ import { partSerialOnWorkOrder, serialKey } from "@/lib/sync/parts";
 // The `part.fitted` operation: its payload schema (what a tablet may send, and the messages when
 // not) and its merge rules (step on the job, one row per record id, a repeated serial flagged).
 
-const good = (): { partFittedId: string; stepId: string; partNumber: string; description: string; serial?: string; batch?: string; quantity: number; supplier?: string } => ({
+const good = (): {
+  partFittedId: string;
+  stepId: string;
+  partNumber: string;
+  description: string;
+  serial?: string;
+  batch?: string;
+  quantity: number;
+  supplier?: string;
+} => ({
   partFittedId: randomUUID(),
   stepId: randomUUID(),
   partNumber: "GS-PST-7600",
@@ -33,17 +42,23 @@ describe("part.fitted payload", () => {
 
   it("takes a batch-numbered part with a quantity, and a part with both numbers", () => {
     const { serial: _s, ...noSerial } = good();
-    expect(partFittedPayload.parse({ ...noSerial, partNumber: "HS-10-120", description: "Head stud", batch: "L24-118", quantity: 12 }).quantity).toBe(12);
+    expect(
+      partFittedPayload.parse({ ...noSerial, partNumber: "HS-10-120", description: "Head stud", batch: "L24-118", quantity: 12 }).quantity,
+    ).toBe(12);
     expect(partFittedPayload.parse({ ...good(), batch: "L24-118" }).batch).toBe("L24-118");
   });
 
   it("needs a serial number or a batch number, naming the serial field", () => {
     const { serial: _s, ...neither } = good();
-    expect(issues(neither)).toEqual([["serial", "give the serial number or the batch number (or both), so the record shows which part went in"]]);
+    expect(issues(neither)).toEqual([
+      ["serial", "give the serial number or the batch number (or both), so the record shows which part went in"],
+    ]);
   });
 
   it("keeps a serial-numbered part to quantity 1", () => {
-    expect(issues({ ...good(), quantity: 2 })).toEqual([["quantity", "a serial number names one part: record each serial-numbered part on its own, with quantity 1"]]);
+    expect(issues({ ...good(), quantity: 2 })).toEqual([
+      ["quantity", "a serial number names one part: record each serial-numbered part on its own, with quantity 1"],
+    ]);
   });
 
   it("wants a whole quantity from 1 to 1000", () => {
@@ -69,15 +84,21 @@ describe("part.fitted payload", () => {
 
   it("holds the length limits, counting after the trim", () => {
     expect(partFittedPayload.safeParse({ ...good(), partNumber: "P".repeat(60) }).success).toBe(true);
-    expect(issues({ ...good(), partNumber: "P".repeat(61) })).toEqual([["partNumber", "part number is too long: keep it to 60 characters"]]);
-    expect(issues({ ...good(), description: "d".repeat(201) })).toEqual([["description", "description is too long: keep it to 200 characters"]]);
+    expect(issues({ ...good(), partNumber: "P".repeat(61) })).toEqual([
+      ["partNumber", "part number is too long: keep it to 60 characters"],
+    ]);
+    expect(issues({ ...good(), description: "d".repeat(201) })).toEqual([
+      ["description", "description is too long: keep it to 200 characters"],
+    ]);
     expect(issues({ ...good(), serial: "S".repeat(81) })).toEqual([["serial", "serial number is too long: keep it to 80 characters"]]);
     expect(issues({ ...good(), supplier: "s".repeat(121) })).toEqual([["supplier", "supplier is too long: keep it to 120 characters"]]);
     expect(partFittedPayload.safeParse({ ...good(), serial: ` ${"S".repeat(80)} ` }).success).toBe(true);
   });
 
   it("keeps each text on one line", () => {
-    expect(issues({ ...good(), serial: "GS-0042\nGS-0043" })).toEqual([["serial", "serial number must be on one line (no line breaks or tabs)"]]);
+    expect(issues({ ...good(), serial: "GS-0042\nGS-0043" })).toEqual([
+      ["serial", "serial number must be on one line (no line breaks or tabs)"],
+    ]);
   });
 
   it("refuses ids that are not UUIDs and fields it does not know", () => {
@@ -87,7 +108,14 @@ describe("part.fitted payload", () => {
   });
 
   it("is one of the operation kinds, with the payload path in the issue", () => {
-    const base = { id: randomUUID(), workOrderId: randomUUID(), authorId: randomUUID(), deviceId: "tab-1", deviceTime: "2026-12-02T09:30:00.000Z", stamp: formatStamp({ wallMs: 1_796_000_000_000, counter: 0, deviceId: "tab-1" }) };
+    const base = {
+      id: randomUUID(),
+      workOrderId: randomUUID(),
+      authorId: randomUUID(),
+      deviceId: "tab-1",
+      deviceTime: "2026-12-02T09:30:00.000Z",
+      stamp: formatStamp({ wallMs: 1_796_000_000_000, counter: 0, deviceId: "tab-1" }),
+    };
     expect(operationSchema.parse({ ...base, kind: "part.fitted", payload: good() }).kind).toBe("part.fitted");
     const bad = operationSchema.safeParse({ ...base, kind: "part.fitted", payload: { ...good(), quantity: 0 } });
     expect(bad.error?.issues.map((i) => i.path.join("."))).toEqual(["payload.quantity"]);
@@ -135,13 +163,23 @@ describe("merging part.fitted", () => {
     stamp: formatStamp({ wallMs: NOW, counter: counter++, deviceId: "tab-1" }),
     payload: { ...good(), stepId: stepPistons, ...payload },
   });
-  const input = (j: WorkOrderFacts, state = emptyMergeState(), actor = mech) => ({ actor, batchDeviceId: "tab-1", cursor: 1, nowMs: NOW, job: j, state });
+  const input = (j: WorkOrderFacts, state = emptyMergeState(), actor = mech) => ({
+    actor,
+    batchDeviceId: "tab-1",
+    cursor: 1,
+    nowMs: NOW,
+    job: j,
+    state,
+  });
 
   it("accepts a part at a step of the job, and refuses one at a step that is not", () => {
     const j = job();
     expect(decideOperation(part(j), input(j))).toEqual({ outcome: "accept" });
     const stranger = randomUUID();
-    expect(decideOperation(part(j, { stepId: stranger }), input(j))).toEqual({ outcome: "refuse", reason: `Step ${stranger} is not part of a procedure on work order #42.` });
+    expect(decideOperation(part(j, { stepId: stranger }), input(j))).toEqual({
+      outcome: "refuse",
+      reason: `Step ${stranger} is not part of a procedure on work order #42.`,
+    });
   });
 
   it("refuses a part record id already in use", () => {
@@ -150,7 +188,10 @@ describe("merging part.fitted", () => {
     const first = part(j);
     noteAccepted(first, state);
     const reused = part(j, { partFittedId: first.kind === "part.fitted" ? first.payload.partFittedId : "", serial: "GS-0099" });
-    expect(decideOperation(reused, input(j, state))).toEqual({ outcome: "refuse", reason: expect.stringMatching(/^Part record .* is already on record\.$/) });
+    expect(decideOperation(reused, input(j, state))).toEqual({
+      outcome: "refuse",
+      reason: expect.stringMatching(/^Part record .* is already on record\.$/),
+    });
   });
 
   it("keeps a repeated serial of the same part on the job but flags it, saying where the first went", () => {
@@ -159,7 +200,8 @@ describe("merging part.fitted", () => {
     noteAccepted(part(j, { serial: "GS-0042" }), state);
     expect(decideOperation(part(j, { serial: "gs 0042", stepId: stepRods }), input(j, state))).toEqual({
       outcome: "flag",
-      reason: 'Serial number gs 0042 of part GS-PST-7600 is already recorded on work order #42 at step "Fit pistons to rods": check the part was not recorded twice or fitted twice.',
+      reason:
+        'Serial number gs 0042 of part GS-PST-7600 is already recorded on work order #42 at step "Fit pistons to rods": check the part was not recorded twice or fitted twice.',
     });
     // Another part number with the same serial, or a batch-only part, is not a repeat.
     expect(decideOperation(part(j, { serial: "GS-0042", partNumber: "GS-ROD-130" }), input(j, state)).outcome).toBe("accept");
@@ -170,7 +212,10 @@ describe("merging part.fitted", () => {
     const j = job();
     const state = emptyMergeState();
     state.partSerials.set(partSerialOnWorkOrder(j.id, "GS-PST-7600", "GS-0042"), { stepId: null });
-    expect(decideOperation(part(j), input(j, state))).toMatchObject({ outcome: "flag", reason: expect.stringContaining("already recorded on work order #42: check") });
+    expect(decideOperation(part(j), input(j, state))).toMatchObject({
+      outcome: "flag",
+      reason: expect.stringContaining("already recorded on work order #42: check"),
+    });
     const other = job({ number: 43 });
     expect(decideOperation(part(other), input(other, state)).outcome).toBe("accept");
   });
@@ -181,6 +226,9 @@ describe("merging part.fitted", () => {
     const open = job({ assignedMechanicId: null });
     expect(decideOperation(part(open), input(open)).outcome).toBe("accept");
     const office: Actor = { ...mech, role: "office" };
-    expect(decideOperation(part(open), input(open, emptyMergeState(), office))).toEqual({ outcome: "refuse", reason: "Your role (office) may not record bench work." });
+    expect(decideOperation(part(open), input(open, emptyMergeState(), office))).toEqual({
+      outcome: "refuse",
+      reason: "Your role (office) may not record bench work.",
+    });
   });
 });

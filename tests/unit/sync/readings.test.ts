@@ -3,7 +3,13 @@ import { formatStamp } from "@/lib/sync/hlc";
 import { currentReadings, readingVerdict } from "@/lib/sync/readings";
 
 const s = (wallMs: number, deviceId = "t1") => formatStamp({ wallMs, counter: 0, deviceId });
-const r = (id: string, stamp: string, supersedesId: string | null = null, readingIndex = 0) => ({ id, specId: "bore", readingIndex, stamp, supersedesId });
+const r = (id: string, stamp: string, supersedesId: string | null = null, readingIndex = 0) => ({
+  id,
+  specId: "bore",
+  readingIndex,
+  stamp,
+  supersedesId,
+});
 
 describe("current reading", () => {
   it("is the latest stamp among readings nobody superseded", () => {
@@ -20,7 +26,11 @@ describe("current reading", () => {
 
   it("keeps one current reading per spot", () => {
     const readings = [r("a", s(100), null, 0), r("b", s(100), null, 1), r("c", s(200), null, 1)];
-    expect(currentReadings(readings).map((x) => x.id).sort()).toEqual(["a", "c"]);
+    expect(
+      currentReadings(readings)
+        .map((x) => x.id)
+        .sort(),
+    ).toEqual(["a", "c"]);
   });
 });
 

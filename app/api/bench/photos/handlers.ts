@@ -20,18 +20,33 @@ function photoId(raw: string): string {
 
 /** POST: the bytes of a step photo queued on a tablet (mechanics and supervisors). */
 export function photoUpload(store: PhotoStore) {
-  return route({ access: { area: "bench" }, params: ["id"], body: binary(PHOTO_CONTENT_TYPES, MAX_PHOTO_BYTES) }, async ({ user, params, body, db }) => {
-    const id = photoId(params.id);
-    const row = await findStepPhoto(db, user.shopId, id);
-    if (!row) throw new Refusal(`Photo ${id} is not on record: sync its entry first.`, 404);
-    if (!row.awaitingUpload) return { stored: true, already: true };
-    if (body.type !== row.contentType) throw new Refusal(`The photo was queued as ${row.contentType} but ${body.type || "no type"} was sent.`, 415);
-    if (body.bytes.byteLength !== row.byteSize) throw new Refusal(`The photo was queued as ${row.byteSize} bytes but ${body.bytes.byteLength} arrived.`, 422);
-    await store.put(row.objectKey, Buffer.from(body.bytes), row.contentType);
-    await markPhotoUploaded(db, user.shopId, row.id);
-    await appendAudit(db, [{ shopId: user.shopId, actorId: user.id, action: "photo.uploaded", entity: "attachment", entityId: row.id, outcome: "accepted", detail: { bytes: body.bytes.byteLength } }]);
-    return { stored: true, already: false };
-  });
+  return route(
+    { access: { area: "bench" }, params: ["id"], body: binary(PHOTO_CONTENT_TYPES, MAX_PHOTO_BYTES) },
+    async ({ user, params, body, db }) => {
+      const id = photoId(params.id);
+      const row = await findStepPhoto(db, user.shopId, id);
+      if (!row) throw new Refusal(`Photo ${id} is not on record: sync its entry first.`, 404);
+      if (!row.awaitingUpload) return { stored: true, already: true };
+      if (body.type !== row.contentType)
+        throw new Refusal(`The photo was queued as ${row.contentType} but ${body.type || "no type"} was sent.`, 415);
+      if (body.bytes.byteLength !== row.byteSize)
+        throw new Refusal(`The photo was queued as ${row.byteSize} bytes but ${body.bytes.byteLength} arrived.`, 422);
+      await store.put(row.objectKey, Buffer.from(body.bytes), row.contentType);
+      await markPhotoUploaded(db, user.shopId, row.id);
+      await appendAudit(db, [
+        {
+          shopId: user.shopId,
+          actorId: user.id,
+          action: "photo.uploaded",
+          entity: "attachment",
+          entityId: row.id,
+          outcome: "accepted",
+          detail: { bytes: body.bytes.byteLength },
+        },
+      ]);
+      return { stored: true, already: false };
+    },
+  );
 }
 
 /** GET: the photo, for the bench and for review. */

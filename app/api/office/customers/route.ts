@@ -11,4 +11,6 @@ export const GET = route({ access: { area: "office" }, query: customerPageSchema
   return { customers: rows, total, page: query.page, size: query.size };
 });
 
-export const POST = route({ access: { area: "office" }, body: json(customerSchema) }, async ({ user, body, db }) => created(await createCustomer(db, user.shopId, body)));
+export const POST = route({ access: { area: "office" }, body: json(customerSchema) }, async ({ user, body, db }) =>
+  created(await createCustomer(db, user.shopId, body)),
+);

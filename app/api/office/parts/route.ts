@@ -8,4 +8,6 @@ const query = z.object({
 });
 
 // Which bikes got batch (or serial, or part number) X.
-export const GET = route({ access: { area: "office" }, query }, async ({ user, query, db }) => ({ fittings: await bikesWithPart(db, user.shopId, query.code, query.field) }));
+export const GET = route({ access: { area: "office" }, query }, async ({ user, query, db }) => ({
+  fittings: await bikesWithPart(db, user.shopId, query.code, query.field),
+}));

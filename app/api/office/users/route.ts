@@ -7,6 +7,16 @@ export const GET = route({ access: { area: "users" } }, async ({ user, db }) => 
 
 export const POST = route({ access: { area: "users" }, body: json(newUserSchema) }, async ({ user, body, db }) => {
   const made = await createShopUser(db, user.shopId, body);
-  await appendAudit(db, [{ shopId: user.shopId, actorId: user.id, action: "user.created", entity: "user", entityId: made.id, outcome: "accepted", detail: { role: body.role } }]);
+  await appendAudit(db, [
+    {
+      shopId: user.shopId,
+      actorId: user.id,
+      action: "user.created",
+      entity: "user",
+      entityId: made.id,
+      outcome: "accepted",
+      detail: { role: body.role },
+    },
+  ]);
   return created(made);
 });

@@ -11,13 +11,22 @@ export const GET = route({ access: { area: "office" }, query: pageQuerySchema },
 });
 
 export const POST = route({ access: { area: "office" }, body: multipart(MAX_PHOTO_FORM_BYTES) }, async ({ user, body: form, db }) => {
-  const input = intakeSchema.parse({ bikeId: form.get("bikeId"), title: form.get("title"), complaint: form.get("complaint"), odometerKm: form.get("odometerKm") });
+  const input = intakeSchema.parse({
+    bikeId: form.get("bikeId"),
+    title: form.get("title"),
+    complaint: form.get("complaint"),
+    odometerKm: form.get("odometerKm"),
+  });
   const photos = filesOf(form);
   checkPhotos(photos);
   const wo = await bookIn(db, user.shopId, user.id, input);
   let warning: string | undefined;
   try {
-    await storePhotos(db, { shopId: user.shopId, userId: user.id, workOrderId: wo.id, bikeId: input.bikeId, noteId: wo.intakeNoteId, purpose: "intake" }, photos);
+    await storePhotos(
+      db,
+      { shopId: user.shopId, userId: user.id, workOrderId: wo.id, bikeId: input.bikeId, noteId: wo.intakeNoteId, purpose: "intake" },
+      photos,
+    );
   } catch (e) {
     warning = `The work order is saved, but the photos could not be stored (${(e as Error).message}). Add them again from the work order.`;
   }

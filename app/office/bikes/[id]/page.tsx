@@ -34,7 +34,15 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
           </h1>
           <dl className="mt-3 grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-lg">
             <dt className="font-bold">Owner</dt>
-            <dd>{office ? <Link className="underline" href={`/office/customers/${bike.customerId}`}>{bike.customerName}</Link> : bike.customerName}</dd>
+            <dd>
+              {office ? (
+                <Link className="underline" href={`/office/customers/${bike.customerId}`}>
+                  {bike.customerName}
+                </Link>
+              ) : (
+                bike.customerName
+              )}
+            </dd>
             {contact && (
               <>
                 <dt className="font-bold">E-mail</dt>
@@ -44,7 +52,9 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
               </>
             )}
             <dt className="font-bold">Engine</dt>
-            <dd>{bike.displacementCc ? `${bike.displacementCc} cc` : "—"} {bike.engineNumber ? `· no. ${bike.engineNumber}` : ""}</dd>
+            <dd>
+              {bike.displacementCc ? `${bike.displacementCc} cc` : "—"} {bike.engineNumber ? `· no. ${bike.engineNumber}` : ""}
+            </dd>
             <dt className="font-bold">VIN</dt>
             <dd className="font-mono">{bike.vin ?? "—"}</dd>
             <dt className="font-bold">Colour</dt>
@@ -52,10 +62,16 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
           </dl>
           {office && (
             <p className="mt-4 flex flex-wrap gap-3">
-              <Link href={`/office/work-orders/new?bike=${bike.id}`} className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 font-bold text-white">
+              <Link
+                href={`/office/work-orders/new?bike=${bike.id}`}
+                className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 font-bold text-white"
+              >
                 Book this bike in
               </Link>
-              <Link href={`/office/labels?bike=${bike.id}`} className="flex min-h-12 items-center rounded-lg border-2 border-steel-700 px-4 font-bold">
+              <Link
+                href={`/office/labels?bike=${bike.id}`}
+                className="flex min-h-12 items-center rounded-lg border-2 border-steel-700 px-4 font-bold"
+              >
                 Print its tag label
               </Link>
             </p>
@@ -71,7 +87,13 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
           {workOrders.map((w) => (
             <li key={w.id} className="flex flex-wrap items-center gap-3 text-lg" data-testid="bike-work-order">
               <span className="font-mono font-bold">#{w.number}</span>
-              {office ? <Link className="underline" href={`/office/work-orders/${w.id}`}>{w.title}</Link> : w.title}
+              {office ? (
+                <Link className="underline" href={`/office/work-orders/${w.id}`}>
+                  {w.title}
+                </Link>
+              ) : (
+                w.title
+              )}
               <StatusBadge status={w.status} />
               <span className="text-steel-700">
                 booked in {day(w.createdAt)}
@@ -106,7 +128,9 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
                     {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description}
                   </td>
                   <td className="py-1 pr-3">{p.supplier || "—"}</td>
-                  <td className="py-1 pr-3 font-mono">{[p.serial && `S ${p.serial}`, p.batch && `B ${p.batch}`].filter(Boolean).join(" · ") || "—"}</td>
+                  <td className="py-1 pr-3 font-mono">
+                    {[p.serial && `S ${p.serial}`, p.batch && `B ${p.batch}`].filter(Boolean).join(" · ") || "—"}
+                  </td>
                   <td className="py-1 pr-3">{p.stepTitle ?? "—"}</td>
                   <td className="py-1 pr-3">{day(p.fittedAt)}</td>
                 </tr>
@@ -145,7 +169,8 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
                     {m.min}–{m.max}
                   </td>
                   <td className="py-1 pr-3 font-bold">
-                    {VERDICT[m.verdict]} {m.superseded && <span className="font-normal text-steel-700">(corrected by a later reading)</span>}
+                    {VERDICT[m.verdict]}{" "}
+                    {m.superseded && <span className="font-normal text-steel-700">(corrected by a later reading)</span>}
                   </td>
                 </tr>
               ))}

@@ -29,12 +29,19 @@ export default async function CustomerPage({ params }: { params: Promise<{ id: s
         {c.bikes.length === 0 && <p className="mt-2">No bikes yet.</p>}
         <ul className="mt-3 grid gap-3 md:grid-cols-2">
           {c.bikes.map((b) => (
-            <li key={b.id} className="flex flex-wrap items-center gap-3 rounded-xl border-2 border-steel-700 bg-white p-4" data-testid="customer-bike">
+            <li
+              key={b.id}
+              className="flex flex-wrap items-center gap-3 rounded-xl border-2 border-steel-700 bg-white p-4"
+              data-testid="customer-bike"
+            >
               <Link href={`/office/bikes/${b.id}`} className="text-xl font-bold underline">
                 {b.make} {b.model} {b.year ? `(${b.year})` : ""}
               </Link>
               <span className="font-mono">{b.tagCode}</span>
-              <Link href={`/office/work-orders/new?bike=${b.id}`} className="ml-auto flex min-h-12 items-center rounded-lg border-2 border-steel-700 px-3 font-bold">
+              <Link
+                href={`/office/work-orders/new?bike=${b.id}`}
+                className="ml-auto flex min-h-12 items-center rounded-lg border-2 border-steel-700 px-3 font-bold"
+              >
                 Book in
               </Link>
             </li>

@@ -28,7 +28,13 @@ export function CustomerForm({ customerId, initial }: { customerId?: string; ini
     });
   }
 
-  const f = (name: keyof Values) => ({ id: name, name, defaultValue: initial?.[name] ?? "", "aria-invalid": Boolean(errors[name]), "aria-describedby": errors[name] ? `${name}-error` : undefined });
+  const f = (name: keyof Values) => ({
+    id: name,
+    name,
+    defaultValue: initial?.[name] ?? "",
+    "aria-invalid": Boolean(errors[name]),
+    "aria-describedby": errors[name] ? `${name}-error` : undefined,
+  });
   return (
     <form onSubmit={onSubmit} noValidate className="grid max-w-2xl gap-4" data-testid="customer-form">
       <Field label="Name" name="name" error={errors.name}>

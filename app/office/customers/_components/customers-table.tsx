@@ -11,12 +11,29 @@ import { DataTable } from "@/app/ui/data-table";
 type Row = Wire<ReplyOf<typeof GET>>["customers"][number];
 
 const columns: ColumnDef<Row, unknown>[] = [
-  { id: "name", header: "Name", cell: ({ row }) => <Link className="font-bold underline" href={`/office/customers/${row.original.id}`}>{row.original.name}</Link> },
+  {
+    id: "name",
+    header: "Name",
+    cell: ({ row }) => (
+      <Link className="font-bold underline" href={`/office/customers/${row.original.id}`}>
+        {row.original.name}
+      </Link>
+    ),
+  },
   { id: "email", header: "E-mail", enableSorting: false, cell: ({ row }) => row.original.email ?? "—" },
   { id: "phone", header: "Phone", enableSorting: false, cell: ({ row }) => row.original.phone ?? "—" },
   { id: "bikes", header: "Bikes", cell: ({ row }) => row.original.bikeCount },
 ];
 
 export function CustomersTable() {
-  return <DataTable<Row> endpoint="/api/office/customers" rowsKey="customers" columns={columns} initialSort={[{ id: "name", desc: false }]} searchLabel="Search name, e-mail, phone or tag" testId="customers-table" />;
+  return (
+    <DataTable<Row>
+      endpoint="/api/office/customers"
+      rowsKey="customers"
+      columns={columns}
+      initialSort={[{ id: "name", desc: false }]}
+      searchLabel="Search name, e-mail, phone or tag"
+      testId="customers-table"
+    />
+  );
 }

@@ -32,7 +32,8 @@ export function PartsSearch() {
   const q = useQuery({
     queryKey: ["parts", asked],
     enabled: Boolean(asked),
-    queryFn: () => api<{ fittings: Fitting[] }>("GET", `/api/office/parts?${new URLSearchParams({ field: asked!.field, code: asked!.code })}`),
+    queryFn: () =>
+      api<{ fittings: Fitting[] }>("GET", `/api/office/parts?${new URLSearchParams({ field: asked!.field, code: asked!.code })}`),
   });
   function onSubmit(e: FormEvent) {
     e.preventDefault();
@@ -58,11 +59,16 @@ export function PartsSearch() {
           Find bikes
         </button>
       </form>
-      {q.isError && <p role="alert" className="mt-3 font-bold text-fail">{(q.error as Error).message}</p>}
+      {q.isError && (
+        <p role="alert" className="mt-3 font-bold text-fail">
+          {(q.error as Error).message}
+        </p>
+      )}
       {q.data && (
         <div className="mt-6" data-testid="parts-results">
           <p className="text-lg font-bold">
-            {bikes.size} bike{bikes.size === 1 ? "" : "s"}, {q.data.fittings.length} fitting{q.data.fittings.length === 1 ? "" : "s"} for {asked!.field.replace("_", " ")} “{asked!.code}”
+            {bikes.size} bike{bikes.size === 1 ? "" : "s"}, {q.data.fittings.length} fitting{q.data.fittings.length === 1 ? "" : "s"} for{" "}
+            {asked!.field.replace("_", " ")} “{asked!.code}”
           </p>
           <table className="mt-2 w-full border-collapse text-left">
             <thead>

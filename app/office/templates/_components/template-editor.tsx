@@ -25,7 +25,12 @@ export function TemplateEditor({ initial, isNew }: { initial: Doc; isNew: boolea
     if (mode === "json") {
       const r = readTemplateFile(text);
       if (!r.ok) return { doc: null, problems: r.issues, fieldErrors: {} };
-      if (r.documents.length !== 1) return { doc: null, problems: [{ path: "(file)", message: "the editor saves one template at a time; import a bundle instead" }], fieldErrors: {} };
+      if (r.documents.length !== 1)
+        return {
+          doc: null,
+          problems: [{ path: "(file)", message: "the editor saves one template at a time; import a bundle instead" }],
+          fieldErrors: {},
+        };
       return { doc: r.documents[0], problems: [], fieldErrors: {} };
     }
     const r = templateDocumentSchema.safeParse(doc);
@@ -62,7 +67,12 @@ export function TemplateEditor({ initial, isNew }: { initial: Doc; isNew: boolea
       if (isNew) router.push(`/office/templates/edit?key=${encodeURIComponent(r.key)}`);
       router.refresh();
     } catch (e) {
-      setMessage({ error: e instanceof ApiError && e.issues.length ? `${e.message} ${e.issues.map((i) => `${i.path}: ${i.message}`).join("; ")}` : (e as Error).message });
+      setMessage({
+        error:
+          e instanceof ApiError && e.issues.length
+            ? `${e.message} ${e.issues.map((i) => `${i.path}: ${i.message}`).join("; ")}`
+            : (e as Error).message,
+      });
     } finally {
       setBusy(false);
     }
@@ -70,16 +80,34 @@ export function TemplateEditor({ initial, isNew }: { initial: Doc; isNew: boolea
 
   const d = check.doc;
   const stats = d
-    ? { stages: d.stages.length, steps: d.stages.reduce((n, s) => n + s.steps.length, 0), torque: d.stages.flatMap((s) => s.steps).reduce((n, st) => n + st.torque.length, 0), readings: d.stages.flatMap((s) => s.steps).reduce((n, st) => n + st.measurements.length, 0), timers: d.stages.flatMap((s) => s.steps).filter((st) => st.timer).length }
+    ? {
+        stages: d.stages.length,
+        steps: d.stages.reduce((n, s) => n + s.steps.length, 0),
+        torque: d.stages.flatMap((s) => s.steps).reduce((n, st) => n + st.torque.length, 0),
+        readings: d.stages.flatMap((s) => s.steps).reduce((n, st) => n + st.measurements.length, 0),
+        timers: d.stages.flatMap((s) => s.steps).filter((st) => st.timer).length,
+      }
     : null;
   return (
     <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
       <div>
         <div role="tablist" aria-label="Editor" className="mb-3 flex gap-2">
-          <button type="button" role="tab" aria-selected={mode === "form"} className={mode === "form" ? buttonClass : quietButtonClass} onClick={() => switchTo("form")}>
+          <button
+            type="button"
+            role="tab"
+            aria-selected={mode === "form"}
+            className={mode === "form" ? buttonClass : quietButtonClass}
+            onClick={() => switchTo("form")}
+          >
             Form
           </button>
-          <button type="button" role="tab" aria-selected={mode === "json"} className={mode === "json" ? buttonClass : quietButtonClass} onClick={() => switchTo("json")}>
+          <button
+            type="button"
+            role="tab"
+            aria-selected={mode === "json"}
+            className={mode === "json" ? buttonClass : quietButtonClass}
+            onClick={() => switchTo("json")}
+          >
             JSON
           </button>
         </div>
@@ -88,7 +116,15 @@ export function TemplateEditor({ initial, isNew }: { initial: Doc; isNew: boolea
         ) : (
           <label className="flex flex-col gap-1 font-bold">
             Template document
-            <textarea value={text} onChange={(e) => setText(e.target.value)} spellCheck={false} rows={30} className="rounded-lg border-2 border-steel-700 bg-white p-3 font-mono text-sm font-normal" aria-describedby="template-check" data-testid="template-json" />
+            <textarea
+              value={text}
+              onChange={(e) => setText(e.target.value)}
+              spellCheck={false}
+              rows={30}
+              className="rounded-lg border-2 border-steel-700 bg-white p-3 font-mono text-sm font-normal"
+              aria-describedby="template-check"
+              data-testid="template-json"
+            />
           </label>
         )}
       </div>
@@ -97,7 +133,8 @@ export function TemplateEditor({ initial, isNew }: { initial: Doc; isNew: boolea
           <div className="rounded-lg border-2 border-pass bg-pass-light p-3" data-testid="template-valid">
             <p className="font-bold text-pass">✔ Valid template</p>
             <p>
-              {d.name} · {stats.stages} stages, {stats.steps} steps, {stats.torque} torque specs, {stats.readings} measurement specs, {stats.timers} timers
+              {d.name} · {stats.stages} stages, {stats.steps} steps, {stats.torque} torque specs, {stats.readings} measurement specs,{" "}
+              {stats.timers} timers
             </p>
           </div>
         ) : (
@@ -118,7 +155,9 @@ export function TemplateEditor({ initial, isNew }: { initial: Doc; isNew: boolea
             {isNew ? "Save the template" : "Save as a new version"}
           </button>
         </div>
-        <p className="text-sm">Fields: see “Template format” in the README. Figures in shipped examples are invented; use the maker&apos;s service data.</p>
+        <p className="text-sm">
+          Fields: see “Template format” in the README. Figures in shipped examples are invented; use the maker&apos;s service data.
+        </p>
       </div>
     </div>
   );

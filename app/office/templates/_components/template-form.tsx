@@ -12,7 +12,16 @@ const small = "min-h-11 rounded-lg border-2 border-steel-700 bg-white px-2 text-
 const addBtn = "min-h-11 rounded-lg border-2 border-steel-700 bg-white px-3 font-bold";
 const removeBtn = "min-h-11 rounded-lg border-2 border-fail bg-white px-3 font-bold text-fail";
 
-const newStep = (n: number): Step => ({ key: `step-${n}`, title: "New step", instructions: "", cautions: [], requiresPhoto: false, torque: [], measurements: [], timer: null });
+const newStep = (n: number): Step => ({
+  key: `step-${n}`,
+  title: "New step",
+  instructions: "",
+  cautions: [],
+  requiresPhoto: false,
+  torque: [],
+  measurements: [],
+  timer: null,
+});
 
 // The template as a structured form: stages, steps, cautions, torque specs, measurement specs and
 // timers. Each field shows its own problem from the live schema check (`errors` keyed by path).
@@ -22,9 +31,22 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
   const text = (label: string, path: Path, value: string | undefined, opts: { mono?: boolean; wide?: boolean; area?: boolean } = {}) => (
     <Cell label={label} error={err(path)} wide={opts.wide}>
       {opts.area ? (
-        <textarea aria-label={label} value={value ?? ""} onChange={(e) => set(path, e.target.value)} rows={3} className={`${small} w-full py-1`} aria-invalid={Boolean(err(path))} />
+        <textarea
+          aria-label={label}
+          value={value ?? ""}
+          onChange={(e) => set(path, e.target.value)}
+          rows={3}
+          className={`${small} w-full py-1`}
+          aria-invalid={Boolean(err(path))}
+        />
       ) : (
-        <input aria-label={label} value={value ?? ""} onChange={(e) => set(path, e.target.value)} className={`${small} w-full ${opts.mono ? "font-mono" : ""}`} aria-invalid={Boolean(err(path))} />
+        <input
+          aria-label={label}
+          value={value ?? ""}
+          onChange={(e) => set(path, e.target.value)}
+          className={`${small} w-full ${opts.mono ? "font-mono" : ""}`}
+          aria-invalid={Boolean(err(path))}
+        />
       )}
     </Cell>
   );
@@ -43,7 +65,12 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
   );
   const select = (label: string, path: Path, value: string | null | undefined, options: readonly string[], empty?: string) => (
     <Cell label={label} error={err(path)}>
-      <select aria-label={label} value={value ?? ""} onChange={(e) => set(path, e.target.value === "" ? null : e.target.value)} className={`${small} w-full`}>
+      <select
+        aria-label={label}
+        value={value ?? ""}
+        onChange={(e) => set(path, e.target.value === "" ? null : e.target.value)}
+        className={`${small} w-full`}
+      >
         {empty && <option value="">{empty}</option>}
         {options.map((o) => (
           <option key={o} value={o}>
@@ -62,7 +89,12 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
       </div>
       {text("Summary", ["summary"], doc.summary, { area: true })}
       <label className="flex min-h-11 items-center gap-3 font-bold">
-        <input type="checkbox" className="h-6 w-6" checked={Boolean(doc.exampleOnly)} onChange={(e) => set(["exampleOnly"], e.target.checked)} />
+        <input
+          type="checkbox"
+          className="h-6 w-6"
+          checked={Boolean(doc.exampleOnly)}
+          onChange={(e) => set(["exampleOnly"], e.target.checked)}
+        />
         Example figures only (to be replaced by the maker&apos;s service data)
       </label>
       {doc.stages.map((stage, si) => (
@@ -71,16 +103,33 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
           <div className="grid gap-3 md:grid-cols-[1fr_2fr_auto]">
             {text("Stage key", ["stages", si, "key"], stage.key, { mono: true })}
             {text("Stage title", ["stages", si, "title"], stage.title)}
-            <button type="button" className={`${removeBtn} self-end`} disabled={doc.stages.length === 1} onClick={() => set(["stages"], doc.stages.filter((_, j) => j !== si))}>
+            <button
+              type="button"
+              className={`${removeBtn} self-end`}
+              disabled={doc.stages.length === 1}
+              onClick={() =>
+                set(
+                  ["stages"],
+                  doc.stages.filter((_, j) => j !== si),
+                )
+              }
+            >
               Remove stage
             </button>
           </div>
           {stage.steps.map((step, pi) => {
             const sp: Path = ["stages", si, "steps", pi];
             return (
-              <details key={pi} className="mt-3 rounded-lg border-2 border-steel-300 p-3" open={Boolean(Object.keys(errors).some((k) => k.startsWith(sp.join(".") + ".")))}>
+              <details
+                key={pi}
+                className="mt-3 rounded-lg border-2 border-steel-300 p-3"
+                open={Boolean(Object.keys(errors).some((k) => k.startsWith(sp.join(".") + ".")))}
+              >
                 <summary className="cursor-pointer text-lg font-bold">
-                  Step {pi + 1}: {step.title} {Object.keys(errors).some((k) => k.startsWith(sp.join(".") + ".")) && <span className="text-fail">✖ needs attention</span>}
+                  Step {pi + 1}: {step.title}{" "}
+                  {Object.keys(errors).some((k) => k.startsWith(sp.join(".") + ".")) && (
+                    <span className="text-fail">✖ needs attention</span>
+                  )}
                 </summary>
                 <div className="mt-2 grid gap-3 md:grid-cols-[1fr_2fr]">
                   {text("Step key", [...sp, "key"], step.key, { mono: true })}
@@ -88,38 +137,112 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
                 </div>
                 <div className="mt-2">{text("Instructions", [...sp, "instructions"], step.instructions, { area: true })}</div>
                 <label className="mt-2 flex min-h-11 items-center gap-3 font-bold">
-                  <input type="checkbox" className="h-6 w-6" checked={Boolean(step.requiresPhoto)} onChange={(e) => set([...sp, "requiresPhoto"], e.target.checked)} />
+                  <input
+                    type="checkbox"
+                    className="h-6 w-6"
+                    checked={Boolean(step.requiresPhoto)}
+                    onChange={(e) => set([...sp, "requiresPhoto"], e.target.checked)}
+                  />
                   A photo is required
                 </label>
 
-                <Group title="Cautions" onAdd={() => set([...sp, "cautions"], [...(step.cautions ?? []), { kind: "general", text: "" }])} addLabel="+ Caution">
+                <Group
+                  title="Cautions"
+                  onAdd={() => set([...sp, "cautions"], [...(step.cautions ?? []), { kind: "general", text: "" }])}
+                  addLabel="+ Caution"
+                >
                   {(step.cautions ?? []).map((c, ci) => (
-                    <Row key={ci} onRemove={() => set([...sp, "cautions"], (step.cautions ?? []).filter((_, j) => j !== ci))}>
+                    <Row
+                      key={ci}
+                      onRemove={() =>
+                        set(
+                          [...sp, "cautions"],
+                          (step.cautions ?? []).filter((_, j) => j !== ci),
+                        )
+                      }
+                    >
                       {select("Caution kind", [...sp, "cautions", ci, "kind"], c.kind, CAUTION_KINDS)}
                       {text("Caution text", [...sp, "cautions", ci, "text"], c.text, { wide: true })}
                     </Row>
                   ))}
                 </Group>
 
-                <Group title="Torque specs" onAdd={() => set([...sp, "torque"], [...(step.torque ?? []), { label: "", finalValue: Number.NaN, unit: "N·m", passes: [{ percent: 50 }, { percent: 100 }], anglePasses: [], pattern: "cross", boltCount: 4, lubricant: "", torqueToYield: false }])} addLabel="+ Torque spec">
+                <Group
+                  title="Torque specs"
+                  onAdd={() =>
+                    set(
+                      [...sp, "torque"],
+                      [
+                        ...(step.torque ?? []),
+                        {
+                          label: "",
+                          finalValue: Number.NaN,
+                          unit: "N·m",
+                          passes: [{ percent: 50 }, { percent: 100 }],
+                          anglePasses: [],
+                          pattern: "cross",
+                          boltCount: 4,
+                          lubricant: "",
+                          torqueToYield: false,
+                        },
+                      ],
+                    )
+                  }
+                  addLabel="+ Torque spec"
+                >
                   {(step.torque ?? []).map((t, ti) => {
                     const tp: Path = [...sp, "torque", ti];
                     return (
-                      <Row key={ti} onRemove={() => set([...sp, "torque"], (step.torque ?? []).filter((_, j) => j !== ti))}>
+                      <Row
+                        key={ti}
+                        onRemove={() =>
+                          set(
+                            [...sp, "torque"],
+                            (step.torque ?? []).filter((_, j) => j !== ti),
+                          )
+                        }
+                      >
                         {text("Torque label", [...tp, "label"], t.label)}
                         {num("Final value", [...tp, "finalValue"], t.finalValue)}
                         {select("Unit", [...tp, "unit"], t.unit, ["N·m", "lbf·ft", "lbf·in", "kgf·m"])}
-                        <Cell label="Passes (e.g. 30%, 70%, 100%)" error={err([...tp, "passes"]) ?? Object.entries(errors).find(([k]) => k.startsWith([...tp, "passes"].join(".") + "."))?.[1]}>
-                          <input aria-label="Passes" defaultValue={passesText(t.passes)} onBlur={(e) => set([...tp, "passes"], parsePasses(e.target.value))} className={`${small} w-full font-mono`} />
+                        <Cell
+                          label="Passes (e.g. 30%, 70%, 100%)"
+                          error={
+                            err([...tp, "passes"]) ??
+                            Object.entries(errors).find(([k]) => k.startsWith([...tp, "passes"].join(".") + "."))?.[1]
+                          }
+                        >
+                          <input
+                            aria-label="Passes"
+                            defaultValue={passesText(t.passes)}
+                            onBlur={(e) => set([...tp, "passes"], parsePasses(e.target.value))}
+                            className={`${small} w-full font-mono`}
+                          />
                         </Cell>
-                        <Cell label="Angle passes (degrees)" error={err([...tp, "anglePasses"]) ?? Object.entries(errors).find(([k]) => k.startsWith([...tp, "anglePasses"].join(".") + "."))?.[1]}>
-                          <input aria-label="Angle passes" defaultValue={listText(t.anglePasses)} onBlur={(e) => set([...tp, "anglePasses"], parseList(e.target.value).map(Number))} className={`${small} w-full font-mono`} />
+                        <Cell
+                          label="Angle passes (degrees)"
+                          error={
+                            err([...tp, "anglePasses"]) ??
+                            Object.entries(errors).find(([k]) => k.startsWith([...tp, "anglePasses"].join(".") + "."))?.[1]
+                          }
+                        >
+                          <input
+                            aria-label="Angle passes"
+                            defaultValue={listText(t.anglePasses)}
+                            onBlur={(e) => set([...tp, "anglePasses"], parseList(e.target.value).map(Number))}
+                            className={`${small} w-full font-mono`}
+                          />
                         </Cell>
                         {select("Pattern", [...tp, "pattern"], t.pattern, ["cross", "spiral-out", "linear"])}
                         {num("Bolt count", [...tp, "boltCount"], t.boltCount)}
                         {text("Lubricant", [...tp, "lubricant"], t.lubricant)}
                         <label className="flex min-h-11 items-center gap-2 self-end font-bold">
-                          <input type="checkbox" className="h-6 w-6" checked={Boolean(t.torqueToYield)} onChange={(e) => set([...tp, "torqueToYield"], e.target.checked)} />
+                          <input
+                            type="checkbox"
+                            className="h-6 w-6"
+                            checked={Boolean(t.torqueToYield)}
+                            onChange={(e) => set([...tp, "torqueToYield"], e.target.checked)}
+                          />
                           Torque-to-yield
                         </label>
                       </Row>
@@ -127,11 +250,40 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
                   })}
                 </Group>
 
-                <Group title="Measurement specs" onAdd={() => set([...sp, "measurements"], [...(step.measurements ?? []), { key: `reading-${(step.measurements ?? []).length + 1}`, label: "", nominal: null, min: Number.NaN, max: Number.NaN, unit: "mm", readingLabels: [], geometry: null }])} addLabel="+ Measurement spec">
+                <Group
+                  title="Measurement specs"
+                  onAdd={() =>
+                    set(
+                      [...sp, "measurements"],
+                      [
+                        ...(step.measurements ?? []),
+                        {
+                          key: `reading-${(step.measurements ?? []).length + 1}`,
+                          label: "",
+                          nominal: null,
+                          min: Number.NaN,
+                          max: Number.NaN,
+                          unit: "mm",
+                          readingLabels: [],
+                          geometry: null,
+                        },
+                      ],
+                    )
+                  }
+                  addLabel="+ Measurement spec"
+                >
                   {(step.measurements ?? []).map((m, mi) => {
                     const mp: Path = [...sp, "measurements", mi];
                     return (
-                      <Row key={mi} onRemove={() => set([...sp, "measurements"], (step.measurements ?? []).filter((_, j) => j !== mi))}>
+                      <Row
+                        key={mi}
+                        onRemove={() =>
+                          set(
+                            [...sp, "measurements"],
+                            (step.measurements ?? []).filter((_, j) => j !== mi),
+                          )
+                        }
+                      >
                         {text("Measurement key", [...mp, "key"], m.key, { mono: true })}
                         {text("Measurement label", [...mp, "label"], m.label)}
                         {num("Nominal", [...mp, "nominal"], m.nominal, true)}
@@ -139,7 +291,12 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
                         {num("Max", [...mp, "max"], m.max)}
                         {select("Length unit", [...mp, "unit"], m.unit, ["mm", "in", "µm"])}
                         <Cell label="Readings (labels, comma-separated)" error={err([...mp, "readingLabels"])}>
-                          <input aria-label="Reading labels" defaultValue={listText(m.readingLabels)} onBlur={(e) => set([...mp, "readingLabels"], parseList(e.target.value))} className={`${small} w-full`} />
+                          <input
+                            aria-label="Reading labels"
+                            defaultValue={listText(m.readingLabels)}
+                            onBlur={(e) => set([...mp, "readingLabels"], parseList(e.target.value))}
+                            className={`${small} w-full`}
+                          />
                         </Cell>
                         {select("Geometry", [...mp, "geometry"], m.geometry, ["bore", "oil-clearance"], "none")}
                       </Row>
@@ -147,30 +304,70 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
                   })}
                 </Group>
 
-                <Group title="Timer" onAdd={step.timer ? undefined : () => set([...sp, "timer"], { label: "", durationS: 600, blocksStepKey: null })} addLabel="+ Timer">
+                <Group
+                  title="Timer"
+                  onAdd={step.timer ? undefined : () => set([...sp, "timer"], { label: "", durationS: 600, blocksStepKey: null })}
+                  addLabel="+ Timer"
+                >
                   {step.timer && (
                     <Row onRemove={() => set([...sp, "timer"], null)}>
                       {text("Timer label", [...sp, "timer", "label"], step.timer.label)}
                       {num("Duration (seconds)", [...sp, "timer", "durationS"], step.timer.durationS)}
-                      {select("Blocks step", [...sp, "timer", "blocksStepKey"], step.timer.blocksStepKey, doc.stages.flatMap((s) => s.steps.map((x) => x.key)), "no step")}
+                      {select(
+                        "Blocks step",
+                        [...sp, "timer", "blocksStepKey"],
+                        step.timer.blocksStepKey,
+                        doc.stages.flatMap((s) => s.steps.map((x) => x.key)),
+                        "no step",
+                      )}
                     </Row>
                   )}
                 </Group>
                 <div className="mt-3 flex flex-wrap gap-2">
-                  <button type="button" className={removeBtn} disabled={stage.steps.length === 1} onClick={() => set(["stages", si, "steps"], stage.steps.filter((_, j) => j !== pi))}>
+                  <button
+                    type="button"
+                    className={removeBtn}
+                    disabled={stage.steps.length === 1}
+                    onClick={() =>
+                      set(
+                        ["stages", si, "steps"],
+                        stage.steps.filter((_, j) => j !== pi),
+                      )
+                    }
+                  >
                     Remove step
                   </button>
                 </div>
               </details>
             );
           })}
-          <button type="button" className={`${addBtn} mt-3`} onClick={() => set(["stages", si, "steps"], [...stage.steps, newStep(doc.stages.reduce((n, s) => n + s.steps.length, 0) + 1)])}>
+          <button
+            type="button"
+            className={`${addBtn} mt-3`}
+            onClick={() => set(["stages", si, "steps"], [...stage.steps, newStep(doc.stages.reduce((n, s) => n + s.steps.length, 0) + 1)])}
+          >
             + Step
           </button>
         </fieldset>
       ))}
       <div>
-        <button type="button" className={addBtn} onClick={() => set(["stages"], [...doc.stages, { key: `stage-${doc.stages.length + 1}`, title: "New stage", steps: [newStep(doc.stages.reduce((n, s) => n + s.steps.length, 0) + 1)] }])}>
+        <button
+          type="button"
+          className={addBtn}
+          onClick={() =>
+            set(
+              ["stages"],
+              [
+                ...doc.stages,
+                {
+                  key: `stage-${doc.stages.length + 1}`,
+                  title: "New stage",
+                  steps: [newStep(doc.stages.reduce((n, s) => n + s.steps.length, 0) + 1)],
+                },
+              ],
+            )
+          }
+        >
           + Stage
         </button>
       </div>

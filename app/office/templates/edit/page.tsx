@@ -17,7 +17,24 @@ const STARTER: TemplateDocumentInput = {
   name: "New procedure",
   summary: "",
   exampleOnly: false,
-  stages: [{ key: "stage-1", title: "First stage", steps: [{ key: "step-1", title: "First step", instructions: "", cautions: [], requiresPhoto: false, torque: [], measurements: [], timer: null }] }],
+  stages: [
+    {
+      key: "stage-1",
+      title: "First stage",
+      steps: [
+        {
+          key: "step-1",
+          title: "First step",
+          instructions: "",
+          cautions: [],
+          requiresPhoto: false,
+          torque: [],
+          measurements: [],
+          timer: null,
+        },
+      ],
+    },
+  ],
 };
 
 export default async function EditTemplatePage({ searchParams }: { searchParams: Promise<{ key?: string }> }) {

@@ -28,7 +28,12 @@ export function UserForm({ customers }: { customers: Array<{ id: string; name: s
     });
   }
 
-  const f = (name: string) => ({ id: name, name, "aria-invalid": Boolean(errors[name]), "aria-describedby": errors[name] ? `${name}-error` : undefined });
+  const f = (name: string) => ({
+    id: name,
+    name,
+    "aria-invalid": Boolean(errors[name]),
+    "aria-describedby": errors[name] ? `${name}-error` : undefined,
+  });
   return (
     <form onSubmit={onSubmit} noValidate className="grid max-w-2xl gap-4" data-testid="user-form">
       <div className="grid gap-4 md:grid-cols-2">

@@ -10,7 +10,13 @@ import { WorkOrderView } from "./_components/work-order-view";
 
 export const metadata: Metadata = { title: "Work order" };
 
-export default async function WorkOrderPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ warning?: string }> }) {
+export default async function WorkOrderPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ id: string }>;
+  searchParams: Promise<{ warning?: string }>;
+}) {
   const user = await requirePageArea("office");
   const { id } = await params;
   if (!isUuid(id) || !(await workOrderInShop(db(), user.shopId, id))) notFound();

@@ -27,7 +27,13 @@ export default async function NewWorkOrderPage({ searchParams }: { searchParams:
         </Link>{" "}
         first.
       </p>
-      <IntakeForm bikes={bikes.map((b) => ({ id: b.id, label: `${b.tagCode} · ${b.make} ${b.model}${b.year ? ` (${b.year})` : ""} · ${b.customerName}` }))} bikeId={bikes.some((b) => b.id === bike) ? bike : undefined} />
+      <IntakeForm
+        bikes={bikes.map((b) => ({
+          id: b.id,
+          label: `${b.tagCode} · ${b.make} ${b.model}${b.year ? ` (${b.year})` : ""} · ${b.customerName}`,
+        }))}
+        bikeId={bikes.some((b) => b.id === bike) ? bike : undefined}
+      />
     </AppFrame>
   );
 }

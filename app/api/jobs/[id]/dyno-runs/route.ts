@@ -14,9 +14,12 @@ export const GET = route({ access: { area: "dyno" }, params: ["id"] }, async ({ 
 // A new run: fields plus its curve (table rows or CSV text). All checked; stored all or nothing.
 // The body is checked whole by importDynoRun (fields and every curve row at once), so the wrapper
 // only reads it as JSON here.
-export const POST = route({ access: { area: "dyno" }, params: ["id"], body: json(z.unknown(), { maxBytes: MIB }) }, async ({ user, params, body, db }) => {
-  const r = await importDynoRun(db, user.shopId, idParam(params.id, NOT_FOUND), user.id, body);
-  if (r.ok) return created({ id: r.id });
-  if (r.status === 404) throw new Refusal(NOT_FOUND, 404);
-  throw new Refusal("Some entries need fixing.", 400, r.issues);
-});
+export const POST = route(
+  { access: { area: "dyno" }, params: ["id"], body: json(z.unknown(), { maxBytes: MIB }) },
+  async ({ user, params, body, db }) => {
+    const r = await importDynoRun(db, user.shopId, idParam(params.id, NOT_FOUND), user.id, body);
+    if (r.ok) return created({ id: r.id });
+    if (r.status === 404) throw new Refusal(NOT_FOUND, 404);
+    throw new Refusal("Some entries need fixing.", 400, r.issues);
+  },
+);

@@ -71,7 +71,8 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
         )
       : null;
 
-  const toggleRun = (id: string) => setChosen((c) => (c.includes(id) ? c.filter((x) => x !== id) : [...c, id].sort((a, b) => indexOf(a) - indexOf(b))));
+  const toggleRun = (id: string) =>
+    setChosen((c) => (c.includes(id) ? c.filter((x) => x !== id) : [...c, id].sort((a, b) => indexOf(a) - indexOf(b))));
 
   const exportChart = async (format: "svg" | "png") => {
     setExportError(null);
@@ -152,7 +153,13 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
               <p className="text-lg">
                 <strong>{title}.</strong> Solid lines: power (left scale). Dashed lines: torque (right scale).
               </p>
-              <CurveChart ref={chartRef} series={series} leftLabel={`Power (${powerUnit})`} rightLabel={`Torque (${torqueUnit})`} testId="curve-chart" />
+              <CurveChart
+                ref={chartRef}
+                series={series}
+                leftLabel={`Power (${powerUnit})`}
+                rightLabel={`Torque (${torqueUnit})`}
+                testId="curve-chart"
+              />
               <ul className="flex flex-wrap gap-x-6 gap-y-1 text-base" aria-label="Legend">
                 {legend.map((l) => (
                   <li key={l.label} className="flex items-center gap-2">
@@ -164,10 +171,18 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
                 ))}
               </ul>
               <div className="flex flex-wrap gap-3">
-                <button type="button" onClick={() => exportChart("svg")} className="min-h-target rounded-lg border-2 border-ink bg-white px-5 text-lg font-bold">
+                <button
+                  type="button"
+                  onClick={() => exportChart("svg")}
+                  className="min-h-target rounded-lg border-2 border-ink bg-white px-5 text-lg font-bold"
+                >
                   Save plot as SVG
                 </button>
-                <button type="button" onClick={() => exportChart("png")} className="min-h-target rounded-lg border-2 border-ink bg-white px-5 text-lg font-bold">
+                <button
+                  type="button"
+                  onClick={() => exportChart("png")}
+                  className="min-h-target rounded-lg border-2 border-ink bg-white px-5 text-lg font-bold"
+                >
                   Save plot as PNG
                 </button>
                 {exportError && (
@@ -188,13 +203,31 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
               </h2>
               <ul className="grid gap-2 text-lg md:grid-cols-3">
                 <li className="rounded-lg border-2 border-steel-300 bg-white p-3">
-                  Peak power <strong className="font-mono" data-testid="peak-power-delta">{signed(p(comparison.peakDelta.powerKw))} {powerUnit}</strong> ({signed(comparison.peakDelta.powerPercent)} %)
+                  Peak power{" "}
+                  <strong className="font-mono" data-testid="peak-power-delta">
+                    {signed(p(comparison.peakDelta.powerKw))} {powerUnit}
+                  </strong>{" "}
+                  ({signed(comparison.peakDelta.powerPercent)} %)
                 </li>
                 <li className="rounded-lg border-2 border-steel-300 bg-white p-3">
-                  Peak torque <strong className="font-mono">{signed(t(comparison.peakDelta.torqueNm))} {torqueUnit}</strong> ({signed(comparison.peakDelta.torquePercent)} %)
+                  Peak torque{" "}
+                  <strong className="font-mono">
+                    {signed(t(comparison.peakDelta.torqueNm))} {torqueUnit}
+                  </strong>{" "}
+                  ({signed(comparison.peakDelta.torquePercent)} %)
                 </li>
                 <li className="rounded-lg border-2 border-steel-300 bg-white p-3">
-                  {gainPerPsi === null ? "Same boost target" : <>Each extra psi: <strong className="font-mono">{signed(gainPerPsi)} {powerUnit}</strong> at peak</>}
+                  {gainPerPsi === null ? (
+                    "Same boost target"
+                  ) : (
+                    <>
+                      Each extra psi:{" "}
+                      <strong className="font-mono">
+                        {signed(gainPerPsi)} {powerUnit}
+                      </strong>{" "}
+                      at peak
+                    </>
+                  )}
                 </li>
               </ul>
               {comparison.grid.length > 0 && (

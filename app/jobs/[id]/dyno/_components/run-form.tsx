@@ -56,10 +56,15 @@ export function RunForm({ workOrderId }: { workOrderId: string }) {
       humidityPercent: get("humidityPercent"),
       standard: get("standard"),
       notes: get("notes"),
-      curve: source === "csv" ? { source: "csv", fileName, text: fileText ?? "" } : { source: "table", torqueUnit: get("torqueUnit"), rows },
+      curve:
+        source === "csv" ? { source: "csv", fileName, text: fileText ?? "" } : { source: "table", torqueUnit: get("torqueUnit"), rows },
     };
     try {
-      const res = await fetch(`/api/jobs/${workOrderId}/dyno-runs`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+      const res = await fetch(`/api/jobs/${workOrderId}/dyno-runs`, {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify(body),
+      });
       const json = (await res.json().catch(() => ({}))) as Partial<ErrorBody>;
       if (res.ok) {
         setFieldErrors({});
@@ -156,7 +161,8 @@ export function RunForm({ workOrderId }: { workOrderId: string }) {
           {source === "csv" ? (
             <div className="flex flex-col gap-2">
               <label htmlFor="curve-file" className="text-base">
-                Columns: <code className="font-mono">rpm</code> and <code className="font-mono">torque_nm</code> or <code className="font-mono">torque_lbft</code>, one line per point, rpm rising.
+                Columns: <code className="font-mono">rpm</code> and <code className="font-mono">torque_nm</code> or{" "}
+                <code className="font-mono">torque_lbft</code>, one line per point, rpm rising.
               </label>
               <input
                 id="curve-file"
@@ -211,14 +217,20 @@ export function RunForm({ workOrderId }: { workOrderId: string }) {
                   ))}
                 </tbody>
               </table>
-              <button type="button" onClick={() => setRows((rs) => [...rs, ...blankRows(4)])} className="min-h-target self-start rounded-lg border-2 border-ink bg-white px-4 text-lg font-bold">
+              <button
+                type="button"
+                onClick={() => setRows((rs) => [...rs, ...blankRows(4)])}
+                className="min-h-target self-start rounded-lg border-2 border-ink bg-white px-4 text-lg font-bold"
+              >
                 Add 4 rows
               </button>
             </div>
           )}
           {curveErrors.length > 0 && (
             <div role="alert" className="rounded-lg border-2 border-fail bg-fail-light p-3" data-testid="curve-errors">
-              <p className="font-bold text-fail">✕ The curve has {curveErrors.length} problem{curveErrors.length === 1 ? "" : "s"}:</p>
+              <p className="font-bold text-fail">
+                ✕ The curve has {curveErrors.length} problem{curveErrors.length === 1 ? "" : "s"}:
+              </p>
               <ul className="mt-1 list-disc pl-6 text-lg">
                 {curveErrors.slice(0, 30).map((e, i) => (
                   <li key={i}>
@@ -231,11 +243,19 @@ export function RunForm({ workOrderId }: { workOrderId: string }) {
         </fieldset>
 
         <div className="flex flex-wrap items-center gap-4">
-          <button type="submit" disabled={busy} className="min-h-target rounded-xl bg-signal px-8 text-xl font-bold text-ink disabled:opacity-60">
+          <button
+            type="submit"
+            disabled={busy}
+            className="min-h-target rounded-xl bg-signal px-8 text-xl font-bold text-ink disabled:opacity-60"
+          >
             {busy ? "Saving…" : "Save run"}
           </button>
           {message && (
-            <p role="status" data-testid="form-message" className={`rounded px-3 py-2 text-lg font-bold ${message.ok ? "bg-pass-light text-pass" : "bg-fail-light text-fail"}`}>
+            <p
+              role="status"
+              data-testid="form-message"
+              className={`rounded px-3 py-2 text-lg font-bold ${message.ok ? "bg-pass-light text-pass" : "bg-fail-light text-fail"}`}
+            >
               {message.ok ? "✓ " : "✕ "}
               {message.text}
             </p>

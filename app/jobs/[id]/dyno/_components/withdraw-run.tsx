@@ -41,8 +41,19 @@ export function WithdrawRunForm({ workOrderId, runs }: { workOrderId: string; ru
             ))}
           </select>
         </Field>
-        <Field label="Why it is withdrawn" name="reason" error={errors.reason} hint="For example: wrong weather figures; record the run again with the right ones">
-          <input id="reason" name="reason" aria-invalid={Boolean(errors.reason)} aria-describedby={errors.reason ? "reason-error" : undefined} className={inputClass} />
+        <Field
+          label="Why it is withdrawn"
+          name="reason"
+          error={errors.reason}
+          hint="For example: wrong weather figures; record the run again with the right ones"
+        >
+          <input
+            id="reason"
+            name="reason"
+            aria-invalid={Boolean(errors.reason)}
+            aria-describedby={errors.reason ? "reason-error" : undefined}
+            className={inputClass}
+          />
         </Field>
         <div className="md:col-span-2 flex flex-col gap-2">
           <FormMessage {...message} />

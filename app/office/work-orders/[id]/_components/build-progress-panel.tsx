@@ -43,7 +43,9 @@ export function BuildProgressPanel({ workOrderId, number }: { workOrderId: strin
         <>
           <p className="mt-1 text-lg" data-testid="progress-summary">
             {q.data.stepsDone} of {q.data.stepsTotal} steps done · {q.data.approvedStages} of {q.data.stages.length} stages approved ·{" "}
-            {q.data.outOfTolerance === 0 ? "no readings out of tolerance" : `${q.data.outOfTolerance} reading${q.data.outOfTolerance === 1 ? "" : "s"} out of tolerance`}
+            {q.data.outOfTolerance === 0
+              ? "no readings out of tolerance"
+              : `${q.data.outOfTolerance} reading${q.data.outOfTolerance === 1 ? "" : "s"} out of tolerance`}
           </p>
           {q.data.due && (
             <p className="mt-2 rounded-lg border-2 border-steel-700 bg-signal/30 p-3 text-lg" data-testid="progress-due">
@@ -70,7 +72,9 @@ export function BuildProgressPanel({ workOrderId, number }: { workOrderId: strin
                     <td className="py-2 pr-3 font-mono">
                       {s.stepsDone}/{s.stepsTotal}
                     </td>
-                    <td className="py-2 pr-3">{s.outOfTolerance === 0 ? "none" : <span className="font-bold text-fail">▲ {s.outOfTolerance}</span>}</td>
+                    <td className="py-2 pr-3">
+                      {s.outOfTolerance === 0 ? "none" : <span className="font-bold text-fail">▲ {s.outOfTolerance}</span>}
+                    </td>
                     <td className="py-2">
                       <span className={`font-bold ${MARK[s.state].className}`}>
                         <span aria-hidden="true">{MARK[s.state].mark}</span> {STAGE_PROGRESS_LABELS[s.state]}

@@ -59,7 +59,12 @@ export function NotesPanel({ data }: { data: WorkOrderData }) {
                 {photosOf(n.id).map((p) => (
                   <a key={p.id} href={`/api/office/attachments/${p.id}`} target="_blank" rel="noreferrer">
                     {/* eslint-disable-next-line @next/next/no-img-element */}
-                    <img src={`/api/office/attachments/${p.id}`} alt={p.caption || "photo"} className="h-24 w-32 rounded border-2 border-steel-300 object-cover" data-testid="note-photo" />
+                    <img
+                      src={`/api/office/attachments/${p.id}`}
+                      alt={p.caption || "photo"}
+                      className="h-24 w-32 rounded border-2 border-steel-300 object-cover"
+                      data-testid="note-photo"
+                    />
                   </a>
                 ))}
               </div>

@@ -51,7 +51,9 @@ export function PartsPanel({ data }: { data: WorkOrderData }) {
         <ul className="mt-2 space-y-1">
           {wo.parts.map((p) => (
             <li key={p.id} className="text-lg" data-testid="part-fitted">
-              {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description} {p.supplier && `· ${p.supplier}`} {p.serial && <span className="font-mono">· serial {p.serial}</span>} {p.batch && <span className="font-mono">· batch {p.batch}</span>} {p.stepTitle && `· at "${p.stepTitle}"`}{" "}
+              {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description} {p.supplier && `· ${p.supplier}`}{" "}
+              {p.serial && <span className="font-mono">· serial {p.serial}</span>}{" "}
+              {p.batch && <span className="font-mono">· batch {p.batch}</span>} {p.stepTitle && `· at "${p.stepTitle}"`}{" "}
               {p.fittedByName && (p.atBench ? `· fitted by ${p.fittedByName} · recorded at the bench` : `· recorded by ${p.fittedByName}`)}
               {p.flagReason && <span className="block font-bold text-warn">⚑ Flagged for the supervisor: {p.flagReason}</span>}
             </li>

@@ -20,7 +20,12 @@ interface LineText {
 const toText = (minor: number) => `${Math.floor(minor / 100)}.${String(minor % 100).padStart(2, "0")}`;
 const blank = (): LineText => ({ kind: "part", description: "", partNumber: "", quantity: "1", unitPrice: "" });
 
-const QUOTE_STATUS = { draft: "Draft (not sent)", sent: "Sent — waiting for the customer", approved: "Approved by the customer", superseded: "Replaced by a newer version" } as const;
+const QUOTE_STATUS = {
+  draft: "Draft (not sent)",
+  sent: "Sent — waiting for the customer",
+  approved: "Approved by the customer",
+  superseded: "Replaced by a newer version",
+} as const;
 
 // Writing the quote: lines of parts and labour, totals worked out as you type with the same rule
 // as the server (tax once on the subtotal, half-up), a deposit, then "send to the customer".
@@ -32,7 +37,13 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
   const editable = ["booked_in", "inspected", "quoted"].includes(wo.status);
   const start = draft ?? current;
   const [lines, setLines] = useState<LineText[]>(
-    start?.lines.map((l) => ({ kind: l.kind, description: l.description, partNumber: l.partNumber ?? "", quantity: toText(l.quantityHundredths), unitPrice: toText(l.unitPriceMinor) })) ?? [blank()],
+    start?.lines.map((l) => ({
+      kind: l.kind,
+      description: l.description,
+      partNumber: l.partNumber ?? "",
+      quantity: toText(l.quantityHundredths),
+      unitPrice: toText(l.unitPriceMinor),
+    })) ?? [blank()],
   );
   const [deposit, setDeposit] = useState(start ? toText(start.depositMinor) : "0.00");
   const [note, setNote] = useState(start?.note ?? "");
@@ -40,7 +51,13 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
 
   const asDraft = () => ({
-    lines: lines.map((l) => ({ kind: l.kind, description: l.description, partNumber: l.partNumber, quantityHundredths: parseHundredths(l.quantity) ?? Number.NaN, unitPriceMinor: parseHundredths(l.unitPrice) ?? Number.NaN })),
+    lines: lines.map((l) => ({
+      kind: l.kind,
+      description: l.description,
+      partNumber: l.partNumber,
+      quantityHundredths: parseHundredths(l.quantity) ?? Number.NaN,
+      unitPriceMinor: parseHundredths(l.unitPrice) ?? Number.NaN,
+    })),
     depositMinor: parseHundredths(deposit) ?? Number.NaN,
     note,
   });
@@ -57,7 +74,9 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
     },
     onSuccess: (r) => {
       setErrors({});
-      setMessage({ ok: r ? `Quote sent.${r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`}` : "Draft saved." });
+      setMessage({
+        ok: r ? `Quote sent.${r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`}` : "Draft saved.",
+      });
       void qc.invalidateQueries({ queryKey: ["work-order", wo.id] });
     },
     onError: (e) => {
@@ -84,7 +103,9 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
       )}
       {editable ? (
         <div className="mt-4">
-          <h3 className="text-lg font-bold">{draft ? `Draft version ${draft.version}` : current ? "Revise the quote (a new version)" : "New quote"}</h3>
+          <h3 className="text-lg font-bold">
+            {draft ? `Draft version ${draft.version}` : current ? "Revise the quote (a new version)" : "New quote"}
+          </h3>
           <div className="mt-2 overflow-x-auto">
             <table className="w-full border-collapse text-left">
               <thead>
@@ -102,29 +123,65 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
                 {lines.map((l, i) => (
                   <tr key={i} className="border-b border-steel-300 align-top" data-testid="quote-line">
                     <td className="py-1 pr-2">
-                      <select aria-label={`Line ${i + 1} type`} value={l.kind} onChange={(e) => set(i, { kind: e.target.value as LineText["kind"] })} className={inputClass}>
+                      <select
+                        aria-label={`Line ${i + 1} type`}
+                        value={l.kind}
+                        onChange={(e) => set(i, { kind: e.target.value as LineText["kind"] })}
+                        className={inputClass}
+                      >
                         <option value="part">Part</option>
                         <option value="labour">Labour</option>
                       </select>
                     </td>
                     <td className="py-1 pr-2">
-                      <input aria-label={`Line ${i + 1} description`} value={l.description} onChange={(e) => set(i, { description: e.target.value })} className={`${inputClass} w-full min-w-48`} aria-invalid={Boolean(err(i, "description"))} />
+                      <input
+                        aria-label={`Line ${i + 1} description`}
+                        value={l.description}
+                        onChange={(e) => set(i, { description: e.target.value })}
+                        className={`${inputClass} w-full min-w-48`}
+                        aria-invalid={Boolean(err(i, "description"))}
+                      />
                       {err(i, "description") && <p className="font-bold text-fail">✖ {err(i, "description")}</p>}
                     </td>
                     <td className="py-1 pr-2">
-                      <input aria-label={`Line ${i + 1} part number`} value={l.partNumber} onChange={(e) => set(i, { partNumber: e.target.value })} className={`${inputClass} w-32 font-mono`} />
+                      <input
+                        aria-label={`Line ${i + 1} part number`}
+                        value={l.partNumber}
+                        onChange={(e) => set(i, { partNumber: e.target.value })}
+                        className={`${inputClass} w-32 font-mono`}
+                      />
                     </td>
                     <td className="py-1 pr-2">
-                      <input aria-label={`Line ${i + 1} quantity`} value={l.quantity} onChange={(e) => set(i, { quantity: e.target.value })} inputMode="decimal" className={`${inputClass} w-24 font-mono`} aria-invalid={Boolean(err(i, "quantityHundredths"))} />
+                      <input
+                        aria-label={`Line ${i + 1} quantity`}
+                        value={l.quantity}
+                        onChange={(e) => set(i, { quantity: e.target.value })}
+                        inputMode="decimal"
+                        className={`${inputClass} w-24 font-mono`}
+                        aria-invalid={Boolean(err(i, "quantityHundredths"))}
+                      />
                       {err(i, "quantityHundredths") && <p className="font-bold text-fail">✖ use a number with up to 2 decimals, above 0</p>}
                     </td>
                     <td className="py-1 pr-2">
-                      <input aria-label={`Line ${i + 1} unit price`} value={l.unitPrice} onChange={(e) => set(i, { unitPrice: e.target.value })} inputMode="decimal" className={`${inputClass} w-28 font-mono`} aria-invalid={Boolean(err(i, "unitPriceMinor"))} />
+                      <input
+                        aria-label={`Line ${i + 1} unit price`}
+                        value={l.unitPrice}
+                        onChange={(e) => set(i, { unitPrice: e.target.value })}
+                        inputMode="decimal"
+                        className={`${inputClass} w-28 font-mono`}
+                        aria-invalid={Boolean(err(i, "unitPriceMinor"))}
+                      />
                       {err(i, "unitPriceMinor") && <p className="font-bold text-fail">✖ enter a price like 68.00</p>}
                     </td>
                     <td className="py-1 pr-2 text-right font-mono">{live ? formatMinor(live.lineTotals[i], currency) : "—"}</td>
                     <td className="py-1">
-                      <button type="button" aria-label={`Remove line ${i + 1}`} className="min-h-12 min-w-12 rounded-lg border-2 border-steel-300 font-bold" onClick={() => setLines((ls) => ls.filter((_, j) => j !== i))} disabled={lines.length === 1}>
+                      <button
+                        type="button"
+                        aria-label={`Remove line ${i + 1}`}
+                        className="min-h-12 min-w-12 rounded-lg border-2 border-steel-300 font-bold"
+                        onClick={() => setLines((ls) => ls.filter((_, j) => j !== i))}
+                        disabled={lines.length === 1}
+                      >
                         ✕
                       </button>
                     </td>
@@ -151,7 +208,13 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
             <div className="grid gap-3">
               <label className="flex flex-col gap-1 font-bold">
                 Deposit asked
-                <input aria-invalid={Boolean(errors.depositMinor)} value={deposit} onChange={(e) => setDeposit(e.target.value)} inputMode="decimal" className={`${inputClass} w-40 font-mono font-normal`} />
+                <input
+                  aria-invalid={Boolean(errors.depositMinor)}
+                  value={deposit}
+                  onChange={(e) => setDeposit(e.target.value)}
+                  inputMode="decimal"
+                  className={`${inputClass} w-40 font-mono font-normal`}
+                />
               </label>
               {errors.depositMinor && <p className="font-bold text-fail">✖ {errors.depositMinor}</p>}
               <label className="flex flex-col gap-1 font-bold">
@@ -167,7 +230,12 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
             <button type="button" className={quietButtonClass} disabled={save.isPending} onClick={() => save.mutate(false)}>
               Save draft
             </button>
-            <button type="button" className={buttonClass} disabled={save.isPending || wo.status === "booked_in"} onClick={() => save.mutate(true)}>
+            <button
+              type="button"
+              className={buttonClass}
+              disabled={save.isPending || wo.status === "booked_in"}
+              onClick={() => save.mutate(true)}
+            >
               Send to the customer
             </button>
           </div>
@@ -180,7 +248,9 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
         <div className="mt-4 rounded-lg border-2 border-pass bg-pass-light p-3" data-testid="invoice">
           <h3 className="text-lg font-bold">Final invoice {data.invoice.number}</h3>
           <p className="font-mono">
-            Total {formatMinor(data.invoice.totalMinor, data.invoice.currency)} · deposit paid {formatMinor(data.invoice.depositsPaidMinor, data.invoice.currency)} · balance due {formatMinor(data.invoice.balanceDueMinor, data.invoice.currency)}
+            Total {formatMinor(data.invoice.totalMinor, data.invoice.currency)} · deposit paid{" "}
+            {formatMinor(data.invoice.depositsPaidMinor, data.invoice.currency)} · balance due{" "}
+            {formatMinor(data.invoice.balanceDueMinor, data.invoice.currency)}
           </p>
         </div>
       )}
@@ -227,8 +297,15 @@ function QuoteSummary({ q }: { q: Quote }) {
       <span>{QUOTE_STATUS[q.status]}</span>
       <span className="font-mono">{formatMinor(q.totalMinor, q.currency)}</span>
       {q.depositMinor > 0 && (
-        <span data-testid="deposit-state" className={`rounded border-2 px-2 font-bold ${paid >= q.depositMinor ? "border-pass text-pass" : "border-warn text-warn"}`}>
-          {paid >= q.depositMinor ? `✔ Deposit ${formatMinor(paid, q.currency)} paid` : pending ? `… Deposit ${formatMinor(q.depositMinor, q.currency)} pending` : `○ Deposit ${formatMinor(q.depositMinor, q.currency)} not paid`}
+        <span
+          data-testid="deposit-state"
+          className={`rounded border-2 px-2 font-bold ${paid >= q.depositMinor ? "border-pass text-pass" : "border-warn text-warn"}`}
+        >
+          {paid >= q.depositMinor
+            ? `✔ Deposit ${formatMinor(paid, q.currency)} paid`
+            : pending
+              ? `… Deposit ${formatMinor(q.depositMinor, q.currency)} pending`
+              : `○ Deposit ${formatMinor(q.depositMinor, q.currency)} not paid`}
         </span>
       )}
     </li>

@@ -18,9 +18,16 @@ export function StatusPanel({ data }: { data: WorkOrderData }) {
   const [pins, setPins] = useState<string[]>([]);
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
   const move = useMutation({
-    mutationFn: (to: WorkOrderStatus) => api<Wire<ReplyOf<typeof POST>>>("POST", `/api/office/work-orders/${wo.id}/status`, { to, note, templateVersionIds: to === "in_build" ? pins : [] }),
+    mutationFn: (to: WorkOrderStatus) =>
+      api<Wire<ReplyOf<typeof POST>>>("POST", `/api/office/work-orders/${wo.id}/status`, {
+        to,
+        note,
+        templateVersionIds: to === "in_build" ? pins : [],
+      }),
     onSuccess: (r, to) => {
-      setMessage({ ok: `Moved to ${STATUS_LABELS[to]}.${r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : ""}` });
+      setMessage({
+        ok: `Moved to ${STATUS_LABELS[to]}.${r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : ""}`,
+      });
       setNote("");
       setPins([]);
       void qc.invalidateQueries({ queryKey: ["work-order", wo.id] });
@@ -34,15 +41,24 @@ export function StatusPanel({ data }: { data: WorkOrderData }) {
       <h2 id="status-heading" className="text-2xl font-bold">
         Move the job on
       </h2>
-      {data.next.includes("approved") && <p className="mt-2 text-lg">Waiting for the customer to approve the quote from their own sign-in.</p>}
+      {data.next.includes("approved") && (
+        <p className="mt-2 text-lg">Waiting for the customer to approve the quote from their own sign-in.</p>
+      )}
       {goesInBuild && (
         <fieldset className="mt-3">
           <legend className="text-base font-bold">Procedures to pin when it goes in build</legend>
-          {wo.procedures.length > 0 && <p className="text-sm">Already pinned: {wo.procedures.map((p) => `${p.name} v${p.version}`).join(", ")}</p>}
+          {wo.procedures.length > 0 && (
+            <p className="text-sm">Already pinned: {wo.procedures.map((p) => `${p.name} v${p.version}`).join(", ")}</p>
+          )}
           <div className="mt-2 grid gap-2 md:grid-cols-2">
             {data.templates.map((t) => (
               <label key={t.versionId} className="flex min-h-12 items-center gap-3 rounded-lg border-2 border-steel-300 px-3">
-                <input type="checkbox" className="h-6 w-6" checked={pins.includes(t.versionId)} onChange={(e) => setPins((p) => (e.target.checked ? [...p, t.versionId] : p.filter((x) => x !== t.versionId)))} />
+                <input
+                  type="checkbox"
+                  className="h-6 w-6"
+                  checked={pins.includes(t.versionId)}
+                  onChange={(e) => setPins((p) => (e.target.checked ? [...p, t.versionId] : p.filter((x) => x !== t.versionId)))}
+                />
                 <span>
                   {t.name} <span className="text-steel-700">v{t.version}</span>
                 </span>

@@ -12,7 +12,12 @@ import { QuoteEditor } from "./quote-editor";
 import { AssignPanel, StatusPanel } from "./status-panel";
 import type { WorkOrderData } from "./types";
 
-const MAIL_KIND = { quote_ready: "Quote ready", deposit_received: "Deposit received", bike_ready: "Bike ready", review_needed: "Readings out of tolerance, for the supervisor" } as const;
+const MAIL_KIND = {
+  quote_ready: "Quote ready",
+  deposit_received: "Deposit received",
+  bike_ready: "Bike ready",
+  review_needed: "Readings out of tolerance, for the supervisor",
+} as const;
 
 export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string; currency: string; taxRateBp: number; warning?: string }) {
   const q = useQuery({
@@ -25,7 +30,12 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
     },
   });
   if (q.isLoading) return <p className="text-lg">Loading…</p>;
-  if (q.isError || !q.data) return <p role="alert" className="text-lg font-bold text-fail">{(q.error as Error)?.message ?? "Not found"}</p>;
+  if (q.isError || !q.data)
+    return (
+      <p role="alert" className="text-lg font-bold text-fail">
+        {(q.error as Error)?.message ?? "Not found"}
+      </p>
+    );
   const data = q.data;
   const wo = data.workOrder;
   return (
@@ -56,7 +66,8 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
             </span>
           </p>
           <p className="mt-2 text-lg">
-            <span className="font-bold">Complaint or goal:</span> {wo.complaint} {wo.odometerKm !== null && <span className="font-mono">· {wo.odometerKm.toLocaleString("en-GB")} km at intake</span>}
+            <span className="font-bold">Complaint or goal:</span> {wo.complaint}{" "}
+            {wo.odometerKm !== null && <span className="font-mono">· {wo.odometerKm.toLocaleString("en-GB")} km at intake</span>}
           </p>
         </div>
       </header>
@@ -91,7 +102,8 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
           <ul className="mt-1 space-y-1" data-testid="emails">
             {wo.emails.map((m) => (
               <li key={m.id}>
-                {dayTime(m.at)} · {MAIL_KIND[m.kind as keyof typeof MAIL_KIND] ?? m.kind} to {m.recipient} {m.error ? <span className="font-bold text-fail">✖ not sent: {m.error}</span> : <span className="text-pass">✔ sent</span>}
+                {dayTime(m.at)} · {MAIL_KIND[m.kind as keyof typeof MAIL_KIND] ?? m.kind} to {m.recipient}{" "}
+                {m.error ? <span className="font-bold text-fail">✖ not sent: {m.error}</span> : <span className="text-pass">✔ sent</span>}
               </li>
             ))}
           </ul>

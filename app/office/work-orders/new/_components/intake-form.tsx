@@ -23,9 +23,21 @@ export function IntakeForm({ bikes, bikeId }: { bikes: BikeOption[]; bikeId?: st
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const form = new FormData(e.currentTarget);
-    const parsed = intakeSchema.safeParse({ bikeId: form.get("bikeId"), title: form.get("title"), complaint: form.get("complaint"), odometerKm: form.get("odometerKm") });
+    const parsed = intakeSchema.safeParse({
+      bikeId: form.get("bikeId"),
+      title: form.get("title"),
+      complaint: form.get("complaint"),
+      odometerKm: form.get("odometerKm"),
+    });
     const photos = form.getAll("photos").filter((f) => f instanceof File && f.size > 0) as File[];
-    const photoProblem = photos.length > 8 ? "attach at most 8 photos" : photos.find((p) => !/^image\/(jpeg|png|webp)$/.test(p.type)) ? "photos must be JPEG, PNG or WebP" : photos.find((p) => p.size > 10 * 1024 * 1024) ? "each photo must be under 10 MB" : null;
+    const photoProblem =
+      photos.length > 8
+        ? "attach at most 8 photos"
+        : photos.find((p) => !/^image\/(jpeg|png|webp)$/.test(p.type))
+          ? "photos must be JPEG, PNG or WebP"
+          : photos.find((p) => p.size > 10 * 1024 * 1024)
+            ? "each photo must be under 10 MB"
+            : null;
     if (!parsed.success || photoProblem) {
       setErrors({ ...(parsed.success ? {} : fieldErrors(issuesOf(parsed.error))), ...(photoProblem ? { photos: photoProblem } : {}) });
       setError("Check the marked fields.");
@@ -62,9 +74,20 @@ export function IntakeForm({ bikes, bikeId }: { bikes: BikeOption[]; bikeId?: st
         <textarea id="complaint" name="complaint" rows={4} className={`${inputClass} py-2`} aria-invalid={Boolean(errors.complaint)} />
       </Field>
       <Field label="Odometer (km)" name="odometerKm" error={errors.odometerKm}>
-        <input id="odometerKm" name="odometerKm" inputMode="numeric" className={`${inputClass} w-48 font-mono`} aria-invalid={Boolean(errors.odometerKm)} />
+        <input
+          id="odometerKm"
+          name="odometerKm"
+          inputMode="numeric"
+          className={`${inputClass} w-48 font-mono`}
+          aria-invalid={Boolean(errors.odometerKm)}
+        />
       </Field>
-      <Field label="Condition photos" name="photos" error={errors.photos} hint="Up to 8 photos: scratches, leaks, damage as the bike arrived">
+      <Field
+        label="Condition photos"
+        name="photos"
+        error={errors.photos}
+        hint="Up to 8 photos: scratches, leaks, damage as the bike arrived"
+      >
         <input id="photos" name="photos" type="file" accept="image/jpeg,image/png,image/webp" multiple className="text-lg" />
       </Field>
       <FormMessage error={error} />

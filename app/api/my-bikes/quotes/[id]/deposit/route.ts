@@ -9,7 +9,14 @@ export const POST = route({ access: { area: "my-bikes" }, params: ["id"] }, asyn
   const { deposit, workOrderNumber } = await openDeposit(db, user, idParam(params.id));
   let intent;
   try {
-    intent = await startDepositPayment({ depositId: deposit.id, amountMinor: deposit.amount_minor, currency: deposit.currency, shopId: user.shopId, workOrderId: deposit.work_order_id, description: `Deposit, work order ${workOrderNumber}` });
+    intent = await startDepositPayment({
+      depositId: deposit.id,
+      amountMinor: deposit.amount_minor,
+      currency: deposit.currency,
+      shopId: user.shopId,
+      workOrderId: deposit.work_order_id,
+      description: `Deposit, work order ${workOrderNumber}`,
+    });
   } catch (e) {
     throw new Refusal(`The payment service did not take the payment: ${(e as Error).message}`, 409);
   }

@@ -4,17 +4,31 @@ import { addNote } from "@/db/shop/work-orders";
 import { noteSchema } from "@/lib/office/schemas";
 
 // A finding (teardown or general note) with photos, multipart: kind, body, photos[].
-export const POST = route({ access: { area: "office" }, params: ["id"], body: multipart(MAX_PHOTO_FORM_BYTES) }, async ({ user, params, body: form, db }) => {
-  const id = idParam(params.id);
-  const input = noteSchema.parse({ kind: form.get("kind") ?? "teardown", body: form.get("body") });
-  const photos = filesOf(form);
-  checkPhotos(photos);
-  const note = await addNote(db, user.shopId, user.id, id, input.kind, input.body);
-  let warning: string | undefined;
-  try {
-    await storePhotos(db, { shopId: user.shopId, userId: user.id, workOrderId: id, bikeId: null, noteId: note.id, purpose: input.kind === "intake" ? "intake" : "teardown" }, photos);
-  } catch (e) {
-    warning = `The note is saved, but the photos could not be stored (${(e as Error).message}).`;
-  }
-  return created({ id: note.id, warning });
-});
+export const POST = route(
+  { access: { area: "office" }, params: ["id"], body: multipart(MAX_PHOTO_FORM_BYTES) },
+  async ({ user, params, body: form, db }) => {
+    const id = idParam(params.id);
+    const input = noteSchema.parse({ kind: form.get("kind") ?? "teardown", body: form.get("body") });
+    const photos = filesOf(form);
+    checkPhotos(photos);
+    const note = await addNote(db, user.shopId, user.id, id, input.kind, input.body);
+    let warning: string | undefined;
+    try {
+      await storePhotos(
+        db,
+        {
+          shopId: user.shopId,
+          userId: user.id,
+          workOrderId: id,
+          bikeId: null,
+          noteId: note.id,
+          purpose: input.kind === "intake" ? "intake" : "teardown",
+        },
+        photos,
+      );
+    } catch (e) {
+      warning = `The note is saved, but the photos could not be stored (${(e as Error).message}).`;
+    }
+    return created({ id: note.id, warning });
+  },
+);

@@ -6,14 +6,17 @@ import { transitionSchema } from "@/lib/office/schemas";
 
 // Moves the work order on. Handover writes the final invoice in the same transaction; "ready"
 // e-mails the customer with the handover build report attached.
-export const POST = route({ access: { area: "office" }, params: ["id"], body: json(transitionSchema) }, async ({ user, params, body, db }) => {
-  const id = idParam(params.id);
-  const opts = { note: body.note, templateVersionIds: body.to === "in_build" ? body.templateVersionIds : [] };
-  if (body.to === "handed_over") {
-    await handOver(db, user.shopId, user.id, id, opts.note);
-  } else {
-    await moveWorkOrder(db, user.shopId, user.id, id, body.to, opts);
-  }
-  const mail = body.to === "ready" ? await mailBikeReady(db, user.shopId, id) : undefined;
-  return { status: body.to, mail };
-});
+export const POST = route(
+  { access: { area: "office" }, params: ["id"], body: json(transitionSchema) },
+  async ({ user, params, body, db }) => {
+    const id = idParam(params.id);
+    const opts = { note: body.note, templateVersionIds: body.to === "in_build" ? body.templateVersionIds : [] };
+    if (body.to === "handed_over") {
+      await handOver(db, user.shopId, user.id, id, opts.note);
+    } else {
+      await moveWorkOrder(db, user.shopId, user.id, id, body.to, opts);
+    }
+    const mail = body.to === "ready" ? await mailBikeReady(db, user.shopId, id) : undefined;
+    return { status: body.to, mail };
+  },
+);

@@ -6,8 +6,11 @@ import { decisionInputSchema } from "@/lib/review/decision-input";
 // POST: approve or send back a sign-off (body: lib/review/decision-input.ts). 201 with the decision;
 // 400 bad body (issues per field) · 403 role or own sign-off · 404 not in this shop ·
 // 409 newer sign-off, someone decided meanwhile, or closed job · 422 rules (issues per reading or step).
-export const POST = route({ access: { area: "decide" }, params: ["id"], body: json(decisionInputSchema) }, async ({ user, params, body, db }) => {
-  const result = await decideOnSignOff(db, user, idParam(params.id), body);
-  if (!result.ok) throw new Refusal(result.reason, result.status, result.issues);
-  return created(result);
-});
+export const POST = route(
+  { access: { area: "decide" }, params: ["id"], body: json(decisionInputSchema) },
+  async ({ user, params, body, db }) => {
+    const result = await decideOnSignOff(db, user, idParam(params.id), body);
+    if (!result.ok) throw new Refusal(result.reason, result.status, result.issues);
+    return created(result);
+  },
+);
