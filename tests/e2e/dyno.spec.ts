@@ -176,13 +176,11 @@ test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing save
   await page.getByLabel("Air pressure (kPa)").fill("abc");
   await page.getByLabel("Air temperature (°C)").fill("21");
   await page.getByLabel("Humidity (%)").fill("50");
-  await page
-    .getByLabel(/^Columns:/)
-    .setInputFiles({
-      name: "good.csv",
-      mimeType: "text/csv",
-      buffer: Buffer.from("rpm,torque_nm\n4000,100\n6000,130\n8000,128\n10000,110\n"),
-    });
+  await page.getByLabel(/^Columns:/).setInputFiles({
+    name: "good.csv",
+    mimeType: "text/csv",
+    buffer: Buffer.from("rpm,torque_nm\n4000,100\n6000,130\n8000,128\n10000,110\n"),
+  });
   await page.getByRole("button", { name: "Save run" }).click();
   await expect(page.getByTestId("error-pressureKpa")).toContainText("Air pressure must be a number");
   await page.getByLabel("Air pressure (kPa)").fill("100.1");
