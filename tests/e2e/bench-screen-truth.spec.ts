@@ -5,6 +5,7 @@ import { query } from "./support/e2e-db";
 import { typeTag, waitForServiceWorker, waitForSynced } from "./support/bench-pad";
 import { demoUser, signIn } from "./support/demo-users";
 import { openStep } from "./support/review-bench";
+import { fromOurPage } from "./support/same-origin";
 
 // The tablet's screen tells the truth and a tap records what it showed. Demo job #1006 (tag
 // GSW-0006, assigned to Tomas Reyes); step 11 torques the ten head bolts (spiral from the centre,
@@ -214,6 +215,7 @@ test("the bolt fixed when the finger goes down is the one recorded, even when an
   await signIn(otherPage, "supervisor");
   const now = Date.now();
   const res = await otherPage.request.post("/api/sync", {
+    headers: fromOurPage,
     data: {
       deviceId: "tab-supervisor-e2e",
       cursor: null,
