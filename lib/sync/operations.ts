@@ -8,6 +8,7 @@
  */
 import { z } from "zod";
 import { LENGTH_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
+import { safeText, saneInstant } from "@/lib/safe-values";
 import { DEVICE_ID_PATTERN, STAMP_PATTERN } from "./hlc";
 
 /** Limits of one POST /api/sync. A bigger outbox is sent as several batches (see ./batching.ts). */
@@ -38,8 +39,8 @@ export const PHOTO_CONTENT_TYPES = ["image/jpeg", "image/png", "image/webp", "im
 export const MAX_PHOTO_BYTES = 50 * 1024 * 1024;
 
 const id = () => z.uuid({ error: "must be a UUID" });
-const isoTime = () =>
-  z.iso.datetime({ offset: true, error: "must be an ISO 8601 date-time with a time zone (e.g. 2026-12-02T09:30:00.000Z)" });
+// Dates between 2000 and 2099 only: a year 0000 or 275760 passes ISO 8601 but not timestamptz.
+const isoTime = (label: string) => saneInstant(label);
 const stageKey = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "must be a stage key (lower-case letters, digits and dashes)");
 
 const deviceIdSchema = z.string().regex(DEVICE_ID_PATTERN, "must be 1–64 letters, digits or . _ : - starting with a letter or digit");
@@ -63,7 +64,7 @@ const measurementRecordedPayload = z
     /** As read off the instrument: kept exactly, never rounded. */
     value: z.number(),
     unit: z.enum(LENGTH_UNITS),
-    note: z.string().max(1000).optional(),
+    note: safeText({ label: "Note", max: 1000, multiline: true }).optional(),
     /** The reading this one corrects (it stays on record). */
     supersedesId: id().optional(),
   })
@@ -90,21 +91,24 @@ const timerStartedPayload = z
     timerId: id(),
     stepId: id(),
     timerSpecId: id().optional(),
-    label: z.string().trim().min(1).max(120),
+    label: safeText({ label: "Timer name", min: 1, max: 120 }),
     durationS: z
       .number()
       .int()
       .positive()
       .max(7 * 24 * 3600),
-    startedAt: isoTime(),
+    startedAt: isoTime("Timer start"),
   })
   .strict();
 
-const timerStoppedPayload = z.object({ timerId: id(), stoppedAt: isoTime() }).strict();
+const timerStoppedPayload = z.object({ timerId: id(), stoppedAt: isoTime("Timer stop") }).strict();
 
 /** A supervisor lets the step a timer holds back go ahead before the time is up, saying why. */
 const timerOverriddenPayload = z
-  .object({ timerId: id(), reason: z.string().trim().min(3, "give the reason in a few words").max(500) })
+  .object({
+    timerId: id(),
+    reason: safeText({ label: "Reason", min: 3, max: 500, multiline: true, tooShort: "give the reason in a few words" }),
+  })
   .strict();
 
 const photoQueuedPayload = z
@@ -113,7 +117,7 @@ const photoQueuedPayload = z
     stepId: id(),
     contentType: z.enum(PHOTO_CONTENT_TYPES),
     byteSize: z.number().int().positive().max(MAX_PHOTO_BYTES),
-    caption: z.string().max(500).optional(),
+    caption: safeText({ label: "Caption", max: 500 }).optional(),
   })
   .strict();
 
@@ -124,14 +128,9 @@ export const PART_TEXT_LIMITS = { partNumber: 60, description: 200, serial: 80, 
 /** Most of one part a single record may hold (a box of bolts, not a pallet). */
 export const MAX_PART_QUANTITY = 1000;
 
-// One line of text: trimmed, not empty, no line breaks, tabs or other control characters.
+// One line of text: trimmed, not empty, no line breaks, tabs, NUL, other control characters or broken characters.
 const partText = (name: string, max: number, ifEmpty = `enter the ${name}`) =>
-  z
-    .string({ error: `${name} must be text` })
-    .trim()
-    .min(1, ifEmpty)
-    .max(max, `${name} is too long: keep it to ${max} characters`)
-    .regex(/^\P{Cc}*$/u, `${name} must be on one line (no line breaks or tabs)`);
+  safeText({ label: name.charAt(0).toUpperCase() + name.slice(1), min: 1, max, tooShort: ifEmpty });
 const optionalPartText = (name: string, max: number) => partText(name, max, `${name} is empty: enter it, or leave it out`).optional();
 
 /**
@@ -175,7 +174,7 @@ const common = {
   authorId: id(),
   deviceId: deviceIdSchema,
   /** The tablet's wall clock when the operation was made (for people; ordering uses `stamp`). */
-  deviceTime: isoTime(),
+  deviceTime: isoTime("Tablet time"),
   stamp: stampSchema,
 };
 

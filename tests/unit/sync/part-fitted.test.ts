@@ -75,7 +75,7 @@ describe("part.fitted payload", () => {
       ["description", "enter the description"],
     ]);
     const { description: _d, ...noDescription } = good();
-    expect(issues(noDescription)).toEqual([["description", "description must be text"]]);
+    expect(issues(noDescription)).toEqual([["description", "Description must be text."]]);
   });
 
   it("refuses an empty optional field rather than storing a blank", () => {
@@ -85,19 +85,19 @@ describe("part.fitted payload", () => {
   it("holds the length limits, counting after the trim", () => {
     expect(partFittedPayload.safeParse({ ...good(), partNumber: "P".repeat(60) }).success).toBe(true);
     expect(issues({ ...good(), partNumber: "P".repeat(61) })).toEqual([
-      ["partNumber", "part number is too long: keep it to 60 characters"],
+      ["partNumber", "Part number: at most 60 characters."],
     ]);
     expect(issues({ ...good(), description: "d".repeat(201) })).toEqual([
-      ["description", "description is too long: keep it to 200 characters"],
+      ["description", "Description: at most 200 characters."],
     ]);
-    expect(issues({ ...good(), serial: "S".repeat(81) })).toEqual([["serial", "serial number is too long: keep it to 80 characters"]]);
-    expect(issues({ ...good(), supplier: "s".repeat(121) })).toEqual([["supplier", "supplier is too long: keep it to 120 characters"]]);
+    expect(issues({ ...good(), serial: "S".repeat(81) })).toEqual([["serial", "Serial number: at most 80 characters."]]);
+    expect(issues({ ...good(), supplier: "s".repeat(121) })).toEqual([["supplier", "Supplier: at most 120 characters."]]);
     expect(partFittedPayload.safeParse({ ...good(), serial: ` ${"S".repeat(80)} ` }).success).toBe(true);
   });
 
   it("keeps each text on one line", () => {
     expect(issues({ ...good(), serial: "GS-0042\nGS-0043" })).toEqual([
-      ["serial", "serial number must be on one line (no line breaks or tabs)"],
+      ["serial", "Serial number must be on one line (no line breaks or tabs)."],
     ]);
   });
 

@@ -1,0 +1,96 @@
+import { z } from "zod";
+
+// Values that PostgreSQL and every later reader (PDF, CSV, e-mail, another tablet) accept, checked
+// at the edge. A text with a NUL character or a lone UTF-16 surrogate is refused by PostgreSQL's
+// text type or by a UTF-8 encoder; a date in year 0000 or 275760 is refused by timestamptz or by
+// JavaScript; NaN and Infinity are refused by numeric columns and JSON. Such input is answered
+// here, per field and in workshop words, never by a failed transaction that takes other work
+// down with it.
+
+/** Earliest and latest instants Benchtag accepts for anything that happened at the bench or the office. */
+export const SANE_TIME_RANGE = { from: Date.UTC(2000, 0, 1), to: Date.UTC(2100, 0, 1) } as const;
+
+/** NUL and the other control characters except tab, line feed and carriage return. */
+// eslint-disable-next-line no-control-regex -- finding control characters is the point
+const CONTROL = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F]/u;
+/** Line breaks and tabs: not allowed in a one-line text. */
+const LINE_BREAK_OR_TAB = /[\t\n\r\u2028\u2029]/u;
+
+/** True when `s` holds a UTF-16 surrogate that is not part of a pair (not encodable as UTF-8). */
+export function hasLoneSurrogate(s: string): boolean {
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c >= 0xd800 && c <= 0xdbff) {
+      const next = s.charCodeAt(i + 1);
+      if (next >= 0xdc00 && next <= 0xdfff) {
+        i++;
+        continue;
+      }
+      return true;
+    }
+    if (c >= 0xdc00 && c <= 0xdfff) return true;
+  }
+  return false;
+}
+
+/** Why a text cannot be stored, in plain words, or null when it can. */
+export function textProblem(s: string, opts: { label: string; multiline?: boolean }): string | null {
+  if (s.includes("\u0000")) return `${opts.label} holds a NUL character, which cannot be stored: retype it.`;
+  if (hasLoneSurrogate(s)) return `${opts.label} holds a broken character (half of an emoji or symbol): retype it.`;
+  if (CONTROL.test(s)) return `${opts.label} holds a control character, which cannot be stored: retype it.`;
+  if (!opts.multiline && LINE_BREAK_OR_TAB.test(s)) return `${opts.label} must be on one line (no line breaks or tabs).`;
+  return null;
+}
+
+export interface SafeTextOptions {
+  /** The label the person sees, used in every message. */
+  label: string;
+  max: number;
+  /** At least this many characters after trimming (0: may be empty). */
+  min?: number;
+  /** Message when shorter than `min`. */
+  tooShort?: string;
+  /** Line breaks allowed (notes); tabs too. */
+  multiline?: boolean;
+}
+
+/** A trimmed text that PostgreSQL and the next reader accept, with messages naming the field. */
+export function safeText(opts: SafeTextOptions) {
+  const { label, max, min = 0 } = opts;
+  return z
+    .string({ error: `${label} must be text.` })
+    .trim()
+    .min(min, opts.tooShort ?? (min <= 1 ? `Enter the ${label.toLowerCase()}.` : `${label}: at least ${min} characters.`))
+    .max(max, `${label}: at most ${max} characters.`)
+    .superRefine((s, ctx) => {
+      const problem = textProblem(s, opts);
+      if (problem) ctx.addIssue({ code: "custom", message: problem });
+    });
+}
+
+/** True when `ms` is a real instant inside SANE_TIME_RANGE. */
+export function isSaneInstant(ms: number): boolean {
+  return Number.isFinite(ms) && ms >= SANE_TIME_RANGE.from && ms < SANE_TIME_RANGE.to;
+}
+
+/** An ISO 8601 date-time with a zone, between the years 2000 and 2099, kept as the string sent. */
+export function saneInstant(label: string) {
+  return z.string({ error: `${label} must be a date and time.` }).superRefine((s, ctx) => {
+    if (!z.iso.datetime({ offset: true }).safeParse(s).success) {
+      ctx.addIssue({ code: "custom", message: `${label} must be a date and time with a time zone, e.g. 2026-12-02T09:30:00.000Z.` });
+      return;
+    }
+    if (!isSaneInstant(Date.parse(s))) {
+      ctx.addIssue({ code: "custom", message: `${label} must be between the years 2000 and 2099; the tablet's clock may be wrong.` });
+    }
+  });
+}
+
+/** A finite number (never NaN or Infinity) between `min` and `max`, with the unit in the message. */
+export function finiteNumber(opts: { label: string; min: number; max: number; unit?: string; int?: boolean }) {
+  const unit = opts.unit ? ` ${opts.unit}` : "";
+  const range = `between ${opts.min}${unit} and ${opts.max}${unit}`;
+  let n = z.number({ error: `${opts.label} must be a number ${range}.` });
+  if (opts.int) n = n.int(`${opts.label} must be a whole number ${range}.`);
+  return n.min(opts.min, `${opts.label} must be ${range}.`).max(opts.max, `${opts.label} must be ${range}.`);
+}

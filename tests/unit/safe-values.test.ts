@@ -1,0 +1,96 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { finiteNumber, hasLoneSurrogate, safeText, saneInstant } from "@/lib/safe-values";
+import { operationSchema } from "@/lib/sync/operations";
+
+// Inputs PostgreSQL refuses (NUL in text: "invalid byte sequence for encoding UTF8: 0x00"; a lone
+// surrogate cannot be encoded as UTF-8; timestamptz and Date refuse year 0000 / 275760) must be
+// refused at the edge, per field, in workshop words.
+const note = safeText({ label: "Note", max: 20, multiline: true });
+const oneLine = safeText({ label: "Batch number", min: 1, max: 20 });
+const messages = (r: { success: boolean; error?: { issues: { message: string }[] } }) => r.error?.issues.map((i) => i.message) ?? [];
+
+describe("safe text", () => {
+  it("refuses NUL, lone surrogates and control characters, naming the field", () => {
+    expect(messages(note.safeParse("torque\u0000ok"))).toEqual(["Note holds a NUL character, which cannot be stored: retype it."]);
+    expect(messages(note.safeParse("ok \uD83D here"))[0]).toMatch(/^Note holds a broken character/);
+    expect(messages(note.safeParse("\uDC00"))[0]).toMatch(/broken character/);
+    expect(messages(note.safeParse("bell\u0007"))[0]).toMatch(/control character/);
+  });
+
+  it("keeps real emoji, accents and, where allowed, line breaks", () => {
+    expect(note.parse(" gap 0.030 ✓ 🔧 ")).toBe("gap 0.030 ✓ 🔧");
+    expect(note.parse("line one\nline two")).toBe("line one\nline two");
+    expect(messages(oneLine.safeParse("B-1\nB-2"))).toEqual(["Batch number must be on one line (no line breaks or tabs)."]);
+  });
+
+  it("says the limits in words", () => {
+    expect(messages(oneLine.safeParse("   "))).toEqual(["Enter the batch number."]);
+    expect(messages(note.safeParse("x".repeat(21)))).toEqual(["Note: at most 20 characters."]);
+    expect(messages(note.safeParse(42))).toEqual(["Note must be text."]);
+  });
+
+  it("anything it accepts encodes to UTF-8 and back unchanged, and holds no NUL (property)", () => {
+    fc.assert(
+      fc.property(fc.string({ unit: "binary", maxLength: 20 }), (s) => {
+        const r = note.safeParse(s);
+        if (!r.success) return;
+        expect(r.data.includes("\u0000")).toBe(false);
+        expect(hasLoneSurrogate(r.data)).toBe(false);
+        expect(new TextDecoder().decode(new TextEncoder().encode(r.data))).toBe(r.data);
+      }),
+    );
+  });
+});
+
+describe("sane instants", () => {
+  const at = saneInstant("Tablet time");
+  it("accepts a real time with a zone and keeps the string", () => {
+    expect(at.parse("2026-12-02T09:30:00.000Z")).toBe("2026-12-02T09:30:00.000Z");
+    expect(at.parse("2026-12-02T10:30:00+01:00")).toBe("2026-12-02T10:30:00+01:00");
+  });
+  it("refuses year 0000, far futures and times without a zone", () => {
+    expect(messages(at.safeParse("0000-01-01T00:00:00.000Z"))).toEqual([
+      "Tablet time must be between the years 2000 and 2099; the tablet's clock may be wrong.",
+    ]);
+    expect(messages(at.safeParse("2199-01-01T00:00:00Z"))[0]).toMatch(/between the years 2000 and 2099/);
+    expect(messages(at.safeParse("2026-12-02T09:30:00"))[0]).toMatch(/with a time zone/);
+  });
+});
+
+describe("finite numbers", () => {
+  const torque = finiteNumber({ label: "Wrench reading", min: 0, max: 2000, unit: "N·m" });
+  it("refuses NaN, Infinity and out-of-range values with the unit", () => {
+    for (const bad of [Number.NaN, Number.POSITIVE_INFINITY]) {
+      expect(messages(torque.safeParse(bad))).toEqual(["Wrench reading must be a number between 0 N·m and 2000 N·m."]);
+    }
+    for (const bad of [-1, 1e308]) expect(messages(torque.safeParse(bad))).toEqual(["Wrench reading must be between 0 N·m and 2000 N·m."]);
+    expect(torque.parse(45.5)).toBe(45.5);
+  });
+});
+
+describe("the sync wire format uses them", () => {
+  const base = {
+    id: "5b0b8a4e-2a4b-4a8e-9a64-0d7a3b1c2d3e",
+    workOrderId: "6b0b8a4e-2a4b-4a8e-9a64-0d7a3b1c2d3e",
+    authorId: "7b0b8a4e-2a4b-4a8e-9a64-0d7a3b1c2d3e",
+    deviceId: "tab-1",
+    deviceTime: "2026-12-02T09:30:00.000Z",
+    stamp: "001764667800000-000000-tab-1",
+  };
+  const step = "8b0b8a4e-2a4b-4a8e-9a64-0d7a3b1c2d3e";
+  it("refuses a note with NUL, a caption with a lone surrogate and a year-0000 device time", () => {
+    const spec = "9b0b8a4e-2a4b-4a8e-9a64-0d7a3b1c2d3e";
+    const reading = { stepId: step, specId: spec, readingIndex: 0, value: 0.03, unit: "mm" };
+    expect(operationSchema.safeParse({ ...base, kind: "measurement.recorded", payload: { ...reading, note: "a\u0000b" } }).success).toBe(
+      false,
+    );
+    expect(operationSchema.safeParse({ ...base, kind: "measurement.recorded", payload: reading }).success).toBe(true);
+    const photo = { attachmentId: spec, stepId: step, contentType: "image/jpeg", byteSize: 10, caption: "\uD800" };
+    expect(operationSchema.safeParse({ ...base, kind: "photo.queued", payload: photo }).success).toBe(false);
+    expect(
+      operationSchema.safeParse({ ...base, deviceTime: "0000-01-01T00:00:00.000Z", kind: "step.completed", payload: { stepId: step } })
+        .success,
+    ).toBe(false);
+  });
+});
