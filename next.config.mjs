@@ -38,7 +38,7 @@ const nextConfig = {
       { source: "/icons/:path*", headers: csp(NOT_A_PAGE) },
       { source: "/manifest.webmanifest", headers: csp(NOT_A_PAGE) },
       { source: "/favicon.ico", headers: csp(NOT_A_PAGE) },
-      { source: "/swe-worker-:rest*", headers: csp(WORKER) },
+      { source: "/:file(swe-worker-.*\\.js)", headers: csp(WORKER) },
       {
         source: "/sw.js",
         headers: [

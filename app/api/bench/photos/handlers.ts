@@ -35,7 +35,7 @@ export function photoUpload(store: PhotoStore) {
       if (bytes.byteLength !== row.byteSize)
         throw new Refusal(`The photo was queued as ${row.byteSize} bytes but ${bytes.byteLength} arrived.`, 422);
       if (!(await bytesAreOfType(bytes, row.contentType)))
-        throw new Refusal(`The bytes sent are not a ${row.contentType} photo.`, 415);
+        throw new Refusal(`The bytes sent are not a photo of the queued type (${row.contentType}).`, 415);
       await store.put(row.objectKey, Buffer.from(bytes), row.contentType);
       await markPhotoUploaded(db, user.shopId, row.id);
       await appendAudit(db, [
