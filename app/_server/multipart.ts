@@ -68,7 +68,11 @@ export async function readMultipart(req: Request, limits: MultipartLimits): Prom
       const chunks: Buffer[] = [];
       stream.on("data", (c: Buffer) => chunks.push(c));
       stream.on("limit", () =>
-        fail(new Refusal(`${info.filename || "A file"} is larger than ${mib(limits.maxFileBytes)}.`, 413, [{ path: name, message: `${info.filename}: over ${mib(limits.maxFileBytes)}` }])),
+        fail(
+          new Refusal(`${info.filename || "A file"} is larger than ${mib(limits.maxFileBytes)}.`, 413, [
+            { path: name, message: `${info.filename}: over ${mib(limits.maxFileBytes)}` },
+          ]),
+        ),
       );
       stream.on("end", () => {
         if (!failed) form.append(name, new File(chunks as Uint8Array<ArrayBuffer>[], info.filename || "file", { type: info.mimeType }));

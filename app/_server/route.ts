@@ -219,7 +219,8 @@ async function readBody(req: Request, spec: BodySpec | undefined): Promise<unkno
       throw new Refusal(`The body is ${declared} bytes; the limit is ${spec.maxBytes} bytes.`, 413);
     const body: BinaryBody = {
       type,
-      read: (maxBytes = spec.maxBytes) => readLimited(req, { maxBytes: Math.min(maxBytes, spec.maxBytes), tooLargeHint: spec.tooLargeHint }),
+      read: (maxBytes = spec.maxBytes) =>
+        readLimited(req, { maxBytes: Math.min(maxBytes, spec.maxBytes), tooLargeHint: spec.tooLargeHint }),
     };
     return body;
   }

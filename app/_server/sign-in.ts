@@ -64,7 +64,11 @@ export async function signInWithPassword(
   const result = await db.transaction().execute(async (trx) => {
     await holdAddressForSignIn(trx, address);
     const states = await bucketStates(trx, [keys.pair, keys.address]);
-    const pairWait = waitLeft(states.get(keys.pair)?.failures ?? 0, states.get(keys.pair)?.secondsSinceLastFailure ?? null, SIGN_IN_WAITS.pair);
+    const pairWait = waitLeft(
+      states.get(keys.pair)?.failures ?? 0,
+      states.get(keys.pair)?.secondsSinceLastFailure ?? null,
+      SIGN_IN_WAITS.pair,
+    );
     const addressWait = waitLeft(
       states.get(keys.address)?.failures ?? 0,
       states.get(keys.address)?.secondsSinceLastFailure ?? null,

@@ -30,7 +30,10 @@ export async function bucketStates(db: Db, keys: readonly string[]): Promise<Map
     ) a ON true
     GROUP BY k.key`.execute(db);
   return new Map(
-    rows.map((r) => [r.key, { key: r.key, failures: Number(r.failures), secondsSinceLastFailure: r.since === null ? null : Number(r.since) }]),
+    rows.map((r) => [
+      r.key,
+      { key: r.key, failures: Number(r.failures), secondsSinceLastFailure: r.since === null ? null : Number(r.since) },
+    ]),
   );
 }
 

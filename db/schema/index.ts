@@ -11,14 +11,6 @@ import type { WorkOrderTables } from "./work-orders";
 
 // The whole database as Kysely sees it: one file per subject in this folder.
 export interface Database
-  extends ShopTables,
-    TemplateTables,
-    WorkOrderTables,
-    BenchTables,
-    ReviewTables,
-    OfficeTables,
-    DynoTables,
-    AuditTables,
-    SessionTables {}
+  extends ShopTables, TemplateTables, WorkOrderTables, BenchTables, ReviewTables, OfficeTables, DynoTables, AuditTables, SessionTables {}
 
 export type User = Selectable<UsersTable>;

@@ -22,7 +22,14 @@ export const outboxHandoverSchema = z
     deviceId: deviceIdSchema,
     entries: z.array(z.record(z.string(), z.unknown())).max(SYNC_LIMITS.maxOperations),
     photosLeft: z
-      .array(z.object({ id: z.string().max(64), stepId: z.string().max(64), byteSize: z.number().int().nonnegative(), caption: z.string().max(400) }))
+      .array(
+        z.object({
+          id: z.string().max(64),
+          stepId: z.string().max(64),
+          byteSize: z.number().int().nonnegative(),
+          caption: z.string().max(400),
+        }),
+      )
       .max(1000),
   })
   .strict();

@@ -33,7 +33,8 @@ export function productionSettingProblems(env: Record<string, string | undefined
     else if (defaults.includes(value)) problems.push(`${name} is the local demo's value, which is public: set a secret of your own.`);
   }
   const session = env.NEXTAUTH_SECRET?.trim();
-  if (session && session.length < 32) problems.push("NEXTAUTH_SECRET is shorter than 32 characters: make one with `openssl rand -base64 32`.");
+  if (session && session.length < 32)
+    problems.push("NEXTAUTH_SECRET is shorter than 32 characters: make one with `openssl rand -base64 32`.");
   const url = env.NEXTAUTH_URL?.trim();
   if (!url) problems.push("NEXTAUTH_URL (the public https address) is not set.");
   else if (!/^https:\/\//i.test(url)) problems.push(`NEXTAUTH_URL is ${url}: the public address must be https.`);

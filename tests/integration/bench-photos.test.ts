@@ -40,7 +40,8 @@ const photoBytesResponse = (user: SessionUser | null, db: Db, store: PhotoStore,
   photoBytes(store).handle(appRequest(`/api/bench/photos/${id}`), { user, db, params: { id } });
 
 /** A JPEG by its first bytes (SOI marker and a JFIF APP0 header, ISO/IEC 10918-1), then `rest`. */
-const jpeg = (rest: string) => Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01]), Buffer.from(rest)]);
+const jpeg = (rest: string) =>
+  Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01]), Buffer.from(rest)]);
 
 describe("step photo bytes", () => {
   async function queued(bytes: Buffer) {
@@ -105,7 +106,10 @@ describe("step photo bytes", () => {
     // the bytes decide what a photo is, not the type declared: a web page sent as a JPEG is refused
     const page = Buffer.from(`<html><script>alert(1)</script>${"x".repeat(bytes.byteLength)}`).subarray(0, bytes.byteLength);
     const notAPhoto = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, page));
-    expect([notAPhoto.status, (await notAPhoto.json()).error]).toEqual([415, "The bytes sent are not a photo of the queued type (image/jpeg)."]);
+    expect([notAPhoto.status, (await notAPhoto.json()).error]).toEqual([
+      415,
+      "The bytes sent are not a photo of the queued type (image/jpeg).",
+    ]);
     const unknown = randomUUID();
     expect((await uploadPhotoResponse(mech, db, store, unknown, upload(unknown, bytes))).status).toBe(404);
     expect((await uploadPhotoResponse(mech, db, store, "not-a-uuid", upload(photoId, bytes))).status).toBe(400);

@@ -15,9 +15,7 @@ const BOUNDARY = "----benchtag-test-boundary";
 /** A multipart body with text fields and one file of `fileBytes` bytes made on demand; `pulled()` says how many were read. */
 function lazyForm(fields: Record<string, string>, file: { name: string; type: string; head: Uint8Array; size: number }) {
   const enc = new TextEncoder();
-  const parts = Object.entries(fields).map(
-    ([k, v]) => `--${BOUNDARY}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`,
-  );
+  const parts = Object.entries(fields).map(([k, v]) => `--${BOUNDARY}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`);
   const fileHeader = `--${BOUNDARY}\r\nContent-Disposition: form-data; name="photos"; filename="${file.name}"\r\nContent-Type: ${file.type}\r\n\r\n`;
   const chunk = new Uint8Array(256 * 1024).fill(0x41);
   let sent = 0;

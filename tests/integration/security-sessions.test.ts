@@ -97,7 +97,11 @@ describe("server-side sessions", () => {
     expect(await state(sid)).toBe("open");
     expect((await row()).expires_at.getTime() - Date.now()).toBeLessThan(3 * 60 * 1000);
     // idle past its expiry: refused
-    await db.updateTable("sessions").set({ expires_at: sql<Date>`now() - interval '1 second'` }).where("id", "=", sid).execute();
+    await db
+      .updateTable("sessions")
+      .set({ expires_at: sql<Date>`now() - interval '1 second'` })
+      .where("id", "=", sid)
+      .execute();
     expect(await state(sid)).toBe("expired");
   });
 

@@ -44,7 +44,11 @@ function BenchRoot({ user }: { user: BenchUser }) {
       <div data-bay={bayLight} data-testid="bench-root" className="flex flex-1 flex-col bg-paper text-ink">
         <SyncBar syncing={syncing} bayLight={bayLight} onToggleBayLight={toggleBayLight} />
         {tabletSession !== "open" && (
-          <p role="alert" data-testid="session-ended" className="border-y-4 border-fail bg-fail-light px-6 py-4 text-xl font-bold text-fail">
+          <p
+            role="alert"
+            data-testid="session-ended"
+            className="border-y-4 border-fail bg-fail-light px-6 py-4 text-xl font-bold text-fail"
+          >
             ■ The office ended this tablet&apos;s session.{" "}
             {tabletSession === "handing-over"
               ? "Handing the work not yet sent to the office, then clearing this tablet…"

@@ -38,7 +38,10 @@ const PUBLIC: Record<string, { check: string; mustContain: Array<{ file: string;
     check: "ended-session",
     mustContain: [
       { file: "app/api/bench/outbox-handover/route.ts", text: "sessionEndedByOthers(db, claim.sessionId)" },
-      { file: "db/auth/sessions.ts", text: `.where("ended_reason", "in", ["ended-by-office", "tablet-ended-by-office", "user-turned-off"])` },
+      {
+        file: "db/auth/sessions.ts",
+        text: `.where("ended_reason", "in", ["ended-by-office", "tablet-ended-by-office", "user-turned-off"])`,
+      },
     ],
   },
   "app/api/payments/webhook/route.ts": {

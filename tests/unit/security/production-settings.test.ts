@@ -40,6 +40,8 @@ describe("a production start", () => {
     expect(productionSettingProblems({ ...good, NEXTAUTH_SECRET: "e2e-only-secret-not-for-production" })).toEqual([
       "NEXTAUTH_SECRET is the local demo's value, which is public: set a secret of your own.",
     ]);
-    expect(refusedStartMessage(["X is not set."])).toMatch(/refuses to start in production[\s\S]*- X is not set\.[\s\S]*BENCHTAG_LOCAL_DEMO=1/);
+    expect(refusedStartMessage(["X is not set."])).toMatch(
+      /refuses to start in production[\s\S]*- X is not set\.[\s\S]*BENCHTAG_LOCAL_DEMO=1/,
+    );
   });
 });

@@ -23,7 +23,11 @@ describe("sign-in waits", () => {
   it("name buckets so the office can read them back", () => {
     const pair = bucketKey("pair", { email: "a|b@example.test", address: "192.0.2.1" });
     expect(parseBucketKey(pair)).toEqual({ kind: "pair", email: "a|b@example.test", address: "192.0.2.1" });
-    expect(parseBucketKey(bucketKey("address", { address: "2001:db8::/64" }))).toEqual({ kind: "address", email: null, address: "2001:db8::/64" });
+    expect(parseBucketKey(bucketKey("address", { address: "2001:db8::/64" }))).toEqual({
+      kind: "address",
+      email: null,
+      address: "2001:db8::/64",
+    });
     expect(parseBucketKey("email:old@example.test")).toBeNull();
   });
 

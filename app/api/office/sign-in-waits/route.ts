@@ -15,7 +15,14 @@ export const POST = route({ access: { area: "users" }, body: json(clearWaitSchem
   if (!parseBucketKey(body.key) || !(await clearSignInBucket(db, user.shopId, body.key, user.id)))
     throw new Refusal("No sign-in wait of this shop by that name.", 404);
   await appendAudit(db, [
-    { shopId: user.shopId, actorId: user.id, action: "sign-in.wait-cleared", entity: "sign-in-wait", entityId: body.key, outcome: "accepted" },
+    {
+      shopId: user.shopId,
+      actorId: user.id,
+      action: "sign-in.wait-cleared",
+      entity: "sign-in-wait",
+      entityId: body.key,
+      outcome: "accepted",
+    },
   ]);
   return { cleared: body.key };
 });

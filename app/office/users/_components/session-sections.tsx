@@ -21,8 +21,8 @@ export function OpenSessions({ sessions }: { sessions: Sessions }) {
     <section className="mt-8" data-testid="open-sessions">
       <h2 className="text-2xl font-bold">Signed in now</h2>
       <p className="mt-1 text-lg text-steel-700">
-        Ending a session signs that person out on the device at once. A tablet whose session you end hands its unsent work to you
-        (listed below) and clears itself.
+        Ending a session signs that person out on the device at once. A tablet whose session you end hands its unsent work to you (listed
+        below) and clears itself.
       </p>
       <table className="mt-4 w-full border-collapse text-left text-lg">
         <thead>
@@ -76,8 +76,8 @@ export function SignInWaits({ waits }: { waits: WaitRow[] }) {
     <section className="mt-8" data-testid="sign-in-waits">
       <h2 className="text-2xl font-bold">Sign-in waits</h2>
       <p className="mt-1 text-lg text-steel-700">
-        Wrong passwords make the next try from the same place wait a little longer each time (up to 5 minutes). An account is never
-        locked: its owner can sign in from elsewhere at once. Clear a wait when you know who it was.
+        Wrong passwords make the next try from the same place wait a little longer each time (up to 5 minutes). An account is never locked:
+        its owner can sign in from elsewhere at once. Clear a wait when you know who it was.
       </p>
       <table className="mt-4 w-full border-collapse text-left text-lg">
         <thead>
@@ -103,7 +103,12 @@ export function SignInWaits({ waits }: { waits: WaitRow[] }) {
                 {w.waitSeconds > 0 ? `■ Waiting ${w.waitSeconds} s` : w.slowed ? "▲ Slowed (1.5 s per try)" : "● No wait"}
               </td>
               <td className="py-2 pr-4">
-                <PostButton url="/api/office/sign-in-waits" body={{ key: w.key }} label="Clear" ariaLabel={`Clear the sign-in wait ${w.key}`} />
+                <PostButton
+                  url="/api/office/sign-in-waits"
+                  body={{ key: w.key }}
+                  label="Clear"
+                  ariaLabel={`Clear the sign-in wait ${w.key}`}
+                />
               </td>
             </tr>
           ))}
