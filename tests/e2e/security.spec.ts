@@ -411,3 +411,46 @@ test("signing in with the right password works from a fresh address even while t
   expect((await (await me.get("/api/me")).json()).name).toBe(mechanic.name);
   await me.dispose();
 });
+
+test("a production start refuses missing or default secrets and plain http, and starts with real ones", async () => {
+  const { spawn } = await import("node:child_process");
+  const start = (env: Record<string, string | undefined>) =>
+    new Promise<{ code: number | null; out: string }>((resolve) => {
+      const child = spawn(process.execPath, ["server.mjs"], {
+        cwd: root,
+        env: {
+          PATH: process.env.PATH,
+          HOME: process.env.HOME,
+          NEXT_TELEMETRY_DISABLED: "1",
+          NODE_ENV: "production",
+          PORT: String(E2E_PORT + 6),
+          ...env,
+        },
+      });
+      let out = "";
+      const done = (code: number | null) => resolve({ code, out });
+      child.stdout.on("data", (d) => {
+        out += d;
+        if (out.includes("[benchtag] serving on")) {
+          child.kill("SIGTERM");
+          done(0);
+        }
+      });
+      child.stderr.on("data", (d) => (out += d));
+      child.on("exit", (code) => done(code));
+      setTimeout(() => child.kill("SIGKILL"), 60_000);
+    });
+  const refused = await start({ NEXTAUTH_SECRET: "e2e-only-secret-not-for-production", STRIPE_WEBHOOK_SECRET: "whsec_benchtag_local" });
+  expect(refused.code).toBe(1);
+  expect(refused.out).toContain("Benchtag refuses to start in production with these settings:");
+  expect(refused.out).toContain("NEXTAUTH_SECRET is the local demo's value");
+  expect(refused.out).toContain("STRIPE_WEBHOOK_SECRET is the local demo's value");
+  const started = await start({
+    NEXTAUTH_SECRET: "a-real-secret-of-at-least-32-characters-1234",
+    NEXTAUTH_URL: "https://bench.example.test",
+    STRIPE_WEBHOOK_SECRET: "whsec_production_example",
+    STRIPE_SECRET_KEY: "sk_live_production_example",
+    S3_SECRET_ACCESS_KEY: "production-example",
+  });
+  expect([started.code, started.out]).toEqual([0, expect.stringContaining("[benchtag] serving on")]);
+});
