@@ -454,3 +454,38 @@ test("a production start refuses missing or default secrets and plain http, and 
   });
   expect([started.code, started.out]).toEqual([0, expect.stringContaining("[benchtag] serving on")]);
 });
+
+test("on Sign-ins the office sees who is signed in on which tablet, ends a tablet's sessions and clears a sign-in wait", async ({
+  browser,
+}) => {
+  // a guesser leaves a wait on Dana's account at 127.0.0.3
+  const dana = demoUser("supervisor");
+  for (let i = 0; i < 4; i++) await signInFrom("127.0.0.3", dana.email, `guess-${i}`);
+  const tablet = await (await browser.newContext()).newPage();
+  await signIn(tablet, "mechanic");
+  await tablet.goto("/bench");
+  await expect(tablet.getByTestId("bench-root")).toBeVisible();
+  const deviceId = (await tablet.evaluate(() => localStorage.getItem("benchtag-device-id")))!;
+  await expect
+    .poll(async () => (await query("SELECT id FROM sessions WHERE device_id = $1 AND ended_at IS NULL", [deviceId])).length)
+    .toBe(1);
+
+  const office = await (await browser.newContext()).newPage();
+  await signIn(office, "office");
+  await office.goto("/office/users");
+  const row = office.getByTestId("session-row").filter({ hasText: deviceId });
+  await expect(row).toContainText("Tomas Reyes");
+  const wait = office.getByTestId("wait-row").filter({ hasText: dana.email }).filter({ hasText: "127.0.0.3" });
+  await expect(wait).toContainText("One account from one address");
+  await office.screenshot({ path: "test-results/office-sign-ins.png", fullPage: true });
+  await row.getByRole("button", { name: `End every session on tablet ${deviceId}` }).click();
+  await expect(office.getByTestId("session-row").filter({ hasText: deviceId })).toHaveCount(0);
+  expect((await tablet.request.get("/api/me")).status()).toBe(401);
+  await wait.getByRole("button", { name: /Clear the sign-in wait/ }).click();
+  await expect(office.getByTestId("wait-row").filter({ hasText: dana.email }).filter({ hasText: "127.0.0.3" })).toHaveCount(0);
+  const [cleared] = await query<{ n: string }>(
+    "SELECT count(*) AS n FROM audit_log WHERE action = 'sign-in.wait-cleared' AND entity_id = $1",
+    [`pair:${dana.email}|127.0.0.3`],
+  );
+  expect(Number(cleared.n)).toBe(1);
+});
