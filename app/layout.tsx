@@ -1,4 +1,5 @@
 import type { Metadata, Viewport } from "next";
+import { headers } from "next/headers";
 import type { ReactNode } from "react";
 import { bodyFont, figuresFont } from "./fonts";
 import "./globals.css";
@@ -19,7 +20,11 @@ export const viewport: Viewport = {
   initialScale: 1,
 };
 
-export default function RootLayout({ children }: { children: ReactNode }) {
+// Every page is rendered per request (reading the request's headers does that), so each gets the
+// nonce of its own Content-Security-Policy (proxy.ts) on its scripts. Only /offline is built once:
+// it is plain HTML that needs no script.
+export default async function RootLayout({ children }: { children: ReactNode }) {
+  await headers();
   return (
     <html lang="en" className={`${bodyFont.variable} ${figuresFont.variable}`}>
       <body className="min-h-screen">

@@ -54,6 +54,9 @@ export async function handlePaymentWebhook(
   }
   if (outcome.kind === "ignored") return { status: 200, body: { received: true, outcome: `ignored: ${outcome.reason}` } };
   if (outcome.kind === "failed") return { status: 200, body: { received: true, outcome: "deposit payment failed" } };
-  if (opts.sendMail !== false) await mailDepositReceived(db, outcome.shopId, outcome.workOrderId, (obj?.amount as number) ?? 0);
+  // One "deposit received" e-mail per deposit: only the event that paid it sends one; a later,
+  // different event about the same payment (a second succeeded event, a resend under a new id) does not.
+  if (!outcome.newlyPaid) return { status: 200, body: { received: true, outcome: "deposit already paid" } };
+  if (opts.sendMail !== false) await mailDepositReceived(db, outcome.shopId, outcome.workOrderId, outcome.amountMinor);
   return { status: 200, body: { received: true, outcome: "deposit paid" } };
 }

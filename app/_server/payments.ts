@@ -49,14 +49,33 @@ export async function startDepositPayment(d: {
   return { id: intent.id, status: intent.status };
 }
 
-// Verifies a webhook's signature (Stripe's scheme: HMAC-SHA256 over "timestamp.body", 5-minute
-// tolerance) and returns the event; throws when unsigned, wrongly signed or stale.
+/** How far a webhook's signature time may be from the server clock, either way. */
+export const WEBHOOK_TOLERANCE_S = 300;
+
+// Verifies a webhook's signature (Stripe's scheme: HMAC-SHA256 over "timestamp.body") and returns
+// the event; throws when unsigned, wrongly signed, or dated more than the tolerance before or
+// after the server clock. The SDK checks only the past; a signature dated in the future (a
+// captured one re-sent later would be, if the sender's clock ran ahead) is refused here.
 export function verifyPaymentWebhook(
   rawBody: string,
   signature: string | null,
   secret = officeConfig().STRIPE_WEBHOOK_SECRET,
-  toleranceS = 300,
+  toleranceS = WEBHOOK_TOLERANCE_S,
+  nowS = Math.floor(Date.now() / 1000),
 ): Stripe.Event {
   if (!signature) throw new Error("missing Stripe-Signature header");
-  return Stripe.webhooks.constructEvent(rawBody, signature, secret, toleranceS);
+  const event = Stripe.webhooks.constructEvent(rawBody, signature, secret, toleranceS);
+  const signedAt = signatureTime(signature);
+  if (signedAt === null) throw new Error("the Stripe-Signature header carries no time");
+  if (signedAt > nowS + toleranceS) throw new Error(`signature dated ${signedAt - nowS} s in the future (tolerance ${toleranceS} s)`);
+  return event;
+}
+
+/** The `t=` of a Stripe-Signature header (seconds since 1970), or null. */
+export function signatureTime(header: string): number | null {
+  const t = header
+    .split(",")
+    .map((part) => part.trim().split("="))
+    .find(([k]) => k === "t")?.[1];
+  return t && /^\d{1,12}$/.test(t) ? Number(t) : null;
 }

@@ -5,10 +5,12 @@ import { db as sharedDb, type Db } from "@/db/setup/client";
 import { isDatabaseFailure } from "@/db/setup/failures";
 import { loadSessionUser } from "@/db/shop/users";
 import { canReach, type Area } from "@/lib/auth/roles";
+import { SESSION_STATE_HEADER, type SessionState } from "@/lib/auth/session-lifetime";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { isUuid } from "@/lib/ids";
 import { CHECK_THE_FIELDS, DATABASE_NOT_ANSWERING, errorBody, Refusal, UNEXPECTED_FAILURE, type FieldIssue } from "@/lib/errors";
 import { issuesOf, workshopErrors, type FieldLabels } from "@/lib/zod-issues";
+import { readMultipart, type MultipartLimits } from "./multipart";
 import { readLimited, type BodyLimit } from "./request-body";
 import { isSameOrigin, NOT_FROM_OUR_PAGES } from "./same-origin";
 
@@ -40,7 +42,7 @@ export type BodySpec =
       emptyMessage?: string;
       before?: (raw: unknown) => void;
     } & BodyLimit)
-  | ({ kind: "multipart" } & BodyLimit)
+  | ({ kind: "multipart" } & MultipartLimits)
   | ({ kind: "binary"; types: readonly string[] } & BodyLimit)
   | ({ kind: "text"; types: readonly string[] } & BodyLimit);
 
@@ -49,10 +51,19 @@ type BodyOf<B> = B extends { kind: "json"; schema: infer S extends z.ZodType }
   : B extends { kind: "multipart" }
     ? FormData
     : B extends { kind: "binary" }
-      ? { bytes: Uint8Array; type: string }
+      ? BinaryBody
       : B extends { kind: "text" }
         ? string
         : undefined;
+
+/**
+ * Raw bytes, read only when the handler asks (after its own checks, e.g. that the photo is on
+ * record), and at most `maxBytes` — the route's limit or a smaller one the handler knows.
+ */
+export interface BinaryBody {
+  type: string;
+  read(maxBytes?: number): Promise<Uint8Array>;
+}
 
 export const KIB = 1024;
 export const MIB = 1024 * KIB;
@@ -71,11 +82,11 @@ export function json<S extends z.ZodType>(
 ) {
   return { kind: "json" as const, schema, maxBytes: opts.maxBytes ?? 256 * KIB, ...opts };
 }
-/** A multipart form (fields and files), at most `maxBytes`. */
-export function multipart(maxBytes: number) {
-  return { kind: "multipart" as const, maxBytes };
+/** A multipart form (fields and files), read as it streams within its limits (./multipart.ts). */
+export function multipart(limits: MultipartLimits) {
+  return { kind: "multipart" as const, ...limits };
 }
-/** Raw bytes of one of `types` (e.g. a photo), at most `maxBytes`. */
+/** Raw bytes of one of `types` (e.g. a photo), at most `maxBytes`, read when the handler asks. */
 export function binary(types: readonly string[], maxBytes: number) {
   return { kind: "binary" as const, types, maxBytes };
 }
@@ -90,9 +101,11 @@ export type Access = { area: Area } | { anyArea: readonly Area[] } | { signedIn:
 /**
  * The routes that no session guards, each naming the check it makes instead:
  * - "next-auth": next-auth's own sign-in endpoints (CSRF token; the credentials check is rate-limited);
- * - "payment-signature": the payment service's webhook, checked by its signature (no browser, no Origin).
+ * - "payment-signature": the payment service's webhook, checked by its signature (no browser, no Origin);
+ * - "ended-session": a tablet whose session the office ended hands over its unsent work; the handler
+ *   checks that the signed cookie names such a session (app/api/bench/outbox-handover).
  */
-export type PublicCheck = "next-auth" | "payment-signature";
+export type PublicCheck = "next-auth" | "payment-signature" | "ended-session";
 
 export interface RouteContext<P, B, Q, U> {
   req: Request;
@@ -101,6 +114,8 @@ export interface RouteContext<P, B, Q, U> {
   body: B;
   query: Q;
   db: Db;
+  /** The server-side session of the request (null when a test or script handed in the user). */
+  sessionId: string | null;
   /** Work to do after the answer is sent (next/server `after`; skipped when a test calls `handle`). */
   later: (work: () => Promise<unknown>) => void;
 }
@@ -197,16 +212,20 @@ async function readBody(req: Request, spec: BodySpec | undefined): Promise<unkno
   }
   const wanted = spec.kind === "json" ? ["application/json"] : spec.kind === "multipart" ? ["multipart/form-data"] : spec.types;
   if (!wanted.includes(type)) throw new Refusal(`This request takes ${wanted.join(" or ")}; ${type || "no type"} was sent.`, 415);
+  if (spec.kind === "multipart") return readMultipart(req, spec);
+  if (spec.kind === "binary") {
+    const declared = req.headers.get("content-length");
+    if (declared !== null && Number(declared) > spec.maxBytes)
+      throw new Refusal(`The body is ${declared} bytes; the limit is ${spec.maxBytes} bytes.`, 413);
+    const body: BinaryBody = {
+      type,
+      read: (maxBytes = spec.maxBytes) =>
+        readLimited(req, { maxBytes: Math.min(maxBytes, spec.maxBytes), tooLargeHint: spec.tooLargeHint }),
+    };
+    return body;
+  }
   const bytes = await readLimited(req, spec);
   switch (spec.kind) {
-    case "binary":
-      return { bytes, type };
-    case "multipart":
-      try {
-        return await new Response(bytes as BodyInit, { headers: { "content-type": req.headers.get("content-type") ?? type } }).formData();
-      } catch {
-        throw new Refusal("The form could not be read: send it again.", 400);
-      }
     case "text":
       return utf8(bytes);
     case "json": {
@@ -253,11 +272,23 @@ function pickParams(names: readonly string[], raw: RawParams = {}): Record<strin
   return out;
 }
 
-async function whoIsAsking(opts: CallOptions, db: Db): Promise<SessionUser | null> {
-  if (opts.user !== undefined) return opts.user;
+type Asking = { user: SessionUser; sessionId: string | null } | { refused: SessionState };
+
+async function whoIsAsking(opts: CallOptions, db: Db): Promise<Asking> {
+  if (opts.user !== undefined) return opts.user ? { user: opts.user, sessionId: null } : { refused: "expired" };
+  if (opts.userId !== undefined) {
+    const user = opts.userId ? await loadSessionUser(db, opts.userId) : null;
+    return user ? { user, sessionId: null } : { refused: "expired" };
+  }
   // next-auth loads only when a real request needs it (tests and scripts hand in the user).
-  const id = opts.userId !== undefined ? opts.userId : await (await import("./signed-in")).signedInUserId();
-  return id ? loadSessionUser(db, id) : null;
+  return (await import("./session")).lookUpSession(db);
+}
+
+/** 401, saying whether the session was ended on the server (the tablet then lets go of its data). */
+function notSignedIn(state: SessionState): Response {
+  const res = refusalResponse(401, state === "ended" ? "Your session was ended: sign in again." : "Sign in first.");
+  res.headers.set(SESSION_STATE_HEADER, state);
+  return res;
 }
 
 function mayPass(user: SessionUser, access: Access): boolean {
@@ -286,9 +317,11 @@ function build<R>(
       }
       const db = opts.db ?? sharedDb();
       let user: SessionUser | null = null;
+      let sessionId: string | null = null;
       if ("access" in gate) {
-        user = await whoIsAsking(opts, db);
-        if (!user) return refusalResponse(401, "Sign in first.");
+        const asking = await whoIsAsking(opts, db);
+        if ("refused" in asking) return notSignedIn(asking.refused);
+        ({ user, sessionId } = asking);
         if (!mayPass(user, gate.access)) return refusalResponse(403, `Your role (${user.role}) may not use this.`);
       }
       const params = pickParams(spec.params ?? [], opts.params);
@@ -297,7 +330,7 @@ function build<R>(
       const later =
         opts.later ??
         (opts.db || opts.user !== undefined || opts.userId !== undefined ? () => undefined : (work: () => Promise<unknown>) => after(work));
-      return toResponse(await run({ req, user, params, body, query, db, later }));
+      return toResponse(await run({ req, user, params, body, query, db, sessionId, later }));
     } catch (e) {
       return answerFailure(e);
     }

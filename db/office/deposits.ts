@@ -65,7 +65,7 @@ export async function attachPaymentIntent(db: Kysely<Database>, depositId: strin
 }
 
 type PaymentOutcome =
-  | { kind: "paid"; depositId: string; shopId: string; workOrderId: string }
+  | { kind: "paid"; depositId: string; shopId: string; workOrderId: string; amountMinor: number; newlyPaid: boolean }
   | { kind: "failed"; depositId: string }
   | { kind: "replayed" }
   | { kind: "ignored"; reason: string };
@@ -130,7 +130,8 @@ export async function applyPaymentEvent(
       ]);
       return { kind: "ignored", reason: "amount or currency does not match the deposit" } as const;
     }
-    if (dep.status !== "paid") {
+    const newlyPaid = dep.status !== "paid";
+    if (newlyPaid) {
       await trx.updateTable("deposits").set({ status: "paid", paid_at: new Date() }).where("id", "=", dep.id).execute();
       await appendAudit(trx, [
         {
@@ -145,7 +146,16 @@ export async function applyPaymentEvent(
         },
       ]);
     }
-    return { kind: "paid", depositId: dep.id, shopId: dep.shop_id, workOrderId: dep.work_order_id } as const;
+    // newlyPaid: this event is the one that paid it (the row is locked, so of two events about one
+    // deposit arriving together exactly one sees it unpaid): only then is the customer e-mailed.
+    return {
+      kind: "paid",
+      depositId: dep.id,
+      shopId: dep.shop_id,
+      workOrderId: dep.work_order_id,
+      amountMinor: dep.amount_minor,
+      newlyPaid,
+    } as const;
   });
 }
 

@@ -4,12 +4,13 @@ import type { BenchTables } from "./bench";
 import type { DynoTables } from "./dyno";
 import type { OfficeTables } from "./office";
 import type { ReviewTables } from "./review";
+import type { SessionTables } from "./sessions";
 import type { ShopTables, UsersTable } from "./shop";
 import type { TemplateTables } from "./templates";
 import type { WorkOrderTables } from "./work-orders";
 
 // The whole database as Kysely sees it: one file per subject in this folder.
 export interface Database
-  extends ShopTables, TemplateTables, WorkOrderTables, BenchTables, ReviewTables, OfficeTables, DynoTables, AuditTables {}
+  extends ShopTables, TemplateTables, WorkOrderTables, BenchTables, ReviewTables, OfficeTables, DynoTables, AuditTables, SessionTables {}
 
 export type User = Selectable<UsersTable>;

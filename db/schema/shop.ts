@@ -60,6 +60,8 @@ interface SignInAttemptsTable {
   key: string;
   succeeded: boolean;
   at: DefaultTimestamp;
+  /** The shop of the account tried (migration 050); null when the e-mail is nobody's. */
+  shop_id: Generated<string | null>;
 }
 
 export interface ShopTables {

@@ -1,11 +1,11 @@
 import "server-only";
 import bcrypt from "bcryptjs";
-import { sql, type Kysely } from "kysely";
-import { SIGN_IN_LIMIT } from "@/lib/auth/credentials";
+import type { Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { Refusal } from "@/lib/errors";
 import type { newUserSchema } from "@/lib/office/user-schema";
 import type { z } from "zod";
+import { endSessions } from "../auth/sessions";
 import type { Database } from "../schema";
 
 export async function listShopUsers(db: Kysely<Database>, shopId: string) {
@@ -48,11 +48,17 @@ export async function createShopUser(db: Kysely<Database>, shopId: string, input
     .executeTakeFirstOrThrow();
 }
 
-/** Turns a sign-in on or off (never deletes: the records it made keep their author). */
+/**
+ * Turns a sign-in on or off (never deletes: the records it made keep their author). Turning it
+ * off ends every session of the user at once; turning it on again revives none of them.
+ */
 export async function setUserActive(db: Kysely<Database>, shopId: string, actorId: string, userId: string, active: boolean): Promise<void> {
   if (userId === actorId && !active) throw new Refusal("You cannot turn off your own sign-in.", 400);
-  const r = await db.updateTable("users").set({ active }).where("id", "=", userId).where("shop_id", "=", shopId).executeTakeFirst();
-  if (!r.numUpdatedRows) throw new Refusal("Not found.", 404);
+  await db.transaction().execute(async (trx) => {
+    const r = await trx.updateTable("users").set({ active }).where("id", "=", userId).where("shop_id", "=", shopId).executeTakeFirst();
+    if (!r.numUpdatedRows) throw new Refusal("Not found.", 404);
+    if (!active) await endSessions(trx, shopId, { userId }, "user-turned-off", actorId);
+  });
 }
 
 export async function findUserForSignIn(db: Kysely<Database>, email: string) {
@@ -71,23 +77,4 @@ export async function loadSessionUser(db: Kysely<Database>, id: string): Promise
     .where("active", "=", true)
     .executeTakeFirst();
   return row ? { id: row.id, shopId: row.shop_id, role: row.role, name: row.name, email: row.email, customerId: row.customer_id } : null;
-}
-
-// Failed attempts for a key (e-mail or client address) inside the rate-limit window.
-export async function recentSignInFailures(db: Kysely<Database>, key: string): Promise<number> {
-  const row = await db
-    .selectFrom("sign_in_attempts")
-    .select((eb) => eb.fn.countAll<number>().as("n"))
-    .where("key", "=", key)
-    .where("succeeded", "=", false)
-    .where(sql<boolean>`at > now() - make_interval(mins => ${SIGN_IN_LIMIT.windowMinutes})`)
-    .executeTakeFirstOrThrow();
-  return Number(row.n);
-}
-
-export async function recordSignInAttempt(db: Kysely<Database>, keys: string[], succeeded: boolean): Promise<void> {
-  await db
-    .insertInto("sign_in_attempts")
-    .values(keys.map((key) => ({ key, succeeded })))
-    .execute();
 }

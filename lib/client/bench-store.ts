@@ -8,6 +8,7 @@
  *  - an operation the server stored leaves the outbox only once a copy of its job at least as new
  *    as the answer that stored it is on the tablet; until then the screen draws it on top.
  */
+import Dexie from "dexie";
 import { createClock, receive, tick, type HlcState } from "@/lib/sync/hlc";
 import { compareCursors, isAtLeast, laterCursor } from "@/lib/sync/cursor";
 import { operationSchema, type Operation, type OperationKind, type PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
@@ -273,4 +274,13 @@ export async function missedCopyCursor(db: BenchDb, jobId: string): Promise<stri
   const [wanted, copy] = await Promise.all([db.wanted.get(jobId), db.jobs.get(jobId)]);
   if (!wanted || wanted.missedAt === undefined || isAtLeast(copy?.snapshot.cursor, wanted.cursor)) return null;
   return wanted.cursor;
+}
+
+/**
+ * Deletes this user's whole store from the tablet (the office ended the session: see
+ * `./session-end.ts`, which first hands the unsent work over). The next sign-in starts empty.
+ */
+export async function dropBenchStore(db: BenchDb): Promise<void> {
+  db.close();
+  await Dexie.delete(db.name);
 }

@@ -19,4 +19,9 @@ export STRIPE_WEBHOOK_SECRET=${STRIPE_WEBHOOK_SECRET:-whsec_benchtag_local}
 npx tsx --conditions=react-server tests/fakes/register-webhook.ts "http://localhost:$port/api/payments/webhook"
 export NEXTAUTH_URL=http://localhost:$port
 export NEXTAUTH_SECRET=${NEXTAUTH_SECRET:-e2e-only-secret-not-for-production}
-exec npx next start -p "$port"
+# A local test server with the demo's public secrets and plain http: not a production start
+# (instrumentation.ts refuses those). server.mjs stamps each request's connection address and
+# writes its pid, so the security tests can read the server's memory (/proc/<pid>/status).
+mkdir -p tests/e2e/.generated
+export PORT=$port BENCHTAG_LOCAL_DEMO=1 BENCHTAG_PID_FILE="$root/tests/e2e/.generated/server.pid"
+exec node server.mjs

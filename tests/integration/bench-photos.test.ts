@@ -39,6 +39,10 @@ const uploadPhotoResponse = (user: SessionUser | null, db: Db, store: PhotoStore
 const photoBytesResponse = (user: SessionUser | null, db: Db, store: PhotoStore, id: string) =>
   photoBytes(store).handle(appRequest(`/api/bench/photos/${id}`), { user, db, params: { id } });
 
+/** A JPEG by its first bytes (SOI marker and a JFIF APP0 header, ISO/IEC 10918-1), then `rest`. */
+const jpeg = (rest: string) =>
+  Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01]), Buffer.from(rest)]);
+
 describe("step photo bytes", () => {
   async function queued(bytes: Buffer) {
     const fx = await createShopFixture(db);
@@ -62,7 +66,7 @@ describe("step photo bytes", () => {
   }
 
   it("stores the bytes once the entry is on record, marks it uploaded, and serves them back", async () => {
-    const bytes = Buffer.from("not really a jpeg, but bytes are bytes");
+    const bytes = jpeg("the rest of the picture");
     const { fx, mech, photoId } = await queued(bytes);
     const store = memoryStore();
     const res = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes));
@@ -86,15 +90,25 @@ describe("step photo bytes", () => {
   });
 
   it("refuses a wrong type, a wrong size, an unknown photo, another shop and the wrong roles, with reasons", async () => {
-    const bytes = Buffer.from("twelve bytes");
+    const bytes = jpeg("x");
     const { fx, mech, photoId } = await queued(bytes);
     const store = memoryStore();
     const wrongType = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes, "image/png"));
     expect([wrongType.status, (await wrongType.json()).error]).toEqual([415, "The photo was queued as image/jpeg but image/png was sent."]);
-    const wrongSize = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, Buffer.from("eleven byte")));
+    const wrongSize = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, bytes.subarray(0, 11)));
     expect([wrongSize.status, (await wrongSize.json()).error]).toEqual([
       422,
       `The photo was queued as ${bytes.byteLength} bytes but 11 arrived.`,
+    ]);
+    // more than was queued is refused as it streams in, before it is held
+    const longer = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, Buffer.concat([bytes, Buffer.alloc(1000)])));
+    expect(longer.status).toBe(413);
+    // the bytes decide what a photo is, not the type declared: a web page sent as a JPEG is refused
+    const page = Buffer.from(`<html><script>alert(1)</script>${"x".repeat(bytes.byteLength)}`).subarray(0, bytes.byteLength);
+    const notAPhoto = await uploadPhotoResponse(mech, db, store, photoId, upload(photoId, page));
+    expect([notAPhoto.status, (await notAPhoto.json()).error]).toEqual([
+      415,
+      "The bytes sent are not a photo of the queued type (image/jpeg).",
     ]);
     const unknown = randomUUID();
     expect((await uploadPhotoResponse(mech, db, store, unknown, upload(unknown, bytes))).status).toBe(404);

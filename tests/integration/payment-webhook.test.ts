@@ -99,6 +99,44 @@ describe("payment webhook signature checks", () => {
     expect(await depositStatus(deposit.id)).toBe("pending");
   });
 
+  it("refuses an event signed more than five minutes in the future, and takes one inside the window either way", async () => {
+    const pi = `pi_test_${Date.now()}g`;
+    const { deposit } = await workOrderWithPendingDeposit(pi);
+    const body = succeededEvent(pi);
+    const now = Math.floor(Date.now() / 1000);
+    for (const ahead of [24 * 3600, 301]) {
+      const answer = await handlePaymentWebhook(db, body, sign(body, SECRET, now + ahead), { secret: SECRET, sendMail: false });
+      expect(answer.status).toBe(400);
+      expect(answer.body.error).toMatch(/in the future \(tolerance 300 s\)/);
+    }
+    expect(await depositStatus(deposit.id)).toBe("pending");
+    const within = await handlePaymentWebhook(db, body, sign(body, SECRET, now + 60), { secret: SECRET, sendMail: false });
+    expect(within.status).toBe(200);
+    expect(await depositStatus(deposit.id)).toBe("paid");
+  });
+
+  it("sends one deposit e-mail per deposit, whatever further events arrive about it", async () => {
+    const pi = `pi_test_${Date.now()}h`;
+    const { deposit, wo } = await workOrderWithPendingDeposit(pi);
+    const sent = () =>
+      db
+        .selectFrom("outbound_emails")
+        .select("id")
+        .where("work_order_id", "=", wo.id)
+        .where("kind", "=", "deposit_received")
+        .execute()
+        .then((r) => r.length);
+    // two different events (new ids) about the same payment, one after the other and then two at once
+    const first = succeededEvent(pi);
+    expect((await handlePaymentWebhook(db, first, sign(first), { secret: SECRET })).body.outcome).toBe("deposit paid");
+    const second = succeededEvent(pi);
+    expect((await handlePaymentWebhook(db, second, sign(second), { secret: SECRET })).body.outcome).toBe("deposit already paid");
+    const [x, y] = [succeededEvent(pi), succeededEvent(pi)];
+    await Promise.all([handlePaymentWebhook(db, x, sign(x), { secret: SECRET }), handlePaymentWebhook(db, y, sign(y), { secret: SECRET })]);
+    expect(await depositStatus(deposit.id)).toBe("paid");
+    expect(await sent()).toBe(1);
+  });
+
   it("refuses a replayed event id, even re-signed, and changes nothing more", async () => {
     const pi = `pi_test_${Date.now()}e`;
     const { deposit } = await workOrderWithPendingDeposit(pi);

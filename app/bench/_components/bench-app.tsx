@@ -14,6 +14,7 @@ import { StepScreen } from "./step-screen";
 import { SyncBar } from "./sync-bar";
 import { TimerAlerts } from "./timer-alerts";
 import { useBenchSync } from "./use-bench-sync";
+import { useSessionWatch } from "./use-session-watch";
 
 export function BenchApp({ user }: { user: BenchUser }) {
   const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { retry: false } } }));
@@ -31,6 +32,7 @@ function BenchRoot({ user }: { user: BenchUser }) {
     setDevice(readDeviceId());
   }, []);
   const { syncing, syncNow } = useBenchSync(db, user.id, device);
+  const tabletSession = useSessionWatch(db, user.id, device);
   const author = useMemo(() => (device ? { userId: user.id, deviceId: device } : null), [user.id, device]);
 
   const route = useHashRoute();
@@ -41,6 +43,18 @@ function BenchRoot({ user }: { user: BenchUser }) {
     <BenchContext.Provider value={value}>
       <div data-bay={bayLight} data-testid="bench-root" className="flex flex-1 flex-col bg-paper text-ink">
         <SyncBar syncing={syncing} bayLight={bayLight} onToggleBayLight={toggleBayLight} />
+        {tabletSession !== "open" && (
+          <p
+            role="alert"
+            data-testid="session-ended"
+            className="border-y-4 border-fail bg-fail-light px-6 py-4 text-xl font-bold text-fail"
+          >
+            ■ The office ended this tablet&apos;s session.{" "}
+            {tabletSession === "handing-over"
+              ? "Handing the work not yet sent to the office, then clearing this tablet…"
+              : "The work not yet sent could not be handed over yet (no network?): it stays here and is tried again."}
+          </p>
+        )}
         <TimerAlerts />
         <div className="flex-1">
           {route.screen === "home" && <HomeScreen />}

@@ -4,7 +4,11 @@ import { AppFrame } from "@/app/ui/app-frame";
 import { db } from "@/db/setup/client";
 import { listCustomers } from "@/db/shop/customers";
 import { listShopUsers } from "@/db/shop/users";
+import { signInWaitRows } from "@/app/_server/sign-in-waits";
+import { listOutboxHandovers } from "@/db/auth/outbox-handovers";
+import { listOpenSessions } from "@/db/auth/sessions";
 import { ActiveToggle } from "./_components/active-toggle";
+import { HandedOver, OpenSessions, SignInWaits } from "./_components/session-sections";
 import { UserForm } from "./_components/user-form";
 
 export const metadata: Metadata = { title: "Sign-ins" };
@@ -13,7 +17,13 @@ const ROLE_LABELS = { mechanic: "Mechanic", supervisor: "Supervisor", office: "O
 
 export default async function UsersPage() {
   const user = await requirePageArea("users");
-  const [users, customers] = await Promise.all([listShopUsers(db(), user.shopId), listCustomers(db(), user.shopId)]);
+  const [users, customers, sessions, handovers, waits] = await Promise.all([
+    listShopUsers(db(), user.shopId),
+    listCustomers(db(), user.shopId),
+    listOpenSessions(db(), user.shopId),
+    listOutboxHandovers(db(), user.shopId),
+    signInWaitRows(db(), user.shopId),
+  ]);
   return (
     <AppFrame user={user} current="/office/users">
       <h1 className="text-3xl font-bold">Sign-ins</h1>
@@ -45,6 +55,9 @@ export default async function UsersPage() {
           ))}
         </tbody>
       </table>
+      <OpenSessions sessions={sessions} />
+      <SignInWaits waits={waits} />
+      <HandedOver handovers={handovers} />
       <section className="mt-8 rounded-xl border-2 border-steel-300 bg-white p-4">
         <h2 className="text-xl font-bold">Give someone a sign-in</h2>
         <div className="mt-4">

@@ -34,6 +34,16 @@ const PUBLIC: Record<string, { check: string; mustContain: Array<{ file: string;
     check: "next-auth",
     mustContain: [{ file: "app/api/auth/[...nextauth]/route.ts", text: "NextAuth(authOptions)" }],
   },
+  "app/api/bench/outbox-handover/route.ts": {
+    check: "ended-session",
+    mustContain: [
+      { file: "app/api/bench/outbox-handover/route.ts", text: "sessionEndedByOthers(db, claim.sessionId)" },
+      {
+        file: "db/auth/sessions.ts",
+        text: `.where("ended_reason", "in", ["ended-by-office", "tablet-ended-by-office", "user-turned-off"])`,
+      },
+    ],
+  },
   "app/api/payments/webhook/route.ts": {
     check: "payment-signature",
     mustContain: [{ file: "app/_server/payment-webhook.ts", text: "verifyPaymentWebhook(rawBody, signature" }],

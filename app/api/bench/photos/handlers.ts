@@ -1,3 +1,4 @@
+import { bytesAreOfType } from "@/app/_server/file-bytes";
 import { binary, route } from "@/app/_server/route";
 import { appendAudit } from "@/db/audit/append";
 import { findStepPhoto, markPhotoUploaded } from "@/db/bench/photos";
@@ -29,9 +30,13 @@ export function photoUpload(store: PhotoStore) {
       if (!row.awaitingUpload) return { stored: true, already: true };
       if (body.type !== row.contentType)
         throw new Refusal(`The photo was queued as ${row.contentType} but ${body.type || "no type"} was sent.`, 415);
-      if (body.bytes.byteLength !== row.byteSize)
-        throw new Refusal(`The photo was queued as ${row.byteSize} bytes but ${body.bytes.byteLength} arrived.`, 422);
-      await store.put(row.objectKey, Buffer.from(body.bytes), row.contentType);
+      // No more than the queued size is read: a longer stream is refused as it comes in.
+      const bytes = await body.read(row.byteSize);
+      if (bytes.byteLength !== row.byteSize)
+        throw new Refusal(`The photo was queued as ${row.byteSize} bytes but ${bytes.byteLength} arrived.`, 422);
+      if (!(await bytesAreOfType(bytes, row.contentType)))
+        throw new Refusal(`The bytes sent are not a photo of the queued type (${row.contentType}).`, 415);
+      await store.put(row.objectKey, Buffer.from(bytes), row.contentType);
       await markPhotoUploaded(db, user.shopId, row.id);
       await appendAudit(db, [
         {
@@ -41,7 +46,7 @@ export function photoUpload(store: PhotoStore) {
           entity: "attachment",
           entityId: row.id,
           outcome: "accepted",
-          detail: { bytes: body.bytes.byteLength },
+          detail: { bytes: bytes.byteLength },
         },
       ]);
       return { stored: true, already: false };

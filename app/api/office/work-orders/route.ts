@@ -1,4 +1,4 @@
-import { checkPhotos, filesOf, MAX_PHOTO_FORM_BYTES, storePhotos } from "@/app/_server/photos";
+import { checkPhotos, filesOf, PHOTO_FORM, storePhotos } from "@/app/_server/photos";
 import { created, multipart, route } from "@/app/_server/route";
 import { bookIn, pageWorkOrders } from "@/db/shop/work-orders";
 import { intakeSchema, pageQuerySchema } from "@/lib/office/schemas";
@@ -10,15 +10,14 @@ export const GET = route({ access: { area: "office" }, query: pageQuerySchema },
   return { workOrders: rows, total, page: query.page, size: query.size };
 });
 
-export const POST = route({ access: { area: "office" }, body: multipart(MAX_PHOTO_FORM_BYTES) }, async ({ user, body: form, db }) => {
+export const POST = route({ access: { area: "office" }, body: multipart(PHOTO_FORM) }, async ({ user, body: form, db }) => {
   const input = intakeSchema.parse({
     bikeId: form.get("bikeId"),
     title: form.get("title"),
     complaint: form.get("complaint"),
     odometerKm: form.get("odometerKm"),
   });
-  const photos = filesOf(form);
-  checkPhotos(photos);
+  const photos = await checkPhotos(filesOf(form));
   const wo = await bookIn(db, user.shopId, user.id, input);
   let warning: string | undefined;
   try {

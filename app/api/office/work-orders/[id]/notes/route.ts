@@ -1,16 +1,15 @@
-import { checkPhotos, filesOf, MAX_PHOTO_FORM_BYTES, storePhotos } from "@/app/_server/photos";
+import { checkPhotos, filesOf, PHOTO_FORM, storePhotos } from "@/app/_server/photos";
 import { created, idParam, multipart, route } from "@/app/_server/route";
 import { addNote } from "@/db/shop/work-orders";
 import { noteSchema } from "@/lib/office/schemas";
 
 // A finding (teardown or general note) with photos, multipart: kind, body, photos[].
 export const POST = route(
-  { access: { area: "office" }, params: ["id"], body: multipart(MAX_PHOTO_FORM_BYTES) },
+  { access: { area: "office" }, params: ["id"], body: multipart(PHOTO_FORM) },
   async ({ user, params, body: form, db }) => {
     const id = idParam(params.id);
     const input = noteSchema.parse({ kind: form.get("kind") ?? "teardown", body: form.get("body") });
-    const photos = filesOf(form);
-    checkPhotos(photos);
+    const photos = await checkPhotos(filesOf(form));
     const note = await addNote(db, user.shopId, user.id, id, input.kind, input.body);
     let warning: string | undefined;
     try {

@@ -1,0 +1,46 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database } from "../schema";
+
+// The unsent work of a tablet whose session the office ended, handed over as it was on the
+// tablet (not merged into the record: nobody signed in stands behind it any more). The office
+// reads it and downloads it; it is kept for good.
+
+export async function recordOutboxHandover(
+  db: Kysely<Database>,
+  h: { shopId: string; userId: string; sessionId: string; deviceId: string; entries: unknown[]; photosLeft: unknown[] },
+): Promise<{ id: string }> {
+  return db
+    .insertInto("outbox_handovers")
+    .values({
+      shop_id: h.shopId,
+      user_id: h.userId,
+      session_id: h.sessionId,
+      device_id: h.deviceId,
+      entry_count: h.entries.length,
+      entries: JSON.stringify(h.entries),
+      photos_left: JSON.stringify(h.photosLeft),
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+}
+
+export async function listOutboxHandovers(db: Kysely<Database>, shopId: string) {
+  return db
+    .selectFrom("outbox_handovers as h")
+    .innerJoin("users as u", "u.id", "h.user_id")
+    .select(["h.id", "u.name as userName", "h.device_id as deviceId", "h.entry_count as entryCount", "h.received_at as receivedAt"])
+    .where("h.shop_id", "=", shopId)
+    .orderBy("h.received_at", "desc")
+    .limit(50)
+    .execute();
+}
+
+export async function outboxHandover(db: Kysely<Database>, shopId: string, id: string) {
+  return db
+    .selectFrom("outbox_handovers")
+    .select(["id", "user_id as userId", "device_id as deviceId", "entries", "photos_left as photosLeft", "received_at as receivedAt"])
+    .where("shop_id", "=", shopId)
+    .where("id", "=", id)
+    .executeTakeFirst();
+}

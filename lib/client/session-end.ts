@@ -1,0 +1,60 @@
+/**
+ * When the office ends this tablet's session (or turns its user off), the tablet lets go of that
+ * user's data: the worker's kept pages first, then — once the unsent work is safely with the
+ * server — the whole IndexedDB store (job copies, photos, outbox).
+ *
+ * Unsent work cannot go through the sync any more (nobody is signed in to stand behind it), so it
+ * is **handed over**: `POST /api/bench/outbox-handover` keeps the waiting entries as they are, for
+ * the office (Sign-ins page, downloadable), and records it in the audit log. Only after the
+ * server has answered 201 is the store deleted; if the hand-over fails (network down), nothing is
+ * deleted and it is tried again at the next check. Photo bytes not yet uploaded are not sent
+ * (their list is): they go with the store.
+ */
+import { SESSION_STATE_HEADER } from "@/lib/auth/session-lifetime";
+import type { BenchDb } from "./bench-db";
+import { dropBenchStore } from "./bench-store";
+import { clearUserCaches } from "./worker-caches";
+
+export type SessionCheck = "open" | "ended" | "signed-out" | "unknown";
+
+/** Asks the server whether this tablet's session still stands. */
+export async function checkSession(fetchFn: typeof fetch = fetch): Promise<SessionCheck> {
+  try {
+    const res = await fetchFn("/api/me", { cache: "no-store" });
+    if (res.ok) return "open";
+    if (res.status === 401) return res.headers.get(SESSION_STATE_HEADER) === "ended" ? "ended" : "signed-out";
+    return "unknown";
+  } catch {
+    return "unknown"; // offline: nothing to decide
+  }
+}
+
+/** Names this tablet to the server, so the office can end its sessions (best effort). */
+export async function nameThisTablet(deviceId: string, fetchFn: typeof fetch = fetch): Promise<void> {
+  await fetchFn("/api/me/device", {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ deviceId }),
+  }).catch(() => undefined);
+}
+
+/** Hands over the unsent work, then clears the store. "cleared", or "kept" when the hand-over did not go through. */
+export async function letGoOfTablet(db: BenchDb, deviceId: string, fetchFn: typeof fetch = fetch): Promise<"cleared" | "kept"> {
+  await clearUserCaches().catch(() => undefined);
+  const entries = await db.outbox.where("state").equals("waiting").sortBy("stamp");
+  const photos = await db.photos.where("uploaded").equals(0).toArray();
+  if (entries.length || photos.length) {
+    const res = await fetchFn("/api/bench/outbox-handover", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({
+        deviceId,
+        entries: entries.map((e) => ({ id: e.id, workOrderId: e.workOrderId, stamp: e.stamp, createdAt: e.createdAt, op: e.op })),
+        photosLeft: photos.map((p) => ({ id: p.id, stepId: p.stepId, byteSize: p.byteSize, caption: p.caption.slice(0, 400) })),
+      }),
+    }).catch(() => null);
+    if (!res || res.status !== 201) return "kept";
+  }
+  await dropBenchStore(db);
+  return "cleared";
+}
