@@ -1,10 +1,12 @@
 import "server-only";
 import { boreGeometry, convertPower, convertTorque } from "@/lib/calc";
 import { torquePassCount } from "@/lib/procedures/spec-counts";
-import { compareRuns, summariseRun } from "@/lib/dyno";
+import { compareAtSameRpm, summariseRun } from "@/lib/dyno";
 import { STATUS_LABELS } from "@/lib/work-orders/status";
 import { loadHandoverReport, type HandoverReportData } from "@/db/records/handover-report";
+import { listTuneVersions } from "@/db/records/tunes";
 import { drawCurvePlot } from "./report/curve-plot";
+import { tuneSection } from "./report/tune-section";
 import { FONT, footers, heading, newPdf, paragraph, pdfText, table, toBuffer, type Pdf } from "./report/pdf-layout";
 import type { Db } from "@/db/setup/client";
 
@@ -220,15 +222,18 @@ function signOffs(doc: Pdf, d: HandoverReportData) {
 
 function dynoResults(doc: Pdf, d: HandoverReportData) {
   if (d.runs.length === 0) return paragraph(doc, "No dyno runs recorded.");
-  const runs = d.runs.map(summariseRun);
+  // Every run recomputed from its raw torque to one standard, the latest run's, so they compare alike.
+  const standard = d.runs[d.runs.length - 1].standard;
+  const runs = d.runs.map((r) => summariseRun(r, standard));
+  paragraph(doc, `Corrected figures: every run recomputed to ${runs[0].standardLabel} from its recorded torque and air.`, { size: 9 });
   table(
     doc,
     [
       { header: "Run", width: 0.22 },
       { header: "Air, correction", width: 0.26 },
-      { header: "Peak power", width: 0.2, figures: true },
+      { header: "Peak power", width: 0.18, figures: true },
       { header: "Peak torque", width: 0.18, figures: true },
-      { header: "Per psi", width: 0.14, figures: true },
+      { header: "Tune", width: 0.16 },
     ],
     runs.map((r) => {
       const pk = r.curve.peaks;
@@ -237,21 +242,29 @@ function dynoResults(doc: Pdf, d: HandoverReportData) {
         `${r.pressureKpa} kPa, ${r.temperatureC} °C, ${r.humidityPercent} % RH\n${r.standardLabel}, factor ${r.curve.factor.toFixed(4)}`,
         `${pk.correctedPowerKw.value.toFixed(1)} kW\n${convertPower(pk.correctedPowerKw.value, "kW", "hp").toFixed(1)} hp\nat ${pk.correctedPowerKw.rpm} rpm`,
         `${pk.correctedTorqueNm.value.toFixed(1)} N·m\n${convertTorque(pk.correctedTorqueNm.value, "N·m", "lbf·ft").toFixed(1)} lbf·ft\nat ${pk.correctedTorqueNm.rpm} rpm`,
-        r.kwPerPsi === null ? "no boost" : `${r.kwPerPsi.toFixed(2)} kW`,
+        r.tune ? r.tune.label : "none named",
       ];
     }),
   );
+  for (const r of runs) {
+    if (r.validity && !r.validity.inside) {
+      paragraph(doc, `${r.label}: outside the correction's validity range. ${r.validity.outside.map((o) => o.message).join(" ")}`, {
+        size: 9,
+      });
+    }
+  }
   for (const r of runs.filter((x) => x.notes)) paragraph(doc, `${r.label}: ${r.notes}`, { size: 9 });
   if (runs.length >= 2) {
     const a = runs[0];
     const b = runs[runs.length - 1];
-    const c = compareRuns(a.curve, b.curve);
+    const c = compareAtSameRpm(a, b);
     const sign = (n: number) => `${n >= 0 ? "+" : "−"}${Math.abs(n).toFixed(1)}`;
     doc.moveDown(0.3);
     paragraph(
       doc,
       `${b.label} against ${a.label}: peak power ${sign(c.peakDelta.powerKw)} kW (${sign(c.peakDelta.powerPercent)} %), peak torque ${sign(c.peakDelta.torqueNm)} N·m (${sign(c.peakDelta.torquePercent)} %)` +
-        (c.largestGain ? `; largest gain ${sign(c.largestGain.value)} kW at ${c.largestGain.rpm} rpm.` : "."),
+        (c.largestGain ? `; largest gain at the same engine speed ${sign(c.largestGain.value)} kW at ${c.largestGain.rpm} rpm` : "") +
+        `; boost target ${sign(c.deltaBoostTargetKpa)} kPa.`,
       { bold: true },
     );
   }
@@ -290,6 +303,7 @@ export async function renderHandoverReportPdf(db: Db, shopId: string, workOrderI
   signOffs(doc, d);
   heading(doc, "Dyno results");
   dynoResults(doc, d);
+  tuneSection(doc, await listTuneVersions(db, shopId, workOrderId));
   heading(doc, "Run-in advice");
   for (const line of RUN_IN_ADVICE) paragraph(doc, `• ${line}`);
   heading(doc, "Cautions");

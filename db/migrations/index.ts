@@ -7,6 +7,12 @@ import * as m005 from "./2026_12_02_005_review";
 import * as m006 from "./2026_12_02_006_bench_parts";
 import * as m007 from "./2026_12_02_007_dyno_withdrawals";
 import * as m050 from "./2026_12_03_050_sessions_and_sign_in_waits";
+import * as m070 from "./2026_12_03_070_dyno_current_j1349";
+import * as m071 from "./2026_12_03_071_dyno_channels";
+import * as m072 from "./2026_12_03_072_tune_versions";
+import * as m073 from "./2026_12_03_073_shop_presets";
+import * as m074 from "./2026_12_03_074_build_sheets";
+import * as m075 from "./2026_12_03_075_volume_readings";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -20,4 +26,10 @@ export const migrations: Record<string, Migration> = {
   "2026_12_02_006_bench_parts": m006,
   "2026_12_02_007_dyno_withdrawals": m007,
   "2026_12_03_050_sessions_and_sign_in_waits": m050,
+  "2026_12_03_070_dyno_current_j1349": m070,
+  "2026_12_03_071_dyno_channels": m071,
+  "2026_12_03_072_tune_versions": m072,
+  "2026_12_03_073_shop_presets": m073,
+  "2026_12_03_074_build_sheets": m074,
+  "2026_12_03_075_volume_readings": m075,
 };

@@ -1,12 +1,26 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
-import type { DynoRunInput, RunWithdrawalInput, StoredDynoRun } from "@/lib/dyno";
+import { CHANNEL_IDS, type ChannelId, type DynoRunInput, type RunWithdrawalInput, type StoredDynoRun } from "@/lib/dyno";
+import { CHECK_THE_FIELDS, Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
 import { DYNO_STATUSES } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
 import { workOrdersWithBike } from "../shop/work-orders";
 
 // Dyno runs by work order. Every query is scoped by the signed-in user's shop.
+
+/** The dyno_points column of each logged channel. */
+const CHANNEL_COLUMNS = {
+  mixture: "mixture",
+  boost: "boost",
+  chargePressure: "charge_pressure",
+  iatBeforeCooler: "iat_before_cooler",
+  iatAfterCooler: "iat_after_cooler",
+  ignition: "ignition",
+  knockRetard: "knock_retard",
+  roadSpeed: "road_speed",
+  gear: "gear",
+} as const satisfies Record<ChannelId, string>;
 
 /** The work order with its bike and customer, or null when it is not this shop's. */
 export async function findDynoWorkOrder(db: Kysely<Database>, shopId: string, workOrderId: string) {
@@ -61,7 +75,12 @@ export async function listDynoRuns(db: Kysely<Database>, shopId: string, workOrd
   const runs = await db
     .selectFrom("dyno_runs as r")
     .leftJoin("users as wu", "wu.id", "r.withdrawn_by")
+    .leftJoin("tune_versions as tv", "tv.id", "r.tune_version_id")
     .select([
+      "r.fuel",
+      "tv.id as tuneId",
+      "tv.label as tuneLabel",
+      "tv.sha256 as tuneSha256",
       "r.id",
       "r.label",
       sql<string>`r.ran_on::text`.as("ranOn"),
@@ -83,47 +102,74 @@ export async function listDynoRuns(db: Kysely<Database>, shopId: string, workOrd
     .orderBy("r.created_at")
     .execute();
   if (runs.length === 0) return [];
+  const runIds = runs.map((r) => r.id);
   const points = await db
     .selectFrom("dyno_points")
-    .select(["run_id", "rpm", "torque"])
-    .where(
-      "run_id",
-      "in",
-      runs.map((r) => r.id),
-    )
+    .select(["run_id", "rpm", "torque", ...Object.values(CHANNEL_COLUMNS)])
+    .where("run_id", "in", runIds)
     .orderBy("run_id")
     .orderBy("position")
     .execute();
-  return runs.map((r) => ({
-    id: r.id,
-    label: r.label,
-    ranOn: r.ranOn,
-    boostTarget: Number(r.boost_target),
-    boostUnit: r.boost_unit,
-    pressureKpa: Number(r.pressure_kpa),
-    temperatureC: Number(r.temperature_c),
-    humidityPercent: Number(r.humidity_percent),
-    standard: r.correction_standard,
-    torqueUnit: r.torque_unit,
-    notes: r.notes,
-    points: points.filter((p) => p.run_id === r.id).map((p) => ({ rpm: Number(p.rpm), torque: Number(p.torque) })),
-    withdrawn:
-      r.withdrawn_at && r.withdrawn_reason
-        ? { at: r.withdrawn_at.toISOString(), byName: r.withdrawnByName, reason: r.withdrawn_reason }
-        : null,
-  }));
+  const channels = await db
+    .selectFrom("dyno_run_channels")
+    .select(["run_id", "channel", "unit", "source_column"])
+    .where("run_id", "in", runIds)
+    .execute();
+  return runs.map((r) => {
+    const logged = channels.filter((c) => c.run_id === r.id);
+    const order = (c: { channel: ChannelId }) => CHANNEL_IDS.indexOf(c.channel);
+    return {
+      id: r.id,
+      label: r.label,
+      ranOn: r.ranOn,
+      boostTarget: Number(r.boost_target),
+      boostUnit: r.boost_unit,
+      pressureKpa: Number(r.pressure_kpa),
+      temperatureC: Number(r.temperature_c),
+      humidityPercent: Number(r.humidity_percent),
+      standard: r.correction_standard,
+      torqueUnit: r.torque_unit,
+      notes: r.notes,
+      fuel: r.fuel,
+      tune: r.tuneId && r.tuneLabel && r.tuneSha256 ? { id: r.tuneId, label: r.tuneLabel, sha256: r.tuneSha256 } : null,
+      channels: logged
+        .map((c) => ({ channel: c.channel, unit: c.unit, sourceColumn: c.source_column }))
+        .sort((a, b) => order(a) - order(b)),
+      points: points
+        .filter((p) => p.run_id === r.id)
+        .map((p) => {
+          const point = { rpm: Number(p.rpm), torque: Number(p.torque) };
+          if (logged.length === 0) return point;
+          const values: Partial<Record<ChannelId, number>> = {};
+          for (const c of logged) {
+            const v = p[CHANNEL_COLUMNS[c.channel]];
+            if (v !== null) values[c.channel] = Number(v);
+          }
+          return { ...point, logged: values };
+        }),
+      withdrawn:
+        r.withdrawn_at && r.withdrawn_reason
+          ? { at: r.withdrawn_at.toISOString(), byName: r.withdrawnByName, reason: r.withdrawn_reason }
+          : null,
+    };
+  });
 }
 
+/** A checked run to store; a run typed in or from our own curve file has no channels, fuel or tune. */
+type RunToSave = Omit<DynoRunInput, "channels" | "fuel" | "tuneVersionId"> &
+  Partial<Pick<DynoRunInput, "channels" | "fuel" | "tuneVersionId">>;
+
 /**
- * Stores a checked run and its points in one transaction (all or nothing). Returns the new id, or
- * null when the work order is not this shop's.
+ * Stores a checked run, its points and its logged channels in one transaction (all or nothing).
+ * Returns the new id, or null when the work order is not this shop's. A tune that is not one of the
+ * work order's tune versions is refused (400, field tuneVersionId).
  */
 export async function saveDynoRun(
   db: Kysely<Database>,
   shopId: string,
   workOrderId: string,
   userId: string | null,
-  run: DynoRunInput,
+  run: RunToSave,
 ): Promise<string | null> {
   return db.transaction().execute(async (trx) => {
     const job = await trx
@@ -133,6 +179,29 @@ export async function saveDynoRun(
       .where("id", "=", workOrderId)
       .executeTakeFirst();
     if (!job) return null;
+    const tuneVersionId = run.tuneVersionId ?? null;
+    if (run.tuneVersionId === undefined) {
+      const anyTune = await trx.selectFrom("tune_versions").select("id").where("work_order_id", "=", workOrderId).executeTakeFirst();
+      if (anyTune) {
+        throw new Refusal(CHECK_THE_FIELDS, 400, [
+          { path: "tuneVersionId", message: "Say which tune the run was made on: this work order has tune versions (or choose none)." },
+        ]);
+      }
+    }
+    if (tuneVersionId !== null) {
+      const tune = await trx
+        .selectFrom("tune_versions")
+        .select("id")
+        .where("shop_id", "=", shopId)
+        .where("work_order_id", "=", workOrderId)
+        .where("id", "=", tuneVersionId)
+        .executeTakeFirst();
+      if (!tune) {
+        throw new Refusal(CHECK_THE_FIELDS, 400, [
+          { path: "tuneVersionId", message: "That tune is not one of this work order's tune versions." },
+        ]);
+      }
+    }
     const { id } = await trx
       .insertInto("dyno_runs")
       .values({
@@ -150,13 +219,33 @@ export async function saveDynoRun(
         notes: run.notes,
         source: run.source,
         created_by: userId,
+        fuel: run.fuel ?? null,
+        tune_version_id: tuneVersionId,
       })
       .returning("id")
       .executeTakeFirstOrThrow();
     await trx
       .insertInto("dyno_points")
-      .values(run.points.map((p, position) => ({ run_id: id, position, rpm: p.rpm, torque: p.torque })))
+      .values(
+        run.points.map((p, position) => {
+          const row = { run_id: id, position, rpm: p.rpm, torque: p.torque };
+          if (!p.logged) return row;
+          const values: Partial<Record<(typeof CHANNEL_COLUMNS)[ChannelId], number>> = {};
+          for (const channel of CHANNEL_IDS) {
+            const v = p.logged[channel];
+            if (v !== undefined) values[CHANNEL_COLUMNS[channel]] = v;
+          }
+          return { ...row, ...values };
+        }),
+      )
       .execute();
+    const channels = run.channels ?? [];
+    if (channels.length) {
+      await trx
+        .insertInto("dyno_run_channels")
+        .values(channels.map((c) => ({ run_id: id, channel: c.channel, unit: c.unit, source_column: c.sourceColumn })))
+        .execute();
+    }
     return id;
   });
 }

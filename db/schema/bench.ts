@@ -1,6 +1,6 @@
 import type { Generated } from "kysely";
 import type { ToleranceStatus } from "@/lib/calc/tolerance";
-import type { LengthUnit, TorqueUnit } from "@/lib/calc/units";
+import type { MeasurementUnit, TorqueUnit } from "@/lib/calc/units";
 import type { OperationKind } from "@/lib/sync/operations";
 import type { DefaultTimestamp, Json, Numeric, Timestamp } from "./columns";
 
@@ -40,7 +40,7 @@ interface MeasurementsTable {
   spec_id: string;
   reading_index: Generated<number>;
   value: Numeric;
-  unit: LengthUnit;
+  unit: MeasurementUnit;
   verdict: ToleranceStatus;
   note: Generated<string>;
   supersedes_id: string | null;
@@ -114,7 +114,7 @@ interface CurrentMeasurementsView {
   spec_id: string;
   reading_index: number;
   value: string;
-  unit: LengthUnit;
+  unit: MeasurementUnit;
   verdict: ToleranceStatus;
   note: string;
   supersedes_id: string | null;

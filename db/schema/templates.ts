@@ -1,6 +1,6 @@
 import type { ColumnType, Generated } from "kysely";
 import type { TorquePassSpec } from "@/lib/calc/torque-stages";
-import type { LengthUnit, TorqueUnit } from "@/lib/calc/units";
+import type { MeasurementUnit, TorqueUnit } from "@/lib/calc/units";
 import type { BoltPattern, CautionKind, MeasurementGeometry } from "@/lib/procedures/template-schema";
 import type { DefaultTimestamp, Json, Numeric } from "./columns";
 
@@ -62,7 +62,7 @@ interface MeasurementSpecsTable {
   nominal: Numeric | null;
   min: Numeric;
   max: Numeric;
-  unit: LengthUnit;
+  unit: MeasurementUnit;
   reading_labels: ColumnType<string[], string[] | undefined, string[]>;
   geometry: MeasurementGeometry | null;
 }

@@ -16,15 +16,16 @@ import { KELVIN_AT_0_C, KPA_PER_INHG } from "./units";
 import { formatNumber } from "./quantity";
 
 /**
- * The correction standards a dyno run can be recorded under today (the dyno record accepts these
- * four; the current SAE J1349 form joins it when the record does).
+ * The correction standards a dyno run can be recorded under and compared at: both SAE J1349 forms
+ * (1990 and current), DIN 70020, ISO 1585 and SAE J607. The dyno record's database check holds the
+ * same list (migration 2026_12_03_070_dyno_current_j1349).
  */
-export const POWER_CORRECTION_STANDARD_IDS = ["SAE_J1349", "DIN_70020", "ISO_1585", "SAE_J607"] as const;
+export const POWER_CORRECTION_STANDARD_IDS = ["SAE_J1349", "SAE_J1349_CURRENT", "DIN_70020", "ISO_1585", "SAE_J607"] as const;
 export type PowerCorrectionStandard = (typeof POWER_CORRECTION_STANDARD_IDS)[number];
 
-/** Every standard the factor can be worked out for: the four above and the current SAE J1349 form. */
-export const ALL_POWER_CORRECTION_STANDARD_IDS = [...POWER_CORRECTION_STANDARD_IDS, "SAE_J1349_CURRENT"] as const;
-export type AnyPowerCorrectionStandard = (typeof ALL_POWER_CORRECTION_STANDARD_IDS)[number];
+/** Every standard the factor can be worked out for (the same list since the dyno record takes the current J1349 form). */
+export const ALL_POWER_CORRECTION_STANDARD_IDS = POWER_CORRECTION_STANDARD_IDS;
+export type AnyPowerCorrectionStandard = PowerCorrectionStandard;
 
 /**
  * Shown beside every corrected figure: the formulas assume power follows air density. A turbo
@@ -219,6 +220,22 @@ export const POWER_CORRECTION_VALIDITY: Readonly<Record<AnyPowerCorrectionStanda
     basis: "No validity range is on record here for SAE J607.",
   },
 };
+
+/**
+ * A standard's validity range in words, e.g. "Valid for intake air 15–35 °C, dry-air pressure
+ * 90–105 kPa (from memory)"; says so when none is on record.
+ */
+export function validityRangeWords(standard: AnyPowerCorrectionStandard): string {
+  const v = POWER_CORRECTION_VALIDITY[standard];
+  const span = (i: ValidityInterval, unit: string) => `${formatNumber(i.min)}–${formatNumber(i.max)}${unit}`;
+  const parts = [
+    v.temperatureC && `intake air ${span(v.temperatureC, " °C")}`,
+    v.pressureKpa && `${v.pressureKind === "dry-air" ? "dry-air pressure" : "air pressure"} ${span(v.pressureKpa, " kPa")}`,
+    v.factor && `a factor of ${span(v.factor, "")}`,
+  ].filter((x): x is string => Boolean(x));
+  if (parts.length === 0) return "No validity range is on record for this standard.";
+  return `Valid for ${parts.join(", ")}${v.basis.startsWith("From memory") ? " (from memory)" : ""}.`;
+}
 
 /** One condition outside a standard's range. */
 export interface ValidityFinding {

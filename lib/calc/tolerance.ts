@@ -1,13 +1,14 @@
 /**
- * Checks a measured length against a spec (nominal with min/max limits) in any length unit.
+ * Checks a measured length against a spec (nominal with min/max limits) in any length unit, or a
+ * measured volume (cc) against a spec in cc.
  */
 import { CalcInputError, requireFinite, requireObject, requireOneOf } from "./errors";
-import { convertLength, LENGTH_UNITS, type LengthUnit } from "./units";
+import { convertLength, isLengthUnit, MEASUREMENT_UNITS, sameMeasurementKind, type LengthUnit, type MeasurementUnit } from "./units";
 
 /** A reading with its unit. */
 export interface MeasuredLength {
   value: number;
-  unit: LengthUnit;
+  unit: MeasurementUnit;
 }
 
 /**
@@ -16,7 +17,7 @@ export interface MeasuredLength {
  * Must satisfy min ≤ nominal ≤ max.
  */
 export interface ToleranceSpec {
-  unit: LengthUnit;
+  unit: MeasurementUnit;
   nominal?: number;
   min?: number;
   max?: number;
@@ -76,8 +77,11 @@ function compareDecimal(a: Decimal, b: Decimal): number {
  * the decimals they print as, and inch/mm/µm ratios are exact, so a reading of 0.001 in equals a
  * limit of 0.0254 mm (no floating-point rounding decides a boundary).
  */
-function compareLengths(value: number, valueUnit: LengthUnit, limit: number, limitUnit: LengthUnit): number {
+function compareLengths(value: number, valueUnit: MeasurementUnit, limit: number, limitUnit: MeasurementUnit): number {
   if (valueUnit === limitUnit) return value < limit ? -1 : value > limit ? 1 : 0;
+  if (!isLengthUnit(valueUnit) || !isLengthUnit(limitUnit)) {
+    throw new CalcInputError("measured.unit", valueUnit, `cannot be compared with ${limitUnit}`);
+  }
   // Fast path: the floating-point conversion is off by a few parts in 10¹⁶ at most, so when the
   // converted value and the limit differ by more than 1 part in 10¹², the plain comparison is exact.
   const converted = convertLength(value, valueUnit, limitUnit);
@@ -97,16 +101,19 @@ function compareLengths(value: number, valueUnit: LengthUnit, limit: number, lim
  */
 export function evaluateTolerance(measured: MeasuredLength | number, spec: ToleranceSpec): ToleranceResult {
   requireObject("spec", spec);
-  const specUnit = requireOneOf("spec.unit", spec.unit, LENGTH_UNITS);
+  const specUnit = requireOneOf("spec.unit", spec.unit, MEASUREMENT_UNITS);
   let value: number;
-  let valueUnit: LengthUnit;
+  let valueUnit: MeasurementUnit;
   if (typeof measured === "number") {
     value = requireFinite("measured", measured);
     valueUnit = specUnit;
   } else {
     requireObject("measured", measured);
     value = requireFinite("measured.value", measured.value);
-    valueUnit = requireOneOf("measured.unit", measured.unit, LENGTH_UNITS);
+    valueUnit = requireOneOf("measured.unit", measured.unit, MEASUREMENT_UNITS);
+    if (!sameMeasurementKind(valueUnit, specUnit)) {
+      throw new CalcInputError("measured.unit", valueUnit, `must be a unit of the same kind as the spec's ${specUnit}`);
+    }
   }
 
   const min = spec.min === undefined ? undefined : requireFinite("spec.min", spec.min);
@@ -134,6 +141,6 @@ export function evaluateTolerance(measured: MeasuredLength | number, spec: Toler
   if (min !== undefined && compareLengths(value, valueUnit, min, specUnit) < 0) status = "low";
   else if (max !== undefined && compareLengths(value, valueUnit, max, specUnit) > 0) status = "high";
 
-  const valueInSpecUnit = convertLength(value, valueUnit, specUnit);
+  const valueInSpecUnit = isLengthUnit(valueUnit) && isLengthUnit(specUnit) ? convertLength(value, valueUnit, specUnit) : value;
   return { status, deviation: valueInSpecUnit - nominal, valueInSpecUnit, nominal };
 }

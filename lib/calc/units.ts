@@ -76,6 +76,27 @@ export type PowerUnit = (typeof POWER_UNITS)[number];
 export const LENGTH_UNITS = ["mm", "in", "µm"] as const;
 export type LengthUnit = (typeof LENGTH_UNITS)[number];
 
+/** Volume unit of a reading: cubic centimetre (a combustion chamber cc'd with a burette). */
+export const VOLUME_UNITS = ["cc"] as const;
+export type VolumeUnit = (typeof VOLUME_UNITS)[number];
+
+/**
+ * Units a measurement spec and its readings may use: a length, or a volume. A reading is compared
+ * only with a spec of the same kind (lengths convert among themselves; cc stays cc).
+ */
+export const MEASUREMENT_UNITS = [...LENGTH_UNITS, ...VOLUME_UNITS] as const;
+export type MeasurementUnit = (typeof MEASUREMENT_UNITS)[number];
+
+/** True when `unit` is a length unit (mm, in, µm). */
+export function isLengthUnit(unit: string): unit is LengthUnit {
+  return (LENGTH_UNITS as readonly string[]).includes(unit);
+}
+
+/** True when readings in `a` can be compared with a spec in `b`: both lengths, or the same unit. */
+export function sameMeasurementKind(a: MeasurementUnit, b: MeasurementUnit): boolean {
+  return a === b || (isLengthUnit(a) && isLengthUnit(b));
+}
+
 /** Temperature units: degrees Celsius, kelvin, degrees Fahrenheit. */
 export const TEMPERATURE_UNITS = ["C", "K", "F"] as const;
 export type TemperatureUnit = (typeof TEMPERATURE_UNITS)[number];

@@ -1,38 +1,33 @@
 /**
- * Power per unit of boost: peak corrected power divided by the boost target (gauge pressure), and
- * the extra power each extra unit of boost bought between two runs. A naturally aspirated run
- * (boost 0) has no figure (null), rather than infinity.
+ * The boost target of a dyno run, checked per unit: the physical range is one range in kPa gauge
+ * (lib/calc INPUT_RULES.boost, 0 to 600 kPa), so 10 psi typed as 68.9 kPa is as good as 10 psi and
+ * 59 bar is refused whatever it is typed in. The message names what was typed and what it is:
+ * "Boost target 59 bar is 5 900 kPa; the limit is 0 to 600 kPa (87 psi, 6 bar)."
  */
-import { convertPower, convertPressure, type PowerUnit, type PressureUnit } from "@/lib/calc";
-import { requireFinite, requireNonNegative } from "@/lib/calc/errors";
+import { convertPressure, formatNumber, INPUT_RULES, withUnit } from "@/lib/calc";
 
-/** Power (in `powerUnit`) per one `boostUnit` of boost; null when the boost is 0. */
-export function powerPerBoost(
-  powerKw: number,
-  boost: { value: number; unit: PressureUnit },
-  powerUnit: PowerUnit = "kW",
-  perUnit: PressureUnit = boost.unit,
-): number | null {
-  requireFinite("powerKw", powerKw);
-  requireNonNegative("boost.value", boost.value);
-  const b = convertPressure(boost.value, boost.unit, perUnit);
-  if (b === 0) return null;
-  return convertPower(powerKw, "kW", powerUnit) / b;
+export const BOOST_UNITS = ["psi", "kPa", "bar"] as const;
+export type BoostUnit = (typeof BOOST_UNITS)[number];
+
+const round = (x: number, digits: number) => Number(x.toFixed(digits));
+
+/** "0 to 600 kPa (87 psi, 6 bar)": the boost limit in every unit the form offers. */
+export function boostLimitWords(): string {
+  const { min, max } = INPUT_RULES.boost;
+  return `${formatNumber(min)} to ${withUnit(max, "kPa")} (${withUnit(round(convertPressure(max, "kPa", "psi"), 0), "psi")}, ${withUnit(round(convertPressure(max, "kPa", "bar"), 2), "bar")})`;
 }
 
-/**
- * (P₂ − P₁) / (b₂ − b₁): the power each extra unit of boost bought between run 1 and run 2;
- * null when both runs had the same boost.
- */
-export function powerGainPerBoost(
-  run1: { powerKw: number; boost: { value: number; unit: PressureUnit } },
-  run2: { powerKw: number; boost: { value: number; unit: PressureUnit } },
-  powerUnit: PowerUnit = "kW",
-  perUnit: PressureUnit = "kPa",
-): number | null {
-  const b1 = convertPressure(requireNonNegative("run1.boost.value", run1.boost.value), run1.boost.unit, perUnit);
-  const b2 = convertPressure(requireNonNegative("run2.boost.value", run2.boost.value), run2.boost.unit, perUnit);
-  if (b1 === b2) return null;
-  const dp = convertPower(requireFinite("run2.powerKw", run2.powerKw) - requireFinite("run1.powerKw", run1.powerKw), "kW", powerUnit);
-  return dp / (b2 - b1);
+/** Boost target in kPa gauge. */
+export function boostTargetKpa(value: number, unit: BoostUnit): number {
+  return convertPressure(value, unit, "kPa");
+}
+
+/** Why a boost target cannot be, in workshop words, or null when it is inside the range. */
+export function boostTargetProblem(value: number, unit: BoostUnit): string | null {
+  if (!Number.isFinite(value)) return "Boost target must be a number.";
+  const kpa = boostTargetKpa(value, unit);
+  const { min, max } = INPUT_RULES.boost;
+  if (kpa >= min && kpa <= max) return null;
+  if (unit === "kPa") return `Boost target must be ${boostLimitWords()} above the air pressure; got ${withUnit(value, "kPa")}.`;
+  return `Boost target ${withUnit(value, unit)} is ${withUnit(round(kpa, 1), "kPa")}; the limit is ${boostLimitWords()}.`;
 }

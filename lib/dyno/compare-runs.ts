@@ -5,6 +5,7 @@
 import { CalcInputError } from "@/lib/calc";
 import { requirePositive } from "@/lib/calc/errors";
 import type { Peak, RunCurve } from "./run-curve";
+import type { DynoRunSummary } from "./run-summary";
 
 /**
  * Linear interpolation of `value` at `rpm` over points in rising rpm order; null outside the range.
@@ -88,4 +89,50 @@ export function compareRuns(base: RunCurve, other: RunCurve, step = 250): RunCom
     largestGain,
     largestLoss,
   };
+}
+
+/** One engine speed of a comparison: power and torque of each run there, and boost beside them. */
+export interface SameRpmRow extends DeltaPoint {
+  /** Logged manifold boost of each run at this speed, kPa gauge; null where a run has none logged there. */
+  baseBoostKpa: number | null;
+  otherBoostKpa: number | null;
+  /** other − base, kPa; null unless both runs logged boost at this speed. */
+  deltaBoostKpa: number | null;
+}
+
+export interface RunDifference extends Omit<RunComparison, "grid"> {
+  rows: SameRpmRow[];
+  /** Boost target of the other run minus the base run's, kPa. */
+  deltaBoostTargetKpa: number;
+  /** Both runs corrected to this standard (their own standards may differ). */
+  correctedTo: DynoRunSummary["correctedTo"];
+}
+
+/**
+ * Two runs compared honestly: both must be corrected to the same standard (summarise them with one
+ * chosen standard first); power and torque are compared at the same engine speeds (every `step` rpm
+ * inside both runs' ranges, read between recorded points), and the boost difference is given beside
+ * the power difference at each of those speeds (logged boost where both runs have it) and for the
+ * targets. No "power per unit of boost" figure: power does not scale with boost alone.
+ */
+export function compareAtSameRpm(base: DynoRunSummary, other: DynoRunSummary, step = 250): RunDifference {
+  if (base.correctedTo !== other.correctedTo) {
+    throw new CalcInputError("runs", [base.correctedTo, other.correctedTo], "must be corrected to one standard before they are compared");
+  }
+  const { grid, ...rest } = compareRuns(base.curve, other.curve, step);
+  const boostAt = (s: DynoRunSummary, rpm: number) => {
+    const line = s.series.boost;
+    return line && line.length ? interpolateAt(line, rpm, (p) => p.value) : null;
+  };
+  const rows = grid.map((g) => {
+    const baseBoostKpa = boostAt(base, g.rpm);
+    const otherBoostKpa = boostAt(other, g.rpm);
+    return {
+      ...g,
+      baseBoostKpa,
+      otherBoostKpa,
+      deltaBoostKpa: baseBoostKpa === null || otherBoostKpa === null ? null : otherBoostKpa - baseBoostKpa,
+    };
+  });
+  return { ...rest, rows, deltaBoostTargetKpa: other.boostTargetKpa - base.boostTargetKpa, correctedTo: base.correctedTo };
 }

@@ -1,4 +1,4 @@
-/** Dyno runs: corrected curves, peaks, comparisons, boost figures and curve import. Pure code. */
+/** Dyno runs: corrected curves, peaks, comparisons at one standard, boost targets, logged channels and their marks, curve and logged-file import. Pure code. */
 export * from "./run-curve";
 export * from "./compare-runs";
 export * from "./boost";
@@ -8,3 +8,9 @@ export * from "./run-input";
 export * from "./plot-scale";
 export * from "./run-summary";
 export * from "./run-withdrawal";
+export * from "./channels";
+export * from "./channel-marks";
+export * from "./column-mapping";
+export * from "./logged-csv";
+export * from "./tune-version";
+export * from "./cell-cautions";

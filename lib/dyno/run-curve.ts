@@ -20,8 +20,12 @@ interface RunConditions {
   temperatureC: number;
   /** Relative humidity, % (0–100). */
   humidityPercent: number;
-  standard: PowerCorrectionStandard;
+  /** The standard to correct to, or "as-measured" for no correction (factor 1). */
+  standard: CorrectionChoice;
 }
+
+/** A correction standard, or no correction at all ("as-measured": corrected values equal the observed ones). */
+export type CorrectionChoice = PowerCorrectionStandard | "as-measured";
 
 interface ComputedPoint {
   rpm: number;
@@ -82,11 +86,14 @@ export function computeRunCurve(points: readonly CurvePoint[], conditions: RunCo
   if (points.length < 2) throw new CalcInputError("points", points.length, "must hold at least two points");
   requireRisingRpm(points);
   const vapour = vaporPressureKpa(conditions.temperatureC, conditions.humidityPercent);
-  const factor = powerCorrectionFactor(conditions.standard, {
-    pressureKpa: conditions.pressureKpa,
-    temperatureC: conditions.temperatureC,
-    vaporPressureKpa: vapour,
-  });
+  const factor =
+    conditions.standard === "as-measured"
+      ? 1
+      : powerCorrectionFactor(conditions.standard, {
+          pressureKpa: conditions.pressureKpa,
+          temperatureC: conditions.temperatureC,
+          vaporPressureKpa: vapour,
+        });
   const computed = points.map((p, i) => {
     const torque = requireFinite(`points[${i}].torqueNm`, p.torqueNm);
     const observedPowerKw = powerKw(torque, p.rpm);

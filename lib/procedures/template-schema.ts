@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { LENGTH_UNITS, TORQUE_UNITS } from "../calc/units";
+import { MEASUREMENT_UNITS, TORQUE_UNITS } from "../calc/units";
 import "../zod-issues";
 
 // Benchtag's own procedure-template document ("benchtag-template", format version 1).
@@ -48,7 +48,7 @@ const measurementSpecSchema = z
     nominal: z.number().nullable().default(null),
     min: z.number(),
     max: z.number(),
-    unit: z.enum(LENGTH_UNITS),
+    unit: z.enum(MEASUREMENT_UNITS),
     readingLabels: z.array(z.string().trim().min(1).max(40)).max(64).default([]),
     geometry: z.enum(MEASUREMENT_GEOMETRIES).nullable().default(null),
   })

@@ -4,7 +4,7 @@
  * from two tablets side by side, torque bolt by bolt, timers, photos, parts fitted, and the readings out of
  * tolerance with any written acceptance. Pure: built from the bench snapshot plus a few extras.
  */
-import type { LengthUnit } from "@/lib/calc/units";
+import type { MeasurementUnit } from "@/lib/calc/units";
 import type { Verdict } from "@/lib/sync/readings";
 import { expectedReadings } from "../procedures/spec-counts";
 import { torqueStages } from "@/lib/calc/torque-stages";
@@ -72,7 +72,7 @@ export interface Person {
 export interface ReadingLine {
   id: string;
   value: number;
-  unit: LengthUnit;
+  unit: MeasurementUnit;
   verdict: Verdict;
   note: string;
   by: Person;
@@ -100,7 +100,7 @@ interface SpotView {
 export interface SpecView {
   id: string;
   label: string;
-  unit: LengthUnit;
+  unit: MeasurementUnit;
   nominal: number | null;
   min: number;
   max: number;

@@ -4,6 +4,7 @@
  * The rules in plain words are in ./README.md.
  */
 import { canReach, type Role } from "@/lib/auth/roles";
+import { sameMeasurementKind, type MeasurementUnit } from "@/lib/calc/units";
 import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { compareStamps, parseStamp } from "./hlc";
 import type { Operation } from "./operations";
@@ -27,6 +28,8 @@ export interface StepFacts {
 export interface MeasurementSpecFacts {
   stepId: string;
   label: string;
+  /** The spec's unit: a reading must be of the same kind (a length for a length, cc for cc). */
+  unit: MeasurementUnit;
   /** How many readings the spec takes (its reading labels; 1 when it has none). */
   readingCount: number;
 }
@@ -209,6 +212,9 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
       const spec = job.measurementSpecs.get(p.specId);
       if (!spec || spec.stepId !== p.stepId)
         return stepMissing(p.stepId) ?? `Measurement spec ${p.specId} is not a spec of step ${p.stepId} ${onJob}.`;
+      if (!sameMeasurementKind(p.unit, spec.unit)) {
+        return `A reading in ${p.unit} cannot be recorded against "${spec.label}", which is measured in ${spec.unit}.`;
+      }
       if (p.readingIndex >= spec.readingCount) {
         return `Reading index ${p.readingIndex} is out of range: "${spec.label}" takes ${spec.readingCount} reading${spec.readingCount === 1 ? "" : "s"} (index 0–${spec.readingCount - 1}).`;
       }

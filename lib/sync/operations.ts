@@ -7,7 +7,7 @@
  * - `passIndex` and `bolt` count from 1, as the torque pass list and the tightening order do.
  */
 import { z } from "zod";
-import { LENGTH_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
+import { MEASUREMENT_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
 import { safeText, saneInstant } from "@/lib/safe-values";
 import { DEVICE_ID_PATTERN, STAMP_PATTERN } from "./hlc";
 
@@ -63,7 +63,7 @@ const measurementRecordedPayload = z
     readingIndex: z.number().int().min(0).max(63),
     /** As read off the instrument: kept exactly, never rounded. */
     value: z.number(),
-    unit: z.enum(LENGTH_UNITS),
+    unit: z.enum(MEASUREMENT_UNITS),
     note: safeText({ label: "Note", max: 1000, multiline: true }).optional(),
     /** The reading this one corrects (it stays on record). */
     supersedesId: id().optional(),

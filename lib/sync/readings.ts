@@ -6,7 +6,7 @@
  * those no other reading supersedes. The database view `current_measurements` states the same rule.
  */
 import { evaluateTolerance, type ToleranceStatus } from "@/lib/calc/tolerance";
-import type { LengthUnit } from "@/lib/calc/units";
+import type { MeasurementUnit } from "@/lib/calc/units";
 import { compareStamps } from "./hlc";
 
 /** A reading's verdict against its spec, as stored and sent: within the limits, below, above. */
@@ -41,14 +41,14 @@ function isLater(a: ReadingLike, b: ReadingLike): boolean {
 }
 
 export interface ReadingSpec {
-  unit: LengthUnit;
+  unit: MeasurementUnit;
   min: number;
   max: number;
   nominal: number | null;
 }
 
 /** "low" below min, "high" above max, else "in" (limits are in); exact across mm/in/µm. */
-export function readingVerdict(value: number, unit: LengthUnit, spec: ReadingSpec): ToleranceStatus {
+export function readingVerdict(value: number, unit: MeasurementUnit, spec: ReadingSpec): ToleranceStatus {
   return evaluateTolerance(
     { value, unit },
     { unit: spec.unit, min: spec.min, max: spec.max, ...(spec.nominal === null ? {} : { nominal: spec.nominal }) },

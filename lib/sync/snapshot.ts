@@ -4,7 +4,7 @@
  * Numbers from numeric columns (specs, readings) come as JSON numbers, exactly as entered.
  */
 import { z } from "zod";
-import { LENGTH_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
+import { MEASUREMENT_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
 import { BOLT_PATTERNS, cautionSchema, MEASUREMENT_GEOMETRIES, torquePassSchema } from "@/lib/procedures/template-schema";
 import { WORK_ORDER_STATUSES } from "@/lib/work-orders/status";
 import { cursorSchema } from "./operations";
@@ -67,7 +67,7 @@ const measurementSpecSnapshotSchema = z.object({
   nominal: z.number().nullable(),
   min: z.number(),
   max: z.number(),
-  unit: z.enum(LENGTH_UNITS),
+  unit: z.enum(MEASUREMENT_UNITS),
   readingLabels: z.array(z.string()),
   geometry: z.enum(MEASUREMENT_GEOMETRIES).nullable(),
 });
@@ -128,7 +128,7 @@ const readingSnapshotSchema = z.object({
   specId: id,
   readingIndex: z.number().int(),
   value: z.number(),
-  unit: z.enum(LENGTH_UNITS),
+  unit: z.enum(MEASUREMENT_UNITS),
   verdict: z.enum(VERDICTS),
   note: z.string(),
   supersedesId: id.nullable(),

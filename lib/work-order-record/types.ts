@@ -3,6 +3,7 @@
  * stage, worked out from the server's snapshot with any work still on this tablet laid on top.
  */
 import type { TorquePass } from "@/lib/calc/torque-stages";
+import type { MeasurementUnit } from "@/lib/calc/units";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 
 export type Snapshot = JobSnapshot;
@@ -17,7 +18,7 @@ export interface ReadingView {
   specId: string;
   readingIndex: number;
   value: number;
-  unit: "mm" | "in" | "µm";
+  unit: MeasurementUnit;
   verdict: "in" | "low" | "high";
   note: string;
   supersedesId: string | null;

@@ -16,6 +16,7 @@ const fields = {
   humidityPercent: "55",
   standard: "SAE_J1349",
   notes: "Baffle in",
+  tuneVersionId: null,
 };
 
 async function counts(workOrderId: string) {

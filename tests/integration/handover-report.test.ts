@@ -99,8 +99,9 @@ describe("handover build report PDF (real PostgreSQL, parsed with pdf-parse)", (
     expect(text).toContain("at 9000 rpm");
     expect(text).toContain("120.0 N·m");
     expect(text).toContain("factor 1.0000");
-    // 94.248 kW / 8 psi = 11.78 kW per psi
-    expect(text).toContain("11.78 kW");
+    // no "power per psi" figure any more: power does not scale with boost alone
+    expect(text).not.toMatch(/per psi/i);
+    expect(text).toContain("none named"); // the run names no tune
     expect(text).toContain("maker's service data");
   });
 

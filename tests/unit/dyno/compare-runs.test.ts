@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { commonRpmGrid, compareRuns, computeRunCurve, interpolateAt } from "@/lib/dyno";
+import { commonRpmGrid, compareAtSameRpm, compareRuns, computeRunCurve, interpolateAt, summariseRun } from "@/lib/dyno";
 import { expectWithin } from "../calc/helpers";
 
 // ISO 1585 at its own reference conditions (99 kPa dry, 25 °C): the factor is exactly 1, so these
@@ -70,5 +70,53 @@ describe("comparing two runs", () => {
         expect(cmp.peakDelta.powerKw).toBe(0);
       }),
     );
+  });
+});
+
+describe("runs compared at one standard and at the same rpm, boost beside power", () => {
+  const stored = (id: string, standard: "SAE_J1349" | "DIN_70020", boostPsi: number, torque: number[], boost?: number[]) => ({
+    id,
+    label: id,
+    ranOn: "2026-12-01",
+    boostTarget: boostPsi,
+    boostUnit: "psi" as const,
+    pressureKpa: 95,
+    temperatureC: 30,
+    humidityPercent: 0,
+    standard,
+    torqueUnit: "N·m" as const,
+    notes: "",
+    fuel: null,
+    tune: null,
+    channels: boost ? [{ channel: "boost" as const, unit: "kPa", sourceColumn: "MAP" }] : [],
+    points: [4000, 6000, 8000].map((rpm, i) => ({ rpm, torque: torque[i], ...(boost ? { logged: { boost: boost[i] } } : {}) })),
+    withdrawn: null,
+  });
+  const a = stored("A", "SAE_J1349", 7, [80, 100, 90], [40, 48, 48]);
+  const b = stored("B", "DIN_70020", 10, [80, 100, 90], [60, 69, 69]);
+
+  it("the same pull recorded under two standards shows a gain at their own standards, none at one", () => {
+    const own = compareRuns(summariseRun(a).curve, summariseRun(b).curve, 1000);
+    // DIN 70020 at 95 kPa total, 30 °C: 1013/950·√(303/293) = 1.0844; J1349 1990 at 95 kPa dry: 1.18·(990/950)·√(303/298) − 0.18 = 1.0600 (calc)
+    expect(own.peakDelta.powerPercent).toBeGreaterThan(2);
+    const one = compareAtSameRpm(summariseRun(a, "SAE_J1349_CURRENT"), summariseRun(b, "SAE_J1349_CURRENT"), 1000);
+    expect(one.peakDelta.powerKw).toBe(0);
+    expect(one.rows.map((r) => r.deltaPowerKw)).toEqual([0, 0, 0, 0, 0]);
+    expect(one.correctedTo).toBe("SAE_J1349_CURRENT");
+  });
+  it("gives the boost difference at each rpm beside the power difference, and the targets' difference", () => {
+    const d = compareAtSameRpm(summariseRun(a, "ISO_1585"), summariseRun(b, "ISO_1585"), 1000);
+    expect(d.rows.map((r) => [r.rpm, r.deltaBoostKpa])).toEqual([
+      [4000, 20],
+      [5000, 20.5], // between 48−40 … read at 5000: a 44, b 64.5
+      [6000, 21],
+      [7000, 21],
+      [8000, 21],
+    ]);
+    // 3 psi × 6.894 757 kPa (NIST SP 811) = 20.684 kPa
+    expectWithin(d.deltaBoostTargetKpa, 20.684272, 1e-6);
+  });
+  it("refuses two runs corrected to different standards", () => {
+    expect(() => compareAtSameRpm(summariseRun(a), summariseRun(b))).toThrow(/one standard/);
   });
 });

@@ -83,6 +83,7 @@ describe("a run's request body", () => {
     humidityPercent: "48",
     standard: "SAE_J1349",
     notes: "",
+    tuneVersionId: null,
   };
   it("accepts text fields and table rows, skipping blank rows", () => {
     const r = checkDynoRunBody({
@@ -119,7 +120,7 @@ describe("a run's request body", () => {
     });
     if (r.ok) throw new Error("should fail");
     expect(r.fieldErrors.label).toMatch(/Name the run/);
-    expect(r.fieldErrors.pressureKpa).toBe("Air pressure must be at least 60 kPa");
+    expect(r.fieldErrors.pressureKpa).toBe("Air pressure must be at least 50 kPa");
     expect(r.fieldErrors.humidityPercent).toBe("Humidity must be a number");
     expect(r.fieldErrors.standard).toBe("Choose a correction standard");
     expect(r.curveErrors).toEqual([{ row: 1, column: "Torque (N·m)", message: 'Torque must be a number; got "x"' }]);

@@ -42,7 +42,7 @@ function job(over: Partial<WorkOrderFacts> = {}): WorkOrderFacts {
       [ids.stepBolts, { key: "rod-bolts", title: "Torque rod bolts", jobProcedureId: ids.proc, stageKey: "assemble" }],
       [ids.stepSealant, { key: "sealant", title: "Sealant", jobProcedureId: ids.proc, stageKey: "assemble" }],
     ]),
-    measurementSpecs: new Map([[ids.boreSpec, { stepId: ids.stepBore, label: "Cylinder 1 bore", readingCount: 6 }]]),
+    measurementSpecs: new Map([[ids.boreSpec, { stepId: ids.stepBore, label: "Cylinder 1 bore", unit: "mm", readingCount: 6 }]]),
     torqueSpecs: new Map([[ids.rodSpec, { stepId: ids.stepBolts, label: "Rod cap bolts", boltCount: 2, passCount: 3 }]]),
     timerSpecs: new Map([[ids.sealantTimer, { stepId: ids.stepSealant }]]),
     sendBacks: [],

@@ -6,10 +6,14 @@ import { AppFrame } from "@/app/ui/app-frame";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { db } from "@/db/setup/client";
 import { findDynoWorkOrder, listDynoRuns } from "@/db/records/dyno";
+import { listTuneVersions } from "@/db/records/tunes";
+import { listPresets } from "@/db/shop/presets";
 import { canReach } from "@/lib/auth/roles";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
 import { isUuid } from "@/lib/ids";
+import { DynoCellCautions } from "./_components/dyno-cell-cautions";
 import { DynoWorkspace } from "./_components/dyno-workspace";
+import { TuneVersions } from "./_components/tune-versions";
 import { WithdrawnRuns, WithdrawRunForm } from "./_components/withdraw-run";
 
 export const metadata: Metadata = { title: "Dyno runs" };
@@ -20,7 +24,11 @@ export default async function JobDynoPage({ params }: { params: Promise<{ id: st
   if (!isUuid(id)) notFound();
   const job = await findDynoWorkOrder(db(), user.shopId, id);
   if (!job) notFound();
-  const all = await listDynoRuns(db(), user.shopId, id);
+  const [all, tunes, mappings] = await Promise.all([
+    listDynoRuns(db(), user.shopId, id),
+    listTuneVersions(db(), user.shopId, id),
+    listPresets(db(), user.shopId, "dyno-csv-mapping"),
+  ]);
   const runs = countingRuns(all);
   const withdrawn = all.filter((r) => r.withdrawn !== null);
   const bikeName = `${job.make} ${job.model}`;
@@ -39,18 +47,30 @@ export default async function JobDynoPage({ params }: { params: Promise<{ id: st
             <span className="font-mono">{job.tagCode}</span> · {job.title} <StatusBadge status={job.status} />
           </p>
         </div>
-        {canReach(user.role, "build-report") && (
-          <a
-            href={`/api/jobs/${job.id}/build-report`}
-            download
-            className="flex min-h-target items-center rounded-xl bg-signal px-6 text-xl font-bold text-ink"
-            data-testid="download-report"
+        <div className="flex flex-wrap gap-4">
+          <Link
+            href={`/jobs/${job.id}/numbers`}
+            className="flex min-h-target items-center rounded-xl border-2 border-ink bg-white px-6 text-xl font-bold"
           >
-            Download build report (PDF)
-          </a>
-        )}
+            This build&apos;s numbers
+          </Link>
+          {canReach(user.role, "build-report") && (
+            <a
+              href={`/api/jobs/${job.id}/build-report`}
+              download
+              className="flex min-h-target items-center rounded-xl bg-signal px-6 text-xl font-bold text-ink"
+              data-testid="download-report"
+            >
+              Download build report (PDF)
+            </a>
+          )}
+        </div>
       </div>
-      <DynoWorkspace workOrderId={job.id} bikeName={bikeName} runs={runs} />
+      <div className="mt-6 flex flex-col gap-6">
+        <DynoCellCautions />
+        <TuneVersions workOrderId={job.id} tunes={tunes} />
+      </div>
+      <DynoWorkspace workOrderId={job.id} bikeName={bikeName} runs={runs} tunes={tunes} mappings={mappings} />
       <div className="mt-6 flex flex-col gap-6">
         {canReach(user.role, "dyno-withdraw") && <WithdrawRunForm workOrderId={job.id} runs={runs} />}
         <WithdrawnRuns runs={withdrawn} />

@@ -3,6 +3,7 @@
 import type { ReactNode } from "react";
 import { CAUTION_KINDS, type TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import { listText, parseList, parsePasses, passesText, setAt } from "@/lib/procedures/template-form";
+import { MEASUREMENT_UNITS } from "@/lib/calc/units";
 
 type Doc = TemplateDocumentInput;
 type Path = Array<string | number>;
@@ -289,7 +290,7 @@ export function TemplateForm({ doc, onChange, errors }: { doc: Doc; onChange: (d
                         {num("Nominal", [...mp, "nominal"], m.nominal, true)}
                         {num("Min", [...mp, "min"], m.min)}
                         {num("Max", [...mp, "max"], m.max)}
-                        {select("Length unit", [...mp, "unit"], m.unit, ["mm", "in", "µm"])}
+                        {select("Unit", [...mp, "unit"], m.unit, MEASUREMENT_UNITS)}
                         <Cell label="Readings (labels, comma-separated)" error={err([...mp, "readingLabels"])}>
                           <input
                             aria-label="Reading labels"

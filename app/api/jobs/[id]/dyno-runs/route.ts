@@ -15,7 +15,7 @@ export const GET = route({ access: { area: "dyno" }, params: ["id"] }, async ({ 
 // The body is checked whole by importDynoRun (fields and every curve row at once), so the wrapper
 // only reads it as JSON here.
 export const POST = route(
-  { access: { area: "dyno" }, params: ["id"], body: json(z.unknown(), { maxBytes: MIB }) },
+  { access: { area: "dyno" }, params: ["id"], body: json(z.unknown(), { maxBytes: 2 * MIB }) },
   async ({ user, params, body, db }) => {
     const r = await importDynoRun(db, user.shopId, idParam(params.id, NOT_FOUND), user.id, body);
     if (r.ok) return created({ id: r.id });

@@ -1,27 +1,60 @@
 "use client";
 
 import { useEffect, useMemo, useRef, useState } from "react";
-import { convertPower, convertTorque, type PowerUnit } from "@/lib/calc";
-import { compareRuns, powerGainPerBoost, summariseRun, type StoredDynoRun } from "@/lib/dyno";
+import { convertPower, convertTorque, POWER_CORRECTION_STANDARD_IDS, POWER_CORRECTION_STANDARDS, type PowerUnit } from "@/lib/calc";
+import {
+  AS_MEASURED_LABEL,
+  CHANNEL_IDS,
+  CHANNELS,
+  compareAtSameRpm,
+  DEFAULT_MARK_LIMITS,
+  marksOfRun,
+  summariseRun,
+  type ChannelId,
+  type CorrectionChoice,
+  type StoredDynoRun,
+} from "@/lib/dyno";
+import type { TuneVersion } from "@/lib/dyno/tune-version";
 import { downloadPng, downloadSvg, type ExportLegendItem } from "./chart-export";
-import { CurveChart, type ChartSeries } from "./curve-chart";
+import { ComparisonSection } from "./comparison-section";
+import { CurveChart, MARK_COLOURS, type ChartMark, type ChartSeries } from "./curve-chart";
 import { runColour } from "./run-colours";
 import { RunFigures } from "./run-figures";
-import { RunForm } from "./run-form";
+import { RunForm, type SavedMapping } from "./run-form";
 import { ToggleGroup } from "./toggle-group";
 
 type TorqueDisplayUnit = "N·m" | "lbf·ft";
-type CurveKind = "corrected" | "observed";
 
-const f1 = (n: number) => n.toFixed(1);
-const signed = (n: number) => `${n >= 0 ? "+" : "−"}${f1(Math.abs(n))}`;
+const selectClass = "min-h-target rounded-lg border-2 border-steel-700 bg-white px-3 text-lg";
+const channelAxisLabel = (c: ChannelId) => (CHANNELS[c].baseUnit ? `${CHANNELS[c].label} (${CHANNELS[c].baseUnit})` : CHANNELS[c].label);
 
-export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: string; bikeName: string; runs: StoredDynoRun[] }) {
-  const summaries = useMemo(() => runs.map(summariseRun), [runs]);
+/** A number typed in a limit box, or the default when it is not a sensible one. */
+function limitOr(text: string, fallback: number, min: number, max: number): number {
+  const n = Number(text.trim());
+  return text.trim() !== "" && Number.isFinite(n) && n >= min && n <= max ? n : fallback;
+}
+
+export function DynoWorkspace({
+  workOrderId,
+  bikeName,
+  runs,
+  tunes,
+  mappings,
+}: {
+  workOrderId: string;
+  bikeName: string;
+  runs: StoredDynoRun[];
+  tunes: TuneVersion[];
+  mappings: SavedMapping[];
+}) {
   const [chosen, setChosen] = useState<string[]>(() => runs.slice(-2).map((r) => r.id));
   const [powerUnit, setPowerUnit] = useState<PowerUnit>("kW");
   const [torqueUnit, setTorqueUnit] = useState<TorqueDisplayUnit>("N·m");
-  const [kind, setKind] = useState<CurveKind>("corrected");
+  // Every run is recomputed from its raw torque to one standard: by default the newest run's.
+  const [correctedTo, setCorrectedTo] = useState<CorrectionChoice>(() => runs.at(-1)?.standard ?? "SAE_J1349");
+  const [channel, setChannel] = useState<ChannelId | "none">("none");
+  const [leanText, setLeanText] = useState(String(DEFAULT_MARK_LIMITS.leanAboveLambda));
+  const [marginText, setMarginText] = useState(String(DEFAULT_MARK_LIMITS.overBoostMarginKpa));
   const [exportError, setExportError] = useState<string | null>(null);
   const chartRef = useRef<HTMLDivElement>(null);
   // a run saved here joins the plot at once
@@ -32,10 +65,17 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
     if (fresh.length) setChosen((c) => [...c, ...fresh]);
   }, [runs]);
 
+  const summaries = useMemo(() => runs.map((r) => summariseRun(r, correctedTo)), [runs, correctedTo]);
+  const limits = {
+    leanAboveLambda: limitOr(leanText, DEFAULT_MARK_LIMITS.leanAboveLambda, 0.5, 1.5),
+    overBoostMarginKpa: limitOr(marginText, DEFAULT_MARK_LIMITS.overBoostMarginKpa, 0, 200),
+  };
   const indexOf = (id: string) => runs.findIndex((r) => r.id === id);
   const shown = summaries.filter((s) => chosen.includes(s.id));
   const p = (kw: number) => convertPower(kw, "kW", powerUnit);
   const t = (nm: number) => convertTorque(nm, "N·m", torqueUnit);
+  const loggedChannels = CHANNEL_IDS.filter((c) => shown.some((s) => (s.series[c] ?? []).length > 0));
+  const channelShown = channel !== "none" && loggedChannels.includes(channel) ? channel : null;
 
   const series: ChartSeries[] = shown.flatMap((s) => [
     {
@@ -44,7 +84,7 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
       colour: runColour(indexOf(s.id)),
       dashed: false,
       axis: "left" as const,
-      points: s.curve.points.map((pt) => ({ rpm: pt.rpm, value: p(kind === "corrected" ? pt.correctedPowerKw : pt.observedPowerKw) })),
+      points: s.curve.points.map((pt) => ({ rpm: pt.rpm, value: p(pt.correctedPowerKw) })),
     },
     {
       key: `${s.id}-torque`,
@@ -52,24 +92,33 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
       colour: runColour(indexOf(s.id)),
       dashed: true,
       axis: "right" as const,
-      points: s.curve.points.map((pt) => ({ rpm: pt.rpm, value: t(kind === "corrected" ? pt.correctedTorqueNm : pt.observedTorqueNm) })),
+      points: s.curve.points.map((pt) => ({ rpm: pt.rpm, value: t(pt.correctedTorqueNm) })),
     },
+    ...(channelShown && s.series[channelShown]?.length
+      ? [
+          {
+            key: `${s.id}-${channelShown}`,
+            name: `${s.label}: ${CHANNELS[channelShown].label.toLowerCase()}`,
+            colour: runColour(indexOf(s.id)),
+            dashed: true,
+            axis: "channel" as const,
+            points: s.series[channelShown]!,
+          },
+        ]
+      : []),
   ]);
+  const marks = shown.flatMap((s) =>
+    marksOfRun(s, limits).map((m) => {
+      const at = s.curve.points.find((pt) => pt.rpm === m.rpm);
+      return { ...m, run: s.label, power: at ? p(at.correctedPowerKw) : 0, key: `${s.id}-${m.kind}-${m.rpm}` };
+    }),
+  );
+  const chartMarks: ChartMark[] = marks.map((m) => ({ key: m.key, rpm: m.rpm, value: m.power, kind: m.kind }));
   const legend: ExportLegendItem[] = series.map((s) => ({ label: s.name, colour: s.colour, dashed: s.dashed }));
-  const title = `${bikeName}: ${kind} power (${powerUnit}) and torque (${torqueUnit})`;
-
-  const comparison = shown.length >= 2 ? compareRuns(shown[0].curve, shown[shown.length - 1].curve, 250) : null;
-  const base = shown[0];
-  const other = shown[shown.length - 1];
-  const gainPerPsi =
-    comparison && base && other
-      ? powerGainPerBoost(
-          { powerKw: base.curve.peaks.correctedPowerKw.value, boost: { value: base.boostTarget, unit: base.boostUnit } },
-          { powerKw: other.curve.peaks.correctedPowerKw.value, boost: { value: other.boostTarget, unit: other.boostUnit } },
-          powerUnit,
-          "psi",
-        )
-      : null;
+  const correctionWords =
+    correctedTo === "as-measured" ? AS_MEASURED_LABEL : `corrected to ${POWER_CORRECTION_STANDARDS[correctedTo].label}`;
+  const title = `${bikeName}: power (${powerUnit}) and torque (${torqueUnit}), ${correctionWords}`;
+  const comparison = shown.length >= 2 ? compareAtSameRpm(shown[0], shown[shown.length - 1], 250) : null;
 
   const toggleRun = (id: string) =>
     setChosen((c) => (c.includes(id) ? c.filter((x) => x !== id) : [...c, id].sort((a, b) => indexOf(a) - indexOf(b))));
@@ -96,7 +145,7 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
             <h2 id="runs-heading" className="text-2xl font-bold">
               Runs on the plot
             </h2>
-            <div className="flex flex-wrap gap-3">
+            <div className="flex flex-wrap gap-4">
               {runs.map((r, i) => {
                 const on = chosen.includes(r.id);
                 return (
@@ -135,16 +184,71 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
               value={torqueUnit}
               onChange={setTorqueUnit}
             />
-            <ToggleGroup
-              label="Curves"
-              options={[
-                { value: "corrected", label: "Corrected" },
-                { value: "observed", label: "As measured" },
-              ]}
-              value={kind}
-              onChange={setKind}
-            />
+            <label className="flex flex-col gap-1 text-base font-bold">
+              Every run corrected to
+              <select
+                value={correctedTo}
+                onChange={(e) => {
+                  const v = e.currentTarget.value;
+                  setCorrectedTo(v === "as-measured" ? v : (POWER_CORRECTION_STANDARD_IDS.find((s) => s === v) ?? correctedTo));
+                }}
+                className={selectClass}
+                data-testid="correct-to"
+              >
+                {POWER_CORRECTION_STANDARD_IDS.map((s) => (
+                  <option key={s} value={s}>
+                    {POWER_CORRECTION_STANDARDS[s].label}
+                  </option>
+                ))}
+                <option value="as-measured">As measured (no correction)</option>
+              </select>
+            </label>
+            <label className="flex flex-col gap-1 text-base font-bold">
+              Logged channel on its own scale
+              <select
+                value={channelShown ?? "none"}
+                onChange={(e) => {
+                  const v = e.currentTarget.value;
+                  setChannel(CHANNEL_IDS.find((c) => c === v) ?? "none");
+                }}
+                className={selectClass}
+                data-testid="channel-axis"
+              >
+                <option value="none">None</option>
+                {loggedChannels.map((c) => (
+                  <option key={c} value={c}>
+                    {channelAxisLabel(c)}
+                  </option>
+                ))}
+              </select>
+            </label>
           </div>
+          {(loggedChannels.includes("mixture") || loggedChannels.includes("boost")) && (
+            <div className="flex flex-wrap items-end gap-6" data-testid="mark-limits">
+              <label className="flex flex-col gap-1 text-base font-bold">
+                Mark lean above λ
+                <input
+                  value={leanText}
+                  onChange={(e) => setLeanText(e.currentTarget.value)}
+                  inputMode="decimal"
+                  className={`${selectClass} w-32 font-mono`}
+                />
+              </label>
+              <label className="flex flex-col gap-1 text-base font-bold">
+                Mark over-boost more than (kPa over the target)
+                <input
+                  value={marginText}
+                  onChange={(e) => setMarginText(e.currentTarget.value)}
+                  inputMode="decimal"
+                  className={`${selectClass} w-32 font-mono`}
+                />
+              </label>
+              <p className="max-w-md text-base">
+                Limits to start from: λ 0.85 and 7 kPa (about 1 psi) — common practice for a boosted petrol engine at full load, no source.
+                The tune and the fuel decide.
+              </p>
+            </div>
+          )}
 
           {shown.length === 0 ? (
             <p className="text-lg">Choose at least one run to plot.</p>
@@ -152,12 +256,22 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
             <section aria-label="Power and torque plot" className="flex flex-col gap-3">
               <p className="text-lg">
                 <strong>{title}.</strong> Solid lines: power (left scale). Dashed lines: torque (right scale).
+                {channelShown && <> Dotted lines: {channelAxisLabel(channelShown).toLowerCase()} (outer right scale).</>}
+                {chartMarks.length > 0 && (
+                  <>
+                    {" "}
+                    Marks on the power curve: <span style={{ color: MARK_COLOURS.lean }}>▼</span> lean,{" "}
+                    <span style={{ color: MARK_COLOURS["over-boost"] }}>■</span> over-boost.
+                  </>
+                )}
               </p>
               <CurveChart
                 ref={chartRef}
                 series={series}
                 leftLabel={`Power (${powerUnit})`}
                 rightLabel={`Torque (${torqueUnit})`}
+                channelLabel={channelShown ? channelAxisLabel(channelShown) : undefined}
+                marks={chartMarks}
                 testId="curve-chart"
               />
               <ul className="flex flex-wrap gap-x-6 gap-y-1 text-base" aria-label="Legend">
@@ -170,7 +284,25 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
                   </li>
                 ))}
               </ul>
-              <div className="flex flex-wrap gap-3">
+              {marks.length > 0 && (
+                <div className="rounded-lg border-4 border-fail bg-fail-light p-3" data-testid="marked-points">
+                  <p className="text-lg font-bold text-fail">
+                    ⚠ {marks.length} marked point{marks.length === 1 ? "" : "s"}:
+                  </p>
+                  <ul className="mt-1 flex flex-col gap-1 text-lg">
+                    {marks.slice(0, 20).map((m) => (
+                      <li key={m.key}>
+                        <span aria-hidden="true" style={{ color: MARK_COLOURS[m.kind] }}>
+                          {m.kind === "lean" ? "▼ " : "■ "}
+                        </span>
+                        {m.run}: {m.message}
+                      </li>
+                    ))}
+                    {marks.length > 20 && <li>… and {marks.length - 20} more.</li>}
+                  </ul>
+                </div>
+              )}
+              <div className="flex flex-wrap gap-4">
                 <button
                   type="button"
                   onClick={() => exportChart("svg")}
@@ -196,74 +328,18 @@ export function DynoWorkspace({ workOrderId, bikeName, runs }: { workOrderId: st
 
           {shown.length > 0 && <RunFigures runs={shown} indexOf={indexOf} powerUnit={powerUnit} torqueUnit={torqueUnit} />}
 
-          {comparison && base && other && (
-            <section aria-labelledby="compare-heading" className="flex flex-col gap-3" data-testid="comparison">
-              <h2 id="compare-heading" className="text-2xl font-bold">
-                {other.label} against {base.label}
-              </h2>
-              <ul className="grid gap-2 text-lg md:grid-cols-3">
-                <li className="rounded-lg border-2 border-steel-300 bg-white p-3">
-                  Peak power{" "}
-                  <strong className="font-mono" data-testid="peak-power-delta">
-                    {signed(p(comparison.peakDelta.powerKw))} {powerUnit}
-                  </strong>{" "}
-                  ({signed(comparison.peakDelta.powerPercent)} %)
-                </li>
-                <li className="rounded-lg border-2 border-steel-300 bg-white p-3">
-                  Peak torque{" "}
-                  <strong className="font-mono">
-                    {signed(t(comparison.peakDelta.torqueNm))} {torqueUnit}
-                  </strong>{" "}
-                  ({signed(comparison.peakDelta.torquePercent)} %)
-                </li>
-                <li className="rounded-lg border-2 border-steel-300 bg-white p-3">
-                  {gainPerPsi === null ? (
-                    "Same boost target"
-                  ) : (
-                    <>
-                      Each extra psi:{" "}
-                      <strong className="font-mono">
-                        {signed(gainPerPsi)} {powerUnit}
-                      </strong>{" "}
-                      at peak
-                    </>
-                  )}
-                </li>
-              </ul>
-              {comparison.grid.length > 0 && (
-                <>
-                  <p className="text-lg">
-                    Power difference at each 250 rpm where both runs have data
-                    {comparison.largestGain && (
-                      <>
-                        ; largest gain {signed(p(comparison.largestGain.value))} {powerUnit} at {comparison.largestGain.rpm} rpm
-                      </>
-                    )}
-                    .
-                  </p>
-                  <CurveChart
-                    series={[
-                      {
-                        key: "delta",
-                        name: "Power difference",
-                        colour: "#111418",
-                        dashed: false,
-                        axis: "left",
-                        points: comparison.grid.map((g) => ({ rpm: g.rpm, value: p(g.deltaPowerKw) })),
-                      },
-                    ]}
-                    leftLabel={`Difference (${powerUnit})`}
-                    zeroLine
-                    height={260}
-                    testId="delta-chart"
-                  />
-                </>
-              )}
-            </section>
+          {comparison && (
+            <ComparisonSection
+              base={shown[0]}
+              other={shown[shown.length - 1]}
+              comparison={comparison}
+              powerUnit={powerUnit}
+              torqueUnit={torqueUnit}
+            />
           )}
         </>
       )}
-      <RunForm workOrderId={workOrderId} />
+      <RunForm workOrderId={workOrderId} tunes={tunes} mappings={mappings} />
     </div>
   );
 }
