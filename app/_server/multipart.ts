@@ -13,6 +13,8 @@ export interface MultipartLimits {
   /** Text fields: how many, and the bytes of each. */
   maxFields?: number;
   maxFieldBytes?: number;
+  /** Said after a size refusal, e.g. "A tune file may be at most 16 MiB." */
+  tooLargeHint?: string;
 }
 
 const mib = (n: number) => `${Math.round((n / (1024 * 1024)) * 10) / 10} MB`;
@@ -23,9 +25,10 @@ const mib = (n: number) => `${Math.round((n / (1024 * 1024)) * 10) / 10} MB`;
  * too. The answer is a FormData (files as File objects) for the handler.
  */
 export async function readMultipart(req: Request, limits: MultipartLimits): Promise<FormData> {
+  const hint = limits.tooLargeHint ? ` ${limits.tooLargeHint}` : "";
   const declared = req.headers.get("content-length");
   if (declared !== null && Number(declared) > limits.maxBytes)
-    throw new Refusal(`The form is ${declared} bytes; the limit is ${limits.maxBytes} bytes.`, 413);
+    throw new Refusal(`The form is ${declared} bytes; the limit is ${limits.maxBytes} bytes.${hint}`, 413);
   if (!req.body) throw new Refusal("The form could not be read: send it again.", 400);
   const headers = Object.fromEntries(req.headers);
   let parser: busboy.Busboy;
@@ -57,7 +60,7 @@ export async function readMultipart(req: Request, limits: MultipartLimits): Prom
     };
     source.on("data", (chunk: Buffer) => {
       total += chunk.byteLength;
-      if (total > limits.maxBytes) fail(new Refusal(`The form is over ${limits.maxBytes} bytes, the limit.`, 413));
+      if (total > limits.maxBytes) fail(new Refusal(`The form is over ${limits.maxBytes} bytes, the limit.${hint}`, 413));
     });
     source.on("error", () => fail(new Refusal("The form could not be read: send it again.", 400)));
     parser.on("field", (name, value, info) => {
@@ -69,7 +72,7 @@ export async function readMultipart(req: Request, limits: MultipartLimits): Prom
       stream.on("data", (c: Buffer) => chunks.push(c));
       stream.on("limit", () =>
         fail(
-          new Refusal(`${info.filename || "A file"} is larger than ${mib(limits.maxFileBytes)}.`, 413, [
+          new Refusal(`${info.filename || "A file"} is larger than ${mib(limits.maxFileBytes)}.${hint}`, 413, [
             { path: name, message: `${info.filename}: over ${mib(limits.maxFileBytes)}` },
           ]),
         ),

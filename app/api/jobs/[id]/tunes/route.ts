@@ -18,7 +18,10 @@ export const POST = route(
   {
     access: { area: "dyno" },
     params: ["id"],
-    body: { ...multipart(TUNE_FILE_MAX_BYTES + 64 * KIB), tooLargeHint: "A tune file may be at most 16 MiB." },
+    body: {
+      ...multipart({ maxBytes: TUNE_FILE_MAX_BYTES + 64 * KIB, maxFileBytes: TUNE_FILE_MAX_BYTES, maxFiles: 1, maxFields: 4 }),
+      tooLargeHint: "A tune file may be at most 16 MiB.",
+    },
   },
   async ({ user, params, body, db }) => {
     const id = idParam(params.id, NOT_FOUND);
