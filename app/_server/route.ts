@@ -257,7 +257,8 @@ async function whoIsAsking(opts: CallOptions, db: Db): Promise<SessionUser | nul
   if (opts.user !== undefined) return opts.user;
   // next-auth loads only when a real request needs it (tests and scripts hand in the user).
   const id = opts.userId !== undefined ? opts.userId : await (await import("./signed-in")).signedInUserId();
-  return id ? loadSessionUser(db, id) : null;
+  // A session naming an id that is not a UUID names nobody (never a database error).
+  return isUuid(id) ? loadSessionUser(db, id) : null;
 }
 
 function mayPass(user: SessionUser, access: Access): boolean {

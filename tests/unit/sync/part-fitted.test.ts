@@ -84,12 +84,8 @@ describe("part.fitted payload", () => {
 
   it("holds the length limits, counting after the trim", () => {
     expect(partFittedPayload.safeParse({ ...good(), partNumber: "P".repeat(60) }).success).toBe(true);
-    expect(issues({ ...good(), partNumber: "P".repeat(61) })).toEqual([
-      ["partNumber", "Part number: at most 60 characters."],
-    ]);
-    expect(issues({ ...good(), description: "d".repeat(201) })).toEqual([
-      ["description", "Description: at most 200 characters."],
-    ]);
+    expect(issues({ ...good(), partNumber: "P".repeat(61) })).toEqual([["partNumber", "Part number: at most 60 characters."]]);
+    expect(issues({ ...good(), description: "d".repeat(201) })).toEqual([["description", "Description: at most 200 characters."]]);
     expect(issues({ ...good(), serial: "S".repeat(81) })).toEqual([["serial", "Serial number: at most 80 characters."]]);
     expect(issues({ ...good(), supplier: "s".repeat(121) })).toEqual([["supplier", "Supplier: at most 120 characters."]]);
     expect(partFittedPayload.safeParse({ ...good(), serial: ` ${"S".repeat(80)} ` }).success).toBe(true);
@@ -178,7 +174,7 @@ describe("merging part.fitted", () => {
     const stranger = randomUUID();
     expect(decideOperation(part(j, { stepId: stranger }), input(j))).toEqual({
       outcome: "refuse",
-      reason: `Step ${stranger} is not part of a procedure on work order #42.`,
+      reason: `Step ${stranger} is not part of a procedure on work order #42. Discard this entry with a reason; record the work again on the job as it is now.`,
     });
   });
 
@@ -190,7 +186,7 @@ describe("merging part.fitted", () => {
     const reused = part(j, { partFittedId: first.kind === "part.fitted" ? first.payload.partFittedId : "", serial: "GS-0099" });
     expect(decideOperation(reused, input(j, state))).toEqual({
       outcome: "refuse",
-      reason: expect.stringMatching(/^Part record .* is already on record\.$/),
+      reason: expect.stringMatching(/^Part record .* is already on record\. Discard this entry/),
     });
   });
 
@@ -222,7 +218,10 @@ describe("merging part.fitted", () => {
 
   it("follows the bench rules for who may record it", () => {
     const j = job({ assignedMechanicId: randomUUID() });
-    expect(decideOperation(part(j), input(j))).toEqual({ outcome: "refuse", reason: "Work order #42 is assigned to another mechanic." });
+    expect(decideOperation(part(j), input(j))).toEqual({
+      outcome: "flag",
+      reason: "Work order #42 is assigned to another mechanic, not to the mechanic who recorded this; kept for the supervisor to check.",
+    });
     const open = job({ assignedMechanicId: null });
     expect(decideOperation(part(open), input(open)).outcome).toBe("accept");
     const office: Actor = { ...mech, role: "office" };
