@@ -42,6 +42,11 @@ describe("POST /api/sync handler", () => {
     expect(await res.json()).toEqual({ error: "Sign in first.", issues: [] });
   });
 
+  it("takes a session naming an id that is not a UUID as nobody (401), never a database error", async () => {
+    const res = await syncRoute.handle(post("{}"), { userId: "42; not-an-id", db });
+    expect([res.status, await res.json()]).toEqual([401, { error: "Sign in first.", issues: [] }]);
+  });
+
   it("answers 403 to office and customer users", async () => {
     const { fx } = await setup();
     for (const [user, role] of [
