@@ -55,7 +55,13 @@ function server(opts: {
     if (url === `/api/bench/jobs/${ids.job}`) return Response.json(jobSnapshot({}, String(cursor)));
     throw new Error(`unexpected request ${url}`);
   }) as typeof fetch;
-  return { fetch: fetchFn, posted, syncPosts: () => posted.filter((p) => p.url === "/api/sync") };
+  const syncPosts = () => posted.filter((p) => p.url === "/api/sync");
+  /** The ids the last sync request carried. */
+  const lastSent = () =>
+    syncPosts()
+      .at(-1)!
+      .body.operations!.map((o) => o.id);
+  return { fetch: fetchFn, posted, syncPosts, lastSent };
 }
 
 const note = (db: BenchDb, text: string) =>
@@ -118,12 +124,7 @@ describe("held and refused entries", () => {
     expect((await entriesNeedingAttention(db)).map((e) => e.id)).toEqual([a.id]);
     applied = true;
     await syncOnce(db, "tab-1", srv.fetch);
-    expect(
-      srv
-        .syncPosts()
-        .at(-1)!
-        .body.operations!.map((o) => o.id),
-    ).toEqual([a.id]);
+    expect(srv.lastSent()).toEqual([a.id]);
     expect(await db.outbox.count()).toBe(0);
   });
 
@@ -153,12 +154,7 @@ describe("held and refused entries", () => {
     expect(discards[0].body.discards).toEqual([
       { id: b.id, operation: b, refusedReason: "Only a supervisor may override a timer.", reason: "Read again after the block cooled" },
     ]);
-    expect(
-      srv
-        .syncPosts()
-        .at(-1)!
-        .body.operations!.map((o) => o.id),
-    ).toEqual([a.id]);
+    expect(srv.lastSent()).toEqual([a.id]);
     expect(await db.outbox.count()).toBe(0);
   });
 
