@@ -40,7 +40,7 @@ export const MAX_PHOTO_BYTES = 50 * 1024 * 1024;
 
 // Ids are made on the tablet (crypto.randomUUID) or by PostgreSQL, both in lower case. PostgreSQL
 // takes "ABC…" and "abc…" as the same uuid, the merge's lookups do not: one spelling only.
-const id = () => z.uuid({ error: "must be a UUID" }).regex(/^[0-9a-f-]+$/, "must be a UUID written in lower case");
+const id = () => z.uuid({ error: "must be a UUID", abort: true }).regex(/^[0-9a-f-]+$/, "must be a UUID written in lower case");
 /** Largest reading, either way, in any length unit (a metre in µm): anything bigger is a slip of the finger or worse. */
 export const MAX_READING = 1_000_000;
 /** Largest wrench reading in any torque unit. */
