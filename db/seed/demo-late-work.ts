@@ -18,7 +18,7 @@ import { insertDemoBike } from "./demo-bike";
 const BIKES = [
   { number: 1030, tag: "GSW-0030", make: "Petrel", model: "Café 750", year: 2016, cc: 749, colour: "Silver" },
   { number: 1031, tag: "GSW-0031", make: "Halden", model: "Scrambler 800", year: 2019, cc: 798, colour: "Olive" },
-  { number: 1032, tag: "GSW-0032", make: "Ostrava", model: "S2 Roadster", year: 2010, cc: 996, colour: "Orange" },
+  { number: 1032, tag: "GSW-0032", make: "Ardley", model: "S2 Roadster", year: 2010, cc: 996, colour: "Orange" },
 ];
 
 const DEVICE = "demo-tablet-3";

@@ -200,7 +200,7 @@ test("a refused entry is sent again after its cause is fixed, and stored", async
   const bench = await browser.newContext({ viewport: { width: 1024, height: 768 } });
   try {
     const sup = await benchPage(bench, "supervisor");
-    await openJob(sup, "GSW-0032", "Ostrava S2 Roadster");
+    await openJob(sup, "GSW-0032", "Ardley S2 Roadster");
     await bench.setOffline(true);
     // Offline, the supervisor lets the case bolts go ahead without the sealant's cure…
     await openStep(sup, 7);
