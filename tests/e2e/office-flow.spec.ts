@@ -56,7 +56,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   // the next work-order number: one past the highest on file (the demo data may grow)
   const [{ n: woNumber }] = await query<{ n: number }>("SELECT max(number) + 1 AS n FROM work_orders");
   await office.getByRole("button", { name: "Book in" }).click();
-  await expect(office.getByRole("heading", { level: 1 })).toContainText(`#${woNumber} Turbo conversion and intercooler");
+  await expect(office.getByRole("heading", { level: 1 })).toContainText(`#${woNumber} Turbo conversion and intercooler`);
   await expect(office.getByTestId("work-order-status")).toContainText("Booked in");
   const photo = office.getByTestId("note-photo").first();
   await expect(photo).toBeVisible();
