@@ -94,3 +94,44 @@ export function finiteNumber(opts: { label: string; min: number; max: number; un
   if (opts.int) n = n.int(`${opts.label} must be a whole number ${range}.`);
   return n.min(opts.min, `${opts.label} must be ${range}.`).max(opts.max, `${opts.label} must be ${range}.`);
 }
+
+/** Whether `s` can be stored as text by PostgreSQL and encoded as UTF-8 (no NUL, no lone surrogate). */
+function storableString(s: string): string {
+  if (!s.includes("\u0000") && !hasLoneSurrogate(s)) return s;
+  let out = "";
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    const pair = c >= 0xd800 && c <= 0xdbff && s.charCodeAt(i + 1) >= 0xdc00 && s.charCodeAt(i + 1) <= 0xdfff;
+    if (pair) {
+      out += s[i] + s[i + 1];
+      i++;
+    } else if (c === 0 || (c >= 0xd800 && c <= 0xdfff)) {
+      out += `\\u${c.toString(16).padStart(4, "0")}`;
+    } else {
+      out += s[i];
+    }
+  }
+  return out;
+}
+
+/**
+ * A copy of anything that arrived from outside (a refused operation, however malformed), that a
+ * jsonb column and every later reader accept: a NUL or lone surrogate is written out as the six
+ * characters `\u0000`, numbers JSON cannot hold (NaN, Infinity) become text, nesting stops at 16
+ * levels, and a copy over `maxChars` of JSON is kept as its first `maxChars` characters of text.
+ * For the audit log's record of what was refused or discarded; never for data that is applied.
+ */
+export function storableCopy(value: unknown, maxChars = 16_000): unknown {
+  const walk = (v: unknown, depth: number): unknown => {
+    if (typeof v === "string") return storableString(v);
+    if (typeof v === "number") return Number.isFinite(v) ? v : String(v);
+    if (v === null || typeof v === "boolean") return v;
+    if (typeof v !== "object") return v === undefined ? null : storableString(String(v));
+    if (depth >= 16) return "(nested too deep)";
+    if (Array.isArray(v)) return v.map((x) => walk(x, depth + 1));
+    return Object.fromEntries(Object.entries(v).map(([k, x]) => [storableString(k), walk(x, depth + 1)]));
+  };
+  const copy = walk(value, 0);
+  const text = JSON.stringify(copy) ?? "null";
+  return text.length <= maxChars ? copy : { truncated: true, text: storableString(text.slice(0, maxChars)) };
+}

@@ -277,7 +277,8 @@ type Asking = { user: SessionUser; sessionId: string | null } | { refused: Sessi
 async function whoIsAsking(opts: CallOptions, db: Db): Promise<Asking> {
   if (opts.user !== undefined) return opts.user ? { user: opts.user, sessionId: null } : { refused: "expired" };
   if (opts.userId !== undefined) {
-    const user = opts.userId ? await loadSessionUser(db, opts.userId) : null;
+    // A session naming an id that is not a UUID names nobody (never a database error).
+    const user = opts.userId && isUuid(opts.userId) ? await loadSessionUser(db, opts.userId) : null;
     return user ? { user, sessionId: null } : { refused: "expired" };
   }
   // next-auth loads only when a real request needs it (tests and scripts hand in the user).

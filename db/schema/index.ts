@@ -6,11 +6,22 @@ import type { OfficeTables } from "./office";
 import type { ReviewTables } from "./review";
 import type { SessionTables } from "./sessions";
 import type { ShopTables, UsersTable } from "./shop";
+import type { SyncTables } from "./sync";
 import type { TemplateTables } from "./templates";
 import type { WorkOrderTables } from "./work-orders";
 
 // The whole database as Kysely sees it: one file per subject in this folder.
 export interface Database
-  extends ShopTables, TemplateTables, WorkOrderTables, BenchTables, ReviewTables, OfficeTables, DynoTables, AuditTables, SessionTables {}
+  extends
+    ShopTables,
+    TemplateTables,
+    WorkOrderTables,
+    BenchTables,
+    ReviewTables,
+    OfficeTables,
+    DynoTables,
+    AuditTables,
+    SessionTables,
+    SyncTables {}
 
 export type User = Selectable<UsersTable>;

@@ -5,7 +5,9 @@ import type { WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
 import { DEMO_PASSWORD, DEMO_USERS } from "./demo-people";
 import { createTemplateVersion } from "../templates/versions";
+import { insertDemoBike } from "./demo-bike";
 import { seedDemoDyno } from "./demo-dyno";
+import { seedDemoLateWork } from "./demo-late-work";
 import { seedDemoOffice } from "./demo-office";
 import { seedDemoReview } from "./demo-review";
 
@@ -103,9 +105,10 @@ const WORK_ORDERS: Array<{
   },
 ];
 
-export async function demoShopExists(db: Kysely<Database>): Promise<boolean> {
+/** The demo shop's id, or null when it has not been seeded. */
+export async function demoShopId(db: Kysely<Database>): Promise<string | null> {
   const row = await db.selectFrom("shops").select("id").where("slug", "=", DEMO_SHOP_SLUG).executeTakeFirst();
-  return Boolean(row);
+  return row?.id ?? null;
 }
 
 export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: string }> {
@@ -144,25 +147,7 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
   }
 
   const bikeIds = new Map<string, string>();
-  for (const b of BIKES) {
-    const { id } = await db
-      .insertInto("bikes")
-      .values({
-        shop_id: shopId,
-        customer_id: customerIds.get(b.customer)!,
-        make: b.make,
-        model: b.model,
-        year: b.year,
-        displacement_cc: b.cc,
-        colour: b.colour,
-        tag_code: b.tag,
-        vin: null,
-        engine_number: null,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    bikeIds.set(b.key, id);
-  }
+  for (const b of BIKES) bikeIds.set(b.key, await insertDemoBike(db, shopId, customerIds.get(b.customer)!, b));
 
   const versionIds = new Map<string, string>();
   for (const t of DEMO_TEMPLATES) {
@@ -197,6 +182,7 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
         .execute();
     }
   }
+  await seedDemoLateWork(db, shopId);
   await seedDemoDyno(db, shopId);
   await seedDemoReview(db, shopId);
   await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);

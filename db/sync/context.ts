@@ -33,9 +33,20 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
   const out = new Map<string, LoadedWorkOrder>();
   if (!jobIds.length) return out;
   const jobs = await db
-    .selectFrom("work_orders")
-    .select(["id", "shop_id", "bike_id", "number", "status", "assigned_mechanic_id"])
-    .where("id", "=", anyId(jobIds))
+    .selectFrom("work_orders as w")
+    .leftJoin("users as m", "m.id", "w.assigned_mechanic_id")
+    .select(["w.id", "w.shop_id", "w.bike_id", "w.number", "w.status", "w.assigned_mechanic_id", "m.name as mechanic_name"])
+    .select((eb) =>
+      // when the job was last (re)assigned: the office's assignment is in the audit log
+      eb
+        .selectFrom("audit_log as a")
+        .select((a) => a.fn.max("a.at").as("at"))
+        .where("a.entity", "=", "work_order")
+        .where("a.action", "=", "work_order.assign")
+        .whereRef("a.work_order_id", "=", "w.id")
+        .as("assigned_at"),
+    )
+    .where("w.id", "=", anyId(jobIds))
     .execute();
   for (const j of jobs) {
     out.set(j.id, {
@@ -45,6 +56,8 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
       number: j.number,
       status: j.status,
       assignedMechanicId: j.assigned_mechanic_id,
+      assignedMechanicName: j.mechanic_name,
+      assignedSinceMs: j.assigned_at ? new Date(j.assigned_at).getTime() : null,
       steps: new Map(),
       measurementSpecs: new Map(),
       torqueSpecs: new Map(),

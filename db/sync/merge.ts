@@ -2,37 +2,82 @@ import "server-only";
 import type { Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { SyncResponse } from "@/lib/sync/changes";
-import { decideOperation, noteAccepted, sortByStamp, type Actor } from "@/lib/sync/merge-rules";
+import {
+  decideOperation,
+  noteAccepted,
+  sortByStamp,
+  targetPresent,
+  type Actor,
+  type Decision,
+  type MergeState,
+} from "@/lib/sync/merge-rules";
 import type { Operation, SyncBatch } from "@/lib/sync/operations";
+import type { MalformedOperation } from "@/lib/sync/parse-batch";
 import type { AuditEntry } from "../audit/append";
 import type { Database } from "../schema";
 import { changesSince } from "./changes";
-import { existingOperations, loadWorkOrderFacts, loadMergeState } from "./context";
-import { appendAuditBatch, lockShopForSync, refusalsOnRecord, writeKept, type KeptOperation } from "./write";
+import { existingOperations, loadWorkOrderFacts, loadMergeState, type LoadedWorkOrder } from "./context";
+import { heldForTargets, heldOnFile, holdOperations, resolveHeld, type HeldOperation } from "./pending";
+import { appendAuditBatch, applyFirstOverrides, lockShopForSync, refusalsOnRecord, writeKept, type KeptOperation } from "./write";
+
+/** A refusal to audit: the operation (or the storable copy of a malformed one), who sent it and why. */
+interface Refused {
+  id: string;
+  reason: string;
+  kind: string;
+  workOrderId: string | null;
+  actorId: string;
+  deviceId: string;
+  detail: Record<string, unknown>;
+  /** Part of this request (answered), or a held operation refused when its record came (audited only). */
+  answered: boolean;
+}
+
+/** The records an accepted operation creates that held operations may wait for. */
+function targetsCreated(op: Operation): string[] {
+  if (op.kind === "measurement.recorded") return [op.id];
+  if (op.kind === "timer.started") return [op.payload.timerId];
+  return [];
+}
+
+/** Adds records the held operations name to the state, leaving alone what the merge already knows. */
+function addMissing(state: MergeState, more: MergeState): void {
+  for (const [k, v] of more.readings) if (!state.readings.has(k)) state.readings.set(k, v);
+  for (const [k, v] of more.timers) if (!state.timers.has(k)) state.timers.set(k, v);
+  for (const k of more.attachmentIds) state.attachmentIds.add(k);
+  for (const k of more.partIds) state.partIds.add(k);
+  for (const [k, v] of more.partSerials) if (!state.partSerials.has(k)) state.partSerials.set(k, v);
+}
 
 /**
  * Merges one batch from a tablet's outbox, in one transaction (all of it is saved, or none).
  *
  * 1. Takes the shop's sync lock, so merges in a shop run one after another.
- * 2. Sets aside operations already on file (a resent batch): they are `duplicates`.
+ * 2. Sets aside operations already on file (a resent batch): they are `duplicates`; those already
+ *    held (a resend of a late arrival) are `pending` again.
  * 3. Loads the facts the rules need (jobs, pinned procedures, send-backs, referenced records).
- * 4. Decides each new operation in stamp order with lib/sync/merge-rules.
- * 5. Inserts the kept ones into `operations` (ON CONFLICT (id) DO NOTHING), the read tables and
- *    the audit log in one statement; audits the refused ones in another.
- * 6. Answers with the outcome of each operation and the changes from elsewhere after the cursor.
+ * 4. Decides each new operation in stamp order with lib/sync/merge-rules: kept (perhaps flagged),
+ *    refused, or held because the record it acts on has not arrived.
+ * 5. Applies held operations — of this batch, or held by an earlier one — whose record is now
+ *    here, in stamp order, until none is left (a correction of a correction follows its reading).
+ * 6. Inserts the kept ones into `operations` (ON CONFLICT (id) DO NOTHING), the read tables and
+ *    the audit log in one statement; audits the refused ones (the malformed ones too) in another;
+ *    holds the ones still waiting.
+ * 7. Answers with the outcome of each operation and the changes from elsewhere after the cursor.
  *
  * Resending the same batch, or the rest of a batch that was cut off, leaves the database as if it
- * had arrived once: nothing is inserted twice and no audit row is repeated.
+ * had arrived once; any order of one device's operations across batches ends as one delivery does.
  */
 export async function mergeBatch(
   db: Kysely<Database>,
   user: SessionUser,
-  batch: SyncBatch,
+  batch: SyncBatch & { malformed?: readonly MalformedOperation[] },
   opts: { nowMs?: number } = {},
 ): Promise<SyncResponse> {
   const actor: Actor = { id: user.id, shopId: user.shopId, role: user.role };
   const cursor = batch.cursor === null ? null : Number(batch.cursor);
   const nowMs = opts.nowMs ?? Date.now();
+  const malformed = batch.malformed ?? [];
 
   return db.transaction().execute(async (trx) => {
     await lockShopForSync(trx, actor.shopId);
@@ -40,41 +85,127 @@ export async function mergeBatch(
     // The same id twice in one batch counts once.
     const byId = new Map<string, Operation>();
     for (const op of batch.operations) if (!byId.has(op.id)) byId.set(op.id, op);
-    const onFile = await existingOperations(trx, [...byId.keys()]);
+    const [onFile, heldBefore] = await Promise.all([existingOperations(trx, [...byId.keys()]), heldOnFile(trx, [...byId.keys()])]);
 
     const duplicates: string[] = [];
-    const refused: { id: string; reason: string; op: Operation }[] = [];
+    const refused: Refused[] = [];
+    const pending = new Map<string, string>();
+    const refuse = (op: Operation, reason: string, by: { actorId: string; deviceId: string }, answered = true) =>
+      refused.push({
+        id: op.id,
+        reason,
+        kind: op.kind,
+        workOrderId: op.workOrderId,
+        ...by,
+        detail: { operation: op },
+        answered,
+      });
+    const fromBatch = { actorId: actor.id, deviceId: batch.deviceId };
     const fresh: Operation[] = [];
     for (const op of byId.values()) {
-      const author = onFile.get(op.id);
+      const author = onFile.get(op.id) ?? heldBefore.get(op.id)?.authorId;
       if (author === undefined) fresh.push(op);
-      else if (author === actor.id) duplicates.push(op.id);
-      else refused.push({ id: op.id, op, reason: `Operation id ${op.id} is already used by another user's operation.` });
+      else if (author !== actor.id)
+        refuse(op, `Operation id ${op.id} is already used by another user's operation. Discard this entry with a reason.`, fromBatch);
+      else if (onFile.has(op.id)) duplicates.push(op.id);
+      else pending.set(op.id, heldBefore.get(op.id)!.reason);
     }
 
     const ordered = sortByStamp(fresh);
-    const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...new Set(ordered.map((o) => o.workOrderId))]);
+    const jobIds = new Set([...ordered.map((o) => o.workOrderId), ...malformed.flatMap((m) => (m.workOrderId ? [m.workOrderId] : []))]);
+    const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...jobIds]);
     const state = await loadMergeState(trx, ordered);
 
-    let kept: KeptOperation[] = [];
+    const kept: KeptOperation[] = [];
+    const newTargets = new Set<string>();
+    const keep = (op: Operation, decision: KeptOperation["decision"]) => {
+      kept.push({ op, decision });
+      noteAccepted(op, state);
+      for (const t of targetsCreated(op)) newTargets.add(t);
+    };
+    let waiting: HeldOperation[] = [];
+    const decideAs = (h: { op: Operation; authorRole: Actor["role"]; cursor: number | null; receivedAtMs: number }): Decision =>
+      decideOperation(h.op, {
+        actor: { id: h.op.authorId, shopId: actor.shopId, role: h.authorRole },
+        batchDeviceId: h.op.deviceId,
+        cursor: h.cursor,
+        nowMs: h.receivedAtMs,
+        job: jobs.get(h.op.workOrderId),
+        state,
+      });
+
     for (const op of ordered) {
       const decision = decideOperation(op, { actor, batchDeviceId: batch.deviceId, cursor, nowMs, job: jobs.get(op.workOrderId), state });
-      if (decision.outcome === "refuse") {
-        refused.push({ id: op.id, reason: decision.reason, op });
-      } else {
-        kept.push({ op, decision });
-        noteAccepted(op, state);
+      if (decision.outcome === "refuse") refuse(op, decision.reason, fromBatch);
+      else if (decision.outcome === "wait") {
+        waiting.push({ op, authorRole: actor.role, cursor, receivedAtMs: nowMs, target: decision.target, reason: decision.reason });
+      } else keep(op, decision);
+    }
+
+    // Late arrivals: held operations whose record is here now, in stamp order, round after round.
+    const applied: string[] = [];
+    const refusedHeld: string[] = [];
+    const looked = new Set<string>();
+    const seen = new Set<string>(waiting.map((w) => w.op.id));
+    for (;;) {
+      const query = [...newTargets].filter((t) => !looked.has(t));
+      for (const t of query) looked.add(t);
+      const fromFile = await heldForTargets(trx, actor.shopId, query, seen);
+      for (const h of fromFile) seen.add(h.op.id);
+      const ready = [...waiting.filter((w) => targetPresent(w.target, state)), ...fromFile];
+      if (!ready.length) break;
+      waiting = waiting.filter((w) => !targetPresent(w.target, state));
+      const filed = new Set(fromFile.map((h) => h.op.id));
+
+      const missingJobs = [...new Set(fromFile.map((h) => h.op.workOrderId))].filter((id) => !jobs.has(id));
+      if (missingJobs.length)
+        for (const [id, j] of await loadWorkOrderFacts(trx, actor.shopId, missingJobs)) jobs.set(id, j as LoadedWorkOrder);
+      if (fromFile.length)
+        addMissing(
+          state,
+          await loadMergeState(
+            trx,
+            fromFile.map((h) => h.op),
+          ),
+        );
+
+      const byStamp = sortByStamp(ready.map((h) => ({ id: h.op.id, stamp: h.op.stamp, h })));
+      for (const { h } of byStamp) {
+        const decision = decideAs(h);
+        const wasFiled = filed.has(h.op.id);
+        if (decision.outcome === "refuse") {
+          refuse(h.op, decision.reason, { actorId: h.op.authorId, deviceId: h.op.deviceId }, byId.has(h.op.id));
+          if (wasFiled) refusedHeld.push(h.op.id);
+        } else if (decision.outcome === "wait") {
+          if (!wasFiled) waiting.push({ ...h, target: decision.target, reason: decision.reason });
+        } else {
+          keep(h.op, decision);
+          if (wasFiled) applied.push(h.op.id);
+        }
       }
     }
 
-    const inserted = await writeKept(trx, actor.shopId, actor.id, kept, jobs, state);
-    if (inserted.size !== kept.length) {
-      // Only when another transaction stored the same id meanwhile: those are duplicates.
-      for (const k of kept) if (!inserted.has(k.op.id)) duplicates.push(k.op.id);
-      kept = kept.filter((k) => inserted.has(k.op.id));
-    }
+    const inserted = await writeKept(trx, actor.shopId, kept, jobs, state);
+    await applyFirstOverrides(
+      trx,
+      kept.flatMap((k) => (k.op.kind === "timer.overridden" ? [k.op.payload.timerId] : [])),
+    );
+    await holdOperations(trx, actor.shopId, waiting);
+    await resolveHeld(trx, applied, "applied");
+    await resolveHeld(trx, refusedHeld, "refused");
 
     // Accepted operations were audited by writeKept; refusals are audited here (once per reason).
+    for (const m of malformed) {
+      refused.push({
+        id: m.id,
+        reason: m.reason,
+        kind: m.kind ?? "unreadable",
+        workOrderId: m.workOrderId,
+        ...fromBatch,
+        detail: { operation: m.copy, malformed: true },
+        answered: true,
+      });
+    }
     const logged = await refusalsOnRecord(
       trx,
       refused.map((r) => r.id),
@@ -85,25 +216,34 @@ export async function mergeBatch(
         .filter((r) => !logged.has(`${r.id}\n${r.reason}`))
         .map((r): AuditEntry => ({
           shopId: actor.shopId,
-          actorId: actor.id,
-          deviceId: batch.deviceId,
-          action: `sync.${r.op.kind}`,
+          actorId: r.actorId,
+          deviceId: r.deviceId,
+          action: `sync.${r.kind}`,
           entity: "operation",
           entityId: r.id,
           // Only a job of this shop is linked; the named id stays in the detail.
-          workOrderId: jobs.get(r.op.workOrderId)?.shopId === actor.shopId ? r.op.workOrderId : null,
+          workOrderId: r.workOrderId && jobs.get(r.workOrderId)?.shopId === actor.shopId ? r.workOrderId : null,
           outcome: "refused",
           reason: r.reason,
-          detail: { operation: r.op },
+          detail: r.detail,
         })),
     );
 
+    const answered = kept.filter((k) => byId.has(k.op.id));
+    const stored = answered.filter((k) => inserted.has(k.op.id));
+    // Only when another transaction stored the same id meanwhile: those are duplicates.
+    for (const k of answered) if (!inserted.has(k.op.id)) duplicates.push(k.op.id);
+    for (const k of answered) pending.delete(k.op.id);
+    for (const w of waiting) if (byId.has(w.op.id)) pending.set(w.op.id, w.reason);
+    for (const r of refused) if (r.answered) pending.delete(r.id);
+
     const page = await changesSince(trx, actor.shopId, batch.deviceId, cursor);
     return {
-      accepted: kept.map((k) => k.op.id),
+      accepted: stored.map((k) => k.op.id),
       duplicates,
-      refused: refused.map(({ id, reason }) => ({ id, reason })),
-      flagged: kept.flatMap((k) => (k.decision.outcome === "flag" ? [{ id: k.op.id, reason: k.decision.reason }] : [])),
+      refused: refused.filter((r) => r.answered).map(({ id, reason }) => ({ id, reason })),
+      flagged: stored.flatMap((k) => (k.decision.outcome === "flag" ? [{ id: k.op.id, reason: k.decision.reason }] : [])),
+      pending: [...pending].map(([id, reason]) => ({ id, reason })),
       changes: page.changes,
       cursor: page.cursor,
       more: page.more,

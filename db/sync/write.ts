@@ -62,12 +62,14 @@ export async function lockShopForSync(trx: Tx, shopId: string): Promise<void> {
  *
  * Timers: a timer started in this batch is inserted already stopped at the earliest stop the batch
  * holds for it (CTEs cannot see each other's rows); stops of timers on file update them, keeping
- * the earliest stop.
+ * the earliest stop. Overrides are settled after this statement (`applyFirstOverrides`).
+ *
+ * Each row is audited under its own author: a held operation applied now was sent by its author,
+ * perhaps from another tablet, not by whoever brought the record it waited for.
  */
 export async function writeKept(
   trx: Tx,
   shopId: string,
-  actorId: string,
   kept: readonly KeptOperation[],
   jobs: ReadonlyMap<string, LoadedWorkOrder>,
   state: MergeState,
@@ -123,7 +125,6 @@ export async function writeKept(
   const reading = payloadOf("measurement.recorded");
   const torque = payloadOf("torque.bolt-confirmed");
   const timer = payloadOf("timer.started");
-  const override = payloadOf("timer.overridden");
   const stop = payloadOf("timer.stopped");
   const photo = payloadOf("photo.queued");
   const signOff = payloadOf("stage.signed-off");
@@ -159,27 +160,11 @@ export async function writeKept(
       FROM y x WHERE x.kind = 'torque.bolt-confirmed'
     ),
     timer_starts AS (
-      INSERT INTO ${into("timers", ["id", "work_order_id", "step_id", "timer_spec_id", "label", "duration_s", "started_at", "started_by", "stopped_at", "override_by", "override_reason"])}
+      INSERT INTO ${into("timers", ["id", "work_order_id", "step_id", "timer_spec_id", "label", "duration_s", "started_at", "started_by", "stopped_at"])}
       SELECT ${timer("timerId", "uuid")}, x.work_order_id, ${timer("stepId", "uuid")}, ${timer("timerSpecId", "uuid")}, ${timer("label", "text")},
-        ${timer("durationS", "int")}, ${timer("startedAt", "timestamptz")}, x.author_id, x.timer_stopped_at, o.author_id, o.payload->>'reason'
+        ${timer("durationS", "int")}, ${timer("startedAt", "timestamptz")}, x.author_id, x.timer_stopped_at
       FROM y x
-      LEFT JOIN LATERAL (
-        SELECT s.author_id, s.payload FROM y s
-        WHERE s.kind = 'timer.overridden' AND s.payload->>'timerId' = x.payload->>'timerId' ORDER BY s.ord LIMIT 1
-      ) o ON true
       WHERE x.kind = 'timer.started'
-    ),
-    timer_overrides AS (
-      -- The first override of a timer stands; later ones stay in the operations and the audit log.
-      UPDATE timers t SET override_by = o.author_id, override_reason = o.reason
-      FROM (
-        SELECT DISTINCT ON (x.payload->>'timerId') ${override("timerId", "uuid")} AS timer_id, x.author_id, ${override("reason", "text")} AS reason
-        FROM y x
-        WHERE x.kind = 'timer.overridden'
-          AND NOT EXISTS (SELECT 1 FROM y s WHERE s.kind = 'timer.started' AND s.payload->>'timerId' = x.payload->>'timerId')
-        ORDER BY x.payload->>'timerId', x.ord
-      ) o
-      WHERE t.id = o.timer_id AND t.override_by IS NULL
     ),
     timer_stops AS (
       UPDATE timers t SET stopped_at = LEAST(COALESCE(t.stopped_at, s.at), s.at)
@@ -213,13 +198,33 @@ export async function writeKept(
     ),
     audit AS (
       INSERT INTO ${into("audit_log", ["shop_id", "actor_id", "device_id", "action", "entity", "entity_id", "work_order_id", "outcome", "reason", "detail"])}
-      SELECT ${shopId}::uuid, ${actorId}::uuid, x.device_id, 'sync.' || x.kind, 'operation', x.id::text, x.work_order_id,
+      SELECT ${shopId}::uuid, x.author_id, x.device_id, 'sync.' || x.kind, 'operation', x.id::text, x.work_order_id,
         'accepted', x.flag_reason, jsonb_build_object('stamp', x.stamp, 'flagged', x.flagged)
       FROM y x ORDER BY x.ord
     )
     SELECT id FROM ops
   `.execute(trx);
   return new Set(r.rows.map((o) => o.id));
+}
+
+/**
+ * The override of each of `timerIds` is the kept override with the earliest stamp (then id): the
+ * first one made stands, whatever order the tablets' batches arrive in; later ones stay in the
+ * operations and the audit log. Run after `writeKept`, so it sees the rows that statement wrote.
+ */
+export async function applyFirstOverrides(trx: Tx, timerIds: readonly string[]): Promise<void> {
+  if (!timerIds.length) return;
+  await sql`
+    UPDATE timers t SET override_by = o.author_id, override_reason = o.payload->>'reason'
+    FROM (
+      SELECT DISTINCT ON (payload->>'timerId') (payload->>'timerId')::uuid AS timer_id, author_id, payload
+      FROM operations
+      WHERE kind LIKE 'timer.%' AND kind = 'timer.overridden' AND payload->>'timerId' = ANY(${[...new Set(timerIds)]}::text[])
+      ORDER BY payload->>'timerId', stamp COLLATE "C", id
+    ) o
+    WHERE t.id = o.timer_id
+      AND (t.override_by IS DISTINCT FROM o.author_id OR t.override_reason IS DISTINCT FROM o.payload->>'reason')
+  `.execute(trx);
 }
 
 /** Refusals already in the audit log with the same reason (a resent refused operation is not logged twice). */

@@ -23,11 +23,19 @@ export interface OutboxEntry {
   /**
    * waiting: not yet stored by the server. sent: the server stored it (answer cursor in
    * `sentCursor`) and it stays, drawn on top of the job copy, until a copy at least that new is
-   * on the tablet. refused: the server said no (reason kept and shown).
+   * on the tablet. held: the server holds it until the record it acts on arrives (reason kept);
+   * it is drawn on top and sent again with every sync until the server says it is stored.
+   * refused: the server said no, or could not store it (reason kept and shown, with what it was;
+   * the mechanic sends it again or discards it). discarding: the mechanic discards it
+   * (`discardReason`); it leaves the outbox once the server has written that down.
    */
-  state: "waiting" | "sent" | "refused";
+  state: "waiting" | "sent" | "held" | "refused" | "discarding";
   sentCursor?: string;
   reason?: string;
+  /** When it was refused (ms), for the list. */
+  refusedAt?: number;
+  /** Why the person discards it. */
+  discardReason?: string;
   createdAt: number;
 }
 

@@ -6,7 +6,9 @@
  *    a photo and its operation are written in one transaction too;
  *  - a job copy is never replaced by an older one (lower server cursor);
  *  - an operation the server stored leaves the outbox only once a copy of its job at least as new
- *    as the answer that stored it is on the tablet; until then the screen draws it on top.
+ *    as the answer that stored it is on the tablet; until then the screen draws it on top;
+ *  - nothing leaves the outbox silently: a refused entry stays, with its reason, until the
+ *    mechanic sends it again or discards it with a reason and the server has written that down.
  */
 import Dexie from "dexie";
 import { createClock, receive, tick, type HlcState } from "@/lib/sync/hlc";
@@ -173,6 +175,8 @@ export interface SyncAnswer {
   /** Ids the server stored (accepted now or earlier). */
   stored: readonly string[];
   refused: ReadonlyArray<{ id: string; reason: string }>;
+  /** Held on the server until the record they act on arrives. */
+  held?: ReadonlyArray<{ id: string; reason: string }>;
   /** Jobs that changed: those the sent operations name and those in the changes from elsewhere. */
   touchedJobs: Iterable<string>;
   /** The answer's cursor (the last page's, when the changes came in several). */
@@ -196,7 +200,8 @@ export async function keepSyncAnswer(db: BenchDb, answer: SyncAnswer, now = Date
       sent.map((e) => ({ ...e, state: "sent" as const, sentCursor: laterCursor(e.sentCursor, answer.cursor), reason: undefined })),
     );
     for (const e of sent) touched.add(e.workOrderId);
-    for (const r of answer.refused) await db.outbox.update(r.id, { state: "refused", reason: r.reason });
+    for (const r of answer.refused) await db.outbox.update(r.id, { state: "refused", reason: r.reason, refusedAt: now });
+    for (const h of answer.held ?? []) await db.outbox.update(h.id, { state: "held", reason: h.reason });
 
     const sentFor = new Set(sent.map((e) => e.workOrderId));
     const held = new Set(
@@ -240,16 +245,98 @@ export async function markPhotoUploaded(db: BenchDb, id: string): Promise<void> 
 
 // ——— reads that go with the rules above ———
 
-/** Operations still waiting for the server, in stamp order. */
+/** Operations to send: those waiting, and those the server holds (to learn when it has applied them), in stamp order. */
 export async function waitingOperations(db: BenchDb): Promise<Operation[]> {
-  const rows = await db.outbox.where("state").equals("waiting").sortBy("stamp");
+  const rows = await db.outbox.where("state").anyOf("waiting", "held").sortBy("stamp");
   return rows.map((r) => r.op);
 }
 
-/** This job's work the screen draws on top of its copy: waiting and sent-but-not-yet-in-the-copy, in stamp order. */
+/** This job's work the screen draws on top of its copy: waiting, held and sent-but-not-yet-in-the-copy, in stamp order. */
 export async function workOnTop(db: BenchDb, jobId: string): Promise<Operation[]> {
   const rows = await db.outbox.where("workOrderId").equals(jobId).sortBy("stamp");
-  return rows.filter((r) => r.state !== "refused").map((r) => r.op);
+  return rows.filter((r) => r.state === "waiting" || r.state === "sent" || r.state === "held").map((r) => r.op);
+}
+
+// ——— refused and held entries: kept in view until sent again or discarded with a reason ———
+
+/** Entries the mechanic has to decide on (refused), the server holds, or that are being discarded; oldest first. */
+export async function entriesNeedingAttention(db: BenchDb): Promise<OutboxEntry[]> {
+  return db.outbox.where("state").anyOf("refused", "held", "discarding").sortBy("stamp");
+}
+
+/** Marks an entry the server could not store (its batch kept failing on the server, alone too) as refused, with why. */
+export async function markUnstorable(db: BenchDb, id: string, reason: string, now = Date.now()): Promise<void> {
+  await db.outbox
+    .where("id")
+    .equals(id)
+    .filter((e) => e.state === "waiting" || e.state === "held")
+    .modify({ state: "refused", reason, refusedAt: now });
+}
+
+/** Sends a refused entry again with the next sync (after its cause was fixed). */
+export async function resendEntry(db: BenchDb, id: string): Promise<void> {
+  await db.outbox
+    .where("id")
+    .equals(id)
+    .filter((e) => e.state === "refused")
+    .modify((e) => {
+      e.state = "waiting";
+      delete e.reason;
+      delete e.refusedAt;
+    });
+}
+
+/** The mechanic discards a refused or held entry, saying why; it goes once the server has written that down. */
+export async function discardEntry(db: BenchDb, id: string, reason: string): Promise<void> {
+  await db.outbox
+    .where("id")
+    .equals(id)
+    .filter((e) => e.state === "refused" || e.state === "held")
+    .modify({ state: "discarding", discardReason: reason });
+}
+
+/** Takes back a discard not yet sent: the entry is refused (or held) again. */
+export async function keepEntry(db: BenchDb, id: string): Promise<void> {
+  await undoDiscards(db, [id], "");
+}
+
+/** Discards the server did not take: the entries are refused (or held) again, with the server's answer added to the reason. */
+export async function undoDiscards(db: BenchDb, ids: readonly string[], why: string): Promise<void> {
+  await db.outbox
+    .where("id")
+    .anyOf([...ids])
+    .filter((e) => e.state === "discarding")
+    .modify((e) => {
+      e.state = e.refusedAt === undefined ? "held" : "refused";
+      e.reason = `${e.reason ?? ""} ${why}`.trim();
+      delete e.discardReason;
+    });
+}
+
+/** Entries whose discard is to be sent to the server. */
+export async function discardsToSend(db: BenchDb): Promise<OutboxEntry[]> {
+  return db.outbox.where("state").equals("discarding").toArray();
+}
+
+/**
+ * What the server said about discards: a discarded entry leaves the outbox (with the bytes of its
+ * photo, which will never be sent); one the server holds as recorded work goes back to waiting, so
+ * the next sync learns it is stored.
+ */
+export async function settleDiscards(db: BenchDb, results: ReadonlyArray<{ id: string; outcome: "discarded" | "stored" }>): Promise<void> {
+  await db.transaction("rw", [db.outbox, db.photos], async () => {
+    for (const r of results) {
+      const entry = await db.outbox.get(r.id);
+      if (!entry || entry.state !== "discarding") continue;
+      if (r.outcome === "stored") {
+        await db.outbox.update(r.id, { state: "waiting", reason: undefined, discardReason: undefined });
+        continue;
+      }
+      const op = entry.op as { kind?: unknown; payload?: { attachmentId?: unknown } };
+      if (op.kind === "photo.queued" && typeof op.payload?.attachmentId === "string") await db.photos.delete(op.payload.attachmentId);
+      await db.outbox.delete(r.id);
+    }
+  });
 }
 
 /** Jobs whose copy on the tablet is older than a sync answer said (or missing while work was sent for them). */

@@ -1,10 +1,16 @@
 /**
  * Moving work between the tablet and the server. One run (never two at once: see
  * `./single-flight.ts` and the bench's sync hook):
- *  1. push the waiting outbox in batches (POST /api/sync), collecting what the server stored,
- *     what it refused (kept on the tablet with the reason, shown to the mechanic) and the changes
- *     made elsewhere since our cursor;
- *  2. keep the answer at once (`keepSyncAnswer`): stored operations become "sent" — still in the
+ *  0. send the discards the mechanic made (POST /api/sync/discards): an entry leaves the outbox
+ *     only once the server has written down what it was and why it goes;
+ *  1. push the waiting outbox (and the entries the server holds) in batches (POST /api/sync),
+ *     collecting what the server stored, held, refused (kept on the tablet with the reason, shown
+ *     to the mechanic) and the changes made elsewhere since our cursor. A batch the server fails
+ *     on (5xx) while it still answers an empty batch is split in halves and each sent on its own,
+ *     down to the one entry that fails, which is kept as refused with the server's error: one bad
+ *     entry never holds back the others. A server that does not answer an empty batch either
+ *     ends the run (the next one tries again);
+ *  2. keep each answer at once (`keepSyncAnswer`): stored operations become "sent" — still in the
  *     outbox and still drawn on screen — and every job they or the changes touch wants a copy at
  *     least as new as the answer's cursor;
  *  3. fetch those copies (and the copies of jobs newly assigned to this user); each copy is stored
@@ -16,16 +22,22 @@
  */
 import { splitIntoBatches } from "@/lib/sync/batching";
 import { tabletSyncResponseSchema } from "@/lib/sync/changes";
+import { discardResponseSchema } from "@/lib/sync/discards";
+import type { Operation } from "@/lib/sync/operations";
 import { benchJobListSchema, jobSnapshotSchema, type JobSnapshot } from "@/lib/sync/snapshot";
 import { readSyncMeta, type BenchDb } from "./bench-db";
 import {
+  discardsToSend,
   forgetJobCopy,
   keepSyncAnswer,
+  undoDiscards,
   markMissedCopies,
   markPhotoUploaded,
+  markUnstorable,
   noteSync,
   olderCopies,
   replaceJobList,
+  settleDiscards,
   storeJobCopy,
   waitingOperations,
 } from "./bench-store";
@@ -44,6 +56,8 @@ export interface SyncReport {
   sent: number;
   stored: number;
   refused: number;
+  held: number;
+  discarded: number;
   changes: number;
   jobsRefreshed: number;
   photosSent: number;
@@ -92,48 +106,140 @@ export async function syncOnce(db: BenchDb, deviceId: string, fetchFn: typeof fe
   }
 }
 
-async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promise<SyncReport> {
-  const waiting = await waitingOperations(db);
-  const batches = waiting.length ? splitIntoBatches(waiting) : [[]];
-  let cursor = (await readSyncMeta(db)).cursor;
+/** Sends the discards the mechanic made; what the server wrote down leaves the outbox. */
+async function sendDiscards(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promise<number> {
+  const entries = await discardsToSend(db);
+  if (!entries.length) return 0;
+  const res = await fetchFn("/api/sync/discards", {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({
+      deviceId,
+      discards: entries.map((e) => ({ id: e.id, operation: e.op, refusedReason: e.reason ?? "", reason: e.discardReason ?? "" })),
+    }),
+  });
+  if (!res.ok) {
+    const error = await errorText(res);
+    if (res.status >= 500) throw new SyncHttpError(res.status, `Discarding: ${error}`);
+    // Refused (a reason the server does not take): the entries come back to the list, saying why.
+    await undoDiscards(
+      db,
+      entries.map((e) => e.id),
+      `The discard was not accepted: ${error}`,
+    );
+    return 0;
+  }
+  const body = discardResponseSchema.parse(await res.json());
+  await settleDiscards(db, body.results);
+  return body.results.filter((r) => r.outcome === "discarded").length;
+}
+
+/** What the pushes of one run came to. */
+interface PushTally {
+  cursor: string | null;
+  stored: number;
+  refused: number;
+  held: number;
+  changes: number;
+  touchedJobs: Set<string>;
+}
+
+/**
+ * Sends one batch and pulls the rest of the changes (`more`), then keeps the answer (the last
+ * page's cursor is the shop's cursor after our operations were stored). Returns the failed
+ * response instead when the server answers the first request with an error.
+ */
+async function exchange(
+  db: BenchDb,
+  deviceId: string,
+  fetchFn: typeof fetch,
+  batch: Operation[],
+  tally: PushTally,
+): Promise<Response | null> {
   const stored = new Set<string>();
   const refused: Array<{ id: string; reason: string }> = [];
-  const touchedJobs = new Set<string>();
-  let changes = 0;
+  const held: Array<{ id: string; reason: string }> = [];
+  const touched = new Set<string>();
   const remoteStamps: string[] = [];
-
-  for (const batch of batches) {
-    let more = true;
-    let ops = batch;
-    while (more) {
-      const res = await fetchFn("/api/sync", {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({ deviceId, cursor, operations: ops }),
-      });
-      if (!res.ok) throw new SyncHttpError(res.status, await errorText(res));
-      const body = tabletSyncResponseSchema.parse(await res.json());
-      for (const id of [...body.accepted, ...body.duplicates]) stored.add(id);
-      refused.push(...body.refused);
-      for (const op of ops) touchedJobs.add(op.workOrderId);
-      for (const c of body.changes) {
-        changes++;
-        if (c.type === "unread") {
-          // made by a newer server: reload its job (if it names one) and carry on
-          if (c.workOrderId) touchedJobs.add(c.workOrderId);
-          continue;
-        }
-        touchedJobs.add(c.type === "operation" ? c.operation.workOrderId : c.workOrderId);
-        remoteStamps.push(c.type === "operation" ? c.operation.stamp : c.stamp);
-      }
-      cursor = body.cursor;
-      more = body.more;
-      ops = []; // further rounds only pull
+  let ops = batch;
+  let more = true;
+  let cursor = tally.cursor;
+  while (more) {
+    const res = await fetchFn("/api/sync", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ deviceId, cursor, operations: ops }),
+    });
+    if (!res.ok) {
+      if (ops === batch) return res;
+      throw new SyncHttpError(res.status, await errorText(res));
     }
+    const body = tabletSyncResponseSchema.parse(await res.json());
+    for (const id of [...body.accepted, ...body.duplicates]) stored.add(id);
+    refused.push(...body.refused);
+    held.push(...body.pending);
+    for (const op of ops) touched.add(op.workOrderId);
+    for (const c of body.changes) {
+      tally.changes++;
+      if (c.type === "unread") {
+        // made by a newer server: reload its job (if it names one) and carry on
+        if (c.workOrderId) touched.add(c.workOrderId);
+        continue;
+      }
+      touched.add(c.type === "operation" ? c.operation.workOrderId : c.workOrderId);
+      remoteStamps.push(c.type === "operation" ? c.operation.stamp : c.stamp);
+    }
+    cursor = body.cursor;
+    more = body.more;
+    ops = []; // further rounds only pull
   }
+  await keepSyncAnswer(db, { deviceId, stored: [...stored], refused, held, touchedJobs: touched, cursor: cursor!, remoteStamps });
+  tally.cursor = cursor;
+  tally.stored += stored.size;
+  tally.refused += refused.length;
+  tally.held += held.length;
+  for (const j of touched) tally.touchedJobs.add(j);
+  return null;
+}
+
+/** Whether a failed answer is worth splitting the batch for: the server failed on it, or it was too big. */
+const splittable = (status: number) => status >= 500 || status === 413;
+
+/**
+ * Sends a batch; when the server fails on it (and still answers an empty batch, so it is this
+ * batch and not the server), sends each half on its own, down to the single entry that fails,
+ * which is kept as refused with the server's error.
+ */
+async function push(db: BenchDb, deviceId: string, fetchFn: typeof fetch, batch: Operation[], tally: PushTally): Promise<void> {
+  const failed = await exchange(db, deviceId, fetchFn, batch, tally);
+  if (!failed) return;
+  const error = await errorText(failed);
+  if (!batch.length || !splittable(failed.status)) throw new SyncHttpError(failed.status, error);
+  if (failed.status >= 500) {
+    const probe = await exchange(db, deviceId, fetchFn, [], tally);
+    if (probe) throw new SyncHttpError(probe.status, await errorText(probe)); // the server itself is failing: try later
+  }
+  if (batch.length === 1) {
+    await markUnstorable(
+      db,
+      batch[0].id,
+      `The server could not store this entry (${error}). It stays on this tablet: send it again later, or discard it with a reason.`,
+    );
+    tally.refused++;
+    return;
+  }
+  const half = Math.ceil(batch.length / 2);
+  await push(db, deviceId, fetchFn, batch.slice(0, half), tally);
+  await push(db, deviceId, fetchFn, batch.slice(half), tally);
+}
+
+async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promise<SyncReport> {
+  const discarded = await sendDiscards(db, deviceId, fetchFn);
+  const waiting = await waitingOperations(db);
+  const batches = waiting.length ? splitIntoBatches(waiting) : [[]];
+  const tally: PushTally = { cursor: (await readSyncMeta(db)).cursor, stored: 0, refused: 0, held: 0, changes: 0, touchedJobs: new Set() };
+  for (const batch of batches) await push(db, deviceId, fetchFn, batch, tally);
   let jobsRefreshed = 0;
-  // The last answer's cursor is the shop's cursor after our operations were stored (more = false).
-  await keepSyncAnswer(db, { deviceId, stored: [...stored], refused, touchedJobs, cursor: cursor!, remoteStamps });
 
   try {
     const list = await getJson(fetchFn, "/api/bench/jobs", (v) => benchJobListSchema.parse(v));
@@ -160,7 +266,16 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promis
     await markMissedCopies(db);
   }
   const photosSent = await uploadPhotos(db, fetchFn);
-  return { sent: waiting.length, stored: stored.size, refused: refused.length, changes, jobsRefreshed, photosSent };
+  return {
+    sent: waiting.length,
+    stored: tally.stored,
+    refused: tally.refused,
+    held: tally.held,
+    discarded,
+    changes: tally.changes,
+    jobsRefreshed,
+    photosSent,
+  };
 }
 
 /**
@@ -171,7 +286,7 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promis
 async function uploadPhotos(db: BenchDb, fetchFn: typeof fetch): Promise<number> {
   const pending = await db.photos.where("uploaded").equals(0).toArray();
   const notOnServer = new Set(
-    (await db.outbox.toArray()).flatMap((o) => (o.op.kind === "photo.queued" && o.state !== "sent" ? [o.op.payload.attachmentId] : [])),
+    (await db.outbox.toArray()).flatMap((o) => (o.op?.kind === "photo.queued" && o.state !== "sent" ? [o.op.payload?.attachmentId] : [])),
   );
   let sent = 0;
   for (const photo of pending) {

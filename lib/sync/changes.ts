@@ -40,16 +40,24 @@ const changeSchema = z.discriminatedUnion("type", [operationChangeSchema, review
 export type Change = z.output<typeof changeSchema>;
 
 const outcomeWithReasonSchema = z.object({ id: z.uuid(), reason: z.string() });
+/** A refused operation: its id as sent (a malformed one may have none: then "operations.<n>", its place in the batch). */
+const refusalSchema = z.object({ id: z.string(), reason: z.string() });
 
 export const syncResponseSchema = z.object({
   /** Stored by this request: remove from the outbox. Includes the flagged ones. */
   accepted: z.array(z.uuid()),
   /** Already stored before this request (a resend): remove from the outbox. */
   duplicates: z.array(z.uuid()),
-  /** Not stored, with why (written to the audit log, whole operation in its detail). */
-  refused: z.array(outcomeWithReasonSchema),
+  /** Not stored, with why and what to do (written to the audit log, whole operation in its detail). */
+  refused: z.array(refusalSchema),
   /** Accepted and stored, but marked for a supervisor to look at, with why. Subset of `accepted`. */
   flagged: z.array(outcomeWithReasonSchema),
+  /**
+   * Held on the server until the record they act on arrives (a correction's reading, a timer's
+   * start); applied then, in stamp order. Keep them and send them again with the next batch: the
+   * answer says `accepted` or `duplicates` once they are applied. (Absent from older servers.)
+   */
+  pending: z.array(outcomeWithReasonSchema).default([]),
   /** Changes from elsewhere after the request's cursor, in seq order. */
   changes: z.array(changeSchema),
   /** Send this as `cursor` next time. */

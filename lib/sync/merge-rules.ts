@@ -60,6 +60,10 @@ export interface WorkOrderFacts {
   number: number;
   status: WorkOrderStatus;
   assignedMechanicId: string | null;
+  /** The assigned mechanic's name, for the reason a flag gives. */
+  assignedMechanicName?: string | null;
+  /** When the job was last (re)assigned, ms; null or absent when not known. */
+  assignedSinceMs?: number | null;
   steps: ReadonlyMap<string, StepFacts>;
   measurementSpecs: ReadonlyMap<string, MeasurementSpecFacts>;
   torqueSpecs: ReadonlyMap<string, TorqueSpecFacts>;
@@ -95,10 +99,27 @@ export interface DecisionInput {
   state: MergeState;
 }
 
-export type Decision = { outcome: "accept" } | { outcome: "flag"; reason: string } | { outcome: "refuse"; reason: string };
+/** A record an operation acts on, which must be on file before it can be applied. */
+export interface Target {
+  kind: "reading" | "timer";
+  id: string;
+}
+
+/**
+ * accept; accept flagged for review (with why); refuse (with why, for the mechanic to act on);
+ * or wait: everything checks out but the record it acts on (`target`) has not arrived yet, so it
+ * is held on the server and applied when that record arrives.
+ */
+export type Decision =
+  | { outcome: "accept" }
+  | { outcome: "flag"; reason: string }
+  | { outcome: "refuse"; reason: string }
+  | { outcome: "wait"; reason: string; target: Target };
 
 const accept: Decision = { outcome: "accept" };
 const refuse = (reason: string): Decision => ({ outcome: "refuse", reason });
+/** What the mechanic does with an entry that names something not on the job. */
+const NOT_ON_JOB = "Discard this entry with a reason; record the work again on the job as it is now.";
 
 /**
  * Who may record bench work on a job: a user whose role reaches the bench, in the job's shop;
@@ -120,38 +141,66 @@ function sendBackUnseen(sendBack: SendBackFacts, opWallMs: number, cursor: numbe
   return cursor === null || sendBack.seq > cursor || opWallMs < sendBack.decidedAtMs;
 }
 
-/** Decides one operation: accept it, accept it flagged for review, or refuse it. */
+/**
+ * Decides one operation: accept it, accept it flagged for review, refuse it, or hold it until the
+ * record it acts on arrives. Refused are only forgery (author, device or stamp not the sender's),
+ * a role that may not do it (a timer override by someone who is not a supervisor), and structure
+ * (a job outside the shop, a step, spec, reading, timer or stage that is not on the job, an id used
+ * twice); work on a job closed, not open for bench work or assigned to someone else is kept and
+ * flagged with the reason.
+ */
 export function decideOperation(op: Operation, input: DecisionInput): Decision {
   const { actor, job } = input;
   if (op.authorId !== actor.id) {
-    return refuse(`The operation names author ${op.authorId}, who is not the signed-in user: a tablet may only send its own user's work.`);
+    return refuse(
+      `The operation names author ${op.authorId}, who is not the signed-in user: a tablet may only send its own user's work. Sign in as that person to send it, or discard it with a reason.`,
+    );
   }
   if (op.deviceId !== input.batchDeviceId) {
-    return refuse(`The operation was made on device "${op.deviceId}" but sent in a batch from device "${input.batchDeviceId}".`);
+    return refuse(
+      `The operation was made on device "${op.deviceId}" but sent in a batch from device "${input.batchDeviceId}": only the tablet that recorded it may send it. Discard it with a reason.`,
+    );
   }
   const stamp = parseStamp(op.stamp);
   if (stamp.deviceId !== op.deviceId) {
-    return refuse(`The operation's stamp was made by device "${stamp.deviceId}", not by "${op.deviceId}".`);
+    return refuse(`The operation's stamp was made by device "${stamp.deviceId}", not by "${op.deviceId}". Discard it with a reason.`);
   }
   if (!canReach(actor.role, "bench")) return refuse(`Your role (${actor.role}) may not record bench work.`);
-  if (!job || job.shopId !== actor.shopId) return refuse(`Work order ${op.workOrderId} is not in your shop.`);
-  if (!mayWorkOn(actor, job)) return refuse(`Work order #${job.number} is assigned to another mechanic.`);
+  if (!job || job.shopId !== actor.shopId) return refuse(`Work order ${op.workOrderId} is not in your shop. ${NOT_ON_JOB}`);
 
   if (op.kind === "timer.overridden" && actor.role !== "supervisor") {
-    return refuse("Only a supervisor may override a timer.");
+    return refuse(
+      "Only a supervisor may override a timer. Ask the office to give you the supervisor role and send it again, or discard it with a reason.",
+    );
   }
 
   const problem = checkReferences(op, job, input.state);
-  if (problem) return refuse(problem);
+  if (typeof problem === "string") return refuse(`${problem} ${NOT_ON_JOB}`);
 
-  const flags = jobFlags(job);
+  const flags = [...jobFlags(job), ...assignmentFlags(op, actor, job)];
   if (stamp.wallMs > input.nowMs + MAX_CLOCK_AHEAD_MS) {
     const minutes = Math.round((stamp.wallMs - input.nowMs) / 60_000);
     flags.push(`Its stamp is ${minutes} min ahead of the server clock: check the tablet's clock.`);
   }
   flags.push(...sendBackFlags(op, job, stamp.wallMs, input.cursor));
   flags.push(...partFlags(op, job, input.state));
+  // Held only once everything else checks out; the flags are worked out again when it is applied.
+  if (problem) return { outcome: "wait", ...problem };
   return flags.length ? { outcome: "flag", reason: flags.join(" ") } : accept;
+}
+
+/** Work by a mechanic on a job assigned to someone else: kept, flagged with who has it (and since when, if after the work). */
+function assignmentFlags(op: Operation, actor: Actor, job: WorkOrderFacts): string[] {
+  if (mayWorkOn(actor, job)) return [];
+  const who = job.assignedMechanicName || "another mechanic";
+  const since = job.assignedSinceMs ?? null;
+  const madeAt = Date.parse(op.deviceTime);
+  if (since !== null && since > madeAt) {
+    return [
+      `Work order #${job.number} was reassigned to ${who} at ${new Date(since).toISOString()}, after this was recorded; kept for the supervisor to check.`,
+    ];
+  }
+  return [`Work order #${job.number} is assigned to ${who}, not to the mechanic who recorded this; kept for the supervisor to check.`];
 }
 
 function jobFlags(job: WorkOrderFacts): string[] {
@@ -200,8 +249,39 @@ function partFlags(op: Operation, job: WorkOrderFacts, state: MergeState): strin
   return [repeatedSerialReason({ partNumber: op.payload.partNumber, serial }, job.number, stepTitle)];
 }
 
-/** The refusal reason when the operation names something that is not on the job, else null. */
-function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState): string | null {
+/** The record an operation acts on, when it acts on one (a correction's reading, a timer's start). */
+export function targetOf(op: Operation): Target | null {
+  switch (op.kind) {
+    case "measurement.recorded":
+      return op.payload.supersedesId === undefined ? null : { kind: "reading", id: op.payload.supersedesId };
+    case "timer.stopped":
+    case "timer.overridden":
+      return { kind: "timer", id: op.payload.timerId };
+    default:
+      return null;
+  }
+}
+
+/** Whether the record `target` names is on file or was kept earlier in this merge. */
+export function targetPresent(target: Target, state: MergeState): boolean {
+  return target.kind === "reading" ? state.readings.has(target.id) : state.timers.has(target.id);
+}
+
+/** A record an operation names that has not arrived: the operation waits for it. */
+type Missing = { reason: string; target: Target };
+
+function waitFor(op: Operation, state: MergeState): Missing | null {
+  const target = targetOf(op);
+  if (!target || targetPresent(target, state)) return null;
+  const what = target.kind === "reading" ? `the reading it corrects (${target.id})` : `the start of timer ${target.id}`;
+  return { target, reason: `Held on the server until ${what} arrives; it is applied then, in stamp order.` };
+}
+
+/**
+ * The refusal reason when the operation names something that is not on the job; the record it
+ * waits for when it acts on one that has not arrived yet; else null.
+ */
+function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState): string | Missing | null {
   const onJob = `on work order #${job.number}`;
   const stepMissing = (stepId: string) => (job.steps.has(stepId) ? null : `Step ${stepId} is not part of a procedure ${onJob}.`);
   switch (op.kind) {
@@ -220,7 +300,8 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
       }
       if (p.supersedesId !== undefined) {
         const old = state.readings.get(p.supersedesId);
-        if (!old || old.workOrderId !== job.id) return `Reading ${p.supersedesId} that this corrects is not on record ${onJob}.`;
+        if (!old) return waitFor(op, state);
+        if (old.workOrderId !== job.id) return `Reading ${p.supersedesId} that this corrects is not on record ${onJob}.`;
         if (old.specId !== p.specId || old.readingIndex !== p.readingIndex) {
           return `Reading ${p.supersedesId} that this corrects is for another spec or reading index; a correction must be for the same reading.`;
         }
@@ -250,13 +331,15 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
     }
     case "timer.stopped": {
       const timer = state.timers.get(op.payload.timerId);
-      if (!timer || timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
+      if (!timer) return waitFor(op, state);
+      if (timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
       if (Date.parse(op.payload.stoppedAt) < timer.startedAtMs) return `Timer ${op.payload.timerId} cannot stop before it started.`;
       return null;
     }
     case "timer.overridden": {
       const timer = state.timers.get(op.payload.timerId);
-      if (!timer || timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
+      if (!timer) return waitFor(op, state);
+      if (timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
       return null;
     }
     case "photo.queued": {

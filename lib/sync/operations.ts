@@ -8,7 +8,7 @@
  */
 import { z } from "zod";
 import { MEASUREMENT_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
-import { safeText, saneInstant } from "@/lib/safe-values";
+import { finiteNumber, isSaneInstant, safeText, saneInstant } from "@/lib/safe-values";
 import { DEVICE_ID_PATTERN, STAMP_PATTERN } from "./hlc";
 
 /** Limits of one POST /api/sync. A bigger outbox is sent as several batches (see ./batching.ts). */
@@ -38,7 +38,13 @@ export const PHOTO_CONTENT_TYPES = ["image/jpeg", "image/png", "image/webp", "im
 /** Largest photo a tablet may queue (bytes). */
 export const MAX_PHOTO_BYTES = 50 * 1024 * 1024;
 
-const id = () => z.uuid({ error: "must be a UUID" });
+// Ids are made on the tablet (crypto.randomUUID) or by PostgreSQL, both in lower case. PostgreSQL
+// takes "ABC…" and "abc…" as the same uuid, the merge's lookups do not: one spelling only.
+const id = () => z.uuid({ error: "must be a UUID", abort: true }).regex(/^[0-9a-f-]+$/, "must be a UUID written in lower case");
+/** Largest reading, either way, in any length unit (a metre in µm): anything bigger is a slip of the finger or worse. */
+export const MAX_READING = 1_000_000;
+/** Largest wrench reading in any torque unit. */
+export const MAX_WRENCH_READING = 100_000;
 // Dates between 2000 and 2099 only: a year 0000 or 275760 passes ISO 8601 but not timestamptz.
 const isoTime = (label: string) => saneInstant(label);
 const stageKey = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "must be a stage key (lower-case letters, digits and dashes)");
@@ -46,7 +52,17 @@ const stageKey = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "must be a stage 
 const deviceIdSchema = z.string().regex(DEVICE_ID_PATTERN, "must be 1–64 letters, digits or . _ : - starting with a letter or digit");
 export const stampSchema = z
   .string()
-  .regex(STAMP_PATTERN, 'must be a clock stamp: 15-digit ms, 6-digit counter and the device id, joined by "-"');
+  .regex(STAMP_PATTERN, 'must be a clock stamp: 15-digit ms, 6-digit counter and the device id, joined by "-"')
+  .superRefine((s, ctx) => {
+    // The wall time it carries orders the work and is shown as a time: the same years as every date.
+    const wall = STAMP_PATTERN.exec(s);
+    if (wall && !isSaneInstant(Number(wall[1]))) {
+      ctx.addIssue({
+        code: "custom",
+        message: "Clock stamp: its time must be between the years 2000 and 2099; the tablet's clock may be wrong.",
+      });
+    }
+  });
 /** The server's cursor: a decimal sequence number. */
 export const cursorSchema = z.string().regex(/^(0|[1-9]\d{0,17})$/, "must be a cursor returned by the server (digits)");
 
@@ -62,7 +78,7 @@ const measurementRecordedPayload = z
     specId: id(),
     readingIndex: z.number().int().min(0).max(63),
     /** As read off the instrument: kept exactly, never rounded. */
-    value: z.number(),
+    value: finiteNumber({ label: "Reading", min: -MAX_READING, max: MAX_READING }),
     unit: z.enum(MEASUREMENT_UNITS),
     note: safeText({ label: "Note", max: 1000, multiline: true }).optional(),
     /** The reading this one corrects (it stays on record). */
@@ -77,7 +93,9 @@ const torqueBoltConfirmedPayload = z
     passIndex: z.number().int().min(1).max(16),
     bolt: z.number().int().min(1).max(1024),
     /** What a reading wrench showed, when one was used. */
-    wrenchReading: z.number().positive().optional(),
+    wrenchReading: finiteNumber({ label: "Wrench reading", min: 0, max: MAX_WRENCH_READING })
+      .positive("Wrench reading must be more than 0.")
+      .optional(),
     wrenchUnit: z.enum(TORQUE_UNITS).optional(),
   })
   .strict()
@@ -206,3 +224,15 @@ export const syncBatchSchema = z
   .strict();
 
 export type SyncBatch = z.output<typeof syncBatchSchema>;
+
+/**
+ * What POST /api/sync checks first: the batch's envelope. Each operation is then checked on its
+ * own (./parse-batch.ts), so one malformed operation is refused alone and the rest are merged.
+ */
+export const syncEnvelopeSchema = z
+  .object({
+    deviceId: deviceIdSchema,
+    cursor: cursorSchema.nullable(),
+    operations: z.array(z.unknown()).max(SYNC_LIMITS.maxOperations),
+  })
+  .strict();

@@ -1,6 +1,6 @@
 import { expect, test } from "@playwright/test";
 import { signIn } from "./support/demo-users";
-import { giveCustomerSignIn } from "./support/e2e-db";
+import { giveCustomerSignIn, query } from "./support/e2e-db";
 import { expectMail, paymentEvents, TINY_PNG, webhookDeliveries } from "./support/fakes";
 
 // The whole office journey on the demo workshop: a new customer and bike, intake with a photo,
@@ -36,11 +36,16 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByRole("button", { name: "Add bike" }).click();
   await expect(office.getByTestId("error-bike-year")).toContainText("year must be a whole number");
   await office.getByLabel("Year").fill("2019");
+  // the next tag of the shop's series: one past the highest on file (the demo data may grow)
+  const [{ highest }] = await query<{ highest: number }>(
+    "SELECT max(substring(tag_code FROM 5)::int) AS highest FROM bikes WHERE tag_code ~ '^GSW-[0-9]{4}$'",
+  );
+  const newTag = `GSW-${String(highest + 1).padStart(4, "0")}`;
   await office.getByRole("button", { name: "Add bike" }).click();
-  await expect(office.getByTestId("form-ok")).toContainText("Bike added with tag GSW-0008");
+  await expect(office.getByTestId("form-ok")).toContainText(`Bike added with tag ${newTag}`);
 
   // book it in, with a condition photo; an empty form is refused field by field
-  await office.getByTestId("customer-bike").filter({ hasText: "GSW-0008" }).getByRole("link", { name: "Book in" }).click();
+  await office.getByTestId("customer-bike").filter({ hasText: newTag }).getByRole("link", { name: "Book in" }).click();
   await office.getByRole("button", { name: "Book in" }).click();
   await expect(office.getByTestId("error-title")).toBeVisible();
   await expect(office.getByTestId("error-odometerKm")).toHaveText("✖ enter the odometer reading in km as a whole number");
@@ -48,8 +53,10 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByLabel("Customer's complaint or goal").fill("Wants a reliable 9 psi road build with an intercooler.");
   await office.getByLabel("Odometer (km)").fill("18250");
   await office.getByLabel("Condition photos").setInputFiles({ name: "left-side.png", mimeType: "image/png", buffer: TINY_PNG });
+  // the next work-order number: one past the highest on file (the demo data may grow)
+  const [{ n: woNumber }] = await query<{ n: number }>("SELECT max(number) + 1 AS n FROM work_orders");
   await office.getByRole("button", { name: "Book in" }).click();
-  await expect(office.getByRole("heading", { level: 1 })).toContainText("#1008 Turbo conversion and intercooler");
+  await expect(office.getByRole("heading", { level: 1 })).toContainText(`#${woNumber} Turbo conversion and intercooler`);
   await expect(office.getByTestId("work-order-status")).toContainText("Booked in");
   const photo = office.getByTestId("note-photo").first();
   await expect(photo).toBeVisible();
@@ -76,7 +83,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByRole("button", { name: "Send to the customer" }).click();
   await expect(office.getByTestId("work-order-status")).toContainText("Quoted");
   await expect(office.getByTestId("quote-version").first()).toContainText("Sent — waiting for the customer");
-  await expectMail(rider.email, "Your quote for work order 1008 is ready");
+  await expectMail(rider.email, `Your quote for work order ${woNumber} is ready`);
 
   // the customer approves and pays the deposit from their own sign-in
   const customer = await (await browser.newContext()).newPage();
@@ -85,7 +92,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await customer.getByLabel("Password").fill(rider.password);
   await customer.getByRole("button", { name: "Sign in" }).click();
   await expect(customer.getByTestId("whoami")).toContainText(rider.name);
-  const card = customer.getByTestId("my-work-order").filter({ hasText: "#1008" });
+  const card = customer.getByTestId("my-work-order").filter({ hasText: `#${woNumber}` });
   await expect(card.getByTestId("customer-quote-total")).toHaveText("£259.19");
   await card.getByRole("button", { name: "Approve this quote" }).click();
   await card.getByRole("button", { name: "Pay the deposit (£50.00)" }).click();
@@ -107,7 +114,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
       { timeout: 10_000 },
     )
     .toBe(200);
-  await expectMail(rider.email, "Deposit received for work order 1008");
+  await expectMail(rider.email, `Deposit received for work order ${woNumber}`);
 
   // back in the office: the deposit shows paid; assign, pin a template, start the build
   await office.reload();

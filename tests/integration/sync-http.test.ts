@@ -42,6 +42,11 @@ describe("POST /api/sync handler", () => {
     expect(await res.json()).toEqual({ error: "Sign in first.", issues: [] });
   });
 
+  it("takes a session naming an id that is not a UUID as nobody (401), never a database error", async () => {
+    const res = await syncRoute.handle(post("{}"), { userId: "42; not-an-id", db });
+    expect([res.status, await res.json()]).toEqual([401, { error: "Sign in first.", issues: [] }]);
+  });
+
   it("answers 403 to office and customer users", async () => {
     const { fx } = await setup();
     for (const [user, role] of [
@@ -64,7 +69,7 @@ describe("POST /api/sync handler", () => {
     expect((await empty.json()).error).toContain("The body is empty");
   });
 
-  it("answers 422 with each zod issue's path and message, saving nothing", async () => {
+  it("refuses a malformed operation alone, naming each problem in workshop words, and merges the rest", async () => {
     const { fx, specs, mech, tablet } = await setup();
     const good = tablet.complete(specs.boreStepId);
     const bad = {
@@ -76,12 +81,38 @@ describe("POST /api/sync handler", () => {
       mech,
       db,
     );
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    expect(body.accepted).toEqual([good.id]);
+    expect(body.refused).toEqual([
+      {
+        id: bad.id,
+        reason: expect.stringMatching(
+          /^Reading must be a number between .*; Unit: choose mm, in or µm\. The server cannot store this entry as it is/,
+        ),
+      },
+    ]);
+    expect((await db.selectFrom("operations").select("id").where("work_order_id", "=", fx.workOrderId).execute()).map((o) => o.id)).toEqual(
+      [good.id],
+    );
+    // the refused one is in the audit log, whole
+    const audit = await db.selectFrom("audit_log").select(["outcome", "action", "detail"]).where("entity_id", "=", bad.id).execute();
+    expect(audit).toEqual([{ outcome: "refused", action: "sync.measurement.recorded", detail: { operation: bad, malformed: true } }]);
+  });
+
+  it("answers 422 with each problem's path and message when the batch's envelope is wrong, saving nothing", async () => {
+    const { fx, specs, mech, tablet } = await setup();
+    const res = await handleSyncRequest(
+      post(JSON.stringify({ deviceId: "tab 1!", cursor: 12, operations: [tablet.complete(specs.boreStepId)] })),
+      mech,
+      db,
+    );
     expect(res.status).toBe(422);
     const body = await res.json();
     expect(body.issues).toEqual(
       expect.arrayContaining([
-        { path: "operations.1.payload.value", message: "Value: must be a number" },
-        { path: "operations.1.payload.unit", message: expect.any(String) },
+        { path: "deviceId", message: expect.stringContaining("letters, digits") },
+        { path: "cursor", message: "Sync position: must be text" },
       ]),
     );
     expect(await db.selectFrom("operations").select("id").where("work_order_id", "=", fx.workOrderId).execute()).toEqual([]);

@@ -120,13 +120,16 @@ describe("part.fitted merged into PostgreSQL", () => {
     expect(ops).toHaveLength(1);
   });
 
-  it("refuses a mechanic on another mechanic's job and an office user, saving nothing and auditing the refusal", async () => {
+  it("keeps a mechanic's part on another mechanic's job flagged; refuses an office user, auditing the refusal", async () => {
     const { fx, stepId } = await setup();
     const mech2 = asUser(fx.users.mechanic2);
     const t2 = new Tablet("bay-2", mech2.id, fx.workOrderId);
     const op = t2.make("part.fitted", piston(stepId));
-    expect((await mergeBatch(db, mech2, t2.batch([op]))).refused).toEqual([
-      { id: op.id, reason: "Work order #1 is assigned to another mechanic." },
+    expect((await mergeBatch(db, mech2, t2.batch([op]))).flagged).toEqual([
+      {
+        id: op.id,
+        reason: `Work order #1 is assigned to ${fx.users.mechanic.name}, not to the mechanic who recorded this; kept for the supervisor to check.`,
+      },
     ]);
 
     const office = asUser(fx.users.office);
@@ -136,9 +139,9 @@ describe("part.fitted merged into PostgreSQL", () => {
       { id: op3.id, reason: "Your role (office) may not record bench work." },
     ]);
 
-    expect(await partRows(fx.workOrderId)).toEqual([]);
+    expect((await partRows(fx.workOrderId)).map((r) => r.serial)).toEqual(["GS-0042"]);
     expect((await auditOf([op.id, op3.id])).map((a) => [a.entity_id, a.action, a.outcome])).toEqual([
-      [op.id, "sync.part.fitted", "refused"],
+      [op.id, "sync.part.fitted", "accepted"],
       [op3.id, "sync.part.fitted", "refused"],
     ]);
   });
@@ -152,8 +155,14 @@ describe("part.fitted merged into PostgreSQL", () => {
     const res = await mergeBatch(db, mech, tablet.batch([stranger, first, reuse]));
     expect(res.accepted).toEqual([first.id]);
     expect(res.refused).toEqual([
-      { id: stranger.id, reason: `Step ${other.stepByKey["rod-bolts"].id} is not part of a procedure on work order #1.` },
-      { id: reuse.id, reason: `Part record ${first.payload.partFittedId} is already on record.` },
+      {
+        id: stranger.id,
+        reason: `Step ${other.stepByKey["rod-bolts"].id} is not part of a procedure on work order #1. Discard this entry with a reason; record the work again on the job as it is now.`,
+      },
+      {
+        id: reuse.id,
+        reason: `Part record ${first.payload.partFittedId} is already on record. Discard this entry with a reason; record the work again on the job as it is now.`,
+      },
     ]);
     expect((await partRows(fx.workOrderId)).map((r) => r.serial)).toEqual(["GS-0042"]);
   });

@@ -43,7 +43,12 @@ describe("authorisation, per operation", () => {
     const theirs = await setup();
     const op = mine.tablet.complete(theirs.specs.boreStepId, { workOrderId: theirs.fx.workOrderId });
     const res = await mergeBatch(db, mine.mech, mine.tablet.batch([op]));
-    expect(res.refused).toEqual([{ id: op.id, reason: `Work order ${theirs.fx.workOrderId} is not in your shop.` }]);
+    expect(res.refused).toEqual([
+      {
+        id: op.id,
+        reason: `Work order ${theirs.fx.workOrderId} is not in your shop. Discard this entry with a reason; record the work again on the job as it is now.`,
+      },
+    ]);
     expect(await db.selectFrom("step_completions").select("id").where("work_order_id", "=", theirs.fx.workOrderId).execute()).toEqual([]);
     // audited in the refusing user's shop, without a link to the other shop's job
     const [row] = await auditFor([op.id]);
@@ -55,17 +60,31 @@ describe("authorisation, per operation", () => {
     const other = await setup();
     const op = tablet.complete(other.specs.boreStepId);
     const res = await mergeBatch(db, mech, tablet.batch([op]));
-    expect(res.refused[0]).toEqual({ id: op.id, reason: expect.stringMatching(/^Step .* is not part of a procedure on work order #1\.$/) });
+    expect(res.refused[0]).toEqual({
+      id: op.id,
+      reason: expect.stringMatching(/^Step .* is not part of a procedure on work order #1\. Discard this entry/),
+    });
   });
 
-  it("refuses a mechanic who is not assigned to the job; a supervisor may work it", async () => {
+  it("keeps and flags the work of a mechanic who is not assigned to the job, naming who is; a supervisor may work it", async () => {
     const { fx, specs } = await setup();
     const mech2 = asUser(fx.users.mechanic2);
     const t2 = new Tablet("bay-9", mech2.id, fx.workOrderId);
     const op = t2.complete(specs.boreStepId);
-    expect((await mergeBatch(db, mech2, t2.batch([op]))).refused).toEqual([
-      { id: op.id, reason: "Work order #1 is assigned to another mechanic." },
+    const res = await mergeBatch(db, mech2, t2.batch([op]));
+    expect(res.refused).toEqual([]);
+    expect(res.accepted).toEqual([op.id]);
+    expect(res.flagged).toEqual([
+      {
+        id: op.id,
+        reason: `Work order #1 is assigned to ${fx.users.mechanic.name}, not to the mechanic who recorded this; kept for the supervisor to check.`,
+      },
     ]);
+    // the one flag store: the operation row, with the completion written as usual
+    expect(await db.selectFrom("operations").select(["flagged", "flag_reason"]).where("id", "=", op.id).executeTakeFirstOrThrow()).toEqual({
+      flagged: true,
+      flag_reason: res.flagged[0].reason,
+    });
     const sup = asUser(fx.users.supervisor);
     const ts = new Tablet("bay-s", sup.id, fx.workOrderId);
     const sop = ts.complete(specs.boreStepId);
@@ -180,7 +199,9 @@ describe("audit log", () => {
     const sup = asUser(fx.users.supervisor);
     const copy = { ...op, authorId: sup.id, deviceId: "bay-s", stamp: op.stamp.replace(tablet.deviceId, "bay-s") };
     const res = await mergeBatch(db, sup, { deviceId: "bay-s", cursor: null, operations: [copy] });
-    expect(res.refused).toEqual([{ id: op.id, reason: `Operation id ${op.id} is already used by another user's operation.` }]);
+    expect(res.refused).toEqual([
+      { id: op.id, reason: `Operation id ${op.id} is already used by another user's operation. Discard this entry with a reason.` },
+    ]);
     expect(res.duplicates).toEqual([]);
   });
 });

@@ -35,11 +35,13 @@ describe("overriding a cure timer", () => {
     await mergeBatch(db, mech, mechTablet.batch([start]));
     const override = mechTablet.make("timer.overridden", { timerId, reason: "in a hurry" });
     const res = await mergeBatch(db, mech, mechTablet.batch([override]));
-    expect(res.refused).toEqual([{ id: override.id, reason: "Only a supervisor may override a timer." }]);
+    const why =
+      "Only a supervisor may override a timer. Ask the office to give you the supervisor role and send it again, or discard it with a reason.";
+    expect(res.refused).toEqual([{ id: override.id, reason: why }]);
     const t = await db.selectFrom("timers").select(["override_by", "override_reason"]).where("id", "=", timerId).executeTakeFirstOrThrow();
     expect(t).toEqual({ override_by: null, override_reason: null });
     const audit = await db.selectFrom("audit_log").select(["outcome", "reason"]).where("entity_id", "=", override.id).execute();
-    expect(audit).toEqual([{ outcome: "refused", reason: "Only a supervisor may override a timer." }]);
+    expect(audit).toEqual([{ outcome: "refused", reason: why }]);
   });
 
   it("a supervisor's override of a running timer is stored with who and why; a second one does not replace it", async () => {
@@ -76,10 +78,37 @@ describe("overriding a cure timer", () => {
     expect(t).toEqual({ override_by: sup.id, override_reason: "Cases closed yesterday, cure long done" });
   });
 
-  it("an override of a timer that is not on the job is refused", async () => {
-    const { sup, supTablet } = await setup();
-    const op = supTablet.make("timer.overridden", { timerId: randomUUID(), reason: "no such timer" });
-    const res = await mergeBatch(db, sup, supTablet.batch([op]));
-    expect(res.refused[0]?.reason).toMatch(/is not on record/);
+  it("an override of a timer not on file yet is held, and applied when the timer's start arrives", async () => {
+    const { mech, sup, mechTablet, supTablet, timerId, start } = await setup();
+    const op = supTablet.make("timer.overridden", { timerId, reason: "Fast-cure sealant used" });
+    const held = await mergeBatch(db, sup, supTablet.batch([op]));
+    expect(held).toMatchObject({
+      accepted: [],
+      refused: [],
+      pending: [{ id: op.id, reason: expect.stringContaining(`timer ${timerId}`) }],
+    });
+    expect(await db.selectFrom("operations").select("id").where("id", "=", op.id).execute()).toEqual([]);
+    // sent again meanwhile: still held, not held twice
+    expect((await mergeBatch(db, sup, supTablet.batch([op]))).pending.map((p) => p.id)).toEqual([op.id]);
+
+    const res = await mergeBatch(db, mech, mechTablet.batch([start]));
+    expect(res.accepted).toEqual([start.id]);
+    const t = await db.selectFrom("timers").select(["override_by", "override_reason"]).where("id", "=", timerId).executeTakeFirstOrThrow();
+    expect(t).toEqual({ override_by: sup.id, override_reason: "Fast-cure sealant used" });
+    // audited under the supervisor who made it, not the mechanic whose batch brought the timer
+    const audit = await db.selectFrom("audit_log").select(["actor_id", "outcome"]).where("entity_id", "=", op.id).execute();
+    expect(audit).toEqual([{ actor_id: sup.id, outcome: "accepted" }]);
+    // the supervisor's tablet learns it on its next send
+    expect((await mergeBatch(db, sup, supTablet.batch([op]))).duplicates).toEqual([op.id]);
+  });
+
+  it("an override of a timer on another job is refused", async () => {
+    const { sup, supTablet, mech, mechTablet, start } = await setup();
+    await mergeBatch(db, mech, mechTablet.batch([start]));
+    const other = await createShopFixture(db);
+    const elsewhere = new Tablet(supTablet.deviceId, sup.id, other.workOrderId);
+    const op = elsewhere.make("timer.overridden", { timerId: start.payload.timerId, reason: "wrong job" });
+    const res = await mergeBatch(db, sup, elsewhere.batch([op]));
+    expect(res.refused[0]?.reason).toMatch(/not in your shop|is not on record/);
   });
 });

@@ -2,17 +2,20 @@ import { deliverReviewNotices } from "@/app/_server/review-mail";
 import { json, route } from "@/app/_server/route";
 import { mergeBatch } from "@/db/sync/merge";
 import { Refusal } from "@/lib/errors";
-import { SYNC_LIMITS, syncBatchSchema } from "@/lib/sync/operations";
+import { SYNC_LIMITS, syncEnvelopeSchema } from "@/lib/sync/operations";
+import { parseBatch } from "@/lib/sync/parse-batch";
 
 // POST /api/sync: a tablet's outbox batch in, outcomes and changes from elsewhere out.
 // The format and rules are in lib/sync (README.md there); the merge is db/sync/merge.ts.
 //   401 not signed in · 403 role cannot reach the bench, or not from our pages · 415 not JSON ·
-//   413 body or batch too large · 400 body not JSON (or not UTF-8) · 422 batch does not match the
-//   format (issues: path + message) · 503 the merge failed and nothing from the batch was saved
-//   (send it again) · 200 the merge result.
+//   413 body or batch too large · 400 body not JSON (or not UTF-8) · 422 the batch's envelope
+//   (device, cursor, list of operations) does not match the format (issues: path + message) ·
+//   503 the database did not answer and nothing from the batch was saved (send it again) ·
+//   200 the merge result. Each operation is checked on its own (lib/sync/parse-batch.ts): a
+//   malformed one is refused alone, with its reason, and the rest are merged.
 // After a merge has committed, the supervisors' e-mail for new sign-offs is sent (the notices were
 // stored by the merge itself; see db/review/notices.ts), outside the response's time.
-const batch = json(syncBatchSchema, {
+const batch = json(syncEnvelopeSchema, {
   maxBytes: SYNC_LIMITS.maxBodyBytes,
   tooLargeHint: "Send the outbox in smaller batches.",
   emptyMessage: "The body is empty: send a JSON batch { deviceId, cursor, operations }.",
@@ -29,7 +32,7 @@ const batch = json(syncBatchSchema, {
 });
 
 export const POST = route({ access: { area: "bench" }, body: batch }, async ({ user, body, db, later }) => {
-  const result = await mergeBatch(db, user, body);
+  const result = await mergeBatch(db, user, parseBatch(body));
   later(() => deliverReviewNotices(db).catch((e) => console.error("[review] notice e-mail run failed", e)));
   return result;
 });

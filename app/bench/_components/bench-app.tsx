@@ -9,6 +9,7 @@ import { BenchContext, type BenchUser } from "./bench-context";
 import { useHashRoute } from "./hash-route";
 import { HomeScreen } from "./home-screen";
 import { JobScreen } from "./job-screen";
+import { NotStoredScreen } from "./not-stored-screen";
 import { ScanScreen } from "./scan-screen";
 import { StepScreen } from "./step-screen";
 import { SyncBar } from "./sync-bar";
@@ -59,6 +60,7 @@ function BenchRoot({ user }: { user: BenchUser }) {
         <div className="flex-1">
           {route.screen === "home" && <HomeScreen />}
           {route.screen === "scan" && <ScanScreen />}
+          {route.screen === "not-stored" && <NotStoredScreen />}
           {route.screen === "job" && <JobScreen jobId={route.jobId} />}
           {route.screen === "step" && <StepScreen jobId={route.jobId} stepIndex={route.stepIndex} />}
         </div>

@@ -5,11 +5,16 @@ import { useEffect, useState } from "react";
 // The bench is one page; its screens live in the URL hash (#/job/<id>/step/<n>) so the page the
 // service worker keeps opens any screen offline.
 export type BenchRoute =
-  { screen: "home" } | { screen: "scan" } | { screen: "job"; jobId: string } | { screen: "step"; jobId: string; stepIndex: number };
+  | { screen: "home" }
+  | { screen: "scan" }
+  | { screen: "not-stored" }
+  | { screen: "job"; jobId: string }
+  | { screen: "step"; jobId: string; stepIndex: number };
 
 export function parseRoute(hash: string): BenchRoute {
   const parts = hash.replace(/^#\/?/, "").split("/").filter(Boolean);
   if (parts[0] === "scan") return { screen: "scan" };
+  if (parts[0] === "not-stored") return { screen: "not-stored" };
   if (parts[0] === "job" && parts[1]) {
     if (parts[2] === "step" && parts[3] && /^\d+$/.test(parts[3])) return { screen: "step", jobId: parts[1], stepIndex: Number(parts[3]) };
     return { screen: "job", jobId: parts[1] };
@@ -23,6 +28,8 @@ export function routeHref(r: BenchRoute): string {
       return "#/";
     case "scan":
       return "#/scan";
+    case "not-stored":
+      return "#/not-stored";
     case "job":
       return `#/job/${r.jobId}`;
     case "step":

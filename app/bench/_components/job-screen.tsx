@@ -65,9 +65,12 @@ export function JobScreen({ jobId }: { jobId: string }) {
       </div>
       <ProgressBar done={view.doneCount} total={view.totalCount} />
       <CopyFreshness job={data} />
-      {!wo.mayWork && (
-        <p className="rounded-xl border-4 border-warn bg-warn-light p-3 text-lg font-bold text-warn">
-          This job is not open for your bench work ({wo.statusLabel}). Anything recorded will be kept and flagged for the supervisor.
+      {(!wo.mayWork || !wo.openForBenchWork) && (
+        <p className="rounded-xl border-4 border-warn bg-warn-light p-3 text-lg font-bold text-warn" data-testid="job-not-yours">
+          <span aria-hidden="true">⚑ </span>
+          {!wo.openForBenchWork && <>This job is {wo.statusLabel.toLowerCase()}: it is not open for bench work. </>}
+          {!wo.mayWork && <>This job is assigned to {wo.assignedMechanic?.name ?? "another mechanic"}. </>}
+          You can still record work here: it is kept and flagged for the supervisor to check, with this reason.
         </p>
       )}
       {snapshot.procedures.some((p) => p.exampleOnly) && (

@@ -4,6 +4,7 @@ import { readSyncMeta } from "@/lib/client/bench-db";
 import { olderCopies } from "@/lib/client/bench-store";
 import type { BayLight } from "./bay-light";
 import { useBench } from "./bench-context";
+import { go } from "./hash-route";
 import { useLive, useNow, useOnline } from "./use-live";
 
 function ago(ms: number | null, now: number): string {
@@ -20,7 +21,8 @@ export function SyncBar({ syncing, bayLight, onToggleBayLight }: { syncing: bool
   const now = useNow(5000);
   const online = useOnline();
   const waiting = useLive(() => db.outbox.where("state").equals("waiting").count(), [db], 0);
-  const refused = useLive(() => db.outbox.where("state").equals("refused").toArray(), [db], []);
+  const refused = useLive(() => db.outbox.where("state").anyOf("refused", "discarding").count(), [db], 0);
+  const held = useLive(() => db.outbox.where("state").equals("held").count(), [db], 0);
   const older = useLive(() => olderCopies(db).then((w) => w.filter((x) => x.missedAt !== undefined).length), [db], 0);
   const meta = useLive(() => readSyncMeta(db), [db], { cursor: null, lastSyncedAt: null, lastAttemptAt: null, lastError: null });
 
@@ -34,6 +36,17 @@ export function SyncBar({ syncing, bayLight, onToggleBayLight }: { syncing: bool
         <span data-testid="waiting-count" className="font-bold">
           {waiting === 0 ? "Nothing waiting to send" : `${waiting} waiting to send`}
         </span>
+        {(refused > 0 || held > 0) && (
+          <button
+            type="button"
+            data-testid="not-stored-count"
+            onClick={() => go({ screen: "not-stored" })}
+            className={`min-h-target rounded-lg border-4 px-4 text-lg font-bold ${refused > 0 ? "border-fail bg-fail-light text-fail" : "border-warn bg-warn-light text-warn"}`}
+          >
+            <span aria-hidden="true">{refused > 0 ? "✖ " : "⏸ "}</span>
+            {[refused > 0 && `${refused} not stored`, held > 0 && `${held} held on the server`].filter(Boolean).join(" · ")} — see them
+          </button>
+        )}
         {older > 0 && (
           <span data-testid="older-copies" className="font-bold text-warn">
             <span aria-hidden="true">⟳ </span>
@@ -64,20 +77,6 @@ export function SyncBar({ syncing, bayLight, onToggleBayLight }: { syncing: bool
         <p role="status" className="mt-1 font-bold text-fail">
           Last sync failed: {meta.lastError}
         </p>
-      )}
-      {refused.length > 0 && (
-        <details className="mt-2 rounded-lg border-2 border-fail bg-fail-light p-2" data-testid="refused-list">
-          <summary className="cursor-pointer text-lg font-bold text-fail">
-            {refused.length} entr{refused.length === 1 ? "y" : "ies"} refused by the server — tap to see why
-          </summary>
-          <ul className="mt-2 space-y-1">
-            {refused.map((r) => (
-              <li key={r.id}>
-                <span className="font-mono">{r.op.kind}</span>: {r.reason}
-              </li>
-            ))}
-          </ul>
-        </details>
       )}
     </section>
   );

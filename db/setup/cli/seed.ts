@@ -1,14 +1,20 @@
 import { createDb } from "../client";
-import { demoShopExists, seedDemoShop } from "../../seed/demo-shop";
+import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
+import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
 
-// Seeds the invented demo workshop once; a second run leaves existing data alone.
+// Seeds the invented demo workshop once; a second run leaves existing data alone. A shop seeded
+// before demo jobs 1030–1032 existed gets them (once) without anything else being touched.
 const db = createDb(undefined, 1);
 try {
-  if (await demoShopExists(db)) {
-    console.log("[seed] demo shop already present");
-  } else {
+  const shopId = await demoShopId(db);
+  if (shopId === null) {
     await seedDemoShop(db);
     console.log("[seed] demo shop written");
+  } else if (!(await demoLateWorkExists(db, shopId))) {
+    await seedDemoLateWork(db, shopId);
+    console.log("[seed] demo shop present; demo jobs 1030–1032 added");
+  } else {
+    console.log("[seed] demo shop already present");
   }
 } finally {
   await db.destroy();

@@ -128,10 +128,7 @@ describe("who may record work", () => {
 
   it("lets a mechanic work their own or an unassigned job, and a supervisor any job of the shop", () => {
     const j = job({ assignedMechanicId: otherMech.id });
-    expect(decideOperation(complete(j), input(j))).toMatchObject({
-      outcome: "refuse",
-      reason: expect.stringContaining("assigned to another mechanic"),
-    });
+    expect(decideOperation(complete(j), input(j))).toMatchObject({ outcome: "flag" });
     const open = job({ assignedMechanicId: null });
     expect(decideOperation(complete(open), input(open)).outcome).toBe("accept");
     const bySupervisor = complete(j, ids.stepBore, { authorId: supervisor.id });
@@ -139,6 +136,24 @@ describe("who may record work", () => {
     expect(mayWorkOn(mech, { shopId, assignedMechanicId: mech.id })).toBe(true);
     expect(mayWorkOn(mech, { shopId: randomUUID(), assignedMechanicId: mech.id })).toBe(false);
     expect(mayWorkOn({ ...mech, role: "customer" }, { shopId, assignedMechanicId: null })).toBe(false);
+  });
+
+  it("keeps a mechanic's work on a job assigned to someone else, flagged with who has it — and when it moved, if after the work", () => {
+    const j = job({ assignedMechanicId: otherMech.id, assignedMechanicName: "Priya Natarajan", assignedSinceMs: NOW - 3_600_000 });
+    expect(decideOperation(complete(j), input(j))).toEqual({
+      outcome: "flag",
+      reason: "Work order #17 is assigned to Priya Natarajan, not to the mechanic who recorded this; kept for the supervisor to check.",
+    });
+    const movedAfter = job({ assignedMechanicId: otherMech.id, assignedMechanicName: "Priya Natarajan", assignedSinceMs: NOW - 30_000 });
+    expect(decideOperation(complete(movedAfter), input(movedAfter))).toEqual({
+      outcome: "flag",
+      reason: `Work order #17 was reassigned to Priya Natarajan at ${new Date(NOW - 30_000).toISOString()}, after this was recorded; kept for the supervisor to check.`,
+    });
+    // with the job closed too, both reasons are given
+    const closed = job({ status: "handed_over", assignedMechanicId: otherMech.id, assignedMechanicName: "Priya Natarajan" });
+    const d = decideOperation(complete(closed), input(closed));
+    expect(d.outcome).toBe("flag");
+    expect(d.outcome === "flag" && d.reason).toMatch(/is closed \(.*\).*assigned to Priya Natarajan/);
   });
 });
 
@@ -148,7 +163,7 @@ describe("what an operation may name", () => {
     const stranger = randomUUID();
     expect(decideOperation(complete(j, stranger), input(j))).toMatchObject({
       outcome: "refuse",
-      reason: `Step ${stranger} is not part of a procedure on work order #17.`,
+      reason: `Step ${stranger} is not part of a procedure on work order #17. Discard this entry with a reason; record the work again on the job as it is now.`,
     });
   });
 
@@ -165,13 +180,20 @@ describe("what an operation may name", () => {
     });
   });
 
-  it("accepts a correction of a reading on record for the same spot, and refuses others", () => {
+  it("accepts a correction of a reading on record for the same spot, holds one whose reading has not arrived, and refuses others", () => {
     const j = job();
     const state = emptyMergeState();
     const first = reading(j, { readingIndex: 2 });
-    expect(decideOperation(reading(j, { readingIndex: 2, supersedesId: first.id }), input(j, { state }))).toMatchObject({
+    expect(decideOperation(reading(j, { readingIndex: 2, supersedesId: first.id }), input(j, { state }))).toEqual({
+      outcome: "wait",
+      target: { kind: "reading", id: first.id },
+      reason: expect.stringContaining("Held on the server until the reading it corrects"),
+    });
+    const elsewhere = emptyMergeState();
+    elsewhere.readings.set(first.id, { workOrderId: randomUUID(), specId: ids.boreSpec, readingIndex: 2 });
+    expect(decideOperation(reading(j, { readingIndex: 2, supersedesId: first.id }), input(j, { state: elsewhere }))).toMatchObject({
       outcome: "refuse",
-      reason: expect.stringContaining("is not on record"),
+      reason: expect.stringContaining("is not on record on work order #17"),
     });
     noteAccepted(first, state);
     expect(decideOperation(reading(j, { readingIndex: 2, supersedesId: first.id }), input(j, { state })).outcome).toBe("accept");
@@ -211,14 +233,15 @@ describe("what an operation may name", () => {
     });
     const stop = (at: number) => op("timer.stopped", j, { timerId, stoppedAt: new Date(at).toISOString() });
     expect(decideOperation(stop(NOW), input(j, { state }))).toMatchObject({
-      outcome: "refuse",
-      reason: expect.stringContaining("not on record"),
+      outcome: "wait",
+      target: { kind: "timer", id: timerId },
+      reason: expect.stringContaining(`until the start of timer ${timerId} arrives`),
     });
     expect(decideOperation(start, input(j, { state })).outcome).toBe("accept");
     noteAccepted(start, state);
     expect(decideOperation({ ...start, id: randomUUID() }, input(j, { state }))).toMatchObject({
       outcome: "refuse",
-      reason: `Timer ${timerId} is already on record.`,
+      reason: expect.stringMatching(new RegExp(`^Timer ${timerId} is already on record\\. Discard`)),
     });
     expect(decideOperation(stop(NOW - 7_200_000), input(j, { state }))).toMatchObject({
       outcome: "refuse",
@@ -277,7 +300,7 @@ describe("what an operation may name", () => {
     const otherProc = randomUUID();
     expect(decideOperation(op("stage.signed-off", j, { jobProcedureId: otherProc, stageKey: "measure" }), input(j))).toMatchObject({
       outcome: "refuse",
-      reason: `Procedure ${otherProc} is not on work order #17.`,
+      reason: `Procedure ${otherProc} is not on work order #17. Discard this entry with a reason; record the work again on the job as it is now.`,
     });
   });
 });

@@ -174,7 +174,7 @@ describe("merging part.fitted", () => {
     const stranger = randomUUID();
     expect(decideOperation(part(j, { stepId: stranger }), input(j))).toEqual({
       outcome: "refuse",
-      reason: `Step ${stranger} is not part of a procedure on work order #42.`,
+      reason: `Step ${stranger} is not part of a procedure on work order #42. Discard this entry with a reason; record the work again on the job as it is now.`,
     });
   });
 
@@ -186,7 +186,7 @@ describe("merging part.fitted", () => {
     const reused = part(j, { partFittedId: first.kind === "part.fitted" ? first.payload.partFittedId : "", serial: "GS-0099" });
     expect(decideOperation(reused, input(j, state))).toEqual({
       outcome: "refuse",
-      reason: expect.stringMatching(/^Part record .* is already on record\.$/),
+      reason: expect.stringMatching(/^Part record .* is already on record\. Discard this entry/),
     });
   });
 
@@ -218,7 +218,10 @@ describe("merging part.fitted", () => {
 
   it("follows the bench rules for who may record it", () => {
     const j = job({ assignedMechanicId: randomUUID() });
-    expect(decideOperation(part(j), input(j))).toEqual({ outcome: "refuse", reason: "Work order #42 is assigned to another mechanic." });
+    expect(decideOperation(part(j), input(j))).toEqual({
+      outcome: "flag",
+      reason: "Work order #42 is assigned to another mechanic, not to the mechanic who recorded this; kept for the supervisor to check.",
+    });
     const open = job({ assignedMechanicId: null });
     expect(decideOperation(part(open), input(open)).outcome).toBe("accept");
     const office: Actor = { ...mech, role: "office" };

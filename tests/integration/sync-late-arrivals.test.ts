@@ -1,0 +1,371 @@
+import { randomUUID } from "node:crypto";
+import fc from "fast-check";
+import { sql } from "kysely";
+import { beforeAll, describe, expect, it } from "vitest";
+import { mergeBatch } from "@/db/sync/merge";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { formatStamp } from "@/lib/sync/hlc";
+import type { Operation, OperationKind, OperationOf } from "@/lib/sync/operations";
+import { fixtureSpecs, type FixtureSpecs } from "../bench/sync-ops";
+import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
+import { useTestDb } from "./support/test-db";
+
+// Late arrivals: a device's operations that reach the server in any order, across batches, with
+// some sent twice, end in the same tables as one clean delivery of the same work. An operation
+// whose record is not on file yet (a correction before its reading, a timer stop or override
+// before its start) is held and applied in the merge that brings the record, in stamp order.
+
+const db = useTestDb();
+
+let fx: ShopFixture;
+let specs: FixtureSpecs;
+let sup: SessionUser;
+let jobNumber = 100;
+
+beforeAll(async () => {
+  fx = await createShopFixture(db);
+  specs = await fixtureSpecs(db, fx);
+  sup = { ...fx.users.supervisor, customerId: null };
+});
+
+/** A work order of the fixture shop running the same pinned template versions (so step and spec ids are shared). */
+async function newWorkOrder(): Promise<{ id: string; number: number; jobProcedureId: string }> {
+  const number = ++jobNumber;
+  const wo = await db
+    .insertInto("work_orders")
+    .values({
+      shop_id: fx.shopId,
+      bike_id: fx.bike.id,
+      number,
+      title: `Late arrivals ${number}`,
+      status: "in_build",
+      intake_odometer_km: 1000,
+      assigned_mechanic_id: fx.users.mechanic.id,
+      closed_at: null,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  let first = "";
+  for (const [position, p] of fx.procedures.entries()) {
+    const jp = await db
+      .insertInto("job_procedures")
+      .values({ work_order_id: wo.id, template_version_id: p.templateVersionId, position })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    if (position === 0) first = jp.id;
+  }
+  return { id: wo.id, number, jobProcedureId: first };
+}
+
+// ——— a day's work on one tablet, as events that become operations on any work order ———
+
+type Event =
+  | { t: "complete"; step: number }
+  | { t: "read"; at: number; v: number }
+  | { t: "correct"; which: number; v: number }
+  | { t: "bolt"; pass: number; bolt: number }
+  | { t: "timerStart" }
+  | { t: "timerStop"; which: number; afterS: number }
+  | { t: "override"; which: number; why: number }
+  | { t: "photo" }
+  | { t: "part" }
+  | { t: "signOff" };
+
+const eventArb: fc.Arbitrary<Event> = fc.oneof(
+  fc.record({ t: fc.constant("complete" as const), step: fc.nat(3) }),
+  fc.record({ t: fc.constant("read" as const), at: fc.nat(5), v: fc.nat(40) }),
+  fc.record({ t: fc.constant("correct" as const), which: fc.nat(20), v: fc.nat(40) }),
+  fc.record({ t: fc.constant("correct" as const), which: fc.nat(20), v: fc.nat(40) }),
+  fc.record({ t: fc.constant("bolt" as const), pass: fc.integer({ min: 1, max: 3 }), bolt: fc.integer({ min: 1, max: 10 }) }),
+  fc.record({ t: fc.constant("timerStart" as const) }),
+  fc.record({ t: fc.constant("timerStop" as const), which: fc.nat(5), afterS: fc.nat(3600) }),
+  fc.record({ t: fc.constant("override" as const), which: fc.nat(5), why: fc.nat(2) }),
+  fc.record({ t: fc.constant("photo" as const) }),
+  fc.record({ t: fc.constant("part" as const) }),
+  fc.record({ t: fc.constant("signOff" as const) }),
+);
+
+const DEVICE = "late-tab";
+const T0 = Date.now() - 3_600_000;
+
+/** The operations of `events` on one work order; `idFor` gives every made-up id its value for that work order. */
+function materialize(
+  events: readonly Event[],
+  job: { id: string; jobProcedureId: string },
+  idFor: (symbol: string) => string,
+): Operation[] {
+  const ops: Operation[] = [];
+  const readings: Array<{ symbol: string; at: number }> = [];
+  const timers: Array<{ symbol: string; startedAt: number }> = [];
+  const steps = [specs.boreStepId, specs.rodStepId, specs.caseBoltsStepId, specs.sealantStepId];
+  events.forEach((e, i) => {
+    const at = T0 + i * 1000;
+    const make = <K extends OperationKind>(kind: K, payload: OperationOf<K>["payload"]) => {
+      ops.push({
+        id: idFor(`op${i}`),
+        kind,
+        workOrderId: job.id,
+        authorId: sup.id,
+        deviceId: DEVICE,
+        deviceTime: new Date(at).toISOString(),
+        stamp: formatStamp({ wallMs: at, counter: 0, deviceId: DEVICE }),
+        payload,
+      } as Operation);
+    };
+    const reading = (spot: number, v: number, supersedes?: string) => {
+      readings.push({ symbol: `op${i}`, at: spot });
+      make("measurement.recorded", {
+        stepId: specs.boreStepId,
+        specId: specs.boreSpecId,
+        readingIndex: spot,
+        value: 75.99 + v / 1000,
+        unit: "mm",
+        ...(supersedes ? { supersedesId: idFor(supersedes), note: `correction ${i}` } : {}),
+      });
+    };
+    switch (e.t) {
+      case "complete":
+        return make("step.completed", { stepId: steps[e.step] });
+      case "read":
+        return reading(e.at, e.v);
+      case "correct": {
+        if (!readings.length) return reading(0, e.v);
+        const old = readings[e.which % readings.length];
+        return reading(old.at, e.v, old.symbol);
+      }
+      case "bolt":
+        return make("torque.bolt-confirmed", {
+          stepId: specs.caseBoltsStepId,
+          torqueSpecId: specs.caseBoltsSpecId,
+          passIndex: e.pass,
+          bolt: e.bolt,
+        });
+      case "timerStart":
+        timers.push({ symbol: `timer${i}`, startedAt: at });
+        return make("timer.started", {
+          timerId: idFor(`timer${i}`),
+          stepId: specs.sealantStepId,
+          timerSpecId: specs.sealantTimerSpecId,
+          label: "Sealant cure",
+          durationS: 1800,
+          startedAt: new Date(at).toISOString(),
+        });
+      case "timerStop": {
+        if (!timers.length) return make("step.completed", { stepId: specs.sealantStepId });
+        const t = timers[e.which % timers.length];
+        return make("timer.stopped", { timerId: idFor(t.symbol), stoppedAt: new Date(t.startedAt + e.afterS * 1000).toISOString() });
+      }
+      case "override": {
+        if (!timers.length) return make("step.completed", { stepId: specs.sealantStepId });
+        const t = timers[e.which % timers.length];
+        return make("timer.overridden", {
+          timerId: idFor(t.symbol),
+          reason: ["Fast-cure sealant", "Cases closed yesterday", "Maker allows it"][e.why],
+        });
+      }
+      case "photo":
+        return make("photo.queued", {
+          attachmentId: idFor(`att${i}`),
+          stepId: specs.boreStepId,
+          contentType: "image/jpeg",
+          byteSize: 1000 + i,
+        });
+      case "part":
+        return make("part.fitted", {
+          partFittedId: idFor(`part${i}`),
+          stepId: specs.rodStepId,
+          partNumber: "GS-ROD-130",
+          description: "Con-rod bolt",
+          serial: `SN-${i}`,
+          quantity: 1,
+        });
+      case "signOff":
+        return make("stage.signed-off", { jobProcedureId: job.jobProcedureId, stageKey: "measure" });
+    }
+  });
+  return ops;
+}
+
+/** Everything the merge wrote for a work order, with its ids put back to the symbols they stand for. */
+async function tablesOf(workOrderId: string, symbolOf: Map<string, string>): Promise<unknown> {
+  const r = await sql<{ t: string; row: Record<string, unknown> }>`
+    SELECT 'operations' AS t, jsonb_build_object('id', id, 'kind', kind, 'author', author_id, 'device', device_id, 'time', device_time,
+      'stamp', stamp, 'payload', payload, 'flagged', flagged, 'flag_reason', flag_reason) AS row FROM operations WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'step_completions', to_jsonb(c) - 'received_at' - 'work_order_id' FROM step_completions c WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'measurements', to_jsonb(m) - 'received_at' - 'work_order_id' FROM measurements m WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'current', to_jsonb(m) - 'received_at' - 'work_order_id' FROM current_measurements m WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'torque', to_jsonb(x) - 'received_at' - 'work_order_id' FROM torque_records x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'timers', to_jsonb(x) - 'work_order_id' FROM timers x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'sign_offs', to_jsonb(x) - 'received_at' - 'work_order_id' - 'job_procedure_id' FROM sign_offs x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'photos', to_jsonb(x) - 'created_at' - 'work_order_id' - 'object_key' FROM attachments x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'parts', to_jsonb(x) - 'work_order_id' FROM parts_fitted x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'held', jsonb_build_object('id', id, 'resolution', resolution) FROM sync_pending_operations WHERE work_order_id = ${workOrderId}
+  `.execute(db);
+  const text = JSON.stringify(r.rows).replace(
+    /[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/g,
+    (id) => symbolOf.get(id) ?? id,
+  );
+  return (JSON.parse(text) as Array<{ t: string; row: unknown }>).map((x) => `${x.t} ${JSON.stringify(x.row)}`).sort();
+}
+
+/** Made-up ids for one work order, and the way back from id to symbol. */
+function idSpace() {
+  const ids = new Map<string, string>();
+  const symbols = new Map<string, string>();
+  const idFor = (symbol: string) => {
+    let id = ids.get(symbol);
+    if (!id) {
+      id = randomUUID();
+      ids.set(symbol, id);
+      symbols.set(id, symbol);
+    }
+    return id;
+  };
+  return { idFor, symbols };
+}
+
+/** A small seeded random source (mulberry32), so a failing case repeats from fast-check's seed. */
+function random(seed: number) {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** The operations shuffled, cut into `count` batches, some sent again in a later batch. */
+function deliveries(ops: readonly Operation[], seed: number, count: number): Operation[][] {
+  const rnd = random(seed);
+  const shuffled = [...ops];
+  for (let i = shuffled.length - 1; i > 0; i--) {
+    const j = Math.floor(rnd() * (i + 1));
+    [shuffled[i], shuffled[j]] = [shuffled[j], shuffled[i]];
+  }
+  const batches: Operation[][] = Array.from({ length: count }, () => []);
+  for (const op of shuffled) batches[Math.floor(rnd() * count)].push(op);
+  for (let b = 1; b < count; b++) {
+    for (const op of batches[b - 1]) if (rnd() < 0.3) batches[b].push(op); // resent: an answer that never came back
+  }
+  return batches;
+}
+
+const nowMs = () => T0 + 3_600_000;
+
+describe("late arrivals, by example", () => {
+  it("holds a correction that arrives before its reading and applies it when the reading comes", async () => {
+    const job = await newWorkOrder();
+    const { idFor, symbols } = idSpace();
+    const [reading, correction] = materialize(
+      [
+        { t: "read", at: 2, v: 4 },
+        { t: "correct", which: 0, v: 6 },
+      ],
+      job,
+      idFor,
+    );
+    const first = await mergeBatch(db, sup, { deviceId: DEVICE, cursor: null, operations: [correction] }, { nowMs: nowMs() });
+    expect(first).toMatchObject({
+      accepted: [],
+      refused: [],
+      pending: [{ id: correction.id, reason: expect.stringContaining("the reading it corrects") }],
+    });
+    const second = await mergeBatch(db, sup, { deviceId: DEVICE, cursor: null, operations: [reading] }, { nowMs: nowMs() });
+    expect(second.accepted).toEqual([reading.id]);
+    const current = await db.selectFrom("current_measurements").select(["id", "value"]).where("work_order_id", "=", job.id).execute();
+    expect(current).toEqual([{ id: correction.id, value: "75.996" }]);
+    expect(await tablesOf(job.id, symbols)).toContainEqual('held {"id":"op1","resolution":"applied"}');
+    // the tablet's next send of the held correction learns it is stored
+    expect(
+      (await mergeBatch(db, sup, { deviceId: DEVICE, cursor: null, operations: [correction] }, { nowMs: nowMs() })).duplicates,
+    ).toEqual([correction.id]);
+  });
+
+  it("holds a timer stop and an override sent before the start, and the earliest override stands whatever order they come in", async () => {
+    const job = await newWorkOrder();
+    const { idFor } = idSpace();
+    const [start, late, early, stop] = materialize(
+      [
+        { t: "timerStart" },
+        { t: "override", which: 0, why: 0 },
+        { t: "override", which: 0, why: 1 },
+        { t: "timerStop", which: 0, afterS: 600 },
+      ],
+      job,
+      idFor,
+    );
+    // the overrides' stamps: `late` was made first (it stands), `early` second
+    const send = (operations: Operation[]) => mergeBatch(db, sup, { deviceId: DEVICE, cursor: null, operations }, { nowMs: nowMs() });
+    expect((await send([early, stop])).pending.map((p) => p.id).sort()).toEqual([early.id, stop.id].sort());
+    expect((await send([start])).accepted).toEqual([start.id]);
+    expect((await send([late])).accepted).toEqual([late.id]);
+    const timer = await db.selectFrom("timers").selectAll().where("work_order_id", "=", job.id).executeTakeFirstOrThrow();
+    expect(timer).toMatchObject({ override_reason: "Fast-cure sealant", override_by: sup.id });
+    expect(timer.stopped_at?.getTime()).toBe(Date.parse((start as OperationOf<"timer.started">).payload.startedAt) + 600_000);
+  });
+});
+
+describe("any order of one device's operations across batches ends as one clean delivery does", () => {
+  it("gives the same tables, with duplicates and held operations, for random days of work (bounded run)", async () => {
+    await fc.assert(
+      fc.asyncProperty(
+        fc.array(eventArb, { minLength: 2, maxLength: 28 }),
+        fc.integer(),
+        fc.integer({ min: 1, max: 6 }),
+        async (events, seed, batchCount) => {
+          const clean = await newWorkOrder();
+          const split = await newWorkOrder();
+          const a = idSpace();
+          const b = idSpace();
+          const cleanOps = materialize(events, clean, a.idFor);
+          const splitOps = materialize(events, split, b.idFor);
+          // the job procedures stand for the same thing on both jobs
+          a.symbols.set(clean.jobProcedureId, "jp");
+          b.symbols.set(split.jobProcedureId, "jp");
+          a.symbols.set(clean.id, "job");
+          b.symbols.set(split.id, "job");
+
+          const once = await mergeBatch(db, sup, { deviceId: DEVICE, cursor: null, operations: cleanOps }, { nowMs: nowMs() });
+          expect(once.refused).toEqual([]);
+          expect(once.pending).toEqual([]);
+
+          const refused: unknown[] = [];
+          for (const batch of deliveries(splitOps, seed, batchCount)) {
+            const res = await mergeBatch(db, sup, { deviceId: DEVICE, cursor: null, operations: batch }, { nowMs: nowMs() });
+            refused.push(...res.refused);
+          }
+          // the tablet sends what it still holds once more (as it does with every sync)
+          await mergeBatch(db, sup, { deviceId: DEVICE, cursor: null, operations: splitOps }, { nowMs: nowMs() });
+          expect(refused).toEqual([]);
+
+          const cleanTables = (await tablesOf(clean.id, a.symbols)) as string[];
+          const splitTables = ((await tablesOf(split.id, b.symbols)) as string[]).filter((row) => !row.startsWith("held "));
+          expect(splitTables).toEqual(cleanTables);
+          // nothing is left waiting, and every operation is audited as accepted exactly once
+          const audit = await db
+            .selectFrom("audit_log")
+            .select(["entity_id", "outcome"])
+            .where(
+              "entity_id",
+              "in",
+              splitOps.map((o) => o.id),
+            )
+            .execute();
+          expect(audit.map((x) => x.outcome).every((o) => o === "accepted")).toBe(true);
+          expect(new Set(audit.map((x) => x.entity_id)).size).toBe(splitOps.length);
+          expect(audit).toHaveLength(splitOps.length);
+          const waiting = await db
+            .selectFrom("sync_pending_operations")
+            .select("id")
+            .where("work_order_id", "=", split.id)
+            .where("resolved_at", "is", null)
+            .execute();
+          expect(waiting).toEqual([]);
+        },
+      ),
+      { numRuns: 40, seed: 20261203, endOnFailure: true },
+    );
+  }, 120_000);
+});
