@@ -5,7 +5,7 @@ import type { Database } from "../schema";
 
 /**
  * The entries withdrawn on a shop's work orders (one work order, or every work order of a bike),
- * oldest first: what each was and who recorded it, who withdrew it, when and why. Read by the
+ * oldest first (ties, as in one batch, in the order received): what each was and who recorded it, who withdrew it, when and why. Read by the
  * office's work order page, the bike record and the handover report; the entries themselves stay
  * on the record, marked.
  */
@@ -13,6 +13,7 @@ export async function withdrawnEntries(db: Kysely<Database>, shopId: string, whe
   let q = db
     .selectFrom("withdrawals as w")
     .innerJoin("operations as o", "o.id", "w.operation_id")
+    .innerJoin("operations as wop", "wop.id", "w.id")
     .innerJoin("work_orders as wo", "wo.id", "w.work_order_id")
     .innerJoin("users as by", "by.id", "w.withdrawn_by")
     .innerJoin("users as author", "author.id", "o.author_id")
@@ -51,7 +52,7 @@ export async function withdrawnEntries(db: Kysely<Database>, shopId: string, whe
     ])
     .where("wo.shop_id", "=", shopId);
   q = "workOrderId" in where ? q.where("w.work_order_id", "=", where.workOrderId) : q.where("wo.bike_id", "=", where.bikeId);
-  const rows = await q.orderBy("w.device_time").orderBy("w.id").execute();
+  const rows = await q.orderBy("w.device_time").orderBy("wop.seq").execute();
   return rows.map((r) => ({
     id: r.id,
     operationId: r.operationId,
