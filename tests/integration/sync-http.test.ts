@@ -69,7 +69,7 @@ describe("POST /api/sync handler", () => {
     const good = tablet.complete(specs.boreStepId);
     const bad = {
       ...tablet.read(specs.boreStepId, specs.boreSpecId, 0, 76),
-      payload: { stepId: specs.boreStepId, specId: specs.boreSpecId, readingIndex: 0, value: "76.01", unit: "cm" },
+      payload: { stepId: specs.boreStepId, specId: specs.boreSpecId, readingIndex: 0, value: "76,01", unit: "cm" },
     };
     const res = await handleSyncRequest(
       post(JSON.stringify({ deviceId: tablet.deviceId, cursor: null, operations: [good, bad] })),
@@ -80,7 +80,7 @@ describe("POST /api/sync handler", () => {
     const body = await res.json();
     expect(body.issues).toEqual(
       expect.arrayContaining([
-        { path: "operations.1.payload.value", message: "Value: must be a number" },
+        { path: "operations.1.payload.value", message: "Value: must be a plain decimal number as typed on the keypad, e.g. 0.030." },
         { path: "operations.1.payload.unit", message: expect.any(String) },
       ]),
     );
