@@ -129,7 +129,8 @@ function measurements(doc: Pdf, d: HandoverReportData) {
       const which = r.readingLabels[r.readingIndex] ?? (r.readingLabels.length ? `reading ${r.readingIndex + 1}` : "");
       return [
         which ? `${r.label}, ${which}` : r.label,
-        `${num(r.value)} ${r.unit}`,
+        // as typed and stored: numeric keeps the scale ("0.030" stays "0.030")
+        `${r.value} ${r.unit}`,
         `${num(r.min)} to ${num(r.max)} ${r.specUnit}${r.nominal === null ? "" : ` (nominal ${num(r.nominal)})`}`,
         VERDICT[r.verdict],
       ];
@@ -192,6 +193,21 @@ function torqueApplied(doc: Pdf, d: HandoverReportData) {
         [t.torqueToYield ? "stretch bolts, new fitted" : "", t.lubricant].filter(Boolean).join("; "),
       ];
     }),
+  );
+}
+
+// Entries taken back at the bench stay on the record: listed here with who, when and why, and left out of everything above.
+function withdrawnEntries(doc: Pdf, d: HandoverReportData) {
+  if (d.withdrawn.length === 0) return paragraph(doc, "Nothing was withdrawn.");
+  table(
+    doc,
+    [
+      { header: "Entry", width: 0.36 },
+      { header: "Recorded", width: 0.2 },
+      { header: "Withdrawn", width: 0.2 },
+      { header: "Why", width: 0.24 },
+    ],
+    d.withdrawn.map((w) => [w.what, `${w.recordedBy}, ${day(w.recordedAt)}`, `${w.withdrawnBy}, ${day(w.withdrawnAt)}`, w.reason]),
   );
 }
 
@@ -301,6 +317,8 @@ export async function renderHandoverReportPdf(db: Db, shopId: string, workOrderI
   torqueApplied(doc, d);
   heading(doc, "Sign-offs and reviews");
   signOffs(doc, d);
+  heading(doc, "Withdrawn entries");
+  withdrawnEntries(doc, d);
   heading(doc, "Dyno results");
   dynoResults(doc, d);
   tuneSection(doc, await listTuneVersions(db, shopId, workOrderId));

@@ -243,7 +243,7 @@ export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jo
 /** The recorded work on a job: completions, every reading (superseded too), torque, timers, sign-offs, decisions, photos, parts. */
 async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSnapshot["state"]> {
   const stampOrder = (column: string) => sql`${sql.ref(column)} COLLATE "C"`;
-  const [completions, readings, torque, timers, signOffs, decisions, photos, parts] = await Promise.all([
+  const [completions, readings, torque, timers, signOffs, decisions, photos, parts, withdrawals] = await Promise.all([
     db
       .selectFrom("step_completions as c")
       .innerJoin("operations as o", "o.id", "c.id")
@@ -291,6 +291,8 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
         "t.wrench_unit",
         "t.recorded_by",
         "t.device_time",
+        "o.flagged",
+        "o.flag_reason",
       ])
       .where("t.work_order_id", "=", jobId)
       .orderBy(stampOrder("o.stamp"))
@@ -308,6 +310,12 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
         "stopped_at",
         "override_by",
         "override_reason",
+        "override_at",
+        "stopped_by",
+        "stop_reason",
+        "cancelled_at",
+        "cancelled_by",
+        "cancel_reason",
       ])
       .where("work_order_id", "=", jobId)
       .orderBy("started_at")
@@ -341,7 +349,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       .execute(),
     db
       .selectFrom("attachments")
-      .select(["id", "step_id", "content_type", "byte_size", "caption", "awaiting_upload", "created_at"])
+      .select(["id", "step_id", "content_type", "byte_size", "caption", "awaiting_upload", "created_at", "operation_id", "uploaded_by"])
       .where("work_order_id", "=", jobId)
       .where("purpose", "=", "step")
       .orderBy("created_at")
@@ -363,11 +371,19 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
         "p.fitted_at",
         eb.fn.coalesce("o.flagged", eb.lit(false)).as("flagged"),
         "o.flag_reason",
+        "p.operation_id",
       ])
       .where("p.work_order_id", "=", jobId)
       .orderBy("p.fitted_at")
       .orderBy(stampOrder("o.stamp"))
       .orderBy("p.id")
+      .execute(),
+    db
+      .selectFrom("withdrawals")
+      .select(["id", "operation_id", "target_kind", "withdrawn_by", "reason", "device_time", "received_at"])
+      .where("work_order_id", "=", jobId)
+      .orderBy("received_at")
+      .orderBy("id")
       .execute(),
   ]);
   return {
@@ -387,6 +403,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       specId: m.spec_id,
       readingIndex: m.reading_index,
       value: num(m.value),
+      valueText: m.value,
       unit: m.unit,
       verdict: m.verdict,
       note: m.note,
@@ -409,6 +426,8 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       wrenchUnit: t.wrench_unit,
       recordedBy: t.recorded_by,
       deviceTime: iso(t.device_time),
+      flagged: t.flagged,
+      flagReason: t.flag_reason,
     })),
     timers: timers.map((t) => ({
       id: t.id,
@@ -421,6 +440,12 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       stoppedAt: t.stopped_at ? iso(t.stopped_at) : null,
       overrideBy: t.override_by,
       overrideReason: t.override_reason,
+      overrideAt: t.override_at ? iso(t.override_at) : null,
+      stoppedBy: t.stopped_by,
+      stopReason: t.stop_reason,
+      cancelledAt: t.cancelled_at ? iso(t.cancelled_at) : null,
+      cancelledBy: t.cancelled_by,
+      cancelReason: t.cancel_reason,
     })),
     signOffs: signOffs.map((s) => ({
       id: s.id,
@@ -451,6 +476,8 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       caption: p.caption,
       awaitingUpload: p.awaiting_upload,
       createdAt: iso(p.created_at),
+      operationId: p.operation_id,
+      uploadedBy: p.uploaded_by,
     })),
     parts: parts.map((p) => ({
       id: p.id,
@@ -465,6 +492,16 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       fittedAt: iso(p.fitted_at),
       flagged: p.flagged,
       flagReason: p.flag_reason,
+      operationId: p.operation_id,
+    })),
+    withdrawals: withdrawals.map((w) => ({
+      id: w.id,
+      operationId: w.operation_id,
+      kind: w.target_kind,
+      withdrawnBy: w.withdrawn_by,
+      reason: w.reason,
+      deviceTime: iso(w.device_time),
+      receivedAt: iso(w.received_at),
     })),
   };
 }

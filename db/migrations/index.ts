@@ -14,6 +14,7 @@ import * as m073 from "./2026_12_03_073_shop_presets";
 import * as m074 from "./2026_12_03_074_build_sheets";
 import * as m075 from "./2026_12_03_075_volume_readings";
 import * as m040 from "./2026_12_03_040_sync_pending";
+import * as m030 from "./2026_12_03_030_withdrawals_and_timer_reasons";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -34,4 +35,5 @@ export const migrations: Record<string, Migration> = {
   "2026_12_03_074_build_sheets": m074,
   "2026_12_03_075_volume_readings": m075,
   "2026_12_03_040_sync_pending": m040,
+  "2026_12_03_030_withdrawals_and_timer_reasons": m030,
 };

@@ -6,6 +6,7 @@ import { listDynoRuns } from "./dyno";
 import { partsOfWorkOrder } from "./parts-fitted";
 import type { Database } from "../schema";
 import { workOrdersWithBike } from "../shop/work-orders";
+import { withdrawnEntries } from "./withdrawn-entries";
 
 // Everything the handover build report shows, read for one work order of one shop.
 
@@ -80,10 +81,15 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
     .select(["sc.step_id as stepId", "u.name as by", "sc.device_time as at"])
     .where("sc.work_order_id", "=", workOrderId)
     .where("sc.flagged", "=", false)
+    .where(({ not, exists, selectFrom }) =>
+      not(exists(selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "sc.id"))),
+    )
     .orderBy("sc.device_time")
     .execute();
 
-  const parts = await partsOfWorkOrder(db, shopId, workOrderId);
+  // withdrawn parts are listed with the other withdrawn entries, not as fitted
+  const parts = (await partsOfWorkOrder(db, shopId, workOrderId)).filter((p) => !p.withdrawn);
+  const withdrawn = await withdrawnEntries(db, shopId, { workOrderId });
 
   // current readings: those no later reading supersedes
   const readings = await db
@@ -138,6 +144,8 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
             .select(sql<number>`count(DISTINCT (tr.pass_index, tr.bolt))`.as("n"))
             .whereRef("tr.torque_spec_id", "=", "ts.id")
             .where("tr.work_order_id", "=", workOrderId)
+            // a withdrawn bolt does not count: it must be done again
+            .where(sql<boolean>`NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = tr.id)`)
             .as("recorded"),
         ])
         .where("ts.step_id", "in", stepIds)
@@ -155,6 +163,9 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
       "so.device_time as signedAt",
     ])
     .where("so.work_order_id", "=", workOrderId)
+    .where(({ not, exists, selectFrom }) =>
+      not(exists(selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "so.id"))),
+    )
     .orderBy("so.device_time")
     .execute();
   const decisions = signOffs.length
@@ -173,7 +184,7 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
 
   // Withdrawn runs stay on record but do not go in the report.
   const runs = countingRuns(await listDynoRuns(db, shopId, workOrderId));
-  return { job, procedures, steps, completed, parts, readings, torqueSpecs, signOffs, decisions, runs };
+  return { job, procedures, steps, completed, parts, readings, torqueSpecs, signOffs, decisions, runs, withdrawn };
 }
 
 export type HandoverReportData = NonNullable<Awaited<ReturnType<typeof loadHandoverReport>>>;

@@ -16,8 +16,8 @@ export const partColumns = [
 
 /**
  * The parts fitted to one work order of a shop, in the order they were fitted: with the step they
- * went in at, who fitted them, whether they were recorded at the bench, and the sync's flag for the
- * supervisor (a serial number recorded twice, work on a closed job…). Read by the office's work
+ * went in at, who fitted them, whether they were recorded at the bench, the sync's flag for the
+ * supervisor (a serial number recorded twice, work on a closed job…) and any withdrawal. Read by the office's work
  * order page and the handover report.
  */
 export async function partsOfWorkOrder(db: Kysely<Database>, shopId: string, workOrderId: string) {
@@ -26,12 +26,17 @@ export async function partsOfWorkOrder(db: Kysely<Database>, shopId: string, wor
     .leftJoin("template_steps as s", "s.id", "p.step_id")
     .leftJoin("users as u", "u.id", "p.fitted_by")
     .leftJoin("operations as o", "o.id", "p.operation_id")
+    .leftJoin("withdrawals as wd", "wd.operation_id", "p.operation_id")
+    .leftJoin("users as wu", "wu.id", "wd.withdrawn_by")
     .select([
       ...partColumns,
       "s.title as stepTitle",
       "u.name as fittedByName",
       "p.operation_id as operationId",
       "o.flag_reason as flagReason",
+      "wu.name as withdrawnBy",
+      "wd.device_time as withdrawnAt",
+      "wd.reason as withdrawnReason",
     ])
     .where("p.work_order_id", "=", workOrderId)
     .where("p.shop_id", "=", shopId)
@@ -40,5 +45,10 @@ export async function partsOfWorkOrder(db: Kysely<Database>, shopId: string, wor
     .orderBy(sql`o.stamp COLLATE "C"`)
     .orderBy("p.id")
     .execute();
-  return rows.map(({ operationId, ...p }) => ({ ...p, atBench: operationId !== null }));
+  return rows.map(({ operationId, withdrawnBy, withdrawnAt, withdrawnReason, ...p }) => ({
+    ...p,
+    atBench: operationId !== null,
+    // withdrawn at the bench: it stays on the record, marked, and no longer counts
+    withdrawn: withdrawnAt !== null ? { by: withdrawnBy ?? "", at: withdrawnAt, reason: withdrawnReason ?? "" } : null,
+  }));
 }

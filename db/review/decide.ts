@@ -40,7 +40,7 @@ export async function decideOnSignOff(
     const check: DecisionCheck = checkDecision(
       {
         actor: { id: user.id, role: user.role },
-        signOff: { id: so.id, signedBy: so.signedBy, stageTitle: so.stageTitle ?? so.stageKey },
+        signOff: { id: so.id, signedBy: so.signedBy, stageTitle: so.stageTitle ?? so.stageKey, withdrawn: Boolean(so.withdrawn) },
         job: { number: so.number, closed: isClosed(so.status) },
         latestSignOffId: latestSignOffId ?? so.id,
         latestDecisionId: latestDecision?.id ?? null,

@@ -125,9 +125,11 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
     ? `Your role (${user.role}) may look but not decide.`
     : review.signOff.by.id === user.id
       ? "You signed this stage off yourself: another supervisor or the office must review it."
-      : !review.signOff.isLatest
-        ? "This stage has been signed off again since; decide on the newest sign-off."
-        : null;
+      : review.signOff.withdrawn
+        ? "This sign-off was withdrawn: the stage waits for a new sign-off."
+        : !review.signOff.isLatest
+          ? "This stage has been signed off again since; decide on the newest sign-off."
+          : null;
   return {
     ...review,
     job: {

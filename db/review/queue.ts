@@ -44,6 +44,8 @@ function waiting(shopId: string) {
       JOIN operations o ON o.id = s.id
       JOIN work_orders w ON w.id = s.work_order_id
       WHERE w.shop_id = ${shopId}::uuid
+        -- a withdrawn sign-off waits for nobody: the stage waits for a new one
+        AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = s.id)
       ORDER BY s.job_procedure_id, s.stage_key, o.seq DESC
     ),
     q AS (

@@ -49,6 +49,7 @@ export async function signOffInShop(db: Db, shopId: string, signOffId: string) {
           .whereRef("ts.stage_key", "=", "s.stage_key")
           .limit(1)
           .as("stageTitle"),
+      (eb) => eb.exists(eb.selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "s.id")).as("withdrawn"),
     ])
     .where("s.id", "=", signOffId)
     .where("w.shop_id", "=", shopId)

@@ -4,7 +4,7 @@ import type { MeasurementUnit, TorqueUnit } from "@/lib/calc/units";
 import type { OperationKind } from "@/lib/sync/operations";
 import type { DefaultTimestamp, Json, Numeric, Timestamp } from "./columns";
 
-// What the bench records: operations and the rows they write (migrations 001, 002, 006).
+// What the bench records: operations and the rows they write (migrations 001, 002, 006, 030).
 
 interface OperationsTable {
   id: string;
@@ -77,6 +77,26 @@ interface TimersTable {
   stopped_at: Timestamp | null;
   override_by: string | null;
   override_reason: string | null;
+  /** When the override was made: the hold is released from then (migration 030). */
+  override_at: Generated<Date | null>;
+  stopped_by: Generated<string | null>;
+  stop_reason: Generated<string | null>;
+  /** A timer started by mistake: it no longer counts (migration 030). */
+  cancelled_at: Generated<Date | null>;
+  cancelled_by: Generated<string | null>;
+  cancel_reason: Generated<string | null>;
+}
+
+/** An entry taken back by an `entry.withdrawn` operation: the entry stays, marked withdrawn (migration 030). */
+interface WithdrawalsTable {
+  id: string;
+  work_order_id: string;
+  operation_id: string;
+  target_kind: OperationKind;
+  withdrawn_by: string;
+  reason: string;
+  device_time: Timestamp;
+  received_at: DefaultTimestamp;
 }
 
 interface SignOffsTable {
@@ -135,5 +155,6 @@ export interface BenchTables {
   timers: TimersTable;
   sign_offs: SignOffsTable;
   parts_fitted: PartsFittedTable;
+  withdrawals: WithdrawalsTable;
   current_measurements: CurrentMeasurementsView;
 }

@@ -52,6 +52,8 @@ interface AttachmentsTable {
   created_at: DefaultTimestamp;
   /** Queued on a tablet, bytes not uploaded yet (migration 002). */
   awaiting_upload: Generated<boolean>;
+  /** The bench operation that queued it; null for office photos (migration 030). */
+  operation_id: Generated<string | null>;
 }
 
 export interface WorkOrderTables {

@@ -52,15 +52,15 @@ async function operation<K extends Operation["kind"]>(
   return id;
 }
 
-// Readings per spec key, one value per reading label (mm).
-const READINGS: Record<string, number[]> = {
-  "bore-1": [76.008, 76.006, 76.007, 76.006, 76.005, 76.005],
-  "ptw-1": [0.062],
-  "ptw-2": [0.059],
-  "top-ring-gap": [0.41, 0.42, 0.4, 0.43],
-  "main-oil-clearance": [0.028, 0.03, 0.031, 0.029, 0.03],
-  "deck-clearance": [0.18, 0.2, 0.19, 0.21],
-  "head-warp": [0.02],
+// Readings per spec key, one value per reading label (mm), as typed: the instrument's last digit kept.
+const READINGS: Record<string, string[]> = {
+  "bore-1": ["76.008", "76.006", "76.007", "76.006", "76.005", "76.005"],
+  "ptw-1": ["0.062"],
+  "ptw-2": ["0.059"],
+  "top-ring-gap": ["0.41", "0.42", "0.40", "0.43"],
+  "main-oil-clearance": ["0.028", "0.030", "0.031", "0.029", "0.030"],
+  "deck-clearance": ["0.18", "0.20", "0.19", "0.21"],
+  "head-warp": ["0.020"],
 };
 
 const PARTS = [
@@ -128,7 +128,7 @@ export async function seedDemoBuildRecord(
         for (const spec of specs) {
           for (const [i, value] of (READINGS[spec.key] ?? []).entries()) {
             const when = at();
-            const verdict = evaluateTolerance(value, {
+            const verdict = evaluateTolerance(Number(value), {
               unit: spec.unit,
               nominal: spec.nominal === null ? undefined : Number(spec.nominal),
               min: Number(spec.min),

@@ -129,7 +129,7 @@ async function seedYesterdaysWork(db: Kysely<Database>, ids: { shopId: string; m
     const specs = steps.filter((s) => s.stepKey === stepKey && s.specId !== null);
     for (const s of specs) {
       YESTERDAY[s.specKey!].forEach((value, readingIndex) =>
-        make("measurement.recorded", { stepId: s.stepId, specId: s.specId!, readingIndex, value, unit: "mm" }),
+        make("measurement.recorded", { stepId: s.stepId, specId: s.specId!, readingIndex, value: String(value), unit: "mm" }),
       );
     }
     make("step.completed", { stepId: specs[0].stepId });

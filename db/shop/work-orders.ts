@@ -7,6 +7,7 @@ import { CLOSED_STATUSES, isClosed, type WorkOrderStatus } from "@/lib/work-orde
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 import { partsOfWorkOrder } from "../records/parts-fitted";
+import { withdrawnEntries } from "../records/withdrawn-entries";
 import { containsPattern } from "./search";
 import type { PageOpts } from "./customers";
 
@@ -311,7 +312,7 @@ export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: 
     .where("w.shop_id", "=", shopId)
     .executeTakeFirst();
   if (!wo) return null;
-  const [transitions, notes, photos, procedures, parts, emails] = await Promise.all([
+  const [transitions, notes, photos, procedures, parts, emails, withdrawn] = await Promise.all([
     db
       .selectFrom("work_order_transitions as t")
       .leftJoin("users as u", "u.id", "t.by_user_id")
@@ -351,8 +352,9 @@ export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: 
       .where("shop_id", "=", shopId)
       .orderBy("sent_at")
       .execute(),
+    withdrawnEntries(db, shopId, { workOrderId: id }),
   ]);
-  return { ...wo, transitions, notes, photos, procedures, parts, emails };
+  return { ...wo, transitions, notes, photos, procedures, parts, emails, withdrawn };
 }
 
 /** Whether the work order is one of this shop's. */

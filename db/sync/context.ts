@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type Kysely, type Transaction } from "kysely";
 import type {
+  HoldFacts,
   WorkOrderFacts,
   MeasurementSpecFacts,
   MergeState,
@@ -9,7 +10,7 @@ import type {
   TimerSpecFacts,
   TorqueSpecFacts,
 } from "@/lib/sync/merge-rules";
-import { emptyMergeState } from "@/lib/sync/merge-rules";
+import { boltKey, emptyMergeState } from "@/lib/sync/merge-rules";
 import { partSerialOnWorkOrder } from "@/lib/sync/parts";
 import type { Operation } from "@/lib/sync/operations";
 import type { ReadingSpec } from "@/lib/sync/readings";
@@ -63,6 +64,7 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
       torqueSpecs: new Map(),
       timerSpecs: new Map(),
       sendBacks: [],
+      holds: new Map(),
     });
   }
   const own = jobs.filter((j) => j.shop_id === shopId).map((j) => j.id);
@@ -73,7 +75,7 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
     .selectFrom("job_procedures as jp")
     .innerJoin("template_steps as s", "s.template_version_id", "jp.template_version_id")
     .where("jp.work_order_id", "=", anyId(own));
-  const [steps, measurementSpecs, torqueSpecs, timerSpecs, sendBacks] = await Promise.all([
+  const [steps, measurementSpecs, torqueSpecs, timerSpecs, sendBacks, holds] = await Promise.all([
     pinned
       .select(["jp.work_order_id", "jp.id as job_procedure_id", "s.id", "s.key", "s.title", "s.stage_key"])
       .orderBy("jp.position")
@@ -86,7 +88,18 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
       .execute(),
     pinned
       .innerJoin("torque_specs as t", "t.step_id", "s.id")
-      .select(["jp.work_order_id", "t.id", "t.step_id", "t.label", "t.bolt_count", "t.final_value", "t.unit", "t.passes", "t.angle_passes"])
+      .select([
+        "jp.work_order_id",
+        "t.id",
+        "t.step_id",
+        "t.label",
+        "t.bolt_count",
+        "t.final_value",
+        "t.unit",
+        "t.passes",
+        "t.angle_passes",
+        "t.torque_to_yield",
+      ])
       .execute(),
     pinned.innerJoin("timer_specs as t", "t.step_id", "s.id").select(["jp.work_order_id", "t.id", "t.step_id"]).execute(),
     db
@@ -95,6 +108,14 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
       .select(["so.work_order_id", "d.id", "d.reopened_step_ids", "d.change_seq", "d.decided_at", "d.reason"])
       .where("d.decision", "=", "sent_back")
       .where("so.work_order_id", "=", anyId(own))
+      .execute(),
+    // the step each timer spec holds back: the step of the same template version with its `blocks_step_key`
+    pinned
+      .innerJoin("timer_specs as t", "t.step_id", "s.id")
+      .innerJoin("template_steps as held", (j) =>
+        j.onRef("held.template_version_id", "=", "s.template_version_id").onRef("held.key", "=", "t.blocks_step_key"),
+      )
+      .select(["jp.work_order_id", "t.id", "t.label", "held.id as held_step_id"])
       .execute(),
   ]);
   for (const s of steps) {
@@ -119,7 +140,12 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
       label: t.label,
       boltCount: t.bolt_count,
       passCount: torquePassCount({ finalValue: Number(t.final_value), unit: t.unit, passes: t.passes, anglePasses: t.angle_passes }),
+      torqueToYield: t.torque_to_yield,
     });
+  }
+  for (const h of holds) {
+    const map = out.get(h.work_order_id)!.holds as Map<string, HoldFacts[]>;
+    map.set(h.held_step_id, [...(map.get(h.held_step_id) ?? []), { timerSpecId: h.id, label: h.label }]);
   }
   for (const t of timerSpecs) {
     (out.get(t.work_order_id)!.timerSpecs as Map<string, TimerSpecFacts>).set(t.id, { stepId: t.step_id });
@@ -144,8 +170,9 @@ export async function existingOperations(db: Db, ids: readonly string[]): Promis
 }
 
 /**
- * The readings, timers, photos and part records on file that the operations name (corrections,
- * timer stops, photo and part ids), and the serial-numbered parts already on the jobs that get one.
+ * The records on file the operations name (corrections, timers, photos, part ids, entries to
+ * withdraw), and, for the batch's jobs: every timer (holds), the bolts that count (two tablets on
+ * one bolt) and the serial-numbered parts (a part recorded twice).
  */
 export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise<MergeState> {
   const state = emptyMergeState();
@@ -154,17 +181,25 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
   const attachmentIds = new Set<string>();
   const partIds = new Set<string>();
   const serialJobIds = new Set<string>();
+  const boltJobIds = new Set<string>();
+  const entryIds = new Set<string>();
+  const jobIds = new Set(ops.map((o) => o.workOrderId));
   for (const op of ops) {
     if (op.kind === "measurement.recorded" && op.payload.supersedesId) readingIds.add(op.payload.supersedesId);
-    else if (op.kind === "timer.started" || op.kind === "timer.stopped" || op.kind === "timer.overridden") timerIds.add(op.payload.timerId);
+    else if (op.kind === "timer.started" || op.kind === "timer.stopped" || op.kind === "timer.overridden" || op.kind === "timer.cancelled")
+      timerIds.add(op.payload.timerId);
     else if (op.kind === "photo.queued") attachmentIds.add(op.payload.attachmentId);
+    else if (op.kind === "torque.bolt-confirmed") boltJobIds.add(op.workOrderId);
+    else if (op.kind === "entry.withdrawn") entryIds.add(op.payload.operationId);
     else if (op.kind === "part.fitted") {
       partIds.add(op.payload.partFittedId);
       if (op.payload.serial !== undefined) serialJobIds.add(op.workOrderId);
     }
   }
   const none = Promise.resolve([]);
-  const [readings, timers, attachments, parts, serials] = await Promise.all([
+  const notWithdrawn = (column: "t.id" | "o.id") =>
+    sql<boolean>`NOT EXISTS (SELECT 1 FROM withdrawals w WHERE w.operation_id = ${sql.ref(column)})`;
+  const [readings, timers, attachments, parts, serials, bolts, entries] = await Promise.all([
     readingIds.size
       ? db
           .selectFrom("measurements")
@@ -172,35 +207,106 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
           .where("id", "=", anyId(readingIds))
           .execute()
       : none,
-    timerIds.size
-      ? db.selectFrom("timers").select(["id", "work_order_id", "started_at", "stopped_at"]).where("id", "=", anyId(timerIds)).execute()
-      : none,
+    db
+      .selectFrom("timers")
+      .select([
+        "id",
+        "work_order_id",
+        "timer_spec_id",
+        "started_by",
+        "started_at",
+        "duration_s",
+        "stopped_at",
+        "cancelled_at",
+        "override_at",
+        "override_by",
+      ])
+      .where((eb) => eb.or([eb("id", "=", anyId(timerIds)), eb("work_order_id", "=", anyId(jobIds))]))
+      .execute(),
     attachmentIds.size ? db.selectFrom("attachments").select("id").where("id", "=", anyId(attachmentIds)).execute() : none,
     partIds.size ? db.selectFrom("parts_fitted").select("id").where("id", "=", anyId(partIds)).execute() : none,
     serialJobIds.size
       ? db
-          .selectFrom("parts_fitted")
-          .select(["work_order_id", "part_number", "serial", "step_id"])
-          .where("work_order_id", "=", anyId(serialJobIds))
-          .where("serial", "is not", null)
-          .orderBy("fitted_at")
-          .orderBy("id")
+          .selectFrom("parts_fitted as p")
+          .select(["p.work_order_id", "p.part_number", "p.serial", "p.step_id", "p.operation_id"])
+          .where("p.work_order_id", "=", anyId(serialJobIds))
+          .where("p.serial", "is not", null)
+          .where((eb) =>
+            eb.not(eb.exists(eb.selectFrom("withdrawals as w").select("w.id").whereRef("w.operation_id", "=", "p.operation_id"))),
+          )
+          .orderBy("p.fitted_at")
+          .orderBy("p.id")
+          .execute()
+      : none,
+    boltJobIds.size
+      ? db
+          .selectFrom("torque_records as t")
+          .innerJoin("operations as o", "o.id", "t.id")
+          .select(["t.id", "t.work_order_id", "t.torque_spec_id", "t.pass_index", "t.bolt", "t.device_time", "o.device_id"])
+          .where("t.work_order_id", "=", anyId(boltJobIds))
+          .where(notWithdrawn("t.id"))
+          .orderBy("o.seq")
+          .execute()
+      : none,
+    entryIds.size
+      ? db
+          .selectFrom("operations as o")
+          .leftJoin("torque_records as t", "t.id", "o.id")
+          .leftJoin("parts_fitted as p", "p.operation_id", "o.id")
+          .select((eb) => [
+            "o.id",
+            "o.work_order_id",
+            "o.kind",
+            "o.author_id",
+            "t.torque_spec_id",
+            "t.pass_index",
+            "t.bolt",
+            "p.part_number",
+            "p.serial",
+            eb.not(notWithdrawn("o.id")).as("withdrawn"),
+            eb.exists(eb.selectFrom("review_decisions as d").select("d.id").whereRef("d.sign_off_id", "=", "o.id")).as("decided"),
+          ])
+          .where("o.id", "=", anyId(entryIds))
           .execute()
       : none,
   ]);
   for (const r of readings) state.readings.set(r.id, { workOrderId: r.work_order_id, specId: r.spec_id, readingIndex: r.reading_index });
   for (const t of timers) {
     state.timers.set(t.id, {
+      id: t.id,
       workOrderId: t.work_order_id,
+      timerSpecId: t.timer_spec_id,
+      startedBy: t.started_by,
       startedAtMs: t.started_at.getTime(),
+      durationS: t.duration_s,
       stoppedAtMs: t.stopped_at?.getTime() ?? null,
+      cancelled: t.cancelled_at !== null,
+      // an override from before override times were kept counts from the start
+      overrideAtMs: t.override_at?.getTime() ?? (t.override_by !== null ? t.started_at.getTime() : null),
     });
   }
   for (const a of attachments) state.attachmentIds.add(a.id);
   for (const p of parts) state.partIds.add(p.id);
   for (const p of serials) {
     const key = partSerialOnWorkOrder(p.work_order_id, p.part_number, p.serial!);
-    if (!state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.step_id });
+    if (!state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.step_id, operationId: p.operation_id });
+  }
+  for (const b of bolts) {
+    const key = boltKey(b.work_order_id, b.torque_spec_id, b.pass_index, b.bolt);
+    state.bolts.set(key, [...(state.bolts.get(key) ?? []), { id: b.id, deviceId: b.device_id, deviceTime: b.device_time.toISOString() }]);
+  }
+  for (const e of entries) {
+    state.entries.set(e.id, {
+      workOrderId: e.work_order_id,
+      kind: e.kind,
+      authorId: e.author_id,
+      withdrawn: Boolean(e.withdrawn),
+      ...(e.torque_spec_id !== null ? { boltKey: boltKey(e.work_order_id, e.torque_spec_id, e.pass_index!, e.bolt!) } : {}),
+      ...(e.serial !== null && e.part_number !== null
+        ? { serialKey: partSerialOnWorkOrder(e.work_order_id, e.part_number, e.serial) }
+        : {}),
+      ...(e.kind === "stage.signed-off" ? { decided: Boolean(e.decided) } : {}),
+    });
   }
   return state;
 }

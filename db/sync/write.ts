@@ -54,15 +54,15 @@ export async function lockShopForSync(trx: Tx, shopId: string): Promise<void> {
 }
 
 /**
- * Writes the kept operations in ONE statement: the JSON array is parsed once (json_to_recordset),
- * then data-modifying CTEs insert into `operations` (in stamp order, ON CONFLICT (id) DO NOTHING)
- * and, for the rows actually inserted, into the read tables and the audit log. Foreign keys are
- * checked at the end of the statement, so a read-table row may name an operation inserted beside it.
- * Returns the ids inserted (fewer than kept only if another transaction stored an id meanwhile).
- *
- * Timers: a timer started in this batch is inserted already stopped at the earliest stop the batch
- * holds for it (CTEs cannot see each other's rows); stops of timers on file update them, keeping
- * the earliest stop. Overrides are settled after this statement (`applyFirstOverrides`).
+ * Writes the kept operations: ONE statement for the operations, the read tables and the audit log,
+ * then (only when the batch holds any) one statement for timer stops, cancels and overrides.
+ * In the first, the JSON array is parsed once (json_to_recordset), then data-modifying CTEs insert
+ * into `operations` (in stamp order, ON CONFLICT (id) DO NOTHING) and, for the rows actually
+ * inserted, into the read tables and the audit log. Foreign keys are checked at the end of the
+ * statement, so a read-table row may name an operation inserted beside it. The timer statement
+ * runs second because CTEs of one statement cannot see each other's rows (a timer started and
+ * stopped in the same batch). Returns the ids inserted (fewer than kept only if another
+ * transaction stored an id meanwhile). Overrides are settled after, by stamp (`applyFirstOverrides`).
  *
  * Each row is audited under its own author: a held operation applied now was sent by its author,
  * perhaps from another tablet, not by whoever brought the record it waited for.
@@ -79,14 +79,13 @@ export async function writeKept(
     const { op } = k;
     let verdict: string | null = null;
     let bikeId: string | null = null;
-    let timerStoppedAt: string | null = null;
+    let targetKind: string | null = null;
     if (op.kind === "measurement.recorded") {
       verdict = readingVerdict(op.payload.value, op.payload.unit, jobs.get(op.workOrderId)!.measurementSpecs.get(op.payload.specId)!);
     } else if (op.kind === "photo.queued") {
       bikeId = jobs.get(op.workOrderId)!.bikeId;
-    } else if (op.kind === "timer.started") {
-      const stopped = state.timers.get(op.payload.timerId)?.stoppedAtMs ?? null;
-      timerStoppedAt = stopped === null ? null : new Date(stopped).toISOString();
+    } else if (op.kind === "entry.withdrawn") {
+      targetKind = state.entries.get(op.payload.operationId)?.kind ?? null;
     }
     return {
       ord,
@@ -102,7 +101,7 @@ export async function writeKept(
       flag_reason: flagReason(k),
       verdict,
       bike_id: bikeId,
-      timer_stopped_at: timerStoppedAt,
+      target_kind: targetKind,
     };
   });
   const columns = recordset<(typeof rows)[number]>({
@@ -119,16 +118,16 @@ export async function writeKept(
     flag_reason: "text",
     verdict: "text",
     bike_id: "uuid",
-    timer_stopped_at: "timestamptz",
+    target_kind: "text",
   });
   const step = payloadOf("step.completed");
   const reading = payloadOf("measurement.recorded");
   const torque = payloadOf("torque.bolt-confirmed");
   const timer = payloadOf("timer.started");
-  const stop = payloadOf("timer.stopped");
   const photo = payloadOf("photo.queued");
   const signOff = payloadOf("stage.signed-off");
   const part = payloadOf("part.fitted");
+  const withdrawal = payloadOf("entry.withdrawn");
   const r = await sql<{ id: string }>`
     WITH x AS MATERIALIZED (
       SELECT * FROM json_to_recordset(${JSON.stringify(rows)}::json) AS x(${columns})
@@ -147,6 +146,7 @@ export async function writeKept(
       FROM y x WHERE x.kind = 'step.completed'
     ),
     readings AS (
+      -- the value goes in as the decimal text typed: numeric keeps its scale ("0.030" stays "0.030")
       INSERT INTO ${into("measurements", ["id", "work_order_id", "step_id", "spec_id", "reading_index", "value", "unit", "verdict", "note", "supersedes_id", "recorded_by", "device_id", "device_time", "stamp"])}
       SELECT x.id, x.work_order_id, ${reading("stepId", "uuid")}, ${reading("specId", "uuid")}, ${reading("readingIndex", "int")},
         ${reading("value", "numeric")}, ${reading("unit", "text")}, x.verdict, COALESCE(${reading("note", "text")}, ''), ${reading("supersedesId", "uuid")},
@@ -160,28 +160,16 @@ export async function writeKept(
       FROM y x WHERE x.kind = 'torque.bolt-confirmed'
     ),
     timer_starts AS (
-      INSERT INTO ${into("timers", ["id", "work_order_id", "step_id", "timer_spec_id", "label", "duration_s", "started_at", "started_by", "stopped_at"])}
+      INSERT INTO ${into("timers", ["id", "work_order_id", "step_id", "timer_spec_id", "label", "duration_s", "started_at", "started_by"])}
       SELECT ${timer("timerId", "uuid")}, x.work_order_id, ${timer("stepId", "uuid")}, ${timer("timerSpecId", "uuid")}, ${timer("label", "text")},
-        ${timer("durationS", "int")}, ${timer("startedAt", "timestamptz")}, x.author_id, x.timer_stopped_at
-      FROM y x
-      WHERE x.kind = 'timer.started'
-    ),
-    timer_stops AS (
-      UPDATE timers t SET stopped_at = LEAST(COALESCE(t.stopped_at, s.at), s.at)
-      FROM (
-        SELECT ${stop("timerId", "uuid")} AS timer_id, min(${stop("stoppedAt", "timestamptz")}) AS at
-        FROM y x
-        WHERE x.kind = 'timer.stopped'
-          AND NOT EXISTS (SELECT 1 FROM y s WHERE s.kind = 'timer.started' AND s.payload->>'timerId' = x.payload->>'timerId')
-        GROUP BY 1
-      ) s
-      WHERE t.id = s.timer_id
+        ${timer("durationS", "int")}, ${timer("startedAt", "timestamptz")}, x.author_id
+      FROM y x WHERE x.kind = 'timer.started'
     ),
     photos AS (
-      INSERT INTO ${into("attachments", ["id", "shop_id", "work_order_id", "bike_id", "step_id", "purpose", "object_key", "content_type", "byte_size", "caption", "uploaded_by", "awaiting_upload"])}
+      INSERT INTO ${into("attachments", ["id", "shop_id", "work_order_id", "bike_id", "step_id", "purpose", "object_key", "content_type", "byte_size", "caption", "uploaded_by", "awaiting_upload", "operation_id"])}
       SELECT ${photo("attachmentId", "uuid")}, ${shopId}::uuid, x.work_order_id, x.bike_id, ${photo("stepId", "uuid")}, 'step',
         'shops/' || ${shopId}::text || '/work-orders/' || x.work_order_id || '/photos/' || ${photo("attachmentId", "text")},
-        ${photo("contentType", "text")}, ${photo("byteSize", "int")}, COALESCE(${photo("caption", "text")}, ''), x.author_id, true
+        ${photo("contentType", "text")}, ${photo("byteSize", "int")}, COALESCE(${photo("caption", "text")}, ''), x.author_id, true, x.id
       FROM y x WHERE x.kind = 'photo.queued'
     ),
     sign_offs AS (
@@ -196,6 +184,15 @@ export async function writeKept(
         ${part("quantity", "int")}, x.author_id, x.device_time, x.id
       FROM y x WHERE x.kind = 'part.fitted'
     ),
+    withdrawn AS (
+      -- the first withdrawal of an entry stands; later ones stay in the operations and the audit log
+      INSERT INTO ${into("withdrawals", ["id", "work_order_id", "operation_id", "target_kind", "withdrawn_by", "reason", "device_time"])}
+      SELECT DISTINCT ON (${withdrawal("operationId", "uuid")}) x.id, x.work_order_id, ${withdrawal("operationId", "uuid")}, x.target_kind,
+        x.author_id, ${withdrawal("reason", "text")}, x.device_time
+      FROM y x WHERE x.kind = 'entry.withdrawn'
+      ORDER BY ${withdrawal("operationId", "uuid")}, x.ord
+      ON CONFLICT (operation_id) DO NOTHING
+    ),
     audit AS (
       INSERT INTO ${into("audit_log", ["shop_id", "actor_id", "device_id", "action", "entity", "entity_id", "work_order_id", "outcome", "reason", "detail"])}
       SELECT ${shopId}::uuid, x.author_id, x.device_id, 'sync.' || x.kind, 'operation', x.id::text, x.work_order_id,
@@ -204,7 +201,67 @@ export async function writeKept(
     )
     SELECT id FROM ops
   `.execute(trx);
-  return new Set(r.rows.map((o) => o.id));
+  const inserted = new Set(r.rows.map((o) => o.id));
+  await writeTimerEvents(
+    trx,
+    kept.map((k) => k.op).filter((op) => inserted.has(op.id)),
+  );
+  return inserted;
+}
+
+/**
+ * Timer stops, cancels and overrides of the batch, in one UPDATE: the earliest stop is kept (with
+ * who and why), the first cancel and the first override stand; none replaces what is on file.
+ */
+async function writeTimerEvents(trx: Tx, ops: readonly Operation[]): Promise<void> {
+  const events = ops.flatMap((op, ord) => {
+    const base = { ord, actor: op.authorId };
+    switch (op.kind) {
+      case "timer.stopped":
+        return [{ ...base, timer_id: op.payload.timerId, kind: "stop", at: op.payload.stoppedAt, reason: op.payload.reason ?? null }];
+      case "timer.cancelled":
+        return [{ ...base, timer_id: op.payload.timerId, kind: "cancel", at: op.deviceTime, reason: op.payload.reason }];
+      case "timer.overridden":
+        return [{ ...base, timer_id: op.payload.timerId, kind: "override", at: op.deviceTime, reason: op.payload.reason }];
+      default:
+        return [];
+    }
+  });
+  if (!events.length) return;
+  const columns = recordset<(typeof events)[number]>({
+    ord: "int",
+    actor: "uuid",
+    timer_id: "uuid",
+    kind: "text",
+    at: "timestamptz",
+    reason: "text",
+  });
+  const first = (field: string, kind: string, order: string) =>
+    sql.raw(`(array_agg(e.${field} ORDER BY ${order}) FILTER (WHERE e.kind = '${kind}'))[1]`);
+  await sql`
+    WITH e AS (SELECT * FROM json_to_recordset(${JSON.stringify(events)}::json) AS e(${columns})),
+    a AS (
+      SELECT e.timer_id,
+        ${first("at", "stop", "e.at, e.ord")} AS stop_at, ${first("actor", "stop", "e.at, e.ord")} AS stop_by,
+        ${first("reason", "stop", "e.at, e.ord")} AS stop_reason,
+        ${first("at", "cancel", "e.ord")} AS cancel_at, ${first("actor", "cancel", "e.ord")} AS cancel_by,
+        ${first("reason", "cancel", "e.ord")} AS cancel_reason,
+        ${first("at", "override", "e.ord")} AS override_at, ${first("actor", "override", "e.ord")} AS override_by,
+        ${first("reason", "override", "e.ord")} AS override_reason
+      FROM e GROUP BY e.timer_id
+    )
+    UPDATE timers t SET
+      stopped_at = CASE WHEN a.stop_at IS NOT NULL AND (t.stopped_at IS NULL OR a.stop_at < t.stopped_at) THEN a.stop_at ELSE t.stopped_at END,
+      stopped_by = CASE WHEN a.stop_at IS NOT NULL AND (t.stopped_at IS NULL OR a.stop_at < t.stopped_at) THEN a.stop_by ELSE t.stopped_by END,
+      stop_reason = CASE WHEN a.stop_at IS NOT NULL AND (t.stopped_at IS NULL OR a.stop_at < t.stopped_at) THEN a.stop_reason ELSE t.stop_reason END,
+      cancelled_at = COALESCE(t.cancelled_at, a.cancel_at),
+      cancelled_by = CASE WHEN t.cancelled_at IS NULL THEN a.cancel_by ELSE t.cancelled_by END,
+      cancel_reason = CASE WHEN t.cancelled_at IS NULL THEN a.cancel_reason ELSE t.cancel_reason END,
+      override_by = COALESCE(t.override_by, a.override_by),
+      override_reason = CASE WHEN t.override_by IS NULL THEN a.override_reason ELSE t.override_reason END,
+      override_at = CASE WHEN t.override_by IS NULL THEN a.override_at ELSE t.override_at END
+    FROM a WHERE t.id = a.timer_id
+  `.execute(trx);
 }
 
 /**
@@ -215,9 +272,9 @@ export async function writeKept(
 export async function applyFirstOverrides(trx: Tx, timerIds: readonly string[]): Promise<void> {
   if (!timerIds.length) return;
   await sql`
-    UPDATE timers t SET override_by = o.author_id, override_reason = o.payload->>'reason'
+    UPDATE timers t SET override_by = o.author_id, override_reason = o.payload->>'reason', override_at = o.device_time
     FROM (
-      SELECT DISTINCT ON (payload->>'timerId') (payload->>'timerId')::uuid AS timer_id, author_id, payload
+      SELECT DISTINCT ON (payload->>'timerId') (payload->>'timerId')::uuid AS timer_id, author_id, payload, device_time
       FROM operations
       WHERE kind LIKE 'timer.%' AND kind = 'timer.overridden' AND payload->>'timerId' = ANY(${[...new Set(timerIds)]}::text[])
       ORDER BY payload->>'timerId', stamp COLLATE "C", id

@@ -8,7 +8,8 @@ import type { DecisionInput } from "./decision-input";
 
 export interface DecisionFacts {
   actor: { id: string; role: Role };
-  signOff: { id: string; signedBy: string; stageTitle: string };
+  /** `withdrawn`: taken back by its author or a supervisor (the stage waits for a new sign-off). */
+  signOff: { id: string; signedBy: string; stageTitle: string; withdrawn?: boolean };
   job: { number: number; closed: boolean };
   /** The newest sign-off of the same stage. */
   latestSignOffId: string;
@@ -34,6 +35,9 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
   if (!canReach(f.actor.role, "decide")) return refuse(403, `Your role (${f.actor.role}) may not approve or send back work.`);
   if (f.signOff.signedBy === f.actor.id) {
     return refuse(403, "You signed this stage off yourself: another supervisor or the office must review it.");
+  }
+  if (f.signOff.withdrawn) {
+    return refuse(409, `This sign-off of "${f.signOff.stageTitle}" was withdrawn: the stage waits for a new sign-off to review.`);
   }
   if (f.latestSignOffId !== f.signOff.id) {
     return refuse(409, `"${f.signOff.stageTitle}" has been signed off again since; review the newest sign-off instead.`);

@@ -10,6 +10,7 @@ import { expectedReadings } from "../procedures/spec-counts";
 import { torqueStages } from "@/lib/calc/torque-stages";
 import { compareStamps } from "@/lib/sync/hlc";
 import { currentReadings } from "@/lib/sync/readings";
+import { decimalOfNumber } from "@/lib/sync/reading-value";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 
 type State = JobSnapshot["state"];
@@ -69,9 +70,17 @@ export interface Person {
   name: string;
 }
 
+/** Who withdrew an entry, when and why (the entry stays on the record, marked). */
+export interface WithdrawnLine {
+  by: Person;
+  at: string;
+  reason: string;
+}
+
 export interface ReadingLine {
   id: string;
-  value: number;
+  /** Exactly as typed and stored ("0.030"). */
+  value: string;
   unit: MeasurementUnit;
   verdict: Verdict;
   note: string;
@@ -107,6 +116,18 @@ export interface SpecView {
   spots: SpotView[];
 }
 
+/** One bolt record of one pass, as the supervisor reads it. */
+export interface BoltLine {
+  id: string;
+  by: Person;
+  deviceTime: string;
+  receivedAt: string | null;
+  deviceId: string | null;
+  wrench: string | null;
+  flagReason: string | null;
+  withdrawn: WithdrawnLine | null;
+}
+
 export interface TorqueView {
   id: string;
   label: string;
@@ -118,8 +139,16 @@ export interface TorqueView {
   passes: Array<{
     index: number;
     label: string;
-    bolts: Array<{ bolt: number; done: { by: Person; deviceTime: string; receivedAt: string | null; wrench: string | null } | null }>;
+    bolts: Array<{
+      bolt: number;
+      /** The record that counts (the first one not withdrawn), or null when the bolt is still to do. */
+      done: BoltLine | null;
+      /** Every record of this bolt and pass, withdrawn ones too, oldest first. */
+      records: BoltLine[];
+    }>;
   }>;
+  /** Bolts of a pass recorded more than once (withdrawn records left out): two tablets on one bolt, or one tablet twice. */
+  repeated: Array<{ passIndex: number; bolt: number; records: BoltLine[] }>;
   complete: boolean;
 }
 
@@ -135,6 +164,7 @@ export interface StepReview {
     receivedAt: string;
     deviceId: string | null;
     flagReason: string | null;
+    withdrawn: WithdrawnLine | null;
   }>;
   specs: SpecView[];
   torque: TorqueView[];
@@ -145,11 +175,23 @@ export interface StepReview {
     startedAt: string;
     startedBy: Person;
     stoppedAt: string | null;
+    stop: { by: Person | null; reason: string | null } | null;
+    cancelled: { at: string; by: Person | null; reason: string } | null;
     override: { by: Person; reason: string } | null;
   }>;
-  photos: Array<{ id: string; contentType: string; byteSize: number; caption: string; awaitingUpload: boolean; createdAt: string }>;
-  /** Parts fitted at this step, with who fitted them (null: not a user of the shop) and any flag of the sync. */
-  parts: Array<Omit<State["parts"][number], "stepId" | "fittedBy" | "flagged"> & { by: Person | null }>;
+  photos: Array<{
+    id: string;
+    contentType: string;
+    byteSize: number;
+    caption: string;
+    awaitingUpload: boolean;
+    createdAt: string;
+    withdrawn: WithdrawnLine | null;
+  }>;
+  /** Parts fitted at this step, with who fitted them (null: not a user of the shop), any flag of the sync and any withdrawal. */
+  parts: Array<
+    Omit<State["parts"][number], "stepId" | "fittedBy" | "flagged" | "operationId"> & { by: Person | null; withdrawn: WithdrawnLine | null }
+  >;
   /** A send-back that reopened this step, latest first. */
   sentBack: Array<{ reason: string; decidedAt: string; by: Person }>;
 }
@@ -160,7 +202,7 @@ export interface OutOfTolerance {
   stepTitle: string;
   specLabel: string;
   readingLabel: string;
-  value: number;
+  value: string;
   unit: string;
   verdict: "low" | "high";
   min: number;
@@ -170,7 +212,11 @@ export interface OutOfTolerance {
 }
 
 export interface StageReview {
-  signOff: Omit<SignOffFact, "signedBy"> & { by: Person; isLatest: boolean };
+  signOff: Omit<SignOffFact, "signedBy"> & { by: Person; isLatest: boolean; withdrawn: WithdrawnLine | null };
+  /** Torque-to-yield bolts recorded twice in this stage: shown first, loud. */
+  stretchBoltsTwice: Array<{ stepTitle: string; specLabel: string; passIndex: number; bolt: number; records: BoltLine[] }>;
+  /** Entries of this stage withdrawn (they stay on the record, marked). */
+  withdrawnCount: number;
   stage: { jobProcedureId: string; key: string; title: string; procedureName: string };
   steps: StepReview[];
   outOfTolerance: OutOfTolerance[];
@@ -202,6 +248,11 @@ export function buildStageReview(snapshot: JobSnapshot, extras: ReviewExtras, si
 
   const person = (id: string): Person => ({ id, name: extras.names.get(id) ?? "(unknown user)" });
   const state: State = snapshot.state;
+  const withdrawals = new Map<string, WithdrawnLine>();
+  for (const w of state.withdrawals ?? []) {
+    if (!withdrawals.has(w.operationId)) withdrawals.set(w.operationId, { by: person(w.withdrawnBy), at: w.deviceTime, reason: w.reason });
+  }
+  const withdrawnOf = (operationId: string | null | undefined) => (operationId ? (withdrawals.get(operationId) ?? null) : null);
   const acceptanceOf = new Map(extras.acceptances.map((a) => [a.measurementId, a]));
   const supersededBy = new Map<string, string>();
   for (const r of state.readings) if (r.supersedesId) supersededBy.set(r.supersedesId, r.id);
@@ -211,7 +262,7 @@ export function buildStageReview(snapshot: JobSnapshot, extras: ReviewExtras, si
     const a = acceptanceOf.get(r.id);
     return {
       id: r.id,
-      value: r.value,
+      value: r.valueText ?? decimalOfNumber(r.value) ?? String(r.value),
       unit: r.unit,
       verdict: r.verdict,
       note: r.note,
@@ -234,7 +285,9 @@ export function buildStageReview(snapshot: JobSnapshot, extras: ReviewExtras, si
   for (const p of snapshot.procedures) for (const s of p.stages) for (const st of s.steps) stepNumbers.set(st.id, ++n);
 
   const sendBacks = extras.decisions.filter((d) => d.decision === "sent_back");
-  const steps = stage.steps.map((step) => stepReview(step, stepNumbers.get(step.id) ?? 0, state, extras, line, person, sendBacks));
+  const steps = stage.steps.map((step) =>
+    stepReview(step, stepNumbers.get(step.id) ?? 0, state, extras, line, person, sendBacks, withdrawnOf),
+  );
 
   const outOfTolerance: OutOfTolerance[] = [];
   for (const s of steps) {
@@ -268,9 +321,28 @@ export function buildStageReview(snapshot: JobSnapshot, extras: ReviewExtras, si
   const decisionsOf = (id: string) =>
     extras.decisions.filter((d) => d.signOffId === id).sort((a, b) => Number(BigInt(a.seq) - BigInt(b.seq)));
 
+  const stretchBoltsTwice = steps.flatMap((s) =>
+    s.torque.filter((t) => t.torqueToYield).flatMap((t) => t.repeated.map((r) => ({ stepTitle: s.title, specLabel: t.label, ...r }))),
+  );
+  const withdrawnCount =
+    steps.reduce(
+      (n, s) =>
+        n +
+        s.completions.filter((c) => c.withdrawn).length +
+        s.photos.filter((p) => p.withdrawn).length +
+        s.parts.filter((p) => p.withdrawn).length +
+        s.torque.reduce(
+          (m, t) => m + t.passes.reduce((k, p) => k + p.bolts.reduce((j, b) => j + b.records.filter((r) => r.withdrawn).length, 0), 0),
+          0,
+        ),
+      0,
+    ) + sameStage.filter((x) => withdrawals.has(x.id)).length;
+
   const { signedBy, ...signOffRest } = signOff;
   return {
-    signOff: { ...signOffRest, by: person(signedBy), isLatest: sameStage[0]?.id === signOff.id },
+    signOff: { ...signOffRest, by: person(signedBy), isLatest: sameStage[0]?.id === signOff.id, withdrawn: withdrawnOf(signOff.id) },
+    stretchBoltsTwice,
+    withdrawnCount,
     stage: { jobProcedureId: procedure.jobProcedureId, key: stage.key, title: stage.title, procedureName: procedure.name },
     steps,
     outOfTolerance,
@@ -301,6 +373,7 @@ function stepReview(
   line: (r: State["readings"][number]) => ReadingLine,
   person: (id: string) => Person,
   sendBacks: readonly DecisionFact[],
+  withdrawnOf: (operationId: string | null | undefined) => WithdrawnLine | null,
 ): StepReview {
   const specs: SpecView[] = step.measurementSpecs.map((spec) => {
     const count = expectedReadings(spec.readingLabels);
@@ -330,26 +403,34 @@ function stepReview(
   });
 
   const torque: TorqueView[] = step.torqueSpecs.map((spec) => {
-    const done = new Map<string, State["torqueRecords"][number]>();
-    for (const t of state.torqueRecords)
-      if (t.torqueSpecId === spec.id && !done.has(`${t.passIndex}:${t.bolt}`)) done.set(`${t.passIndex}:${t.bolt}`, t);
+    const recorded = new Map<string, BoltLine[]>();
+    for (const t of state.torqueRecords) {
+      if (t.torqueSpecId !== spec.id) continue;
+      const key = `${t.passIndex}:${t.bolt}`;
+      recorded.set(key, [
+        ...(recorded.get(key) ?? []),
+        {
+          id: t.id,
+          by: person(t.recordedBy),
+          deviceTime: t.deviceTime,
+          receivedAt: extras.receipts.get(t.id)?.receivedAt ?? null,
+          deviceId: extras.receipts.get(t.id)?.deviceId ?? null,
+          wrench: t.wrenchReading === null ? null : `${t.wrenchReading} ${t.wrenchUnit ?? ""}`.trim(),
+          flagReason: t.flagged ? (t.flagReason ?? null) : null,
+          withdrawn: withdrawnOf(t.id),
+        },
+      ]);
+    }
+    const repeated: TorqueView["repeated"] = [];
     const passes = torqueStages({ finalValue: spec.finalValue, unit: spec.unit, passes: spec.passes, anglePasses: spec.anglePasses }).map(
       (p) => ({
         index: p.index,
         label: p.kind === "torque" ? `${p.target} ${p.unit} (${p.label})` : `turn ${p.label}`,
         bolts: Array.from({ length: spec.boltCount }, (_, i) => {
-          const t = done.get(`${p.index}:${i + 1}`);
-          return {
-            bolt: i + 1,
-            done: t
-              ? {
-                  by: person(t.recordedBy),
-                  deviceTime: t.deviceTime,
-                  receivedAt: extras.receipts.get(t.id)?.receivedAt ?? null,
-                  wrench: t.wrenchReading === null ? null : `${t.wrenchReading} ${t.wrenchUnit ?? ""}`.trim(),
-                }
-              : null,
-          };
+          const records = recorded.get(`${p.index}:${i + 1}`) ?? [];
+          const counting = records.filter((r) => !r.withdrawn);
+          if (counting.length > 1) repeated.push({ passIndex: p.index, bolt: i + 1, records: counting });
+          return { bolt: i + 1, done: counting[0] ?? null, records };
         }),
       }),
     );
@@ -362,6 +443,7 @@ function stepReview(
       boltCount: spec.boltCount,
       torqueToYield: spec.torqueToYield,
       passes,
+      repeated,
       complete: passes.every((p) => p.bolts.every((b) => b.done)),
     };
   });
@@ -380,6 +462,7 @@ function stepReview(
         receivedAt: c.receivedAt,
         deviceId: extras.receipts.get(c.id)?.deviceId ?? null,
         flagReason: c.flagged ? c.flagReason : null,
+        withdrawn: withdrawnOf(c.id),
       })),
     specs,
     torque,
@@ -392,12 +475,23 @@ function stepReview(
         startedAt: t.startedAt,
         startedBy: person(t.startedBy),
         stoppedAt: t.stoppedAt,
+        stop: t.stoppedAt ? { by: t.stoppedBy ? person(t.stoppedBy) : null, reason: t.stopReason ?? null } : null,
+        cancelled:
+          t.cancelledAt && t.cancelReason
+            ? { at: t.cancelledAt, by: t.cancelledBy ? person(t.cancelledBy) : null, reason: t.cancelReason }
+            : null,
         override: t.overrideReason ? { by: person(t.overrideBy ?? t.startedBy), reason: t.overrideReason } : null,
       })),
-    photos: state.photos.filter((p) => p.stepId === step.id).map(({ stepId: _s, ...p }) => p),
+    photos: state.photos
+      .filter((p) => p.stepId === step.id)
+      .map(({ stepId: _s, operationId, uploadedBy: _u, ...p }) => ({ ...p, withdrawn: withdrawnOf(operationId) })),
     parts: state.parts
       .filter((p) => p.stepId === step.id)
-      .map(({ stepId: _s, fittedBy, flagged: _f, ...p }) => ({ ...p, by: fittedBy ? person(fittedBy) : null })),
+      .map(({ stepId: _s, fittedBy, flagged: _f, operationId, ...p }) => ({
+        ...p,
+        by: fittedBy ? person(fittedBy) : null,
+        withdrawn: withdrawnOf(operationId),
+      })),
     sentBack: sendBacks
       .filter((d) => d.reopenedStepIds.includes(step.id))
       .sort((a, b) => Number(BigInt(b.seq) - BigInt(a.seq)))

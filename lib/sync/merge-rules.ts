@@ -7,8 +7,10 @@ import { canReach, type Role } from "@/lib/auth/roles";
 import { sameMeasurementKind, type MeasurementUnit } from "@/lib/calc/units";
 import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { compareStamps, parseStamp } from "./hlc";
+import { describeHold, holdAt, runningAt, type HoldTimer } from "./holds";
 import type { Operation } from "./operations";
 import { partSerialOnWorkOrder, repeatedSerialReason, type SerialOnFile } from "./parts";
+import { withdrawalRefusal, withdrawalTarget, type EntryFacts, type TargetLookup } from "./withdrawals";
 
 /** A stamp further ahead of the server's clock than this is kept but flagged (the tablet's clock is likely wrong). */
 export const MAX_CLOCK_AHEAD_MS = 5 * 60_000;
@@ -39,9 +41,16 @@ export interface TorqueSpecFacts {
   boltCount: number;
   /** Torque passes (1 when the spec lists none) plus angle passes. */
   passCount: number;
+  /** Stretch bolts: a bolt recorded twice is flagged louder. */
+  torqueToYield?: boolean;
 }
 export interface TimerSpecFacts {
   stepId: string;
+}
+/** A timer spec holding back a step (its `blocksStepKey`), keyed by the held step. */
+export interface HoldFacts {
+  timerSpecId: string;
+  label: string;
 }
 /** A supervisor's send-back decision on this job. */
 export interface SendBackFacts {
@@ -69,22 +78,55 @@ export interface WorkOrderFacts {
   torqueSpecs: ReadonlyMap<string, TorqueSpecFacts>;
   timerSpecs: ReadonlyMap<string, TimerSpecFacts>;
   sendBacks: readonly SendBackFacts[];
+  /** Held step id → the timer specs that hold it (none when absent). */
+  holds?: ReadonlyMap<string, readonly HoldFacts[]>;
+}
+
+/** A timer on record (or started earlier in the batch), with what the hold rule needs (./holds.ts). */
+export interface TimerFacts extends HoldTimer {
+  workOrderId: string;
+  timerSpecId: string | null;
+  startedBy: string;
+}
+
+/** A torque bolt that counts (not withdrawn), for the "recorded twice" check. */
+export interface BoltOnFile {
+  id: string;
+  deviceId: string;
+  deviceTime: string;
 }
 
 /** Records operations may refer to: those on file that the batch names, plus those accepted earlier in it. */
 export interface MergeState {
   readings: Map<string, { workOrderId: string; specId: string; readingIndex: number }>;
-  timers: Map<string, { workOrderId: string; startedAtMs: number; stoppedAtMs: number | null }>;
+  /** Timers the batch names and every timer of the batch's jobs (for holds). */
+  timers: Map<string, TimerFacts>;
   attachmentIds: Set<string>;
   /** Part record ids (parts_fitted.id) in use. */
   partIds: Set<string>;
   /** Serial-numbered parts on the batch's jobs, by `partSerialOnWorkOrder` (./parts.ts). */
   partSerials: Map<string, SerialOnFile>;
+  /** Torque bolts that count on the batch's jobs, by `boltKey`. */
+  bolts: Map<string, BoltOnFile[]>;
+  /** Entries a withdrawal may name: those the batch names on file, and every one accepted earlier in the batch. */
+  entries: Map<string, EntryFacts>;
 }
 
 export function emptyMergeState(): MergeState {
-  return { readings: new Map(), timers: new Map(), attachmentIds: new Set(), partIds: new Set(), partSerials: new Map() };
+  return {
+    readings: new Map(),
+    timers: new Map(),
+    attachmentIds: new Set(),
+    partIds: new Set(),
+    partSerials: new Map(),
+    bolts: new Map(),
+    entries: new Map(),
+  };
 }
+
+/** The key of one bolt of one pass of one torque spec on one job. */
+export const boltKey = (workOrderId: string, torqueSpecId: string, passIndex: number, bolt: number) =>
+  `${workOrderId}|${torqueSpecId}|${passIndex}:${bolt}`;
 
 export interface DecisionInput {
   actor: Actor;
@@ -176,6 +218,8 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
 
   const problem = checkReferences(op, job, input.state);
   if (typeof problem === "string") return refuse(`${problem} ${NOT_ON_JOB}`);
+  const authority = checkAuthority(op, actor, job, input.state);
+  if (authority) return refuse(authority);
 
   const flags = [...jobFlags(job), ...assignmentFlags(op, actor, job)];
   if (stamp.wallMs > input.nowMs + MAX_CLOCK_AHEAD_MS) {
@@ -184,6 +228,10 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
   }
   flags.push(...sendBackFlags(op, job, stamp.wallMs, input.cursor));
   flags.push(...partFlags(op, job, input.state));
+  flags.push(...repeatedBoltFlags(op, job, input.state));
+  flags.push(...holdFlags(op, job, input.state, stamp.wallMs));
+  flags.push(...secondTimerFlags(op, job, input.state));
+  flags.push(...withdrawalFlags(op, job, input.state));
   // Held only once everything else checks out; the flags are worked out again when it is applied.
   if (problem) return { outcome: "wait", ...problem };
   return flags.length ? { outcome: "flag", reason: flags.join(" ") } : accept;
@@ -201,6 +249,113 @@ function assignmentFlags(op: Operation, actor: Actor, job: WorkOrderFacts): stri
     ];
   }
   return [`Work order #${job.number} is assigned to ${who}, not to the mechanic who recorded this; kept for the supervisor to check.`];
+}
+
+const utc = (iso: string | number) => `${new Date(iso).toISOString().slice(0, 16).replace("T", " ")} UTC`;
+
+/**
+ * Two tablets on one bolt: a bolt and pass already recorded on the job (and not withdrawn) is kept
+ * and flagged; for a torque-to-yield bolt the flag says so first, in capitals.
+ */
+function repeatedBoltFlags(op: Operation, job: WorkOrderFacts, state: MergeState): string[] {
+  if (op.kind !== "torque.bolt-confirmed") return [];
+  const p = op.payload;
+  const earlier = state.bolts.get(boltKey(job.id, p.torqueSpecId, p.passIndex, p.bolt)) ?? [];
+  if (!earlier.length) return [];
+  const spec = job.torqueSpecs.get(p.torqueSpecId)!;
+  const first = earlier[0];
+  const what = `Bolt ${p.bolt}, pass ${p.passIndex} of “${spec.label}” was already recorded (tablet ${first.deviceId}, ${utc(first.deviceTime)}) and is recorded again`;
+  return spec.torqueToYield
+    ? [
+        `TORQUE-TO-YIELD BOLT RECORDED TWICE: ${what}. A stretch bolt tightened again may be past its yield point: check it, and fit a new bolt if in doubt.`,
+      ]
+    : [`${what}: check it was not tightened twice.`];
+}
+
+/** The timers of a job for one timer spec. */
+function timersOfSpec(state: MergeState, jobId: string, timerSpecId: string): TimerFacts[] {
+  return [...state.timers.values()].filter((t) => t.workOrderId === jobId && t.timerSpecId === timerSpecId);
+}
+
+/** The step an operation records work on, when it is work a hold stops (./holds.ts). */
+function heldWorkStep(op: Operation): string | null {
+  switch (op.kind) {
+    case "step.completed":
+    case "torque.bolt-confirmed":
+    case "measurement.recorded":
+    case "part.fitted":
+      return op.payload.stepId;
+    default:
+      return null;
+  }
+}
+
+/** Holds hold: work on a held step stamped before the hold ended (or was overridden) is kept and flagged. */
+function holdFlags(op: Operation, job: WorkOrderFacts, state: MergeState, atMs: number): string[] {
+  const stepId = heldWorkStep(op);
+  const holds = stepId === null ? undefined : job.holds?.get(stepId);
+  if (!holds?.length) return [];
+  const out: string[] = [];
+  for (const h of holds) {
+    const hold = holdAt(timersOfSpec(state, job.id, h.timerSpecId), atMs);
+    if (!hold.held) continue;
+    const step = job.steps.get(stepId!)!;
+    out.push(
+      `Step “${step.title}” was on hold when this was recorded (${utc(atMs)}): ${describeHold(h.label, hold)}. Check the wait was kept before this work.`,
+    );
+  }
+  return out;
+}
+
+/**
+ * Two tablets starting the same wait: both timers are kept (none is merged away) and the second is
+ * flagged; the step it holds waits for the later one (./holds.ts).
+ */
+function secondTimerFlags(op: Operation, job: WorkOrderFacts, state: MergeState): string[] {
+  if (op.kind !== "timer.started" || op.payload.timerSpecId === undefined) return [];
+  const at = Date.parse(op.payload.startedAt);
+  const other = timersOfSpec(state, job.id, op.payload.timerSpecId).find((t) => t.id !== op.payload.timerId && runningAt(t, at));
+  if (!other) return [];
+  return [
+    `A second “${op.payload.label}” timer was started while one started at ${utc(other.startedAtMs)} was still running: both are kept, and the step it holds waits for the later one to run out.`,
+  ];
+}
+
+/** A sign-off withdrawn after a supervisor decided on it is flagged: the decision no longer has a sign-off to stand on. */
+function withdrawalFlags(op: Operation, job: WorkOrderFacts, state: MergeState): string[] {
+  if (op.kind !== "entry.withdrawn") return [];
+  const entry = state.entries.get(op.payload.operationId);
+  if (entry?.kind === "stage.signed-off" && entry.decided) {
+    return [
+      "This stage sign-off had already been decided on by a supervisor when it was withdrawn: the stage needs a new sign-off and review.",
+    ];
+  }
+  return [];
+}
+
+/** The timer an operation names, on this job. "Not found" may one day mean "not here yet". */
+export function timerTarget(timerId: string, job: { id: string; number: number }, state: MergeState): TargetLookup<TimerFacts> {
+  const timer = state.timers.get(timerId);
+  if (!timer || timer.workOrderId !== job.id)
+    return { found: false, reason: `Timer ${timerId} is not on record on work order #${job.number}.` };
+  return { found: true, target: timer };
+}
+
+/** Who may take something back: withdrawals and timer cancels name an entry of the author's own, or come from a supervisor. */
+function checkAuthority(op: Operation, actor: Actor, job: WorkOrderFacts, state: MergeState): string | null {
+  if (op.kind === "entry.withdrawn") {
+    const found = withdrawalTarget(op.payload.operationId, job, state.entries);
+    return found.found ? withdrawalRefusal(actor, found.target) : found.reason;
+  }
+  if (op.kind === "timer.cancelled") {
+    // a cancel whose timer has not arrived waits for it (checkReferences); its author is checked when it is applied
+    const found = timerTarget(op.payload.timerId, job, state);
+    if (!found.found) return null;
+    if (found.target.startedBy !== actor.id && actor.role !== "supervisor") {
+      return "Only the person who started this timer, or a supervisor, may cancel it: a mechanic cannot cancel someone else's timer.";
+    }
+  }
+  return null;
 }
 
 function jobFlags(job: WorkOrderFacts): string[] {
@@ -256,6 +411,7 @@ export function targetOf(op: Operation): Target | null {
       return op.payload.supersedesId === undefined ? null : { kind: "reading", id: op.payload.supersedesId };
     case "timer.stopped":
     case "timer.overridden":
+    case "timer.cancelled":
       return { kind: "timer", id: op.payload.timerId };
     default:
       return null;
@@ -336,12 +492,15 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
       if (Date.parse(op.payload.stoppedAt) < timer.startedAtMs) return `Timer ${op.payload.timerId} cannot stop before it started.`;
       return null;
     }
-    case "timer.overridden": {
+    case "timer.overridden":
+    case "timer.cancelled": {
       const timer = state.timers.get(op.payload.timerId);
       if (!timer) return waitFor(op, state);
       if (timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
       return null;
     }
+    case "entry.withdrawn":
+      return null; // checkAuthority looks up the entry
     case "photo.queued": {
       const missing = stepMissing(op.payload.stepId);
       if (missing) return missing;
@@ -368,21 +527,63 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
 
 /** Adds what an accepted operation created to the state, so later operations in the batch can name it. */
 export function noteAccepted(op: Operation, state: MergeState): void {
+  const entry: EntryFacts = { workOrderId: op.workOrderId, kind: op.kind, authorId: op.authorId, withdrawn: false };
+  if (!state.entries.has(op.id)) state.entries.set(op.id, entry);
   switch (op.kind) {
     case "measurement.recorded":
       state.readings.set(op.id, { workOrderId: op.workOrderId, specId: op.payload.specId, readingIndex: op.payload.readingIndex });
       return;
+    case "torque.bolt-confirmed": {
+      const key = boltKey(op.workOrderId, op.payload.torqueSpecId, op.payload.passIndex, op.payload.bolt);
+      entry.boltKey = key;
+      state.bolts.set(key, [...(state.bolts.get(key) ?? []), { id: op.id, deviceId: op.deviceId, deviceTime: op.deviceTime }]);
+      return;
+    }
+    case "stage.signed-off":
+      entry.decided = false;
+      return;
+    case "entry.withdrawn": {
+      const target = state.entries.get(op.payload.operationId);
+      if (!target || target.withdrawn) return; // the first withdrawal stands
+      target.withdrawn = true;
+      if (target.boltKey) {
+        const left = (state.bolts.get(target.boltKey) ?? []).filter((b) => b.id !== op.payload.operationId);
+        state.bolts.set(target.boltKey, left);
+      }
+      // a withdrawn part no longer makes a later one with its serial number a repeat
+      if (target.serialKey && state.partSerials.get(target.serialKey)?.operationId === op.payload.operationId) {
+        state.partSerials.delete(target.serialKey);
+      }
+      return;
+    }
     case "timer.started":
       state.timers.set(op.payload.timerId, {
+        id: op.payload.timerId,
         workOrderId: op.workOrderId,
+        timerSpecId: op.payload.timerSpecId ?? null,
+        startedBy: op.authorId,
         startedAtMs: Date.parse(op.payload.startedAt),
+        durationS: op.payload.durationS,
         stoppedAtMs: null,
+        cancelled: false,
+        overrideAtMs: null,
       });
       return;
     case "timer.stopped": {
       const t = state.timers.get(op.payload.timerId);
       const at = Date.parse(op.payload.stoppedAt);
       if (t) t.stoppedAtMs = t.stoppedAtMs === null ? at : Math.min(t.stoppedAtMs, at);
+      return;
+    }
+    case "timer.cancelled": {
+      const t = state.timers.get(op.payload.timerId);
+      if (t) t.cancelled = true;
+      return;
+    }
+    case "timer.overridden": {
+      // the first override stands; it releases the hold from the time it was made
+      const t = state.timers.get(op.payload.timerId);
+      if (t && t.overrideAtMs === null) t.overrideAtMs = Date.parse(op.deviceTime);
       return;
     }
     case "photo.queued":
@@ -392,7 +593,8 @@ export function noteAccepted(op: Operation, state: MergeState): void {
       const p = op.payload;
       state.partIds.add(p.partFittedId);
       const key = p.serial === undefined ? null : partSerialOnWorkOrder(op.workOrderId, p.partNumber, p.serial);
-      if (key !== null && !state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.stepId });
+      if (key !== null) entry.serialKey = key;
+      if (key !== null && !state.partSerials.has(key)) state.partSerials.set(key, { stepId: p.stepId, operationId: op.id });
       return;
     }
     default:

@@ -10,6 +10,7 @@ import { z } from "zod";
 import { MEASUREMENT_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
 import { finiteNumber, isSaneInstant, safeText, saneInstant } from "@/lib/safe-values";
 import { DEVICE_ID_PATTERN, STAMP_PATTERN } from "./hlc";
+import { canonicalDecimal, decimalOfNumber, readingValueProblem } from "./reading-value";
 
 /** Limits of one POST /api/sync. A bigger outbox is sent as several batches (see ./batching.ts). */
 export const SYNC_LIMITS = {
@@ -31,6 +32,8 @@ export const OPERATION_KINDS = [
   "photo.queued",
   "stage.signed-off",
   "part.fitted",
+  "timer.cancelled",
+  "entry.withdrawn",
 ] as const;
 export type OperationKind = (typeof OPERATION_KINDS)[number];
 
@@ -72,19 +75,46 @@ export const cursorSchema = z.string().regex(/^(0|[1-9]\d{0,17})$/, "must be a c
 
 const stepCompletedPayload = z.object({ stepId: id() }).strict();
 
+/**
+ * A reading's value: the decimal text as typed ("0.030"), kept to the digit (./reading-value.ts).
+ * A JSON number from a tablet of an earlier version is still taken, as the decimal it prints as.
+ */
+const readingValue = z
+  .union([z.string(), z.number()], { error: "Value: must be a number as typed on the keypad, e.g. 0.030." })
+  .transform((v, ctx) => {
+    const text = typeof v === "number" ? decimalOfNumber(v) : canonicalDecimal(v);
+    if (text === null) {
+      ctx.addIssue({ code: "custom", message: "Value: must be a plain decimal number as typed on the keypad, e.g. 0.030." });
+      return z.NEVER;
+    }
+    return text;
+  });
+
 const measurementRecordedPayload = z
   .object({
     stepId: id(),
     specId: id(),
     readingIndex: z.number().int().min(0).max(63),
-    /** As read off the instrument: kept exactly, never rounded. */
-    value: finiteNumber({ label: "Reading", min: -MAX_READING, max: MAX_READING }),
+    /** As read off the instrument: kept exactly, trailing zeros included, never rounded. */
+    value: readingValue,
     unit: z.enum(MEASUREMENT_UNITS),
     note: safeText({ label: "Note", max: 1000, multiline: true }).optional(),
     /** The reading this one corrects (it stays on record). */
     supersedesId: id().optional(),
   })
-  .strict();
+  .strict()
+  .superRefine((p, ctx) => {
+    const problem = readingValueProblem(p.value, p.unit);
+    if (problem) ctx.addIssue({ code: "custom", path: ["value"], message: problem });
+  });
+
+/** Largest wrench reading per unit: no fastener on a motorcycle engine comes near (about 2000 N·m). */
+export const WRENCH_READING_LIMIT: Record<(typeof TORQUE_UNITS)[number], number> = {
+  "N·m": 2000,
+  "lbf·ft": 1500,
+  "lbf·in": 18000,
+  "kgf·m": 200,
+};
 
 const torqueBoltConfirmedPayload = z
   .object({
@@ -93,8 +123,8 @@ const torqueBoltConfirmedPayload = z
     passIndex: z.number().int().min(1).max(16),
     bolt: z.number().int().min(1).max(1024),
     /** What a reading wrench showed, when one was used. */
-    wrenchReading: finiteNumber({ label: "Wrench reading", min: 0, max: MAX_WRENCH_READING })
-      .positive("Wrench reading must be more than 0.")
+    wrenchReading: finiteNumber({ label: "Wrench reading", min: 0, max: WRENCH_READING_LIMIT["lbf·in"] })
+      .positive("Wrench reading must be above zero.")
       .optional(),
     wrenchUnit: z.enum(TORQUE_UNITS).optional(),
   })
@@ -102,6 +132,17 @@ const torqueBoltConfirmedPayload = z
   .refine((p) => (p.wrenchReading === undefined) === (p.wrenchUnit === undefined), {
     message: "give wrenchReading and wrenchUnit together, or neither",
     path: ["wrenchUnit"],
+  })
+  .superRefine((p, ctx) => {
+    if (p.wrenchReading === undefined || p.wrenchUnit === undefined) return;
+    const limit = WRENCH_READING_LIMIT[p.wrenchUnit];
+    if (p.wrenchReading > limit) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["wrenchReading"],
+        message: `Wrench reading: ${p.wrenchReading} ${p.wrenchUnit} is beyond any fastener on an engine (the most is ${limit} ${p.wrenchUnit}); check the wrench and type it again.`,
+      });
+    }
   });
 
 const timerStartedPayload = z
@@ -119,15 +160,27 @@ const timerStartedPayload = z
   })
   .strict();
 
-const timerStoppedPayload = z.object({ timerId: id(), stoppedAt: isoTime("Timer stop") }).strict();
+const reasonText = safeText({ label: "Reason", min: 3, max: 500, multiline: true, tooShort: "give the reason in a few words" });
+
+/**
+ * A timer ended before its time (the heat cycle stopped, the cure interrupted), saying why. A
+ * stopped timer never lets the step it holds go ahead early: that step waits for a timer that runs
+ * its full time, or a supervisor's override. `reason` is optional on the wire only so that stops
+ * from tablets of an earlier version (which had no stop button) stay valid; the bench asks for one.
+ */
+const timerStoppedPayload = z.object({ timerId: id(), stoppedAt: isoTime("Timer stop"), reason: reasonText.optional() }).strict();
+
+/** A timer started by mistake (wrong step, started twice): it no longer counts, for the hold or the record. */
+const timerCancelledPayload = z.object({ timerId: id(), reason: reasonText }).strict();
+
+/**
+ * Takes back an entry recorded by mistake: a torque bolt, a step completion, a part fitted, a photo
+ * or a stage sign-off, named by its operation id. The entry stays on record, marked withdrawn.
+ */
+const entryWithdrawnPayload = z.object({ operationId: id(), reason: reasonText }).strict();
 
 /** A supervisor lets the step a timer holds back go ahead before the time is up, saying why. */
-const timerOverriddenPayload = z
-  .object({
-    timerId: id(),
-    reason: safeText({ label: "Reason", min: 3, max: 500, multiline: true, tooShort: "give the reason in a few words" }),
-  })
-  .strict();
+const timerOverriddenPayload = z.object({ timerId: id(), reason: reasonText }).strict();
 
 const photoQueuedPayload = z
   .object({
@@ -209,6 +262,8 @@ export const operationSchema = z.discriminatedUnion("kind", [
   op("photo.queued", photoQueuedPayload),
   op("stage.signed-off", stageSignedOffPayload),
   op("part.fitted", partFittedPayload),
+  op("timer.cancelled", timerCancelledPayload),
+  op("entry.withdrawn", entryWithdrawnPayload),
 ]);
 
 export type Operation = z.output<typeof operationSchema>;

@@ -20,6 +20,8 @@ export const partSerialOnWorkOrder = (workOrderId: string, partNumber: string, s
 export interface SerialOnFile {
   /** The step it was fitted at (null when the office recorded it without one). */
   stepId: string | null;
+  /** The bench operation that recorded it (null or absent when the office did). */
+  operationId?: string | null;
 }
 
 /** The supervisor's flag for a second record of the same serial-numbered part on one job. */

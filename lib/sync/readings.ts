@@ -47,10 +47,14 @@ export interface ReadingSpec {
   nominal: number | null;
 }
 
-/** "low" below min, "high" above max, else "in" (limits are in); exact across mm/in/µm. */
-export function readingVerdict(value: number, unit: MeasurementUnit, spec: ReadingSpec): ToleranceStatus {
+/**
+ * "low" below min, "high" above max, else "in" (limits are in); exact across mm/in/µm. A value
+ * given as its decimal text (./reading-value.ts: at most 15 significant digits) converts to the
+ * number that prints as the same decimal, so the comparison sees exactly what was typed.
+ */
+export function readingVerdict(value: string | number, unit: MeasurementUnit, spec: ReadingSpec): ToleranceStatus {
   return evaluateTolerance(
-    { value, unit },
+    { value: Number(value), unit },
     { unit: spec.unit, min: spec.min, max: spec.max, ...(spec.nominal === null ? {} : { nominal: spec.nominal }) },
   ).status;
 }

@@ -1,13 +1,19 @@
 /**
  * What the bench read endpoints return, for the client to fill IndexedDB. Pure zod schemas and
  * types, shared by db/bench/jobs.ts (which builds them) and the client (which can check them).
- * Numbers from numeric columns (specs, readings) come as JSON numbers, exactly as entered.
+ * Numbers from numeric columns (specs) come as JSON numbers, exactly as entered; a reading comes
+ * as its decimal text too (`valueText`, "0.030"), which is what every screen shows.
+ *
+ * Fields added since a version are added, never changed in type, so a tablet still on an older
+ * version reads a newer snapshot (zod drops the keys it does not know). The server always sends
+ * them; they are optional here because a copy stored on a tablet before a field existed lacks it,
+ * and readers fall back (see lib/work-order-record/).
  */
 import { z } from "zod";
 import { MEASUREMENT_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
 import { BOLT_PATTERNS, cautionSchema, MEASUREMENT_GEOMETRIES, torquePassSchema } from "@/lib/procedures/template-schema";
 import { WORK_ORDER_STATUSES } from "@/lib/work-orders/status";
-import { cursorSchema } from "./operations";
+import { cursorSchema, OPERATION_KINDS } from "./operations";
 import { VERDICTS } from "./readings";
 
 const id = z.uuid();
@@ -127,7 +133,10 @@ const readingSnapshotSchema = z.object({
   stepId: id,
   specId: id,
   readingIndex: z.number().int(),
+  /** The value as a number, for tablets of earlier versions. */
   value: z.number(),
+  /** The value exactly as typed and stored, trailing zeros included ("0.030"). */
+  valueText: z.string().optional(),
   unit: z.enum(MEASUREMENT_UNITS),
   verdict: z.enum(VERDICTS),
   note: z.string(),
@@ -152,6 +161,9 @@ const torqueRecordSnapshotSchema = z.object({
   wrenchUnit: z.string().nullable(),
   recordedBy: id,
   deviceTime: time,
+  /** Marked for the supervisor by the sync (e.g. the bolt and pass were recorded twice). */
+  flagged: z.boolean().optional(),
+  flagReason: z.string().nullable().optional(),
 });
 
 const timerSnapshotSchema = z.object({
@@ -165,6 +177,26 @@ const timerSnapshotSchema = z.object({
   stoppedAt: time.nullable(),
   overrideBy: id.nullable(),
   overrideReason: z.string().nullable(),
+  /** When the override was made (the hold is released from then). */
+  overrideAt: time.nullable().optional(),
+  stoppedBy: id.nullable().optional(),
+  stopReason: z.string().nullable().optional(),
+  /** Cancelled: started by mistake, it no longer counts. */
+  cancelledAt: time.nullable().optional(),
+  cancelledBy: id.nullable().optional(),
+  cancelReason: z.string().nullable().optional(),
+});
+
+/** An entry taken back (`entry.withdrawn`): the entry stays in the snapshot, and this marks it. */
+const withdrawalSnapshotSchema = z.object({
+  id,
+  /** The operation withdrawn (a completion's, bolt's or sign-off's own id; a photo's or part's `operationId`). */
+  operationId: id,
+  kind: z.enum(OPERATION_KINDS),
+  withdrawnBy: id,
+  reason: z.string(),
+  deviceTime: time,
+  receivedAt: time,
 });
 
 const signOffSnapshotSchema = z.object({
@@ -199,6 +231,9 @@ const photoSnapshotSchema = z.object({
   caption: z.string(),
   awaitingUpload: z.boolean(),
   createdAt: time,
+  /** The operation that queued it on a tablet (null for a photo from the office). */
+  operationId: id.nullable().optional(),
+  uploadedBy: id.nullable().optional(),
 });
 
 /** A part fitted to the job: from the bench (`part.fitted`, with any flag) or from the office (no step, perhaps). */
@@ -215,6 +250,8 @@ const partSnapshotSchema = z.object({
   fittedAt: time,
   flagged: z.boolean(),
   flagReason: z.string().nullable(),
+  /** The bench operation that recorded it (null when the office did). */
+  operationId: id.nullable().optional(),
 });
 
 /** GET /api/bench/jobs/[id]: everything the bench needs for one job, and the cursor it is current to. */
@@ -244,6 +281,7 @@ export const jobSnapshotSchema = z.object({
     reviewDecisions: z.array(reviewDecisionSnapshotSchema),
     photos: z.array(photoSnapshotSchema),
     parts: z.array(partSnapshotSchema),
+    withdrawals: z.array(withdrawalSnapshotSchema).optional(),
   }),
   /**
    * The shop's change cursor the snapshot is current to. A device with no cursor yet starts syncing

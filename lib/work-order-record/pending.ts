@@ -17,8 +17,9 @@ function recordedIds(snapshot: Snapshot): Set<string> {
     ...s.signOffs.map((x) => x.id),
     ...s.timers.map((t) => `timer:${t.id}`),
     ...s.photos.map((p) => `photo:${p.id}`),
-    // A snapshot stored before parts were part of it has none.
+    // A snapshot stored before parts (or withdrawals) were part of it has none.
     ...(s.parts ?? []).map((p) => `part:${p.id}`),
+    ...(s.withdrawals ?? []).map((w) => w.id),
   ]);
 }
 
@@ -32,9 +33,10 @@ function recordKey(op: Operation): string | null {
       return `part:${op.payload.partFittedId}`;
     case "timer.stopped":
     case "timer.overridden":
-      return null; // they change a timer row; the snapshot's own stop or override wins (see timers.ts)
+    case "timer.cancelled":
+      return null; // they change a timer row; the snapshot's own stop, cancel or override wins (see timers.ts)
     default:
-      return op.id;
+      return op.id; // a withdrawal that is not the first of its entry is not in the snapshot: it stays drawn, and changes nothing
   }
 }
 

@@ -2,6 +2,7 @@
 import { expectedReadings } from "@/lib/procedures/spec-counts";
 import { compareStamps } from "@/lib/sync/hlc";
 import { readingVerdict } from "@/lib/sync/readings";
+import { decimalOfNumber } from "@/lib/sync/reading-value";
 import type { PendingWork } from "./pending";
 import type { BenchStep, MeasurementSpecView, ReadingView, Snapshot } from "./types";
 
@@ -16,10 +17,15 @@ function findSpec(snapshot: Snapshot, specId: string): MeasurementSpecView | und
   return undefined;
 }
 
-/** Every reading of the work order: server ones, then waiting ones (verdict worked out here). */
+/** Every reading of the work order: server ones, then waiting ones (verdict worked out here), each value as typed. */
 export function readingViews(snapshot: Snapshot, work: PendingWork): ReadingView[] {
   return [
-    ...snapshot.state.readings.map((r) => ({ ...r, pending: false })),
+    // A copy stored before values came as text has the number only: shown as the decimal it prints as.
+    ...snapshot.state.readings.map(({ valueText, ...r }) => ({
+      ...r,
+      value: valueText ?? decimalOfNumber(r.value) ?? String(r.value),
+      pending: false,
+    })),
     ...work.ofKind("measurement.recorded").map((o) => {
       const spec = findSpec(snapshot, o.payload.specId);
       return {

@@ -1,9 +1,9 @@
 /**
  * A stage's sign-off and the supervisor's decision on it. A sign-off stands unless the latest
- * decision sent the stage back after it; then the redone stage needs a new sign-off.
+ * decision sent the stage back after it, or it was withdrawn; then the stage needs a new sign-off.
  */
 import type { PendingWork } from "./pending";
-import type { Snapshot, StageView } from "./types";
+import type { Snapshot, StageView, WithdrawalView } from "./types";
 
 type Decision = Snapshot["state"]["reviewDecisions"][number];
 
@@ -24,20 +24,30 @@ export function decisionOn(decisions: ReadonlyMap<string, Decision>, jobProcedur
   return decisions.get(stageKey(jobProcedureId, key)) ?? null;
 }
 
-/** The sign-off that stands for a stage: one waiting on this tablet, else the latest on record unless a later send-back undid it. */
+/**
+ * The sign-off that stands for a stage: one waiting on this tablet, else the latest on record
+ * unless a later send-back undid it; withdrawn sign-offs are left out.
+ */
 export function standingSignOff(
   snapshot: Snapshot,
   jobProcedureId: string,
   key: string,
   decision: Decision | null,
   work: PendingWork,
+  withdrawn: ReadonlyMap<string, WithdrawalView>,
 ): StageView["signedOff"] {
-  const pending = work.ofKind("stage.signed-off").find((o) => o.payload.jobProcedureId === jobProcedureId && o.payload.stageKey === key);
-  if (pending) return { at: pending.deviceTime, pending: true };
+  const pending = work
+    .ofKind("stage.signed-off")
+    .filter((o) => o.payload.jobProcedureId === jobProcedureId && o.payload.stageKey === key && !withdrawn.has(o.id))
+    .at(-1);
+  if (pending) return { at: pending.deviceTime, pending: true, operationId: pending.id, by: pending.authorId };
   const latest = snapshot.state.signOffs
-    .filter((s) => s.jobProcedureId === jobProcedureId && s.stageKey === key)
+    .filter((s) => s.jobProcedureId === jobProcedureId && s.stageKey === key && !withdrawn.has(s.id))
     .sort((a, b) => (BigInt(a.seq) < BigInt(b.seq) ? 1 : -1))[0];
   if (!latest) return null;
-  const stands = !decision || decision.decision === "approved" || BigInt(latest.seq) > BigInt(decision.seq);
-  return stands ? { at: latest.deviceTime, pending: false } : null;
+  const stands =
+    !decision ||
+    BigInt(latest.seq) > BigInt(decision.seq) ||
+    (decision.decision === "approved" && (decision.signOffId === latest.id || !withdrawn.has(decision.signOffId)));
+  return stands ? { at: latest.deviceTime, pending: false, operationId: latest.id, by: latest.signedBy } : null;
 }

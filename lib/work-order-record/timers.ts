@@ -1,95 +1,140 @@
-/** Cure and heat-cycle timers, worked out from their start time, and the holds they put on later steps. */
+/** Cure and heat-cycle timers, worked out from their start time, and the holds they put on other steps (lib/sync/holds.ts). */
+import { holdAt } from "@/lib/sync/holds";
 import type { PendingWork } from "./pending";
 import type { ProcedureSnapshot, Snapshot, StepView, TimerView } from "./types";
 
-function timerView(
-  id: string,
-  stepId: string,
-  timerSpecId: string | null,
-  label: string,
-  durationS: number,
-  startedAtMs: number,
-  stoppedAtMs: number | null,
-  overrideReason: string | null,
-  pending: boolean,
-  nowMs: number,
-): TimerView {
-  const endsAtMs = startedAtMs + durationS * 1000;
-  const remainingMs = Math.max(0, endsAtMs - nowMs);
+interface TimerFacts {
+  id: string;
+  stepId: string;
+  timerSpecId: string | null;
+  label: string;
+  durationS: number;
+  startedAtMs: number;
+  startedBy: string;
+  stoppedAtMs: number | null;
+  stopReason: string | null;
+  overrideReason: string | null;
+  overrideAtMs: number | null;
+  cancelReason: string | null;
+  pending: boolean;
+}
+
+function timerView(t: TimerFacts, nowMs: number): TimerView {
+  const endsAtMs = t.startedAtMs + t.durationS * 1000;
+  const stoppedEarly = t.stoppedAtMs !== null && t.stoppedAtMs < endsAtMs;
+  const cancelled = t.cancelReason === null ? null : { reason: t.cancelReason };
+  const overridden = t.overrideReason !== null;
+  const remainingMs = cancelled || stoppedEarly || overridden ? 0 : Math.max(0, endsAtMs - nowMs);
   return {
-    id,
-    stepId,
-    timerSpecId,
-    label,
-    durationS,
-    startedAtMs,
+    id: t.id,
+    stepId: t.stepId,
+    timerSpecId: t.timerSpecId,
+    label: t.label,
+    durationS: t.durationS,
+    startedAtMs: t.startedAtMs,
+    startedBy: t.startedBy,
     endsAtMs,
-    stoppedAtMs,
-    overrideReason,
+    stoppedAtMs: t.stoppedAtMs,
+    stopReason: t.stopReason,
+    stoppedEarly,
+    overrideReason: t.overrideReason,
+    overrideAtMs: t.overrideAtMs,
+    cancelled,
     remainingMs,
-    done: remainingMs === 0 || overrideReason !== null,
-    pending,
+    done: !cancelled && (overridden || (!stoppedEarly && endsAtMs <= nowMs)),
+    pending: t.pending,
   };
 }
 
-/** Every timer of the work order: on record (with any stop or override still waiting here), then waiting ones. */
+const ms = (iso: string | null | undefined) => (iso ? Date.parse(iso) : null);
+
+/** Every timer of the work order: on record (with any stop, cancel or override still waiting here), then waiting ones. */
 export function timerViews(snapshot: Snapshot, work: PendingWork, nowMs: number): TimerView[] {
-  const stopped = new Map<string, number>();
-  for (const o of work.ofKind("timer.stopped")) stopped.set(o.payload.timerId, Date.parse(o.payload.stoppedAt));
-  const overridden = new Map<string, string>();
+  const stopped = new Map<string, { at: number; reason: string | null }>();
+  for (const o of work.ofKind("timer.stopped")) {
+    const at = Date.parse(o.payload.stoppedAt);
+    const held = stopped.get(o.payload.timerId);
+    if (!held || at < held.at) stopped.set(o.payload.timerId, { at, reason: o.payload.reason ?? null });
+  }
+  const overridden = new Map<string, { reason: string; at: number }>();
   for (const o of work.ofKind("timer.overridden"))
-    if (!overridden.has(o.payload.timerId)) overridden.set(o.payload.timerId, o.payload.reason);
-  return [
-    ...snapshot.state.timers.map((t) =>
-      timerView(
-        t.id,
-        t.stepId,
-        t.timerSpecId,
-        t.label,
-        t.durationS,
-        Date.parse(t.startedAt),
-        t.stoppedAt ? Date.parse(t.stoppedAt) : (stopped.get(t.id) ?? null),
-        t.overrideReason ?? overridden.get(t.id) ?? null,
-        false,
-        nowMs,
-      ),
-    ),
-    ...work
-      .ofKind("timer.started")
-      .map((o) =>
-        timerView(
-          o.payload.timerId,
-          o.payload.stepId,
-          o.payload.timerSpecId ?? null,
-          o.payload.label,
-          o.payload.durationS,
-          Date.parse(o.payload.startedAt),
-          stopped.get(o.payload.timerId) ?? null,
-          overridden.get(o.payload.timerId) ?? null,
-          true,
-          nowMs,
-        ),
-      ),
-  ];
+    if (!overridden.has(o.payload.timerId)) overridden.set(o.payload.timerId, { reason: o.payload.reason, at: Date.parse(o.deviceTime) });
+  const cancelled = new Map<string, string>();
+  for (const o of work.ofKind("timer.cancelled")) if (!cancelled.has(o.payload.timerId)) cancelled.set(o.payload.timerId, o.payload.reason);
+
+  const fromRecord = snapshot.state.timers.map((t): TimerFacts => {
+    const stop = t.stoppedAt ? { at: Date.parse(t.stoppedAt), reason: t.stopReason ?? null } : (stopped.get(t.id) ?? null);
+    const override = t.overrideReason
+      ? { reason: t.overrideReason, at: ms(t.overrideAt) ?? Date.parse(t.startedAt) }
+      : overridden.get(t.id);
+    return {
+      id: t.id,
+      stepId: t.stepId,
+      timerSpecId: t.timerSpecId,
+      label: t.label,
+      durationS: t.durationS,
+      startedAtMs: Date.parse(t.startedAt),
+      startedBy: t.startedBy,
+      stoppedAtMs: stop?.at ?? null,
+      stopReason: stop?.reason ?? null,
+      overrideReason: override?.reason ?? null,
+      overrideAtMs: override?.at ?? null,
+      cancelReason: t.cancelReason ?? cancelled.get(t.id) ?? null,
+      pending: false,
+    };
+  });
+  const waiting = work.ofKind("timer.started").map((o): TimerFacts => {
+    const p = o.payload;
+    const override = overridden.get(p.timerId);
+    return {
+      id: p.timerId,
+      stepId: p.stepId,
+      timerSpecId: p.timerSpecId ?? null,
+      label: p.label,
+      durationS: p.durationS,
+      startedAtMs: Date.parse(p.startedAt),
+      startedBy: o.authorId,
+      stoppedAtMs: stopped.get(p.timerId)?.at ?? null,
+      stopReason: stopped.get(p.timerId)?.reason ?? null,
+      overrideReason: override?.reason ?? null,
+      overrideAtMs: override?.at ?? null,
+      cancelReason: cancelled.get(p.timerId) ?? null,
+      pending: true,
+    };
+  });
+  return [...fromRecord, ...waiting].map((t) => timerView(t, nowMs));
 }
 
 /**
- * Sets `blockedBy` on the steps of one stage that a timer spec holds (by `blocksStepKey`): until
- * the latest timer of that spec has run out or been overridden, or while it was never started.
+ * Sets `blockedBy` on the steps a timer spec of the procedure holds (by `blocksStepKey`, anywhere
+ * in the procedure), by the one rule of lib/sync/holds.ts at `nowMs`.
  */
-export function applyHolds(stageSteps: StepView[], proc: ProcedureSnapshot): void {
-  const stepKeyToId = new Map<string, string>();
-  for (const s of proc.stages) for (const st of s.steps) stepKeyToId.set(st.key, st.id);
-  for (const sv of stageSteps) {
+export function applyHolds(procSteps: StepView[], proc: ProcedureSnapshot, nowMs: number): void {
+  const byKey = new Map<string, StepView>();
+  for (const sv of procSteps) byKey.set(sv.step.key, sv);
+  for (const sv of procSteps) {
     for (const spec of sv.step.timerSpecs) {
       if (!spec.blocksStepKey) continue;
-      const blockedId = stepKeyToId.get(spec.blocksStepKey);
-      const target = stageSteps.find((s) => s.step.id === blockedId) ?? null;
-      if (!target) continue;
-      const t = sv.timers.filter((x) => x.timerSpecId === spec.id).sort((a, b) => b.startedAtMs - a.startedAtMs)[0];
+      const target = byKey.get(spec.blocksStepKey);
+      if (!target || !proc.stages.some((s) => s.steps.some((st) => st.id === target.step.id))) continue;
+      const timers = sv.timers.filter((x) => x.timerSpecId === spec.id);
+      const hold = holdAt(
+        timers.map((t) => ({ ...t, cancelled: t.cancelled !== null })),
+        nowMs,
+      );
+      if (!hold.held) continue;
       const on = { timerSpecId: spec.id, stepId: sv.step.id, durationS: spec.durationS };
-      if (!t) target.blockedBy = { label: spec.label, remainingMs: spec.durationS * 1000, started: false, timerId: null, ...on };
-      else if (!t.done) target.blockedBy = { label: t.label, remainingMs: t.remainingMs, started: true, timerId: t.id, ...on };
+      target.blockedBy =
+        hold.why === "not-started"
+          ? { label: spec.label, why: hold.why, remainingMs: spec.durationS * 1000, started: false, timerId: null, ...on }
+          : {
+              label: timers.find((t) => t.id === hold.timer.id)?.label ?? spec.label,
+              why: hold.why,
+              remainingMs: hold.why === "running" ? Math.max(0, hold.endsAtMs - nowMs) : 0,
+              started: true,
+              timerId: hold.timer.id,
+              ...on,
+            };
     }
   }
 }

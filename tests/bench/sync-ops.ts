@@ -3,6 +3,7 @@ import type { Kysely } from "kysely";
 import type { Database } from "@/db/schema";
 import { createClock, tick, type HlcState } from "@/lib/sync/hlc";
 import type { Operation, OperationKind, OperationOf, SyncBatch } from "@/lib/sync/operations";
+import { canonicalDecimal, decimalOfNumber } from "@/lib/sync/reading-value";
 
 // Test and benchmark helpers: a simulated tablet that makes operations the way the client does
 // (own device id, own clock), and the spec ids of the fixture job's demo procedures.
@@ -19,8 +20,11 @@ export interface FixtureSpecs {
   rodSpecId: string;
   caseBoltsStepId: string;
   caseBoltsSpecId: string;
-  sealantStepId: string;
-  sealantTimerSpecId: string;
+  /** The step whose cure timer holds the oil fill (the case bolts: the cure starts once they are torqued). */
+  cureStepId: string;
+  cureTimerSpecId: string;
+  /** The step the cure holds. */
+  oilPrimeStepId: string;
   measureStage: { jobProcedureId: string; stageKey: string };
 }
 
@@ -40,7 +44,7 @@ export async function fixtureSpecs(
     .select(["id", "step_id"])
     .where("step_id", "in", [step("rod-bolts"), step("case-bolts")])
     .execute();
-  const timer = await db.selectFrom("timer_specs").select(["id"]).where("step_id", "=", step("case-sealant")).executeTakeFirstOrThrow();
+  const timer = await db.selectFrom("timer_specs").select(["id"]).where("step_id", "=", step("case-bolts")).executeTakeFirstOrThrow();
   const bore = m.find((x) => x.key === "bore-1")!;
   return {
     jobProcedureIds: fx.procedures.map((p) => p.id),
@@ -53,8 +57,9 @@ export async function fixtureSpecs(
     rodSpecId: t.find((x) => x.step_id === step("rod-bolts"))!.id,
     caseBoltsStepId: step("case-bolts"),
     caseBoltsSpecId: t.find((x) => x.step_id === step("case-bolts"))!.id,
-    sealantStepId: step("case-sealant"),
-    sealantTimerSpecId: timer.id,
+    cureStepId: step("case-bolts"),
+    cureTimerSpecId: timer.id,
+    oilPrimeStepId: step("oil-prime"),
     measureStage: { jobProcedureId: fx.procedures[0].id, stageKey: "measure" },
   };
 }
@@ -98,14 +103,15 @@ export class Tablet {
     stepId: string,
     specId: string,
     readingIndex: number,
-    value: number,
+    value: number | string,
     extra: { supersedesId?: string; note?: string; unit?: "mm" | "in" | "µm" } = {},
   ) {
     return this.make("measurement.recorded", {
       stepId,
       specId,
       readingIndex,
-      value,
+      // as the wire format keeps it: the decimal text typed (a number is taken as the decimal it prints as)
+      value: (typeof value === "number" ? decimalOfNumber(value) : canonicalDecimal(value))!,
       unit: extra.unit ?? "mm",
       ...(extra.note ? { note: extra.note } : {}),
       ...(extra.supersedesId ? { supersedesId: extra.supersedesId } : {}),

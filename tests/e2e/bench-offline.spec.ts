@@ -76,7 +76,7 @@ test("a photo taken offline stays on the tablet, then reaches object storage whe
   await context.setOffline(true);
   await typeTag(page, "GSW-0006");
   await page.getByRole("button", { name: "Open this bike's job" }).click();
-  await page.getByRole("button", { name: /9\. Head face flatness/ }).click();
+  await page.getByRole("button", { name: /10\. Head face flatness/ }).click();
   await expect(page.getByTestId("step-title")).toHaveText("Head face flatness");
   await expect(page.getByTestId("step-missing")).toContainText("Take at least one photo");
   await page.getByTestId("photo-input").setInputFiles({ name: "deck.png", mimeType: "image/png", buffer: png });

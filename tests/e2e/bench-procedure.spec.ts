@@ -5,8 +5,8 @@ import { typeNumber, typeTag, waitForServiceWorker, waitForSynced } from "./supp
 import { signIn } from "./support/demo-users";
 
 // Demo job #1006 (tag GSW-0006), assigned to the mechanic Tomas Reyes. Step numbers below are the
-// job's step list (1-based on screen): 8 piston deck clearance, 5 rod bolts (2 bolts: 50 %, 100 %, +120°),
-// 6 case sealant with a 30-minute cure timer that blocks step 7, the case bolts.
+// job's step list (1-based on screen): 9 piston deck clearance, 5 rod bolts (2 bolts: 50 %, 100 %, +120°),
+// 6 case sealant, 7 case bolts with a 30-minute cure timer that holds step 8, the oil fill.
 
 async function openStep(page: Page, n: number) {
   const url = new URL(page.url());
@@ -32,8 +32,8 @@ test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer 
   await page.getByRole("button", { name: /Carry on/ }).click();
 
   // Out of tolerance: a deck clearance over the maximum is flagged in colour, mark and words.
-  // (Step 8, in the head procedure, so the review test's bottom-end stage starts clean.)
-  await openStep(page, 8);
+  // (Step 9, in the head procedure, so the review test's bottom-end stage starts clean.)
+  await openStep(page, 9);
   await typeNumber(page, "0.52");
   await expect(page.locator('[data-verdict="high"]').first()).toContainText("High — over maximum");
   await page.getByLabel("Note for the supervisor (optional)").fill("gap opened up after honing");
@@ -60,21 +60,25 @@ test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer 
   await expect(page.getByTestId("torque-done")).toBeVisible();
   await page.getByRole("button", { name: "Step done" }).click();
 
-  // A cure timer: started here, blocks the next step, keeps running through a reload.
+  // The cases are closed and torqued within the sealant's working time; the cure timer is
+  // started on the case bolts and holds the oil fill after them, through a reload.
   await expect(page.getByTestId("step-title")).toHaveText("Apply case sealant and close the cases");
   await page.getByRole("button", { name: "I have read these cautions" }).click();
-  await page.getByRole("button", { name: /Start the 30:00 timer/ }).click();
-  await expect(page.getByTestId("timer-remaining")).toContainText("30:00");
   await page.getByRole("button", { name: "Step done" }).click();
   await expect(page.getByTestId("step-title")).toHaveText("Torque crankcase bolts");
-  await expect(page.getByTestId("step-blocked")).toContainText("Sealant cure before torquing cases");
+  await expect(page.getByTestId("step-blocked")).toHaveCount(0);
+  await page.getByRole("button", { name: /Start:? the 30:00 timer/ }).click();
+  await expect(page.getByTestId("timer-remaining")).toContainText("30:00");
+  await openStep(page, 8);
+  await expect(page.getByTestId("step-title")).toHaveText("Fill with oil and prime the oil system");
+  await expect(page.getByTestId("step-blocked")).toContainText("Sealant cure before oil and cranking");
 
   await page.clock.fastForward("10:00");
   await page.reload();
   await expect(page.getByTestId("net-state")).toHaveText(/Offline/);
   await expect(page.getByTestId("step-blocked")).toContainText(/(19|20):\d\d left/);
   await page.clock.fastForward("21:00");
-  await expect(page.getByTestId("timer-alert")).toContainText("Timer done: Sealant cure before torquing cases");
+  await expect(page.getByTestId("timer-alert")).toContainText("Timer done: Sealant cure before oil and cranking");
   await expect(page.getByTestId("step-blocked")).toHaveCount(0);
   await page.getByRole("button", { name: "OK" }).click();
   await expect(page.getByTestId("timer-alert")).toHaveCount(0);
@@ -92,7 +96,7 @@ test("torque passes bolt by bolt, an out-of-tolerance reading, and a cure timer 
   const timers = await query<{ label: string; duration_s: number }>(
     "SELECT t.label, t.duration_s FROM timers t JOIN work_orders w ON w.id = t.work_order_id WHERE w.number = 1006",
   );
-  expect(timers).toEqual([{ label: "Sealant cure before torquing cases", duration_s: 1800 }]);
+  expect(timers).toEqual([{ label: "Sealant cure before oil and cranking", duration_s: 1800 }]);
 });
 
 test("two tablets record the same reading offline: both arrive, neither overwrites the other", async ({ browser }) => {
@@ -178,8 +182,8 @@ test("a supervisor at the bench overrides a cure wait with a reason; the mechani
   await typeTag(page, "GSW-0006");
   await page.getByRole("button", { name: "Open this bike's job" }).click();
   await expect(page.getByRole("heading", { name: "Vireo Nine Fifty" })).toBeVisible();
-  await openStep(page, 7);
-  await expect(page.getByTestId("step-blocked")).toContainText("Sealant cure before torquing cases");
+  await openStep(page, 8);
+  await expect(page.getByTestId("step-blocked")).toContainText("Sealant cure before oil and cranking");
   await page.getByLabel("Supervisor: reason to go ahead without waiting").fill("Fast-cure sealant; maker allows 10 minutes");
   await page.getByRole("button", { name: "Override the wait" }).click();
   await expect(page.getByTestId("step-blocked")).toHaveCount(0);

@@ -8,11 +8,11 @@ import { openStep } from "./support/review-bench";
 import { fromOurPage } from "./support/same-origin";
 
 // The tablet's screen tells the truth and a tap records what it showed. Demo job #1006 (tag
-// GSW-0006, assigned to Tomas Reyes); step 11 torques the ten head bolts (spiral from the centre,
+// GSW-0006, assigned to Tomas Reyes); step 12 torques the ten head bolts (spiral from the centre,
 // three passes, with a torque-to-yield caution). No other test records on that step; each test
 // here reads where the sequence stands and works from there.
 
-const HEAD_BOLTS_STEP = 11;
+const HEAD_BOLTS_STEP = 12;
 
 async function openHeadBolts(page: Page) {
   await typeTag(page, "GSW-0006");

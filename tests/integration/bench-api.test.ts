@@ -147,9 +147,11 @@ describe("GET /api/bench/jobs/[id]", () => {
       anglePasses: rodDoc.anglePasses,
       torqueToYield: true,
     });
-    expect(bottom.stages[1].steps.find((s) => s.key === "case-sealant")!.timerSpecs[0]).toMatchObject({
+    // the cure starts once the cases are closed and torqued (within the sealant's working time) and holds the oil fill
+    expect(bottom.stages[1].steps.find((s) => s.key === "case-sealant")!.timerSpecs).toEqual([]);
+    expect(bottom.stages[1].steps.find((s) => s.key === "case-bolts")!.timerSpecs[0]).toMatchObject({
       durationS: 1800,
-      blocksStepKey: "case-bolts",
+      blocksStepKey: "oil-prime",
     });
 
     // the recorded work

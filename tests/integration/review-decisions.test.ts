@@ -82,7 +82,7 @@ describe("review decisions on synced sign-offs", () => {
         stepId: ringGapStep,
         specLabel: "Top ring gap",
         readingLabel: "Cyl 2",
-        value: 0.5,
+        value: "0.5", // the decimal text, as typed
         verdict: "high",
         acceptance: null,
       }),
@@ -167,8 +167,8 @@ describe("review decisions on synced sign-offs", () => {
     const review2 = await loadSignOffReview(db, users.sup, signOff2.id);
     const spot = review2!.steps.find((s) => s.id === ringGapStep)!.specs[0].spots[1];
     expect(spot.history.map((h) => ({ value: h.value, current: h.current, supersededBy: h.supersededBy }))).toEqual([
-      { value: 0.5, current: false, supersededBy: fix.id },
-      { value: 0.44, current: true, supersededBy: null },
+      { value: "0.5", current: false, supersededBy: fix.id },
+      { value: "0.44", current: true, supersededBy: null },
     ]);
     expect(review2!.steps.find((s) => s.id === ringGapStep)!.sentBack).toEqual([expect.objectContaining({ reason })]);
     expect(review2!.earlier).toEqual([
@@ -214,7 +214,7 @@ describe("review decisions on synced sign-offs", () => {
     await sync(db, users.mech, tablet, ops);
     const review = await loadSignOffReview(db, users.sup, signOff.id);
     const [oot] = review!.outOfTolerance;
-    expect(oot).toMatchObject({ readingLabel: "Main 3", value: 0.046, verdict: "high" });
+    expect(oot).toMatchObject({ readingLabel: "Main 3", value: "0.046", verdict: "high" });
 
     const plain = await decideOnSignOff(
       db,

@@ -149,7 +149,7 @@ function goodOp(author: SessionUser, device: string, pick: number): Record<strin
         kind: "timer.started",
         payload: {
           timerId: randomUUID(),
-          stepId: specs.sealantStepId,
+          stepId: specs.cureStepId,
           label: "Cure",
           durationS: 1800,
           startedAt: new Date(at).toISOString(),

@@ -74,7 +74,7 @@ describe("POST /api/sync handler", () => {
     const good = tablet.complete(specs.boreStepId);
     const bad = {
       ...tablet.read(specs.boreStepId, specs.boreSpecId, 0, 76),
-      payload: { stepId: specs.boreStepId, specId: specs.boreSpecId, readingIndex: 0, value: "76.01", unit: "cm" },
+      payload: { stepId: specs.boreStepId, specId: specs.boreSpecId, readingIndex: 0, value: "76,01", unit: "cm" },
     };
     const res = await handleSyncRequest(
       post(JSON.stringify({ deviceId: tablet.deviceId, cursor: null, operations: [good, bad] })),

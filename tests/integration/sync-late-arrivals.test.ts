@@ -97,7 +97,7 @@ function materialize(
   const ops: Operation[] = [];
   const readings: Array<{ symbol: string; at: number }> = [];
   const timers: Array<{ symbol: string; startedAt: number }> = [];
-  const steps = [specs.boreStepId, specs.rodStepId, specs.caseBoltsStepId, specs.sealantStepId];
+  const steps = [specs.boreStepId, specs.rodStepId, specs.caseBoltsStepId, specs.cureStepId];
   events.forEach((e, i) => {
     const at = T0 + i * 1000;
     const make = <K extends OperationKind>(kind: K, payload: OperationOf<K>["payload"]) => {
@@ -118,7 +118,7 @@ function materialize(
         stepId: specs.boreStepId,
         specId: specs.boreSpecId,
         readingIndex: spot,
-        value: 75.99 + v / 1000,
+        value: (75.99 + v / 1000).toFixed(3),
         unit: "mm",
         ...(supersedes ? { supersedesId: idFor(supersedes), note: `correction ${i}` } : {}),
       });
@@ -144,19 +144,19 @@ function materialize(
         timers.push({ symbol: `timer${i}`, startedAt: at });
         return make("timer.started", {
           timerId: idFor(`timer${i}`),
-          stepId: specs.sealantStepId,
-          timerSpecId: specs.sealantTimerSpecId,
+          stepId: specs.cureStepId,
+          timerSpecId: specs.cureTimerSpecId,
           label: "Sealant cure",
           durationS: 1800,
           startedAt: new Date(at).toISOString(),
         });
       case "timerStop": {
-        if (!timers.length) return make("step.completed", { stepId: specs.sealantStepId });
+        if (!timers.length) return make("step.completed", { stepId: specs.cureStepId });
         const t = timers[e.which % timers.length];
         return make("timer.stopped", { timerId: idFor(t.symbol), stoppedAt: new Date(t.startedAt + e.afterS * 1000).toISOString() });
       }
       case "override": {
-        if (!timers.length) return make("step.completed", { stepId: specs.sealantStepId });
+        if (!timers.length) return make("step.completed", { stepId: specs.cureStepId });
         const t = timers[e.which % timers.length];
         return make("timer.overridden", {
           timerId: idFor(t.symbol),

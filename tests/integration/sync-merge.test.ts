@@ -47,8 +47,8 @@ describe("merging a batch", () => {
       tablet.bolt(specs.rodStepId, specs.rodSpecId, 3, 2),
       tablet.make("timer.started", {
         timerId,
-        stepId: specs.sealantStepId,
-        timerSpecId: specs.sealantTimerSpecId,
+        stepId: specs.cureStepId,
+        timerSpecId: specs.cureTimerSpecId,
         label: "Sealant cure",
         durationS: 1800,
         startedAt: new Date(Date.now() - 60_000).toISOString(),
@@ -251,7 +251,7 @@ describe("merging a batch", () => {
       t1.batch([
         t1.make("timer.started", {
           timerId,
-          stepId: specs.sealantStepId,
+          stepId: specs.cureStepId,
           label: "Cure",
           durationS: 300,
           startedAt: new Date(start).toISOString(),

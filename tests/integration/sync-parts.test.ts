@@ -238,6 +238,7 @@ describe("bench-recorded parts read back", () => {
         fittedAt: first.deviceTime,
         flagged: false,
         flagReason: null,
+        operationId: first.id,
       },
       expect.objectContaining({
         id: repeat.payload.partFittedId,
@@ -302,6 +303,7 @@ describe("bench-recorded parts read back", () => {
         fittedByName: mech.name,
         flagReason: null,
         atBench: true,
+        withdrawn: null,
       },
       {
         partNumber: "GS-HG-1",
@@ -314,6 +316,7 @@ describe("bench-recorded parts read back", () => {
         fittedByName: fx.users.office.name,
         flagReason: null,
         atBench: false,
+        withdrawn: null,
       },
     ]);
     expect(await partsOfWorkOrder(db, randomUUID(), fx.workOrderId)).toEqual([]);

@@ -9,7 +9,7 @@ import { useTestDb } from "./support/test-db";
 const db = useTestDb();
 const asUser = (u: ShopFixture["users"]["mechanic"]): SessionUser => ({ ...u, role: u.role, customerId: null });
 
-// The demo bottom-end template's sealant step starts a 30-minute cure that holds back the case bolts.
+// The demo bottom-end template: once the cases are closed and torqued, a 30-minute cure holds back the oil fill.
 describe("overriding a cure timer", () => {
   async function setup() {
     const fx = await createShopFixture(db);
@@ -21,8 +21,8 @@ describe("overriding a cure timer", () => {
     const timerId = randomUUID();
     const start = mechTablet.make("timer.started", {
       timerId,
-      stepId: specs.sealantStepId,
-      timerSpecId: specs.sealantTimerSpecId,
+      stepId: specs.cureStepId,
+      timerSpecId: specs.cureTimerSpecId,
       label: "Sealant cure",
       durationS: 1800,
       startedAt: new Date().toISOString(),
@@ -64,8 +64,8 @@ describe("overriding a cure timer", () => {
     const ops = [
       tablet.make("timer.started", {
         timerId,
-        stepId: specs.sealantStepId,
-        timerSpecId: specs.sealantTimerSpecId,
+        stepId: specs.cureStepId,
+        timerSpecId: specs.cureTimerSpecId,
         label: "Sealant cure",
         durationS: 1800,
         startedAt: new Date().toISOString(),

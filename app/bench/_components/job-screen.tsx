@@ -8,6 +8,7 @@ import { go } from "./hash-route";
 import { useJob } from "./job-data";
 import { CopyFreshness } from "./copy-freshness";
 import { ProgressBar } from "./progress-bar";
+import { WithdrawEntry } from "./withdraw-entry";
 
 /** One job: its stages and steps with what is done, and the sign-off of each finished stage. */
 export function JobScreen({ jobId }: { jobId: string }) {
@@ -120,11 +121,20 @@ export function JobScreen({ jobId }: { jobId: string }) {
           </ol>
           <div className="mt-3">
             {stage.signedOff ? (
-              <p className="text-lg font-bold" data-testid="stage-signed">
-                Signed off {new Date(stage.signedOff.at).toLocaleString()}
-                {stage.signedOff.pending ? " (waiting to send)" : ""}
-                {stage.decision === null || stage.decision.decision === "sent_back" ? " — waiting for review" : ""}
-              </p>
+              <div className="flex flex-wrap items-center gap-4">
+                <p className="flex-1 text-lg font-bold" data-testid="stage-signed">
+                  Signed off {new Date(stage.signedOff.at).toLocaleString()}
+                  {stage.signedOff.pending ? " (waiting to send)" : ""}
+                  {stage.decision === null || stage.decision.decision === "sent_back" ? " — waiting for review" : ""}
+                </p>
+                <WithdrawEntry
+                  jobId={jobId}
+                  operationId={stage.signedOff.operationId}
+                  recordedBy={stage.signedOff.by}
+                  what="this sign-off"
+                  testId="withdraw-sign-off"
+                />
+              </div>
             ) : (
               <BigButton tone="go" disabled={!stage.canSignOff || busy !== null} onClick={() => signOff(stage.jobProcedureId, stage.key)}>
                 {stage.allDone ? `Sign off “${stage.title}” as ${user.name}` : "Sign off when every step is done"}

@@ -1,25 +1,28 @@
 "use client";
 
 import { useState } from "react";
+import { readingPlausibility } from "@/lib/bench/plausibility";
 import { boreGeometry } from "@/lib/calc/bore-geometry";
 import { evaluateTolerance } from "@/lib/calc/tolerance";
+import { canonicalDecimal } from "@/lib/sync/reading-value";
 import { readingCount, type MeasurementSpecView, type ReadingView, type StepView } from "@/lib/work-order-record";
 import { recordOperation } from "@/lib/client/bench-store";
 import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { NumberKeypad, parseEntry } from "./number-keypad";
+import { PlausibilityPrompt } from "./plausibility-prompt";
 import { Verdict } from "./verdict";
 
-// Decimal places written in a number (76.004 → 3).
-function decimalsOf(n: number): number {
-  const s = String(n);
+// Decimal places written in a value's text ("76.0040" → 4: the instrument's resolution, trailing zeros included).
+function decimalsOf(text: string | number): number {
+  const s = String(text);
   if (s.includes("e")) return 12;
   return s.includes(".") ? s.length - s.indexOf(".") - 1 : 0;
 }
 
 // A difference of readings is exact at the readings' own decimal places: shown there, without the
-// binary floating-point noise of the subtraction. Readings themselves are shown as entered.
-function derived(x: number, ...inputs: number[]): string {
+// binary floating-point noise of the subtraction. Readings themselves are shown exactly as typed.
+function derived(x: number, ...inputs: Array<string | number>): string {
   return x.toFixed(Math.max(0, ...inputs.map(decimalsOf)));
 }
 
@@ -28,18 +31,22 @@ function specLine(spec: MeasurementSpecView): string {
   return `${n}min ${spec.min} · max ${spec.max} ${spec.unit}`;
 }
 
-/** Readings for every spec of a step: pick a slot, type on the pad, see the verdict at once. */
-export function MeasurementPanel({ jobId, view }: { jobId: string; view: StepView }) {
+/**
+ * Readings for every spec of a step: pick a slot, type on the pad, see the verdict at once. The
+ * value is saved exactly as typed ("0.030"); an unlikely one is questioned before it is saved.
+ * While the step is held, nothing can be saved.
+ */
+export function MeasurementPanel({ jobId, view, held }: { jobId: string; view: StepView; held: boolean }) {
   return (
     <div className="flex flex-col gap-4">
       {view.step.measurementSpecs.map((spec) => (
-        <SpecReadings key={spec.id} jobId={jobId} view={view} spec={spec} />
+        <SpecReadings key={spec.id} jobId={jobId} view={view} spec={spec} held={held} />
       ))}
     </div>
   );
 }
 
-function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; spec: MeasurementSpecView }) {
+function SpecReadings({ jobId, view, spec, held }: { jobId: string; view: StepView; spec: MeasurementSpecView; held: boolean }) {
   const { db, syncNow } = useBench();
   const author = useAuthor();
   const count = readingCount(spec);
@@ -50,7 +57,10 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
   const [entry, setEntry] = useState("");
   const [note, setNote] = useState("");
   const [saved, setSaved] = useState<string | null>(null);
+  const [problem, setProblem] = useState<string | null>(null);
+  const [asking, setAsking] = useState<string[] | null>(null);
   const value = parseEntry(entry);
+  const text = value === null ? null : canonicalDecimal(entry);
   const live =
     value === null
       ? null
@@ -60,21 +70,30 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
         );
   const label = (i: number) => spec.readingLabels[i] ?? (count > 1 ? `Reading ${i + 1}` : "Reading");
 
-  async function save() {
-    if (value === null) return;
+  /** First tap: refuse the impossible, question the unlikely, save the rest. */
+  function check() {
+    if (text === null || held) return;
+    const verdict = readingPlausibility(text, spec);
+    setSaved(null);
+    if (verdict.kind === "refuse") setProblem(verdict.reason);
+    else if (verdict.kind === "confirm") setAsking(verdict.reasons);
+    else void save(text);
+  }
+
+  async function save(typed: string) {
+    setAsking(null);
+    setProblem(null);
     const previous = current.get(slot);
     await recordOperation(db, author, jobId, "measurement.recorded", {
       stepId: view.step.id,
       specId: spec.id,
       readingIndex: slot,
-      value,
+      value: typed,
       unit: spec.unit,
       ...(note.trim() ? { note: note.trim() } : {}),
       ...(previous ? { supersedesId: previous.id } : {}),
     });
-    setSaved(
-      `${label(slot)}: ${entry.replace("−", "-")} ${spec.unit} saved${previous ? " (correction; the earlier reading stays on record)" : ""}`,
-    );
+    setSaved(`${label(slot)}: ${typed} ${spec.unit} saved${previous ? " (correction; the earlier reading stays on record)" : ""}`);
     setEntry("");
     setNote("");
     const next = Array.from({ length: count }, (_, i) => i).find((i) => i !== slot && !current.has(i));
@@ -100,12 +119,14 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
                 type="button"
                 aria-pressed={slot === i}
                 onClick={() => setSlot(i)}
+                data-testid="reading-slot"
+                data-index={i}
                 className={`flex min-h-target items-center gap-3 rounded-lg border-4 px-3 text-left text-lg ${slot === i ? "border-signal-dark bg-signal/30" : "border-steel-300 bg-white"}`}
               >
                 <span className="flex-1 font-bold">{label(i)}</span>
                 {r ? (
                   <>
-                    <span className="font-mono text-xl">
+                    <span className="font-mono text-xl" data-testid="reading-value">
                       {r.value} {r.unit}
                     </span>
                     <Verdict status={r.verdict} compact />
@@ -125,14 +146,22 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
         </div>
         <div className="flex flex-col gap-2">
           <p className="text-lg font-bold">Reading for: {label(slot)}</p>
-          <NumberKeypad value={entry} onChange={setEntry} label={`${spec.label} ${label(slot)} in ${spec.unit}`} />
+          <NumberKeypad
+            value={entry}
+            onChange={(v) => {
+              setEntry(v);
+              setAsking(null);
+              setProblem(null);
+            }}
+            label={`${spec.label} ${label(slot)} in ${spec.unit}`}
+          />
           <div className="min-h-12" aria-live="polite">
             {live && (
               <p className="flex flex-wrap items-center gap-3">
                 <Verdict status={live.status} />
                 <span className="font-mono text-lg">
                   {live.deviation >= 0 ? "+" : ""}
-                  {derived(live.deviation, value!, live.nominal)} {spec.unit} from nominal
+                  {derived(live.deviation, text ?? value!, live.nominal)} {spec.unit} from nominal
                 </span>
               </p>
             )}
@@ -147,9 +176,23 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
               />
             </label>
           )}
-          <BigButton tone="go" disabled={value === null} onClick={save}>
-            Save reading
-          </BigButton>
+          {problem && (
+            <p role="alert" className="rounded-lg border-4 border-fail bg-fail-light p-3 text-lg font-bold text-fail">
+              ✖ Not saved: {problem}
+            </p>
+          )}
+          {asking && text !== null ? (
+            <PlausibilityPrompt
+              reasons={asking}
+              value={`${text} ${spec.unit}`}
+              onConfirm={() => void save(text)}
+              onBack={() => setAsking(null)}
+            />
+          ) : (
+            <BigButton tone="go" disabled={value === null || held} onClick={check}>
+              {held ? "On hold: saving is off" : "Save reading"}
+            </BigButton>
+          )}
           {saved && (
             <p role="status" className="text-lg font-bold">
               {saved}
@@ -176,12 +219,12 @@ function SpecReadings({ jobId, view, spec }: { jobId: string; view: StepView; sp
 
 // Reading order for a bore spec: top thrust, top pin, middle thrust, middle pin, bottom thrust, bottom pin.
 function boreFrom(current: Map<number, ReadingView>, spec: MeasurementSpecView) {
-  const v = (i: number) => current.get(i)!.value;
+  const v = (i: number) => Number(current.get(i)!.value);
   if ([0, 1, 2, 3, 4, 5].some((i) => current.get(i)!.unit !== spec.unit)) return null;
   const geometry = boreGeometry({
     top: { thrust: v(0), pin: v(1) },
     middle: { thrust: v(2), pin: v(3) },
     bottom: { thrust: v(4), pin: v(5) },
   });
-  return { ...geometry, inputs: [0, 1, 2, 3, 4, 5].map(v) };
+  return { ...geometry, inputs: [0, 1, 2, 3, 4, 5].map((i) => current.get(i)!.value) };
 }

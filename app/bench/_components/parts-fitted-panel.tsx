@@ -7,6 +7,7 @@ import { MAX_PART_QUANTITY, PART_TEXT_LIMITS, partFittedPayload } from "@/lib/sy
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
+import { WithdrawEntry } from "./withdraw-entry";
 
 type TextField = "partNumber" | "description" | "serial" | "batch" | "supplier";
 const EMPTY: Record<TextField, string> = { partNumber: "", description: "", serial: "", batch: "", supplier: "" };
@@ -28,11 +29,14 @@ export function PartsFittedPanel({
   view,
   job,
   people,
+  held,
 }: {
   jobId: string;
   view: StepView;
   job: WorkOrderView;
   people: JobSnapshot["people"];
+  /** The step is on hold: nothing can be recorded on it. */
+  held: boolean;
 }) {
   const { db, syncNow } = useBench();
   const author = useAuthor();
@@ -89,7 +93,7 @@ export function PartsFittedPanel({
       ) : (
         <ul className="mt-2 flex flex-col gap-2">
           {view.parts.map((p) => (
-            <PartLine key={p.id} part={p} who={whoFitted(p.fittedBy)} />
+            <PartLine key={p.id} jobId={jobId} part={p} who={whoFitted(p.fittedBy)} />
           ))}
         </ul>
       )}
@@ -99,8 +103,8 @@ export function PartsFittedPanel({
         </p>
       )}
       {!open ? (
-        <BigButton tone="plain" className="mt-3" aria-expanded={false} onClick={() => setOpen(true)}>
-          Record a part fitted here
+        <BigButton tone="plain" className="mt-3" aria-expanded={false} disabled={held} onClick={() => setOpen(true)}>
+          {held ? "On hold: recording parts is off" : "Record a part fitted here"}
         </BigButton>
       ) : (
         <form
@@ -160,7 +164,7 @@ export function PartsFittedPanel({
           {errors.quantity && <p className="font-bold text-fail">✖ {errors.quantity}</p>}
           <p className="text-lg">Give the serial number, the batch number, or both.</p>
           <div className="flex flex-wrap gap-4">
-            <BigButton tone="go" type="submit">
+            <BigButton tone="go" type="submit" disabled={held}>
               Save part
             </BigButton>
             <BigButton
@@ -179,10 +183,10 @@ export function PartsFittedPanel({
   );
 }
 
-function PartLine({ part, who }: { part: PartView; who: string }) {
+function PartLine({ jobId, part, who }: { jobId: string; part: PartView; who: string }) {
   return (
     <li data-testid="step-part" className="rounded-lg border-2 border-steel-300 p-3 text-lg">
-      <span className="font-bold">
+      <span className={part.withdrawn ? "line-through" : "font-bold"}>
         {part.quantity} × <span className="font-mono">{part.partNumber}</span> {part.description}
       </span>
       <span className="block">
@@ -192,6 +196,15 @@ function PartLine({ part, who }: { part: PartView; who: string }) {
         {who} · {part.pending ? "⏳ waiting to send" : "✔ on record"}
       </span>
       {part.flagReason && <span className="block font-bold text-warn">⚑ Flagged for the supervisor: {part.flagReason}</span>}
+      {part.withdrawn ? (
+        <span className="block font-bold text-fail">
+          ⊘ Withdrawn: “{part.withdrawn.reason}”{part.withdrawn.pending ? " (waiting to send)" : ""} — no longer counted as fitted
+        </span>
+      ) : (
+        <span className="mt-2 block">
+          <WithdrawEntry jobId={jobId} operationId={part.operationId} recordedBy={part.fittedBy} what={`part ${part.partNumber}`} />
+        </span>
+      )}
     </li>
   );
 }

@@ -7,6 +7,7 @@ import { PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 import { useAuthor, useBench } from "./bench-context";
 import { useLive } from "./use-live";
+import { WithdrawEntry } from "./withdraw-entry";
 
 /** Take or pick a photo at a step. Kept in IndexedDB until it is sent with the next sync. */
 export function PhotoPanel({
@@ -23,6 +24,19 @@ export function PhotoPanel({
   const [error, setError] = useState<string | null>(null);
   const photos = useLive(() => db.photos.where("stepId").equals(view.step.id).toArray(), [db, view.step.id], []);
   const localIds = new Set(photos.map((p) => p.id));
+  const entry = new Map(view.photos.map((p) => [p.attachmentId, p]));
+  /** The photo's state line and, unless withdrawn, its withdraw button. */
+  const withdrawOf = (attachmentId: string) => {
+    const p = entry.get(attachmentId);
+    if (!p) return null;
+    return p.withdrawn ? (
+      <span className="block text-sm font-bold text-fail" data-testid="photo-withdrawn">
+        ⊘ withdrawn: “{p.withdrawn.reason}”
+      </span>
+    ) : (
+      <WithdrawEntry jobId={jobId} operationId={p.operationId} recordedBy={p.takenBy} what="this photo" />
+    );
+  };
   const others = snapshotPhotos.filter((p) => p.stepId === view.step.id && !localIds.has(p.id));
   const [urls, setUrls] = useState<Array<{ id: string; url: string; uploaded: boolean }>>([]);
   useEffect(() => {
@@ -67,17 +81,22 @@ export function PhotoPanel({
       )}
       <ul className="mt-3 flex flex-wrap gap-3">
         {urls.map((u) => (
-          <li key={u.id} className="text-center">
+          <li key={u.id} className="flex flex-col items-center gap-1 text-center">
             {/* eslint-disable-next-line @next/next/no-img-element */}
-            <img src={u.url} alt="Step photo" className="h-28 w-28 rounded-lg border-2 border-steel-700 object-cover" />
+            <img
+              src={u.url}
+              alt="Step photo"
+              className={`h-28 w-28 rounded-lg border-2 border-steel-700 object-cover ${entry.get(u.id)?.withdrawn ? "opacity-40" : ""}`}
+            />
             <span className="text-sm">{u.uploaded ? "sent" : "on tablet"}</span>
+            {withdrawOf(u.id)}
           </li>
         ))}
       </ul>
       {others.length > 0 && (
         <ul className="mt-3 flex flex-wrap gap-3" aria-label="Photos from other tablets">
           {others.map((p) => (
-            <li key={p.id} className="text-center">
+            <li key={p.id} className="flex flex-col items-center gap-1 text-center">
               {p.awaitingUpload ? (
                 <span className="flex h-28 w-28 items-center justify-center rounded-lg border-2 border-dashed border-steel-700 p-2 text-sm">
                   still on the tablet that took it
@@ -90,6 +109,7 @@ export function PhotoPanel({
                   className="h-28 w-28 rounded-lg border-2 border-steel-700 object-cover"
                 />
               )}
+              {withdrawOf(p.id)}
             </li>
           ))}
         </ul>

@@ -15,6 +15,8 @@ import { CopyFreshness } from "./copy-freshness";
 import { clock, TimerPanel } from "./timer-panel";
 import { TimerOverride } from "./timer-override";
 import { TorqueConfirmBar, TorquePanel } from "./torque-panel";
+import { WithdrawEntry } from "./withdraw-entry";
+import type { StepView } from "@/lib/work-order-record";
 
 const SWIPE_PX = 90;
 
@@ -41,7 +43,10 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
   const hasNext = sv.index < total - 1;
   const move = (d: number) => go({ screen: "step", jobId, stepIndex: sv.index + d });
   const cautionsOk = sv.step.cautions.length === 0 || acknowledged.has(sv.step.id) || sv.done;
-  const canComplete = !sv.done && cautionsOk && sv.missing.length === 0 && !sv.blockedBy;
+  // While a timer holds the step, nothing is recorded on it (the server flags anything that gets through).
+  const held = sv.blockedBy !== null;
+  const canComplete = !sv.done && cautionsOk && sv.missing.length === 0 && !held;
+  const lastCompletion = sv.completions.at(-1);
 
   async function complete() {
     await recordOperation(db, author, jobId, "step.completed", { stepId: sv.step.id });
@@ -89,6 +94,9 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
         <h1 className="text-4xl font-bold" data-testid="step-title">
           {sv.step.title}
         </h1>
+        {sv.blockedBy && (
+          <HoldBanner jobId={jobId} hold={sv.blockedBy} holder={view.steps.find((s) => s.step.id === sv.blockedBy!.stepId) ?? null} />
+        )}
         {sv.reopened && (
           <p
             role="alert"
@@ -107,27 +115,30 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
           onAcknowledge={() => setAcknowledged((s) => new Set(s).add(sv.step.id))}
         />
         {sv.step.instructions && <p className="max-w-4xl whitespace-pre-line text-2xl leading-snug">{sv.step.instructions}</p>}
-        {sv.step.torqueSpecs.length > 0 && <TorquePanel jobId={jobId} view={sv} />}
-        {sv.step.measurementSpecs.length > 0 && <MeasurementPanel jobId={jobId} view={sv} />}
+        {sv.step.torqueSpecs.length > 0 && <TorquePanel jobId={jobId} view={sv} held={held} people={data.snapshot.people} />}
+        {sv.step.measurementSpecs.length > 0 && <MeasurementPanel jobId={jobId} view={sv} held={held} />}
         {sv.step.timerSpecs.length > 0 && <TimerPanel jobId={jobId} view={sv} />}
         <PhotoPanel jobId={jobId} view={sv} snapshotPhotos={data.snapshot.state.photos} />
-        <PartsFittedPanel key={sv.step.id} jobId={jobId} view={sv} job={view} people={data.snapshot.people} />
+        <PartsFittedPanel key={sv.step.id} jobId={jobId} view={sv} job={view} people={data.snapshot.people} held={held} />
 
         <section aria-label="Finish the step" className="rounded-xl border-4 border-steel-900 bg-white p-4">
           {sv.done ? (
-            <p className="text-2xl font-bold text-pass" data-testid="step-done">
-              ✔ Done{sv.donePending ? " — waiting to send" : ""}
-            </p>
+            <div className="flex flex-wrap items-center gap-4">
+              <p className="flex-1 text-2xl font-bold text-pass" data-testid="step-done">
+                ✔ Done{sv.donePending ? " — waiting to send" : ""}
+              </p>
+              {lastCompletion && (
+                <WithdrawEntry
+                  jobId={jobId}
+                  operationId={lastCompletion.operationId}
+                  recordedBy={lastCompletion.by}
+                  what="“done” on this step"
+                />
+              )}
+            </div>
           ) : (
             <>
-              {sv.blockedBy && (
-                <p className="mb-3 text-xl font-bold text-warn" data-testid="step-blocked">
-                  Waiting for “{sv.blockedBy.label}”:{" "}
-                  {sv.blockedBy.started ? `${clock(sv.blockedBy.remainingMs)} left` : "its timer has not been started yet"}. Only a
-                  supervisor can let it go ahead sooner.
-                </p>
-              )}
-              {sv.blockedBy && <TimerOverride jobId={jobId} blocked={sv.blockedBy} />}
+              {held && <p className="mb-3 text-xl font-bold text-warn">⏳ On hold: see the top of the step.</p>}
               {!cautionsOk && <p className="mb-3 text-xl font-bold">Read the cautions above first.</p>}
               {sv.missing.length > 0 && (
                 <ul className="mb-3 list-inside list-disc text-xl" data-testid="step-missing">
@@ -142,12 +153,37 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
             </>
           )}
         </section>
-        {!sv.done && <TorqueConfirmBar jobId={jobId} view={sv} />}
+        {!sv.done && <TorqueConfirmBar jobId={jobId} view={sv} held={held} />}
       </div>
 
       <button type="button" aria-label="Next step" disabled={!hasNext} onClick={() => move(1)} className={edge}>
         <span aria-hidden="true">▶</span>
       </button>
     </div>
+  );
+}
+
+/**
+ * The hold, at the top of the held step: what it waits for, how long, and that recording is off
+ * until then (colour, words and the hourglass together). A supervisor can let it go ahead here.
+ */
+function HoldBanner({ jobId, hold, holder }: { jobId: string; hold: NonNullable<StepView["blockedBy"]>; holder: StepView | null }) {
+  const where = holder ? ` on step ${holder.index + 1}, “${holder.step.title}”` : "";
+  const why =
+    hold.why === "running"
+      ? `${clock(hold.remainingMs)} left`
+      : hold.why === "stopped-early"
+        ? `its timer was stopped before its time; start it again${where}`
+        : `its timer has not been started yet; start it${where}`;
+  return (
+    <section aria-label="On hold" className="rounded-xl border-4 border-warn bg-warn-light p-4 text-ink" data-testid="step-hold">
+      <p className="text-2xl font-bold text-warn" data-testid="step-blocked">
+        <span aria-hidden="true">⏳ </span>On hold — waiting for “{hold.label}”: {why}.
+      </p>
+      <p className="mt-1 text-xl">Recording on this step is switched off until then. Only a supervisor can let it go ahead sooner.</p>
+      <div className="mt-3">
+        <TimerOverride jobId={jobId} blocked={hold} />
+      </div>
+    </section>
   );
 }

@@ -42,7 +42,7 @@ export function TimerAlerts() {
       const numberOf = new Map(jobs.map((j) => [j.id, j.snapshot.workOrder.number]));
       for (const j of jobs)
         for (const t of j.snapshot.state.timers)
-          if (!t.stoppedAt && !t.overrideReason)
+          if (!t.stoppedAt && !t.overrideReason && !t.cancelledAt)
             out.push({
               id: t.id,
               label: t.label,
@@ -50,7 +50,14 @@ export function TimerAlerts() {
               jobNumber: j.snapshot.workOrder.number,
             });
       const outbox = (await db.outbox.toArray()).filter((o) => o.state !== "refused");
-      const overridden = new Set(outbox.flatMap((o) => (o.op.kind === "timer.overridden" ? [o.op.payload.timerId] : [])));
+      // overridden, stopped or cancelled on this tablet: no alarm
+      const ended = new Set(
+        outbox.flatMap((o) =>
+          o.op.kind === "timer.overridden" || o.op.kind === "timer.stopped" || o.op.kind === "timer.cancelled"
+            ? [o.op.payload.timerId]
+            : [],
+        ),
+      );
       const onRecord = new Set(jobs.flatMap((j) => j.snapshot.state.timers.map((t) => t.id)));
       for (const o of outbox) {
         // a timer sent and already in the job's copy is listed once
@@ -62,7 +69,7 @@ export function TimerAlerts() {
             jobNumber: numberOf.get(o.workOrderId) ?? null,
           });
       }
-      return out.filter((t) => !overridden.has(t.id));
+      return out.filter((t) => !ended.has(t.id));
     },
     [db],
     [],

@@ -8,7 +8,7 @@ import { dayTime } from "@/app/ui/dates";
 import { FormMessage, quietButtonClass } from "@/app/ui/form-field";
 import { DecisionPanel } from "./decision-panel";
 import type { SignOffReview } from "./review-types";
-import { StepRecord } from "./step-record";
+import { StepRecord, Withdrawn } from "./step-record";
 import { When } from "./when";
 
 /** One sign-off under review: the record of its stage, then the decision. */
@@ -54,12 +54,34 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
             ⚑ The sync flagged this sign-off: {r.signOff.flagReason}
           </p>
         )}
+        {r.signOff.withdrawn && (
+          <div className="mt-2" data-testid="sign-off-withdrawn">
+            <p className="text-lg font-bold text-fail">This sign-off was withdrawn: the stage waits for a new sign-off.</p>
+            <Withdrawn w={r.signOff.withdrawn} />
+          </div>
+        )}
         {!r.signOff.isLatest && (
           <p className="mt-2 rounded-lg border-4 border-warn bg-warn-light p-3 font-bold text-warn">
             This stage has been signed off again since; this is an older sign-off.
           </p>
         )}
       </header>
+
+      {r.stretchBoltsTwice.length > 0 && (
+        <div role="alert" className="rounded-lg border-8 border-fail bg-fail-light p-4 text-fail" data-testid="stretch-bolts-twice">
+          <p className="text-2xl font-bold">⚠ Torque-to-yield bolts recorded twice</p>
+          <p className="text-lg">
+            A stretch bolt tightened again may be past its yield point. Check each one, and have a new bolt fitted if in doubt:
+          </p>
+          <ul className="mt-1 list-inside list-disc text-lg font-bold">
+            {r.stretchBoltsTwice.map((b) => (
+              <li key={`${b.specLabel}|${b.passIndex}|${b.bolt}`}>
+                {b.stepTitle} — {b.specLabel}: bolt {b.bolt}, pass {b.passIndex} ({b.records.map((x) => x.by.name).join(" and ")})
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
 
       {standing && (
         <p
@@ -80,6 +102,12 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
           <a href="#decide" className="font-bold text-fail underline">
             ▲ {r.outOfTolerance.length} reading{r.outOfTolerance.length === 1 ? "" : "s"} out of tolerance
           </a>
+        )}
+        {r.withdrawnCount > 0 && (
+          <span className="font-bold text-fail">
+            {" "}
+            · ⊘ {r.withdrawnCount} entr{r.withdrawnCount === 1 ? "y" : "ies"} withdrawn (marked below)
+          </span>
         )}
       </p>
 

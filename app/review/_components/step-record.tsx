@@ -1,6 +1,15 @@
 import { dayTime } from "@/app/ui/dates";
-import type { ReadingLine, SpecView, StepReview, TorqueView } from "./review-types";
+import type { ReadingLine, SpecView, StepReview, TorqueView, WithdrawnLine } from "./review-types";
 import { VerdictTag, When } from "./when";
+
+/** An entry taken back: it stays on the record, struck through, with who, when and why. */
+export function Withdrawn({ w }: { w: WithdrawnLine }) {
+  return (
+    <span className="block rounded border-2 border-fail bg-fail-light px-2 py-1 text-sm font-bold text-fail" data-testid="withdrawn-mark">
+      ⊘ Withdrawn by {w.by.name}, {dayTime(w.at)}: “{w.reason}” — it no longer counts
+    </span>
+  );
+}
 
 // One step of the signed-off stage as the supervisor reads it: who did it and when, every reading
 // (replaced ones too), two tablets' readings of one spot side by side, torque bolt by bolt, timers, photos, parts.
@@ -27,12 +36,13 @@ export function StepRecord({ step }: { step: StepReview }) {
           <ul className="space-y-1">
             {step.completions.map((c, i) => (
               <li key={c.id} className="flex flex-wrap items-baseline gap-x-3">
-                <span className="font-bold">
+                <span className={`font-bold ${c.withdrawn ? "line-through" : ""}`}>
                   ✔ {i === 0 ? "Done" : "Done again"} by {c.by.name}
                 </span>
                 <When device={c.deviceTime} received={c.receivedAt} />
                 {c.deviceId && <span className="font-mono text-sm text-steel-700">tablet {c.deviceId}</span>}
                 {c.flagReason && <span className="w-full text-sm font-bold text-warn">⚑ {c.flagReason}</span>}
+                {c.withdrawn && <Withdrawn w={c.withdrawn} />}
               </li>
             ))}
           </ul>
@@ -52,6 +62,18 @@ export function StepRecord({ step }: { step: StepReview }) {
               <li key={t.id}>
                 {t.label}: {Math.round(t.durationS / 60)} min, started {dayTime(t.startedAt)} by {t.startedBy.name}
                 {t.stoppedAt ? `, stopped ${dayTime(t.stoppedAt)}` : ""}
+                {t.stop && (t.stop.by || t.stop.reason) && (
+                  <span className="block">
+                    Stopped{t.stop.by ? ` by ${t.stop.by.name}` : ""}
+                    {t.stop.reason ? `: “${t.stop.reason}”` : ""}
+                  </span>
+                )}
+                {t.cancelled && (
+                  <span className="block font-bold text-fail">
+                    ⊘ Cancelled{t.cancelled.by ? ` by ${t.cancelled.by.name}` : ""}, {dayTime(t.cancelled.at)}: “{t.cancelled.reason}” — it
+                    does not count
+                  </span>
+                )}
                 {t.override && (
                   <span className="block font-bold text-warn">
                     ⚑ Cut short by {t.override.by.name}: {t.override.reason}
@@ -85,6 +107,7 @@ export function StepRecord({ step }: { step: StepReview }) {
                   {dayTime(p.createdAt)}
                 </span>
                 {p.caption && <span className="block">{p.caption}</span>}
+                {p.withdrawn && <Withdrawn w={p.withdrawn} />}
               </li>
             ))}
           </ul>
@@ -101,6 +124,7 @@ export function StepRecord({ step }: { step: StepReview }) {
                 {p.batch && <span className="font-mono"> · batch {p.batch}</span>} · {p.by ? p.by.name : "recorded in the office"} ·{" "}
                 {dayTime(p.fittedAt)}
                 {p.flagReason && <span className="block font-bold text-warn">⚑ {p.flagReason}</span>}
+                {p.withdrawn && <Withdrawn w={p.withdrawn} />}
               </li>
             ))}
           </ul>
@@ -209,13 +233,39 @@ function ReadingRow({ label, r }: { label: string; r: ReadingLine }) {
   );
 }
 
+function boltState(b: TorqueView["passes"][number]["bolts"][number]) {
+  const counting = b.records.filter((r) => !r.withdrawn);
+  if (counting.length > 1) return { mark: "2×", cls: "border-warn bg-warn-light text-warn", what: `recorded ${counting.length} times` };
+  if (b.done)
+    return { mark: "✔", cls: "border-pass bg-pass-light text-pass", what: `done by ${b.done.by.name} ${dayTime(b.done.deviceTime)}` };
+  if (b.records.length) return { mark: "⊘", cls: "border-fail text-fail", what: "withdrawn, to do again" };
+  return { mark: "✖", cls: "border-fail text-fail", what: "not done" };
+}
+
 function TorqueGrid({ t }: { t: TorqueView }) {
+  const all = t.passes.flatMap((p) => p.bolts.flatMap((b) => b.records.map((r) => ({ r, pass: p.index, bolt: b.bolt }))));
+  const counting = all.filter((x) => !x.r.withdrawn);
+  const withdrawn = all.filter((x) => x.r.withdrawn);
   return (
-    <div className="mt-3">
+    <div className="mt-3" data-testid="review-torque">
       <h4 className="font-bold">
         {t.label}: {t.finalValue} {t.unit}, {t.boltCount} bolts, {t.pattern} order{t.torqueToYield ? ", stretch bolts" : ""} —{" "}
         {t.complete ? <span className="text-pass">✔ every pass done</span> : <span className="text-fail">✖ passes missing</span>}
       </h4>
+      {t.repeated.length > 0 && (
+        <div
+          className={`mt-1 rounded-lg border-4 p-2 font-bold ${t.torqueToYield ? "border-fail bg-fail-light text-fail" : "border-warn bg-warn-light text-warn"}`}
+          data-testid="bolts-twice"
+        >
+          ⚑ {t.torqueToYield ? "Stretch bolts recorded twice" : "Bolts recorded twice"}:{" "}
+          {t.repeated
+            .map(
+              (r) =>
+                `bolt ${r.bolt} pass ${r.passIndex} (${r.records.map((x) => `${x.by.name}, tablet ${x.deviceId ?? "?"}`).join(" and ")})`,
+            )
+            .join("; ")}
+        </div>
+      )}
       <div className="overflow-x-auto">
         <table className="mt-1 border-collapse text-sm">
           <thead>
@@ -234,43 +284,49 @@ function TorqueGrid({ t }: { t: TorqueView }) {
                 <td className="pr-3">
                   {p.index}: {p.label}
                 </td>
-                {p.bolts.map((b) => (
-                  <td key={b.bolt} className="px-1 text-center">
-                    <span
-                      className={`inline-flex h-8 w-8 items-center justify-center rounded border-2 font-bold ${b.done ? "border-pass bg-pass-light text-pass" : "border-fail text-fail"}`}
-                      aria-label={
-                        b.done
-                          ? `pass ${p.index} bolt ${b.bolt} done by ${b.done.by.name} ${dayTime(b.done.deviceTime)}`
-                          : `pass ${p.index} bolt ${b.bolt} not done`
-                      }
-                    >
-                      {b.done ? "✔" : "✖"}
-                    </span>
-                  </td>
-                ))}
+                {p.bolts.map((b) => {
+                  const st = boltState(b);
+                  return (
+                    <td key={b.bolt} className="px-1 text-center">
+                      <span
+                        className={`inline-flex h-8 w-8 items-center justify-center rounded border-2 font-bold ${st.cls}`}
+                        aria-label={`pass ${p.index} bolt ${b.bolt} ${st.what}`}
+                      >
+                        {st.mark}
+                      </span>
+                    </td>
+                  );
+                })}
               </tr>
             ))}
           </tbody>
         </table>
       </div>
-      {(() => {
-        const all = t.passes.flatMap((p) => p.bolts.map((b) => b.done).filter((d) => d !== null));
-        if (!all.length) return null;
-        const by = [...new Set(all.map((d) => d!.by.name))].join(", ");
-        const times = all.map((d) => Date.parse(d!.deviceTime));
-        return (
-          <p className="text-sm">
-            By {by}, {dayTime(new Date(Math.min(...times)).toISOString())} to {dayTime(new Date(Math.max(...times)).toISOString())} on the
-            tablet
-            {all.some((d) => d!.wrench)
-              ? ` · wrench readings: ${all
-                  .filter((d) => d!.wrench)
-                  .map((d) => d!.wrench)
-                  .join(", ")}`
-              : ""}
-          </p>
-        );
-      })()}
+      {counting.length > 0 &&
+        (() => {
+          const by = [...new Set(counting.map((d) => d.r.by.name))].join(", ");
+          const times = counting.map((d) => Date.parse(d.r.deviceTime));
+          const wrench = counting.filter((d) => d.r.wrench).map((d) => d.r.wrench);
+          return (
+            <p className="text-sm">
+              By {by}, {dayTime(new Date(Math.min(...times)).toISOString())} to {dayTime(new Date(Math.max(...times)).toISOString())} on the
+              tablet
+              {wrench.length ? ` · wrench readings: ${wrench.join(", ")}` : ""}
+            </p>
+          );
+        })()}
+      {withdrawn.length > 0 && (
+        <ul className="mt-1 space-y-1" aria-label="Withdrawn bolts">
+          {withdrawn.map(({ r, pass, bolt }) => (
+            <li key={r.id} data-testid="withdrawn-bolt">
+              <span className="line-through">
+                Bolt {bolt}, pass {pass} by {r.by.name}, {dayTime(r.deviceTime)}
+              </span>{" "}
+              <Withdrawn w={r.withdrawn!} />
+            </li>
+          ))}
+        </ul>
+      )}
     </div>
   );
 }

@@ -115,14 +115,20 @@ export const bottomEndTemplate: TemplateDocumentInput = {
           key: "case-sealant",
           title: "Apply case sealant and close the cases",
           instructions:
-            "Thin even bead of sealant on the case face, keep it clear of oil passages, fit the upper case within the working time.",
-          cautions: [{ kind: "chemical", text: "Use gloves and ventilation with anaerobic sealants." }],
-          timer: { label: "Sealant cure before torquing cases", durationS: 1800, blocksStepKey: "case-bolts" },
+            "Thin even bead of sealant on the case face, keep it clear of oil passages, fit the upper case at once. Have the case bolts and the wrench ready before the first bead: the next step must be finished within the sealant's working time.",
+          cautions: [
+            { kind: "chemical", text: "Use gloves and ventilation with anaerobic sealants." },
+            {
+              kind: "general",
+              text: "Working time: close the cases and torque every case bolt within the sealant maker's working time (example: 10 minutes from the first bead). Do not stop between this step and the last pass of the next.",
+            },
+          ],
         },
         {
           key: "case-bolts",
           title: "Torque crankcase bolts",
-          instructions: "Tighten the main case bolts in sequence from the centre outwards in three passes.",
+          instructions:
+            "Straight after closing the cases, within the sealant's working time: tighten the main case bolts in sequence from the centre outwards in three passes. Start the cure timer when the last pass is done.",
           torque: [
             {
               label: "Main case bolts M9",
@@ -135,6 +141,14 @@ export const bottomEndTemplate: TemplateDocumentInput = {
               lubricant: "Engine oil on threads and washers",
             },
           ],
+          timer: { label: "Sealant cure before oil and cranking", durationS: 1800, blocksStepKey: "oil-prime" },
+        },
+        {
+          key: "oil-prime",
+          title: "Fill with oil and prime the oil system",
+          instructions:
+            "Only once the sealant has cured: fill with the specified oil, prime the pump and turn the crank by hand. Oil pressure and crank loads on an uncured joint push the sealant out and the case leaks.",
+          cautions: [{ kind: "general", text: "Do not pressurise the oil system or crank the engine before the cure time is up." }],
         },
       ],
     },

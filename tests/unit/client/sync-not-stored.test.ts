@@ -69,7 +69,7 @@ const note = (db: BenchDb, text: string) =>
     stepId: ids.stepBore,
     specId: ids.boreSpec,
     readingIndex: 0,
-    value: 76.004,
+    value: "76.004",
     unit: "mm",
     note: text,
   });

@@ -205,14 +205,15 @@ describe("buildStageReview", () => {
     const r = buildStageReview(snapshot(readings), extras(), SO)!;
     const [cyl1, cyl2] = r.steps[0].specs[0].spots;
     expect(cyl1.history.map((h) => [h.value, h.current, h.supersededBy])).toEqual([
-      [0.41, false, u(1004)],
-      [0.42, true, null],
+      // shown as the decimal text (a value from an older tablet, with no text, as it prints)
+      ["0.41", false, u(1004)],
+      ["0.42", true, null],
     ]);
     expect(cyl1.history[0].receivedAt).toBe(at(50));
     expect(cyl1.rivals).toEqual([]);
     expect(cyl2.rivals.map((x) => [x.deviceId, x.by.name, x.value, x.current])).toEqual([
-      ["tab-a", "Tomas Reyes", 0.5, false],
-      ["tab-b", "Priya Vance", 0.44, true],
+      ["tab-a", "Tomas Reyes", "0.5", false],
+      ["tab-b", "Priya Vance", "0.44", true],
     ]);
     // The later stamp counts, so the high reading is not the current one: nothing is out of tolerance.
     expect(r.outOfTolerance).toEqual([]);
@@ -319,12 +320,13 @@ describe("buildStageReview", () => {
     const r = buildStageReview(snap, extras(), SO)!;
     expect(r.steps[0].parts).toEqual([]);
     expect(r.steps[1].parts).toEqual([
-      { ...part, id: u(80), by: { id: MECH, name: "Tomas Reyes" }, flagReason: null },
+      { ...part, id: u(80), by: { id: MECH, name: "Tomas Reyes" }, flagReason: null, withdrawn: null },
       {
         ...part,
         id: u(81),
         by: { id: MECH2, name: "Priya Vance" },
         flagReason: "Serial number GR-7 of part GS-ROD-130 is already recorded on work order #7.",
+        withdrawn: null,
       },
     ]);
   });

@@ -77,7 +77,7 @@ function input(j: WorkOrderFacts | undefined, over: Partial<DecisionInput> = {})
 
 const complete = (j: WorkOrderFacts, stepId = ids.stepBore, over: Partial<Operation> = {}) => op("step.completed", j, { stepId }, over);
 const reading = (j: WorkOrderFacts, extra: Partial<{ readingIndex: number; supersedesId: string; specId: string; stepId: string }> = {}) =>
-  op("measurement.recorded", j, { stepId: ids.stepBore, specId: ids.boreSpec, readingIndex: 0, value: 76.0051, unit: "mm", ...extra });
+  op("measurement.recorded", j, { stepId: ids.stepBore, specId: ids.boreSpec, readingIndex: 0, value: "76.0051", unit: "mm", ...extra });
 
 describe("who may record work", () => {
   it("accepts the assigned mechanic's completion of a step on the job", () => {

@@ -65,7 +65,7 @@ describe("sign-off standing", () => {
       signOffs: [signOff(u(114), "measure", "4"), signOff(u(115), "measure", "7")],
       reviewDecisions: [decision(u(116), "measure", "sent_back", "5", [ids.stepBore], "again")],
     });
-    expect(stageOf(buildWorkOrderView(resigned, [], NOW), "measure").signedOff).toEqual({ at: at(8), pending: false });
+    expect(stageOf(buildWorkOrderView(resigned, [], NOW), "measure").signedOff).toMatchObject({ at: at(8), pending: false });
   });
 
   it("a stage with every step done and no sign-off may be signed off; a sign-off waiting on the tablet counts", () => {
@@ -142,7 +142,7 @@ describe("work on the tablet drawn on top of an older copy", () => {
   it("an operation the copy already holds is not counted twice", () => {
     const reading = tabletOp(
       "measurement.recorded",
-      { stepId: ids.stepBore, specId: ids.boreSpec, readingIndex: 0, value: 76.004, unit: "mm" },
+      { stepId: ids.stepBore, specId: ids.boreSpec, readingIndex: 0, value: "76.004", unit: "mm" },
       30,
       u(150),
     );

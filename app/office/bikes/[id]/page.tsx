@@ -22,7 +22,7 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
   const id = z.uuid().safeParse((await params).id);
   const rec = id.success ? await bikeRecord(db(), user.shopId, id.data) : null;
   if (!rec) notFound();
-  const { bike, workOrders, parts, measurements } = rec;
+  const { bike, workOrders, parts, measurements, withdrawn } = rec;
   const office = canReach(user.role, "office");
   const contact = canReach(user.role, "customer-contact");
   return (
@@ -122,10 +122,15 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
             </thead>
             <tbody>
               {parts.map((p) => (
-                <tr key={p.id} className="border-b border-steel-300">
+                <tr key={p.id} className={`border-b border-steel-300 ${p.withdrawnReason !== null ? "text-steel-700" : ""}`}>
                   <td className="py-1 pr-3 font-mono">#{p.workOrderNumber}</td>
                   <td className="py-1 pr-3">
-                    {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description}
+                    <span className={p.withdrawnReason !== null ? "line-through" : ""}>
+                      {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description}
+                    </span>
+                    {p.withdrawnReason !== null && (
+                      <span className="block font-bold text-fail">⊘ withdrawn: “{p.withdrawnReason}” (see Withdrawn entries)</span>
+                    )}
                   </td>
                   <td className="py-1 pr-3">{p.supplier || "—"}</td>
                   <td className="py-1 pr-3 font-mono">
@@ -142,6 +147,14 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
 
       <section className="mt-8">
         <h2 className="text-2xl font-bold">Measurements recorded</h2>
+        {measurements.length > 0 && (
+          <p className="mt-1">
+            <a className="font-bold underline" href={`/api/office/bikes/${bike.id}/readings`} download>
+              Download every reading as CSV
+            </a>{" "}
+            (values exactly as typed, corrected readings included)
+          </p>
+        )}
         {measurements.length === 0 ? (
           <p className="mt-2">None recorded yet.</p>
         ) : (
@@ -176,6 +189,24 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
               ))}
             </tbody>
           </table>
+        )}
+      </section>
+
+      <section className="mt-8" aria-label="Withdrawn entries">
+        <h2 className="text-2xl font-bold">Withdrawn entries</h2>
+        {withdrawn.length === 0 ? (
+          <p className="mt-2">None.</p>
+        ) : (
+          <ul className="mt-2 space-y-2" data-testid="withdrawn-entries">
+            {withdrawn.map((w) => (
+              <li key={w.id} className="rounded-lg border-2 border-fail bg-fail-light p-2">
+                <span className="font-mono font-bold">#{w.workOrderNumber}</span> <span className="line-through">{w.what}</span>
+                <span className="block">
+                  Recorded by {w.recordedBy}, {day(w.recordedAt)} · ⊘ withdrawn by {w.withdrawnBy}, {day(w.withdrawnAt)}: “{w.reason}”
+                </span>
+              </li>
+            ))}
+          </ul>
         )}
       </section>
     </AppFrame>

@@ -5,6 +5,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState, type FormEvent } from "react";
 import { partFittedSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
+import { dayTime } from "@/app/ui/dates";
 import { Field, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { WorkOrderData } from "./types";
 
@@ -50,12 +51,19 @@ export function PartsPanel({ data }: { data: WorkOrderData }) {
       ) : (
         <ul className="mt-2 space-y-1">
           {wo.parts.map((p) => (
-            <li key={p.id} className="text-lg" data-testid="part-fitted">
-              {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description} {p.supplier && `· ${p.supplier}`}{" "}
-              {p.serial && <span className="font-mono">· serial {p.serial}</span>}{" "}
+            <li key={p.id} className={`text-lg ${p.withdrawn ? "text-steel-700" : ""}`} data-testid="part-fitted">
+              <span className={p.withdrawn ? "line-through" : ""}>
+                {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description}
+              </span>{" "}
+              {p.supplier && `· ${p.supplier}`} {p.serial && <span className="font-mono">· serial {p.serial}</span>}{" "}
               {p.batch && <span className="font-mono">· batch {p.batch}</span>} {p.stepTitle && `· at "${p.stepTitle}"`}{" "}
               {p.fittedByName && (p.atBench ? `· fitted by ${p.fittedByName} · recorded at the bench` : `· recorded by ${p.fittedByName}`)}
               {p.flagReason && <span className="block font-bold text-warn">⚑ Flagged for the supervisor: {p.flagReason}</span>}
+              {p.withdrawn && (
+                <span className="block font-bold text-fail">
+                  ⊘ Withdrawn by {p.withdrawn.by}, {dayTime(p.withdrawn.at)}: “{p.withdrawn.reason}” — no longer counted as fitted
+                </span>
+              )}
             </li>
           ))}
         </ul>

@@ -84,6 +84,24 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
       <QuoteEditor key={data.quotes.map((x) => `${x.id}${x.status}`).join()} data={data} currency={currency} taxRateBp={taxRateBp} />
       <NotesPanel data={data} />
       <PartsPanel data={data} />
+      {wo.withdrawn.length > 0 && (
+        <section className="rounded-xl border-2 border-fail bg-white p-4" aria-labelledby="withdrawn-heading">
+          <h2 id="withdrawn-heading" className="text-2xl font-bold">
+            Withdrawn at the bench
+          </h2>
+          <p className="text-base">Taken back with a reason: each stays on the record, marked, and no longer counts.</p>
+          <ul className="mt-2 space-y-1" data-testid="withdrawn-entries">
+            {wo.withdrawn.map((w) => (
+              <li key={w.id} className="text-lg">
+                <span className="line-through">{w.what}</span> · recorded by {w.recordedBy}, {dayTime(w.recordedAt)} ·{" "}
+                <span className="font-bold text-fail">
+                  ⊘ withdrawn by {w.withdrawnBy}, {dayTime(w.withdrawnAt)}: “{w.reason}”
+                </span>
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
       <section className="rounded-xl border-2 border-steel-300 bg-white p-4">
         <h2 className="text-2xl font-bold">History</h2>
         <ol className="mt-2 space-y-1" data-testid="transitions">
