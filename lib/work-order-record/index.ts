@@ -9,7 +9,7 @@ import { partsByStep, photoCountByStep } from "./parts";
 import { pendingOnTop } from "./pending";
 import { currentReadings } from "@/lib/sync/readings";
 import { readingViews, stepReadings } from "./readings";
-import { decisionOn, latestDecisions, standingSignOff } from "./stage-state";
+import { decisionInForce, decisionOn, latestDecisions, standingSignOff } from "./stage-state";
 import { stepCompletion } from "./step-state";
 import { applyHolds, timerViews } from "./timers";
 import { confirmedBolts, torqueProgress } from "./torque";
@@ -59,8 +59,9 @@ export function buildWorkOrderView(snapshot: Snapshot, pending: readonly Operati
         });
       }
       applyHolds(stageSteps, proc);
-      const decision = decisionOn(decisions, proc.jobProcedureId, stage.key);
-      const signedOff = standingSignOff(snapshot, proc.jobProcedureId, stage.key, decision, work);
+      const latestDecision = decisionOn(decisions, proc.jobProcedureId, stage.key);
+      const signedOff = standingSignOff(snapshot, proc.jobProcedureId, stage.key, latestDecision, work);
+      const decision = decisionInForce(latestDecision, signedOff);
       const allDone = stageSteps.every((s) => s.done);
       stages.push({
         jobProcedureId: proc.jobProcedureId,

@@ -24,6 +24,16 @@ export function decisionOn(decisions: ReadonlyMap<string, Decision>, jobProcedur
   return decisions.get(stageKey(jobProcedureId, key)) ?? null;
 }
 
+/**
+ * The decision that speaks for a stage: the one on its standing sign-off when that sign-off is on
+ * record (a later sign-off that nobody has decided on yet has none, even when an earlier one was
+ * approved); otherwise the latest decision on the stage (a send-back waiting for the redo).
+ */
+export function decisionInForce(decision: Decision | null, signedOff: StageView["signedOff"]): Decision | null {
+  if (!decision || !signedOff || signedOff.pending) return decision;
+  return decision.signOffId === signedOff.id ? decision : null;
+}
+
 /** The sign-off that stands for a stage: one waiting on this tablet, else the latest on record unless a later send-back undid it. */
 export function standingSignOff(
   snapshot: Snapshot,
@@ -33,11 +43,11 @@ export function standingSignOff(
   work: PendingWork,
 ): StageView["signedOff"] {
   const pending = work.ofKind("stage.signed-off").find((o) => o.payload.jobProcedureId === jobProcedureId && o.payload.stageKey === key);
-  if (pending) return { at: pending.deviceTime, pending: true };
+  if (pending) return { at: pending.deviceTime, pending: true, id: pending.id };
   const latest = snapshot.state.signOffs
     .filter((s) => s.jobProcedureId === jobProcedureId && s.stageKey === key)
     .sort((a, b) => (BigInt(a.seq) < BigInt(b.seq) ? 1 : -1))[0];
   if (!latest) return null;
   const stands = !decision || decision.decision === "approved" || BigInt(latest.seq) > BigInt(decision.seq);
-  return stands ? { at: latest.deviceTime, pending: false } : null;
+  return stands ? { at: latest.deviceTime, pending: false, id: latest.id } : null;
 }

@@ -100,7 +100,8 @@ export interface StageView {
   title: string;
   steps: StepView[];
   allDone: boolean;
-  signedOff: { at: string; pending: boolean } | null;
+  /** The sign-off that stands (`id`: the sign-off's id, the same on the tablet and on record). */
+  signedOff: { at: string; pending: boolean; id: string } | null;
   decision: { decision: "approved" | "sent_back"; reason: string } | null;
   canSignOff: boolean;
 }
