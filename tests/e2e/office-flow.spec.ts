@@ -49,7 +49,9 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByLabel("Odometer (km)").fill("18250");
   await office.getByLabel("Condition photos").setInputFiles({ name: "left-side.png", mimeType: "image/png", buffer: TINY_PNG });
   await office.getByRole("button", { name: "Book in" }).click();
-  await expect(office.getByRole("heading", { level: 1 })).toContainText("#1008 Turbo conversion and intercooler");
+  // the next free number after the demo work orders (the highest demo number is 1010)
+  const number = 1011;
+  await expect(office.getByRole("heading", { level: 1 })).toContainText(`#${number} Turbo conversion and intercooler`);
   await expect(office.getByTestId("work-order-status")).toContainText("Booked in");
   const photo = office.getByTestId("note-photo").first();
   await expect(photo).toBeVisible();
@@ -76,7 +78,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByRole("button", { name: "Send to the customer" }).click();
   await expect(office.getByTestId("work-order-status")).toContainText("Quoted");
   await expect(office.getByTestId("quote-version").first()).toContainText("Sent — waiting for the customer");
-  await expectMail(rider.email, "Your quote for work order 1008 is ready");
+  await expectMail(rider.email, `Your quote for work order ${number} is ready`);
 
   // the customer approves and pays the deposit from their own sign-in
   const customer = await (await browser.newContext()).newPage();
@@ -85,7 +87,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await customer.getByLabel("Password").fill(rider.password);
   await customer.getByRole("button", { name: "Sign in" }).click();
   await expect(customer.getByTestId("whoami")).toContainText(rider.name);
-  const card = customer.getByTestId("my-work-order").filter({ hasText: "#1008" });
+  const card = customer.getByTestId("my-work-order").filter({ hasText: `#${number}` });
   await expect(card.getByTestId("customer-quote-total")).toHaveText("£259.19");
   await card.getByRole("button", { name: "Approve this quote" }).click();
   await card.getByRole("button", { name: "Pay the deposit (£50.00)" }).click();
@@ -107,7 +109,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
       { timeout: 10_000 },
     )
     .toBe(200);
-  await expectMail(rider.email, "Deposit received for work order 1008");
+  await expectMail(rider.email, `Deposit received for work order ${number}`);
 
   // back in the office: the deposit shows paid; assign, pin a template, start the build
   await office.reload();
