@@ -37,6 +37,8 @@ export const FIELD_LABELS: FieldLabels = {
   complaint: "Complaint or goal",
   odometerKm: "Odometer",
   to: "New status",
+  override: "Override",
+  openItemKeys: "Open items",
   templateVersionIds: "Procedure templates",
   mechanicId: "Mechanic",
   kind: "Kind",
@@ -78,6 +80,8 @@ export const FIELD_LABELS: FieldLabels = {
   readingId: "Reading",
   justification: "Reason for accepting",
   reopenStepIds: "Steps to redo",
+  flagAcceptances: "Accepted flagged entries",
+  operationId: "Flagged entry",
   // dyno
   label: "Name",
   ranOn: "Date",

@@ -1,5 +1,7 @@
 import "server-only";
 import { emailContext } from "@/db/office/emails";
+import { overridesOf } from "@/db/records/status-overrides";
+import { openItemLine } from "@/lib/work-orders/open-items";
 import { formatMinor } from "@/lib/money/quote-totals";
 import { bikeReadyAttachment } from "./bike-ready-attachment";
 import { sendMail } from "./mail";
@@ -36,17 +38,35 @@ export async function mailDepositReceived(db: Db, shopId: string, workOrderId: s
   });
 }
 
+/**
+ * What the customer must be told when the office moved the job on with items open: said plainly,
+ * with who decided, why, and what was open. Empty when there was no override.
+ */
+async function overrideNotice(db: Db, shopId: string, workOrderId: string): Promise<string> {
+  const overrides = await overridesOf(db, shopId, workOrderId);
+  if (overrides.length === 0) return "";
+  return overrides
+    .map(
+      (o) =>
+        `Please note: your bike was ${o.to === "ready" ? "released for collection" : "handed over"} with work on its record not finished or not checked by our supervisor. ${o.byName} decided this on ${o.at.toISOString().slice(0, 10)} and wrote why: "${o.reason}"\nOpen at that moment:\n${o.openItems.map((i) => `- ${openItemLine(i)}`).join("\n")}\nThe build report says the same on its first page. Ask us about anything on this list.\n\n`,
+    )
+    .join("");
+}
+
 export async function mailBikeReady(db: Db, shopId: string, workOrderId: string) {
   const c = await emailContext(db, shopId, workOrderId);
   if (!c?.email) return { ok: false, error: "no e-mail address" };
   const pdf = await bikeReadyAttachment(db, shopId, workOrderId);
+  const notice = await overrideNotice(db, shopId, workOrderId);
   return sendMail(db, {
     shopId,
     workOrderId,
     kind: "bike_ready",
     to: c.email,
     subject: `Your ${c.make} ${c.model} is ready to collect`,
-    text: `Hello ${c.customerName},\n\nThe work on your ${c.make} ${c.model} (${c.tagCode}) is done and the bike is ready to collect. The build report is attached.\n\n${c.shopName}`,
+    text: notice
+      ? `Hello ${c.customerName},\n\nYour ${c.make} ${c.model} (${c.tagCode}) is ready to collect.\n\n${notice}The build report is attached.\n\n${c.shopName}`
+      : `Hello ${c.customerName},\n\nThe work on your ${c.make} ${c.model} (${c.tagCode}) is done and the bike is ready to collect. The build report is attached.\n\n${c.shopName}`,
     attachments: [{ filename: `work-order-${c.number}-handover.pdf`, content: pdf, contentType: "application/pdf" }],
   });
 }

@@ -5,6 +5,8 @@ import { db } from "@/db/setup/client";
 import { bikesOfCustomer } from "@/db/shop/bikes";
 import { loadBuildProgress } from "@/db/records/build-progress";
 import { quotesForCustomer } from "@/db/office/quotes";
+import { reportRevisionsOf } from "@/db/records/report-revisions";
+import { reviseAfterAcceptedChange } from "../_server/frozen-report";
 import { CustomerQuote } from "./_components/customer-quote";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
@@ -21,6 +23,16 @@ export default async function MyBikesPage() {
   // how far the build has got, for jobs on the bench or in review (the bikes above are the customer's own)
   const building = bikes.flatMap((b) => b.workOrders).filter((w) => isBeingBuilt(w.status));
   const progress = new Map(await Promise.all(building.map(async (w) => [w.id, await loadBuildProgress(db(), user, w.id)] as const)));
+  // the stored copies of the report of every job handed over (brought up to date first)
+  const handedOver = bikes.flatMap((b) => b.workOrders).filter((w) => w.status === "handed_over");
+  const copies = new Map(
+    await Promise.all(
+      handedOver.map(async (w) => {
+        await reviseAfterAcceptedChange(db(), user.shopId, w.id, null);
+        return [w.id, await reportRevisionsOf(db(), user.shopId, w.id)] as const;
+      }),
+    ),
+  );
   return (
     <AppFrame user={user} current="/my-bikes">
       <h1 className="text-3xl font-bold">My bikes</h1>
@@ -47,6 +59,7 @@ export default async function MyBikesPage() {
                     </a>
                   </div>
                   <BuildLine progress={progress.get(w.id) ?? null} />
+                  <StoredCopies workOrderId={w.id} copies={copies.get(w.id) ?? []} />
                   {quoteOf(w.id) && <CustomerQuote quote={quoteOf(w.id)!} />}
                 </li>
               ))}
@@ -66,5 +79,41 @@ function BuildLine({ progress }: { progress: BuildProgress | null }) {
       Build: {progress.stepsDone} of {progress.stepsTotal} steps done · {progress.approvedStages} of {progress.stages.length} stages checked
       by the workshop supervisor
     </p>
+  );
+}
+
+/** Every stored copy of a handed-over job's report: which one was handed over, and what each later one changed. */
+function StoredCopies({ workOrderId, copies }: { workOrderId: string; copies: Awaited<ReturnType<typeof reportRevisionsOf>> }) {
+  if (copies.length === 0) return null;
+  return (
+    <div className="mt-2 rounded-lg border-2 border-steel-300 p-3" data-testid="my-report-copies">
+      <p className="text-base font-bold">The build report as handed over, and every revision since</p>
+      <ol className="mt-1 space-y-2">
+        {copies.map((c) => (
+          <li key={c.revision} className="text-base" data-testid="my-report-copy">
+            <a
+              href={`/api/jobs/${workOrderId}/build-report?revision=${c.revision}`}
+              download
+              className="inline-flex min-h-12 items-center rounded-lg border-2 border-ink px-3 font-bold"
+            >
+              Revision {c.revision} (PDF)
+            </a>{" "}
+            {c.handedOver ? (
+              <span className="font-bold">✔ the one handed over, {c.madeAt.toISOString().slice(0, 10)}</span>
+            ) : (
+              <span>{c.madeAt.toISOString().slice(0, 10)}</span>
+            )}
+            {c.changes.length > 0 && (
+              <ul className="ml-4 list-disc text-sm">
+                {c.changes.map((x, i) => (
+                  <li key={i}>{x}</li>
+                ))}
+              </ul>
+            )}
+            <span className="block font-mono text-xs text-steel-700">SHA-256 {c.sha256}</span>
+          </li>
+        ))}
+      </ol>
+    </div>
   );
 }

@@ -52,7 +52,10 @@ function bikeOf(r: JobRow) {
   };
 }
 
-function assignment(user: SessionUser, r: JobRow) {
+/** Who is reading a job: whether they may work on it depends on it. */
+type Viewer = Pick<SessionUser, "id" | "shopId" | "role">;
+
+function assignment(user: Viewer, r: JobRow) {
   return {
     assignedMechanic: r.assigned_mechanic_id ? { id: r.assigned_mechanic_id, name: r.mechanic_name ?? "" } : null,
     assignedToMe: r.assigned_mechanic_id === user.id,
@@ -109,135 +112,141 @@ export async function findJobByTag(db: Kysely<Database>, user: SessionUser, tagC
   };
 }
 
-/** Everything the bench needs for one job of the user's shop, read in one consistent snapshot; null when not in the shop. */
-export async function getJobSnapshot(db: Kysely<Database>, user: SessionUser, jobId: string): Promise<JobSnapshot | null> {
+/**
+ * Everything the bench needs for one job of the user's shop, read in one consistent snapshot; null
+ * when not in the shop. Inside a caller's transaction it reads there (and sees what it wrote).
+ */
+export async function getJobSnapshot(db: Kysely<Database>, user: Viewer, jobId: string): Promise<JobSnapshot | null> {
+  if (db.isTransaction) return readJobSnapshot(db, user, jobId);
   return db
     .transaction()
     .setIsolationLevel("repeatable read")
-    .execute(async (trx) => {
-      const jobRows = await sql<JobRow>`
-        SELECT ${jobColumns} FROM ${jobFrom} WHERE w.id = ${jobId}::uuid AND w.shop_id = ${user.shopId}::uuid
-      `.execute(trx);
-      const job = jobRows.rows[0];
-      if (!job) return null;
+    .execute((trx) => readJobSnapshot(trx, user, jobId));
+}
 
-      // the template versions pinned on the job, and everything in them
-      const pinnedVersions = trx.selectFrom("job_procedures").select("template_version_id").where("work_order_id", "=", jobId);
-      const pinnedSteps = trx.selectFrom("template_steps as s").where("s.template_version_id", "in", pinnedVersions);
-      const [people, procedures, steps, torque, measurementSpecs, timerSpecs] = await Promise.all([
-        trx
-          .selectFrom("users")
-          .select(["id", "name", "role"])
-          .where("shop_id", "=", user.shopId)
-          .where("role", "in", ["mechanic", "supervisor"] as const)
-          .where("active", "=", true)
-          .orderBy("name")
-          .$narrowType<{ role: "mechanic" | "supervisor" }>()
-          .execute(),
-        trx
-          .selectFrom("job_procedures as jp")
-          .innerJoin("template_versions as v", "v.id", "jp.template_version_id")
-          .innerJoin("procedure_templates as t", "t.id", "v.template_id")
-          .select(["jp.id", "jp.position", "jp.template_version_id", "t.key", "v.name", "v.version", "v.example_only"])
-          .where("jp.work_order_id", "=", jobId)
-          .orderBy("jp.position")
-          .execute(),
-        pinnedSteps
-          .select([
-            "s.id",
-            "s.template_version_id",
-            "s.stage_key",
-            "s.stage_title",
-            "s.stage_position",
-            "s.position",
-            "s.key",
-            "s.title",
-            "s.instructions",
-            "s.cautions",
-            "s.requires_photo",
-            "s.waits_for_step_key",
-          ])
-          .orderBy("s.stage_position")
-          .orderBy("s.position")
-          .execute(),
-        pinnedSteps.innerJoin("torque_specs as t", "t.step_id", "s.id").selectAll("t").orderBy("t.label").orderBy("t.id").execute(),
-        pinnedSteps.innerJoin("measurement_specs as m", "m.step_id", "s.id").selectAll("m").orderBy("m.key").execute(),
-        pinnedSteps.innerJoin("timer_specs as t", "t.step_id", "s.id").selectAll("t").orderBy("t.label").orderBy("t.id").execute(),
-      ]);
-      const state = await loadJobState(trx, jobId);
-      const cursor = await shopCursor(trx, user.shopId);
+async function readJobSnapshot(trx: Kysely<Database>, user: Viewer, jobId: string): Promise<JobSnapshot | null> {
+  const jobRows = await sql<JobRow>`
+    SELECT ${jobColumns} FROM ${jobFrom} WHERE w.id = ${jobId}::uuid AND w.shop_id = ${user.shopId}::uuid
+  `.execute(trx);
+  const job = jobRows.rows[0];
+  if (!job) return null;
 
-      const bySteps = <T extends { step_id: string }>(rows: T[]) => {
-        const m = new Map<string, T[]>();
-        for (const r of rows) m.set(r.step_id, [...(m.get(r.step_id) ?? []), r]);
-        return m;
-      };
-      const torqueBy = bySteps(torque);
-      const measuresBy = bySteps(measurementSpecs);
-      const timersBy = bySteps(timerSpecs);
+  // the template versions pinned on the job, and everything in them
+  const pinnedVersions = trx.selectFrom("job_procedures").select("template_version_id").where("work_order_id", "=", jobId);
+  const pinnedSteps = trx.selectFrom("template_steps as s").where("s.template_version_id", "in", pinnedVersions);
+  const [people, procedures, steps, torque, measurementSpecs, timerSpecs] = await Promise.all([
+    trx
+      .selectFrom("users")
+      .select(["id", "name", "role"])
+      .where("shop_id", "=", user.shopId)
+      .where("role", "in", ["mechanic", "supervisor"] as const)
+      .where("active", "=", true)
+      .orderBy("name")
+      .$narrowType<{ role: "mechanic" | "supervisor" }>()
+      .execute(),
+    trx
+      .selectFrom("job_procedures as jp")
+      .innerJoin("template_versions as v", "v.id", "jp.template_version_id")
+      .innerJoin("procedure_templates as t", "t.id", "v.template_id")
+      .select(["jp.id", "jp.position", "jp.template_version_id", "t.key", "v.name", "v.version", "v.example_only"])
+      .where("jp.work_order_id", "=", jobId)
+      .orderBy("jp.position")
+      .execute(),
+    pinnedSteps
+      .select([
+        "s.id",
+        "s.template_version_id",
+        "s.stage_key",
+        "s.stage_title",
+        "s.stage_position",
+        "s.position",
+        "s.key",
+        "s.title",
+        "s.instructions",
+        "s.cautions",
+        "s.requires_photo",
+        "s.waits_for_step_key",
+      ])
+      .orderBy("s.stage_position")
+      .orderBy("s.position")
+      .execute(),
+    pinnedSteps.innerJoin("torque_specs as t", "t.step_id", "s.id").selectAll("t").orderBy("t.label").orderBy("t.id").execute(),
+    pinnedSteps.innerJoin("measurement_specs as m", "m.step_id", "s.id").selectAll("m").orderBy("m.key").execute(),
+    pinnedSteps.innerJoin("timer_specs as t", "t.step_id", "s.id").selectAll("t").orderBy("t.label").orderBy("t.id").execute(),
+  ]);
+  const state = await loadJobState(trx, jobId);
+  const cursor = await shopCursor(trx, user.shopId);
 
+  const bySteps = <T extends { step_id: string }>(rows: T[]) => {
+    const m = new Map<string, T[]>();
+    for (const r of rows) m.set(r.step_id, [...(m.get(r.step_id) ?? []), r]);
+    return m;
+  };
+  const torqueBy = bySteps(torque);
+  const measuresBy = bySteps(measurementSpecs);
+  const timersBy = bySteps(timerSpecs);
+
+  return {
+    workOrder: {
+      id: job.id,
+      number: job.number,
+      title: job.title,
+      complaint: job.complaint,
+      status: job.status,
+      statusLabel: STATUS_LABELS[job.status] ?? job.status,
+      openForBenchWork: isOpenForBenchWork(job.status),
+      ...assignment(user, job),
+    },
+    bike: bikeOf(job),
+    people,
+    procedures: procedures.map((p) => {
+      const stages = new Map<string, JobSnapshot["procedures"][number]["stages"][number]>();
+      for (const s of steps.filter((s) => s.template_version_id === p.template_version_id)) {
+        const stage = stages.get(s.stage_key) ?? { key: s.stage_key, title: s.stage_title, position: s.stage_position, steps: [] };
+        stages.set(s.stage_key, stage);
+        stage.steps.push({
+          id: s.id,
+          key: s.key,
+          title: s.title,
+          position: s.position,
+          instructions: s.instructions,
+          cautions: s.cautions,
+          requiresPhoto: s.requires_photo,
+          waitsForStepKey: s.waits_for_step_key,
+          torqueSpecs: (torqueBy.get(s.id) ?? []).map((t) => ({ id: t.id, ...torqueSpecOfRow(t) })),
+          measurementSpecs: (measuresBy.get(s.id) ?? []).map((m) => ({
+            id: m.id,
+            key: m.key,
+            label: m.label,
+            nominal: numOrNull(m.nominal),
+            min: num(m.min),
+            max: num(m.max),
+            unit: m.unit,
+            readingLabels: m.reading_labels,
+            geometry: m.geometry,
+          })),
+          timerSpecs: (timersBy.get(s.id) ?? []).map((t) => ({
+            id: t.id,
+            label: t.label,
+            durationS: t.duration_s,
+            blocksStepKey: t.blocks_step_key,
+          })),
+        });
+      }
       return {
-        workOrder: {
-          id: job.id,
-          number: job.number,
-          title: job.title,
-          complaint: job.complaint,
-          status: job.status,
-          statusLabel: STATUS_LABELS[job.status] ?? job.status,
-          openForBenchWork: isOpenForBenchWork(job.status),
-          ...assignment(user, job),
-        },
-        bike: bikeOf(job),
-        people,
-        procedures: procedures.map((p) => {
-          const stages = new Map<string, JobSnapshot["procedures"][number]["stages"][number]>();
-          for (const s of steps.filter((s) => s.template_version_id === p.template_version_id)) {
-            const stage = stages.get(s.stage_key) ?? { key: s.stage_key, title: s.stage_title, position: s.stage_position, steps: [] };
-            stages.set(s.stage_key, stage);
-            stage.steps.push({
-              id: s.id,
-              key: s.key,
-              title: s.title,
-              position: s.position,
-              instructions: s.instructions,
-              cautions: s.cautions,
-              requiresPhoto: s.requires_photo,
-              waitsForStepKey: s.waits_for_step_key,
-              torqueSpecs: (torqueBy.get(s.id) ?? []).map((t) => ({ id: t.id, ...torqueSpecOfRow(t) })),
-              measurementSpecs: (measuresBy.get(s.id) ?? []).map((m) => ({
-                id: m.id,
-                key: m.key,
-                label: m.label,
-                nominal: numOrNull(m.nominal),
-                min: num(m.min),
-                max: num(m.max),
-                unit: m.unit,
-                readingLabels: m.reading_labels,
-                geometry: m.geometry,
-              })),
-              timerSpecs: (timersBy.get(s.id) ?? []).map((t) => ({
-                id: t.id,
-                label: t.label,
-                durationS: t.duration_s,
-                blocksStepKey: t.blocks_step_key,
-              })),
-            });
-          }
-          return {
-            jobProcedureId: p.id,
-            position: p.position,
-            templateVersionId: p.template_version_id,
-            templateKey: p.key,
-            name: p.name,
-            version: p.version,
-            exampleOnly: p.example_only,
-            stages: [...stages.values()].sort((a, b) => a.position - b.position),
-          };
-        }),
-        state,
-        cursor: String(cursor),
+        jobProcedureId: p.id,
+        position: p.position,
+        templateVersionId: p.template_version_id,
+        templateKey: p.key,
+        name: p.name,
+        version: p.version,
+        exampleOnly: p.example_only,
+        stages: [...stages.values()].sort((a, b) => a.position - b.position),
       };
-    });
+    }),
+    state,
+    cursor: String(cursor),
+  };
 }
 
 /** The recorded work on a job: completions, every reading (superseded too), torque, timers, sign-offs, decisions, photos, parts. */

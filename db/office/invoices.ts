@@ -1,15 +1,33 @@
 import "server-only";
 import type { Kysely, Transaction } from "kysely";
 import { Refusal } from "@/lib/errors";
+import type { OverrideRequest } from "@/lib/work-orders/transition-rules";
+import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
-import { moveWorkOrder } from "../shop/work-orders";
+import { MoveRefusal, moveWorkOrder } from "../shop/work-orders";
 
-// Handover: the move to "handed over" and the final invoice, together or not at all.
-export async function handOver(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, note = "") {
-  return db.transaction().execute(async (trx) => {
-    await moveWorkOrder(trx, shopId, userId, workOrderId, "handed_over", { note });
-    return createFinalInvoice(trx, shopId, userId, workOrderId);
-  });
+export interface HandoverOptions<R> {
+  note?: string;
+  override?: OverrideRequest | null;
+  /** Stores the build report as handed over, inside the handover's transaction (it sees the move). */
+  storeReport: (trx: Transaction<Database>) => Promise<R>;
+}
+
+// Handover: the move to "handed over" (gated on the record, see moveWorkOrder), the final invoice
+// and the stored copy of the build report, together or not at all. A refused move is written to
+// the audit log after the rollback.
+export async function handOver<R>(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, opts: HandoverOptions<R>) {
+  try {
+    return await db.transaction().execute(async (trx) => {
+      const moved = await moveWorkOrder(trx, shopId, userId, workOrderId, "handed_over", { note: opts.note, override: opts.override });
+      const invoice = await createFinalInvoice(trx, shopId, userId, workOrderId);
+      const report = await opts.storeReport(trx);
+      return { ...moved, invoice, report };
+    });
+  } catch (e) {
+    if (e instanceof MoveRefusal) await appendAudit(db, e.audit);
+    throw e;
+  }
 }
 
 // The final invoice at handover: the approved quote's totals less the deposits paid. One per job.

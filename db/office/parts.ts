@@ -4,6 +4,7 @@ import { partFittedSchema } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
 import type { z } from "zod";
 import { partColumns } from "../records/parts-fitted";
+import { withOpenRecord } from "../shop/open-record";
 import type { Database } from "../schema";
 
 export async function addPartFitted(
@@ -14,35 +15,35 @@ export async function addPartFitted(
   input: z.input<typeof partFittedSchema>,
 ) {
   const p = partFittedSchema.parse(input);
-  const wo = await db.selectFrom("work_orders").select("id").where("id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
-  if (!wo) throw new Refusal("No such work order in this shop.", 404);
-  if (p.stepId) {
-    const step = await db
-      .selectFrom("template_steps as s")
-      .innerJoin("job_procedures as j", "j.template_version_id", "s.template_version_id")
-      .select("s.id")
-      .where("s.id", "=", p.stepId)
-      .where("j.work_order_id", "=", workOrderId)
-      .executeTakeFirst();
-    if (!step)
-      throw new Refusal("That step is not part of this job's procedures.", 422, [{ path: "stepId", message: "not a step of this job" }]);
-  }
-  return db
-    .insertInto("parts_fitted")
-    .values({
-      shop_id: shopId,
-      work_order_id: workOrderId,
-      step_id: p.stepId,
-      part_number: p.partNumber,
-      description: p.description,
-      supplier: p.supplier,
-      serial: p.serial,
-      batch: p.batch,
-      quantity: p.quantity,
-      fitted_by: userId,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
+  return withOpenRecord(db, { shopId, userId }, workOrderId, "part", async (trx) => {
+    if (p.stepId) {
+      const step = await trx
+        .selectFrom("template_steps as s")
+        .innerJoin("job_procedures as j", "j.template_version_id", "s.template_version_id")
+        .select("s.id")
+        .where("s.id", "=", p.stepId)
+        .where("j.work_order_id", "=", workOrderId)
+        .executeTakeFirst();
+      if (!step)
+        throw new Refusal("That step is not part of this job's procedures.", 422, [{ path: "stepId", message: "not a step of this job" }]);
+    }
+    return trx
+      .insertInto("parts_fitted")
+      .values({
+        shop_id: shopId,
+        work_order_id: workOrderId,
+        step_id: p.stepId,
+        part_number: p.partNumber,
+        description: p.description,
+        supplier: p.supplier,
+        serial: p.serial,
+        batch: p.batch,
+        quantity: p.quantity,
+        fitted_by: userId,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+  });
 }
 
 // "Which bikes got batch X?" — one query: every fitting of a part whose batch or serial matches

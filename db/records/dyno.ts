@@ -3,7 +3,9 @@ import { sql, type Kysely } from "kysely";
 import { CHANNEL_IDS, type ChannelId, type DynoRunInput, type RunWithdrawalInput, type StoredDynoRun } from "@/lib/dyno";
 import { CHECK_THE_FIELDS, Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
-import { DYNO_STATUSES } from "@/lib/work-orders/status";
+import { DYNO_STATUSES, isClosed } from "@/lib/work-orders/status";
+import { closedRecordRefusal } from "@/lib/work-orders/closed-record";
+import { mayRecordRun, NOT_YOUR_RUN } from "@/lib/dyno/run-permission";
 import type { Database } from "../schema";
 import { workOrdersWithBike } from "../shop/work-orders";
 
@@ -160,9 +162,11 @@ type RunToSave = Omit<DynoRunInput, "channels" | "fuel" | "tuneVersionId"> &
   Partial<Pick<DynoRunInput, "channels" | "fuel" | "tuneVersionId">>;
 
 /**
- * Stores a checked run, its points and its logged channels in one transaction (all or nothing).
- * Returns the new id, or null when the work order is not this shop's. A tune that is not one of the
- * work order's tune versions is refused (400, field tuneVersionId).
+ * Stores a checked run, its points and its logged channels in one transaction (all or nothing),
+ * with its audit entry. Refused (409, with the audit entry) once the job's record is closed, and
+ * (403) when `userId` is not the job's mechanic, a supervisor or the office
+ * (lib/dyno/run-permission.ts); a tune that is not one of the work order's tune versions is refused
+ * (400, field tuneVersionId). Returns the new id, or null when the work order is not this shop's.
  */
 export async function saveDynoRun(
   db: Kysely<Database>,
@@ -171,14 +175,26 @@ export async function saveDynoRun(
   userId: string | null,
   run: RunToSave,
 ): Promise<string | null> {
-  return db.transaction().execute(async (trx) => {
+  const result = await db.transaction().execute(async (trx) => {
     const job = await trx
       .selectFrom("work_orders")
-      .select("id")
+      .select(["id", "number", "status", "assigned_mechanic_id"])
       .where("shop_id", "=", shopId)
       .where("id", "=", workOrderId)
+      .forShare()
       .executeTakeFirst();
     if (!job) return null;
+    const audit = { shopId, actorId: userId, action: "dyno.run-recorded", entity: "dyno_run", workOrderId };
+    const user = userId
+      ? await trx.selectFrom("users").select(["id", "shop_id as shopId", "role"]).where("id", "=", userId).executeTakeFirst()
+      : undefined;
+    const refusal =
+      closedRecordRefusal(job, "dyno run") ??
+      (user && !mayRecordRun(user, { shopId, assignedMechanicId: job.assigned_mechanic_id }) ? NOT_YOUR_RUN : null);
+    if (refusal) {
+      await appendAudit(trx, [{ ...audit, outcome: "refused", reason: refusal, detail: { label: run.label, ranOn: run.ranOn } }]);
+      return { ok: false as const, refused: refusal, status: refusal === NOT_YOUR_RUN ? (403 as const) : (409 as const) };
+    }
     const tuneVersionId = run.tuneVersionId ?? null;
     if (run.tuneVersionId === undefined) {
       const anyTune = await trx.selectFrom("tune_versions").select("id").where("work_order_id", "=", workOrderId).executeTakeFirst();
@@ -246,11 +262,22 @@ export async function saveDynoRun(
         .values(channels.map((c) => ({ run_id: id, channel: c.channel, unit: c.unit, source_column: c.sourceColumn })))
         .execute();
     }
-    return id;
+    await appendAudit(trx, [
+      {
+        ...audit,
+        entityId: id,
+        outcome: "accepted",
+        detail: { label: run.label, ranOn: run.ranOn, source: run.source, points: run.points.length, standard: run.standard },
+      },
+    ]);
+    return { ok: true as const, id };
   });
+  if (!result) return null;
+  if (!result.ok) throw new Refusal(result.refused, result.status);
+  return result.id;
 }
 
-type WithdrawRunResult = { ok: true; runId: string } | { ok: false; status: 404 | 409; reason: string };
+type WithdrawRunResult = { ok: true; runId: string; closedJob: boolean } | { ok: false; status: 404 | 409; reason: string };
 
 /**
  * Withdraws a run of the work order (see lib/dyno/run-withdrawal.ts), with the audit entry, in one
@@ -292,6 +319,7 @@ export async function withdrawDynoRun(
       .where("id", "=", run.id)
       .execute();
     await appendAudit(trx, [{ ...audit, outcome: "accepted", detail: { label: run.label } }]);
-    return { ok: true, runId: run.id };
+    const job = await trx.selectFrom("work_orders").select("status").where("id", "=", workOrderId).executeTakeFirstOrThrow();
+    return { ok: true, runId: run.id, closedJob: isClosed(job.status) };
   });
 }

@@ -2,11 +2,19 @@ import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
+import type { WorkOrderStatus } from "@/lib/work-orders/status";
+import { entryDetail, entryKindLabel, placeOfEntry } from "@/lib/review/flagged-work";
+import { buildWorkOrderView } from "@/lib/work-order-record";
+import { getJobSnapshot } from "../bench/jobs";
+import { flaggedEntriesOf, placeLookups } from "../review/flagged-work";
+import { loadOpenItems } from "./open-items";
+import { overridesOf } from "./status-overrides";
 import { listDynoRuns } from "./dyno";
 import { partsOfWorkOrder } from "./parts-fitted";
 import type { Database } from "../schema";
 import { workOrdersWithBike } from "../shop/work-orders";
 import { withdrawnEntries } from "./withdrawn-entries";
+import { listTuneVersions } from "./tunes";
 
 // Everything the handover build report shows, read for one work order of one shop.
 
@@ -18,11 +26,11 @@ export async function reportWorkOrderFor(
   db: Kysely<Database>,
   user: SessionUser,
   workOrderId: string,
-): Promise<{ id: string; number: number; tagCode: string } | null> {
+): Promise<{ id: string; number: number; tagCode: string; status: WorkOrderStatus } | null> {
   let q = db
     .selectFrom("work_orders as w")
     .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .select(["w.id", "w.number", "b.tag_code as tagCode"])
+    .select(["w.id", "w.number", "b.tag_code as tagCode", "w.status"])
     .where("w.shop_id", "=", user.shopId)
     .where("w.id", "=", workOrderId);
   if (user.role === "customer") {
@@ -66,7 +74,7 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
     .orderBy("jp.position")
     .execute();
   const versionIds = procedures.map((p) => p.versionId);
-  const steps = versionIds.length
+  const templateSteps = versionIds.length
     ? await db
         .selectFrom("template_steps")
         .select(["id", "template_version_id as versionId", "stage_key as stageKey", "stage_title as stageTitle", "title", "cautions"])
@@ -75,33 +83,46 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
         .orderBy("position")
         .execute()
     : [];
-  const completed = await db
-    .selectFrom("step_completions as sc")
-    .innerJoin("users as u", "u.id", "sc.completed_by")
-    .select(["sc.step_id as stepId", "u.name as by", "sc.device_time as at"])
-    .where("sc.work_order_id", "=", workOrderId)
-    .where("sc.flagged", "=", false)
-    .where(({ not, exists, selectFrom }) =>
-      not(exists(selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "sc.id"))),
-    )
-    .orderBy("sc.device_time")
-    .execute();
+  // Whether each step is done, by the rules the bench and the build progress use (a step sent
+  // back is open until it is done again): the work-order record view of the job's snapshot.
+  const snapshot = await getJobSnapshot(db, { id: "", shopId, role: "office" }, workOrderId);
+  const view = snapshot ? buildWorkOrderView(snapshot, [], Date.now()) : null;
+  const names = new Map(
+    (await db.selectFrom("users").select(["id", "name"]).where("shop_id", "=", shopId).execute()).map((u) => [u.id, u.name]),
+  );
+  const steps = templateSteps.map((s) => {
+    const sv = view?.steps.find((v) => v.step.id === s.id);
+    const last = snapshot?.state.completions.filter((c) => c.stepId === s.id).at(-1);
+    return {
+      ...s,
+      done: sv?.done ?? false,
+      reopenedReason: sv?.reopened?.reason ?? null,
+      doneBy: sv?.done && last ? (names.get(last.completedBy) ?? "—") : null,
+      doneAt: sv?.done && last ? last.deviceTime : null,
+    };
+  });
+  const openItems = (await loadOpenItems(db, shopId, workOrderId)) ?? [];
 
   // withdrawn parts are listed with the other withdrawn entries, not as fitted
   const parts = (await partsOfWorkOrder(db, shopId, workOrderId)).filter((p) => !p.withdrawn);
   const withdrawn = await withdrawnEntries(db, shopId, { workOrderId });
 
-  // current readings: those no later reading supersedes
+  // Current readings: the database view current_measurements (one per spot: the latest stamp among
+  // the readings no correction replaced), the definition every screen of the app reads.
   const readings = await db
-    .selectFrom("measurements as m")
+    .selectFrom("current_measurements as m")
     .innerJoin("measurement_specs as s", "s.id", "m.spec_id")
     .innerJoin("template_steps as t", "t.id", "m.step_id")
+    .leftJoin("reading_acceptances as a", "a.measurement_id", "m.id")
     .select([
+      "m.id",
       "m.spec_id as specId",
       "m.reading_index as readingIndex",
       "m.value",
       "m.unit",
       "m.verdict",
+      "m.flag_reason as flagReason",
+      "a.justification as acceptedBecause",
       "s.label",
       "s.nominal",
       "s.min",
@@ -113,14 +134,10 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
       "t.position as stepPosition",
     ])
     .where("m.work_order_id", "=", workOrderId)
-    .where(({ not, exists, selectFrom }) =>
-      not(exists(selectFrom("measurements as later").select("later.id").whereRef("later.supersedes_id", "=", "m.id"))),
-    )
     .orderBy("t.stage_position")
     .orderBy("t.position")
     .orderBy("s.key")
     .orderBy("m.reading_index")
-    .orderBy("m.device_time")
     .execute();
 
   const stepIds = steps.map((s) => s.id);
@@ -184,7 +201,41 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
 
   // Withdrawn runs stay on record but do not go in the report.
   const runs = countingRuns(await listDynoRuns(db, shopId, workOrderId));
-  return { job, procedures, steps, completed, parts, readings, torqueSpecs, signOffs, decisions, runs, withdrawn };
+
+  // Flagged entries with the supervisor's acceptance, each with the step it belongs to.
+  const flaggedByJob = await flaggedEntriesOf(db, shopId, [workOrderId]);
+  const lookup = (await placeLookups(db, flaggedByJob)).get(workOrderId);
+  const stepTitle = new Map(templateSteps.map((s) => [s.id, s.title]));
+  const flagged = (flaggedByJob.get(workOrderId) ?? []).map((e) => {
+    const stepId = lookup ? placeOfEntry(e, lookup).stepId : null;
+    return {
+      what: [entryKindLabel(e.kind), entryDetail(e.kind, e.payload)].filter(Boolean).join(": "),
+      stepTitle: stepId ? (stepTitle.get(stepId) ?? null) : null,
+      by: names.get(e.authorId) ?? "—",
+      flagReason: e.flagReason,
+      acceptance: e.acceptance ? { by: names.get(e.acceptance.acceptedBy) ?? "—", justification: e.acceptance.justification } : null,
+    };
+  });
+
+  // The office's overrides: moves made while items were open, with the reason and those items.
+  const overrides = await overridesOf(db, shopId, workOrderId);
+
+  return {
+    job,
+    procedures,
+    steps,
+    parts,
+    readings,
+    torqueSpecs,
+    signOffs,
+    decisions,
+    runs,
+    flagged,
+    overrides,
+    openItems,
+    withdrawn,
+    tunes: await listTuneVersions(db, shopId, workOrderId),
+  };
 }
 
 export type HandoverReportData = NonNullable<Awaited<ReturnType<typeof loadHandoverReport>>>;

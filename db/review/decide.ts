@@ -5,11 +5,21 @@ import type { DecisionInput } from "@/lib/review/decision-input";
 import { checkDecision, type DecisionCheck } from "@/lib/review/decision-rules";
 import { isClosed } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
-import { latestDecisionOn, latestSignOffOfStage, signOffInShop, stageOutOfTolerance, stageSteps } from "./stage";
+import { latestDecisionOn, latestSignOffOfStage, signOffInShop, stageFlaggedEntries, stageOutOfTolerance, stageSteps } from "./stage";
 import type { Database } from "../schema";
 
 type DecideResult =
-  | { ok: true; decisionId: string; decision: "approved" | "sent_back"; reopenedStepIds: string[]; accepted: number; changeSeq: string }
+  | {
+      ok: true;
+      decisionId: string;
+      decision: "approved" | "sent_back";
+      reopenedStepIds: string[];
+      accepted: number;
+      /** The job is closed: an accepted change that the stored build report must follow (a new revision). */
+      closedJob: boolean;
+      workOrderId: string;
+      changeSeq: string;
+    }
   | { ok: false; status: 403 | 404 | 409 | 422; reason: string; issues: Array<{ path: string; message: string }> };
 
 /**
@@ -31,11 +41,12 @@ export async function decideOnSignOff(
     const so = await signOffInShop(trx, user.shopId, signOffId);
     if (!so) return { ok: false, status: 404, reason: "No such sign-off in this shop.", issues: [] };
 
-    const [latestSignOffId, latestDecision, steps, outOfTolerance] = await Promise.all([
+    const [latestSignOffId, latestDecision, steps, outOfTolerance, flagged] = await Promise.all([
       latestSignOffOfStage(trx, so.jobProcedureId, so.stageKey),
       latestDecisionOn(trx, so.id),
       stageSteps(trx, so.templateVersionId, so.stageKey),
       stageOutOfTolerance(trx, so.workOrderId, so.templateVersionId, so.stageKey),
+      stageFlaggedEntries(trx, user.shopId, so),
     ]);
     const check: DecisionCheck = checkDecision(
       {
@@ -46,6 +57,7 @@ export async function decideOnSignOff(
         latestDecisionId: latestDecision?.id ?? null,
         stageSteps: steps,
         outOfTolerance: outOfTolerance.map((o) => ({ readingId: o.readingId, description: o.description, accepted: o.accepted })),
+        flagged: flagged.map((x) => ({ operationId: x.operationId, description: x.description, accepted: x.acceptance !== null })),
       },
       input,
     );
@@ -93,7 +105,22 @@ export async function decideOnSignOff(
         )
         .execute();
     }
+    if (input.flagAcceptances.length) {
+      await trx
+        .insertInto("flag_acceptances")
+        .values(
+          input.flagAcceptances.map((a) => ({
+            shop_id: user.shopId,
+            operation_id: a.operationId,
+            decision_id: decision.id,
+            justification: a.justification,
+            accepted_by: user.id,
+          })),
+        )
+        .execute();
+    }
     const described = new Map(outOfTolerance.map((o) => [o.readingId, o.description]));
+    const flagDescribed = new Map(flagged.map((x) => [x.operationId, x.description]));
     await appendAudit(trx, [
       {
         shopId: user.shopId,
@@ -115,6 +142,11 @@ export async function decideOnSignOff(
             reading: described.get(a.readingId),
             justification: a.justification,
           })),
+          flagAcceptances: input.flagAcceptances.map((a) => ({
+            operationId: a.operationId,
+            entry: flagDescribed.get(a.operationId),
+            justification: a.justification,
+          })),
         },
       },
     ]);
@@ -123,7 +155,9 @@ export async function decideOnSignOff(
       decisionId: decision.id,
       decision: input.decision,
       reopenedStepIds: check.reopenStepIds,
-      accepted: input.acceptances.length,
+      accepted: input.acceptances.length + input.flagAcceptances.length,
+      closedJob: isClosed(so.status),
+      workOrderId: so.workOrderId,
       changeSeq: String(decision.change_seq),
     };
   });

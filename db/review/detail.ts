@@ -4,6 +4,7 @@ import { canReach } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { buildStageReview, type DecisionFact, type StageReview } from "@/lib/review/stage-review";
 import { getJobSnapshot } from "../bench/jobs";
+import { stageFlaggedEntries } from "./stage";
 import type { Database } from "../schema";
 
 export interface SignOffReview extends StageReview {
@@ -20,6 +21,22 @@ export interface SignOffReview extends StageReview {
   mayDecide: boolean;
   /** Why the signed-in user may not decide, when they may not. */
   whyNot: string | null;
+  /**
+   * Entries the sync kept and flagged on this stage (any kind), and those of the job on no stage:
+   * to approve, each not yet accepted needs a written acceptance.
+   */
+  flagged: Array<{
+    operationId: string;
+    description: string;
+    flagReason: string;
+    by: { id: string; name: string };
+    deviceTime: string;
+    receivedAt: string;
+    onNoStage: boolean;
+    /** Received after the standing approval of this stage: it put the stage back in the queue. */
+    afterApproval: boolean;
+    acceptance: { by: { id: string; name: string }; justification: string; acceptedAt: string } | null;
+  }>;
 }
 
 const iso = (d: unknown) => new Date(d as string | Date).toISOString();
@@ -121,6 +138,13 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
   if (!review) return null;
 
   const standing = review.decisions.at(-1) ?? null;
+  const entries = await stageFlaggedEntries(db, user.shopId, {
+    workOrderId: so.workOrderId,
+    jobProcedureId: review.stage.jobProcedureId,
+    stageKey: review.stage.key,
+  });
+  const nameOf = (id: string) => ({ id, name: names.find((u) => u.id === id)?.name ?? "someone" });
+  const approvedAt = standing?.decision === "approved" ? BigInt(standing.seq) : null;
   const whyNot = !canReach(user.role, "decide")
     ? `Your role (${user.role}) may look but not decide.`
     : review.signOff.by.id === user.id
@@ -143,5 +167,18 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
     standingDecisionId: standing?.id ?? null,
     mayDecide: whyNot === null,
     whyNot,
+    flagged: entries.map((e) => ({
+      operationId: e.operationId,
+      description: e.description,
+      flagReason: e.flagReason,
+      by: nameOf(e.authorId),
+      deviceTime: e.deviceTime,
+      receivedAt: e.receivedAt,
+      onNoStage: e.onNoStage,
+      afterApproval: approvedAt !== null && BigInt(e.seq) > approvedAt,
+      acceptance: e.acceptance
+        ? { by: nameOf(e.acceptance.acceptedBy), justification: e.acceptance.justification, acceptedAt: e.acceptance.acceptedAt }
+        : null,
+    })),
   };
 }

@@ -1,10 +1,15 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { QueueQuery } from "@/lib/review/list-queries";
+import type { WorkOrderStatus } from "@/lib/work-orders/status";
+import { stagesWithOpenFlags } from "./flagged-work";
 import type { Database } from "../schema";
 
 // The review queue: for each stage of each job of the shop, its newest sign-off when no decision
-// has been made on it yet. Every query is scoped by shop.
+// has been made on it yet — whatever the job's state, a job handed over with open items included —
+// or when it was approved but work needing a decision came in after: a flagged entry nobody has
+// accepted (any kind; placed on its stage by lib/review/flagged-work.ts), or a current reading
+// out of tolerance nobody has let stand. Every query is scoped by shop.
 
 export interface QueueRow {
   signOffId: string;
@@ -25,6 +30,11 @@ export interface QueueRow {
   outOfTolerance: number;
   /** The stage was sent back before and this is the sign-off after the redo. */
   resubmitted: boolean;
+  /** Approved, but back for another look: why (null: it has no decision yet). */
+  backAfterApproval: "flagged" | "out_of_tolerance" | null;
+  jobStatus: WorkOrderStatus;
+  /** The office handed the job over with items open (a recorded override). */
+  handedOverWithOpenItems: boolean;
 }
 
 const SORT_SQL: Record<QueueQuery["sort"], string> = {
@@ -35,7 +45,7 @@ const SORT_SQL: Record<QueueQuery["sort"], string> = {
   outOfTolerance: "q.out_of_tolerance",
 };
 
-function waiting(shopId: string) {
+function waiting(shopId: string, openFlagStages: readonly string[]) {
   return sql`
     WITH latest AS (
       SELECT DISTINCT ON (s.job_procedure_id, s.stage_key) s.id, s.work_order_id, s.job_procedure_id, s.stage_key, s.signed_by,
@@ -48,7 +58,7 @@ function waiting(shopId: string) {
         AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = s.id)
       ORDER BY s.job_procedure_id, s.stage_key, o.seq DESC
     ),
-    q AS (
+    p AS (
       SELECT l.*, w.number, w.title AS job_title, b.make, b.model, b.tag_code, u.name AS mechanic_name,
         st.stage_title, v.name AS procedure_name,
         (SELECT count(*) FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
@@ -56,7 +66,12 @@ function waiting(shopId: string) {
              AND ts.stage_key = l.stage_key AND cm.verdict <> 'in'
              AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id))::int AS out_of_tolerance,
         EXISTS (SELECT 1 FROM review_decisions d JOIN sign_offs e ON e.id = d.sign_off_id
-           WHERE e.job_procedure_id = l.job_procedure_id AND e.stage_key = l.stage_key AND d.decision = 'sent_back') AS resubmitted
+           WHERE e.job_procedure_id = l.job_procedure_id AND e.stage_key = l.stage_key AND d.decision = 'sent_back') AS resubmitted,
+        (SELECT d.decision FROM review_decisions d WHERE d.sign_off_id = l.id ORDER BY d.change_seq DESC LIMIT 1) AS standing,
+        (l.job_procedure_id::text || '|' || l.stage_key) = ANY(${[...openFlagStages]}::text[]) AS open_flags,
+        w.status AS job_status,
+        EXISTS (SELECT 1 FROM status_overrides so WHERE so.work_order_id = l.work_order_id AND so.to_status = 'handed_over')
+          AS handed_over_with_open_items
       FROM latest l
       JOIN work_orders w ON w.id = l.work_order_id
       JOIN bikes b ON b.id = w.bike_id
@@ -65,7 +80,11 @@ function waiting(shopId: string) {
       JOIN template_versions v ON v.id = jp.template_version_id
       JOIN LATERAL (SELECT stage_title FROM template_steps ts WHERE ts.template_version_id = jp.template_version_id
                     AND ts.stage_key = l.stage_key LIMIT 1) st ON true
-      WHERE NOT EXISTS (SELECT 1 FROM review_decisions d WHERE d.sign_off_id = l.id)
+    ),
+    q AS (
+      SELECT p.*, CASE WHEN p.standing IS NULL THEN NULL WHEN p.open_flags THEN 'flagged' ELSE 'out_of_tolerance' END AS back_after_approval
+      FROM p
+      WHERE p.standing IS NULL OR (p.standing = 'approved' AND (p.open_flags OR p.out_of_tolerance > 0))
     )
   `;
 }
@@ -88,8 +107,9 @@ function filters(o: Partial<QueueQuery>) {
 /** One page of the queue, newest sign-off first unless another sort is asked for. */
 export async function pageReviewQueue(db: Kysely<Database>, shopId: string, o: QueueQuery): Promise<{ rows: QueueRow[]; total: number }> {
   const order = sql.raw(`${SORT_SQL[o.sort]} ${o.dir === "asc" ? "ASC" : "DESC"} NULLS LAST, q.seq DESC`);
+  const w = waiting(shopId, await stagesWithOpenFlags(db, shopId));
   const [count, rows] = await Promise.all([
-    sql<{ n: number }>`${waiting(shopId)} SELECT count(*)::int AS n FROM q WHERE ${filters(o)}`.execute(db),
+    sql<{ n: number }>`${w} SELECT count(*)::int AS n FROM q WHERE ${filters(o)}`.execute(db),
     sql<{
       id: string;
       work_order_id: string;
@@ -108,7 +128,10 @@ export async function pageReviewQueue(db: Kysely<Database>, shopId: string, o: Q
       flag_reason: string | null;
       out_of_tolerance: number;
       resubmitted: boolean;
-    }>`${waiting(shopId)} SELECT * FROM q WHERE ${filters(o)} ORDER BY ${order} LIMIT ${o.size} OFFSET ${o.page * o.size}`.execute(db),
+      back_after_approval: "flagged" | "out_of_tolerance" | null;
+      job_status: WorkOrderStatus;
+      handed_over_with_open_items: boolean;
+    }>`${w} SELECT * FROM q WHERE ${filters(o)} ORDER BY ${order} LIMIT ${o.size} OFFSET ${o.page * o.size}`.execute(db),
   ]);
   return {
     total: count.rows[0]?.n ?? 0,
@@ -130,13 +153,18 @@ export async function pageReviewQueue(db: Kysely<Database>, shopId: string, o: Q
       flagReason: r.flag_reason,
       outOfTolerance: r.out_of_tolerance,
       resubmitted: r.resubmitted,
+      backAfterApproval: r.back_after_approval,
+      jobStatus: r.job_status,
+      handedOverWithOpenItems: r.handed_over_with_open_items,
     })),
   };
 }
 
 /** How many sign-offs wait for review in the shop (the navigation shows it). */
 export async function countReviewQueue(db: Kysely<Database>, shopId: string): Promise<number> {
-  const r = await sql<{ n: number }>`${waiting(shopId)} SELECT count(*)::int AS n FROM q`.execute(db);
+  const r = await sql<{ n: number }>`${waiting(shopId, await stagesWithOpenFlags(db, shopId))} SELECT count(*)::int AS n FROM q`.execute(
+    db,
+  );
   return r.rows[0]?.n ?? 0;
 }
 

@@ -1,6 +1,8 @@
 import "server-only";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { readingLabelOf } from "@/lib/review/stage-review";
+import { entryDetail, entryKindLabel, placeOfEntry, type FlaggedEntry } from "@/lib/review/flagged-work";
+import { flaggedEntriesOf, placeLookups } from "./flagged-work";
 import type { Database } from "../schema";
 
 // Facts about one signed-off stage that the decision and the e-mail notice both need.
@@ -131,4 +133,50 @@ export async function latestDecisionOn(db: Db, signOffId: string) {
     .orderBy("change_seq", "desc")
     .limit(1)
     .executeTakeFirst();
+}
+
+export interface StageFlaggedEntry extends FlaggedEntry {
+  /** "Reading (76.02 mm)" and where: the entry in words. */
+  description: string;
+  stepId: string | null;
+  /** Not placed on any stage of the job (shown and accepted on every stage's review). */
+  onNoStage: boolean;
+}
+
+/**
+ * The flagged entries of a signed-off stage (lib/review/flagged-work.ts places each entry, of any
+ * kind, on its stage), plus the job's flagged entries that belong to no stage; accepted ones too.
+ */
+export async function stageFlaggedEntries(
+  db: Db,
+  shopId: string,
+  so: { workOrderId: string; jobProcedureId: string; stageKey: string },
+): Promise<StageFlaggedEntry[]> {
+  const entries = await flaggedEntriesOf(db, shopId, [so.workOrderId]);
+  const lookup = (await placeLookups(db, entries)).get(so.workOrderId);
+  if (!lookup || lookup.stageOfStep.size === 0) return [];
+  const titles = new Map(
+    (
+      await db
+        .selectFrom("template_steps")
+        .select(["id", "title"])
+        .where("id", "in", [...lookup.stageOfStep.keys()])
+        .execute()
+    ).map((t) => [t.id, t.title]),
+  );
+  const out: StageFlaggedEntry[] = [];
+  for (const e of entries.get(so.workOrderId) ?? []) {
+    const place = placeOfEntry(e, lookup);
+    const here = place.stage?.jobProcedureId === so.jobProcedureId && place.stage.stageKey === so.stageKey;
+    if (!here && place.stage) continue;
+    const detail = entryDetail(e.kind, e.payload);
+    const step = place.stepId ? titles.get(place.stepId) : undefined;
+    out.push({
+      ...e,
+      stepId: place.stepId,
+      onNoStage: !place.stage,
+      description: `${entryKindLabel(e.kind)}${detail ? ` (${detail})` : ""}${step ? ` at “${step}”` : ""}`,
+    });
+  }
+  return out;
 }

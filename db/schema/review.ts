@@ -27,6 +27,17 @@ interface ReadingAcceptancesTable {
   accepted_at: DefaultTimestamp;
 }
 
+/** A supervisor's written acceptance of one flagged bench entry, made with a decision (append-only; migration 020). */
+interface FlagAcceptancesTable {
+  id: Generated<string>;
+  shop_id: string;
+  operation_id: string;
+  decision_id: string;
+  justification: string;
+  accepted_by: string;
+  accepted_at: DefaultTimestamp;
+}
+
 /** The e-mail intent a sign-off leaves (filled by a trigger on sign_offs). */
 interface ReviewNoticesTable {
   id: Generated<string>;
@@ -44,5 +55,6 @@ interface ReviewNoticesTable {
 export interface ReviewTables {
   review_decisions: ReviewDecisionsTable;
   reading_acceptances: ReadingAcceptancesTable;
+  flag_acceptances: FlagAcceptancesTable;
   review_notices: ReviewNoticesTable;
 }

@@ -36,6 +36,15 @@ const QUOTES: Record<number, { status: "sent" | "approved"; lines: Line[]; depos
       { kind: "labour", description: "Fit intake and exhaust, dyno tune", qty: 450, price: 6800 },
     ],
   },
+  1010: {
+    status: "approved",
+    paid: true,
+    deposit: 5000,
+    lines: [
+      { kind: "part", description: "Valve cover gasket", partNumber: "VC-900-G", qty: 100, price: 2450 },
+      { kind: "labour", description: "Check and set valve clearances, inspect the head", qty: 300, price: 6800 },
+    ],
+  },
   1005: {
     status: "approved",
     paid: true,

@@ -40,6 +40,8 @@ const WORK_ORDERS: Array<{
   odometer: number;
   mechanic?: string;
   templates: string[];
+  /** Its own number, outside the run 1001, 1002, … (which the browser tests' new jobs continue). */
+  number?: number;
 }> = [
   {
     bike: "corvid",
@@ -103,6 +105,18 @@ const WORK_ORDERS: Array<{
     mechanic: "mechanic",
     templates: ["bottom-end-assembly"],
   },
+  {
+    // Waiting in review with nothing done on the bench: the browser test of the gates on "ready" and
+    // "handed over" and the office's override uses it.
+    bike: "halden",
+    title: "Valve clearance check before the track season",
+    status: "in_review",
+    complaint: "Wants the valve clearances checked and the head looked over before a season of track days.",
+    odometer: 12980,
+    mechanic: "mechanic2",
+    templates: ["cylinder-head-installation"],
+    number: 1010,
+  },
 ];
 
 /** The demo shop's id, or null when it has not been seeded. */
@@ -161,7 +175,7 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
       .values({
         shop_id: shopId,
         bike_id: bikeIds.get(w.bike)!,
-        number: 1001 + i,
+        number: w.number ?? 1001 + i,
         title: w.title,
         status: w.status,
         complaint: w.complaint,

@@ -1,12 +1,17 @@
 import "server-only";
-import { sql, type Kysely, type Transaction } from "kysely";
+import { sql, type ExpressionBuilder, type Kysely, type Transaction } from "kysely";
+import { readyToGoInBuild } from "@/lib/office/deposit-notice";
 import { intakeSchema, type IntakeInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
-import { checkTransition } from "@/lib/work-orders/transition-rules";
+import { checkTransition, isGatedMove, type OverrideRequest } from "@/lib/work-orders/transition-rules";
+import { openItemLine, openItemsSummary } from "@/lib/work-orders/open-items";
+import type { FieldIssue } from "@/lib/errors";
 import { CLOSED_STATUSES, isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
-import { appendAudit } from "../audit/append";
+import { appendAudit, type AuditEntry } from "../audit/append";
 import type { Database } from "../schema";
 import { partsOfWorkOrder } from "../records/parts-fitted";
+import { loadOpenItems } from "../records/open-items";
+import { withOpenRecord } from "./open-record";
 import { withdrawnEntries } from "../records/withdrawn-entries";
 import { containsPattern } from "./search";
 import type { PageOpts } from "./customers";
@@ -21,6 +26,51 @@ export function workOrdersWithBike(db: Kysely<Database>) {
     .innerJoin("bikes as b", "b.id", "w.bike_id")
     .innerJoin("customers as c", "c.id", "b.customer_id")
     .leftJoin("users as m", "m.id", "w.assigned_mechanic_id");
+}
+
+/** The approved quote's deposit and what has been paid on it, per work order (`w`): the deposit notice reads them. */
+function depositColumns(eb: ExpressionBuilder<Database & { w: Database["work_orders"] }, "w">) {
+  const approved = eb
+    .selectFrom("quotes as aq")
+    .select("aq.id")
+    .whereRef("aq.work_order_id", "=", "w.id")
+    .where("aq.status", "=", "approved")
+    .orderBy("aq.version", "desc")
+    .limit(1);
+  return [
+    eb
+      .selectFrom("quotes as dq")
+      .select("dq.deposit_minor")
+      .whereRef("dq.work_order_id", "=", "w.id")
+      .where("dq.status", "=", "approved")
+      .orderBy("dq.version", "desc")
+      .limit(1)
+      .as("depositDueMinor"),
+    eb
+      .selectFrom("deposits as d")
+      .select((sub) => sub.fn.coalesce(sub.fn.sum<number>("d.amount_minor"), sub.lit(0)).as("paid"))
+      .where("d.quote_id", "=", approved)
+      .where("d.status", "=", "paid")
+      .as("depositPaidMinor"),
+    eb
+      .selectFrom("deposits as d")
+      .select((sub) => sub.fn.max("d.paid_at").as("at"))
+      .where("d.quote_id", "=", approved)
+      .where("d.status", "=", "paid")
+      .as("depositPaidAt"),
+  ] as const;
+}
+
+/** The deposit notice of one row with depositColumns: ready to go into build, and since when. */
+function withDepositNotice<R extends { status: WorkOrderStatus; depositDueMinor: number | null; depositPaidMinor: number | string | null }>(
+  r: R,
+) {
+  const depositPaidMinor = Number(r.depositPaidMinor ?? 0);
+  return {
+    ...r,
+    depositPaidMinor,
+    readyForBuild: readyToGoInBuild({ status: r.status, depositDueMinor: r.depositDueMinor, depositPaidMinor }),
+  };
 }
 
 const SORTS = { number: "w.number", updated: "w.updated_at", status: "w.status", customer: "c.name", tag: "b.tag_code" } as const;
@@ -56,12 +106,13 @@ export async function pageWorkOrders(db: Kysely<Database>, shopId: string, o: Pa
       "c.name as customerName",
       "m.name as mechanicName",
     ])
+    .select((eb) => depositColumns(eb))
     .orderBy(sql.ref(SORTS[o.sort as keyof typeof SORTS] ?? "w.number"), o.dir)
     .orderBy("w.id")
     .limit(o.size)
     .offset(o.page * o.size)
     .execute();
-  return { total: Number(n), rows };
+  return { total: Number(n), rows: rows.map(withDepositNotice) };
 }
 
 // Books a bike in: a new work order numbered after the shop's last, its first transition and
@@ -171,17 +222,33 @@ async function transitionFacts(trx: Trx, workOrderId: string) {
   };
 }
 
+/** A move refused inside the caller's transaction: the caller writes `audit` once it has rolled back. */
+export class MoveRefusal extends Refusal {
+  constructor(
+    message: string,
+    issues: FieldIssue[],
+    readonly audit: AuditEntry[],
+  ) {
+    super(message, 409, issues);
+  }
+}
+
 // Moves a work order to `to` when the flow and the shop's rules allow, recording who and when;
-// otherwise refuses with the reason (and writes the refusal to the audit log).
+// otherwise refuses with the reason (and writes the refusal to the audit log). The moves to
+// "ready" and "handed over" are gated on the record (lib/work-orders/open-items.ts): they run under
+// the shop's sync lock, so no bench entry or review decision lands between the check and the move,
+// and go through with items open only with the office's override, which is recorded with the
+// reason and the items open at that moment (status_overrides, audit "work_order.override").
 export async function moveWorkOrder(
   db: Kysely<Database> | Trx,
   shopId: string,
   userId: string,
   workOrderId: string,
   to: WorkOrderStatus,
-  opts: { note?: string; templateVersionIds?: string[]; byCustomerApproval?: boolean } = {},
-): Promise<{ from: WorkOrderStatus; to: WorkOrderStatus }> {
+  opts: { note?: string; templateVersionIds?: string[]; byCustomerApproval?: boolean; override?: OverrideRequest | null } = {},
+): Promise<{ from: WorkOrderStatus; to: WorkOrderStatus; overrideId: string | null }> {
   const run = async (trx: Trx) => {
+    if (isGatedMove(to)) await sql`SELECT benchtag_lock_shop_sync(${shopId}::uuid)`.execute(trx);
     const wo = await lockWorkOrder(trx, shopId, workOrderId);
     const facts = await transitionFacts(trx, workOrderId);
     const toPin = opts.templateVersionIds ?? [];
@@ -195,13 +262,16 @@ export async function moveWorkOrder(
         .execute();
       if (ok.length !== new Set(toPin).size) throw new Refusal("One of the chosen templates is not in this shop.", 422);
     }
+    const open = isGatedMove(to) ? ((await loadOpenItems(trx, shopId, workOrderId)) ?? undefined) : undefined;
     const check = checkTransition(wo.status, to, {
       ...facts,
       mechanicAssigned: Boolean(wo.mechanicId),
       proceduresPinned: facts.proceduresPinned + toPin.length,
       byCustomerApproval: opts.byCustomerApproval,
+      openItems: open,
+      override: opts.override ?? null,
     });
-    if (!check.ok) return { refused: check.reason, from: wo.status };
+    if (!check.ok) return { refused: check.reason, issues: check.issues ?? [], from: wo.status, open, overrideId: null };
     const position0 = facts.proceduresPinned;
     for (const [i, versionId] of toPin.entries()) {
       await trx
@@ -214,10 +284,29 @@ export async function moveWorkOrder(
       .set({ status: to, updated_at: sql`now()`, closed_at: isClosed(to) ? new Date() : null })
       .where("id", "=", workOrderId)
       .execute();
-    await trx
+    const transition = await trx
       .insertInto("work_order_transitions")
       .values({ work_order_id: workOrderId, from_status: wo.status, to_status: to, by_user_id: userId, note: opts.note ?? "" })
-      .execute();
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    let overrideId: string | null = null;
+    if (check.overridden && opts.override && open) {
+      const saved = await trx
+        .insertInto("status_overrides")
+        .values({
+          shop_id: shopId,
+          work_order_id: workOrderId,
+          transition_id: transition.id,
+          from_status: wo.status,
+          to_status: to as "ready" | "handed_over",
+          reason: opts.override.reason,
+          open_items: JSON.stringify(open),
+          by_user_id: userId,
+        })
+        .returning("id")
+        .executeTakeFirstOrThrow();
+      overrideId = saved.id;
+    }
     await appendAudit(trx, [
       {
         shopId,
@@ -227,30 +316,53 @@ export async function moveWorkOrder(
         entityId: workOrderId,
         workOrderId,
         outcome: "accepted",
-        detail: { from: wo.status, to, pinned: toPin },
+        detail: { from: wo.status, to, pinned: toPin, overrideId },
       },
+      ...(overrideId && opts.override && open
+        ? [
+            {
+              shopId,
+              actorId: userId,
+              action: "work_order.override",
+              entity: "status_override",
+              entityId: overrideId,
+              workOrderId,
+              outcome: "accepted" as const,
+              reason: opts.override.reason,
+              detail: { from: wo.status, to, openItems: open.map(openItemLine), summary: openItemsSummary(open) },
+            },
+          ]
+        : []),
     ]);
-    return { refused: null, from: wo.status };
+    return { refused: null, issues: [] as FieldIssue[], from: wo.status, open, overrideId };
   };
-  const result =
-    "isTransaction" in db && db.isTransaction ? await run(db as Trx) : await (db as Kysely<Database>).transaction().execute(run);
+  const inOuterTransaction = "isTransaction" in db && db.isTransaction;
+  const result = inOuterTransaction ? await run(db as Trx) : await (db as Kysely<Database>).transaction().execute(run);
   if (result.refused) {
-    await appendAudit(db, [
+    const audit: AuditEntry[] = [
       {
         shopId,
         actorId: userId,
-        action: "work_order.move",
+        action: opts.override ? "work_order.override" : "work_order.move",
         entity: "work_order",
         entityId: workOrderId,
         workOrderId,
         outcome: "refused",
         reason: result.refused,
-        detail: { from: result.from, to },
+        detail: {
+          from: result.from,
+          to,
+          ...(result.open?.length ? { openItems: result.open.map(openItemLine) } : {}),
+          ...(opts.override ? { overrideReason: opts.override.reason } : {}),
+        },
       },
-    ]);
-    throw new Refusal(result.refused, 409);
+    ];
+    // Inside the caller's transaction the entry would be rolled back with it: the caller writes it after.
+    if (inOuterTransaction) throw new MoveRefusal(result.refused, result.issues, audit);
+    await appendAudit(db, audit);
+    throw new Refusal(result.refused, 409, result.issues);
   }
-  return { from: result.from, to };
+  return { from: result.from, to, overrideId: result.overrideId };
 }
 
 export async function assignMechanic(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, mechanicId: string | null) {
@@ -265,25 +377,26 @@ export async function assignMechanic(db: Kysely<Database>, shopId: string, userI
       .executeTakeFirst();
     if (!m) throw new Refusal("Choose an active mechanic of this shop.", 422, [{ path: "mechanicId", message: "not a mechanic here" }]);
   }
-  const r = await db
-    .updateTable("work_orders")
-    .set({ assigned_mechanic_id: mechanicId, updated_at: sql`now()` })
-    .where("id", "=", workOrderId)
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst();
-  if (!r.numUpdatedRows) throw new Refusal("No such work order in this shop.", 404);
-  await appendAudit(db, [
-    {
-      shopId,
-      actorId: userId,
-      action: "work_order.assign",
-      entity: "work_order",
-      entityId: workOrderId,
-      workOrderId,
-      outcome: "accepted",
-      detail: { mechanicId },
-    },
-  ]);
+  await withOpenRecord(db, { shopId, userId }, workOrderId, "mechanic assignment", async (trx) => {
+    await trx
+      .updateTable("work_orders")
+      .set({ assigned_mechanic_id: mechanicId, updated_at: sql`now()` })
+      .where("id", "=", workOrderId)
+      .where("shop_id", "=", shopId)
+      .execute();
+    await appendAudit(trx, [
+      {
+        shopId,
+        actorId: userId,
+        action: "work_order.assign",
+        entity: "work_order",
+        entityId: workOrderId,
+        workOrderId,
+        outcome: "accepted",
+        detail: { mechanicId },
+      },
+    ]);
+  });
 }
 
 export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: string) {
@@ -308,9 +421,11 @@ export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: 
       "c.email as customerEmail",
       "c.phone as customerPhone",
     ])
+    .select((eb) => depositColumns(eb))
     .where("w.id", "=", id)
     .where("w.shop_id", "=", shopId)
-    .executeTakeFirst();
+    .executeTakeFirst()
+    .then((r) => r && withDepositNotice(r));
   if (!wo) return null;
   const [transitions, notes, photos, procedures, parts, emails, withdrawn] = await Promise.all([
     db
@@ -381,11 +496,11 @@ export async function addNote(
   kind: "intake" | "teardown" | "general",
   body: string,
 ) {
-  const wo = await db.selectFrom("work_orders").select("id").where("id", "=", workOrderId).where("shop_id", "=", shopId).executeTakeFirst();
-  if (!wo) throw new Refusal("No such work order in this shop.", 404);
-  return db
-    .insertInto("work_order_notes")
-    .values({ shop_id: shopId, work_order_id: workOrderId, kind, body, author_id: userId })
-    .returning("id")
-    .executeTakeFirstOrThrow();
+  return withOpenRecord(db, { shopId, userId }, workOrderId, "note", (trx) =>
+    trx
+      .insertInto("work_order_notes")
+      .values({ shop_id: shopId, work_order_id: workOrderId, kind, body, author_id: userId })
+      .returning("id")
+      .executeTakeFirstOrThrow(),
+  );
 }

@@ -3,6 +3,7 @@ import "../zod-issues";
 import { MAX_MINOR } from "../money/quote-totals";
 import { WORK_ORDER_STATUSES } from "../work-orders/status";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS } from "../sync/operations";
+import { safeText } from "../safe-values";
 
 // zod schemas for every office form and route body. Messages name the field's problem in
 // plain words; the forms show them beside the field.
@@ -91,10 +92,32 @@ export const intakeSchema = z.object({
 });
 export type IntakeInput = z.input<typeof intakeSchema>;
 
+/** An override's reason: at least this many characters and words (a named person writes why). */
+export const OVERRIDE_REASON_MIN = { chars: 15, words: 3 } as const;
+
+const overrideSchema = z.object({
+  reason: safeText({
+    label: "Reason for the override",
+    min: OVERRIDE_REASON_MIN.chars,
+    max: 2000,
+    multiline: true,
+    tooShort: `Reason for the override: write at least ${OVERRIDE_REASON_MIN.words} words (${OVERRIDE_REASON_MIN.chars} characters) saying why the job moves on with items open.`,
+  }).refine(
+    // too short is said once, by the length check above
+    (s) =>
+      s.length < OVERRIDE_REASON_MIN.chars || s.split(/\s+/u).filter((w) => /[\p{L}\p{N}]/u.test(w)).length >= OVERRIDE_REASON_MIN.words,
+    `Reason for the override: write at least ${OVERRIDE_REASON_MIN.words} words saying why the job moves on with items open.`,
+  ),
+  /** The keys of the open items the office saw when it wrote the reason (lib/work-orders/open-items.ts). */
+  openItemKeys: z.array(z.string().max(200, "Open items: not a list from this work order's page.")).max(2000),
+});
+
 export const transitionSchema = z.object({
   to: z.enum(WORK_ORDER_STATUSES, "unknown status"),
-  note: z.string().trim().max(1000).default(""),
+  note: safeText({ label: "Note", max: 1000, multiline: true }).default(""),
   templateVersionIds: z.array(z.uuid()).max(10).default([]),
+  /** Moving to ready or handed over while items are open: the office's written reason. */
+  override: overrideSchema.nullable().default(null),
 });
 
 export const assignSchema = z.object({ mechanicId: z.uuid("choose a mechanic").nullable() });

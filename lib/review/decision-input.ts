@@ -16,10 +16,21 @@ const acceptanceInputSchema = z.object({
     .max(2000, "Keep it under 2000 characters."),
 });
 
+const flagAcceptanceInputSchema = z.object({
+  operationId: z.uuid("not a flagged entry of this job"),
+  justification: z
+    .string("write why this entry may stand")
+    .trim()
+    .min(JUSTIFICATION_MIN, `Write at least ${JUSTIFICATION_MIN} characters: why may this flagged entry stand?`)
+    .max(2000, "Keep it under 2000 characters."),
+});
+
 const common = {
   /** The decision the supervisor saw as the latest on this sign-off (null: none). Guards against two people deciding at once. */
   expectedDecisionId: z.uuid("not a decision id").nullable(),
   acceptances: z.array(acceptanceInputSchema).max(200, "At most 200 acceptances at once.").default([]),
+  /** Written acceptances of flagged entries (lib/review/flagged-work.ts): every one of the stage's is needed to approve. */
+  flagAcceptances: z.array(flagAcceptanceInputSchema).max(500, "At most 500 flagged entries at once.").default([]),
 };
 
 export const decisionInputSchema = z.discriminatedUnion(

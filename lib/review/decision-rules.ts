@@ -18,6 +18,8 @@ export interface DecisionFacts {
   stageSteps: ReadonlyArray<{ id: string; title: string }>;
   /** Current readings of the stage's steps that are out of tolerance. */
   outOfTolerance: ReadonlyArray<{ readingId: string; description: string; accepted: boolean }>;
+  /** Flagged entries of the stage (and those on no stage of the job), with whether each is accepted. */
+  flagged: ReadonlyArray<{ operationId: string; description: string; accepted: boolean }>;
 }
 
 export type DecisionCheck =
@@ -62,6 +64,17 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
     acceptedNow.add(a.readingId);
   });
 
+  const flagged = new Map(f.flagged.map((x) => [x.operationId, x]));
+  const flagAcceptedNow = new Set<string>();
+  input.flagAcceptances.forEach((a, i) => {
+    const x = flagged.get(a.operationId);
+    if (!x) issues.push({ path: `flagAcceptances.${i}.operationId`, message: "This is not a flagged entry of this stage." });
+    else if (x.accepted) issues.push({ path: `flagAcceptances.${i}.operationId`, message: `${x.description} was already accepted.` });
+    else if (flagAcceptedNow.has(a.operationId))
+      issues.push({ path: `flagAcceptances.${i}.operationId`, message: `${x.description} is listed twice.` });
+    flagAcceptedNow.add(a.operationId);
+  });
+
   let reopenStepIds: string[] = [];
   if (input.decision === "approved") {
     for (const o of f.outOfTolerance) {
@@ -69,6 +82,14 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
         issues.push({
           path: `reading.${o.readingId}`,
           message: `${o.description} is out of tolerance: accept it with a written reason, or send the step back.`,
+        });
+      }
+    }
+    for (const x of f.flagged) {
+      if (!x.accepted && !flagAcceptedNow.has(x.operationId)) {
+        issues.push({
+          path: `flagged.${x.operationId}`,
+          message: `${x.description} was flagged: accept it with a written reason, or send the step back.`,
         });
       }
     }
@@ -80,7 +101,8 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
     reopenStepIds = [...new Set(input.reopenStepIds)];
   }
   if (issues.length) {
-    const reason = input.decision === "approved" ? "Not approved: see the marked readings." : "Not sent back: see the marked fields.";
+    const reason =
+      input.decision === "approved" ? "Not approved: see the marked readings and entries." : "Not sent back: see the marked fields.";
     return refuse(422, issues.length === 1 ? issues[0].message : reason, issues);
   }
   return { ok: true, reopenStepIds };

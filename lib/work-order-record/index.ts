@@ -10,7 +10,7 @@ import { partsByStep, photosByStep } from "./parts";
 import { pendingOnTop } from "./pending";
 import { currentReadings } from "@/lib/sync/readings";
 import { readingViews, stepReadings } from "./readings";
-import { decisionOn, latestDecisions, standingSignOff } from "./stage-state";
+import { decisionInForce, decisionOn, latestDecisions, standingSignOff } from "./stage-state";
 import { stepCompletion } from "./step-state";
 import { applyHolds, timerViews } from "./timers";
 import { boltRecords, torqueProgress } from "./torque";
@@ -70,8 +70,9 @@ export function buildWorkOrderView(snapshot: Snapshot, pending: readonly Operati
     }
     applyHolds(procSteps, proc, nowMs);
     for (const { stage, steps: stageSteps } of procStages) {
-      const decision = decisionOn(decisions, proc.jobProcedureId, stage.key);
-      const signedOff = standingSignOff(snapshot, proc.jobProcedureId, stage.key, decision, work, withdrawn);
+      const latestDecision = decisionOn(decisions, proc.jobProcedureId, stage.key);
+      const signedOff = standingSignOff(snapshot, proc.jobProcedureId, stage.key, latestDecision, work, withdrawn);
+      const decision = decisionInForce(latestDecision, signedOff);
       const allDone = stageSteps.every((s) => s.done);
       stages.push({
         jobProcedureId: proc.jobProcedureId,

@@ -25,8 +25,18 @@ export function decisionOn(decisions: ReadonlyMap<string, Decision>, jobProcedur
 }
 
 /**
- * The sign-off that stands for a stage: one waiting on this tablet, else the latest on record
- * unless a later send-back undid it; withdrawn sign-offs are left out.
+ * The decision that speaks for a stage: the one on its standing sign-off when that sign-off is on
+ * record (a later sign-off that nobody has decided on yet has none, even when an earlier one was
+ * approved); otherwise the latest decision on the stage (a send-back waiting for the redo).
+ */
+export function decisionInForce(decision: Decision | null, signedOff: StageView["signedOff"]): Decision | null {
+  if (!decision || !signedOff || signedOff.pending) return decision;
+  return decision.signOffId === signedOff.id ? decision : null;
+}
+
+/**
+ * The sign-off that stands for a stage: one waiting on this tablet, else the latest on record unless a later send-back undid it;
+ * withdrawn sign-offs are left out.
  */
 export function standingSignOff(
   snapshot: Snapshot,
@@ -40,7 +50,7 @@ export function standingSignOff(
     .ofKind("stage.signed-off")
     .filter((o) => o.payload.jobProcedureId === jobProcedureId && o.payload.stageKey === key && !withdrawn.has(o.id))
     .at(-1);
-  if (pending) return { at: pending.deviceTime, pending: true, operationId: pending.id, by: pending.authorId };
+  if (pending) return { at: pending.deviceTime, pending: true, id: pending.id, by: pending.authorId };
   const latest = snapshot.state.signOffs
     .filter((s) => s.jobProcedureId === jobProcedureId && s.stageKey === key && !withdrawn.has(s.id))
     .sort((a, b) => (BigInt(a.seq) < BigInt(b.seq) ? 1 : -1))[0];
@@ -49,5 +59,5 @@ export function standingSignOff(
     !decision ||
     BigInt(latest.seq) > BigInt(decision.seq) ||
     (decision.decision === "approved" && (decision.signOffId === latest.id || !withdrawn.has(decision.signOffId)));
-  return stands ? { at: latest.deviceTime, pending: false, operationId: latest.id, by: latest.signedBy } : null;
+  return stands ? { at: latest.deviceTime, pending: false, id: latest.id, by: latest.signedBy } : null;
 }

@@ -154,7 +154,8 @@ export interface StageView {
   title: string;
   steps: StepView[];
   allDone: boolean;
-  signedOff: { at: string; pending: boolean; operationId: string; by: string } | null;
+  /** The sign-off that stands (`id`: the sign-off's id, the same on the tablet and on record; `by`: who signed). */
+  signedOff: { at: string; pending: boolean; id: string; by: string } | null;
   decision: { decision: "approved" | "sent_back"; reason: string } | null;
   canSignOff: boolean;
 }

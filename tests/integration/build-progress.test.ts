@@ -46,6 +46,8 @@ describe("build progress for the office, from the synced bench record", () => {
         .where("reading_index", "=", 1)
         .executeTakeFirstOrThrow()
     ).id;
+    // the tablet hears of the send-back first, so its redo is a redo (sync rule 7), not flagged work
+    await sync(db, users.mech, tablet);
     const again = tablet.make("stage.signed-off", stage);
     await sync(db, users.mech, tablet, [
       tablet.read(ringGap, specs["top-ring-gap"].id, 1, 0.44, { supersedesId: high }),

@@ -32,7 +32,7 @@ describe("withdrawing a dyno run recorded by mistake", () => {
     if (!good.ok || !bad.ok) throw new Error("fixture runs refused");
 
     const r = await withdrawDynoRun(db, sup, fx.workOrderId, bad.id, reason("Air temperature typed as 18 instead of 28"));
-    expect(r).toEqual({ ok: true, runId: bad.id });
+    expect(r).toEqual({ ok: true, runId: bad.id, closedJob: false });
 
     const runs = await listDynoRuns(db, fx.shopId, fx.workOrderId);
     expect(runs.map((x) => [x.label, x.withdrawn?.reason ?? null, x.withdrawn?.byName ?? null])).toEqual([
@@ -69,7 +69,13 @@ describe("withdrawing a dyno run recorded by mistake", () => {
     expect(again).toEqual({ ok: false, status: 409, reason: "This run was already withdrawn." });
     const [stored] = await listDynoRuns(db, fx.shopId, fx.workOrderId);
     expect(stored.withdrawn?.reason).toBe("Clutch slipped on the pull");
-    const outcomes = await db.selectFrom("audit_log").select("outcome").where("entity_id", "=", made.id).orderBy("id").execute();
+    const outcomes = await db
+      .selectFrom("audit_log")
+      .select("outcome")
+      .where("entity_id", "=", made.id)
+      .where("action", "=", "dyno.run-withdrawn")
+      .orderBy("id")
+      .execute();
     expect(outcomes.map((o) => o.outcome)).toEqual(["accepted", "refused"]);
   });
 

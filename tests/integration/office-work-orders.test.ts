@@ -3,11 +3,15 @@ import { bookIn, moveWorkOrder, assignMechanic, workOrderDetail } from "@/db/sho
 import { saveQuoteDraft, sendQuote, approveQuoteAsCustomer } from "@/db/office/quotes";
 import { createBike } from "@/db/shop/bikes";
 import { handOver } from "@/db/office/invoices";
+import { loadOpenItems } from "@/db/records/open-items";
+import { storeHandoverCopy } from "@/app/_server/frozen-report";
 import { Refusal } from "@/lib/errors";
+import { useFakes } from "./support/fakes";
 import { createShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
+useFakes(); // the build report is stored in object storage at handover
 
 async function freshJob() {
   const fx = await createShopFixture(db, { status: "handed_over" });
@@ -172,10 +176,18 @@ describe("handover", () => {
     await assignMechanic(db, fx.shopId, office, wo.id, fx.users.mechanic.id);
     await moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [fx.templates.bottom.versionId] });
     await moveWorkOrder(db, fx.shopId, office, wo.id, "in_review");
-    await expect(handOver(db, fx.shopId, office, wo.id)).rejects.toThrow('A work order cannot go from "In review" to "Handed over".');
+    const storeReport = (trx: typeof db) => storeHandoverCopy(trx, fx.shopId, wo.id, office);
+    await expect(handOver(db, fx.shopId, office, wo.id, { storeReport })).rejects.toThrow(
+      'A work order cannot go from "In review" to "Handed over".',
+    );
     expect(await db.selectFrom("invoices").select("id").where("work_order_id", "=", wo.id).execute()).toHaveLength(0);
-    await moveWorkOrder(db, fx.shopId, office, wo.id, "ready");
-    const inv = await handOver(db, fx.shopId, office, wo.id);
+    // nothing was done at the bench: both moves need the office's override (the gates: gates-and-override.test.ts)
+    const override = async () => ({
+      reason: "Invoice test: the bench record is not part of it",
+      openItemKeys: (await loadOpenItems(db, fx.shopId, wo.id))!.map((i) => i.key),
+    });
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "ready", { override: await override() });
+    const { invoice: inv } = await handOver(db, fx.shopId, office, wo.id, { storeReport, override: await override() });
     expect(inv).toMatchObject({
       number: 5001,
       subtotal_minor: 28000,

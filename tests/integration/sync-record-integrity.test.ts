@@ -257,6 +257,7 @@ describe("withdrawing an entry", () => {
     const decision = await decideOnSignOff(db, sup, signOff.id, {
       decision: "approved",
       acceptances: [],
+      flagAcceptances: [],
       expectedDecisionId: null,
     });
     expect(decision).toMatchObject({ ok: false, status: 409, reason: expect.stringContaining("was withdrawn") });

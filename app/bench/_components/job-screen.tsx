@@ -129,7 +129,7 @@ export function JobScreen({ jobId }: { jobId: string }) {
                 </p>
                 <WithdrawEntry
                   jobId={jobId}
-                  operationId={stage.signedOff.operationId}
+                  operationId={stage.signedOff.id}
                   recordedBy={stage.signedOff.by}
                   what="this sign-off"
                   testId="withdraw-sign-off"

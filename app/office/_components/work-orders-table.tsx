@@ -34,7 +34,20 @@ const columns: ColumnDef<Row, unknown>[] = [
   },
   { id: "customer", header: "Customer", cell: ({ row }) => row.original.customerName },
   { id: "title", header: "Job", enableSorting: false, cell: ({ row }) => row.original.title },
-  { id: "status", header: "Status", cell: ({ row }) => <StatusBadge status={row.original.status} /> },
+  {
+    id: "status",
+    header: "Status",
+    cell: ({ row }) => (
+      <span className="flex flex-col items-start gap-1">
+        <StatusBadge status={row.original.status} />
+        {row.original.readyForBuild && (
+          <span className="text-sm font-bold text-pass" data-testid="list-ready-for-build">
+            <span aria-hidden="true">✔</span> Deposit paid: ready to go into build
+          </span>
+        )}
+      </span>
+    ),
+  },
   { id: "mechanic", header: "Mechanic", enableSorting: false, cell: ({ row }) => row.original.mechanicName ?? "—" },
   { id: "updated", header: "Last change", cell: ({ row }) => new Date(row.original.updatedAt).toLocaleDateString("en-GB") },
 ];

@@ -7,15 +7,17 @@ import { buttonClass, FormMessage } from "@/app/ui/form-field";
 import { REVIEW_COUNT_EVENT } from "@/app/ui/review-count";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import type { SignOffReview } from "./review-types";
-import { VerdictTag } from "./when";
+import { LetStandItem } from "./let-stand";
+import { VerdictTag, When } from "./when";
 
 type Choice = "approved" | "sent_back";
 
-// Approve (every reading out of tolerance let stand with a written reason) or send back (a reason
-// and the steps to reopen). Checked here with the server's own schema; the server's refusals are
+// Approve (every reading out of tolerance and every flagged entry let stand with a written reason)
+// or send back (a reason and the steps to reopen). Checked here with the server's own schema; the server's refusals are
 // shown beside the field they name.
 export function DecisionPanel({ review, onDecided }: { review: SignOffReview; onDecided: (message: string) => void }) {
   const open = review.outOfTolerance.filter((o) => !o.acceptance);
+  const openFlags = review.flagged.filter((f) => !f.acceptance);
   const [choice, setChoice] = useState<Choice | null>(null);
   const [reason, setReason] = useState("");
   const [steps, setSteps] = useState<string[]>(review.defaultReopenStepIds);
@@ -39,12 +41,16 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
     },
   });
 
-  const accepted = open.filter((o) => letStand[o.readingId]);
   function body() {
-    const acceptances = accepted.map((o) => ({ readingId: o.readingId, justification: why[o.readingId] ?? "" }));
+    const acceptances = open
+      .filter((o) => letStand[o.readingId])
+      .map((o) => ({ readingId: o.readingId, justification: why[o.readingId] ?? "" }));
+    const flagAcceptances = openFlags
+      .filter((f) => letStand[f.operationId])
+      .map((f) => ({ operationId: f.operationId, justification: why[f.operationId] ?? "" }));
     return choice === "sent_back"
-      ? { decision: choice, expectedDecisionId: review.standingDecisionId, reason, reopenStepIds: steps, acceptances }
-      : { decision: "approved" as const, expectedDecisionId: review.standingDecisionId, acceptances };
+      ? { decision: choice, expectedDecisionId: review.standingDecisionId, reason, reopenStepIds: steps, acceptances, flagAcceptances }
+      : { decision: "approved" as const, expectedDecisionId: review.standingDecisionId, acceptances, flagAcceptances };
   }
 
   function submit() {
@@ -55,6 +61,9 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
       for (const o of open)
         if (!letStand[o.readingId])
           found[`reading.${o.readingId}`] = "Out of tolerance: let it stand with a written reason, or send the step back.";
+      for (const f of openFlags)
+        if (!letStand[f.operationId])
+          found[`flagged.${f.operationId}`] = "Flagged: accept it with a written reason, or send the step back.";
     }
     const parsed = decisionInputSchema.safeParse(b);
     if (!parsed.success)
@@ -91,56 +100,68 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
             To approve, let each one stand with a written reason (kept with the reading for good); or send its step back.
           </p>
           <ul className="mt-2 space-y-3">
-            {open.map((o) => {
-              const err = issues[`reading.${o.readingId}`] ?? issues[`why.${o.readingId}`];
-              return (
-                <li
-                  key={o.readingId}
-                  className={`rounded-lg border-2 p-3 ${err ? "border-fail" : "border-steel-300"}`}
-                  data-testid="oot-reading"
-                >
-                  <p className="flex flex-wrap items-center gap-2 text-lg">
-                    <VerdictTag verdict={o.verdict} />
-                    <span className="font-bold">
-                      {o.specLabel}, {o.readingLabel}:{" "}
-                      <span className="font-mono">
-                        {o.value} {o.unit}
-                      </span>
+            {open.map((o) => (
+              <LetStandItem
+                key={o.readingId}
+                testId="oot-reading"
+                errorTestId="error-reading"
+                checked={Boolean(letStand[o.readingId])}
+                onCheck={(v) => setLetStand({ ...letStand, [o.readingId]: v })}
+                checkLabel="Let this reading stand"
+                whyLabel="Why may it stand?"
+                why={why[o.readingId] ?? ""}
+                onWhy={(v) => setWhy({ ...why, [o.readingId]: v })}
+                error={issues[`reading.${o.readingId}`] ?? issues[`why.${o.readingId}`]}
+              >
+                <p className="flex flex-wrap items-center gap-2 text-lg">
+                  <VerdictTag verdict={o.verdict} />
+                  <span className="font-bold">
+                    {o.specLabel}, {o.readingLabel}:{" "}
+                    <span className="font-mono">
+                      {o.value} {o.unit}
                     </span>
-                    <span className="text-base">
-                      (limits {o.min} to {o.max} {o.unit}; step “{o.stepTitle}”)
-                    </span>
-                  </p>
-                  {o.note && <p className="text-base">Mechanic’s note: “{o.note}”</p>}
-                  <label className="mt-2 flex min-h-12 items-center gap-3 text-lg font-bold">
-                    <input
-                      type="checkbox"
-                      className="h-7 w-7"
-                      checked={Boolean(letStand[o.readingId])}
-                      onChange={(e) => setLetStand({ ...letStand, [o.readingId]: e.target.checked })}
-                    />
-                    Let this reading stand
-                  </label>
-                  {letStand[o.readingId] && (
-                    <label className="mt-1 flex flex-col gap-1 text-base font-bold">
-                      Why may it stand?
-                      <textarea
-                        value={why[o.readingId] ?? ""}
-                        onChange={(e) => setWhy({ ...why, [o.readingId]: e.target.value })}
-                        rows={2}
-                        aria-invalid={Boolean(err)}
-                        className="rounded-lg border-2 border-steel-700 p-2 text-lg font-normal aria-[invalid=true]:border-fail"
-                      />
-                    </label>
-                  )}
-                  {err && (
-                    <p className="mt-1 font-bold text-fail" data-testid="error-reading">
-                      ✖ {err}
-                    </p>
-                  )}
-                </li>
-              );
-            })}
+                  </span>
+                  <span className="text-base">
+                    (limits {o.min} to {o.max} {o.unit}; step “{o.stepTitle}”)
+                  </span>
+                </p>
+                {o.note && <p className="text-base">Mechanic’s note: “{o.note}”</p>}
+              </LetStandItem>
+            ))}
+          </ul>
+        </div>
+      )}
+
+      {openFlags.length > 0 && (
+        <div className="mt-3">
+          <h3 className="text-lg font-bold">Flagged entries</h3>
+          <p className="text-base">
+            The sync kept these and flagged them for you. To approve, accept each with a written reason (kept with the entry for good); or
+            send its step back.
+          </p>
+          <ul className="mt-2 space-y-3">
+            {openFlags.map((f) => (
+              <LetStandItem
+                key={f.operationId}
+                testId="flagged-entry"
+                errorTestId="error-flagged"
+                checked={Boolean(letStand[f.operationId])}
+                onCheck={(v) => setLetStand({ ...letStand, [f.operationId]: v })}
+                checkLabel="Accept this entry"
+                whyLabel="Why may it stand?"
+                why={why[f.operationId] ?? ""}
+                onWhy={(v) => setWhy({ ...why, [f.operationId]: v })}
+                error={issues[`flagged.${f.operationId}`] ?? issues[`why.${f.operationId}`]}
+              >
+                <p className="text-lg">
+                  <span className="font-bold text-warn">⚑ {f.description}</span> by {f.by.name}{" "}
+                  <When device={f.deviceTime} received={f.receivedAt} />
+                </p>
+                <p className="text-base">Why it was flagged: {f.flagReason}</p>
+                {f.afterApproval && <p className="text-base font-bold">Came in after this stage was approved.</p>}
+                {f.onNoStage && <p className="text-base">Not tied to any stage of the job: it is shown on every stage’s review.</p>}
+              </LetStandItem>
+            ))}
           </ul>
         </div>
       )}
@@ -219,11 +240,21 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
 }
 
 // Server and schema issue paths → the field keys this form shows them at.
-function mapIssues(list: FieldIssue[], body: { acceptances: Array<{ readingId: string }> }): Record<string, string> {
+function mapIssues(
+  list: FieldIssue[],
+  body: { acceptances: Array<{ readingId: string }>; flagAcceptances: Array<{ operationId: string }> },
+): Record<string, string> {
   const out: Record<string, string> = {};
   for (const i of list) {
     const m = i.path.match(/^acceptances\.(\d+)\.(justification|readingId)$/);
-    const key = m ? `why.${body.acceptances[Number(m[1])]?.readingId}` : i.path.startsWith("reopenStepIds") ? "reopenStepIds" : i.path;
+    const f = i.path.match(/^flagAcceptances\.(\d+)\.(justification|operationId)$/);
+    const key = m
+      ? `why.${body.acceptances[Number(m[1])]?.readingId}`
+      : f
+        ? `why.${body.flagAcceptances[Number(f[1])]?.operationId}`
+        : i.path.startsWith("reopenStepIds")
+          ? "reopenStepIds"
+          : i.path;
     out[key] ??= i.message;
   }
   return out;

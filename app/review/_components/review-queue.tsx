@@ -22,10 +22,31 @@ const columns: ColumnDef<QueueRow, unknown>[] = [
       <span>
         {dayTime(row.original.deviceTime)}
         {row.original.resubmitted && <span className="block text-sm font-bold">↺ after a send-back</span>}
+        {row.original.backAfterApproval && (
+          <span className="block text-sm font-bold text-warn" data-testid="queue-back-after-approval">
+            ⚑ approved, but{" "}
+            {row.original.backAfterApproval === "flagged"
+              ? "new flagged work after approval"
+              : "a reading out of tolerance came in after approval"}
+          </span>
+        )}
       </span>
     ),
   },
-  { id: "job", header: "Job", cell: ({ row }) => <span className="font-mono font-bold">#{row.original.number}</span> },
+  {
+    id: "job",
+    header: "Job",
+    cell: ({ row }) => (
+      <span>
+        <span className="font-mono font-bold">#{row.original.number}</span>
+        {row.original.jobStatus === "handed_over" && (
+          <span className="block text-sm font-bold text-fail" data-testid="queue-handed-over">
+            {row.original.handedOverWithOpenItems ? "✖ handed over with open items" : "✖ handed over"}
+          </span>
+        )}
+      </span>
+    ),
+  },
   {
     id: "bike",
     header: "Bike",

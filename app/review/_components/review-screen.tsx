@@ -111,6 +111,26 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
         )}
       </p>
 
+      {r.flagged.length > 0 && (
+        <section className="rounded-lg border-4 border-warn bg-white p-3" data-testid="review-flagged">
+          <h2 className="text-xl font-bold text-warn">⚑ Flagged entries ({r.flagged.length})</h2>
+          <ul className="mt-2 space-y-2">
+            {r.flagged.map((f) => (
+              <li key={f.operationId} className="text-lg">
+                <span className="font-bold">{f.description}</span> by {f.by.name}: {f.flagReason}{" "}
+                {f.acceptance ? (
+                  <span className="font-bold text-pass">
+                    ✔ accepted by {f.acceptance.by.name}, {dayTime(f.acceptance.acceptedAt)}: “{f.acceptance.justification}”
+                  </span>
+                ) : (
+                  <span className="font-bold text-fail">✖ not accepted yet{f.afterApproval ? " (came in after the approval)" : ""}</span>
+                )}
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+
       {r.earlier.length > 0 && (
         <details className="rounded-lg border-2 border-steel-300 bg-white p-3">
           <summary className="cursor-pointer text-lg font-bold">Earlier sign-offs of this stage ({r.earlier.length})</summary>

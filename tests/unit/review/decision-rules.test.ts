@@ -23,6 +23,7 @@ const facts = (over: Partial<DecisionFacts> = {}): DecisionFacts => ({
     { id: ids.s2, title: "Ring gap" },
   ],
   outOfTolerance: [{ readingId: ids.r1, description: "Top ring gap, Cyl 2: 0.5 mm (high)", accepted: false }],
+  flagged: [],
   ...over,
 });
 const input = (v: unknown) => decisionInputSchema.parse(v);
@@ -107,6 +108,77 @@ describe("checkDecision", () => {
       status: 409,
       reason: "Work order #1005 is closed: nothing on it can be reopened.",
     });
+  });
+});
+
+describe("flagged entries of the stage (any kind the sync flagged)", () => {
+  const op1 = "00000000-0000-4000-8000-0000000000e1";
+  const op2 = "00000000-0000-4000-8000-0000000000e2";
+  const flaggedFacts = facts({
+    outOfTolerance: [],
+    flagged: [
+      { operationId: op1, description: "Step done at “Bore”", accepted: false },
+      { operationId: op2, description: "Reading (76.02 mm)", accepted: true },
+    ],
+  });
+  const approveWith = (flagAcceptances: unknown[]) => input({ decision: "approved", expectedDecisionId: null, flagAcceptances });
+
+  it("approves only with a written acceptance of every flagged entry not yet accepted", () => {
+    expect(checkDecision(flaggedFacts, approveWith([]))).toMatchObject({
+      ok: false,
+      status: 422,
+      issues: [
+        { path: `flagged.${op1}`, message: "Step done at “Bore” was flagged: accept it with a written reason, or send the step back." },
+      ],
+    });
+    expect(checkDecision(flaggedFacts, approveWith([{ operationId: op1, justification: why }]))).toEqual({ ok: true, reopenStepIds: [] });
+  });
+
+  it("refuses an entry already accepted, one listed twice, and one not of the stage", () => {
+    const other = "00000000-0000-4000-8000-0000000000e9";
+    expect(
+      checkDecision(
+        flaggedFacts,
+        approveWith([
+          { operationId: op1, justification: why },
+          { operationId: op2, justification: why },
+        ]),
+      ),
+    ).toMatchObject({
+      ok: false,
+      issues: [{ path: "flagAcceptances.1.operationId", message: "Reading (76.02 mm) was already accepted." }],
+    });
+    expect(
+      checkDecision(
+        flaggedFacts,
+        approveWith([
+          { operationId: op1, justification: why },
+          { operationId: op1, justification: why },
+        ]),
+      ),
+    ).toMatchObject({ ok: false, issues: [{ path: "flagAcceptances.1.operationId" }] });
+    expect(
+      checkDecision(
+        flaggedFacts,
+        approveWith([
+          { operationId: op1, justification: why },
+          { operationId: other, justification: why },
+        ]),
+      ),
+    ).toMatchObject({
+      ok: false,
+      issues: [{ path: "flagAcceptances.1.operationId", message: "This is not a flagged entry of this stage." }],
+    });
+  });
+
+  it("asks for a written reason in workshop words", () => {
+    expect(
+      decisionInputSchema.safeParse({
+        decision: "approved",
+        expectedDecisionId: null,
+        flagAcceptances: [{ operationId: op1, justification: "ok" }],
+      }).error?.issues[0].message,
+    ).toBe("Write at least 10 characters: why may this flagged entry stand?");
   });
 });
 

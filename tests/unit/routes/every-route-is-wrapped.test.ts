@@ -97,7 +97,8 @@ describe("every route handler goes through the route wrapper", () => {
             expect(h.rule.access, `${m} names who may use it`).toBeDefined();
           }
         }
-      });
+        // the first import of a route loads its whole module graph (PDF, object storage): slow on a busy machine
+      }, 30_000);
 
       it("answers 401 to nobody and 403 to a role outside its area, with the one error body", async () => {
         const mod = (await import(path.join(root, file))) as Record<string, RouteHandler<unknown>>;

@@ -65,7 +65,7 @@ describe("sign-off standing", () => {
       signOffs: [signOff(u(114), "measure", "4"), signOff(u(115), "measure", "7")],
       reviewDecisions: [decision(u(116), "measure", "sent_back", "5", [ids.stepBore], "again")],
     });
-    expect(stageOf(buildWorkOrderView(resigned, [], NOW), "measure").signedOff).toMatchObject({ at: at(8), pending: false });
+    expect(stageOf(buildWorkOrderView(resigned, [], NOW), "measure").signedOff).toMatchObject({ id: u(115), at: at(8), pending: false });
   });
 
   it("a stage with every step done and no sign-off may be signed off; a sign-off waiting on the tablet counts", () => {

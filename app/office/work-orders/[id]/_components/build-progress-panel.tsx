@@ -28,7 +28,12 @@ export function BuildProgressPanel({ workOrderId, number }: { workOrderId: strin
     },
   });
   return (
-    <section className="rounded-xl border-2 border-steel-300 bg-white p-4" aria-labelledby="progress-heading" data-testid="build-progress">
+    <section
+      id="build-progress"
+      className="rounded-xl border-2 border-steel-300 bg-white p-4"
+      aria-labelledby="progress-heading"
+      data-testid="build-progress"
+    >
       <h2 id="progress-heading" className="text-2xl font-bold">
         Build progress
       </h2>

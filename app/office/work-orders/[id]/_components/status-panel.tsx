@@ -3,36 +3,57 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
 import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { isGatedMove } from "@/lib/work-orders/transition-rules";
 import type { ReplyOf } from "@/app/_server/route";
 import type { POST } from "@/app/api/office/work-orders/[id]/status/route";
-import { api, type Wire } from "@/app/ui/api-client";
+import { api, ApiError, type Wire } from "@/app/ui/api-client";
 import { FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
+import { OverrideForm } from "./override-form";
 import type { WorkOrderData } from "./types";
 
+type Moved = Wire<ReplyOf<typeof POST>>;
+
+/** What the office is told after a move. */
+export function movedMessage(r: Moved, to: WorkOrderStatus): string {
+  const mail = r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : "";
+  const override = r.overrideId ? " Your override and its reason are on record." : "";
+  const report = r.report ? ` The build report is stored (revision ${r.report.revision}).` : "";
+  return `Moved to ${STATUS_LABELS[to]}.${override}${report}${mail}`;
+}
+
 // Move the job on: one button per move the flow allows; the server gives the reason when a move
-// is refused. Going in build pins the chosen procedure templates (their current versions).
-export function StatusPanel({ data }: { data: WorkOrderData }) {
+// is refused. Going in build pins the chosen procedure templates (their current versions). A move
+// to "ready" or "handed over" refused for open items offers the override: a written reason.
+export function StatusPanel({ data, onGateRefused }: { data: WorkOrderData; onGateRefused: () => void }) {
   const qc = useQueryClient();
   const wo = data.workOrder;
   const [note, setNote] = useState("");
   const [pins, setPins] = useState<string[]>([]);
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
+  const [gated, setGated] = useState<WorkOrderStatus | null>(null);
+  const refresh = () => qc.invalidateQueries({ queryKey: ["work-order", wo.id] });
   const move = useMutation({
     mutationFn: (to: WorkOrderStatus) =>
-      api<Wire<ReplyOf<typeof POST>>>("POST", `/api/office/work-orders/${wo.id}/status`, {
+      api<Moved>("POST", `/api/office/work-orders/${wo.id}/status`, {
         to,
         note,
         templateVersionIds: to === "in_build" ? pins : [],
       }),
     onSuccess: (r, to) => {
-      setMessage({
-        ok: `Moved to ${STATUS_LABELS[to]}.${r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : ""}`,
-      });
+      setMessage({ ok: movedMessage(r, to) });
       setNote("");
       setPins([]);
-      void qc.invalidateQueries({ queryKey: ["work-order", wo.id] });
+      setGated(null);
+      void refresh();
     },
-    onError: (e) => setMessage({ error: (e as Error).message }),
+    onError: (e, to) => {
+      setMessage({ error: (e as Error).message });
+      if (e instanceof ApiError && e.status === 409 && isGatedMove(to) && e.issues.some((i) => i.path === "openItems")) {
+        setGated(to);
+        onGateRefused();
+        void refresh();
+      }
+    },
   });
   const moves = data.next.filter((s) => s !== "approved");
   const goesInBuild = data.next.includes("in_build");
@@ -86,6 +107,20 @@ export function StatusPanel({ data }: { data: WorkOrderData }) {
       <div className="mt-3">
         <FormMessage error={message.error} ok={message.ok} />
       </div>
+      {gated && data.next.includes(gated) && data.openItems.length > 0 && (
+        <OverrideForm
+          workOrderId={wo.id}
+          to={gated}
+          items={data.openItems}
+          note={note}
+          onDone={(r) => {
+            setMessage({ ok: movedMessage(r, gated) });
+            setGated(null);
+            setNote("");
+            void refresh();
+          }}
+        />
+      )}
     </section>
   );
 }

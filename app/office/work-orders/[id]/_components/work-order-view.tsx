@@ -2,11 +2,15 @@
 
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
+import { useState } from "react";
+import { READY_FOR_BUILD_NOTICE } from "@/lib/office/deposit-notice";
 import { STATUS_LABELS } from "@/lib/work-orders/status";
 import { dayTime } from "@/app/ui/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { BuildProgressPanel } from "./build-progress-panel";
 import { NotesPanel } from "./notes-panel";
+import { OpenItemsPanel } from "./open-items-panel";
+import { ReportCopies } from "./report-copies";
 import { PartsPanel } from "./parts-panel";
 import { QuoteEditor } from "./quote-editor";
 import { AssignPanel, StatusPanel } from "./status-panel";
@@ -20,6 +24,7 @@ const MAIL_KIND = {
 } as const;
 
 export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string; currency: string; taxRateBp: number; warning?: string }) {
+  const [gateRefused, setGateRefused] = useState(false);
   const q = useQuery({
     queryKey: ["work-order", id],
     queryFn: async () => {
@@ -76,10 +81,22 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
           {warning}
         </p>
       )}
+      {wo.readyForBuild && (
+        <p
+          role="status"
+          className="rounded-lg border-4 border-pass bg-pass-light p-3 text-lg font-bold text-pass"
+          data-testid="ready-for-build"
+        >
+          <span aria-hidden="true">✔</span> {READY_FOR_BUILD_NOTICE}
+          {wo.depositPaidAt ? ` (paid ${dayTime(wo.depositPaidAt)})` : ""}
+        </p>
+      )}
       <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
-        <StatusPanel data={data} />
+        <StatusPanel data={data} onGateRefused={() => setGateRefused(true)} />
         <AssignPanel data={data} />
       </div>
+      <OpenItemsPanel data={data} highlight={gateRefused} />
+      <ReportCopies data={data} />
       <BuildProgressPanel workOrderId={wo.id} number={wo.number} />
       <QuoteEditor key={data.quotes.map((x) => `${x.id}${x.status}`).join()} data={data} currency={currency} taxRateBp={taxRateBp} />
       <NotesPanel data={data} />

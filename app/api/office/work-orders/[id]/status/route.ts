@@ -1,22 +1,33 @@
 import { mailBikeReady } from "@/app/_server/customer-mail";
+import { storeHandoverCopy } from "@/app/_server/frozen-report";
 import { idParam, json, route } from "@/app/_server/route";
 import { handOver } from "@/db/office/invoices";
 import { moveWorkOrder } from "@/db/shop/work-orders";
 import { transitionSchema } from "@/lib/office/schemas";
 
-// Moves the work order on. Handover writes the final invoice in the same transaction; "ready"
-// e-mails the customer with the handover build report attached.
+// Moves the work order on. The moves to "ready" and "handed over" are gated on the record: with
+// items still open they are refused (409, each open item listed) unless the body carries the
+// office's override (a written reason and the open items it saw), which is recorded with the move.
+// Handover writes the final invoice and stores the build report (revision 1) in the same
+// transaction; "ready" e-mails the customer with the build report attached.
 export const POST = route(
   { access: { area: "office" }, params: ["id"], body: json(transitionSchema) },
   async ({ user, params, body, db }) => {
     const id = idParam(params.id);
-    const opts = { note: body.note, templateVersionIds: body.to === "in_build" ? body.templateVersionIds : [] };
+    const opts = { note: body.note, templateVersionIds: body.to === "in_build" ? body.templateVersionIds : [], override: body.override };
+    let overrideId: string | null;
+    let report: { revision: number; sha256: string } | undefined;
     if (body.to === "handed_over") {
-      await handOver(db, user.shopId, user.id, id, opts.note);
+      const done = await handOver(db, user.shopId, user.id, id, {
+        ...opts,
+        storeReport: (trx) => storeHandoverCopy(trx, user.shopId, id, user.id),
+      });
+      overrideId = done.overrideId;
+      report = { revision: done.report.revision, sha256: done.report.sha256 };
     } else {
-      await moveWorkOrder(db, user.shopId, user.id, id, body.to, opts);
+      ({ overrideId } = await moveWorkOrder(db, user.shopId, user.id, id, body.to, opts));
     }
     const mail = body.to === "ready" ? await mailBikeReady(db, user.shopId, id) : undefined;
-    return { status: body.to, mail };
+    return { status: body.to, overrideId, report, mail };
   },
 );

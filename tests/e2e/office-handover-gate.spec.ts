@@ -1,0 +1,120 @@
+import { createHash } from "node:crypto";
+import { readFile } from "node:fs/promises";
+import { expect, test, type Download } from "@playwright/test";
+import { PDFParse } from "pdf-parse";
+import { signIn } from "./support/demo-users";
+import { query } from "./support/e2e-db";
+
+// The gates at the end of a job, in the browser: the demo job #1010 (Felix Amadi's Halden, in review
+// with nothing done on the bench) cannot go to Ready: the office sees the checklist of what is open,
+// overrides with a written reason, and hands the bike over the same way. The reason is on page one
+// of the stored build report, and the customer's link serves that stored file byte for byte.
+
+const sha256 = (b: Buffer) => createHash("sha256").update(b).digest("hex");
+
+async function pdfPage1(bytes: Buffer) {
+  const parser = new PDFParse({ data: new Uint8Array(bytes) });
+  try {
+    return (await parser.getText({ partial: [1] })).text.replace(/\s+/g, " ");
+  } finally {
+    await parser.destroy();
+  }
+}
+
+async function bytesOf(download: Download) {
+  return readFile((await download.path())!);
+}
+
+test("the office cannot hand over an unfinished job without a written reason; the reason is on the stored report", async ({ browser }) => {
+  test.setTimeout(120_000);
+  const office = await (await browser.newContext()).newPage();
+  await signIn(office, "office");
+  await office.goto("/office");
+  await office.getByRole("link", { name: "1010", exact: true }).click();
+  await expect(office.getByTestId("work-order-status")).toContainText("In review");
+
+  // the move to Ready is refused; the checklist lists every open item with a link
+  await office.getByRole("button", { name: "→ Ready" }).click();
+  await expect(office.getByTestId("form-error")).toBeVisible();
+  const checklist = office.getByTestId("open-items");
+  await expect(checklist.getByTestId("open-items-summary")).toContainText("cannot move to “Ready”");
+  const items = checklist.getByTestId("open-item");
+  const openCount = await items.count();
+  expect(openCount).toBeGreaterThan(1);
+  // stage › step, and the reason in workshop words
+  await expect(items.first()).toContainText("Prepare deck and head › Piston deck clearance");
+  await expect(items.first()).toContainText("Not done yet: Deck clearance: 4 of 4 readings to record.");
+  await expect(items.first().getByTestId("open-item-link")).toHaveAttribute("href", "#build-progress");
+  const [{ n }] = await query<{ n: string }>(
+    "SELECT count(*) AS n FROM work_order_transitions t JOIN work_orders w ON w.id = t.work_order_id WHERE w.number = 1010",
+  );
+  expect(Number(n)).toBe(1); // the refused move changed nothing
+
+  // the override: too short a reason is refused in workshop words, then a real one goes through
+  const form = office.getByTestId("override-form");
+  await form.getByTestId("override-reason").fill("asap");
+  await form.getByRole("button", { name: /Move to “Ready” with \d+ items open/ }).click();
+  await expect(form.getByTestId("error-override")).toContainText("Reason for the override: write at least 3 words");
+  const reason = "Customer collects for a race weekend; head check booked after";
+  await form.getByTestId("override-reason").fill(reason);
+  await form.getByRole("button", { name: /Move to “Ready” with \d+ items open/ }).click();
+  await expect(office.getByTestId("work-order-status")).toContainText("Ready");
+  await expect(office.getByTestId("form-ok")).toContainText("Your override and its reason are on record.");
+
+  // handed over: gated the same way, overridden the same way
+  await office.getByRole("button", { name: "→ Handed over" }).click();
+  await expect(office.getByTestId("override-form")).toBeVisible();
+  await office.getByTestId("override-reason").fill(reason);
+  await office
+    .getByTestId("override-form")
+    .getByRole("button", { name: /Move to “Handed over” with \d+ items open/ })
+    .click();
+  await expect(office.getByTestId("work-order-status")).toContainText("Handed over");
+  await expect(office.getByTestId("form-ok")).toContainText("The build report is stored (revision 1).");
+  const overrides = office.getByTestId("override");
+  await expect(overrides).toHaveCount(2);
+  await expect(overrides.first()).toContainText(reason);
+
+  // the override records in PostgreSQL: who, why, what was open
+  const recs = await query<{ to_status: string; reason: string; items: number; by: string }>(
+    `SELECT o.to_status, o.reason, jsonb_array_length(o.open_items) AS items, u.name AS by
+       FROM status_overrides o JOIN work_orders w ON w.id = o.work_order_id JOIN users u ON u.id = o.by_user_id
+      WHERE w.number = 1010 ORDER BY o.at`,
+  );
+  expect(recs.map((r) => [r.to_status, r.reason, r.by])).toEqual([
+    ["ready", reason, "Maren Ostby"],
+    ["handed_over", reason, "Maren Ostby"],
+  ]);
+  expect(recs[0].items).toBe(openCount);
+
+  // the stored copy, downloaded by the office: the reason on page one
+  const copy = office.getByTestId("report-copy");
+  await expect(copy).toHaveCount(1);
+  await expect(copy).toContainText("✔ as handed over");
+  const [officeDownload] = await Promise.all([office.waitForEvent("download"), copy.getByRole("link", { name: "Revision 1" }).click()]);
+  const officeBytes = await bytesOf(officeDownload);
+  const page1 = await pdfPage1(officeBytes);
+  expect(page1).toContain("Handed over with open items:");
+  expect(page1).toContain(reason);
+  const [stored] = await query<{ sha256: string; byte_size: number }>(
+    "SELECT r.sha256, r.byte_size FROM report_revisions r JOIN work_orders w ON w.id = r.work_order_id WHERE w.number = 1010",
+  );
+  expect(sha256(officeBytes)).toBe(stored.sha256);
+  expect(officeBytes.length).toBe(stored.byte_size);
+  await expect(copy).toContainText(stored.sha256);
+
+  // the customer's link serves the stored file: the same bytes
+  const customer = await (await browser.newContext()).newPage();
+  await signIn(customer, "customer"); // Felix Amadi owns the Halden of job #1010
+  const card = customer.getByTestId("my-work-order").filter({ hasText: "#1010" });
+  await expect(card.getByTestId("my-report-copy")).toHaveCount(1);
+  await expect(card.getByTestId("my-report-copy")).toContainText("the one handed over");
+  const [customerDownload] = await Promise.all([
+    customer.waitForEvent("download"),
+    card.getByTestId("my-report-copy").getByRole("link", { name: "Revision 1 (PDF)" }).click(),
+  ]);
+  const customerBytes = await bytesOf(customerDownload);
+  expect(sha256(customerBytes)).toBe(stored.sha256);
+  const [latest] = await Promise.all([customer.waitForEvent("download"), card.getByTestId("my-build-report").click()]);
+  expect(sha256(await bytesOf(latest))).toBe(stored.sha256);
+});
