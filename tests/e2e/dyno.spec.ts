@@ -188,7 +188,7 @@ test("a mechanic uploads a bad CSV, sees line-and-column errors and nothing save
   await expect(page.getByTestId("form-message")).toContainText("saved");
   await expect(page.getByRole("button", { name: /11 psi, baffle out/ })).toHaveAttribute("aria-pressed", "true");
   await expect(page.getByTestId("curve-chart").locator("path.recharts-line-curve")).toHaveCount(6);
-  await expect(page.getByRole("row", { name: /11 psi, baffle out/ })).toBeVisible();
+  await expect(page.getByRole("row", { name: /^11 psi, baffle out/ })).toBeVisible();
   await page.screenshot({ path: `${SHOTS}/dyno-after-upload.png`, fullPage: true });
 });
 
@@ -216,9 +216,10 @@ test("a supervisor types a curve into the table; a bad cell is named by row and 
   await page.getByLabel("Row 2 torque").fill("100");
   await page.getByRole("button", { name: "Save run" }).click();
   await expect(page.getByTestId("form-message")).toContainText("Typed check");
-  const row = page.getByRole("row", { name: /Typed check/ });
-  // 100 N·m at 7000 rpm, corrected with SAE J1349 at 101 kPa, 20 °C, 40 % RH; no boost → no per-psi figure
-  await expect(row).toContainText("no boost");
+  // (anchored: the comparison table's header row names the runs too)
+  const row = page.getByRole("row", { name: /^Typed check/ });
+  // 100 N·m at 7000 rpm, corrected with SAE J1349 at 101 kPa, 20 °C, 40 % RH; no tune file on this job
+  await expect(row.getByTestId("run-tune")).toHaveText("Tune: none named");
   await expect(row.getByTestId("peak-torque")).toContainText("at 7000");
 
   // Typed on the wrong job after all: the supervisor withdraws it with a reason. It leaves the plot
@@ -242,7 +243,7 @@ test("a supervisor types a curve into the table; a bad cell is named by row and 
   await withdraw.getByLabel("Why it is withdrawn").fill("Typed on the wrong job card");
   await withdraw.getByRole("button", { name: "Withdraw this run" }).click();
   await expect(withdraw.getByTestId("form-ok")).toContainText("“Typed check” withdrawn");
-  await expect(page.getByRole("row", { name: /Typed check/ })).toHaveCount(0);
+  await expect(page.getByRole("row", { name: /^Typed check/ })).toHaveCount(0);
   await expect(page.getByRole("button", { name: /Typed check/ })).toHaveCount(0);
   await expect(page.getByTestId("curve-chart").locator("path.recharts-line-curve")).toHaveCount(curves - 2);
   await expect(page.getByTestId("withdrawn-run").filter({ hasText: "Typed check" })).toContainText(
