@@ -262,12 +262,13 @@ describe("timers started twice, stopped or cancelled", () => {
     expect(state.timers.get(timerId)?.cancelled).toBe(true);
   });
 
-  it("a stop or cancel naming a timer that is not on the job is refused with the reason", () => {
+  it("a cancel naming a timer not on file yet is held until the timer's start arrives (as a stop is)", () => {
     const j = job();
     const timerId = randomUUID();
-    expect(decide(op("timer.cancelled", j, { timerId, reason: "mistake" }), j, emptyMergeState())).toEqual({
-      outcome: "refuse",
-      reason: `Timer ${timerId} is not on record on work order #1021.`,
+    expect(decide(op("timer.cancelled", j, { timerId, reason: "mistake" }), j, emptyMergeState())).toMatchObject({
+      outcome: "wait",
+      target: { kind: "timer", id: timerId },
+      reason: expect.stringContaining(`until the start of timer ${timerId} arrives`),
     });
   });
 });
