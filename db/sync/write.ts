@@ -280,7 +280,7 @@ export async function applyFirstOverrides(trx: Tx, timerIds: readonly string[]):
       ORDER BY payload->>'timerId', stamp COLLATE "C", id
     ) o
     WHERE t.id = o.timer_id
-      AND (t.override_by IS DISTINCT FROM o.author_id OR t.override_reason IS DISTINCT FROM o.payload->>'reason')
+      AND (t.override_by IS DISTINCT FROM o.author_id OR t.override_reason IS DISTINCT FROM o.payload->>'reason' OR t.override_at IS DISTINCT FROM o.device_time)
   `.execute(trx);
 }
 

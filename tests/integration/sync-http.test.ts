@@ -88,7 +88,7 @@ describe("POST /api/sync handler", () => {
       {
         id: bad.id,
         reason: expect.stringMatching(
-          /^Reading must be a number between .*; Unit: choose mm, in or µm\. The server cannot store this entry as it is/,
+          /^Value: must be a plain decimal number as typed on the keypad, e\.g\. 0\.030; Unit: choose mm, in, µm or cc\. The server cannot store this entry as it is/,
         ),
       },
     ]);
