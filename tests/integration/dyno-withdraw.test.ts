@@ -46,7 +46,12 @@ describe("withdrawing a dyno run recorded by mistake", () => {
     const report = await loadHandoverReport(db, fx.shopId, fx.workOrderId);
     expect(report?.runs.map((x) => x.label)).toEqual(["9 psi, second pull"]);
 
-    const audit = await db.selectFrom("audit_log").selectAll().where("action", "=", "dyno.run-withdrawn").execute();
+    const audit = await db
+      .selectFrom("audit_log")
+      .selectAll()
+      .where("action", "=", "dyno.run-withdrawn")
+      .where("work_order_id", "=", fx.workOrderId)
+      .execute();
     expect(audit).toEqual([
       expect.objectContaining({
         actor_id: sup.id,
