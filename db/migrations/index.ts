@@ -13,6 +13,7 @@ import * as m072 from "./2026_12_03_072_tune_versions";
 import * as m073 from "./2026_12_03_073_shop_presets";
 import * as m074 from "./2026_12_03_074_build_sheets";
 import * as m075 from "./2026_12_03_075_volume_readings";
+import * as m060 from "./2026_12_04_060_mail_outbox";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -32,4 +33,5 @@ export const migrations: Record<string, Migration> = {
   "2026_12_03_073_shop_presets": m073,
   "2026_12_03_074_build_sheets": m074,
   "2026_12_03_075_volume_readings": m075,
+  "2026_12_04_060_mail_outbox": m060,
 };

@@ -2,6 +2,7 @@ import type { Selectable } from "kysely";
 import type { AuditTables } from "./audit";
 import type { BenchTables } from "./bench";
 import type { DynoTables } from "./dyno";
+import type { MailTables } from "./mail";
 import type { OfficeTables } from "./office";
 import type { ReviewTables } from "./review";
 import type { SessionTables } from "./sessions";
@@ -11,6 +12,16 @@ import type { WorkOrderTables } from "./work-orders";
 
 // The whole database as Kysely sees it: one file per subject in this folder.
 export interface Database
-  extends ShopTables, TemplateTables, WorkOrderTables, BenchTables, ReviewTables, OfficeTables, DynoTables, AuditTables, SessionTables {}
+  extends
+    ShopTables,
+    TemplateTables,
+    WorkOrderTables,
+    BenchTables,
+    ReviewTables,
+    OfficeTables,
+    DynoTables,
+    AuditTables,
+    SessionTables,
+    MailTables {}
 
 export type User = Selectable<UsersTable>;

@@ -26,7 +26,7 @@ export function StatusPanel({ data }: { data: WorkOrderData }) {
       }),
     onSuccess: (r, to) => {
       setMessage({
-        ok: `Moved to ${STATUS_LABELS[to]}.${r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : ""}`,
+        ok: `Moved to ${STATUS_LABELS[to]}.${r.mail ? (r.mail.ok ? " The e-mail to the customer is on its way." : ` E-mail not sent: ${r.mail.error}.`) : ""}`,
       });
       setNote("");
       setPins([]);
