@@ -22,10 +22,15 @@ export async function enqueueMails(db: Db, mails: QueuedMail[], boss?: PgBoss): 
   return ids;
 }
 
-export async function handToQueue(ids: string[], boss?: PgBoss): Promise<void> {
+/**
+ * A job for each e-mail. The first hand-on uses the e-mail's id as the job id (twice makes one
+ * job); `again` (the office's "try again", the sweep of e-mails with no live job) makes a new job,
+ * since the old one is still on file as failed.
+ */
+export async function handToQueue(ids: string[], boss?: PgBoss, again = false): Promise<void> {
   if (!ids.length) return;
   const b = boss ?? (await appBoss());
-  for (const id of ids) await b.send(QUEUES.mail, { mailId: id }, { id });
+  for (const id of ids) await b.send(QUEUES.mail, { mailId: id }, again ? {} : { id });
 }
 
 /**

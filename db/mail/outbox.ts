@@ -106,17 +106,21 @@ export async function finishMail(
     .execute();
 }
 
-/** E-mails queued longer than `olderThanMs` (their job was lost, e.g. the process stopped before handing it on). */
+/**
+ * E-mails queued longer than `olderThanMs` with no live job (created, waiting for a retry, or
+ * running) in the queue's table: their job was lost, e.g. the process stopped before handing it on.
+ */
 export async function strandedMails(db: Kysely<Database>, olderThanMs: number, limit = 200): Promise<string[]> {
-  const rows = await db
-    .selectFrom("mail_outbox")
-    .select("id")
-    .where("state", "=", "queued")
-    .where("queued_at", "<", new Date(Date.now() - olderThanMs))
-    .orderBy("queued_at")
-    .limit(limit)
-    .execute();
-  return rows.map((r) => r.id);
+  const r = await sql<{ id: string }>`
+    SELECT m.id FROM mail_outbox m
+    WHERE m.state = 'queued' AND m.queued_at < ${new Date(Date.now() - olderThanMs)}
+      AND NOT EXISTS (
+        SELECT 1 FROM pgboss.job j
+        WHERE j.name = 'mail-send' AND j.data->>'mailId' = m.id::text AND j.state IN ('created', 'retry', 'active')
+      )
+    ORDER BY m.queued_at LIMIT ${limit}
+  `.execute(db);
+  return r.rows.map((m) => m.id);
 }
 
 /** The office's "try again" on an e-mail that failed for good: queued once more. */

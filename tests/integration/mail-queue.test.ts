@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { enqueueMails, handToQueue } from "@/app/_server/mail";
 import { QUEUES } from "@/app/_server/queue/names";
+import { POST as tryAgain } from "@/app/api/office/outbox-mail/route";
 import { GET as reviewQueue } from "@/app/api/review/queue/route";
 import { outboxForOffice } from "@/db/mail/outbox";
 import { Tablet } from "../bench/sync-ops";
@@ -84,8 +85,9 @@ describe("the e-mail queue", () => {
     expect(sent.last_error).toBeNull();
   });
 
-  it("an e-mail that fails every allowed try is marked failed and listed for the office", async () => {
+  it("an e-mail that fails every allowed try is marked failed, listed for the office, and sent once when the office tries it again", async () => {
     const fx = await createShopFixture(db);
+    const to = `never-${Date.now()}@example.test`;
     const smtp = process.env.SMTP_URL;
     process.env.SMTP_URL = "smtp://127.0.0.1:9";
     try {
@@ -95,7 +97,7 @@ describe("the e-mail queue", () => {
           workOrderId: fx.workOrderId,
           kind: "bike_ready",
           cause: "test-fail",
-          to: `never-${Date.now()}@example.test`,
+          to,
           subject: "Never goes out",
           text: "x",
         },
@@ -116,6 +118,27 @@ describe("the e-mail queue", () => {
         lastError: expect.stringMatching(/connect/i),
       }),
     ]);
+    expect(await mailTo(ports.mailWeb, to, 1, 300)).toEqual([]);
+
+    const post = () =>
+      tryAgain.handle(
+        appRequest("/api/office/outbox-mail", {
+          method: "POST",
+          headers: { "content-type": "application/json" },
+          body: JSON.stringify({ id: failed.id }),
+        }),
+        {
+          user: { ...fx.users.office, customerId: null },
+          db,
+        },
+      );
+    expect((await post()).status).toBe(200);
+    await eventually(async () => (await outboxRows(fx.workOrderId))[0].state === "sent");
+    expect(await mailTo(ports.mailWeb, to, 2, 1500)).toHaveLength(1);
+    // Sent now: trying it again is refused, and nothing more goes out.
+    const again = await post();
+    expect(again.status).toBe(409);
+    expect((await again.json()).error).toBe("E-mail: only a failed e-mail of this shop can be tried again.");
   });
 
   it("reading the review queue sends nothing; the merge's notice goes out through the queue once", async () => {

@@ -1,3 +1,4 @@
+import "server-only";
 // The queues of deferred work (pg-boss, schema "pgboss" in the app's own database).
 export const QUEUES = {
   /** One job per e-mail of the outbox (data: { mailId }); the job id is the e-mail's id. */

@@ -1,3 +1,4 @@
+import "server-only";
 // `npm run worker`: the queue worker as a process of its own (for a shop that runs the web app
 // with BENCHTAG_QUEUE_WORKER=off, or wants more than one worker). Stops cleanly on SIGINT/SIGTERM.
 import { db } from "@/db/setup/client";

@@ -34,6 +34,6 @@ export async function startQueueWorker(
 export async function sweep(db: Db, boss: PgBoss) {
   const notices = await queueReviewNotices(db, boss);
   const stranded = await strandedMails(db, STRANDED_MS);
-  await handToQueue(stranded, boss);
+  await handToQueue(stranded, boss, true);
   return { notices, stranded: stranded.length };
 }
