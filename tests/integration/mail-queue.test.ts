@@ -3,7 +3,7 @@ import { enqueueMails, handToQueue } from "@/app/_server/mail";
 import { QUEUES } from "@/app/_server/queue/names";
 import { POST as tryAgain } from "@/app/api/office/outbox-mail/route";
 import { GET as reviewQueue } from "@/app/api/review/queue/route";
-import { outboxForOffice } from "@/db/mail/outbox";
+import { outboxForOffice, queueMails } from "@/db/mail/outbox";
 import { Tablet } from "../bench/sync-ops";
 import { mailTo, useFakes } from "./support/fakes";
 import { eventually, TEST_MAIL_RETRY, useQueueWorkers } from "./support/queue";
@@ -164,5 +164,23 @@ describe("the e-mail queue", () => {
     await eventually(async () => (await outboxRows(fx.workOrderId)).some((r) => r.state === "sent"));
     expect(await notice()).toMatchObject({ state: "sent" });
     expect(await mailTo(ports.mailWeb, users.sup.email, 2, 1500)).toHaveLength(1);
+  });
+
+  it("an e-mail whose job was lost (stored, never handed on) is sent by the sweep, once", async () => {
+    const fx = await createShopFixture(db);
+    const to = `lost-${Date.now()}@example.test`;
+    const [id] = await queueMails(db, [
+      { shopId: fx.shopId, workOrderId: fx.workOrderId, kind: "quote_ready", cause: "test-lost", to, subject: "Lost job", text: "x" },
+    ]);
+    await db
+      .updateTable("mail_outbox")
+      .set({ queued_at: new Date(Date.now() - 5 * 60_000) })
+      .where("id", "=", id)
+      .execute();
+    await workers[0].send(QUEUES.sweep, {});
+    await workers[1].send(QUEUES.sweep, {});
+    await eventually(async () => (await outboxRows(fx.workOrderId))[0].state === "sent");
+    expect(await mailTo(ports.mailWeb, to, 2, 1500)).toHaveLength(1);
+    expect((await outboxRows(fx.workOrderId))[0].attempts).toBe(1);
   });
 });
