@@ -6,7 +6,7 @@ import { GET as reviewQueue } from "@/app/api/review/queue/route";
 import { outboxForOffice, queueMails } from "@/db/mail/outbox";
 import { Tablet } from "../bench/sync-ops";
 import { mailTo, useFakes } from "./support/fakes";
-import { eventually, TEST_MAIL_RETRY, useQueueWorkers } from "./support/queue";
+import { eventually, TEST_MAIL_RETRY, useQueueWorkers, withSmtpRefusing } from "./support/queue";
 import { measureStageWork, reviewSetup, sync } from "./support/review-bench";
 import { appRequest } from "./support/route-calls";
 import { createShopFixture } from "./support/shop-fixture";
@@ -19,6 +19,15 @@ const workers = useQueueWorkers(db, 2);
 
 const outboxRows = (workOrderId: string) =>
   db.selectFrom("mail_outbox").selectAll().where("work_order_id", "=", workOrderId).orderBy("recipient").execute();
+const testMail = (fx: { shopId: string; workOrderId: string }, cause: string, to: string, subject: string) => ({
+  shopId: fx.shopId,
+  workOrderId: fx.workOrderId,
+  kind: "quote_ready",
+  cause,
+  to,
+  subject,
+  text: "x",
+});
 const sends = (workOrderId: string) =>
   db.selectFrom("outbound_emails").select(["recipient", "error"]).where("work_order_id", "=", workOrderId).execute();
 
@@ -54,27 +63,13 @@ describe("the e-mail queue", () => {
   it("an SMTP that refuses is tried again with back-off, and the e-mail goes out once when it answers", async () => {
     const fx = await createShopFixture(db);
     const to = `retry-${Date.now()}@example.test`;
-    const smtp = process.env.SMTP_URL;
-    process.env.SMTP_URL = "smtp://127.0.0.1:9"; // nothing listens there
-    try {
-      await enqueueMails(db, [
-        {
-          shopId: fx.shopId,
-          workOrderId: fx.workOrderId,
-          kind: "quote_ready",
-          cause: "test-retry",
-          to,
-          subject: "After a retry",
-          text: "x",
-        },
-      ]);
+    await withSmtpRefusing(async () => {
+      await enqueueMails(db, [testMail(fx, "test-retry", to, "After a retry")]);
       await eventually(async () => (await sends(fx.workOrderId)).length >= 1);
       const [waiting] = await outboxRows(fx.workOrderId);
       expect(waiting.state).toBe("queued");
       expect(waiting.last_error).toMatch(/ECONNREFUSED|connect/i);
-    } finally {
-      process.env.SMTP_URL = smtp;
-    }
+    });
     await eventually(async () => (await outboxRows(fx.workOrderId))[0].state === "sent");
     expect(await mailTo(ports.mailWeb, to, 2, 1500)).toHaveLength(1);
     const log = await sends(fx.workOrderId);
@@ -88,24 +83,10 @@ describe("the e-mail queue", () => {
   it("an e-mail that fails every allowed try is marked failed, listed for the office, and sent once when the office tries it again", async () => {
     const fx = await createShopFixture(db);
     const to = `never-${Date.now()}@example.test`;
-    const smtp = process.env.SMTP_URL;
-    process.env.SMTP_URL = "smtp://127.0.0.1:9";
-    try {
-      await enqueueMails(db, [
-        {
-          shopId: fx.shopId,
-          workOrderId: fx.workOrderId,
-          kind: "bike_ready",
-          cause: "test-fail",
-          to,
-          subject: "Never goes out",
-          text: "x",
-        },
-      ]);
+    await withSmtpRefusing(async () => {
+      await enqueueMails(db, [testMail(fx, "test-fail", to, "Never goes out")]);
       await eventually(async () => (await outboxRows(fx.workOrderId))[0].state === "failed", 20_000);
-    } finally {
-      process.env.SMTP_URL = smtp;
-    }
+    });
     const [failed] = await outboxRows(fx.workOrderId);
     expect(failed.attempts).toBe(TEST_MAIL_RETRY.retryLimit + 1);
     const { open } = await outboxForOffice(db, fx.shopId);
@@ -169,9 +150,7 @@ describe("the e-mail queue", () => {
   it("an e-mail whose job was lost (stored, never handed on) is sent by the sweep, once", async () => {
     const fx = await createShopFixture(db);
     const to = `lost-${Date.now()}@example.test`;
-    const [id] = await queueMails(db, [
-      { shopId: fx.shopId, workOrderId: fx.workOrderId, kind: "quote_ready", cause: "test-lost", to, subject: "Lost job", text: "x" },
-    ]);
+    const [id] = await queueMails(db, [testMail(fx, "test-lost", to, "Lost job")]);
     await db
       .updateTable("mail_outbox")
       .set({ queued_at: new Date(Date.now() - 5 * 60_000) })

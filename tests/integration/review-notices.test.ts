@@ -4,7 +4,7 @@ import { decideOnSignOff } from "@/db/review/decide";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { Tablet } from "../bench/sync-ops";
 import { mailTo, useFakes } from "./support/fakes";
-import { eventually, useQueueWorkers } from "./support/queue";
+import { eventually, useQueueWorkers, withSmtpRefusing } from "./support/queue";
 import { measureStageWork, reviewSetup, sync } from "./support/review-bench";
 import { useTestDb } from "./support/test-db";
 
@@ -87,14 +87,10 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
     const { ops, signOff } = measureStageWork(tablet, specs, stepIds, stage, { "ptw-2:0": 0.09 });
     await sync(db, users.mech, tablet, ops);
     const sends = () => db.selectFrom("outbound_emails").select(["error"]).where("work_order_id", "=", fx.workOrderId).execute();
-    const smtp = process.env.SMTP_URL;
-    process.env.SMTP_URL = "smtp://127.0.0.1:9"; // nothing listens there
-    try {
+    await withSmtpRefusing(async () => {
       expect((await queueReviewNotices(db)).queued).toBeGreaterThanOrEqual(1);
       await eventually(async () => (await sends()).length > 0);
-    } finally {
-      process.env.SMTP_URL = smtp;
-    }
+    });
     expect(await notice(signOff.id)).toMatchObject({ state: "sent", attempts: 1, last_error: null });
     expect((await sends())[0].error).toMatch(/ECONNREFUSED|connect/i);
     const mails = await mailTo(ports.mailWeb, users.sup.email);

@@ -40,3 +40,14 @@ export async function eventually(check: () => Promise<boolean>, ms = 15_000): Pr
     await new Promise((r) => setTimeout(r, 200));
   }
 }
+
+/** Runs `run` with the app's SMTP pointed at a closed port (nothing listens on 9), then points it back. */
+export async function withSmtpRefusing<T>(run: () => Promise<T>): Promise<T> {
+  const smtp = process.env.SMTP_URL;
+  process.env.SMTP_URL = "smtp://127.0.0.1:9";
+  try {
+    return await run();
+  } finally {
+    process.env.SMTP_URL = smtp;
+  }
+}
