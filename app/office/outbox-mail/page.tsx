@@ -23,7 +23,7 @@ type Row = Awaited<ReturnType<typeof outboxForOffice>>["open"][number];
 function MailTable({ rows, testId, tryAgain }: { rows: Row[]; testId: string; tryAgain: boolean }) {
   if (!rows.length) return <p className="mt-4 text-lg">None.</p>;
   return (
-    <table className="mt-4 w-full border-collapse text-left text-lg" data-testid={testId}>
+    <table className="mt-4 w-full table-fixed border-collapse text-left text-lg" data-testid={testId}>
       <thead>
         <tr className="border-b-2 border-steel-700">
           <th className="py-2 pr-4">State</th>
@@ -47,8 +47,8 @@ function MailTable({ rows, testId, tryAgain }: { rows: Row[]; testId: string; tr
               <td className={`py-2 pr-4 font-bold ${s.className}`}>
                 <span aria-hidden="true">{s.mark}</span> {s.words}
               </td>
-              <td className="py-2 pr-4 font-mono text-base">{m.recipient}</td>
-              <td className="py-2 pr-4">{m.subject}</td>
+              <td className="py-2 pr-4 font-mono text-base break-all">{m.recipient}</td>
+              <td className="py-2 pr-4 break-words">{m.subject}</td>
               <td className="py-2 pr-4">
                 {m.workOrderId ? <Link href={`/office/work-orders/${m.workOrderId}`}>#{m.workOrderNumber}</Link> : "—"}
               </td>
@@ -57,7 +57,7 @@ function MailTable({ rows, testId, tryAgain }: { rows: Row[]; testId: string; tr
                 {tryAgain ? (
                   <>
                     {dayTime(m.queuedAt)}
-                    {m.lastError && <span className="block text-base text-fail">{m.lastError}</span>}
+                    {m.lastError && <span className="block text-base break-all text-fail">{m.lastError}</span>}
                   </>
                 ) : (
                   m.sentAt && dayTime(m.sentAt)
