@@ -25,8 +25,9 @@ const csp = (value) => [{ key: "Content-Security-Policy", value }];
 const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
-  // pdfkit reads its standard-font metrics from its own folder at run time: keep it unbundled.
-  serverExternalPackages: ["pdfkit"],
+  // pdfkit reads its standard-font metrics from its own folder at run time; pg-boss is the queue
+  // (app/_server/queue/) and runs as Node loads it: keep both unbundled.
+  serverExternalPackages: ["pdfkit", "pg-boss"],
   // Pages take no body: the proxy copies at most this much of one (proxy.ts never matches /api/).
   experimental: { proxyClientMaxBodySize: 64 * 1024 },
   // The service worker (public/sw.js) is built by `serwist build` after `next build`.

@@ -1,41 +1,55 @@
 import "server-only";
-import { emailContext } from "@/db/office/emails";
+import { emailContext, latestTransitionTo } from "@/db/office/emails";
 import { overridesOf } from "@/db/records/status-overrides";
 import { openItemLine } from "@/lib/work-orders/open-items";
 import { formatMinor } from "@/lib/money/quote-totals";
-import { bikeReadyAttachment } from "./bike-ready-attachment";
-import { sendMail } from "./mail";
+import { enqueueMails, type QueuedMail } from "./mail";
 import { officeConfig } from "./office-config";
 import type { Db } from "@/db/setup/client";
 
-// The three e-mails a customer gets about a job. Each returns quietly when the customer has no
-// e-mail address on file (the work order page shows that nothing was sent).
+// The three e-mails a customer gets about a job, queued in the outbox and sent by the queue
+// worker (app/_server/queue/). Each answers { ok: false } when the customer has no e-mail address
+// on file (the work order page shows that nothing was sent).
 
-export async function mailQuoteReady(db: Db, shopId: string, workOrderId: string, totalMinor: number, depositMinor: number) {
+type Queued = { ok: true; queued: boolean } | { ok: false; error: string };
+type Context = NonNullable<Awaited<ReturnType<typeof emailContext>>>;
+
+async function queueForCustomer(
+  db: Db,
+  shopId: string,
+  workOrderId: string,
+  write: (c: Context) => Omit<QueuedMail, "shopId" | "workOrderId" | "to">,
+): Promise<Queued> {
   const c = await emailContext(db, shopId, workOrderId);
   if (!c?.email) return { ok: false, error: "no e-mail address" };
-  const link = `${officeConfig().NEXTAUTH_URL}/my-bikes`;
-  return sendMail(db, {
-    shopId,
-    workOrderId,
-    kind: "quote_ready",
-    to: c.email,
-    subject: `Your quote for work order ${c.number} is ready`,
-    text: `Hello ${c.customerName},\n\nYour quote for the ${c.make} ${c.model} (${c.tagCode}) — "${c.title}" — is ready: ${formatMinor(totalMinor, c.currency)} including tax${depositMinor ? `, with a deposit of ${formatMinor(depositMinor, c.currency)}` : ""}.\n\nSign in to look at it and approve it: ${link}\n\n${c.shopName}`,
-  });
+  const ids = await enqueueMails(db, [{ shopId, workOrderId, to: c.email, ...write(c) }]);
+  return { ok: true, queued: ids.length > 0 };
 }
 
-export async function mailDepositReceived(db: Db, shopId: string, workOrderId: string, amountMinor: number) {
-  const c = await emailContext(db, shopId, workOrderId);
-  if (!c?.email) return { ok: false, error: "no e-mail address" };
-  return sendMail(db, {
-    shopId,
-    workOrderId,
+export async function mailQuoteReady(
+  db: Db,
+  shopId: string,
+  workOrderId: string,
+  quoteId: string,
+  totalMinor: number,
+  depositMinor: number,
+) {
+  const link = `${officeConfig().NEXTAUTH_URL}/my-bikes`;
+  return queueForCustomer(db, shopId, workOrderId, (c) => ({
+    kind: "quote_ready",
+    cause: `quote:${quoteId}`,
+    subject: `Your quote for work order ${c.number} is ready`,
+    text: `Hello ${c.customerName},\n\nYour quote for the ${c.make} ${c.model} (${c.tagCode}) — "${c.title}" — is ready: ${formatMinor(totalMinor, c.currency)} including tax${depositMinor ? `, with a deposit of ${formatMinor(depositMinor, c.currency)}` : ""}.\n\nSign in to look at it and approve it: ${link}\n\n${c.shopName}`,
+  }));
+}
+
+export async function mailDepositReceived(db: Db, shopId: string, workOrderId: string, depositId: string, amountMinor: number) {
+  return queueForCustomer(db, shopId, workOrderId, (c) => ({
     kind: "deposit_received",
-    to: c.email,
+    cause: `deposit:${depositId}`,
     subject: `Deposit received for work order ${c.number}`,
     text: `Hello ${c.customerName},\n\nThank you: we have received your deposit of ${formatMinor(amountMinor, c.currency)} for the ${c.make} ${c.model} (${c.tagCode}). Work can start.\n\n${c.shopName}`,
-  });
+  }));
 }
 
 /**
@@ -53,20 +67,17 @@ async function overrideNotice(db: Db, shopId: string, workOrderId: string): Prom
     .join("");
 }
 
+/** The build report PDF is made when the e-mail is sent (attachment "handover_report"). */
 export async function mailBikeReady(db: Db, shopId: string, workOrderId: string) {
-  const c = await emailContext(db, shopId, workOrderId);
-  if (!c?.email) return { ok: false, error: "no e-mail address" };
-  const pdf = await bikeReadyAttachment(db, shopId, workOrderId);
+  const moved = await latestTransitionTo(db, workOrderId, "ready");
   const notice = await overrideNotice(db, shopId, workOrderId);
-  return sendMail(db, {
-    shopId,
-    workOrderId,
+  return queueForCustomer(db, shopId, workOrderId, (c) => ({
     kind: "bike_ready",
-    to: c.email,
+    cause: `ready:${moved ?? workOrderId}`,
     subject: `Your ${c.make} ${c.model} is ready to collect`,
     text: notice
       ? `Hello ${c.customerName},\n\nYour ${c.make} ${c.model} (${c.tagCode}) is ready to collect.\n\n${notice}The build report is attached.\n\n${c.shopName}`
       : `Hello ${c.customerName},\n\nThe work on your ${c.make} ${c.model} (${c.tagCode}) is done and the bike is ready to collect. The build report is attached.\n\n${c.shopName}`,
-    attachments: [{ filename: `work-order-${c.number}-handover.pdf`, content: pdf, contentType: "application/pdf" }],
-  });
+    attachment: "handover_report",
+  }));
 }

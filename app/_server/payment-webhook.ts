@@ -57,6 +57,6 @@ export async function handlePaymentWebhook(
   // One "deposit received" e-mail per deposit: only the event that paid it sends one; a later,
   // different event about the same payment (a second succeeded event, a resend under a new id) does not.
   if (!outcome.newlyPaid) return { status: 200, body: { received: true, outcome: "deposit already paid" } };
-  if (opts.sendMail !== false) await mailDepositReceived(db, outcome.shopId, outcome.workOrderId, outcome.amountMinor);
+  if (opts.sendMail !== false) await mailDepositReceived(db, outcome.shopId, outcome.workOrderId, outcome.depositId, outcome.amountMinor);
   return { status: 200, body: { received: true, outcome: "deposit paid" } };
 }

@@ -1,12 +1,14 @@
 import "server-only";
 import { claimNotices, finishNotice, noticeFacts, type NoticeFacts } from "@/db/review/notices";
-import { sendMail } from "./mail";
+import { enqueueMails } from "./mail";
 import { officeConfig } from "./office-config";
 import type { Db } from "@/db/setup/client";
+import type PgBoss from "pg-boss";
 
-// Sends the supervisors' e-mail for sign-offs whose stage has readings out of tolerance. Runs after
-// a sync merge has committed (app/api/sync/route.ts) and whenever the review queue is read, so a
-// notice left waiting by a failed send goes out on a later run.
+// Queues the supervisors' e-mail for sign-offs whose stage has readings out of tolerance. Runs as a
+// queue job: handed on after a sync merge has committed (app/api/sync/route.ts) and every minute by
+// the sweep, so a notice left waiting goes out on a later run. Reading the review queue sends
+// nothing. The e-mails themselves are sent, and retried, by the mail queue (app/_server/mail.ts).
 
 function noticeMail(f: NoticeFacts, signOffId: string, baseUrl: string) {
   const count = f.outOfTolerance.length;
@@ -25,8 +27,8 @@ function noticeMail(f: NoticeFacts, signOffId: string, baseUrl: string) {
   return { subject, text };
 }
 
-export async function deliverReviewNotices(db: Db): Promise<{ sent: number; skipped: number; failed: number }> {
-  const tally = { sent: 0, skipped: 0, failed: 0 };
+export async function queueReviewNotices(db: Db, boss?: PgBoss): Promise<{ queued: number; skipped: number; failed: number }> {
+  const tally = { queued: 0, skipped: 0, failed: 0 };
   for (;;) {
     const claimed = await claimNotices(db);
     if (!claimed.length) return tally;
@@ -39,31 +41,24 @@ export async function deliverReviewNotices(db: Db): Promise<{ sent: number; skip
           continue;
         }
         const { subject, text } = noticeMail(facts, n.signOffId, officeConfig().NEXTAUTH_URL);
-        const errors: string[] = [];
-        for (const r of facts.recipients) {
-          const sent = await sendMail(db, {
-            shopId: n.shopId,
-            workOrderId: n.workOrderId,
-            kind: "review_needed",
-            to: r.email,
-            subject,
-            text,
-          });
-          if (!sent.ok) errors.push(`${r.email}: ${sent.error}`);
-        }
-        if (errors.length) {
-          await finishNotice(db, n, { state: "retry", error: errors.join("; ") });
-          tally.failed++;
-        } else {
-          await finishNotice(db, n, { state: "sent" }, { recipients: facts.recipients.map((r) => r.email), subject });
-          tally.sent++;
-        }
+        const mails = facts.recipients.map((r) => ({
+          shopId: n.shopId,
+          workOrderId: n.workOrderId,
+          kind: "review_needed",
+          cause: `sign-off:${n.signOffId}`,
+          to: r.email,
+          subject,
+          text,
+        }));
+        await enqueueMails(db, mails, boss);
+        await finishNotice(db, n, { state: "sent" }, { recipients: facts.recipients.map((r) => r.email), subject });
+        tally.queued++;
       } catch (e) {
         await finishNotice(db, n, { state: "retry", error: (e as Error).message }).catch(() => undefined);
         tally.failed++;
       }
     }
-    // A failed send waits for the next run rather than being tried again at once.
+    // A notice that could not be queued waits for the next run rather than being tried again at once.
     if (tally.failed) return tally;
   }
 }

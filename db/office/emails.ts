@@ -50,3 +50,16 @@ export async function emailContext(db: Kysely<Database>, shopId: string, workOrd
     .where("w.shop_id", "=", shopId)
     .executeTakeFirst();
 }
+
+/** The latest move of the work order to `status` (what a status e-mail is about). */
+export async function latestTransitionTo(db: Kysely<Database>, workOrderId: string, status: "ready") {
+  const t = await db
+    .selectFrom("work_order_transitions")
+    .select("id")
+    .where("work_order_id", "=", workOrderId)
+    .where("to_status", "=", status)
+    .orderBy("at", "desc")
+    .orderBy("id", "desc")
+    .executeTakeFirst();
+  return t?.id ?? null;
+}

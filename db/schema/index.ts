@@ -2,6 +2,7 @@ import type { Selectable } from "kysely";
 import type { AuditTables } from "./audit";
 import type { BenchTables } from "./bench";
 import type { DynoTables } from "./dyno";
+import type { MailTables } from "./mail";
 import type { OfficeTables } from "./office";
 import type { ReviewTables } from "./review";
 import type { SessionTables } from "./sessions";
@@ -22,6 +23,7 @@ export interface Database
     DynoTables,
     AuditTables,
     SessionTables,
-    SyncTables {}
+    SyncTables,
+    MailTables {}
 
 export type User = Selectable<UsersTable>;

@@ -10,9 +10,11 @@ import { approveQuoteAsCustomer, saveQuoteDraft, sendQuote } from "@/db/office/q
 import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { createShopFixture } from "./support/shop-fixture";
 import { mailTo, useFakes } from "./support/fakes";
+import { eventually, useQueueWorkers } from "./support/queue";
 import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
+useQueueWorkers(db);
 const SECRET = "whsec_benchtag_local";
 let ports: ReturnType<typeof useFakes>;
 beforeAll(() => {
@@ -134,6 +136,15 @@ describe("payment webhook signature checks", () => {
     const [x, y] = [succeededEvent(pi), succeededEvent(pi)];
     await Promise.all([handlePaymentWebhook(db, x, sign(x), { secret: SECRET }), handlePaymentWebhook(db, y, sign(y), { secret: SECRET })]);
     expect(await depositStatus(deposit.id)).toBe("paid");
+    const queued = await db
+      .selectFrom("mail_outbox")
+      .select("id")
+      .where("work_order_id", "=", wo.id)
+      .where("kind", "=", "deposit_received")
+      .execute();
+    expect(queued).toHaveLength(1);
+    await eventually(async () => (await sent()) >= 1);
+    await new Promise((r) => setTimeout(r, 1000));
     expect(await sent()).toBe(1);
   });
 

@@ -1,19 +1,21 @@
 import { describe, expect, it } from "vitest";
-import { deliverReviewNotices } from "@/app/_server/review-mail";
+import { queueReviewNotices } from "@/app/_server/review-mail";
 import { decideOnSignOff } from "@/db/review/decide";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { Tablet } from "../bench/sync-ops";
 import { mailTo, useFakes } from "./support/fakes";
+import { eventually, useQueueWorkers, withSmtpRefusing } from "./support/queue";
 import { measureStageWork, reviewSetup, sync } from "./support/review-bench";
 import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
 const ports = useFakes();
+useQueueWorkers(db);
 const notice = (signOffId: string) =>
   db.selectFrom("review_notices").selectAll().where("sign_off_id", "=", signOffId).executeTakeFirstOrThrow();
 
 describe("supervisor e-mail when a stage with readings out of tolerance is signed off", () => {
-  it("the merge leaves the intent; after commit the supervisor gets the e-mail through SMTP (maildev), once", async () => {
+  it("the merge leaves the intent; a queue job turns it into the supervisor's e-mail, sent through SMTP (maildev) once", async () => {
     const { fx, specs, stepIds, users, stage } = await reviewSetup(db);
     const tablet = new Tablet("bay-1", users.mech.id, fx.workOrderId);
     const { ops, signOff } = measureStageWork(tablet, specs, stepIds, stage, { "top-ring-gap:3": 0.31 });
@@ -21,8 +23,8 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
     // Stored by the merge's own transaction, before any e-mail is tried.
     expect(await notice(signOff.id)).toMatchObject({ state: "waiting", attempts: 0, shop_id: fx.shopId });
 
-    const run = await deliverReviewNotices(db);
-    expect(run.sent).toBeGreaterThanOrEqual(1);
+    const run = await queueReviewNotices(db);
+    expect(run.queued).toBeGreaterThanOrEqual(1);
     const mails = await mailTo(ports.mailWeb, users.sup.email);
     expect(mails).toHaveLength(1);
     expect(mails[0].subject).toBe('Work order 1: "Measure before assembly" signed off with 1 reading out of tolerance');
@@ -35,6 +37,8 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
     expect(await mailTo(ports.mailWeb, users.office.email, 0, 0)).toEqual([]);
     expect(await notice(signOff.id)).toMatchObject({ state: "sent", attempts: 1, last_error: null });
 
+    const sent = () => db.selectFrom("outbound_emails").select("id").where("work_order_id", "=", fx.workOrderId).execute();
+    await eventually(async () => (await sent()).length > 0);
     const recorded = await db.selectFrom("outbound_emails").selectAll().where("work_order_id", "=", fx.workOrderId).execute();
     expect(recorded).toEqual([expect.objectContaining({ kind: "review_needed", recipient: users.sup.email, error: null })]);
     const audit = await db
@@ -46,7 +50,7 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
     expect(audit).toEqual([expect.objectContaining({ outcome: "accepted", entity_id: signOff.id })]);
 
     // A later run sends nothing again.
-    await deliverReviewNotices(db);
+    await queueReviewNotices(db);
     expect(await mailTo(ports.mailWeb, users.sup.email, 2, 300)).toHaveLength(1);
   });
 
@@ -55,7 +59,7 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
     const tablet = new Tablet("bay-1", users.mech.id, fx.workOrderId);
     const clean = measureStageWork(tablet, specs, stepIds, stage);
     await sync(db, users.mech, tablet, clean.ops);
-    await deliverReviewNotices(db);
+    await queueReviewNotices(db);
     expect(await notice(clean.signOff.id)).toMatchObject({ state: "not_needed" });
 
     // Out of tolerance, but the office decided before the e-mail went out.
@@ -72,35 +76,26 @@ describe("supervisor e-mail when a stage with readings out of tolerance is signe
         reopenStepIds: [stepIds[0]],
       }),
     );
-    await deliverReviewNotices(db);
+    await queueReviewNotices(db);
     expect(await notice(signOff.id)).toMatchObject({ state: "not_needed" });
     expect(await mailTo(ports.mailWeb, users.sup.email, 1, 300)).toEqual([]);
   });
 
-  it("keeps the intent when SMTP is down and sends it on a later run", async () => {
+  it("when SMTP is down the notice is still queued, and its e-mail goes out once SMTP answers again", async () => {
     const { fx, specs, stepIds, users, stage } = await reviewSetup(db);
     const tablet = new Tablet("bay-1", users.mech.id, fx.workOrderId);
     const { ops, signOff } = measureStageWork(tablet, specs, stepIds, stage, { "ptw-2:0": 0.09 });
     await sync(db, users.mech, tablet, ops);
-    const smtp = process.env.SMTP_URL;
-    process.env.SMTP_URL = "smtp://127.0.0.1:9"; // nothing listens there
-    try {
-      const run = await deliverReviewNotices(db);
-      expect(run.failed).toBeGreaterThanOrEqual(1);
-    } finally {
-      process.env.SMTP_URL = smtp;
-    }
-    const waiting = await notice(signOff.id);
-    expect(waiting).toMatchObject({ state: "waiting", attempts: 1 });
-    expect(waiting.last_error).toMatch(/ECONNREFUSED|connect/i);
-    const failedSend = await db.selectFrom("outbound_emails").select(["error"]).where("work_order_id", "=", fx.workOrderId).execute();
-    expect(failedSend).toHaveLength(1);
-    expect(failedSend[0].error).toBeTruthy();
-
-    await deliverReviewNotices(db);
-    expect(await notice(signOff.id)).toMatchObject({ state: "sent", attempts: 2, last_error: null });
+    const sends = () => db.selectFrom("outbound_emails").select(["error"]).where("work_order_id", "=", fx.workOrderId).execute();
+    await withSmtpRefusing(async () => {
+      expect((await queueReviewNotices(db)).queued).toBeGreaterThanOrEqual(1);
+      await eventually(async () => (await sends()).length > 0);
+    });
+    expect(await notice(signOff.id)).toMatchObject({ state: "sent", attempts: 1, last_error: null });
+    expect((await sends())[0].error).toMatch(/ECONNREFUSED|connect/i);
     const mails = await mailTo(ports.mailWeb, users.sup.email);
     expect(mails.map((m) => m.subject)).toEqual(['Work order 1: "Measure before assembly" signed off with 1 reading out of tolerance']);
     expect(mails[0].text).toContain("Piston-to-wall, cyl 2: 0.09 mm (high; limits 0.05–0.075 mm)");
+    await eventually(async () => (await sends()).some((s) => s.error === null));
   });
 });

@@ -347,7 +347,7 @@ describe("readings keep their digits", () => {
         ),
       },
     ]);
-    const tooTight = { ...wrench, payload: { ...wrench.payload, wrenchReading: 99999, wrenchUnit: "N·m" } };
+    const tooTight = { ...wrench, payload: { ...wrench.payload, wrenchReading: 99999, wrenchUnit: "N·m" as const } };
     const res2 = await syncRoute.handle(
       appRequest("/api/sync", {
         method: "POST",

@@ -1,4 +1,4 @@
-import { deliverReviewNotices } from "@/app/_server/review-mail";
+import { handOnReviewNotices } from "@/app/_server/queue/boss";
 import { json, route } from "@/app/_server/route";
 import { mergeBatch } from "@/db/sync/merge";
 import { Refusal } from "@/lib/errors";
@@ -33,6 +33,7 @@ const batch = json(syncEnvelopeSchema, {
 
 export const POST = route({ access: { area: "bench" }, body: batch }, async ({ user, body, db, later }) => {
   const result = await mergeBatch(db, user, parseBatch(body));
-  later(() => deliverReviewNotices(db).catch((e) => console.error("[review] notice e-mail run failed", e)));
+  // The sign-off notices the merge stored become supervisor e-mails in a queue job (the sweep catches any missed).
+  later(() => handOnReviewNotices().catch((e) => console.error("[review] notice job not queued; the sweep will run it", e)));
   return result;
 });

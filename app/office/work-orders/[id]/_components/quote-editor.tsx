@@ -75,7 +75,9 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
     onSuccess: (r) => {
       setErrors({});
       setMessage({
-        ok: r ? `Quote sent.${r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`}` : "Draft saved.",
+        ok: r
+          ? `Quote sent.${r.mail.ok ? " The e-mail to the customer is on its way." : ` E-mail not sent: ${r.mail.error}.`}`
+          : "Draft saved.",
       });
       void qc.invalidateQueries({ queryKey: ["work-order", wo.id] });
     },

@@ -15,7 +15,7 @@ type Moved = Wire<ReplyOf<typeof POST>>;
 
 /** What the office is told after a move. */
 export function movedMessage(r: Moved, to: WorkOrderStatus): string {
-  const mail = r.mail ? (r.mail.ok ? " The customer has been e-mailed." : ` E-mail not sent: ${r.mail.error}.`) : "";
+  const mail = r.mail ? (r.mail.ok ? " The e-mail to the customer is on its way." : ` E-mail not sent: ${r.mail.error}.`) : "";
   const override = r.overrideId ? " Your override and its reason are on record." : "";
   const report = r.report ? ` The build report is stored (revision ${r.report.revision}).` : "";
   return `Moved to ${STATUS_LABELS[to]}.${override}${report}${mail}`;

@@ -6,6 +6,6 @@ export const POST = route({ access: { area: "office" }, params: ["id"] }, async 
   const id = idParam(params.id);
   const { quoteId } = await sendQuote(db, user.shopId, user.id, id);
   const q = (await quoteWithLines(db, user.shopId, quoteId))!;
-  const mail = await mailQuoteReady(db, user.shopId, id, q.totalMinor, q.depositMinor);
+  const mail = await mailQuoteReady(db, user.shopId, id, quoteId, q.totalMinor, q.depositMinor);
   return { quoteId, mail };
 });
