@@ -50,7 +50,10 @@ export function withdrawalTarget(
 ): TargetLookup<EntryFacts> {
   const entry = entries.get(operationId);
   if (!entry || entry.workOrderId !== job.id) {
-    return { found: false, reason: `The entry ${operationId} to withdraw is not on record on work order #${job.number}.` };
+    return {
+      found: false,
+      reason: `The entry ${operationId} to withdraw is not on record on work order #${job.number} (yet): send this again once that entry has synced, or discard it with a reason.`,
+    };
   }
   return { found: true, target: entry };
 }
