@@ -8,6 +8,7 @@ import type { SessionUser } from "@/lib/auth/session-user";
 import { Tablet } from "../bench/sync-ops";
 import { closeOutJob, finishEverything, stageWork, type CloseOutJob } from "./support/close-out";
 import { mailTo, useFakes } from "./support/fakes";
+import { eventually, useQueueWorkers } from "./support/queue";
 import { pdfText } from "./support/pdf-text";
 import { sync } from "./support/review-bench";
 import { appRequest } from "./support/route-calls";
@@ -15,6 +16,8 @@ import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
 const ports = useFakes();
+// customer e-mails go out through the queue: a worker of this run sends them
+useQueueWorkers(db);
 
 const approve = (
   flagAcceptances: Array<{ operationId: string; justification: string }> = [],
@@ -296,8 +299,9 @@ describe("the office's override (real PostgreSQL, through the route)", () => {
         detail: expect.objectContaining({ to: "ready" }),
       }),
     ]);
-    const mail = await mailTo(ports.mailWeb, `c-${job.fx.bike.tag_code.slice(3)}@example.test`);
-    const ready = mail.find((m) => m.subject.includes("ready to collect"))!;
+    const to = `c-${job.fx.bike.tag_code.slice(3)}@example.test`;
+    await eventually(async () => (await mailTo(ports.mailWeb, to)).some((m) => m.subject.includes("ready to collect")));
+    const ready = (await mailTo(ports.mailWeb, to)).find((m) => m.subject.includes("ready to collect"))!;
     expect(ready.text).toContain("Please note: your bike was released for collection with work on its record not finished or not checked");
     expect(ready.text).toContain(REASON);
     expect(ready.text).toContain("- Close up › Seal and label: Not done yet.");
