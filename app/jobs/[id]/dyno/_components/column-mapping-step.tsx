@@ -5,6 +5,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { columnMappingSchema, MAPPING_TARGETS, targetLabel, targetUnits, type ColumnMapping, type MappingTarget } from "@/lib/dyno";
 import type { ErrorBody } from "@/lib/errors";
+import { FormStatus, type FormOutcome } from "./form-status";
 
 /** One row of the mapping step: a file column, what it holds (null: not used) and its unit. */
 export interface MappingRow {
@@ -69,7 +70,7 @@ export function ColumnMappingStep({
 }) {
   const router = useRouter();
   const [name, setName] = useState("");
-  const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const [message, setMessage] = useState<FormOutcome | null>(null);
   const set = (i: number, patch: Partial<MappingRow>) => onChange(rows.map((r, j) => (j === i ? { ...r, ...patch } : r)));
 
   async function save() {
@@ -183,15 +184,7 @@ export function ColumnMappingStep({
         >
           Save mapping
         </button>
-        {message && (
-          <p
-            role="status"
-            className={`rounded px-3 py-2 text-lg font-bold ${message.ok ? "bg-pass-light text-pass" : "bg-fail-light text-fail"}`}
-          >
-            {message.ok ? "✓ " : "✕ "}
-            {message.text}
-          </p>
-        )}
+        <FormStatus message={message} />
       </div>
     </div>
   );

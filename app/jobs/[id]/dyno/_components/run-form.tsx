@@ -20,6 +20,7 @@ import type { TuneVersion } from "@/lib/dyno/tune-version";
 import type { ErrorBody } from "@/lib/errors";
 import { ColumnMappingStep, mappingOf, previewOf, type MappingRow, type SavedMapping } from "./column-mapping-step";
 import { ToggleGroup } from "./toggle-group";
+import { FormStatus, type FormOutcome } from "./form-status";
 
 export type { SavedMapping } from "./column-mapping-step";
 
@@ -122,7 +123,7 @@ export function RunForm({ workOrderId, tunes, mappings }: { workOrderId: string;
   const [logged, setLogged] = useState<{ header: string[]; preview: string[][]; rows: MappingRow[] } | null>(null);
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
   const [curveErrors, setCurveErrors] = useState<CurveRowError[]>([]);
-  const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const [message, setMessage] = useState<FormOutcome | null>(null);
   const [busy, setBusy] = useState(false);
   // the figures the live checks read
   const [pressure, setPressure] = useState("");
@@ -482,16 +483,7 @@ export function RunForm({ workOrderId, tunes, mappings }: { workOrderId: string;
           >
             {busy ? "Saving…" : "Save run"}
           </button>
-          {message && (
-            <p
-              role="status"
-              data-testid="form-message"
-              className={`rounded px-3 py-2 text-lg font-bold ${message.ok ? "bg-pass-light text-pass" : "bg-fail-light text-fail"}`}
-            >
-              {message.ok ? "✓ " : "✕ "}
-              {message.text}
-            </p>
-          )}
+          <FormStatus message={message} testId="form-message" />
         </div>
       </form>
     </section>

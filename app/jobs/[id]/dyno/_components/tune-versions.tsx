@@ -5,6 +5,7 @@ import { useState } from "react";
 import { dayTime } from "@/app/ui/dates";
 import { fileSizeWords, groupedHash, TUNE_FILE_MAX_BYTES, type TuneVersion } from "@/lib/dyno/tune-version";
 import type { ErrorBody } from "@/lib/errors";
+import { FormStatus, type FormOutcome } from "./form-status";
 
 const input = "min-h-14 w-full rounded-lg border-2 border-steel-700 bg-white px-3 text-lg";
 
@@ -13,7 +14,7 @@ export function TuneVersions({ workOrderId, tunes }: { workOrderId: string; tune
   const router = useRouter();
   const [busy, setBusy] = useState(false);
   const [errors, setErrors] = useState<Record<string, string>>({});
-  const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const [message, setMessage] = useState<FormOutcome | null>(null);
   const newest = tunes.at(-1);
 
   async function upload(form: HTMLFormElement) {
@@ -115,16 +116,7 @@ export function TuneVersions({ workOrderId, tunes }: { workOrderId: string; tune
             >
               {busy ? "Uploading…" : "Upload tune"}
             </button>
-            {message && (
-              <p
-                role="status"
-                data-testid="tune-message"
-                className={`rounded px-3 py-2 text-lg font-bold ${message.ok ? "bg-pass-light text-pass" : "bg-fail-light text-fail"}`}
-              >
-                {message.ok ? "✓ " : "✕ "}
-                {message.text}
-              </p>
-            )}
+            <FormStatus message={message} testId="tune-message" />
           </div>
         </form>
       </details>
