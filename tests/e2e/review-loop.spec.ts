@@ -206,7 +206,7 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   await expect(audit.getByRole("row").filter({ hasText: "review.notice-mail" }).first()).toContainText("accepted");
 
   const [download] = await Promise.all([sup.waitForEvent("download"), sup.getByTestId("audit-export").click()]);
-  expect(download.suggestedFilename()).toMatch(/^audit-log-job-1007-\d{4}-\d\d-\d\d\.csv$/);
+  expect(download.suggestedFilename()).toMatch(/^audit-log-job-1007-\d{4}-\d\d-\d\d-to-\d{4}-\d\d-\d\d\.csv$/);
   const csv = Papa.parse<Record<string, string>>(await readFile(await download.path(), "utf8"), { header: true, skipEmptyLines: true });
   const sendBack = csv.data.find((r) => r.action === "review.send-back" && r.outcome === "accepted");
   expect(sendBack).toMatchObject({
