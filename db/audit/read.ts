@@ -96,7 +96,7 @@ export async function pageAuditLog(
 }
 
 /** ORDER BY of the page: by entry alone when sorted by time (the index's order), else by the column, then newest first. */
-export function pageOrder(q: Pick<AuditQuery, "sort" | "dir">) {
+function pageOrder(q: Pick<AuditQuery, "sort" | "dir">) {
   const dir = q.dir === "asc" ? "ASC" : "DESC";
   return sql.raw(q.sort === "at" ? `a.id ${dir}` : `${SORT_SQL[q.sort]} ${dir} NULLS LAST, a.id DESC`);
 }
