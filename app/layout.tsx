@@ -3,7 +3,6 @@ import { headers } from "next/headers";
 import type { ReactNode } from "react";
 import { bodyFont, figuresFont } from "./fonts";
 import "./globals.css";
-import { ServiceWorkerStatus } from "./ui/service-worker-status";
 
 export const metadata: Metadata = {
   title: { default: "Benchtag", template: "%s · Benchtag" },
@@ -20,6 +19,7 @@ export const viewport: Viewport = {
   initialScale: 1,
 };
 
+// The service worker is registered by the bench's own layout (app/bench/layout.tsx), not here.
 // Every page is rendered per request (reading the request's headers does that), so each gets the
 // nonce of its own Content-Security-Policy (proxy.ts) on its scripts. Only /offline is built once:
 // it is plain HTML that needs no script.
@@ -27,10 +27,7 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
   await headers();
   return (
     <html lang="en" className={`${bodyFont.variable} ${figuresFont.variable}`}>
-      <body className="min-h-screen">
-        {children}
-        <ServiceWorkerStatus />
-      </body>
+      <body className="min-h-screen">{children}</body>
     </html>
   );
 }

@@ -1,13 +1,13 @@
 import "server-only";
 import { auditLogBatches } from "@/db/audit/read";
 import { auditCsvChunk } from "@/lib/review/audit-csv";
-import type { AuditFilter } from "@/lib/review/list-queries";
+import type { AuditExport } from "@/lib/review/audit-range";
 import type { Db } from "@/db/setup/client";
 
-/** The shop's audit log as a streamed CSV download, oldest entry first, 500 rows per database read. */
-export function auditCsvResponse(db: Db, shopId: string, f: AuditFilter, now = new Date()): Response {
+/** The shop's audit log within a date range as a streamed CSV download, oldest entry first, 500 rows per database read. */
+export function auditCsvResponse(db: Db, shopId: string, { filter: f, range }: AuditExport): Response {
   const encoder = new TextEncoder();
-  const batches = auditLogBatches(db, shopId, f);
+  const batches = auditLogBatches(db, shopId, f, range);
   let header = true;
   const stream = new ReadableStream<Uint8Array>({
     async pull(controller) {
@@ -29,7 +29,7 @@ export function auditCsvResponse(db: Db, shopId: string, f: AuditFilter, now = n
       await batches.return(undefined);
     },
   });
-  const name = `audit-log-${f.job !== undefined ? `job-${f.job}` : "all"}-${now.toISOString().slice(0, 10)}.csv`;
+  const name = `audit-log-${f.job !== undefined ? `job-${f.job}` : "all"}-${range.fromDay}-to-${range.toDay}.csv`;
   return new Response(stream, {
     headers: {
       "content-type": "text/csv; charset=utf-8",

@@ -55,12 +55,14 @@ export function DataTable<Row>({
       const res = await fetch(url);
       const data = await res.json();
       if (!res.ok) throw new Error(data.error ?? `Failed (${res.status})`);
-      return data as { total: number } & Record<string, Row[]>;
+      return data as { total: number; more?: boolean } & Record<string, Row[]>;
     },
     placeholderData: keepPreviousData,
   });
   const rows = (query.data?.[rowsKey] as Row[] | undefined) ?? [];
   const total = query.data?.total ?? 0;
+  // A capped count (`more`): the server counted `total` and there are more; Next stays open.
+  const more = query.data?.more === true;
   // Sorting happens on the server: a sortable column needs an accessor for TanStack to offer it.
   const cols = columns.map((c) =>
     c.enableSorting === false || "accessorFn" in c ? c : { ...c, accessorFn: () => null, sortDescFirst: false },
@@ -159,13 +161,15 @@ export function DataTable<Row>({
           ◀ Previous
         </button>
         <span data-testid={`${testId}-page`}>
-          Page {pagination.pageIndex + 1} of {pages} · {total} in all
+          {more
+            ? `Page ${pagination.pageIndex + 1} · more than ${total.toLocaleString("en-GB")} in all`
+            : `Page ${pagination.pageIndex + 1} of ${pages} · ${total} in all`}
         </span>
         <button
           type="button"
           className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-4 font-bold disabled:opacity-40"
           onClick={() => table.nextPage()}
-          disabled={pagination.pageIndex + 1 >= pages}
+          disabled={!more && pagination.pageIndex + 1 >= pages}
         >
           Next ▶
         </button>

@@ -2,7 +2,8 @@
 
 import { useEffect, useState } from "react";
 
-// Registers the service worker and tells the user when a new version is waiting.
+// Registers the service worker (used by the bench's layout only) and tells the user when a new
+// version is waiting.
 // The new version takes over only when the user asks (then the page reloads once).
 export function ServiceWorkerStatus() {
   const [waiting, setWaiting] = useState<ServiceWorker | null>(null);

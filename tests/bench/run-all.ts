@@ -1,5 +1,6 @@
 // Every benchmark in one go (`npm run bench`). Each prints its own table of figures; nothing here
 // passes or fails on a number.
+import { print as printAuditLog, run as auditLog } from "./audit-log";
 import { run as calcBuildSheet } from "./calc-build-sheet";
 import { print as printSyncMerge, run as syncMerge } from "./sync-merge";
 
@@ -7,4 +8,6 @@ console.log("== lib/calc: a full build sheet");
 calcBuildSheet();
 console.log("\n== sync merge into PostgreSQL");
 printSyncMerge(await syncMerge());
+console.log("\n== audit log: page and CSV on a large log vs the demo's");
+printAuditLog(await auditLog());
 process.exit(0);

@@ -110,8 +110,8 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   await expect(sup.getByRole("heading", { level: 1 })).toHaveText(STAGE);
   await expect(sup.getByTestId("review-step")).toHaveCount(4);
   const ringStep = sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" });
-  await expect(ringStep.getByTestId("reading-row").filter({ hasText: "0.5 mm" })).toContainText("High");
-  await expect(sup.getByTestId("oot-reading").filter({ hasText: "Top ring gap, Cyl 2" })).toContainText("0.5 mm");
+  await expect(ringStep.getByTestId("reading-row").filter({ hasText: "0.50 mm" })).toContainText("High");
+  await expect(sup.getByTestId("oot-reading").filter({ hasText: "Top ring gap, Cyl 2" })).toContainText("0.50 mm");
 
   // Approving with a reading out of tolerance and no written reason is refused beside the reading.
   await sup.getByRole("radio", { name: "✔ Approve" }).check();
@@ -134,7 +134,7 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   // The supervisor's e-mail about the readings out of tolerance, captured by maildev.
   const mail = await mailAbout(demoUser("supervisor").email, signOff.id);
   expect(mail.subject).toMatch(/^Work order 1007: "Measure before assembly" signed off with 1 reading out of tolerance$/);
-  expect(mail.text).toContain("Top ring gap, Cyl 2: 0.5 mm (high; limits 0.35–0.48 mm)");
+  expect(mail.text).toContain("Top ring gap, Cyl 2: 0.50 mm (high; limits 0.35–0.48 mm)");
   expect(mail.text).toContain("Tomas Reyes signed off");
 
   // --- The tablet gets the send-back at its next sync: exactly that step reopens, with the reason.
@@ -172,7 +172,7 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   await expect(corrected).toHaveCount(1);
   await expect(corrected).toContainText("current");
   await expect(
-    sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" }).getByTestId("reading-row").filter({ hasText: "0.5 mm" }),
+    sup.getByTestId("review-step").filter({ hasText: "Top ring end gap" }).getByTestId("reading-row").filter({ hasText: "0.50 mm" }),
   ).toContainText("replaced by a correction");
   await sup.getByRole("radio", { name: "✔ Approve" }).check();
   await sup.getByRole("button", { name: `Approve “${STAGE}”` }).click();
@@ -206,7 +206,7 @@ test("offline sign-off → send back with a reason → reopened on the tablet �
   await expect(audit.getByRole("row").filter({ hasText: "review.notice-mail" }).first()).toContainText("accepted");
 
   const [download] = await Promise.all([sup.waitForEvent("download"), sup.getByTestId("audit-export").click()]);
-  expect(download.suggestedFilename()).toMatch(/^audit-log-job-1007-\d{4}-\d\d-\d\d\.csv$/);
+  expect(download.suggestedFilename()).toMatch(/^audit-log-job-1007-\d{4}-\d\d-\d\d-to-\d{4}-\d\d-\d\d\.csv$/);
   const csv = Papa.parse<Record<string, string>>(await readFile(await download.path(), "utf8"), { header: true, skipEmptyLines: true });
   const sendBack = csv.data.find((r) => r.action === "review.send-back" && r.outcome === "accepted");
   expect(sendBack).toMatchObject({

@@ -73,6 +73,15 @@ for (const viewport of [
     await page.getByLabel("Outcome").selectOption("refused");
     await expect(page.getByTestId("audit-table-page")).toContainText(/\d+ in all/);
     await page.getByLabel("Outcome").selectOption("");
+    // The download's days: a range that runs backwards is said at once and not offered.
+    await page.getByLabel("From", { exact: true }).fill("2026-03-10");
+    await page.getByLabel("To", { exact: true }).fill("2026-03-01");
+    await expect(page.getByTestId("audit-export-problem")).toHaveText(
+      "✖ To: 2026-03-01 comes before From (2026-03-10); To is the last day",
+    );
+    await expect(page.getByTestId("audit-export")).toHaveCount(0);
+    await page.getByLabel("To", { exact: true }).fill("2026-03-31");
+    await expect(page.getByTestId("audit-export")).toHaveAttribute("href", /from=2026-03-10&to=2026-03-31/);
     await axe(page, "audit");
     await shot("audit");
   });
@@ -152,6 +161,19 @@ test("bad input to the review routes gets a clear answer naming the problem, nev
   const count = await (await page.request.get("/api/review/count")).json();
   expect(count.waiting).toBe(queue.total);
   expect(queue.signOffs.map((s: { signOffId: string }) => s.signOffId)).toContain(signOffId);
+  // A download's range: refused with the reason when it runs backwards, leaves 2000–2099 or covers over a year.
+  for (const [range, message] of [
+    ["from=2026-03-10&to=2026-03-01", "To: 2026-03-01 comes before From (2026-03-10); To is the last day"],
+    ["from=1999-12-31&to=2000-01-02", "From: a date in the years 2000 to 2099"],
+    [
+      "from=2024-01-01&to=2025-01-01",
+      "Dates: at most one year (366 days) at a time, and 2024-01-01 to 2025-01-01 is 367 days; download a longer stretch a year at a time",
+    ],
+  ]) {
+    const refused = await page.request.get(`/api/audit/export?${range}`);
+    expect(refused.status()).toBe(400);
+    expect((await refused.json()).issues.map((i: { message: string }) => i.message)).toEqual([message]);
+  }
   const csv = await page.request.get("/api/audit/export?job=1001");
   expect(csv.status()).toBe(200);
   expect((await csv.text()).split("\r\n")[0]).toBe(

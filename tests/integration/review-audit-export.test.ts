@@ -6,6 +6,7 @@ import { pageAuditLog } from "@/db/audit/read";
 import { decideOnSignOff } from "@/db/review/decide";
 import { mergeBatch } from "@/db/sync/merge";
 import { AUDIT_CSV_COLUMNS } from "@/lib/review/audit-csv";
+import { auditExportSchema, isoDay } from "@/lib/review/audit-range";
 import { decisionInputSchema } from "@/lib/review/decision-input";
 import { auditFilterSchema, auditQuerySchema } from "@/lib/review/list-queries";
 import { Tablet } from "../bench/sync-ops";
@@ -15,7 +16,8 @@ import { useTestDb } from "./support/test-db";
 const db = useTestDb();
 
 async function csvOf(shopId: string, filter: Record<string, string>) {
-  const res = auditCsvResponse(db, shopId, auditFilterSchema.parse(filter), new Date("2026-12-03T10:00:00Z"));
+  // From and To left out: the last 30 days up to today, which holds every entry written by the test.
+  const res = auditCsvResponse(db, shopId, auditExportSchema(() => new Date()).parse(filter));
   const text = await res.text();
   return { res, text, parsed: Papa.parse<Record<string, string>>(text, { header: true, skipEmptyLines: true }) };
 }
@@ -68,7 +70,10 @@ describe("audit log: who did what, when, from which device, accepted or refused 
 
     const { res, text, parsed } = await csvOf(fx.shopId, { job: "1" });
     expect(res.headers.get("content-type")).toBe("text/csv; charset=utf-8");
-    expect(res.headers.get("content-disposition")).toBe('attachment; filename="audit-log-job-1-2026-12-03.csv"');
+    expect(res.headers.get("content-disposition")).toMatch(
+      /^attachment; filename="audit-log-job-1-\d{4}-\d\d-\d\d-to-\d{4}-\d\d-\d\d\.csv"$/,
+    );
+    expect(res.headers.get("content-disposition")).toContain(`-to-${isoDay(new Date())}.csv`);
     expect(text.split("\r\n")[0]).toBe(AUDIT_CSV_COLUMNS.join(","));
     expect(parsed.errors).toEqual([]);
     expect(parsed.data).toHaveLength(ops.length + 2);

@@ -5,6 +5,8 @@ import { useCallback, useState } from "react";
 import { DataTable } from "@/app/ui/data-table";
 import { JobNumberFilter, SelectFilter, jobNumberFilter } from "@/app/ui/table-filters";
 import type { AuditRow } from "@/db/audit/read";
+import { AUDIT_RANGE_DEFAULT_DAYS, auditExportSchema, isoDay } from "@/lib/review/audit-range";
+import { issuesOf } from "@/lib/zod-issues";
 
 const ACTIONS = [
   { value: "", label: "Anything" },
@@ -89,8 +91,18 @@ export function AuditTable({ initialJob }: { initialJob: string }) {
   const [action, setAction] = useState("");
   const [q, setQ] = useState("");
   const onSearch = useCallback((v: string) => setQ(v), []);
+  const [to, setTo] = useState(() => isoDay(new Date()));
+  const [from, setFrom] = useState(() => isoDay(new Date(Date.now() - AUDIT_RANGE_DEFAULT_DAYS * 24 * 60 * 60 * 1000)));
   const filters = { job: jobNumberFilter(job).value, outcome, action };
-  const exportUrl = `/api/audit/export?${new URLSearchParams({ ...filters, q })}`;
+  const exportQuery = { ...filters, q, from, to };
+  // The same check the server makes: a bad range is said here, and the download is not offered.
+  const checked = auditExportSchema().safeParse(exportQuery);
+  const rangeProblem = checked.success
+    ? null
+    : issuesOf(checked.error)
+        .map((i) => i.message)
+        .join(" ");
+  const exportUrl = `/api/audit/export?${new URLSearchParams(exportQuery)}`;
   return (
     <DataTable<AuditRow>
       endpoint="/api/audit"
@@ -107,16 +119,46 @@ export function AuditTable({ initialJob }: { initialJob: string }) {
           <JobNumberFilter value={job} onChange={setJob} />
           <SelectFilter label="What" value={action} onChange={setAction} options={ACTIONS} />
           <SelectFilter label="Outcome" value={outcome} onChange={setOutcome} options={OUTCOMES} />
-          <a
-            href={exportUrl}
-            download
-            className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 text-lg font-bold text-white"
-            data-testid="audit-export"
+          <fieldset
+            className="flex flex-wrap items-end gap-3 rounded-lg border-2 border-steel-300 px-3 pb-2"
+            data-testid="audit-export-range"
           >
-            Download CSV
-          </a>
+            <legend className="px-1 text-base font-bold">Download the days</legend>
+            <DayField label="From" value={from} onChange={setFrom} />
+            <DayField label="To" value={to} onChange={setTo} />
+            {rangeProblem ? (
+              <p role="alert" className="max-w-sm font-bold text-fail" data-testid="audit-export-problem">
+                ✖ {rangeProblem}
+              </p>
+            ) : (
+              <a
+                href={exportUrl}
+                download
+                className="flex min-h-12 items-center rounded-lg bg-steel-900 px-4 text-lg font-bold text-white"
+                data-testid="audit-export"
+              >
+                Download CSV
+              </a>
+            )}
+          </fieldset>
         </>
       }
     />
+  );
+}
+
+function DayField({ label, value, onChange }: { label: string; value: string; onChange: (v: string) => void }) {
+  return (
+    <label className="flex flex-col gap-1 text-base font-bold">
+      {label}
+      <input
+        type="date"
+        min="2000-01-01"
+        max="2099-12-31"
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 text-lg font-normal"
+      />
+    </label>
   );
 }

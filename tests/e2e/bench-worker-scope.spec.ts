@@ -1,0 +1,46 @@
+import { expect, test, type Page } from "@playwright/test";
+import { waitForServiceWorker, waitForSynced } from "./support/bench-pad";
+import { signIn } from "./support/demo-users";
+
+// The service worker belongs to the bench: a signed-out visitor gets none and downloads no
+// precache; the mechanic's bench registers it (scope: the whole site) and reopens offline.
+
+const workerState = (page: Page) =>
+  page.evaluate(async () => ({
+    registrations: (await navigator.serviceWorker.getRegistrations()).map((r) => new URL(r.scope).pathname),
+    caches: await caches.keys(),
+  }));
+
+test("a signed-out visitor to the sign-in page gets no service worker and no cached files; the bench registers it and reopens offline", async ({
+  browser,
+}) => {
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  const workerRequests: string[] = [];
+  context.on("request", (r) => {
+    if (/\/sw\.js$|\/swe-worker-/.test(new URL(r.url()).pathname) || r.serviceWorker()) workerRequests.push(r.url());
+  });
+
+  await page.goto("/signin");
+  // Hydrated: the form answers typing (the old root layout registered the worker at this point).
+  await page.getByLabel("E-mail").fill("nobody@example.invalid");
+  await expect(page.getByLabel("E-mail")).toHaveValue("nobody@example.invalid");
+  await page.waitForLoadState("networkidle");
+  expect(await workerState(page)).toEqual({ registrations: [], caches: [] });
+  expect(workerRequests).toEqual([]);
+
+  await signIn(page, "mechanic");
+  await expect(page).toHaveURL(/\/bench$/);
+  await waitForServiceWorker(page);
+  const registered = await workerState(page);
+  expect(registered.registrations).toEqual(["/"]);
+  expect(registered.caches.some((name) => name.includes("precache"))).toBe(true);
+  expect(workerRequests.some((u) => new URL(u).pathname === "/sw.js")).toBe(true);
+
+  await waitForSynced(page);
+  await context.setOffline(true);
+  await page.reload();
+  await expect(page.getByTestId("net-state")).toHaveText(/Offline/);
+  await expect(page.getByText("Vireo Nine Fifty").first()).toBeVisible();
+  await context.close();
+});
