@@ -202,8 +202,8 @@ test("a refused entry is sent again after its cause is fixed, and stored", async
     const sup = await benchPage(bench, "supervisor");
     await openJob(sup, "GSW-0032", "Ardley S2 Roadster");
     await bench.setOffline(true);
-    // Offline, the supervisor lets the case bolts go ahead without the sealant's cure…
-    await openStep(sup, 7);
+    // Offline, the supervisor lets the oil fill (step 8, held by the case sealant's cure) go ahead without waiting…
+    await openStep(sup, 8);
     await sup.getByLabel("Supervisor: reason to go ahead without waiting").fill("Fast-cure sealant used; its sheet allows 10 minutes");
     await sup.getByRole("button", { name: "Override the wait" }).click();
     await expect(sup.getByTestId("waiting-count")).toHaveText("2 waiting to send");
