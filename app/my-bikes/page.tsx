@@ -110,7 +110,7 @@ function StoredCopies({ workOrderId, copies }: { workOrderId: string; copies: Aw
                 ))}
               </ul>
             )}
-            <span className="block font-mono text-xs text-steel-700">SHA-256 {c.sha256}</span>
+            <span className="block break-all font-mono text-sm text-steel-700">SHA-256 {c.sha256}</span>
           </li>
         ))}
       </ol>
