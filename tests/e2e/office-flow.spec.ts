@@ -119,6 +119,9 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   // back in the office: the deposit shows paid; assign, pin a template, start the build
   await office.reload();
   await expect(office.getByTestId("deposit-state").first()).toContainText("✔ Deposit £50.00 paid");
+  // the paid deposit does not move the job: the office is told it is ready to go into build
+  await expect(office.getByTestId("work-order-status")).toContainText("Approved");
+  await expect(office.getByTestId("ready-for-build")).toContainText("Deposit paid: this job is ready to go into build.");
   await office.getByRole("button", { name: "→ In build" }).click();
   await expect(office.getByTestId("form-error")).toContainText("Assign a mechanic before the job goes in build.");
   await office.locator("#mechanic").selectOption({ label: "Tomas Reyes" });
@@ -127,6 +130,7 @@ test("intake → quote → customer approval → deposit paid → in build", asy
   await office.getByLabel(/Turbo kit and intercooler fitting/).check();
   await office.getByRole("button", { name: "→ In build" }).click();
   await expect(office.getByTestId("work-order-status")).toContainText("In build");
+  await expect(office.getByTestId("ready-for-build")).toHaveCount(0);
   await expect(office.getByTestId("pinned-procedures")).toContainText("Turbo kit and intercooler fitting — version 1");
   await expect(office.getByTestId("transitions")).toContainText("Approved → In build · Maren Ostby");
   await expect(office.getByTestId("transitions")).toContainText(`Quoted → Approved · ${rider.name}`);
