@@ -55,7 +55,7 @@ export async function lockShopForSync(trx: Tx, shopId: string): Promise<void> {
 
 /**
  * Writes the kept operations: ONE statement for the operations, the read tables and the audit log,
- * then (only when the batch holds any) one statement for timer stops, cancels and overrides.
+ * then (only when the batch holds any) one statement for timer stops and cancels.
  * In the first, the JSON array is parsed once (json_to_recordset), then data-modifying CTEs insert
  * into `operations` (in stamp order, ON CONFLICT (id) DO NOTHING) and, for the rows actually
  * inserted, into the read tables and the audit log. Foreign keys are checked at the end of the
@@ -210,8 +210,9 @@ export async function writeKept(
 }
 
 /**
- * Timer stops, cancels and overrides of the batch, in one UPDATE: the earliest stop is kept (with
- * who and why), the first cancel and the first override stand; none replaces what is on file.
+ * Timer stops and cancels of the batch, in one UPDATE: the earliest stop is kept (with who and
+ * why), the first cancel stands; none replaces what is on file. Overrides are settled by stamp
+ * afterwards, across batches (`applyFirstOverrides`).
  */
 async function writeTimerEvents(trx: Tx, ops: readonly Operation[]): Promise<void> {
   const events = ops.flatMap((op, ord) => {
@@ -221,8 +222,6 @@ async function writeTimerEvents(trx: Tx, ops: readonly Operation[]): Promise<voi
         return [{ ...base, timer_id: op.payload.timerId, kind: "stop", at: op.payload.stoppedAt, reason: op.payload.reason ?? null }];
       case "timer.cancelled":
         return [{ ...base, timer_id: op.payload.timerId, kind: "cancel", at: op.deviceTime, reason: op.payload.reason }];
-      case "timer.overridden":
-        return [{ ...base, timer_id: op.payload.timerId, kind: "override", at: op.deviceTime, reason: op.payload.reason }];
       default:
         return [];
     }
@@ -245,9 +244,7 @@ async function writeTimerEvents(trx: Tx, ops: readonly Operation[]): Promise<voi
         ${first("at", "stop", "e.at, e.ord")} AS stop_at, ${first("actor", "stop", "e.at, e.ord")} AS stop_by,
         ${first("reason", "stop", "e.at, e.ord")} AS stop_reason,
         ${first("at", "cancel", "e.ord")} AS cancel_at, ${first("actor", "cancel", "e.ord")} AS cancel_by,
-        ${first("reason", "cancel", "e.ord")} AS cancel_reason,
-        ${first("at", "override", "e.ord")} AS override_at, ${first("actor", "override", "e.ord")} AS override_by,
-        ${first("reason", "override", "e.ord")} AS override_reason
+        ${first("reason", "cancel", "e.ord")} AS cancel_reason
       FROM e GROUP BY e.timer_id
     )
     UPDATE timers t SET
@@ -256,10 +253,7 @@ async function writeTimerEvents(trx: Tx, ops: readonly Operation[]): Promise<voi
       stop_reason = CASE WHEN a.stop_at IS NOT NULL AND (t.stopped_at IS NULL OR a.stop_at < t.stopped_at) THEN a.stop_reason ELSE t.stop_reason END,
       cancelled_at = COALESCE(t.cancelled_at, a.cancel_at),
       cancelled_by = CASE WHEN t.cancelled_at IS NULL THEN a.cancel_by ELSE t.cancelled_by END,
-      cancel_reason = CASE WHEN t.cancelled_at IS NULL THEN a.cancel_reason ELSE t.cancel_reason END,
-      override_by = COALESCE(t.override_by, a.override_by),
-      override_reason = CASE WHEN t.override_by IS NULL THEN a.override_reason ELSE t.override_reason END,
-      override_at = CASE WHEN t.override_by IS NULL THEN a.override_at ELSE t.override_at END
+      cancel_reason = CASE WHEN t.cancelled_at IS NULL THEN a.cancel_reason ELSE t.cancel_reason END
     FROM a WHERE t.id = a.timer_id
   `.execute(trx);
 }
