@@ -1,7 +1,7 @@
 import "server-only";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { serverStamp, type Change } from "@/lib/sync/changes";
-import { SYNC_LIMITS, type Operation } from "@/lib/sync/operations";
+import { SYNC_LIMITS } from "@/lib/sync/operations";
 import { CLOSED_STATUSES } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
 
@@ -45,21 +45,8 @@ export async function changesSince(
 ): Promise<ChangePage> {
   const after = cursor ?? 0;
   const [ops, decisions, top] = await Promise.all([
-    sql<{
-      seq: string | number;
-      id: string;
-      kind: string;
-      work_order_id: string;
-      author_id: string;
-      device_id: string;
-      device_time: Date;
-      stamp: string;
-      payload: Record<string, unknown>;
-      flagged: boolean;
-      flag_reason: string | null;
-    }>`
-      SELECT o.seq, o.id, o.kind, o.work_order_id, o.author_id, o.device_id, o.device_time, o.stamp, o.payload,
-        o.flagged, o.flag_reason
+    sql<{ seq: string | number; id: string; work_order_id: string; stamp: string }>`
+      SELECT o.seq, o.id, o.work_order_id, o.stamp
       FROM operations o JOIN work_orders w ON w.id = o.work_order_id
       WHERE o.shop_id = ${shopId}::uuid AND o.seq > ${after}
         AND o.device_id IS DISTINCT FROM ${excludeDeviceId}::text
@@ -67,21 +54,8 @@ export async function changesSince(
       ORDER BY o.seq
       LIMIT ${limit + 1}
     `.execute(db),
-    sql<{
-      change_seq: string | number;
-      id: string;
-      sign_off_id: string;
-      work_order_id: string;
-      job_procedure_id: string;
-      stage_key: string;
-      decision: "approved" | "sent_back";
-      reason: string;
-      reopened_step_ids: string[];
-      decided_by: string;
-      decided_at: Date;
-    }>`
-      SELECT d.change_seq, d.id, d.sign_off_id, so.work_order_id, so.job_procedure_id, so.stage_key, d.decision, d.reason,
-        d.reopened_step_ids, d.decided_by, d.decided_at
+    sql<{ change_seq: string | number; id: string; work_order_id: string; decided_at: Date }>`
+      SELECT d.change_seq, d.id, so.work_order_id, d.decided_at
       FROM review_decisions d
       JOIN sign_offs so ON so.id = d.sign_off_id
       JOIN work_orders w ON w.id = so.work_order_id
@@ -93,36 +67,13 @@ export async function changesSince(
   ]);
 
   const all: Change[] = [
-    ...ops.rows.map((o): Change => ({
-      type: "operation",
-      seq: String(o.seq),
-      operation: {
-        id: o.id,
-        kind: o.kind,
-        workOrderId: o.work_order_id,
-        authorId: o.author_id,
-        deviceId: o.device_id,
-        deviceTime: o.device_time.toISOString(),
-        stamp: o.stamp,
-        payload: o.payload,
-      } as Operation,
-      flagged: o.flagged,
-      flagReason: o.flag_reason,
-    })),
+    ...ops.rows.map((o): Change => ({ type: "operation", seq: String(o.seq), id: o.id, workOrderId: o.work_order_id, stamp: o.stamp })),
     ...decisions.rows.map((d): Change => ({
       type: "review",
       seq: String(d.change_seq),
-      stamp: serverStamp(d.decided_at.getTime()),
-      decisionId: d.id,
+      id: d.id,
       workOrderId: d.work_order_id,
-      signOffId: d.sign_off_id,
-      jobProcedureId: d.job_procedure_id,
-      stageKey: d.stage_key,
-      decision: d.decision,
-      reason: d.reason,
-      reopenedStepIds: d.reopened_step_ids,
-      decidedBy: d.decided_by,
-      decidedAt: d.decided_at.toISOString(),
+      stamp: serverStamp(d.decided_at.getTime()),
     })),
   ].sort((a, b) => Number(a.seq) - Number(b.seq));
 

@@ -186,8 +186,8 @@ async function exchange(
         if (c.workOrderId) touched.add(c.workOrderId);
         continue;
       }
-      touched.add(c.type === "operation" ? c.operation.workOrderId : c.workOrderId);
-      remoteStamps.push(c.type === "operation" ? c.operation.stamp : c.stamp);
+      touched.add(c.workOrderId);
+      remoteStamps.push(c.stamp);
     }
     cursor = body.cursor;
     more = body.more;

@@ -4,36 +4,35 @@
  */
 import { z } from "zod";
 import { formatStamp } from "./hlc";
-import { cursorSchema, operationSchema, stampSchema } from "./operations";
+import { cursorSchema, stampSchema } from "./operations";
 
 /** The device id the server uses in stamps it makes (review decisions). Tablets never use it. */
 const SERVER_DEVICE_ID = "server";
 
-/** An operation another device sent, as stored (flagged ones included, with why). */
+// A change carries what the tablet uses: which job to fetch a fresh copy of, the stamp for its
+// clock, and where the feed stands. The job's copy (snapshot) holds the content; sending whole
+// operations here too would double the traffic of every sync.
+
+/** Another device's operation was stored on a job (`id` is the operation's). */
 const operationChangeSchema = z.object({
   type: z.literal("operation"),
   seq: cursorSchema,
-  operation: operationSchema,
-  flagged: z.boolean(),
-  flagReason: z.string().nullable(),
+  id: z.uuid(),
+  workOrderId: z.uuid(),
+  stamp: stampSchema,
 });
 
-/** A supervisor's decision on a sign-off. `reopenedStepIds` are steps the tablet must open again. */
+/**
+ * A supervisor decided on a sign-off (`id` is the decision's). The steps a send-back reopens come
+ * with the job's fresh copy.
+ */
 const reviewChangeSchema = z.object({
   type: z.literal("review"),
   seq: cursorSchema,
+  id: z.uuid(),
+  workOrderId: z.uuid(),
   /** Server-made clock stamp at the decision time: pass it to the device clock's `receive`. */
   stamp: stampSchema,
-  decisionId: z.uuid(),
-  workOrderId: z.uuid(),
-  signOffId: z.uuid(),
-  jobProcedureId: z.uuid(),
-  stageKey: z.string(),
-  decision: z.enum(["approved", "sent_back"]),
-  reason: z.string(),
-  reopenedStepIds: z.array(z.uuid()),
-  decidedBy: z.uuid(),
-  decidedAt: z.iso.datetime({ offset: true }),
 });
 
 const changeSchema = z.discriminatedUnion("type", [operationChangeSchema, reviewChangeSchema]);
@@ -82,7 +81,6 @@ interface UnreadChange {
 const namesAJob = z.looseObject({
   seq: cursorSchema.optional(),
   workOrderId: z.uuid().optional(),
-  operation: z.looseObject({ workOrderId: z.uuid() }).optional(),
 });
 
 export function readChange(raw: unknown): Change | UnreadChange {
@@ -93,7 +91,7 @@ export function readChange(raw: unknown): Change | UnreadChange {
   return {
     type: "unread",
     seq: job.success ? (job.data.seq ?? null) : null,
-    workOrderId: job.success ? (job.data.operation?.workOrderId ?? job.data.workOrderId ?? null) : null,
+    workOrderId: job.success ? (job.data.workOrderId ?? null) : null,
     why: issue ? `${issue.path.join(".")}: ${issue.message}` : "not a change this version knows",
   };
 }

@@ -62,9 +62,8 @@ describe("review decisions on synced sign-offs", () => {
     expect(logged[0]).toMatchObject({ actor_id: users.sup.id, outcome: "accepted", entity: "sign_off", entity_id: signOff.id });
 
     const next = await sync(db, users.mech, tablet);
-    expect(next.changes).toEqual([
-      expect.objectContaining({ type: "review", signOffId: signOff.id, decision: "approved", reopenedStepIds: [] }),
-    ]);
+    // the change names the decision and its job; the tablet fetches the job's fresh copy
+    expect(next.changes).toEqual([expect.objectContaining({ type: "review", id: r.ok ? r.decisionId : "", workOrderId: fx.workOrderId })]);
   });
 
   it("send back with a reason: exactly the chosen steps reopen on the tablet, a redo and a new sign-off go back in the queue, then approve", async () => {
@@ -131,9 +130,7 @@ describe("review decisions on synced sign-offs", () => {
 
     // The tablet's next sync carries the send-back; the bench view reopens exactly that step, with the reason.
     const next = await sync(db, users.mech, tablet);
-    expect(next.changes).toEqual([
-      expect.objectContaining({ type: "review", decision: "sent_back", reason, reopenedStepIds: [ringGapStep] }),
-    ]);
+    expect(next.changes).toEqual([expect.objectContaining({ type: "review", id: sent.decisionId, workOrderId: fx.workOrderId })]);
     const snapshot = await getJobSnapshot(db, users.mech, fx.workOrderId);
     const view = buildWorkOrderView(snapshot!, [], Date.now());
     const measure = view.stages.find((s) => s.key === "measure")!;

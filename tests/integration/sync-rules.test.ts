@@ -128,10 +128,8 @@ describe("kept but flagged", () => {
     expect(row.flag_reason).toContain("was sent back");
     const opRow = await db.selectFrom("operations").select(["flagged", "flag_reason"]).where("id", "=", stale.id).executeTakeFirstOrThrow();
     expect(opRow).toEqual({ flagged: true, flag_reason: row.flag_reason });
-    // the reopened step comes back to the tablet
-    expect(res.changes).toContainEqual(
-      expect.objectContaining({ type: "review", decision: "sent_back", reopenedStepIds: [specs.boreStepId] }),
-    );
+    // the decision comes back to the tablet, naming the job whose fresh copy reopens the step
+    expect(res.changes).toContainEqual(expect.objectContaining({ type: "review", id: decision.id, workOrderId: fx.workOrderId }));
 
     // having the decision now, the tablet redoes the step: not flagged
     tablet.cursor = res.cursor;
