@@ -7,7 +7,7 @@ export const cylinderHeadTemplate: TemplateDocumentInput = {
   key: "cylinder-head-installation",
   name: "Cylinder head installation (lowered-compression build)",
   summary:
-    "Check the deck, fit the thicker head gasket, torque the head in stages with angle passes, set cam timing. Example figures only.",
+    "Check the deck, fit the thicker head gasket, torque the head in stages with angle passes, check squish, set cam timing and check piston-to-valve clearance. Example figures only.",
   exampleOnly: true,
   stages: [
     {
@@ -71,12 +71,51 @@ export const cylinderHeadTemplate: TemplateDocumentInput = {
           ],
         },
         {
+          key: "squish",
+          title: "Squish clearance",
+          instructions:
+            "With the head torqued, feed a length of soft solder through each plug hole towards the edge of the bore in line with the piston pin, turn the engine over TDC by hand, and measure the squashed solder's thickness with a micrometer. The thicker gasket of a lowered-compression build widens the squish: check it against the piston maker's figure.",
+          cautions: [
+            {
+              kind: "boost",
+              text: "A squish band much wider than the piston maker's figure loses its quench and can raise the risk of detonation under boost (common practice): ask before going on.",
+            },
+          ],
+          measurements: [
+            {
+              key: "squish-clearance",
+              label: "Squish clearance",
+              nominal: 0.9,
+              min: 0.7,
+              max: 1.2,
+              unit: "mm",
+              readingLabels: ["Cyl 1", "Cyl 2", "Cyl 3", "Cyl 4"],
+            },
+          ],
+        },
+        {
           key: "cam-timing",
           title: "Set cam timing and check valve clearance",
           instructions: "Align timing marks at TDC, fit cam caps, rotate by hand twice and recheck.",
           measurements: [
             { key: "valve-clear-in", label: "Intake valve clearance", nominal: 0.15, min: 0.1, max: 0.2, unit: "mm" },
             { key: "valve-clear-ex", label: "Exhaust valve clearance", nominal: 0.25, min: 0.2, max: 0.3, unit: "mm" },
+          ],
+        },
+        {
+          key: "piston-to-valve",
+          title: "Piston-to-valve clearance",
+          instructions:
+            "With the cams timed, put light checking springs on one intake and one exhaust valve of cylinder 1 (or modelling clay on the piston crown), turn the engine over twice by hand, and measure the closest approach of each valve to the piston. Do it again after any change to cam timing, the head's skim or the gasket.",
+          cautions: [
+            {
+              kind: "general",
+              text: "Turn the engine by hand only: if a valve touches the piston, the starter bends it before you feel it.",
+            },
+          ],
+          measurements: [
+            { key: "ptv-intake", label: "Piston-to-valve, intake", nominal: null, min: 2, max: 10, unit: "mm" },
+            { key: "ptv-exhaust", label: "Piston-to-valve, exhaust", nominal: null, min: 2.5, max: 10, unit: "mm" },
           ],
         },
       ],

@@ -73,22 +73,29 @@ export const firstStartTemplate: TemplateDocumentInput = {
           requiresPhoto: true,
         },
         {
-          key: "retorque",
-          title: "Retorque where the maker asks",
+          key: "recheck-after-heat",
+          title: "Recheck after the heat cycles (the head is not retorqued)",
           instructions:
-            "Only if the head gasket or fasteners call for it: retorque the head bolts cold, one at a time, in the tightening sequence. Skip this step for torque-to-yield bolts or multi-layer steel gaskets that must not be retorqued.",
+            "This build's head goes on with stretch (torque-to-yield) bolts and a multi-layer steel gasket (see the cylinder head job): those bolts are not retorqued. Look along the head gasket line for weeps instead. With the engine cold, bring the exhaust header nuts back to their figure, one at a time in the pattern (exhaust gaskets settle over the first heat cycles: common practice), then read the valve clearances cold.",
           cautions: [
-            { kind: "torque-to-yield", text: "Never retorque a torque-to-yield bolt: follow the gasket and bolt maker's instruction." },
+            {
+              kind: "torque-to-yield",
+              text: "Never retorque a torque-to-yield head bolt. Only where a different gasket and reusable bolts were fitted and their maker asks for a retorque, follow that maker's instruction and write it in a note.",
+            },
+            {
+              kind: "hot",
+              text: "Check cold: a header nut tightened hot reads a different figure and a hot exhaust burns through gloves.",
+            },
           ],
           torque: [
             {
-              label: "Head bolts, cold retorque",
-              finalValue: 45,
+              label: "Exhaust header nuts M8, cold recheck",
+              finalValue: 20,
               unit: "N·m",
               passes: [{ percent: 100 }],
-              pattern: "spiral-out",
-              boltCount: 10,
-              lubricant: "As assembled",
+              pattern: "cross",
+              boltCount: 8,
+              lubricant: "As assembled (anti-seize on the studs)",
             },
           ],
           measurements: [
@@ -101,6 +108,54 @@ export const firstStartTemplate: TemplateDocumentInput = {
               unit: "mm",
               readingLabels: ["Cyl 1", "Cyl 2", "Cyl 3", "Cyl 4"],
             },
+          ],
+        },
+      ],
+    },
+    {
+      key: "dyno-check",
+      title: "Dyno check",
+      steps: [
+        {
+          key: "dyno-cell-ready",
+          title: "Make the dyno cell safe",
+          instructions:
+            "Roll the bike onto the dyno, wheel chocked, and strap it down with ratchet straps at both sides so it cannot move sideways or forward. Cooling fan in front of the radiator (and the intercooler on a turbo build), exhaust extraction on the tailpipe, the cell door shut, the fire extinguisher to hand. Everyone in the cell wears hearing protection.",
+          cautions: [
+            {
+              kind: "lifting",
+              text: "Tie-downs: a bike that breaks a strap under load leaves the roller. Check every strap and anchor before each session and after the first run.",
+            },
+            {
+              kind: "general",
+              text: "Nobody stands in line with the rear wheel or the roller while it turns: a thrown tread, stone or chain part leaves along that line.",
+            },
+            {
+              kind: "hot",
+              text: "Without the fan's air the engine and exhaust overheat within minutes at load; stop the run if the fan stops.",
+            },
+            {
+              kind: "chemical",
+              text: "Exhaust gas in a closed cell is poisonous: extraction on and working before the engine starts.",
+            },
+            {
+              kind: "general",
+              text: "Hearing protection for everyone in the cell: a bike at full load on a dyno is loud enough to harm hearing.",
+            },
+          ],
+          requiresPhoto: true,
+        },
+        {
+          key: "dyno-runs",
+          title: "Runs at base boost with the mixture logged",
+          instructions:
+            "Warm the engine up on the dyno, then make the runs at base boost with air-fuel ratio (lambda), boost and intake temperature logged; record them on the job's dyno page with the tune they ran. Raise boost in small steps, and only while the mixture and ignition stay within the tune's limits.",
+          cautions: [
+            {
+              kind: "fuel",
+              text: "Lift off at once if the mixture goes lean under load: a lean run under boost can hole a piston within seconds.",
+            },
+            { kind: "boost", text: "Boost above the base spring only on the dyno, step by step, never first on the road." },
           ],
         },
       ],

@@ -146,7 +146,7 @@ export const turboKitTemplate: TemplateDocumentInput = {
           key: "larger-intake",
           title: "Fit the larger intake",
           instructions:
-            "Fit the larger air filter or plenum. A common rule of thumb (common practice, no source) sizes the airbox or plenum at roughly ten times the engine's displacement, so a 1000 cc engine wants about 10 litres; follow the kit maker's layout where it differs. Seal the filter base fully.",
+            "Fit the larger air filter or airbox on the intake side before the compressor. A rule of thumb (common practice, no published source) sizes that intake side, the airbox or filter housing and the inlet pipe up to the compressor, at about ten times the engine's displacement, so a 1000 cc engine wants about 10 litres; it says nothing about the charge side after the compressor. Follow the kit maker's layout where it differs. Seal the filter base fully.",
           cautions: [
             { kind: "general", text: "Unfiltered air or a loose clamp lets grit into a compressor wheel spinning at very high speed." },
           ],
@@ -158,6 +158,55 @@ export const turboKitTemplate: TemplateDocumentInput = {
             "Block the intake at the filter, pressurise the charge side with the leak tester to the planned boost plus a margin, and listen and spray every joint with soapy water. Hold the pressure for the timer and note any drop.",
           cautions: [{ kind: "boost", text: "Never pressurise past the tester's rating; stand clear of couplers while under pressure." }],
           timer: { label: "Hold leak-test pressure", durationS: 300, blocksStepKey: "sign-off-fitting" },
+        },
+        {
+          key: "blow-off-valve",
+          title: "Blow-off or bypass valve",
+          instructions:
+            "Fit the blow-off valve (vents to air) or bypass valve (returns to the compressor inlet) on the charge pipe close to the throttle bodies, its signal line to the manifold side of the throttle. Where the engine management meters air before the compressor, use the bypass kind so the metered air is not dumped.",
+          cautions: [
+            {
+              kind: "boost",
+              text: "Without a working valve, a throttle closed under boost sends the charge back through the compressor (surge), which hammers its bearings.",
+            },
+          ],
+        },
+        {
+          key: "fuel-pressure-reference",
+          title: "Fuel pressure follows boost",
+          instructions:
+            "Connect the fuel pressure regulator's reference port to the intake manifold (after the throttle), so fuel pressure rises with boost, about one for one (common practice). Check it: with a hand pump on the reference line, the fuel gauge must rise by the pressure applied. Photograph the gauge at rest and with pressure applied.",
+          cautions: [
+            {
+              kind: "fuel",
+              text: "A regulator referenced to air instead of the manifold leaves fuel pressure flat while boost rises: the injectors flow less than the tune expects and the engine runs lean.",
+            },
+          ],
+          requiresPhoto: true,
+        },
+        {
+          key: "map-sensor-range",
+          title: "Manifold pressure sensor covers the boost",
+          instructions:
+            "Read the manifold pressure sensor's range on its data sheet. An unboosted engine's sensor often tops out near atmospheric pressure; at 10 psi of boost the manifold sits near 170 kPa absolute at sea level. Fit a sensor that reads above the highest planned boost with a margin, and set its calibration in the engine management.",
+          cautions: [
+            {
+              kind: "fuel",
+              text: "A sensor past the top of its range reads every higher boost as the same: fuelling stops following boost and the engine runs lean.",
+            },
+          ],
+        },
+        {
+          key: "crankcase-breathing",
+          title: "Crankcase breathing under boost",
+          instructions:
+            "Blow-by rises under boost. Route the crankcase breather to the intake side before the compressor or to a vented catch can, never into the pressurised charge pipe; where a breather joins a part that can be under pressure, fit a one-way valve. After the first runs, check for oil pushed out at seals, the dipstick and the breather.",
+          cautions: [
+            {
+              kind: "general",
+              text: "A pressurised crankcase pushes oil past the seals, and oil mist in the charge lowers the margin against detonation.",
+            },
+          ],
         },
         {
           key: "sign-off-fitting",
