@@ -1,5 +1,6 @@
 // Serwist in configurator mode: `next build` then `serwist build` writes public/sw.js.
 import { generateGlobPatterns, serwist } from "@serwist/next/config";
+import { onlyBenchChunks } from "./sw/bench-precache.mjs";
 
 export default await serwist({
   swSrc: "sw/sw.ts",
@@ -8,4 +9,6 @@ export default await serwist({
   // The default patterns, plus the fonts shipped in fonts/ (next/font/local puts them in static/media),
   // so the bench reads the same offline.
   globPatterns: [...generateGlobPatterns(".next/"), ".next/static/media/*.woff2"],
+  // Only the bench's own chunks (sw/bench-precache.mjs): the office's pages are never opened offline.
+  manifestTransforms: [onlyBenchChunks(".next")],
 });

@@ -1,6 +1,7 @@
 // Every benchmark in one go (`npm run bench`). Each prints its own table of figures; nothing here
 // passes or fails on a number.
 import { print as printAuditLog, run as auditLog } from "./audit-log";
+import { print as printPrecache, run as precache } from "./bench-precache";
 import { run as calcBuildSheet } from "./calc-build-sheet";
 import { print as printSyncMerge, run as syncMerge } from "./sync-merge";
 
@@ -10,4 +11,6 @@ console.log("\n== sync merge into PostgreSQL");
 printSyncMerge(await syncMerge());
 console.log("\n== audit log: page and CSV on a large log vs the demo's");
 printAuditLog(await auditLog());
+console.log("\n== the bench's service worker precache and first load (from the last build)");
+printPrecache(precache());
 process.exit(0);

@@ -1,4 +1,7 @@
+import fs from "node:fs";
 import { expect, test, type Page } from "@playwright/test";
+// @ts-expect-error -- build-time helper in plain JavaScript, no type declarations
+import { benchChunkSet } from "../../sw/bench-precache.mjs";
 import { waitForServiceWorker, waitForSynced } from "./support/bench-pad";
 import { signIn } from "./support/demo-users";
 
@@ -36,6 +39,19 @@ test("a signed-out visitor to the sign-in page gets no service worker and no cac
   expect(registered.registrations).toEqual(["/"]);
   expect(registered.caches.some((name) => name.includes("precache"))).toBe(true);
   expect(workerRequests.some((u) => new URL(u).pathname === "/sw.js")).toBe(true);
+
+  // The precache holds the bench's own chunks and no other page's (office, review, charts).
+  const precachedChunks = await page.evaluate(async () => {
+    const names = (await caches.keys()).filter((n) => n.includes("precache"));
+    const urls = (
+      await Promise.all(names.map(async (n) => (await (await caches.open(n)).keys()).map((r) => new URL(r.url).pathname)))
+    ).flat();
+    return urls.filter((u) => u.startsWith("/_next/static/chunks/")).sort();
+  });
+  const benchChunks = [...(benchChunkSet(".next") as Set<string>)].map((f) => `/_next/${f}`).sort();
+  expect(precachedChunks).toEqual(benchChunks);
+  const everyChunk = fs.readdirSync(".next/static/chunks").filter((f) => /\.(js|css)$/.test(f));
+  expect(everyChunk.length).toBeGreaterThan(benchChunks.length); // other pages' chunks exist and are left out
 
   await waitForSynced(page);
   await context.setOffline(true);

@@ -1,0 +1,49 @@
+// What the service worker precaches for the bench, against every script and style the build made
+// (issue target: the precache at most 40 % of the whole). Reads the built files, so run it after
+// `npm run build`. Also prints the bench's first-load scripts gzipped, the figure the first load
+// of a tablet pays on the network. Figures only: nothing passes or fails on them.
+import fs from "node:fs";
+import path from "node:path";
+import { gzipSync } from "node:zlib";
+// @ts-expect-error -- build-time helper in plain JavaScript, no type declarations
+import { benchChunkSet, benchEntryFiles } from "../../sw/bench-precache.mjs";
+
+const DIST = ".next";
+
+interface PrecacheFigures {
+  allChunkBytes: number;
+  precacheChunkBytes: number;
+  precacheChunks: number;
+  allChunks: number;
+  firstLoadJsGzip: number;
+}
+
+export function run(): PrecacheFigures | null {
+  const chunkDir = path.join(DIST, "static/chunks");
+  if (!fs.existsSync(path.join(DIST, "server/app/bench/page_client-reference-manifest.js"))) return null;
+  const all = fs.readdirSync(chunkDir).filter((f) => /\.(js|css)$/.test(f));
+  const size = (f: string) => fs.statSync(path.join(DIST, f)).size;
+  const bench = [...(benchChunkSet(DIST) as Set<string>)];
+  // first load: the bench's scripts without those it loads on demand (the scanner)
+  const firstLoad = (benchEntryFiles(DIST) as string[]).filter((f) => f.endsWith(".js"));
+  return {
+    allChunkBytes: all.reduce((n, f) => n + size(`static/chunks/${f}`), 0),
+    allChunks: all.length,
+    precacheChunkBytes: bench.reduce((n, f) => n + size(f), 0),
+    precacheChunks: bench.length,
+    firstLoadJsGzip: firstLoad.reduce((n, f) => n + gzipSync(fs.readFileSync(path.join(DIST, f))).length, 0),
+  };
+}
+
+export function print(f: PrecacheFigures | null): void {
+  if (!f) {
+    console.log("no build found: run `npm run build` first");
+    return;
+  }
+  const kb = (n: number) => `${(n / 1024).toFixed(0)} kB`;
+  console.log(
+    `Precached scripts and styles: ${f.precacheChunks} of ${f.allChunks} chunks, ${kb(f.precacheChunkBytes)} of ${kb(f.allChunkBytes)} ` +
+      `(${((100 * f.precacheChunkBytes) / f.allChunkBytes).toFixed(0)} % of the whole; target at most 40 %)`,
+  );
+  console.log(`Bench first-load scripts, gzipped: ${kb(f.firstLoadJsGzip)} (target at most 150 kB)`);
+}
