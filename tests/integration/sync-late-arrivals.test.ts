@@ -15,6 +15,7 @@ import { useTestDb } from "./support/test-db";
 // whose record is not on file yet (a correction before its reading, a timer stop or override
 // before its start, a withdrawal before its entry) is held and applied in the merge that brings
 // the record, in stamp order.
+// The property runs with a fixed seed; LATE_ARRIVALS_SEED=<n> runs it with another.
 
 const db = useTestDb();
 
@@ -96,6 +97,17 @@ const WITHDRAW_REASONS = ["Recorded on the wrong job", "Tapped twice by mistake"
 const DEVICE = "late-tab";
 const T0 = Date.now() - 3_600_000;
 
+/** One operation as a tablet makes it: by `authorId` on `deviceId`, made and stamped at `at`. */
+function tabletOp<K extends OperationKind>(
+  kind: K,
+  payload: OperationOf<K>["payload"],
+  by: { id: string; workOrderId: string; authorId: string; deviceId: string; at: number },
+): Operation {
+  const { id, workOrderId, authorId, deviceId, at } = by;
+  const stamp = formatStamp({ wallMs: at, counter: 0, deviceId });
+  return { id, kind, workOrderId, authorId, deviceId, deviceTime: new Date(at).toISOString(), stamp, payload } as Operation;
+}
+
 /** The operations of `events` on one work order; `idFor` gives every made-up id its value for that work order. */
 function materialize(
   events: readonly Event[],
@@ -115,16 +127,7 @@ function materialize(
     const at = T0 + i * 1000;
     const make = <K extends OperationKind>(kind: K, payload: OperationOf<K>["payload"]) => {
       if (kind !== "measurement.recorded" && !kind.startsWith("timer.") && kind !== "entry.withdrawn") withdrawable.push(`op${i}`);
-      ops.push({
-        id: idFor(`op${i}`),
-        kind,
-        workOrderId: job.id,
-        authorId: sup.id,
-        deviceId: DEVICE,
-        deviceTime: new Date(at).toISOString(),
-        stamp: formatStamp({ wallMs: at, counter: 0, deviceId: DEVICE }),
-        payload,
-      } as Operation);
+      ops.push(tabletOp(kind, payload, { id: idFor(`op${i}`), workOrderId: job.id, authorId: sup.id, deviceId: DEVICE, at }));
     };
     const reading = (spot: number, v: number, supersedes?: string) => {
       readings.push({ symbol: `op${i}`, at: spot });
@@ -413,16 +416,7 @@ describe("a withdrawal that arrives before its entry is held, then applied with 
     payload: OperationOf<K>["payload"],
   ): Operation {
     at += 1000;
-    return {
-      id: randomUUID(),
-      kind,
-      workOrderId: job.id,
-      authorId: user.id,
-      deviceId: device,
-      deviceTime: new Date(at).toISOString(),
-      stamp: formatStamp({ wallMs: at, counter: 0, deviceId: device }),
-      payload,
-    } as Operation;
+    return tabletOp(kind, payload, { id: randomUUID(), workOrderId: job.id, authorId: user.id, deviceId: device, at });
   }
   const asUser = (u: ShopFixture["users"]["mechanic"]): SessionUser => ({ ...u, customerId: null });
   const send = (user: SessionUser, device: string, operations: Operation[]) =>
