@@ -9,15 +9,34 @@ pg.types.setTypeParser(20, (v) => Number.parseInt(v, 10));
 /** The database handle every query function takes (a pool, or a transaction's Kysely). */
 export type Db = Kysely<Database>;
 
-export function createDb(url = databaseUrl(), max = 10): Kysely<Database> {
-  return new Kysely<Database>({
-    dialect: new PostgresDialect({ pool: new pg.Pool({ connectionString: url, max }) }),
+/**
+ * The server's pool gives up on a connection (a database that accepts it and never answers, or
+ * a request waiting that long for a free one) after this long: the request then answers 503, try
+ * again (./failures.ts), instead of hanging until the tablet gives up.
+ */
+export const CONNECT_TIMEOUT_MS = 30_000;
+
+/**
+ * A pool; `connectTimeoutMs` as above (none unless given: scripts and tests wait). A connection
+ * the database drops (a restart), idle or in use, is logged and replaced: without listeners the
+ * error events would end the process.
+ */
+export function createDb(url = databaseUrl(), max = 10, opts: { connectTimeoutMs?: number } = {}): Kysely<Database> {
+  const pool = new pg.Pool({
+    connectionString: url,
+    max,
+    ...(opts.connectTimeoutMs ? { connectionTimeoutMillis: opts.connectTimeoutMs } : {}),
   });
+  pool.on("error", (e) => console.error("[db] an idle connection was lost:", e.message));
+  // a connection lost in the middle of a query fails that query (answered 503); the event it also
+  // raises on the connection is logged here, not left to end the process
+  pool.on("connect", (client) => client.on("error", (e) => console.error("[db] a connection was lost:", e.message)));
+  return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }
 
 // One pool per server process (kept on globalThis so Next's dev reloads do not leak pools).
 const g = globalThis as unknown as { __benchtagDb?: Kysely<Database> };
 export function db(): Kysely<Database> {
-  g.__benchtagDb ??= createDb();
+  g.__benchtagDb ??= createDb(databaseUrl(), 10, { connectTimeoutMs: CONNECT_TIMEOUT_MS });
   return g.__benchtagDb;
 }

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import type { Kysely, Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { SyncResponse } from "@/lib/sync/changes";
 import {
@@ -7,16 +7,16 @@ import {
   noteAccepted,
   sortByStamp,
   targetPresent,
+  targetsCreated,
   type Actor,
   type Decision,
-  type MergeState,
 } from "@/lib/sync/merge-rules";
 import type { Operation, SyncBatch } from "@/lib/sync/operations";
 import type { MalformedOperation } from "@/lib/sync/parse-batch";
 import type { AuditEntry } from "../audit/append";
 import type { Database } from "../schema";
 import { changesSince } from "./changes";
-import { existingOperations, loadWorkOrderFacts, loadMergeState, type LoadedWorkOrder } from "./context";
+import { existingOperations, loadWorkOrderFacts, loadMergeState } from "./context";
 import { heldForTargets, heldOnFile, holdOperations, resolveHeld, type HeldOperation } from "./pending";
 import { appendAuditBatch, applyFirstOverrides, lockShopForSync, refusalsOnRecord, writeKept, type KeptOperation } from "./write";
 
@@ -33,20 +33,32 @@ interface Refused {
   answered: boolean;
 }
 
-/** The records an accepted operation creates that held operations may wait for. */
-function targetsCreated(op: Operation): string[] {
-  if (op.kind === "measurement.recorded") return [op.id];
-  if (op.kind === "timer.started") return [op.payload.timerId];
-  return [];
-}
+/** An operation to decide as its author would have been decided on arrival: role, cursor and server time. */
+type Candidate = Omit<HeldOperation, "target" | "reason">;
 
-/** Adds records the held operations name to the state, leaving alone what the merge already knows. */
-function addMissing(state: MergeState, more: MergeState): void {
-  for (const [k, v] of more.readings) if (!state.readings.has(k)) state.readings.set(k, v);
-  for (const [k, v] of more.timers) if (!state.timers.has(k)) state.timers.set(k, v);
-  for (const k of more.attachmentIds) state.attachmentIds.add(k);
-  for (const k of more.partIds) state.partIds.add(k);
-  for (const [k, v] of more.partSerials) if (!state.partSerials.has(k)) state.partSerials.set(k, v);
+/**
+ * Operations held for a record `ops` create, and for the records those create in turn (a
+ * correction of a held correction), each target looked up once (`looked`), each held one fetched
+ * once (`seen`).
+ */
+async function heldForRecordsOf(
+  trx: Transaction<Database>,
+  shopId: string,
+  ops: readonly Operation[],
+  looked: Set<string>,
+  seen: Set<string>,
+): Promise<HeldOperation[]> {
+  const out: HeldOperation[] = [];
+  let targets = ops.flatMap(targetsCreated);
+  for (;;) {
+    const query = targets.filter((t) => !looked.has(t));
+    if (!query.length) return out;
+    for (const t of query) looked.add(t);
+    const found = await heldForTargets(trx, shopId, query, seen);
+    for (const h of found) seen.add(h.op.id);
+    out.push(...found);
+    targets = found.flatMap((h) => targetsCreated(h.op));
+  }
 }
 
 /**
@@ -56,10 +68,12 @@ function addMissing(state: MergeState, more: MergeState): void {
  * 2. Sets aside operations already on file (a resent batch): they are `duplicates`; those already
  *    held (a resend of a late arrival) are `pending` again.
  * 3. Loads the facts the rules need (jobs, pinned procedures, send-backs, referenced records).
- * 4. Decides each new operation in stamp order with lib/sync/merge-rules: kept (perhaps flagged),
- *    refused, or held because the record it acts on has not arrived.
- * 5. Applies held operations — of this batch, or held by an earlier one — whose record is now
- *    here, in stamp order, until none is left (a correction of a correction follows its reading).
+ * 4. Finds the operations held by earlier batches for a record this batch brings (and for the
+ *    records those bring in turn), and decides them with the new operations, all in stamp order,
+ *    with lib/sync/merge-rules: kept (perhaps flagged), refused, or held because the record it acts
+ *    on has not arrived. So a withdrawal held for a part counts before a later part with its serial.
+ * 5. Applies held operations whose record turned up later in that pass (a stamp out of causal
+ *    order), round after round, until none is left.
  * 6. Inserts the kept ones into `operations` (ON CONFLICT (id) DO NOTHING), the read tables and
  *    the audit log in one statement; audits the refused ones (the malformed ones too) in another;
  *    holds the ones still waiting.
@@ -112,19 +126,24 @@ export async function mergeBatch(
     }
 
     const ordered = sortByStamp(fresh);
-    const jobIds = new Set([...ordered.map((o) => o.workOrderId), ...malformed.flatMap((m) => (m.workOrderId ? [m.workOrderId] : []))]);
+    // Operations held by earlier batches for a record this batch brings (and for what those bring in turn).
+    const looked = new Set<string>();
+    const seen = new Set<string>();
+    const filed = await heldForRecordsOf(trx, actor.shopId, ordered, looked, seen);
+    const fromFile = new Set(filed.map((h) => h.op.id));
+    const jobIds = new Set([
+      ...ordered.map((o) => o.workOrderId),
+      ...filed.map((h) => h.op.workOrderId),
+      ...malformed.flatMap((m) => (m.workOrderId ? [m.workOrderId] : [])),
+    ]);
     const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...jobIds]);
-    const state = await loadMergeState(trx, ordered);
+    const state = await loadMergeState(trx, [...ordered, ...filed.map((h) => h.op)]);
 
     const kept: KeptOperation[] = [];
-    const newTargets = new Set<string>();
-    const keep = (op: Operation, decision: KeptOperation["decision"]) => {
-      kept.push({ op, decision });
-      noteAccepted(op, state);
-      for (const t of targetsCreated(op)) newTargets.add(t);
-    };
+    const applied: string[] = [];
+    const refusedHeld: string[] = [];
     let waiting: HeldOperation[] = [];
-    const decideAs = (h: { op: Operation; authorRole: Actor["role"]; cursor: number | null; receivedAtMs: number }): Decision =>
+    const decideAs = (h: Candidate): Decision =>
       decideOperation(h.op, {
         actor: { id: h.op.authorId, shopId: actor.shopId, role: h.authorRole },
         batchDeviceId: h.op.deviceId,
@@ -133,56 +152,47 @@ export async function mergeBatch(
         job: jobs.get(h.op.workOrderId),
         state,
       });
+    /** Keeps, refuses or holds an operation as decided; a held one from file is marked applied or refused. */
+    const settle = (h: Candidate, decision: Decision, by = { actorId: h.op.authorId, deviceId: h.op.deviceId }) => {
+      const wasFiled = fromFile.has(h.op.id);
+      if (decision.outcome === "refuse") {
+        refuse(h.op, decision.reason, by, byId.has(h.op.id));
+        if (wasFiled) refusedHeld.push(h.op.id);
+      } else if (decision.outcome === "wait") {
+        waiting.push({ ...h, target: decision.target, reason: decision.reason });
+      } else {
+        kept.push({ op: h.op, decision });
+        noteAccepted(h.op, state);
+        if (wasFiled) applied.push(h.op.id);
+      }
+    };
 
-    for (const op of ordered) {
-      const decision = decideOperation(op, { actor, batchDeviceId: batch.deviceId, cursor, nowMs, job: jobs.get(op.workOrderId), state });
-      if (decision.outcome === "refuse") refuse(op, decision.reason, fromBatch);
-      else if (decision.outcome === "wait") {
-        waiting.push({ op, authorRole: actor.role, cursor, receivedAtMs: nowMs, target: decision.target, reason: decision.reason });
-      } else keep(op, decision);
+    // The new operations and the held ones they bring, in one pass in stamp order.
+    const pass = sortByStamp([
+      ...ordered.map((op) => ({ id: op.id, stamp: op.stamp, h: { op, authorRole: actor.role, cursor, receivedAtMs: nowMs } })),
+      ...filed.map((h) => ({ id: h.op.id, stamp: h.op.stamp, h })),
+    ]);
+    for (const { h } of pass) {
+      if (fromFile.has(h.op.id)) settle(h, decideAs(h));
+      else {
+        const decision = decideOperation(h.op, {
+          actor,
+          batchDeviceId: batch.deviceId,
+          cursor,
+          nowMs,
+          job: jobs.get(h.op.workOrderId),
+          state,
+        });
+        settle(h, decision, fromBatch);
+      }
     }
 
-    // Late arrivals: held operations whose record is here now, in stamp order, round after round.
-    const applied: string[] = [];
-    const refusedHeld: string[] = [];
-    const looked = new Set<string>();
-    const seen = new Set<string>(waiting.map((w) => w.op.id));
+    // Those whose record turned up later in the pass (a stamp out of causal order): round after round.
     for (;;) {
-      const query = [...newTargets].filter((t) => !looked.has(t));
-      for (const t of query) looked.add(t);
-      const fromFile = await heldForTargets(trx, actor.shopId, query, seen);
-      for (const h of fromFile) seen.add(h.op.id);
-      const ready = [...waiting.filter((w) => targetPresent(w.target, state)), ...fromFile];
+      const ready = waiting.filter((w) => targetPresent(w.target, state));
       if (!ready.length) break;
       waiting = waiting.filter((w) => !targetPresent(w.target, state));
-      const filed = new Set(fromFile.map((h) => h.op.id));
-
-      const missingJobs = [...new Set(fromFile.map((h) => h.op.workOrderId))].filter((id) => !jobs.has(id));
-      if (missingJobs.length)
-        for (const [id, j] of await loadWorkOrderFacts(trx, actor.shopId, missingJobs)) jobs.set(id, j as LoadedWorkOrder);
-      if (fromFile.length)
-        addMissing(
-          state,
-          await loadMergeState(
-            trx,
-            fromFile.map((h) => h.op),
-          ),
-        );
-
-      const byStamp = sortByStamp(ready.map((h) => ({ id: h.op.id, stamp: h.op.stamp, h })));
-      for (const { h } of byStamp) {
-        const decision = decideAs(h);
-        const wasFiled = filed.has(h.op.id);
-        if (decision.outcome === "refuse") {
-          refuse(h.op, decision.reason, { actorId: h.op.authorId, deviceId: h.op.deviceId }, byId.has(h.op.id));
-          if (wasFiled) refusedHeld.push(h.op.id);
-        } else if (decision.outcome === "wait") {
-          if (!wasFiled) waiting.push({ ...h, target: decision.target, reason: decision.reason });
-        } else {
-          keep(h.op, decision);
-          if (wasFiled) applied.push(h.op.id);
-        }
-      }
+      for (const { h } of sortByStamp(ready.map((h) => ({ id: h.op.id, stamp: h.op.stamp, h })))) settle(h, decideAs(h));
     }
 
     const inserted = await writeKept(trx, actor.shopId, kept, jobs, state);
@@ -190,7 +200,11 @@ export async function mergeBatch(
       trx,
       kept.flatMap((k) => (k.op.kind === "timer.overridden" ? [k.op.payload.timerId] : [])),
     );
-    await holdOperations(trx, actor.shopId, waiting);
+    await holdOperations(
+      trx,
+      actor.shopId,
+      waiting.filter((w) => !fromFile.has(w.op.id)),
+    );
     await resolveHeld(trx, applied, "applied");
     await resolveHeld(trx, refusedHeld, "refused");
 

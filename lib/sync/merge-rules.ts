@@ -10,7 +10,7 @@ import { compareStamps, parseStamp } from "./hlc";
 import { describeHold, holdAt, runningAt, type HoldTimer } from "./holds";
 import type { Operation } from "./operations";
 import { partSerialOnWorkOrder, repeatedSerialReason, type SerialOnFile } from "./parts";
-import { withdrawalRefusal, withdrawalTarget, type EntryFacts, type TargetLookup } from "./withdrawals";
+import { withdrawalRefusal, type EntryFacts, type TargetLookup } from "./withdrawals";
 
 /** A stamp further ahead of the server's clock than this is kept but flagged (the tablet's clock is likely wrong). */
 export const MAX_CLOCK_AHEAD_MS = 5 * 60_000;
@@ -143,7 +143,8 @@ export interface DecisionInput {
 
 /** A record an operation acts on, which must be on file before it can be applied. */
 export interface Target {
-  kind: "reading" | "timer";
+  /** A reading a correction names, a timer a stop, override or cancel names, an entry a withdrawal names. */
+  kind: "reading" | "timer" | "entry";
   id: string;
 }
 
@@ -341,14 +342,17 @@ export function timerTarget(timerId: string, job: { id: string; number: number }
   return { found: true, target: timer };
 }
 
-/** Who may take something back: withdrawals and timer cancels name an entry of the author's own, or come from a supervisor. */
+/**
+ * Who may take something back: withdrawals and timer cancels name an entry of the author's own, or
+ * come from a supervisor. One whose entry or timer has not arrived waits for it (checkReferences):
+ * its author is checked when it is applied.
+ */
 function checkAuthority(op: Operation, actor: Actor, job: WorkOrderFacts, state: MergeState): string | null {
   if (op.kind === "entry.withdrawn") {
-    const found = withdrawalTarget(op.payload.operationId, job, state.entries);
-    return found.found ? withdrawalRefusal(actor, found.target) : found.reason;
+    const entry = state.entries.get(op.payload.operationId);
+    return entry && entry.workOrderId === job.id ? withdrawalRefusal(actor, entry) : null;
   }
   if (op.kind === "timer.cancelled") {
-    // a cancel whose timer has not arrived waits for it (checkReferences); its author is checked when it is applied
     const found = timerTarget(op.payload.timerId, job, state);
     if (!found.found) return null;
     if (found.target.startedBy !== actor.id && actor.role !== "supervisor") {
@@ -404,7 +408,7 @@ function partFlags(op: Operation, job: WorkOrderFacts, state: MergeState): strin
   return [repeatedSerialReason({ partNumber: op.payload.partNumber, serial }, job.number, stepTitle)];
 }
 
-/** The record an operation acts on, when it acts on one (a correction's reading, a timer's start). */
+/** The record an operation acts on, when it acts on one (a correction's reading, a timer's start, a withdrawal's entry). */
 export function targetOf(op: Operation): Target | null {
   switch (op.kind) {
     case "measurement.recorded":
@@ -413,6 +417,8 @@ export function targetOf(op: Operation): Target | null {
     case "timer.overridden":
     case "timer.cancelled":
       return { kind: "timer", id: op.payload.timerId };
+    case "entry.withdrawn":
+      return { kind: "entry", id: op.payload.operationId };
     default:
       return null;
   }
@@ -420,7 +426,13 @@ export function targetOf(op: Operation): Target | null {
 
 /** Whether the record `target` names is on file or was kept earlier in this merge. */
 export function targetPresent(target: Target, state: MergeState): boolean {
-  return target.kind === "reading" ? state.readings.has(target.id) : state.timers.has(target.id);
+  if (target.kind === "reading") return state.readings.has(target.id);
+  return target.kind === "timer" ? state.timers.has(target.id) : state.entries.has(target.id);
+}
+
+/** The ids of the records an accepted operation creates, which held operations may wait for (its entry, and a timer it starts). */
+export function targetsCreated(op: Operation): string[] {
+  return op.kind === "timer.started" ? [op.id, op.payload.timerId] : [op.id];
 }
 
 /** A record an operation names that has not arrived: the operation waits for it. */
@@ -429,7 +441,12 @@ type Missing = { reason: string; target: Target };
 function waitFor(op: Operation, state: MergeState): Missing | null {
   const target = targetOf(op);
   if (!target || targetPresent(target, state)) return null;
-  const what = target.kind === "reading" ? `the reading it corrects (${target.id})` : `the start of timer ${target.id}`;
+  const what =
+    target.kind === "reading"
+      ? `the reading it corrects (${target.id})`
+      : target.kind === "timer"
+        ? `the start of timer ${target.id}`
+        : `the entry it withdraws (${target.id})`;
   return { target, reason: `Held on the server until ${what} arrives; it is applied then, in stamp order.` };
 }
 
@@ -499,8 +516,12 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
       if (timer.workOrderId !== job.id) return `Timer ${op.payload.timerId} is not on record ${onJob}.`;
       return null;
     }
-    case "entry.withdrawn":
-      return null; // checkAuthority looks up the entry
+    case "entry.withdrawn": {
+      const entry = state.entries.get(op.payload.operationId);
+      if (!entry) return waitFor(op, state);
+      if (entry.workOrderId !== job.id) return `The entry ${op.payload.operationId} to withdraw is not on record ${onJob}.`;
+      return null; // checkAuthority decides who may withdraw it
+    }
     case "photo.queued": {
       const missing = stepMissing(op.payload.stepId);
       if (missing) return missing;

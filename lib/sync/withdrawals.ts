@@ -21,7 +21,10 @@ export function isWithdrawable(kind: OperationKind): boolean {
   return WITHDRAWABLE[kind] !== undefined;
 }
 
-/** What the merge knows of an entry a withdrawal may name: on file, or accepted earlier in the batch. */
+/**
+ * What the merge knows of an entry a withdrawal may name: on file, or accepted earlier in the merge.
+ * A withdrawal whose entry has not arrived is held on the server until it does (./merge-rules.ts).
+ */
 export interface EntryFacts {
   workOrderId: string;
   kind: OperationKind;
@@ -38,25 +41,6 @@ export interface EntryFacts {
 
 /** The outcome of looking up something an operation names: found, or not on record (yet). */
 export type TargetLookup<T> = { found: true; target: T } | { found: false; reason: string };
-
-/**
- * The entry a withdrawal names. "Not found" may one day mean "not here yet" (the entry is still
- * on its way from another tablet); today the withdrawal is refused with the reason.
- */
-export function withdrawalTarget(
-  operationId: string,
-  job: { id: string; number: number },
-  entries: ReadonlyMap<string, EntryFacts>,
-): TargetLookup<EntryFacts> {
-  const entry = entries.get(operationId);
-  if (!entry || entry.workOrderId !== job.id) {
-    return {
-      found: false,
-      reason: `The entry ${operationId} to withdraw is not on record on work order #${job.number} (yet): send this again once that entry has synced, or discard it with a reason.`,
-    };
-  }
-  return { found: true, target: entry };
-}
 
 /** Why `actor` may not withdraw `entry`, or null when they may. */
 export function withdrawalRefusal(actor: { id: string; role: Role }, entry: EntryFacts): string | null {

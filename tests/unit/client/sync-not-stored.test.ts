@@ -109,6 +109,57 @@ describe("a batch the server fails on", () => {
   });
 });
 
+describe("any server error (5xx) keeps the work: try again, or split", () => {
+  it("keeps every entry waiting when each sync answer is a 5xx, ours (JSON) or a proxy's page (no JSON)", async () => {
+    for (const [status, body, type] of [
+      [500, JSON.stringify({ error: "Something went wrong on our side; nothing was changed. Try again.", issues: [] }), "application/json"],
+      [502, "<html><body>Bad gateway</body></html>", "text/html"],
+      [503, JSON.stringify({ error: "The workshop database is not answering; nothing was changed.", issues: [] }), "application/json"],
+      [504, "upstream timed out", "text/plain"],
+    ] as const) {
+      const db = freshDb();
+      const a = await bolt(db, 1, 1);
+      const b = await bolt(db, 1, 2);
+      const sent: number[] = [];
+      const fetchFn = (async (input: RequestInfo | URL, init?: RequestInit) => {
+        if (String(input) !== "/api/sync") throw new Error(`unexpected request ${String(input)}`);
+        sent.push((JSON.parse(String(init?.body)) as { operations: unknown[] }).operations.length);
+        return new Response(body, { status, headers: { "content-type": type } });
+      }) as typeof fetch;
+      await expect(syncOnce(db, "tab-1", fetchFn)).rejects.toMatchObject({ name: "SyncHttpError", status });
+      // the batch, then the empty probe that tells "the server is failing" from "this batch fails": no split, nothing gone
+      expect(sent).toEqual([2, 0]);
+      expect((await db.outbox.toArray()).map((e) => `${e.id} ${e.state}`).sort()).toEqual([`${a.id} waiting`, `${b.id} waiting`].sort());
+    }
+  });
+
+  it("keeps the entries when the server stores a batch but fails on the next page of changes: they go as duplicates next time", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const a = await bolt(db, 1, 1);
+    let calls = 0;
+    const fetchFn = (async (input: RequestInfo | URL, init?: RequestInit) => {
+      if (String(input) !== "/api/sync") throw new Error(`unexpected request ${String(input)}`);
+      calls++;
+      const ops = (JSON.parse(String(init?.body)) as { operations: Operation[] }).operations;
+      if (calls === 1)
+        return Response.json({
+          accepted: ops.map((o) => o.id),
+          duplicates: [],
+          refused: [],
+          flagged: [],
+          pending: [],
+          changes: [],
+          cursor: "11",
+          more: true,
+        });
+      return new Response("Bad gateway", { status: 502 });
+    }) as typeof fetch;
+    await expect(syncOnce(db, "tab-1", fetchFn)).rejects.toMatchObject({ status: 502 });
+    expect((await db.outbox.get(a.id))?.state).toBe("waiting");
+  });
+});
+
 describe("held and refused entries", () => {
   it("keeps a held entry on screen and sends it again until the server has applied it", async () => {
     const db = freshDb();

@@ -325,10 +325,13 @@ describe("withdrawing an entry", () => {
       outcome: "refuse",
       reason: expect.stringContaining("A reading is not withdrawn: it is corrected."),
     });
-    const w = op("entry.withdrawn", j, { operationId: randomUUID(), reason: "x-x" });
-    expect(decide(w, j, state)).toMatchObject({
-      outcome: "refuse",
-      reason: expect.stringContaining("is not on record on work order #1021"),
+    // an entry not on record (yet) is waited for: the withdrawal is held until it arrives
+    const missing = randomUUID();
+    const w = op("entry.withdrawn", j, { operationId: missing, reason: "x-x" });
+    expect(decide(w, j, state)).toEqual({
+      outcome: "wait",
+      target: { kind: "entry", id: missing },
+      reason: `Held on the server until the entry it withdraws (${missing}) arrives; it is applied then, in stamp order.`,
     });
     const b = bolt(j, ids.caseSpec, 1, 3);
     decide(b, j, state);
@@ -346,7 +349,10 @@ describe("withdrawing an entry", () => {
     const state = emptyMergeState();
     const onA = bolt(a, ids.caseSpec, 1, 1);
     decide(onA, a, state);
-    expect(decide(op("entry.withdrawn", b, { operationId: onA.id, reason: "oops" }), b, state).outcome).toBe("refuse");
+    expect(decide(op("entry.withdrawn", b, { operationId: onA.id, reason: "oops" }), b, state)).toMatchObject({
+      outcome: "refuse",
+      reason: expect.stringContaining(`The entry ${onA.id} to withdraw is not on record on work order #${b.number}.`),
+    });
   });
 
   it("a sign-off withdrawn after a supervisor decided on it is kept and flagged", () => {
