@@ -315,10 +315,19 @@ function holdFlags(op: Operation, job: WorkOrderFacts, state: MergeState, atMs: 
 function secondTimerFlags(op: Operation, job: WorkOrderFacts, state: MergeState): string[] {
   if (op.kind !== "timer.started" || op.payload.timerSpecId === undefined) return [];
   const at = Date.parse(op.payload.startedAt);
-  const other = timersOfSpec(state, job.id, op.payload.timerSpecId).find((t) => t.id !== op.payload.timerId && runningAt(t, at));
-  if (!other) return [];
+  const ends = at + op.payload.durationS * 1000;
+  const others = timersOfSpec(state, job.id, op.payload.timerSpecId).filter((t) => t.id !== op.payload.timerId);
+  const before = others.find((t) => runningAt(t, at));
+  if (before) {
+    return [
+      `A second “${op.payload.label}” timer was started while one started at ${utc(before.startedAtMs)} was still running: both are kept, and the step it holds waits for the later one to run out.`,
+    ];
+  }
+  // arrived after a timer of the same spec that was started later, while this one would still run
+  const after = others.find((t) => !t.cancelled && t.startedAtMs >= at && t.startedAtMs < ends);
+  if (!after) return [];
   return [
-    `A second “${op.payload.label}” timer was started while one started at ${utc(other.startedAtMs)} was still running: both are kept, and the step it holds waits for the later one to run out.`,
+    `A second “${op.payload.label}” timer was started at ${utc(after.startedAtMs)} while this one (started at ${utc(at)}) was still running, and reached the server first: both are kept, and the step it holds waits for the later one to run out.`,
   ];
 }
 

@@ -237,6 +237,33 @@ describe("timers started twice, stopped or cancelled", () => {
     expect(decide(t(mech, NOW - 10 * 60_000), j, state)).toEqual({ outcome: "accept" });
   });
 
+  it("the same two timers arriving the other way round: the earlier-started one, arriving second, is flagged too", () => {
+    const j = job();
+    const state = emptyMergeState();
+    const t = (by: Actor, startMs: number) =>
+      op(
+        "timer.started",
+        j,
+        {
+          timerId: randomUUID(),
+          stepId: ids.stepCase,
+          timerSpecId: ids.cure,
+          label: "Sealant cure",
+          durationS: 1800,
+          startedAt: new Date(startMs).toISOString(),
+        },
+        by,
+        startMs,
+      );
+    expect(decide(t(mech2, NOW - 85 * 60_000), j, state, mech2)).toEqual({ outcome: "accept" });
+    const earlier = decide(t(mech, NOW - 90 * 60_000), j, state);
+    expect(earlier.outcome === "flag" && earlier.reason).toMatch(
+      /^A second “Sealant cure” timer was started at .* UTC while this one \(started at .* UTC\) was still running/,
+    );
+    // one started long before, that had run out when the other started, is not a repeat
+    expect(decide(t(mech, NOW - 200 * 60_000), j, state)).toEqual({ outcome: "accept" });
+  });
+
   it("a timer is cancelled by whoever started it or a supervisor; another mechanic is refused", () => {
     const j = job();
     const state = emptyMergeState();
