@@ -1,6 +1,6 @@
 import { expect, test, type Page } from "@playwright/test";
 import { query } from "./support/e2e-db";
-import { typeTag, waitForSynced } from "./support/bench-pad";
+import { openJobByTag, waitForSynced } from "./support/bench-pad";
 import { demoUser, signIn } from "./support/demo-users";
 import { acknowledgeCautions, openStep } from "./support/review-bench";
 
@@ -18,9 +18,7 @@ const CURE = "Sealant cure before oil and cranking";
 async function openJob(page: Page) {
   await signIn(page, "mechanic");
   await waitForSynced(page);
-  await typeTag(page, "GSW-0021");
-  await page.getByRole("button", { name: "Open this bike's job" }).click();
-  await expect(page.getByRole("heading", { name: "Shrike Sprint 900" })).toBeVisible();
+  await openJobByTag(page, "GSW-0021", "Shrike Sprint 900");
 }
 
 const timerRows = () =>
