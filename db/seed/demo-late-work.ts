@@ -4,7 +4,7 @@ import { formatStamp } from "@/lib/sync/hlc";
 import type { Operation, OperationKind, OperationOf } from "@/lib/sync/operations";
 import type { Database } from "../schema";
 import { mergeBatch } from "../sync/merge";
-import { insertDemoBike } from "./demo-bike";
+import { insertDemoBike, type DemoBike } from "./demo-bike";
 
 // Three invented jobs for trying what the sync does with work it cannot store at once (and for
 // the browser tests of it): work orders 1030–1032, tags GSW-0030…GSW-0032, all in build on the
@@ -41,60 +41,75 @@ export async function demoLateWorkExists(db: Kysely<Database>, shopId: string): 
   return Boolean(row);
 }
 
-/** Writes jobs 1030–1032 for the demo shop, looking up its people, customer and first bottom-end version. */
+/** Writes jobs 1030–1032 for the demo shop, on its first bottom-end version, assigned to Tomas Reyes. */
 export async function seedDemoLateWork(db: Kysely<Database>, shopId: string): Promise<void> {
-  const user = async (email: string) =>
-    (await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("email", "=", email).executeTakeFirstOrThrow()).id;
+  const jobIds = await insertAssignedDemoJobs(db, shopId, BIKES, ["bottom-end-assembly"], "Bottom-end rebuild after a spun bearing");
+  const mechanicId = await demoUserId(db, shopId, "tomas@gannet-street.test");
+  await seedYesterdaysWork(db, { shopId, mechanicId }, jobIds[0]);
+}
+
+const demoUserId = async (db: Kysely<Database>, shopId: string, email: string) =>
+  (await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("email", "=", email).executeTakeFirstOrThrow()).id;
+
+/**
+ * Invented bikes of Noor Haddad, each with a job in build on the first versions of the given
+ * demo templates, assigned to the mechanic Tomas Reyes; returns the jobs' ids in order.
+ */
+export async function insertAssignedDemoJobs(
+  db: Kysely<Database>,
+  shopId: string,
+  bikes: ReadonlyArray<DemoBike & { number: number }>,
+  templateKeys: readonly string[],
+  title: string,
+): Promise<string[]> {
   const customer = await db
     .selectFrom("customers")
     .select("id")
     .where("shop_id", "=", shopId)
     .where("email", "=", "noor.haddad@example.test")
     .executeTakeFirstOrThrow();
-  const version = await db
-    .selectFrom("template_versions as v")
-    .innerJoin("procedure_templates as t", "t.id", "v.template_id")
-    .select("v.id")
-    .where("t.shop_id", "=", shopId)
-    .where("t.key", "=", "bottom-end-assembly")
-    .orderBy("v.version")
-    .executeTakeFirstOrThrow();
-  const ids = {
-    shopId,
-    customerId: customer.id,
-    officeId: await user("maren@gannet-street.test"),
-    mechanicId: await user("tomas@gannet-street.test"),
-    bottomEndVersionId: version.id,
-  };
+  const versionIds: string[] = [];
+  for (const key of templateKeys) {
+    const version = await db
+      .selectFrom("template_versions as v")
+      .innerJoin("procedure_templates as t", "t.id", "v.template_id")
+      .select("v.id")
+      .where("t.shop_id", "=", shopId)
+      .where("t.key", "=", key)
+      .orderBy("v.version")
+      .executeTakeFirstOrThrow();
+    versionIds.push(version.id);
+  }
+  const officeId = await demoUserId(db, shopId, "maren@gannet-street.test");
+  const mechanicId = await demoUserId(db, shopId, "tomas@gannet-street.test");
   const jobIds: string[] = [];
-  for (const b of BIKES) {
-    const bikeId = await insertDemoBike(db, ids.shopId, ids.customerId, b);
+  for (const b of bikes) {
+    const bikeId = await insertDemoBike(db, shopId, customer.id, b);
     const wo = await db
       .insertInto("work_orders")
       .values({
-        shop_id: ids.shopId,
+        shop_id: shopId,
         bike_id: bikeId,
         number: b.number,
-        title: "Bottom-end rebuild after a spun bearing",
+        title,
         status: "in_build",
         complaint: "Knocking under load after an oil-pressure drop; wants the bottom end rebuilt and measured.",
         intake_odometer_km: 31_000 + b.number,
-        assigned_mechanic_id: ids.mechanicId,
+        assigned_mechanic_id: mechanicId,
         closed_at: null,
       })
       .returning("id")
       .executeTakeFirstOrThrow();
     await db
       .insertInto("work_order_transitions")
-      .values({ work_order_id: wo.id, from_status: null, to_status: "in_build", by_user_id: ids.officeId, note: "demo data" })
+      .values({ work_order_id: wo.id, from_status: null, to_status: "in_build", by_user_id: officeId, note: "demo data" })
       .execute();
-    await db
-      .insertInto("job_procedures")
-      .values({ work_order_id: wo.id, template_version_id: ids.bottomEndVersionId, position: 0 })
-      .execute();
+    for (const [position, templateVersionId] of versionIds.entries()) {
+      await db.insertInto("job_procedures").values({ work_order_id: wo.id, template_version_id: templateVersionId, position }).execute();
+    }
     jobIds.push(wo.id);
   }
-  await seedYesterdaysWork(db, ids, jobIds[0]);
+  return jobIds;
 }
 
 /** Job 1030's first three measuring steps, sent through the sync as the tablet would have sent them yesterday. */

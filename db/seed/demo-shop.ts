@@ -6,6 +6,7 @@ import type { Database } from "../schema";
 import { DEMO_PASSWORD, DEMO_USERS } from "./demo-people";
 import { createTemplateVersion } from "../templates/versions";
 import { insertDemoBike } from "./demo-bike";
+import { seedDemoBenchChecks } from "./demo-bench-checks";
 import { seedDemoDyno } from "./demo-dyno";
 import { seedDemoLateWork } from "./demo-late-work";
 import { seedDemoOffice } from "./demo-office";
@@ -197,6 +198,7 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
     }
   }
   await seedDemoLateWork(db, shopId);
+  await seedDemoBenchChecks(db, shopId);
   await seedDemoDyno(db, shopId);
   await seedDemoReview(db, shopId);
   await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);

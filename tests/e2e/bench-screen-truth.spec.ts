@@ -2,7 +2,7 @@ import { randomUUID } from "node:crypto";
 import { expect, test, type Page } from "@playwright/test";
 import { formatStamp } from "@/lib/sync/hlc";
 import { query } from "./support/e2e-db";
-import { typeTag, waitForServiceWorker, waitForSynced } from "./support/bench-pad";
+import { outboxStates as outboxStatesOf, typeTag, waitForServiceWorker, waitForSynced } from "./support/bench-pad";
 import { demoUser, signIn } from "./support/demo-users";
 import { openStep } from "./support/review-bench";
 import { fromOurPage } from "./support/same-origin";
@@ -70,23 +70,7 @@ for (const viewport of [
 /** What the tablet's outbox holds, by state (read straight from IndexedDB). */
 async function outboxStates(page: Page, userEmail: string): Promise<string[]> {
   const [{ id }] = await query<{ id: string }>("SELECT id FROM users WHERE email = $1", [userEmail]);
-  return page.evaluate(
-    (name) =>
-      new Promise<string[]>((resolve, reject) => {
-        const req = indexedDB.open(name);
-        req.onerror = () => reject(req.error);
-        req.onsuccess = () => {
-          const db = req.result;
-          const all = db.transaction("outbox").objectStore("outbox").getAll();
-          all.onsuccess = () => {
-            resolve((all.result as Array<{ state: string }>).map((e) => e.state).sort());
-            db.close();
-          };
-          all.onerror = () => reject(all.error);
-        };
-      }),
-    `benchtag-bench-${id}`,
-  );
+  return outboxStatesOf(page, id);
 }
 
 /** The bolt and pass the confirm offers now. */

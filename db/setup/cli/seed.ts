@@ -1,20 +1,26 @@
 import { createDb } from "../client";
+import { demoBenchChecksExist, seedDemoBenchChecks } from "../../seed/demo-bench-checks";
 import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
 import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
 
 // Seeds the invented demo workshop once; a second run leaves existing data alone. A shop seeded
-// before demo jobs 1030–1032 existed gets them (once) without anything else being touched.
+// before demo jobs 1030–1032 or 1020–1022 existed gets them (once) without anything else being touched.
 const db = createDb(undefined, 1);
 try {
   const shopId = await demoShopId(db);
   if (shopId === null) {
     await seedDemoShop(db);
     console.log("[seed] demo shop written");
-  } else if (!(await demoLateWorkExists(db, shopId))) {
-    await seedDemoLateWork(db, shopId);
-    console.log("[seed] demo shop present; demo jobs 1030–1032 added");
   } else {
     console.log("[seed] demo shop already present");
+    if (!(await demoLateWorkExists(db, shopId))) {
+      await seedDemoLateWork(db, shopId);
+      console.log("[seed] demo jobs 1030–1032 added");
+    }
+    if (!(await demoBenchChecksExist(db, shopId))) {
+      await seedDemoBenchChecks(db, shopId);
+      console.log("[seed] demo jobs 1020–1022 added");
+    }
   }
 } finally {
   await db.destroy();

@@ -40,3 +40,31 @@ export async function waitForSynced(page: Page) {
     .catch(() => undefined);
   await expect(page.getByTestId("waiting-count")).toHaveText("Nothing waiting to send", { timeout: 30_000 });
 }
+
+/** Types the bike's tag on the keypad and opens its job (the heading names the bike). */
+export async function openJobByTag(page: Page, tag: string, bike: string) {
+  await typeTag(page, tag);
+  await page.getByRole("button", { name: "Open this bike's job" }).click();
+  await expect(page.getByRole("heading", { name: bike })).toBeVisible();
+}
+
+/** The states of the entries in the tablet's outbox for this user, read straight from IndexedDB. */
+export async function outboxStates(page: Page, userId: string): Promise<string[]> {
+  return page.evaluate(
+    (name) =>
+      new Promise<string[]>((resolve, reject) => {
+        const req = indexedDB.open(name);
+        req.onerror = () => reject(req.error);
+        req.onsuccess = () => {
+          const db = req.result;
+          const all = db.transaction("outbox").objectStore("outbox").getAll();
+          all.onsuccess = () => {
+            resolve((all.result as Array<{ state: string }>).map((e) => e.state).sort());
+            db.close();
+          };
+          all.onerror = () => reject(all.error);
+        };
+      }),
+    `benchtag-bench-${userId}`,
+  );
+}
