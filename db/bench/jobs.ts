@@ -432,6 +432,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       passIndex: t.pass_index,
       bolt: t.bolt,
       wrenchReading: numOrNull(t.wrench_reading),
+      wrenchReadingText: t.wrench_reading === null ? null : String(t.wrench_reading),
       wrenchUnit: t.wrench_unit,
       recordedBy: t.recorded_by,
       deviceTime: iso(t.device_time),

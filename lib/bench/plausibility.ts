@@ -47,14 +47,22 @@ export function readingPlausibility(text: string, spec: SpecLimits): Plausibilit
   return reasons.length ? { kind: "confirm", reasons } : ok;
 }
 
-/** A wrench reading against the pass's target torque (null for an angle pass, which has no torque target). */
-export function wrenchPlausibility(value: number, unit: TorqueUnit, target: { value: number; unit: TorqueUnit } | null): Plausibility {
+/**
+ * A wrench reading against the pass's target torque (null for an angle pass, which has no torque
+ * target). Given as typed ("31.50"), it is named as typed in the question.
+ */
+export function wrenchPlausibility(
+  reading: number | string,
+  unit: TorqueUnit,
+  target: { value: number; unit: TorqueUnit } | null,
+): Plausibility {
+  const value = Number(reading);
   const limit = WRENCH_READING_LIMIT[unit];
   if (!Number.isFinite(value) || value <= 0) return { kind: "refuse", reason: "Wrench reading must be above zero." };
   if (value > limit) {
     return {
       kind: "refuse",
-      reason: `Wrench reading: ${value} ${unit} is beyond any fastener on an engine (the most is ${limit} ${unit}); check the wrench and type it again.`,
+      reason: `Wrench reading: ${reading} ${unit} is beyond any fastener on an engine (the most is ${limit} ${unit}); check the wrench and type it again.`,
     };
   }
   if (!target) return ok;
@@ -63,11 +71,11 @@ export function wrenchPlausibility(value: number, unit: TorqueUnit, target: { va
   if (value > aim * WRENCH_FAR_FACTOR) {
     return {
       kind: "confirm",
-      reasons: [`${value} ${unit} is far above this pass's target of ${shown}: was the bolt over-tightened, or the reading mistyped?`],
+      reasons: [`${reading} ${unit} is far above this pass's target of ${shown}: was the bolt over-tightened, or the reading mistyped?`],
     };
   }
   if (value < aim / WRENCH_FAR_FACTOR) {
-    return { kind: "confirm", reasons: [`${value} ${unit} is well below this pass's target of ${shown}: was the wrench set right?`] };
+    return { kind: "confirm", reasons: [`${reading} ${unit} is well below this pass's target of ${shown}: was the wrench set right?`] };
   }
   return ok;
 }

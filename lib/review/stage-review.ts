@@ -415,7 +415,7 @@ function stepReview(
           deviceTime: t.deviceTime,
           receivedAt: extras.receipts.get(t.id)?.receivedAt ?? null,
           deviceId: extras.receipts.get(t.id)?.deviceId ?? null,
-          wrench: t.wrenchReading === null ? null : `${t.wrenchReading} ${t.wrenchUnit ?? ""}`.trim(),
+          wrench: t.wrenchReading === null ? null : `${t.wrenchReadingText ?? t.wrenchReading} ${t.wrenchUnit ?? ""}`.trim(),
           flagReason: t.flagged ? (t.flagReason ?? null) : null,
           withdrawn: withdrawnOf(t.id),
         },

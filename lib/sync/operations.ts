@@ -8,7 +8,7 @@
  */
 import { z } from "zod";
 import { MEASUREMENT_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
-import { finiteNumber, isSaneInstant, safeText, saneInstant } from "@/lib/safe-values";
+import { isSaneInstant, safeText, saneInstant } from "@/lib/safe-values";
 import { DEVICE_ID_PATTERN, STAMP_PATTERN } from "./hlc";
 import { canonicalDecimal, decimalOfNumber, readingValueProblem } from "./reading-value";
 
@@ -76,19 +76,24 @@ export const cursorSchema = z.string().regex(/^(0|[1-9]\d{0,17})$/, "must be a c
 const stepCompletedPayload = z.object({ stepId: id() }).strict();
 
 /**
- * A reading's value: the decimal text as typed ("0.030"), kept to the digit (./reading-value.ts).
- * A JSON number from a tablet of an earlier version is still taken, as the decimal it prints as.
+ * A number read off an instrument: the decimal text as typed ("0.030"), kept to the digit
+ * (./reading-value.ts). A JSON number from a tablet of an earlier version is still taken, as the
+ * decimal it prints as.
  */
-const readingValue = z
-  .union([z.string(), z.number()], { error: "Value: must be a number as typed on the keypad, e.g. 0.030." })
-  .transform((v, ctx) => {
-    const text = typeof v === "number" ? decimalOfNumber(v) : canonicalDecimal(v);
-    if (text === null) {
-      ctx.addIssue({ code: "custom", message: "Value: must be a plain decimal number as typed on the keypad, e.g. 0.030." });
-      return z.NEVER;
-    }
-    return text;
-  });
+const typedDecimal = (label: string, example: string) =>
+  z
+    .union([z.string(), z.number()], { error: `${label}: must be a number as typed on the keypad, e.g. ${example}.` })
+    .transform((v, ctx) => {
+      const text = typeof v === "number" ? decimalOfNumber(v) : canonicalDecimal(v);
+      if (text === null) {
+        ctx.addIssue({ code: "custom", message: `${label}: must be a plain decimal number as typed on the keypad, e.g. ${example}.` });
+        return z.NEVER;
+      }
+      return text;
+    });
+
+/** A reading's value, kept to the digit. */
+const readingValue = typedDecimal("Value", "0.030");
 
 const measurementRecordedPayload = z
   .object({
@@ -122,21 +127,22 @@ const torqueBoltConfirmedPayload = z
     torqueSpecId: id(),
     passIndex: z.number().int().min(1).max(16),
     bolt: z.number().int().min(1).max(1024),
-    /** What a reading wrench showed, when one was used. */
-    wrenchReading: finiteNumber({ label: "Wrench reading", min: 0, max: WRENCH_READING_LIMIT["lbf·in"] })
-      .positive("Wrench reading must be above zero.")
-      .optional(),
+    /** What a reading wrench showed, when one was used: as typed ("31.50"), kept to the digit. */
+    wrenchReading: typedDecimal("Wrench reading", "31.50").optional(),
     wrenchUnit: z.enum(TORQUE_UNITS).optional(),
   })
   .strict()
   .refine((p) => (p.wrenchReading === undefined) === (p.wrenchUnit === undefined), {
-    message: "give wrenchReading and wrenchUnit together, or neither",
+    message: "Wrench reading: give the reading and its unit together, or neither.",
     path: ["wrenchUnit"],
   })
   .superRefine((p, ctx) => {
     if (p.wrenchReading === undefined || p.wrenchUnit === undefined) return;
     const limit = WRENCH_READING_LIMIT[p.wrenchUnit];
-    if (p.wrenchReading > limit) {
+    const reading = Number(p.wrenchReading);
+    if (!(reading > 0)) {
+      ctx.addIssue({ code: "custom", path: ["wrenchReading"], message: "Wrench reading must be above zero." });
+    } else if (reading > limit) {
       ctx.addIssue({
         code: "custom",
         path: ["wrenchReading"],

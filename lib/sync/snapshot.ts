@@ -158,6 +158,8 @@ const torqueRecordSnapshotSchema = z.object({
   passIndex: z.number().int(),
   bolt: z.number().int(),
   wrenchReading: z.number().nullable(),
+  /** The wrench reading as typed ("31.50"), kept to the digit; show this one. (Absent from older servers.) */
+  wrenchReadingText: z.string().nullable().optional(),
   wrenchUnit: z.string().nullable(),
   recordedBy: id,
   deviceTime: time,

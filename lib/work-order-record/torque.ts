@@ -19,7 +19,7 @@ export function boltRecords(
       bolt: t.bolt,
       recordedBy: t.recordedBy,
       deviceTime: t.deviceTime,
-      wrench: t.wrenchReading === null ? null : `${t.wrenchReading} ${t.wrenchUnit ?? ""}`.trim(),
+      wrench: t.wrenchReading === null ? null : `${t.wrenchReadingText ?? t.wrenchReading} ${t.wrenchUnit ?? ""}`.trim(),
       flagReason: t.flagged ? (t.flagReason ?? null) : null,
       withdrawn: withdrawn.get(t.id) ?? null,
       pending: false,

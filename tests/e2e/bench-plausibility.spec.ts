@@ -141,11 +141,11 @@ test("a wrench reading far above the pass's target is questioned; 99999 N·m is 
   await page.screenshot({ path: test.info().outputPath("wrench-absurd-refused.png") });
 
   // Confirmed: saved with the reading as typed, and the sequence moves on.
-  await retype(spec, "31.5");
+  await retype(spec, "31.50");
   await save.click();
-  await expect(prompt).toContainText("31.5 N·m is far above this pass's target of 10 N·m");
-  await spec.getByRole("button", { name: /^Yes, it is right: save 31\.5 N·m for bolt 1, pass 1$/ }).click();
+  await expect(prompt).toContainText("31.50 N·m is far above this pass's target of 10 N·m");
+  await spec.getByRole("button", { name: /^Yes, it is right: save 31\.50 N·m for bolt 1, pass 1$/ }).click();
   await expect(page.getByTestId("torque-next")).toContainText("Pass 1 of 3: bolt 2");
   await waitForSynced(page);
-  expect(await rodBoltRows()).toEqual([{ bolt: 1, pass_index: 1, wrench: "31.5", wrench_unit: "N·m" }]);
+  expect(await rodBoltRows()).toEqual([{ bolt: 1, pass_index: 1, wrench: "31.50", wrench_unit: "N·m" }]);
 });

@@ -328,6 +328,38 @@ describe("readings keep their digits", () => {
     expect(text).not.toMatch(/Main 1 0\.03 mm/);
   });
 
+  it('a wrench reading typed "31.50" is stored, sent and reviewed as "31.50"; a number from an older tablet as it printed', async () => {
+    const { fx, specs, mech, sup, a } = await setup();
+    const typed = a.bolt(specs.rodStepId, specs.rodSpecId, 1, 1);
+    typed.payload = { ...typed.payload, wrenchReading: "31.50", wrenchUnit: "N·m" };
+    const older = a.bolt(specs.rodStepId, specs.rodSpecId, 1, 2);
+    const asNumber = { ...older, payload: { ...older.payload, wrenchReading: 31.5, wrenchUnit: "N·m" } };
+    const res = await syncRoute.handle(
+      appRequest("/api/sync", {
+        method: "POST",
+        body: JSON.stringify({ ...a.batch([typed]), operations: [typed, asNumber] }),
+        headers: { "content-type": "application/json" },
+      }),
+      { user: mech, db },
+    );
+    expect(res.status).toBe(200);
+    expect(((await res.json()) as { accepted: string[] }).accepted).toEqual([typed.id, older.id]);
+    const stored = await sql<{ id: string; reading: string }>`
+      SELECT id, wrench_reading::text AS reading FROM torque_records WHERE id = ANY(${[typed.id, older.id]}::uuid[]) ORDER BY bolt`.execute(
+      db,
+    );
+    expect(stored.rows.map((r) => r.reading)).toEqual(["31.50", "31.5"]);
+    const snap = (await getJobSnapshot(db, mech, fx.workOrderId))!;
+    expect(snap.state.torqueRecords.find((t) => t.id === typed.id)).toMatchObject({ wrenchReading: 31.5, wrenchReadingText: "31.50" });
+
+    const signOff = a.make("stage.signed-off", { jobProcedureId: fx.procedures[0].id, stageKey: "assemble" });
+    await mergeBatch(db, mech, a.batch([signOff]));
+    const review = (await loadSignOffReview(db, sup, signOff.id))!;
+    const rod = review.steps.flatMap((s) => s.torque).find((t) => t.id === specs.rodSpecId)!;
+    expect(rod.passes[0].bolts[0].records).toMatchObject([{ id: typed.id, wrench: "31.50 N·m" }]);
+    expect(rod.passes[0].bolts[1].records).toMatchObject([{ id: older.id, wrench: "31.5 N·m" }]);
+  });
+
   it("the wire format refuses an absurd reading or wrench value per entry, with the field and the rule in workshop words", async () => {
     const { specs, mech, a } = await setup();
     const absurd = a.read(specs.boreStepId, specs.boreSpecId, 0, "99999");
@@ -347,7 +379,7 @@ describe("readings keep their digits", () => {
         ),
       },
     ]);
-    const tooTight = { ...wrench, payload: { ...wrench.payload, wrenchReading: 99999, wrenchUnit: "N·m" as const } };
+    const tooTight = { ...wrench, payload: { ...wrench.payload, wrenchReading: "99999", wrenchUnit: "N·m" as const } };
     const res2 = await syncRoute.handle(
       appRequest("/api/sync", {
         method: "POST",

@@ -3,6 +3,7 @@
 import { useState } from "react";
 import { wrenchPlausibility } from "@/lib/bench/plausibility";
 import { boltLayout } from "@/lib/calc/tightening-sequence";
+import { canonicalDecimal } from "@/lib/sync/reading-value";
 import type { StepView, TorqueProgress } from "@/lib/work-order-record";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 import { useBench } from "./bench-context";
@@ -54,7 +55,7 @@ function TorqueSpecPanel({
   const { user } = useBench();
   const record = useRecordBolt(jobId, view);
   const [wrench, setWrench] = useState<string | null>(null);
-  const [asking, setAsking] = useState<{ target: BoltTarget; value: number; reasons: string[] } | null>(null);
+  const [asking, setAsking] = useState<{ target: BoltTarget; text: string; reasons: string[] } | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
   const { spec, passes, sequence, confirmed, next } = progress;
   const target = nextBolt(progress);
@@ -62,19 +63,21 @@ function TorqueSpecPanel({
   const pass = next ? passes.find((p) => p.index === next.passIndex)! : passes[passes.length - 1];
   const order = new Map(sequence.map((b, i) => [b, i + 1]));
   const reading = wrench === null ? null : parseEntry(wrench);
+  // kept as typed ("31.50"): the digits say what the wrench reads to
+  const readingText = wrench === null ? null : canonicalDecimal(wrench);
   const name = (id: string) => people.find((p) => p.id === id)?.name ?? "someone";
 
   /** The wrench reading's first tap: refuse the impossible, question the unlikely, save the rest. */
   async function saveWrench(t: BoltTarget) {
-    if (reading === null) return;
+    if (reading === null || readingText === null) return;
     const p = passes.find((x) => x.index === t.passIndex)!;
-    const verdict = wrenchPlausibility(reading, user.torqueUnit, p.kind === "torque" ? { value: p.target, unit: p.unit } : null);
+    const verdict = wrenchPlausibility(readingText, user.torqueUnit, p.kind === "torque" ? { value: p.target, unit: p.unit } : null);
     if (verdict.kind === "refuse") return setProblem(verdict.reason);
-    if (verdict.kind === "confirm") return setAsking({ target: t, value: reading, reasons: verdict.reasons });
-    await keepWrench(t, reading);
+    if (verdict.kind === "confirm") return setAsking({ target: t, text: readingText, reasons: verdict.reasons });
+    await keepWrench(t, readingText);
   }
-  async function keepWrench(t: BoltTarget, value: number) {
-    await record(t, value);
+  async function keepWrench(t: BoltTarget, text: string) {
+    await record(t, text);
     setAsking(null);
     setProblem(null);
     setWrench(null);
@@ -195,8 +198,8 @@ function TorqueSpecPanel({
                   {asking ? (
                     <PlausibilityPrompt
                       reasons={asking.reasons}
-                      value={`${asking.value} ${user.torqueUnit} for bolt ${asking.target.bolt}, pass ${asking.target.passIndex}`}
-                      onConfirm={() => void keepWrench(asking.target, asking.value)}
+                      value={`${asking.text} ${user.torqueUnit} for bolt ${asking.target.bolt}, pass ${asking.target.passIndex}`}
+                      onConfirm={() => void keepWrench(asking.target, asking.text)}
                       onBack={() => setAsking(null)}
                     />
                   ) : (

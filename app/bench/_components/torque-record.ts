@@ -41,8 +41,8 @@ export function boltLabel(progress: TorqueProgress, target: BoltTarget, shopUnit
   return `Bolt ${target.bolt} of ${progress.spec.boltCount} — pass ${target.passIndex} of ${progress.passes.length} — ${passTarget(pass, shopUnit)}`;
 }
 
-/** Records a bolt of a step's torque spec (with a wrench reading when given); syncs after a finished pass. */
-export function useRecordBolt(jobId: string, view: StepView): (target: BoltTarget, wrenchReading?: number) => Promise<void> {
+/** Records a bolt of a step's torque spec (with a wrench reading, as typed, when given); syncs after a finished pass. */
+export function useRecordBolt(jobId: string, view: StepView): (target: BoltTarget, wrenchReading?: string) => Promise<void> {
   const { db, user, syncNow } = useBench();
   const author = useAuthor();
   return async (target, wrenchReading) => {
