@@ -1,4 +1,5 @@
 import { createDb } from "../client";
+import { demoAftercareExists, seedDemoAftercare } from "../../seed/demo-aftercare";
 import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
 import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
 
@@ -13,6 +14,9 @@ try {
   } else if (!(await demoLateWorkExists(db, shopId))) {
     await seedDemoLateWork(db, shopId);
     console.log("[seed] demo shop present; demo jobs 1030–1032 added");
+  } else if (!(await demoAftercareExists(db, shopId))) {
+    await seedDemoAftercare(db, shopId);
+    console.log("[seed] demo shop present; demo jobs 1040–1041 (come-backs and reminders) added");
   } else {
     console.log("[seed] demo shop already present");
   }

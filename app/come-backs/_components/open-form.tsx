@@ -1,0 +1,58 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { api, ApiError } from "@/app/ui/api-client";
+import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
+
+// Opens a come-back for a handed-over job: what the rider reports, the odometer, warranty claimed.
+export function OpenComeBackForm({ originalWorkOrderId, originalNumber }: { originalWorkOrderId: string; originalNumber: number }) {
+  const router = useRouter();
+  const [error, setError] = useState<string | null>(null);
+  const [fields, setFields] = useState<Record<string, string>>({});
+  const [busy, setBusy] = useState(false);
+  async function onSubmit(e: React.FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const f = new FormData(e.currentTarget);
+    const km = String(f.get("odometerKm") ?? "").trim();
+    setBusy(true);
+    setError(null);
+    setFields({});
+    try {
+      const r = await api<{ id: string }>("POST", "/api/come-backs", {
+        originalWorkOrderId,
+        riderReport: String(f.get("riderReport") ?? ""),
+        odometerKm: km === "" ? Number.NaN : Number(km),
+        warrantyClaimed: f.get("warrantyClaimed") === "yes",
+      });
+      router.push(`/come-backs/${r.id}`);
+    } catch (err) {
+      setError((err as Error).message);
+      if (err instanceof ApiError) setFields(Object.fromEntries(err.issues.map((i) => [i.path, i.message])));
+      setBusy(false);
+    }
+  }
+  return (
+    <form onSubmit={onSubmit} noValidate className="grid max-w-2xl gap-4" data-testid="open-come-back">
+      <Field label="What the rider reports" name="riderReport" error={fields.riderReport}>
+        <textarea id="riderReport" name="riderReport" rows={4} maxLength={2000} className={`${inputClass} py-2`} />
+      </Field>
+      <Field label="Odometer now (km)" name="odometerKm" error={fields.odometerKm}>
+        <input id="odometerKm" name="odometerKm" inputMode="numeric" className={inputClass} />
+      </Field>
+      <fieldset className="flex flex-wrap gap-4">
+        <legend className="mb-1 text-base font-bold">Does the rider claim warranty?</legend>
+        <label className="flex min-h-16 items-center gap-3 rounded-lg border-2 border-steel-700 px-4 text-lg">
+          <input type="radio" name="warrantyClaimed" value="yes" className="h-6 w-6" /> Yes, claims warranty
+        </label>
+        <label className="flex min-h-16 items-center gap-3 rounded-lg border-2 border-steel-700 px-4 text-lg">
+          <input type="radio" name="warrantyClaimed" value="no" defaultChecked className="h-6 w-6" /> No claim
+        </label>
+      </fieldset>
+      <FormMessage error={error} />
+      <button type="submit" disabled={busy} className={`${buttonClass} min-h-16`}>
+        {busy ? "Opening…" : `Open a come-back of job #${originalNumber}`}
+      </button>
+    </form>
+  );
+}
