@@ -154,6 +154,15 @@ export async function markReminderDone(
   });
 }
 
+/** Reminders (`r`) with their work order (`w`), bike (`b`) and the bike's owner (`c`). */
+function remindersWithBike(db: Kysely<Database>) {
+  return db
+    .selectFrom("service_reminders as r")
+    .innerJoin("work_orders as w", "w.id", "r.work_order_id")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .innerJoin("customers as c", "c.id", "b.customer_id");
+}
+
 /**
  * The shop's reminders not done (and those done in the last 30 days), or every reminder of one
  * work order, with where each stands today.
@@ -161,11 +170,7 @@ export async function markReminderDone(
 export async function listReminders(db: Kysely<Database>, shopId: string, o: { at?: Date; workOrderId?: string } = {}) {
   const at = o.at;
   const { today } = await shopDay(db, shopId, at);
-  const rows = await db
-    .selectFrom("service_reminders as r")
-    .innerJoin("work_orders as w", "w.id", "r.work_order_id")
-    .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .innerJoin("customers as c", "c.id", "b.customer_id")
+  const rows = await remindersWithBike(db)
     .leftJoin("service_reminder_done as d", "d.reminder_id", "r.id")
     .leftJoin("users as du", "du.id", "d.recorded_by")
     .leftJoin("mail_outbox as m", (j) => j.on("m.shop_id", "=", shopId).on("m.cause", "=", sql<string>`'reminder:' || r.id`))
@@ -205,12 +210,8 @@ export type ReminderRow = Awaited<ReturnType<typeof listReminders>>["rows"][numb
  * workers handing the same reminder on make one e-mail.
  */
 export async function dueReminderMails(db: Kysely<Database>, at?: Date): Promise<QueuedMail[]> {
-  const rows = await db
-    .selectFrom("service_reminders as r")
+  const rows = await remindersWithBike(db)
     .innerJoin("shops as s", "s.id", "r.shop_id")
-    .innerJoin("work_orders as w", "w.id", "r.work_order_id")
-    .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .innerJoin("customers as c", "c.id", "b.customer_id")
     .select([
       "r.id",
       "r.shop_id as shopId",

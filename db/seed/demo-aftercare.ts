@@ -1,11 +1,9 @@
 import { randomUUID } from "node:crypto";
 import type { Kysely } from "kysely";
 import { addDays, dayIn } from "@/lib/aftercare/reminders";
-import { formatStamp } from "@/lib/sync/hlc";
-import type { Operation, OperationKind, OperationOf } from "@/lib/sync/operations";
 import type { Database } from "../schema";
-import { mergeBatch } from "../sync/merge";
 import { insertDemoBike } from "./demo-bike";
+import { demoTablet, sendDemoWork } from "./demo-tablet";
 
 // Invented jobs for come-backs and reminders: work orders 1040 and 1041, tags GSW-1040 and
 // GSW-1041, owner Ida Brannock (all invented). Both ran the demo bottom-end and first-start
@@ -162,20 +160,8 @@ async function seedBuild(
     .where("jp.work_order_id", "=", workOrderId)
     .where("s.key", "in", ["piston-clearance", "ring-gap", "rod-bolts"])
     .execute();
-  const ops: Operation[] = [];
-  const make = <K extends OperationKind>(kind: K, payload: OperationOf<K>["payload"]) => {
-    const at = start + ops.length * 40_000;
-    ops.push({
-      id: randomUUID(),
-      kind,
-      workOrderId,
-      authorId: mechanic.id,
-      deviceId: DEVICE,
-      deviceTime: new Date(at).toISOString(),
-      stamp: formatStamp({ wallMs: at, counter: 0, deviceId: DEVICE }),
-      payload,
-    } as Operation);
-  };
+  const tablet = demoTablet(workOrderId, mechanic.id, DEVICE, start);
+  const make = tablet.make;
   for (const s of specs) {
     if (!s.specId || !READINGS[s.specKey!]) continue;
     READINGS[s.specKey!].forEach((value, readingIndex) =>
@@ -192,10 +178,5 @@ async function seedBuild(
     quantity: 4,
     supplier: "Fenwick Bearings",
   });
-  await mergeBatch(
-    db,
-    { id: mechanic.id, shopId, role: "mechanic", name: mechanic.name, email: mechanic.email, customerId: null },
-    { deviceId: DEVICE, cursor: null, operations: ops },
-    { nowMs: start + ops.length * 40_000 },
-  );
+  await sendDemoWork(db, shopId, mechanic, tablet, DEVICE);
 }

@@ -79,7 +79,11 @@ test("a mechanic scanning a handed-over bike is told to ask; a supervisor opens 
 test("the office sees the overdue run-in check and records it done", async ({ page }) => {
   await signIn(page, "office");
   await page.getByRole("link", { name: "Reminders" }).click();
-  const row = page.getByTestId("reminders-due").getByTestId("reminder-row").filter({ hasText: "#1041" }).filter({ hasText: "Run-in check" });
+  const row = page
+    .getByTestId("reminders-due")
+    .getByTestId("reminder-row")
+    .filter({ hasText: "#1041" })
+    .filter({ hasText: "Run-in check" });
   await expect(row).toContainText("✖ Overdue");
   await expect(row).toContainText("Ardley Six Hundred");
   await checkSizes(page, "reminders");

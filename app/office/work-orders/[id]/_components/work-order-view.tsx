@@ -22,6 +22,7 @@ const MAIL_KIND = {
   deposit_received: "Deposit received",
   bike_ready: "Bike ready",
   review_needed: "Readings out of tolerance, for the supervisor",
+  service_reminder: "Reminder (run-in or service)",
 } as const;
 
 export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string; currency: string; taxRateBp: number; warning?: string }) {
