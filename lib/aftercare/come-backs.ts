@@ -44,7 +44,7 @@ export const comeBackFindingSchema = z
   .object({
     underWarranty: z.boolean({ error: "Say whether the work is done under warranty." }),
     cause: z.enum(COME_BACK_CAUSES, { error: "Choose what caused the come-back." }),
-    note: safeText({ label: "Finding", min: 3, max: COME_BACK_TEXT_MAX, multiline: true, tooShort: "Write down what was found." }),
+    note: safeText({ label: "What was found", min: 3, max: COME_BACK_TEXT_MAX, multiline: true, tooShort: "Write down what was found." }),
     replacesId: z.uuid({ error: "The finding to replace is not a valid id." }).nullable().optional(),
   })
   .strict();

@@ -64,7 +64,7 @@ test("a mechanic scanning a handed-over bike is told to ask; a supervisor opens 
 
   await page.getByLabel("What caused it").selectOption("part_failed");
   await page.getByLabel("Yes, under warranty").check();
-  await page.getByLabel("Finding").fill("Rod bearing shell of batch LOT-26-0412 picked up; shells replaced from another batch.");
+  await page.getByLabel("What was found").fill("Rod bearing shell of batch LOT-26-0412 picked up; shells replaced from another batch.");
   await page.getByRole("button", { name: "Record the finding" }).click();
   await expect(page.getByTestId("finding")).toContainText("▶ Current: A part failed · under warranty");
   await checkSizes(page, "come-back");

@@ -212,7 +212,7 @@ describe("findings on a come-back", () => {
       replacesId: f1.id,
     });
     expect(long.status).toBe(400);
-    expect(JSON.stringify(await long.json())).toContain("Finding: at most 2000 characters.");
+    expect(JSON.stringify(await long.json())).toContain("What was found: at most 2000 characters.");
     const badCause = await finding(job.users.office, made.id, {
       underWarranty: false,
       cause: "shrug",

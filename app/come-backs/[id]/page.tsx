@@ -56,7 +56,18 @@ export default async function ComeBackPage({ params }: { params: Promise<{ id: s
         <span className="font-bold">Warranty:</span> {c.warrantyClaimed ? "⚑ claimed by the rider" : "○ not claimed"}
       </p>
 
-      <section className="mt-6 rounded-xl border-2 border-steel-300 bg-white p-4" aria-labelledby="findings-heading">
+      <section className="mt-6" aria-labelledby="sbs-heading">
+        <h2 id="sbs-heading" className="text-2xl font-bold">
+          The original build beside what is found now
+        </h2>
+        <p className="mb-4 text-lg">
+          Left: job #{original.job.number} as handed over. Right: this come-back&apos;s own record (its readings, torque and parts as the
+          bench records them).
+        </p>
+        <SideBySide original={original} now={now} />
+      </section>
+
+      <section className="mt-8 rounded-xl border-2 border-steel-300 bg-white p-4" aria-labelledby="findings-heading">
         <h2 id="findings-heading" className="text-2xl font-bold">
           Findings
         </h2>
@@ -85,17 +96,6 @@ export default async function ComeBackPage({ params }: { params: Promise<{ id: s
         <div className="mt-4">
           <FindingForm comeBackId={c.id} replacesId={current?.id ?? null} />
         </div>
-      </section>
-
-      <section className="mt-8" aria-labelledby="sbs-heading">
-        <h2 id="sbs-heading" className="text-2xl font-bold">
-          The original build beside what is found now
-        </h2>
-        <p className="mb-4 text-lg">
-          Left: job #{original.job.number} as handed over. Right: this come-back&apos;s own record (its readings, torque and parts as the
-          bench records them).
-        </p>
-        <SideBySide original={original} now={now} />
       </section>
     </AppFrame>
   );

@@ -58,7 +58,7 @@ export function FindingForm({ comeBackId, replacesId }: { comeBackId: string; re
           <input type="radio" name="underWarranty" value="no" defaultChecked className="h-6 w-6" /> No, charged
         </label>
       </fieldset>
-      <Field label="Finding" name="note" error={fields.note} hint="At most 2000 characters.">
+      <Field label="What was found" name="note" error={fields.note} hint="At most 2000 characters.">
         <textarea id="note" name="note" rows={3} maxLength={2000} className={`${inputClass} py-2`} />
       </Field>
       <FormMessage error={error} />

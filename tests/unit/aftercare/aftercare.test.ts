@@ -70,7 +70,7 @@ describe("come-back input", () => {
       "Odometer must be between 0 and 2,000,000 km.",
     ]);
     const f = comeBackFindingSchema.safeParse({ underWarranty: true, cause: "our_workmanship", note: "z".repeat(2001) });
-    expect(f.error!.issues.map((i) => i.message)).toEqual(["Finding: at most 2000 characters."]);
+    expect(f.error!.issues.map((i) => i.message)).toEqual(["What was found: at most 2000 characters."]);
   });
 
   it("tells a mechanic to ask, and offers the come-back to those who may open one", () => {
