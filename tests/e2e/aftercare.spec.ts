@@ -33,6 +33,9 @@ test("a mechanic scanning a handed-over bike is told to ask; a supervisor opens 
     /^Bike GSW-1040 was handed over on .+ \(job #1040\) and has no open job\. If it is back with a fault, ask the office or a supervisor to open a come-back\.$/,
   );
   await expect(mp.getByTestId("come-back-offer")).toHaveCount(0);
+  // the come-back pages are not the mechanic's: sent back to the bench
+  await mp.goto("/come-backs");
+  await expect(mp).toHaveURL(/\/bench\?refused=come-backs$/);
   await mech.close();
 
   const context = await browser.newContext();
