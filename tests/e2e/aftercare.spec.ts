@@ -98,4 +98,16 @@ test("the office sees the overdue run-in check and records it done", async ({ pa
   await expect(done).toContainText("✔ Done");
   await expect(done).toContainText("by Maren Ostby — Oil and filter changed, filter clean.");
   await expect(page.getByTestId("reminders-due").getByTestId("reminder-row").filter({ hasText: "#1041" })).toHaveCount(0);
+
+  // the work order shows its reminders and offers a come-back; so does the bike's page
+  await done.getByRole("link", { name: "#1041" }).click();
+  const after = page.getByTestId("aftercare");
+  await expect(after.getByTestId("work-order-reminders")).toContainText("Run-in check and first oil change");
+  await expect(after.getByTestId("work-order-reminders")).toContainText("Done");
+  await expect(after.getByTestId("open-come-back-link")).toBeVisible();
+  await page
+    .getByRole("link", { name: /Ardley Six Hundred/ })
+    .first()
+    .click();
+  await expect(page.getByTestId("bike-come-back-link")).toHaveText("Back with a fault? Open a come-back of job #1041");
 });

@@ -6,8 +6,18 @@ import type { ComeBackView } from "@/db/aftercare/come-backs";
 
 type Report = ComeBackView["original"];
 
-function Cells<T>({ rows, show, testId }: { rows: PairedRow<T>[]; show: (t: T) => React.ReactNode; testId: string }) {
-  if (!rows.length) return <p className="text-lg">Nothing recorded on either job.</p>;
+function Cells<T>({
+  rows,
+  show,
+  testId,
+  none = "Nothing recorded on either job.",
+}: {
+  rows: PairedRow<T>[];
+  show: (t: T) => React.ReactNode;
+  testId: string;
+  none?: string;
+}) {
+  if (!rows.length) return <p className="text-lg">{none}</p>;
   return (
     <table className="w-full table-fixed border-collapse text-left text-lg" data-testid={testId}>
       <thead>
@@ -118,6 +128,7 @@ export function SideBySide({ original, now }: { original: Report; now: Report })
         <Cells
           rows={tunes}
           testId="sbs-tunes"
+          none="No tune file on either job."
           show={(t) => (
             <span>
               <span className="font-bold">{t.label}</span> · {t.fileName} · <span className="font-mono">{t.sha256.slice(0, 12)}</span>
@@ -128,6 +139,7 @@ export function SideBySide({ original, now }: { original: Report; now: Report })
           <Cells
             rows={runs}
             testId="sbs-runs"
+            none="No dyno run on either job."
             show={(run) => {
               const s = summariseRun(run);
               const p = s.curve.peaks.correctedPowerKw;

@@ -20,7 +20,7 @@ const MARK: Record<ReminderState, { mark: string; className: string }> = {
 
 const MAIL: Record<string, string> = { queued: "e-mail waiting", sending: "e-mail being sent", sent: "e-mailed", failed: "e-mail failed" };
 
-function Rows({ rows, testId }: { rows: ReminderRow[]; testId: string }) {
+function Rows({ rows, testId, today }: { rows: ReminderRow[]; testId: string; today: string }) {
   if (!rows.length) return <p className="mt-2 text-lg">None.</p>;
   const td = "py-2 pr-4 align-top";
   return (
@@ -57,7 +57,15 @@ function Rows({ rows, testId }: { rows: ReminderRow[]; testId: string }) {
               {r.make} {r.model} · <span className="font-mono">{r.tagCode}</span>
               <span className="block text-base">{r.customerName}</span>
             </td>
-            <td className={td}>{r.mailState ? MAIL[r.mailState] : r.customerEmail ? "on its day" : "no e-mail address"}</td>
+            <td className={td}>
+              {r.mailState
+                ? MAIL[r.mailState]
+                : !r.customerEmail
+                  ? "no e-mail address"
+                  : r.dueOn <= today
+                    ? "to be sent shortly"
+                    : "on its day"}
+            </td>
             <td className={td}>
               {r.doneAt ? (
                 <span className="text-base">
@@ -88,15 +96,15 @@ export default async function RemindersPage() {
       </p>
       <section className="mt-6">
         <h2 className="text-2xl font-bold">Overdue and due this week</h2>
-        <Rows rows={pick("overdue", "due")} testId="reminders-due" />
+        <Rows rows={pick("overdue", "due")} testId="reminders-due" today={today} />
       </section>
       <section className="mt-8">
         <h2 className="text-2xl font-bold">Coming up</h2>
-        <Rows rows={pick("coming")} testId="reminders-coming" />
+        <Rows rows={pick("coming")} testId="reminders-coming" today={today} />
       </section>
       <section className="mt-8">
         <h2 className="text-2xl font-bold">Done in the last 30 days</h2>
-        <Rows rows={pick("done")} testId="reminders-done" />
+        <Rows rows={pick("done")} testId="reminders-done" today={today} />
       </section>
     </AppFrame>
   );
