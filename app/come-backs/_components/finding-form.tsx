@@ -1,38 +1,31 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState } from "react";
-import { api, ApiError } from "@/app/ui/api-client";
+import { api } from "@/app/ui/api-client";
 import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
-import { CAUSE_LABELS, COME_BACK_CAUSES } from "@/lib/aftercare/come-backs";
+import { useCheckedForm } from "@/app/ui/use-checked-form";
+import { CAUSE_LABELS, COME_BACK_CAUSES, comeBackFindingSchema } from "@/lib/aftercare/come-backs";
 
 // Records a finding on a come-back; with one on record, the new one replaces it (both stay on file).
 export function FindingForm({ comeBackId, replacesId }: { comeBackId: string; replacesId: string | null }) {
   const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const [fields, setFields] = useState<Record<string, string>>({});
-  const [busy, setBusy] = useState(false);
+  const { errors: fields, message, busy, submit } = useCheckedForm();
   async function onSubmit(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const form = e.currentTarget;
     const f = new FormData(form);
-    setBusy(true);
-    setError(null);
-    setFields({});
-    try {
-      await api("POST", `/api/come-backs/${comeBackId}/findings`, {
-        underWarranty: f.get("underWarranty") === "yes",
-        cause: String(f.get("cause") ?? ""),
-        note: String(f.get("note") ?? ""),
-        replacesId,
-      });
+    const values = {
+      underWarranty: f.get("underWarranty") === "yes",
+      cause: String(f.get("cause") ?? ""),
+      note: String(f.get("note") ?? ""),
+      replacesId,
+    };
+    const sent = await submit(comeBackFindingSchema, values, async (data) => {
+      await api("POST", `/api/come-backs/${comeBackId}/findings`, data);
+    });
+    if (sent) {
       form.reset();
       router.refresh();
-    } catch (err) {
-      setError((err as Error).message);
-      if (err instanceof ApiError) setFields(Object.fromEntries(err.issues.map((i) => [i.path, i.message])));
-    } finally {
-      setBusy(false);
     }
   }
   return (
@@ -61,7 +54,7 @@ export function FindingForm({ comeBackId, replacesId }: { comeBackId: string; re
       <Field label="What was found" name="note" error={fields.note} hint="At most 2000 characters.">
         <textarea id="note" name="note" rows={3} maxLength={2000} className={`${inputClass} py-2`} />
       </Field>
-      <FormMessage error={error} />
+      <FormMessage error={message.error} />
       <button type="submit" disabled={busy} className={`${buttonClass} min-h-16`}>
         {busy ? "Recording…" : replacesId ? "Record a new finding (replaces the one above)" : "Record the finding"}
       </button>

@@ -1,36 +1,29 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState } from "react";
-import { api, ApiError } from "@/app/ui/api-client";
+import { api } from "@/app/ui/api-client";
 import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
+import { useCheckedForm } from "@/app/ui/use-checked-form";
+import { openComeBackSchema } from "@/lib/aftercare/come-backs";
 
 // Opens a come-back for a handed-over job: what the rider reports, the odometer, warranty claimed.
 export function OpenComeBackForm({ originalWorkOrderId, originalNumber }: { originalWorkOrderId: string; originalNumber: number }) {
   const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const [fields, setFields] = useState<Record<string, string>>({});
-  const [busy, setBusy] = useState(false);
+  const { errors: fields, message, busy, submit } = useCheckedForm();
   async function onSubmit(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const f = new FormData(e.currentTarget);
     const km = String(f.get("odometerKm") ?? "").trim();
-    setBusy(true);
-    setError(null);
-    setFields({});
-    try {
-      const r = await api<{ id: string }>("POST", "/api/come-backs", {
-        originalWorkOrderId,
-        riderReport: String(f.get("riderReport") ?? ""),
-        odometerKm: km === "" ? Number.NaN : Number(km),
-        warrantyClaimed: f.get("warrantyClaimed") === "yes",
-      });
+    const values = {
+      originalWorkOrderId,
+      riderReport: String(f.get("riderReport") ?? ""),
+      odometerKm: km === "" ? null : Number(km),
+      warrantyClaimed: f.get("warrantyClaimed") === "yes",
+    };
+    await submit(openComeBackSchema, values, async (data) => {
+      const r = await api<{ id: string }>("POST", "/api/come-backs", data);
       router.push(`/come-backs/${r.id}`);
-    } catch (err) {
-      setError((err as Error).message);
-      if (err instanceof ApiError) setFields(Object.fromEntries(err.issues.map((i) => [i.path, i.message])));
-      setBusy(false);
-    }
+    });
   }
   return (
     <form onSubmit={onSubmit} noValidate className="grid max-w-2xl gap-4" data-testid="open-come-back">
@@ -49,7 +42,7 @@ export function OpenComeBackForm({ originalWorkOrderId, originalNumber }: { orig
           <input type="radio" name="warrantyClaimed" value="no" defaultChecked className="h-6 w-6" /> No claim
         </label>
       </fieldset>
-      <FormMessage error={error} />
+      <FormMessage error={message.error} />
       <button type="submit" disabled={busy} className={`${buttonClass} min-h-16`}>
         {busy ? "Opening…" : `Open a come-back of job #${originalNumber}`}
       </button>

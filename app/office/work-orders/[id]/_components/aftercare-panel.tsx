@@ -2,10 +2,10 @@
 
 import { useQueryClient } from "@tanstack/react-query";
 import Link from "next/link";
-import { useState } from "react";
-import { api, ApiError } from "@/app/ui/api-client";
+import { api } from "@/app/ui/api-client";
 import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
-import { dayLabel, REMINDER_STATE_LABELS } from "@/lib/aftercare/reminders";
+import { useCheckedForm } from "@/app/ui/use-checked-form";
+import { dayLabel, newReminderSchema, REMINDER_STATE_LABELS } from "@/lib/aftercare/reminders";
 import type { WorkOrderData } from "./types";
 
 // After handover: the come-backs of this job (or the job this one is a come-back of), opening a
@@ -72,9 +72,7 @@ export function AftercarePanel({ data }: { data: WorkOrderData }) {
 
 function AddReminder({ workOrderId }: { workOrderId: string }) {
   const qc = useQueryClient();
-  const [error, setError] = useState<string | null>(null);
-  const [ok, setOk] = useState<string | null>(null);
-  const [fields, setFields] = useState<Record<string, string>>({});
+  const { errors: fields, message, submit } = useCheckedForm();
   return (
     <form
       noValidate
@@ -85,21 +83,18 @@ function AddReminder({ workOrderId }: { workOrderId: string }) {
         const form = e.currentTarget;
         const f = new FormData(form);
         const km = String(f.get("dueOdometerKm") ?? "").trim();
-        setError(null);
-        setOk(null);
-        setFields({});
-        try {
-          await api("POST", `/api/office/work-orders/${workOrderId}/reminders`, {
-            label: String(f.get("label") ?? ""),
-            dueOn: String(f.get("dueOn") ?? ""),
-            dueOdometerKm: km === "" ? null : Number(km),
-          });
+        const values = {
+          label: String(f.get("label") ?? ""),
+          dueOn: String(f.get("dueOn") ?? ""),
+          dueOdometerKm: km === "" ? null : Number(km),
+        };
+        const sent = await submit(newReminderSchema, values, async (data) => {
+          await api("POST", `/api/office/work-orders/${workOrderId}/reminders`, data);
+          return "Reminder added.";
+        });
+        if (sent) {
           form.reset();
-          setOk("Reminder added.");
           await qc.invalidateQueries({ queryKey: ["work-order", workOrderId] });
-        } catch (err) {
-          setError((err as Error).message);
-          if (err instanceof ApiError) setFields(Object.fromEntries(err.issues.map((i) => [i.path, i.message])));
         }
       }}
     >
@@ -116,7 +111,7 @@ function AddReminder({ workOrderId }: { workOrderId: string }) {
         Add reminder
       </button>
       <div className="md:col-span-4">
-        <FormMessage error={error} ok={ok} />
+        <FormMessage error={message.error} ok={message.ok} />
       </div>
     </form>
   );
