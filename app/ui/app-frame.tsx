@@ -14,6 +14,8 @@ const NAV: Array<{ href: string; label: string; area: Area }> = [
   { href: "/office/templates", label: "Templates", area: "templates" },
   { href: "/office/parts", label: "Parts", area: "office" },
   { href: "/office/labels", label: "Labels", area: "office" },
+  { href: "/office/reminders", label: "Reminders", area: "office" },
+  { href: "/come-backs", label: "Come-backs", area: "come-backs" },
   { href: "/office/outbox-mail", label: "E-mail outbox", area: "office" },
   { href: "/office/users", label: "Sign-ins", area: "users" },
   { href: "/calculators", label: "Numbers", area: "calculators" },

@@ -3,7 +3,7 @@ import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { mayWorkOn } from "@/lib/sync/merge-rules";
 import type { BenchJobSummary, JobSnapshot, TagLookup } from "@/lib/sync/snapshot";
-import { isOpenForBenchWork, OPEN_FOR_BENCH_WORK, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { CLOSED_STATUSES, isOpenForBenchWork, OPEN_FOR_BENCH_WORK, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import type { Database } from "../schema";
 import { torqueSpecOfRow } from "../templates/documents";
 import { shopCursor } from "../sync/changes";
@@ -85,7 +85,10 @@ export async function listBenchJobs(db: Kysely<Database>, user: SessionUser): Pr
     }));
 }
 
-export type TagResult = { found: "job"; job: TagLookup } | { found: "bike-without-job"; tagCode: string } | { found: "nothing" };
+export type TagResult =
+  | { found: "job"; job: TagLookup }
+  | { found: "bike-without-job"; tagCode: string; bikeId: string; openElsewhere: boolean }
+  | { found: "nothing" };
 
 /** The bike with this tag in the user's shop, and its job open for bench work (the newest, if several). */
 export async function findJobByTag(db: Kysely<Database>, user: SessionUser, tagCode: string): Promise<TagResult> {
@@ -105,7 +108,17 @@ export async function findJobByTag(db: Kysely<Database>, user: SessionUser, tagC
     .orderBy("created_at", "desc")
     .orderBy("number", "desc")
     .executeTakeFirst();
-  if (!job) return { found: "bike-without-job", tagCode: bike.tag_code };
+  if (!job) {
+    // a job open but not on the bench (booked in, quoted, ready…) is not a come-back case
+    const open = await db
+      .selectFrom("work_orders")
+      .select("id")
+      .where("bike_id", "=", bike.id)
+      .where("shop_id", "=", user.shopId)
+      .where("status", "not in", CLOSED_STATUSES)
+      .executeTakeFirst();
+    return { found: "bike-without-job", tagCode: bike.tag_code, bikeId: bike.id, openElsewhere: Boolean(open) };
+  }
   return {
     found: "job",
     job: { workOrderId: job.id, number: job.number, bike: { id: bike.id, tagCode: bike.tag_code, make: bike.make, model: bike.model } },

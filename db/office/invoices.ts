@@ -1,4 +1,5 @@
 import "server-only";
+import { setRemindersAtHandover } from "../aftercare/reminders";
 import type { Kysely, Transaction } from "kysely";
 import { Refusal } from "@/lib/errors";
 import type { OverrideRequest } from "@/lib/work-orders/transition-rules";
@@ -22,7 +23,8 @@ export async function handOver<R>(db: Kysely<Database>, shopId: string, userId: 
       const moved = await moveWorkOrder(trx, shopId, userId, workOrderId, "handed_over", { note: opts.note, override: opts.override });
       const invoice = await createFinalInvoice(trx, shopId, userId, workOrderId);
       const report = await opts.storeReport(trx);
-      return { ...moved, invoice, report };
+      const reminders = await setRemindersAtHandover(trx, shopId, userId, workOrderId);
+      return { ...moved, invoice, report, reminders };
     });
   } catch (e) {
     if (e instanceof MoveRefusal) await appendAudit(db, e.audit);

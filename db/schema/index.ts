@@ -1,4 +1,5 @@
 import type { Selectable } from "kysely";
+import type { AftercareTables } from "./aftercare";
 import type { AuditTables } from "./audit";
 import type { BenchTables } from "./bench";
 import type { DynoTables } from "./dyno";
@@ -24,6 +25,7 @@ export interface Database
     AuditTables,
     SessionTables,
     SyncTables,
-    MailTables {}
+    MailTables,
+    AftercareTables {}
 
 export type User = Selectable<UsersTable>;

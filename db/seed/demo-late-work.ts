@@ -1,10 +1,7 @@
-import { randomUUID } from "node:crypto";
 import type { Kysely } from "kysely";
-import { formatStamp } from "@/lib/sync/hlc";
-import type { Operation, OperationKind, OperationOf } from "@/lib/sync/operations";
 import type { Database } from "../schema";
-import { mergeBatch } from "../sync/merge";
 import { insertDemoBike, type DemoBike } from "./demo-bike";
+import { demoTablet, sendDemoWork } from "./demo-tablet";
 
 // Three invented jobs for trying what the sync does with work it cannot store at once (and for
 // the browser tests of it): work orders 1030–1032, tags GSW-0030…GSW-0032, all in build on the
@@ -125,21 +122,8 @@ async function seedYesterdaysWork(db: Kysely<Database>, ids: { shopId: string; m
     .orderBy("m.key")
     .execute();
   const mechanic = await db.selectFrom("users").select(["id", "name", "email"]).where("id", "=", ids.mechanicId).executeTakeFirstOrThrow();
-  const start = Date.now() - 26 * 3600_000;
-  const ops: Operation[] = [];
-  const make = <K extends OperationKind>(kind: K, payload: OperationOf<K>["payload"]) => {
-    const at = start + ops.length * 40_000;
-    ops.push({
-      id: randomUUID(),
-      kind,
-      workOrderId,
-      authorId: ids.mechanicId,
-      deviceId: DEVICE,
-      deviceTime: new Date(at).toISOString(),
-      stamp: formatStamp({ wallMs: at, counter: 0, deviceId: DEVICE }),
-      payload,
-    } as Operation);
-  };
+  const tablet = demoTablet(workOrderId, ids.mechanicId, DEVICE, Date.now() - 26 * 3600_000);
+  const make = tablet.make;
   for (const stepKey of ["bore-cyl-1", "piston-clearance", "ring-gap"]) {
     const specs = steps.filter((s) => s.stepKey === stepKey && s.specId !== null);
     for (const s of specs) {
@@ -149,10 +133,5 @@ async function seedYesterdaysWork(db: Kysely<Database>, ids: { shopId: string; m
     }
     make("step.completed", { stepId: specs[0].stepId });
   }
-  await mergeBatch(
-    db,
-    { id: mechanic.id, shopId: ids.shopId, role: "mechanic", name: mechanic.name, email: mechanic.email, customerId: null },
-    { deviceId: DEVICE, cursor: null, operations: ops },
-    { nowMs: start + ops.length * 40_000 },
-  );
+  await sendDemoWork(db, ids.shopId, mechanic, tablet, DEVICE);
 }

@@ -6,6 +6,7 @@ import type { Database } from "../schema";
 import { DEMO_PASSWORD, DEMO_USERS } from "./demo-people";
 import { createTemplateVersion } from "../templates/versions";
 import { insertDemoBike } from "./demo-bike";
+import { seedDemoAftercare } from "./demo-aftercare";
 import { seedDemoBenchChecks } from "./demo-bench-checks";
 import { seedDemoDyno } from "./demo-dyno";
 import { seedDemoLateWork } from "./demo-late-work";
@@ -202,5 +203,6 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
   await seedDemoDyno(db, shopId);
   await seedDemoReview(db, shopId);
   await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
+  await seedDemoAftercare(db, shopId);
   return { shopId };
 }

@@ -119,64 +119,67 @@ export async function pageWorkOrders(db: Kysely<Database>, shopId: string, o: Pa
 // the intake note, in one transaction.
 export async function bookIn(db: Kysely<Database>, shopId: string, userId: string, input: IntakeInput) {
   const i = intakeSchema.parse(input);
-  return db.transaction().execute(async (trx) => {
-    const bike = await trx.selectFrom("bikes").select("id").where("id", "=", i.bikeId).where("shop_id", "=", shopId).executeTakeFirst();
-    if (!bike) throw new Refusal("Choose a bike from this shop.", 422, [{ path: "bikeId", message: "unknown bike" }]);
-    const open = await trx
-      .selectFrom("work_orders")
-      .select("number")
-      .where("bike_id", "=", i.bikeId)
-      .where("status", "not in", CLOSED_STATUSES)
-      .executeTakeFirst();
-    if (open)
-      throw new Refusal(`This bike already has an open work order (#${open.number}).`, 409, [
-        { path: "bikeId", message: `work order #${open.number} is still open` },
-      ]);
-    await trx.selectFrom("shops").select("id").where("id", "=", shopId).forUpdate().execute();
-    const last = await trx
-      .selectFrom("work_orders")
-      .select((eb) => eb.fn.max("number").as("n"))
-      .where("shop_id", "=", shopId)
-      .executeTakeFirst();
-    const number = (last?.n ?? 1000) + 1;
-    const wo = await trx
-      .insertInto("work_orders")
-      .values({
-        shop_id: shopId,
-        bike_id: i.bikeId,
-        number,
-        title: i.title,
-        status: "booked_in",
-        complaint: i.complaint,
-        intake_odometer_km: i.odometerKm,
-        assigned_mechanic_id: null,
-        closed_at: null,
-      })
-      .returning(["id", "number"])
-      .executeTakeFirstOrThrow();
-    await trx
-      .insertInto("work_order_transitions")
-      .values({ work_order_id: wo.id, from_status: null, to_status: "booked_in", by_user_id: userId, note: "booked in" })
-      .execute();
-    const note = await trx
-      .insertInto("work_order_notes")
-      .values({ shop_id: shopId, work_order_id: wo.id, kind: "intake", body: i.complaint, author_id: userId })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    await appendAudit(trx, [
-      {
-        shopId,
-        actorId: userId,
-        action: "work_order.book_in",
-        entity: "work_order",
-        entityId: wo.id,
-        workOrderId: wo.id,
-        outcome: "accepted",
-        detail: { number, odometerKm: i.odometerKm },
-      },
+  return db.transaction().execute((trx) => bookInWith(trx, shopId, userId, i));
+}
+
+/** bookIn inside the caller's transaction (a come-back books the bike in with its link in one transaction). */
+export async function bookInWith(trx: Trx, shopId: string, userId: string, i: ReturnType<typeof intakeSchema.parse>) {
+  const bike = await trx.selectFrom("bikes").select("id").where("id", "=", i.bikeId).where("shop_id", "=", shopId).executeTakeFirst();
+  if (!bike) throw new Refusal("Choose a bike from this shop.", 422, [{ path: "bikeId", message: "unknown bike" }]);
+  const open = await trx
+    .selectFrom("work_orders")
+    .select("number")
+    .where("bike_id", "=", i.bikeId)
+    .where("status", "not in", CLOSED_STATUSES)
+    .executeTakeFirst();
+  if (open)
+    throw new Refusal(`This bike already has an open work order (#${open.number}).`, 409, [
+      { path: "bikeId", message: `work order #${open.number} is still open` },
     ]);
-    return { ...wo, intakeNoteId: note.id };
-  });
+  await trx.selectFrom("shops").select("id").where("id", "=", shopId).forUpdate().execute();
+  const last = await trx
+    .selectFrom("work_orders")
+    .select((eb) => eb.fn.max("number").as("n"))
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
+  const number = (last?.n ?? 1000) + 1;
+  const wo = await trx
+    .insertInto("work_orders")
+    .values({
+      shop_id: shopId,
+      bike_id: i.bikeId,
+      number,
+      title: i.title,
+      status: "booked_in",
+      complaint: i.complaint,
+      intake_odometer_km: i.odometerKm,
+      assigned_mechanic_id: null,
+      closed_at: null,
+    })
+    .returning(["id", "number"])
+    .executeTakeFirstOrThrow();
+  await trx
+    .insertInto("work_order_transitions")
+    .values({ work_order_id: wo.id, from_status: null, to_status: "booked_in", by_user_id: userId, note: "booked in" })
+    .execute();
+  const note = await trx
+    .insertInto("work_order_notes")
+    .values({ shop_id: shopId, work_order_id: wo.id, kind: "intake", body: i.complaint, author_id: userId })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  await appendAudit(trx, [
+    {
+      shopId,
+      actorId: userId,
+      action: "work_order.book_in",
+      entity: "work_order",
+      entityId: wo.id,
+      workOrderId: wo.id,
+      outcome: "accepted",
+      detail: { number, odometerKm: i.odometerKm },
+    },
+  ]);
+  return { ...wo, intakeNoteId: note.id };
 }
 
 async function lockWorkOrder(trx: Trx, shopId: string, id: string) {

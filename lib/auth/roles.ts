@@ -17,6 +17,7 @@ export type Area =
   | "dyno" // record and compare dyno runs on a work order
   | "dyno-withdraw" // withdraw a dyno run recorded by mistake (with a reason; it stays on record)
   | "build-report" // download a work order's handover build report (customers: their own bikes only)
+  | "come-backs" // open a come-back on a handed-over bike, see it beside the original build, record findings
   | "calculators"; // engine numbers: compression, charge air, ring gaps, oil clearance, torque units
 
 const AREAS: Record<Area, readonly Role[]> = {
@@ -33,6 +34,7 @@ const AREAS: Record<Area, readonly Role[]> = {
   dyno: ["office", "supervisor", "mechanic"],
   "dyno-withdraw": ["office", "supervisor"],
   calculators: ["mechanic", "supervisor", "office"],
+  "come-backs": ["office", "supervisor"],
   "build-report": ["office", "supervisor", "customer"],
 };
 

@@ -53,6 +53,20 @@ export const tagLookupSchema = z.object({
   bike: z.object({ id, tagCode: z.string(), make: z.string(), model: z.string() }),
 });
 
+/** GET /api/bench/tags/[code] for a bike with no open job whose last job was handed over (a possible come-back). */
+export const handedOverLookupSchema = z.object({
+  handedOver: z.object({
+    workOrderId: id,
+    number: z.number().int(),
+    title: z.string(),
+    tagCode: z.string(),
+    handedOverOn: z.string().nullable(),
+    openComeBack: z.object({ id, number: z.number().int() }).nullable(),
+    /** Whether the person asking may open a come-back (office or supervisor). */
+    canOpenComeBack: z.boolean(),
+  }),
+});
+
 const torqueSpecSnapshotSchema = z.object({
   id,
   label: z.string(),
@@ -294,4 +308,5 @@ export const jobSnapshotSchema = z.object({
 
 export type BenchJobSummary = z.output<typeof benchJobSummarySchema>;
 export type TagLookup = z.output<typeof tagLookupSchema>;
+export type HandedOverLookup = z.output<typeof handedOverLookupSchema>["handedOver"];
 export type JobSnapshot = z.output<typeof jobSnapshotSchema>;

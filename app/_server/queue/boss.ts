@@ -28,6 +28,7 @@ export async function startBoss(o: QueueOptions = {}): Promise<PgBoss> {
   await ensureQueue(boss, settle, QUEUES.mail, { ...retry, expireInSeconds: 120 });
   await ensureQueue(boss, settle, QUEUES.reviewNotices, { retryLimit: 3, retryDelay: 30, retryBackoff: true });
   await ensureQueue(boss, settle, QUEUES.sweep, { retryLimit: 0 });
+  await ensureQueue(boss, settle, QUEUES.reminders, { retryLimit: 2, retryDelay: 60, retryBackoff: true });
   return boss;
 }
 

@@ -5,6 +5,7 @@ import { STATUS_LABELS } from "@/lib/work-orders/status";
 import { useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { go } from "./hash-route";
+import { ComeBackOffer } from "./come-back-offer";
 import { TagKeypad } from "./tag-keypad";
 import { lookUpTag } from "./tag-lookup";
 import { useLive } from "./use-live";
@@ -14,6 +15,7 @@ export function HomeScreen() {
   const { db } = useBench();
   const [message, setMessage] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
+  const [comeBackFrom, setComeBackFrom] = useState<{ workOrderId: string; number: number } | null>(null);
   const listed = useLive(() => db.jobList.toArray(), [db], []);
   const stored = useLive(() => db.jobs.toArray(), [db], []);
   const storedIds = new Set(stored.map((s) => s.id));
@@ -31,10 +33,14 @@ export function HomeScreen() {
   async function open(code: string) {
     setBusy(true);
     setMessage(null);
+    setComeBackFrom(null);
     try {
       const r = await lookUpTag(db, code);
       if (r.ok) go({ screen: "job", jobId: r.jobId });
-      else setMessage(r.message);
+      else {
+        setMessage(r.message);
+        setComeBackFrom(r.comeBackFrom ?? null);
+      }
     } catch (e) {
       setMessage(e instanceof Error ? e.message : String(e));
     } finally {
@@ -62,6 +68,7 @@ export function HomeScreen() {
             {message}
           </p>
         )}
+        {comeBackFrom && <ComeBackOffer from={comeBackFrom} />}
       </section>
       <section aria-labelledby="jobs-heading">
         <h2 id="jobs-heading" className="text-2xl font-bold">

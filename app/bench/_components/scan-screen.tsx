@@ -3,6 +3,7 @@
 import { useEffect, useRef, useState } from "react";
 import { useBench } from "./bench-context";
 import { BigButton } from "./big-button";
+import { ComeBackOffer } from "./come-back-offer";
 import { go } from "./hash-route";
 import { lookUpTag } from "./tag-lookup";
 
@@ -13,6 +14,7 @@ export function ScanScreen() {
   const { db } = useBench();
   const [message, setMessage] = useState<string>("Starting the camera…");
   const [failed, setFailed] = useState(false);
+  const [comeBackFrom, setComeBackFrom] = useState<{ workOrderId: string; number: number } | null>(null);
   const done = useRef(false);
 
   useEffect(() => {
@@ -36,6 +38,7 @@ export function ScanScreen() {
             else {
               setFailed(true);
               setMessage(r.message);
+              setComeBackFrom(r.comeBackFrom ?? null);
             }
           },
           () => undefined,
@@ -59,6 +62,7 @@ export function ScanScreen() {
       <p role="status" data-testid="scan-message" className={`text-xl font-bold ${failed ? "text-fail" : ""}`}>
         {message}
       </p>
+      {comeBackFrom && <ComeBackOffer from={comeBackFrom} />}
       <BigButton tone="plain" onClick={() => go({ screen: "home" })}>
         Type the tag code instead
       </BigButton>

@@ -2,9 +2,12 @@
 
 import type { BenchDb } from "@/lib/client/bench-db";
 import { refreshJobCopy } from "@/lib/client/sync-client";
-import { tagLookupSchema } from "@/lib/sync/snapshot";
+import { handedOverMessage } from "@/lib/aftercare/come-backs";
+import { handedOverLookupSchema, tagLookupSchema } from "@/lib/sync/snapshot";
 
-export type TagResult = { ok: true; jobId: string } | { ok: false; message: string };
+/** A failed look-up; for a handed-over bike, the job a come-back may be opened from (office and supervisors only). */
+export type TagResult =
+  { ok: true; jobId: string } | { ok: false; message: string; comeBackFrom?: { workOrderId: string; number: number } };
 
 export function normaliseTag(raw: string): string {
   return raw.trim().toUpperCase().replace(/\s+/g, "");
@@ -25,7 +28,17 @@ export async function lookUpTag(db: BenchDb, raw: string): Promise<TagResult> {
     return { ok: false, message: body.error ?? `No bike with tag ${code} in this shop.` };
   }
   if (!res.ok) return { ok: false, message: `Could not look up tag ${code} (HTTP ${res.status}).` };
-  const found = tagLookupSchema.parse(await res.json());
+  const body: unknown = await res.json();
+  const handed = handedOverLookupSchema.safeParse(body);
+  if (handed.success) {
+    const h = handed.data.handedOver;
+    return {
+      ok: false,
+      message: handedOverMessage(h),
+      comeBackFrom: h.canOpenComeBack ? { workOrderId: h.workOrderId, number: h.number } : undefined,
+    };
+  }
+  const found = tagLookupSchema.parse(body);
   await refreshJobCopy(db, found.workOrderId);
   return { ok: true, jobId: found.workOrderId };
 }

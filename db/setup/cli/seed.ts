@@ -1,10 +1,11 @@
 import { createDb } from "../client";
+import { demoAftercareExists, seedDemoAftercare } from "../../seed/demo-aftercare";
 import { demoBenchChecksExist, seedDemoBenchChecks } from "../../seed/demo-bench-checks";
 import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
 import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
 
 // Seeds the invented demo workshop once; a second run leaves existing data alone. A shop seeded
-// before demo jobs 1030–1032 or 1020–1022 existed gets them (once) without anything else being touched.
+// before demo jobs 1030–1032, 1020–1022 or 1040–1041 existed gets them (once) without anything else being touched.
 const db = createDb(undefined, 1);
 try {
   const shopId = await demoShopId(db);
@@ -20,6 +21,10 @@ try {
     if (!(await demoBenchChecksExist(db, shopId))) {
       await seedDemoBenchChecks(db, shopId);
       console.log("[seed] demo jobs 1020–1022 added");
+    }
+    if (!(await demoAftercareExists(db, shopId))) {
+      await seedDemoAftercare(db, shopId);
+      console.log("[seed] demo jobs 1040–1041 (come-backs and reminders) added");
     }
   }
 } finally {

@@ -1,4 +1,7 @@
 import type { Metadata } from "next";
+import { buttonClass } from "@/app/ui/form-field";
+import { handedOverJobOfBike } from "@/db/aftercare/come-backs";
+import { isClosed } from "@/lib/work-orders/status";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { z } from "zod";
@@ -25,6 +28,11 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
   const { bike, workOrders, parts, measurements, withdrawn } = rec;
   const office = canReach(user.role, "office");
   const contact = canReach(user.role, "customer-contact");
+  // a handed-over bike with nothing open: offer a come-back of its last job (office and supervisors)
+  const comeBackFrom =
+    canReach(user.role, "come-backs") && !workOrders.some((w) => !isClosed(w.status))
+      ? await handedOverJobOfBike(db(), user.shopId, bike.id)
+      : null;
   return (
     <AppFrame user={user} current="/office/customers">
       <div className="flex flex-wrap items-start gap-6">
@@ -82,6 +90,17 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
 
       <section className="mt-8">
         <h2 className="text-2xl font-bold">Work orders</h2>
+        {comeBackFrom && (
+          <p className="mt-2">
+            <Link
+              href={`/come-backs/new?original=${comeBackFrom.workOrderId}`}
+              className={`${buttonClass} inline-flex min-h-16 items-center`}
+              data-testid="bike-come-back-link"
+            >
+              Back with a fault? Open a come-back of job #{comeBackFrom.number}
+            </Link>
+          </p>
+        )}
         {workOrders.length === 0 && <p className="mt-2">None yet.</p>}
         <ul className="mt-2 space-y-2">
           {workOrders.map((w) => (

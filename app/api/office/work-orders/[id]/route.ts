@@ -1,5 +1,7 @@
 import { reviseAfterAcceptedChange } from "@/app/_server/frozen-report";
 import { idParam, route } from "@/app/_server/route";
+import { comeBackLinksOf } from "@/db/aftercare/come-backs";
+import { listReminders } from "@/db/aftercare/reminders";
 import { invoiceOf } from "@/db/office/invoices";
 import { stepsOfWorkOrder } from "@/db/office/parts";
 import { quotesOfWorkOrder } from "@/db/office/quotes";
@@ -13,13 +15,14 @@ import { allowedNextStatuses } from "@/lib/work-orders/status";
 
 // Everything the work-order page shows, in one answer: the job, its quotes and invoice, what is
 // still open on its record (the checklist the gates on "ready" and "handed over" read), the
-// office's overrides, and the stored copies of the build report (brought up to date first).
+// office's overrides, the stored copies of the build report (brought up to date first), its
+// come-backs (or the job it is a come-back of) and its reminders.
 export const GET = route({ access: { area: "office" }, params: ["id"] }, async ({ user, params, db }) => {
   const id = idParam(params.id);
   const detail = await workOrderDetail(db, user.shopId, id);
   if (!detail) throw new Refusal("No such work order in this shop.", 404);
   if (detail.status === "handed_over") await reviseAfterAcceptedChange(db, user.shopId, id, null);
-  const [quotes, invoice, mechanics, templates, steps, openItems, overrides, reports] = await Promise.all([
+  const [quotes, invoice, mechanics, templates, steps, openItems, overrides, reports, comeBacks, reminders] = await Promise.all([
     quotesOfWorkOrder(db, user.shopId, id),
     invoiceOf(db, user.shopId, id),
     mechanicsOf(db, user.shopId),
@@ -28,6 +31,8 @@ export const GET = route({ access: { area: "office" }, params: ["id"] }, async (
     loadOpenItems(db, user.shopId, id),
     overridesOf(db, user.shopId, id),
     reportRevisionsOf(db, user.shopId, id),
+    comeBackLinksOf(db, user.shopId, id),
+    listReminders(db, user.shopId, { workOrderId: id }),
   ]);
   return {
     workOrder: detail,
@@ -40,5 +45,7 @@ export const GET = route({ access: { area: "office" }, params: ["id"] }, async (
     openItems: openItems ?? [],
     overrides,
     reports,
+    comeBacks,
+    reminders: reminders.rows,
   };
 });

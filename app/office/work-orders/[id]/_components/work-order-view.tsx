@@ -7,6 +7,7 @@ import { READY_FOR_BUILD_NOTICE } from "@/lib/office/deposit-notice";
 import { STATUS_LABELS } from "@/lib/work-orders/status";
 import { dayTime } from "@/app/ui/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
+import { AftercarePanel } from "./aftercare-panel";
 import { BuildProgressPanel } from "./build-progress-panel";
 import { NotesPanel } from "./notes-panel";
 import { OpenItemsPanel } from "./open-items-panel";
@@ -21,6 +22,7 @@ const MAIL_KIND = {
   deposit_received: "Deposit received",
   bike_ready: "Bike ready",
   review_needed: "Readings out of tolerance, for the supervisor",
+  service_reminder: "Reminder (run-in or service)",
 } as const;
 
 export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string; currency: string; taxRateBp: number; warning?: string }) {
@@ -95,6 +97,7 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
         <StatusPanel data={data} onGateRefused={() => setGateRefused(true)} />
         <AssignPanel data={data} />
       </div>
+      <AftercarePanel data={data} />
       <OpenItemsPanel data={data} highlight={gateRefused} />
       <ReportCopies data={data} />
       <BuildProgressPanel workOrderId={wo.id} number={wo.number} />
