@@ -17,6 +17,7 @@ import * as m040 from "./2026_12_03_040_sync_pending";
 import * as m030 from "./2026_12_03_030_withdrawals_and_timer_reasons";
 import * as m020 from "./2026_12_03_020_closed_record";
 import * as m060 from "./2026_12_04_060_mail_outbox";
+import * as m091 from "./2026_12_05_091_bench_clocks";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -40,4 +41,5 @@ export const migrations: Record<string, Migration> = {
   "2026_12_03_030_withdrawals_and_timer_reasons": m030,
   "2026_12_03_020_closed_record": m020,
   "2026_12_04_060_mail_outbox": m060,
+  "2026_12_05_091_bench_clocks": m091,
 };

@@ -1,6 +1,7 @@
 import type { Selectable } from "kysely";
 import type { AuditTables } from "./audit";
 import type { BenchTables } from "./bench";
+import type { ClockTables } from "./clocks";
 import type { DynoTables } from "./dyno";
 import type { MailTables } from "./mail";
 import type { OfficeTables } from "./office";
@@ -24,6 +25,7 @@ export interface Database
     AuditTables,
     SessionTables,
     SyncTables,
-    MailTables {}
+    MailTables,
+    ClockTables {}
 
 export type User = Selectable<UsersTable>;

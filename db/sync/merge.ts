@@ -37,6 +37,7 @@ interface Refused {
 function targetsCreated(op: Operation): string[] {
   if (op.kind === "measurement.recorded") return [op.id];
   if (op.kind === "timer.started") return [op.payload.timerId];
+  if (op.kind === "clock.on") return [op.payload.clockId];
   return [];
 }
 
@@ -47,6 +48,9 @@ function addMissing(state: MergeState, more: MergeState): void {
   for (const k of more.attachmentIds) state.attachmentIds.add(k);
   for (const k of more.partIds) state.partIds.add(k);
   for (const [k, v] of more.partSerials) if (!state.partSerials.has(k)) state.partSerials.set(k, v);
+  for (const [k, v] of more.clock.clocks) if (!state.clock.clocks.has(k)) state.clock.clocks.set(k, v);
+  for (const e of more.clock.ends)
+    if (!state.clock.ends.some((x) => x.clockId === e.clockId && x.endedAtMs === e.endedAtMs)) state.clock.ends.push(e);
 }
 
 /**
@@ -120,7 +124,7 @@ export async function mergeBatch(
     const newTargets = new Set<string>();
     const keep = (op: Operation, decision: KeptOperation["decision"]) => {
       kept.push({ op, decision });
-      noteAccepted(op, state);
+      noteAccepted(op, state, jobs.get(op.workOrderId)?.number);
       for (const t of targetsCreated(op)) newTargets.add(t);
     };
     let waiting: HeldOperation[] = [];

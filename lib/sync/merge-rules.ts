@@ -7,6 +7,7 @@ import { canReach, type Role } from "@/lib/auth/roles";
 import { sameMeasurementKind, type MeasurementUnit } from "@/lib/calc/units";
 import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { compareStamps, parseStamp } from "./hlc";
+import { clockAuthority, clockFlags, clockProblem, noteClock, type ClockState } from "./clocks";
 import { describeHold, holdAt, runningAt, type HoldTimer } from "./holds";
 import type { Operation } from "./operations";
 import { partSerialOnWorkOrder, repeatedSerialReason, type SerialOnFile } from "./parts";
@@ -110,6 +111,8 @@ export interface MergeState {
   bolts: Map<string, BoltOnFile[]>;
   /** Entries a withdrawal may name: those the batch names on file, and every one accepted earlier in the batch. */
   entries: Map<string, EntryFacts>;
+  /** Clocks of the batch's authors (one open clock per mechanic) and the ends on record (./clocks.ts). */
+  clock: ClockState;
 }
 
 export function emptyMergeState(): MergeState {
@@ -121,6 +124,7 @@ export function emptyMergeState(): MergeState {
     partSerials: new Map(),
     bolts: new Map(),
     entries: new Map(),
+    clock: { clocks: new Map(), ends: [] },
   };
 }
 
@@ -143,7 +147,7 @@ export interface DecisionInput {
 
 /** A record an operation acts on, which must be on file before it can be applied. */
 export interface Target {
-  kind: "reading" | "timer";
+  kind: "reading" | "timer" | "clock";
   id: string;
 }
 
@@ -232,6 +236,7 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
   flags.push(...holdFlags(op, job, input.state, stamp.wallMs));
   flags.push(...secondTimerFlags(op, job, input.state));
   flags.push(...withdrawalFlags(op, job, input.state));
+  flags.push(...clockFlags(op, input.state.clock));
   // Held only once everything else checks out; the flags are worked out again when it is applied.
   if (problem) return { outcome: "wait", ...problem };
   return flags.length ? { outcome: "flag", reason: flags.join(" ") } : accept;
@@ -343,6 +348,8 @@ export function timerTarget(timerId: string, job: { id: string; number: number }
 
 /** Who may take something back: withdrawals and timer cancels name an entry of the author's own, or come from a supervisor. */
 function checkAuthority(op: Operation, actor: Actor, job: WorkOrderFacts, state: MergeState): string | null {
+  const clock = clockAuthority(op, actor.id, state.clock);
+  if (clock) return clock;
   if (op.kind === "entry.withdrawn") {
     const found = withdrawalTarget(op.payload.operationId, job, state.entries);
     return found.found ? withdrawalRefusal(actor, found.target) : found.reason;
@@ -413,6 +420,8 @@ export function targetOf(op: Operation): Target | null {
     case "timer.overridden":
     case "timer.cancelled":
       return { kind: "timer", id: op.payload.timerId };
+    case "clock.off":
+      return { kind: "clock", id: op.payload.clockId };
     default:
       return null;
   }
@@ -420,6 +429,7 @@ export function targetOf(op: Operation): Target | null {
 
 /** Whether the record `target` names is on file or was kept earlier in this merge. */
 export function targetPresent(target: Target, state: MergeState): boolean {
+  if (target.kind === "clock") return state.clock.clocks.has(target.id);
   return target.kind === "reading" ? state.readings.has(target.id) : state.timers.has(target.id);
 }
 
@@ -429,7 +439,12 @@ type Missing = { reason: string; target: Target };
 function waitFor(op: Operation, state: MergeState): Missing | null {
   const target = targetOf(op);
   if (!target || targetPresent(target, state)) return null;
-  const what = target.kind === "reading" ? `the reading it corrects (${target.id})` : `the start of timer ${target.id}`;
+  const what =
+    target.kind === "reading"
+      ? `the reading it corrects (${target.id})`
+      : target.kind === "clock"
+        ? `the clock-on of clock ${target.id}`
+        : `the start of timer ${target.id}`;
   return { target, reason: `Held on the server until ${what} arrives; it is applied then, in stamp order.` };
 }
 
@@ -501,6 +516,13 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
     }
     case "entry.withdrawn":
       return null; // checkAuthority looks up the entry
+    case "clock.on":
+    case "clock.off": {
+      const stages = (jobProcedureId: string, stageKey: string) =>
+        [...job.steps.values()].some((s) => s.jobProcedureId === jobProcedureId && s.stageKey === stageKey);
+      const problem = clockProblem(op, { id: job.id, number: job.number, stages }, state.clock);
+      return problem === "missing" ? waitFor(op, state) : problem;
+    }
     case "photo.queued": {
       const missing = stepMissing(op.payload.stepId);
       if (missing) return missing;
@@ -526,7 +548,7 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
 }
 
 /** Adds what an accepted operation created to the state, so later operations in the batch can name it. */
-export function noteAccepted(op: Operation, state: MergeState): void {
+export function noteAccepted(op: Operation, state: MergeState, jobNumber = 0): void {
   const entry: EntryFacts = { workOrderId: op.workOrderId, kind: op.kind, authorId: op.authorId, withdrawn: false };
   if (!state.entries.has(op.id)) state.entries.set(op.id, entry);
   switch (op.kind) {
@@ -588,6 +610,10 @@ export function noteAccepted(op: Operation, state: MergeState): void {
     }
     case "photo.queued":
       state.attachmentIds.add(op.payload.attachmentId);
+      return;
+    case "clock.on":
+    case "clock.off":
+      noteClock(op, jobNumber, state.clock);
       return;
     case "part.fitted": {
       const p = op.payload;

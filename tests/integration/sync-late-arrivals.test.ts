@@ -69,7 +69,9 @@ type Event =
   | { t: "override"; which: number; why: number }
   | { t: "photo" }
   | { t: "part" }
-  | { t: "signOff" };
+  | { t: "signOff" }
+  | { t: "clockOn"; onStage: boolean }
+  | { t: "clockOff"; which: number; afterS: number };
 
 const eventArb: fc.Arbitrary<Event> = fc.oneof(
   fc.record({ t: fc.constant("complete" as const), step: fc.nat(3) }),
@@ -83,6 +85,8 @@ const eventArb: fc.Arbitrary<Event> = fc.oneof(
   fc.record({ t: fc.constant("photo" as const) }),
   fc.record({ t: fc.constant("part" as const) }),
   fc.record({ t: fc.constant("signOff" as const) }),
+  fc.record({ t: fc.constant("clockOn" as const), onStage: fc.boolean() }),
+  fc.record({ t: fc.constant("clockOff" as const), which: fc.nat(5), afterS: fc.nat(60_000) }),
 );
 
 const DEVICE = "late-tab";
@@ -97,6 +101,7 @@ function materialize(
   const ops: Operation[] = [];
   const readings: Array<{ symbol: string; at: number }> = [];
   const timers: Array<{ symbol: string; startedAt: number }> = [];
+  const clocks: Array<{ symbol: string; startedAt: number }> = [];
   const steps = [specs.boreStepId, specs.rodStepId, specs.caseBoltsStepId, specs.cureStepId];
   events.forEach((e, i) => {
     const at = T0 + i * 1000;
@@ -181,6 +186,18 @@ function materialize(
         });
       case "signOff":
         return make("stage.signed-off", { jobProcedureId: job.jobProcedureId, stageKey: "measure" });
+      case "clockOn":
+        clocks.push({ symbol: `clock${i}`, startedAt: at });
+        return make("clock.on", {
+          clockId: idFor(`clock${i}`),
+          startedAt: new Date(at).toISOString(),
+          ...(e.onStage ? { jobProcedureId: job.jobProcedureId, stageKey: "measure" } : {}),
+        });
+      case "clockOff": {
+        if (!clocks.length) return make("step.completed", { stepId: specs.boreStepId });
+        const c = clocks[e.which % clocks.length];
+        return make("clock.off", { clockId: idFor(c.symbol), endedAt: new Date(c.startedAt + e.afterS * 1000).toISOString() });
+      }
     }
   });
   return ops;
@@ -190,7 +207,11 @@ function materialize(
 async function tablesOf(workOrderId: string, symbolOf: Map<string, string>): Promise<unknown> {
   const r = await sql<{ t: string; row: Record<string, unknown> }>`
     SELECT 'operations' AS t, jsonb_build_object('id', id, 'kind', kind, 'author', author_id, 'device', device_id, 'time', device_time,
-      'stamp', stamp, 'payload', payload, 'flagged', flagged, 'flag_reason', flag_reason) AS row FROM operations WHERE work_order_id = ${workOrderId}
+      'stamp', stamp, 'payload', payload,
+      -- a clock-on's flag (another clock of the same person still running) is decided on arrival and
+      -- names clocks on other jobs: compared by the unit property of lib/clock/spans.ts instead
+      'flagged', CASE WHEN kind = 'clock.on' THEN NULL ELSE flagged END,
+      'flag_reason', CASE WHEN kind = 'clock.on' THEN NULL ELSE flag_reason END) AS row FROM operations WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'step_completions', to_jsonb(c) - 'received_at' - 'work_order_id' FROM step_completions c WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'measurements', to_jsonb(m) - 'received_at' - 'work_order_id' FROM measurements m WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'current', to_jsonb(m) - 'received_at' - 'work_order_id' FROM current_measurements m WHERE work_order_id = ${workOrderId}
@@ -199,6 +220,8 @@ async function tablesOf(workOrderId: string, symbolOf: Map<string, string>): Pro
     UNION ALL SELECT 'sign_offs', to_jsonb(x) - 'received_at' - 'work_order_id' - 'job_procedure_id' FROM sign_offs x WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'photos', to_jsonb(x) - 'created_at' - 'work_order_id' - 'object_key' FROM attachments x WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'parts', to_jsonb(x) - 'work_order_id' FROM parts_fitted x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'clocks', to_jsonb(x) - 'received_at' - 'work_order_id' - 'shop_id' FROM bench_clocks x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'clock_ends', to_jsonb(x) - 'id' - 'recorded_at' - 'work_order_id' FROM bench_clock_ends x WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'held', jsonb_build_object('id', id, 'resolution', resolution) FROM sync_pending_operations WHERE work_order_id = ${workOrderId}
   `.execute(db);
   const text = JSON.stringify(r.rows).replace(
