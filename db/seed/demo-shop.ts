@@ -7,6 +7,7 @@ import { DEMO_PASSWORD, DEMO_USERS } from "./demo-people";
 import { createTemplateVersion } from "../templates/versions";
 import { insertDemoBike } from "./demo-bike";
 import { seedDemoDyno } from "./demo-dyno";
+import { seedDemoBenchTime } from "./demo-bench-time";
 import { seedDemoLateWork } from "./demo-late-work";
 import { seedDemoOffice } from "./demo-office";
 import { seedDemoReview } from "./demo-review";
@@ -200,5 +201,6 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
   await seedDemoDyno(db, shopId);
   await seedDemoReview(db, shopId);
   await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
+  await seedDemoBenchTime(db, shopId);
   return { shopId };
 }

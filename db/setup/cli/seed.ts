@@ -1,4 +1,5 @@
 import { createDb } from "../client";
+import { demoBenchTimeExists, seedDemoBenchTime } from "../../seed/demo-bench-time";
 import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
 import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
 
@@ -15,6 +16,10 @@ try {
     console.log("[seed] demo shop present; demo jobs 1030–1032 added");
   } else {
     console.log("[seed] demo shop already present");
+  }
+  if (shopId !== null && !(await demoBenchTimeExists(db, shopId))) {
+    await seedDemoBenchTime(db, shopId);
+    console.log("[seed] demo jobs 1060–1061 (time at the bench) added");
   }
 } finally {
   await db.destroy();
