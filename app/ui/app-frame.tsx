@@ -28,8 +28,19 @@ const MORE_AT_LEAST = 3;
 
 const ROLE_LABEL = { mechanic: "Mechanic", supervisor: "Supervisor", office: "Office", customer: "Customer" } as const;
 
-const linkClass = (here: boolean) =>
-  `flex min-h-12 items-center whitespace-nowrap rounded-lg px-3 text-base font-bold ${here ? "bg-signal text-ink" : "text-white underline-offset-4 hover:underline"}`;
+function NavLink({ link, current }: { link: (typeof NAV)[number]; current: string }) {
+  const here = current === link.href;
+  return (
+    <Link
+      href={link.href}
+      aria-current={here ? "page" : undefined}
+      className={`flex min-h-12 items-center whitespace-nowrap rounded-lg px-3 text-base font-bold ${here ? "bg-signal text-ink" : "text-white underline-offset-4 hover:underline"}`}
+    >
+      {link.label}
+      {link.href === "/review" && <ReviewCount />}
+    </Link>
+  );
+}
 
 // The frame around every signed-in page: who you are, where you can go, sign out.
 export function AppFrame({
@@ -54,15 +65,7 @@ export function AppFrame({
         <span className="text-lg font-bold tracking-wide">BENCHTAG</span>
         <nav aria-label="Main" className="flex flex-wrap items-center gap-1">
           {row.map((l) => (
-            <Link
-              key={l.href}
-              href={l.href}
-              aria-current={current === l.href ? "page" : undefined}
-              className={linkClass(current === l.href)}
-            >
-              {l.label}
-              {l.href === "/review" && <ReviewCount />}
-            </Link>
+            <NavLink key={l.href} link={l} current={current} />
           ))}
           {more.length > 0 && (
             <details className="relative">
@@ -73,14 +76,7 @@ export function AppFrame({
               </summary>
               <div className="absolute left-0 top-full z-20 mt-1 flex min-w-56 flex-col gap-1 rounded-lg border-2 border-white bg-steel-900 p-2 shadow-lg">
                 {more.map((l) => (
-                  <Link
-                    key={l.href}
-                    href={l.href}
-                    aria-current={current === l.href ? "page" : undefined}
-                    className={linkClass(current === l.href)}
-                  >
-                    {l.label}
-                  </Link>
+                  <NavLink key={l.href} link={l} current={current} />
                 ))}
               </div>
             </details>

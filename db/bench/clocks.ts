@@ -2,7 +2,7 @@ import "server-only";
 import { sql, type Kysely } from "kysely";
 import { clockCloseSchema, closeRefusal, type ClockCloseInput } from "@/lib/clock/close";
 import { quotedLabourHundredths, spanMinutes, summariseHours, type HoursSummary } from "@/lib/clock/hours";
-import { clockSpans, type ClockEndRecord, type ClockRecord, type ClockSpan } from "@/lib/clock/spans";
+import { clockSpans, recordsOfJobClocks, type ClockRecord, type ClockSpan } from "@/lib/clock/spans";
 import { Refusal } from "@/lib/errors";
 import type { ClockSnapshot } from "@/lib/sync/snapshot";
 import { appendAudit } from "../audit/append";
@@ -53,17 +53,7 @@ export async function clocksOfJob(db: Kysely<Database>, jobId: string): Promise<
 async function jobSpans(db: Kysely<Database>, jobId: string, nowMs: number): Promise<ClockSpan[]> {
   const mine = await clocksOfJob(db, jobId);
   if (!mine.length) return [];
-  const records: ClockRecord[] = mine.map((c) => ({
-    id: c.id,
-    mechanicId: c.mechanicId,
-    workOrderId: jobId,
-    jobProcedureId: c.jobProcedureId,
-    stageKey: c.stageKey,
-    startedAtMs: Date.parse(c.startedAt),
-  }));
-  const ends: ClockEndRecord[] = mine.flatMap((c) =>
-    c.ends.map((e) => ({ clockId: c.id, kind: e.kind, endedAtMs: Date.parse(e.endedAt) })),
-  );
+  const { clocks: records, ends } = recordsOfJobClocks(jobId, mine);
   const earliest = new Date(Math.min(...records.map((r) => r.startedAtMs)));
   // the same mechanics' clock-ons on other jobs end a clock here that was left running
   const elsewhere = await db

@@ -5,6 +5,7 @@ import { formatStamp } from "@/lib/sync/hlc";
 import type { Database } from "../schema";
 import { mergeBatch } from "../sync/merge";
 import { insertDemoBike } from "./demo-bike";
+import { demoBottomEndJobBasics } from "./demo-late-work";
 
 // Two invented jobs for time at the bench (and the browser tests of it): work orders 1060–1061,
 // tags GSW-0060…GSW-0061, in build on the demo bottom-end procedure, each with an approved quote
@@ -42,20 +43,7 @@ export async function seedDemoBenchTime(db: Kysely<Database>, shopId: string): P
       .executeTakeFirstOrThrow();
   const office = await user("maren@gannet-street.test");
   const people = { tomas: await user("tomas@gannet-street.test"), priya: await user("priya@gannet-street.test") };
-  const customer = await db
-    .selectFrom("customers")
-    .select("id")
-    .where("shop_id", "=", shopId)
-    .where("email", "=", "noor.haddad@example.test")
-    .executeTakeFirstOrThrow();
-  const version = await db
-    .selectFrom("template_versions as v")
-    .innerJoin("procedure_templates as t", "t.id", "v.template_id")
-    .select("v.id")
-    .where("t.shop_id", "=", shopId)
-    .where("t.key", "=", "bottom-end-assembly")
-    .orderBy("v.version")
-    .executeTakeFirstOrThrow();
+  const { customerId, bottomEndVersionId } = await demoBottomEndJobBasics(db, shopId);
   const shop = await db.selectFrom("shops").select(["tax_rate_bp", "currency"]).where("id", "=", shopId).executeTakeFirstOrThrow();
   const totals = quoteTotals(
     LABOUR.map((l) => ({ quantityHundredths: l.qty, unitPriceMinor: l.price })),
@@ -63,7 +51,7 @@ export async function seedDemoBenchTime(db: Kysely<Database>, shopId: string): P
   );
   const jobs: Record<number, string> = {};
   for (const b of BIKES) {
-    const bikeId = await insertDemoBike(db, shopId, customer.id, b);
+    const bikeId = await insertDemoBike(db, shopId, customerId, b);
     const wo = await db
       .insertInto("work_orders")
       .values({
@@ -84,7 +72,7 @@ export async function seedDemoBenchTime(db: Kysely<Database>, shopId: string): P
       .insertInto("work_order_transitions")
       .values({ work_order_id: wo.id, from_status: null, to_status: "in_build", by_user_id: office.id, note: "demo data" })
       .execute();
-    await db.insertInto("job_procedures").values({ work_order_id: wo.id, template_version_id: version.id, position: 0 }).execute();
+    await db.insertInto("job_procedures").values({ work_order_id: wo.id, template_version_id: bottomEndVersionId, position: 0 }).execute();
     const quote = await db
       .insertInto("quotes")
       .values({

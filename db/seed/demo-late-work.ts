@@ -41,10 +41,11 @@ export async function demoLateWorkExists(db: Kysely<Database>, shopId: string): 
   return Boolean(row);
 }
 
-/** Writes jobs 1030–1032 for the demo shop, looking up its people, customer and first bottom-end version. */
-export async function seedDemoLateWork(db: Kysely<Database>, shopId: string): Promise<void> {
-  const user = async (email: string) =>
-    (await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("email", "=", email).executeTakeFirstOrThrow()).id;
+/** Noor Haddad (the owner of the demo jobs beyond 1001–1010) and the first version of the bottom-end procedure. */
+export async function demoBottomEndJobBasics(
+  db: Kysely<Database>,
+  shopId: string,
+): Promise<{ customerId: string; bottomEndVersionId: string }> {
   const customer = await db
     .selectFrom("customers")
     .select("id")
@@ -59,12 +60,20 @@ export async function seedDemoLateWork(db: Kysely<Database>, shopId: string): Pr
     .where("t.key", "=", "bottom-end-assembly")
     .orderBy("v.version")
     .executeTakeFirstOrThrow();
+  return { customerId: customer.id, bottomEndVersionId: version.id };
+}
+
+/** Writes jobs 1030–1032 for the demo shop, looking up its people, customer and first bottom-end version. */
+export async function seedDemoLateWork(db: Kysely<Database>, shopId: string): Promise<void> {
+  const user = async (email: string) =>
+    (await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("email", "=", email).executeTakeFirstOrThrow()).id;
+  const { customerId, bottomEndVersionId } = await demoBottomEndJobBasics(db, shopId);
   const ids = {
     shopId,
-    customerId: customer.id,
+    customerId,
     officeId: await user("maren@gannet-street.test"),
     mechanicId: await user("tomas@gannet-street.test"),
-    bottomEndVersionId: version.id,
+    bottomEndVersionId,
   };
   const jobIds: string[] = [];
   for (const b of BIKES) {

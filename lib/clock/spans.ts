@@ -37,6 +37,31 @@ export interface ClockSpan extends ClockRecord {
   running: boolean;
 }
 
+/** The clocks and ends of a job as its snapshot carries them (lib/sync/snapshot.ts `clocks`), as records. */
+export function recordsOfJobClocks(
+  workOrderId: string,
+  clocks: ReadonlyArray<{
+    id: string;
+    mechanicId: string;
+    jobProcedureId: string | null;
+    stageKey: string | null;
+    startedAt: string;
+    ends: ReadonlyArray<{ kind: ClockEndKind; endedAt: string }>;
+  }>,
+): { clocks: ClockRecord[]; ends: ClockEndRecord[] } {
+  return {
+    clocks: clocks.map((c) => ({
+      id: c.id,
+      mechanicId: c.mechanicId,
+      workOrderId,
+      jobProcedureId: c.jobProcedureId,
+      stageKey: c.stageKey,
+      startedAtMs: Date.parse(c.startedAt),
+    })),
+    ends: clocks.flatMap((c) => c.ends.map((e) => ({ clockId: c.id, kind: e.kind, endedAtMs: Date.parse(e.endedAt) }))),
+  };
+}
+
 const byStart = (a: ClockRecord, b: ClockRecord) => a.startedAtMs - b.startedAtMs || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
 
 /** The earliest end on record of each clock (ends before their clock's start are never stored; ignored here too). */

@@ -3,7 +3,7 @@
  * job, from the job's copy with this tablet's clock-ons and clock-offs still on their way laid on
  * top. Pure; the rules are lib/clock/spans.ts.
  */
-import { clockSpans, type ClockEndRecord, type ClockRecord, type ClockSpan } from "@/lib/clock/spans";
+import { clockSpans, recordsOfJobClocks, type ClockRecord, type ClockSpan } from "@/lib/clock/spans";
 import type { Operation } from "@/lib/sync/operations";
 import type { Snapshot } from "./types";
 
@@ -16,18 +16,7 @@ export interface MyClock {
 
 export function clocksOnJob(snapshot: Snapshot, pending: readonly Operation[], nowMs: number): ClockSpan[] {
   const jobId = snapshot.workOrder.id;
-  const onFile = snapshot.state.clocks ?? [];
-  const clocks: ClockRecord[] = onFile.map((c) => ({
-    id: c.id,
-    mechanicId: c.mechanicId,
-    workOrderId: jobId,
-    jobProcedureId: c.jobProcedureId,
-    stageKey: c.stageKey,
-    startedAtMs: Date.parse(c.startedAt),
-  }));
-  const ends: ClockEndRecord[] = onFile.flatMap((c) =>
-    c.ends.map((e) => ({ clockId: c.id, kind: e.kind, endedAtMs: Date.parse(e.endedAt) })),
-  );
+  const { clocks, ends } = recordsOfJobClocks(jobId, snapshot.state.clocks ?? []);
   const known = new Set(clocks.map((c) => c.id));
   for (const op of pending) {
     if (op.kind === "clock.on" && !known.has(op.payload.clockId)) {
