@@ -35,6 +35,12 @@ export class Refusal extends Error {
 
 /** The answer when the database fails anywhere (including while reading who is signed in). */
 export const DATABASE_NOT_ANSWERING = "The workshop database is not answering; nothing was changed. Try again in a moment.";
+/** What a screen says when the server refused without a reason it could read (not our JSON, or none). */
+export function noReasonGiven(status: number): string {
+  if (status >= 500) return `The workshop server could not do this (error ${status}); nothing was changed. Try again in a moment.`;
+  return `The workshop server refused this (error ${status}) without saying why. Reload the page and try again.`;
+}
+
 /** The answer to anything else unexpected. */
 export const UNEXPECTED_FAILURE = "Something went wrong on our side; nothing was changed. Try again.";
 /** The `error` of a request whose fields did not pass their checks. */

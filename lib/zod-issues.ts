@@ -122,6 +122,8 @@ export const FIELD_LABELS: FieldLabels = {
   timerSpecId: "Timer",
   startedAt: "Start time",
   stoppedAt: "Stop time",
+  clockId: "Clock",
+  endedAt: "Clock-off time",
   photoId: "Photo",
   contentType: "Photo type",
   byteSize: "Photo size",

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { day } from "@/app/ui/dates";
+import { formatDay } from "@/lib/format/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { comeBacksByBatch, comeBacksByTemplate, listComeBacks } from "@/db/aftercare/come-backs";
 import { db } from "@/db/setup/client";
@@ -55,7 +55,7 @@ export default async function ComeBacksPage() {
                   <td className={th}>
                     {c.make} {c.model} · <span className="font-mono">{c.tagCode}</span>
                   </td>
-                  <td className={th}>{day(c.openedAt)}</td>
+                  <td className={th}>{formatDay(c.openedAt)}</td>
                   <td className={th}>
                     <StatusBadge status={c.status} />
                   </td>

@@ -11,6 +11,7 @@ import { CustomerQuote } from "./_components/customer-quote";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { StatusBadge } from "../ui/status-badge";
+import { formatDay } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "My bikes" };
 
@@ -99,9 +100,9 @@ function StoredCopies({ workOrderId, copies }: { workOrderId: string; copies: Aw
               Revision {c.revision} (PDF)
             </a>{" "}
             {c.handedOver ? (
-              <span className="font-bold">✔ the one handed over, {c.madeAt.toISOString().slice(0, 10)}</span>
+              <span className="font-bold">✔ the one handed over, {formatDay(c.madeAt)}</span>
             ) : (
-              <span>{c.madeAt.toISOString().slice(0, 10)}</span>
+              <span>{formatDay(c.madeAt)}</span>
             )}
             {c.changes.length > 0 && (
               <ul className="ml-4 list-disc text-sm">

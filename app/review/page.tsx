@@ -4,6 +4,7 @@ import { signersOfShop } from "@/db/review/queue";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { ReviewQueue } from "./_components/review-queue";
+import { RunningClocks } from "./_components/running-clocks";
 
 export const metadata: Metadata = { title: "Review" };
 
@@ -17,6 +18,7 @@ export default async function ReviewPage() {
         Each stage a mechanic has signed off, newest first, until someone approves it or sends it back.
       </p>
       <ReviewQueue people={people.map((p) => ({ id: p.id, name: p.name }))} />
+      <RunningClocks canClose={user.role === "supervisor"} />
     </AppFrame>
   );
 }

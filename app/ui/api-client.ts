@@ -1,6 +1,7 @@
 "use client";
 
 import type { ErrorBody, FieldIssue } from "@/lib/errors";
+import { noReasonGiven } from "@/lib/errors";
 
 export type { FieldIssue };
 
@@ -42,7 +43,7 @@ export async function api<T>(method: "GET" | "POST" | "PUT", url: string, body?:
   const data = await res.json().catch(() => ({}));
   if (!res.ok) {
     const refusal = data as Partial<ErrorBody>;
-    throw new ApiError(refusal.error ?? `Request failed (${res.status})`, res.status, refusal.issues ?? []);
+    throw new ApiError(refusal.error ?? noReasonGiven(res.status), res.status, refusal.issues ?? []);
   }
   return data as T;
 }

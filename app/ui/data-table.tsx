@@ -3,6 +3,7 @@
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type SortingState } from "@tanstack/react-table";
 import { useEffect, useState, type ReactNode } from "react";
+import { noReasonGiven } from "@/lib/errors";
 
 // A table whose rows come page by page from a route handler: sorting, a search box and extra
 // filters are sent as query parameters (server-side paging with TanStack Table + react-query).
@@ -53,8 +54,8 @@ export function DataTable<Row>({
     queryKey: [endpoint, url],
     queryFn: async () => {
       const res = await fetch(url);
-      const data = await res.json();
-      if (!res.ok) throw new Error(data.error ?? `Failed (${res.status})`);
+      const data = await res.json().catch(() => ({}));
+      if (!res.ok) throw new Error(data.error ?? noReasonGiven(res.status));
       return data as { total: number; more?: boolean } & Record<string, Row[]>;
     },
     placeholderData: keepPreviousData,

@@ -4,6 +4,7 @@ import type { SessionUser } from "@/lib/auth/session-user";
 import { mayWorkOn } from "@/lib/sync/merge-rules";
 import type { BenchJobSummary, JobSnapshot, TagLookup } from "@/lib/sync/snapshot";
 import { CLOSED_STATUSES, isOpenForBenchWork, OPEN_FOR_BENCH_WORK, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { clocksOfJob } from "./clocks";
 import type { Database } from "../schema";
 import { torqueSpecOfRow } from "../templates/documents";
 import { shopCursor } from "../sync/changes";
@@ -265,7 +266,7 @@ async function readJobSnapshot(trx: Kysely<Database>, user: Viewer, jobId: strin
 /** The recorded work on a job: completions, every reading (superseded too), torque, timers, sign-offs, decisions, photos, parts. */
 async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSnapshot["state"]> {
   const stampOrder = (column: string) => sql`${sql.ref(column)} COLLATE "C"`;
-  const [completions, readings, torque, timers, signOffs, decisions, photos, parts, withdrawals] = await Promise.all([
+  const [completions, readings, torque, timers, signOffs, decisions, photos, parts, withdrawals, clocks] = await Promise.all([
     db
       .selectFrom("step_completions as c")
       .innerJoin("operations as o", "o.id", "c.id")
@@ -407,6 +408,7 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       .orderBy("received_at")
       .orderBy("id")
       .execute(),
+    clocksOfJob(db, jobId),
   ]);
   return {
     completions: completions.map((c) => ({
@@ -526,5 +528,6 @@ async function loadJobState(db: Kysely<Database>, jobId: string): Promise<JobSna
       deviceTime: iso(w.device_time),
       receivedAt: iso(w.received_at),
     })),
+    clocks,
   };
 }

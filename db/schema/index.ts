@@ -2,6 +2,7 @@ import type { Selectable } from "kysely";
 import type { AftercareTables } from "./aftercare";
 import type { AuditTables } from "./audit";
 import type { BenchTables } from "./bench";
+import type { ClockTables } from "./clocks";
 import type { DynoTables } from "./dyno";
 import type { MailTables } from "./mail";
 import type { OfficeTables } from "./office";
@@ -26,6 +27,7 @@ export interface Database
     SessionTables,
     SyncTables,
     MailTables,
-    AftercareTables {}
+    AftercareTables,
+    ClockTables {}
 
 export type User = Selectable<UsersTable>;

@@ -135,3 +135,25 @@ async function seedYesterdaysWork(db: Kysely<Database>, ids: { shopId: string; m
   }
   await sendDemoWork(db, ids.shopId, mechanic, tablet, DEVICE);
 }
+
+/** Noor Haddad (the owner of the demo jobs beyond 1001–1010) and the first version of the bottom-end procedure. */
+export async function demoBottomEndJobBasics(
+  db: Kysely<Database>,
+  shopId: string,
+): Promise<{ customerId: string; bottomEndVersionId: string }> {
+  const customer = await db
+    .selectFrom("customers")
+    .select("id")
+    .where("shop_id", "=", shopId)
+    .where("email", "=", "noor.haddad@example.test")
+    .executeTakeFirstOrThrow();
+  const version = await db
+    .selectFrom("template_versions as v")
+    .innerJoin("procedure_templates as t", "t.id", "v.template_id")
+    .select("v.id")
+    .where("t.shop_id", "=", shopId)
+    .where("t.key", "=", "bottom-end-assembly")
+    .orderBy("v.version")
+    .executeTakeFirstOrThrow();
+  return { customerId: customer.id, bottomEndVersionId: version.id };
+}

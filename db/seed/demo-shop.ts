@@ -9,6 +9,7 @@ import { insertDemoBike } from "./demo-bike";
 import { seedDemoAftercare } from "./demo-aftercare";
 import { seedDemoBenchChecks } from "./demo-bench-checks";
 import { seedDemoDyno } from "./demo-dyno";
+import { seedDemoBenchTime } from "./demo-bench-time";
 import { seedDemoLateWork } from "./demo-late-work";
 import { seedDemoOffice } from "./demo-office";
 import { seedDemoReview } from "./demo-review";
@@ -204,5 +205,6 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
   await seedDemoReview(db, shopId);
   await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
   await seedDemoAftercare(db, shopId);
+  await seedDemoBenchTime(db, shopId);
   return { shopId };
 }

@@ -16,6 +16,7 @@ import type { Operation } from "@/lib/sync/operations";
 import type { ReadingSpec } from "@/lib/sync/readings";
 import { expectedReadings, torquePassCount } from "@/lib/procedures/spec-counts";
 import type { Database } from "../schema";
+import { loadClockState } from "./clocks";
 
 // Loads what the merge rules need, in a handful of set-based queries (never one per operation).
 
@@ -199,7 +200,7 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
   const none = Promise.resolve([]);
   const notWithdrawn = (column: "t.id" | "o.id") =>
     sql<boolean>`NOT EXISTS (SELECT 1 FROM withdrawals w WHERE w.operation_id = ${sql.ref(column)})`;
-  const [readings, timers, attachments, parts, serials, bolts, entries] = await Promise.all([
+  const [readings, timers, attachments, parts, serials, bolts, entries, clock] = await Promise.all([
     readingIds.size
       ? db
           .selectFrom("measurements")
@@ -269,7 +270,9 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
           .where("o.id", "=", anyId(entryIds))
           .execute()
       : none,
+    loadClockState(db, ops),
   ]);
+  state.clock = clock;
   for (const r of readings) state.readings.set(r.id, { workOrderId: r.work_order_id, specId: r.spec_id, readingIndex: r.reading_index });
   for (const t of timers) {
     state.timers.set(t.id, {

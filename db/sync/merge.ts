@@ -162,7 +162,7 @@ export async function mergeBatch(
         waiting.push({ ...h, target: decision.target, reason: decision.reason });
       } else {
         kept.push({ op: h.op, decision });
-        noteAccepted(h.op, state);
+        noteAccepted(h.op, state, jobs.get(h.op.workOrderId)?.number);
         if (wasFiled) applied.push(h.op.id);
       }
     };

@@ -128,6 +128,8 @@ export async function writeKept(
   const signOff = payloadOf("stage.signed-off");
   const part = payloadOf("part.fitted");
   const withdrawal = payloadOf("entry.withdrawn");
+  const clockOn = payloadOf("clock.on");
+  const clockOff = payloadOf("clock.off");
   const r = await sql<{ id: string }>`
     WITH x AS MATERIALIZED (
       SELECT * FROM json_to_recordset(${JSON.stringify(rows)}::json) AS x(${columns})
@@ -192,6 +194,17 @@ export async function writeKept(
       FROM y x WHERE x.kind = 'entry.withdrawn'
       ORDER BY ${withdrawal("operationId", "uuid")}, x.ord
       ON CONFLICT (operation_id) DO NOTHING
+    ),
+    clocks_on AS (
+      INSERT INTO ${into("bench_clocks", ["id", "operation_id", "shop_id", "work_order_id", "job_procedure_id", "stage_key", "mechanic_id", "started_at"])}
+      SELECT ${clockOn("clockId", "uuid")}, x.id, ${shopId}::uuid, x.work_order_id, ${clockOn("jobProcedureId", "uuid")}, ${clockOn("stageKey", "text")},
+        x.author_id, ${clockOn("startedAt", "timestamptz")}
+      FROM y x WHERE x.kind = 'clock.on'
+    ),
+    clocks_off AS (
+      INSERT INTO ${into("bench_clock_ends", ["clock_id", "work_order_id", "kind", "ended_at", "recorded_by", "operation_id"])}
+      SELECT ${clockOff("clockId", "uuid")}, x.work_order_id, 'clocked-off', ${clockOff("endedAt", "timestamptz")}, x.author_id, x.id
+      FROM y x WHERE x.kind = 'clock.off'
     ),
     audit AS (
       INSERT INTO ${into("audit_log", ["shop_id", "actor_id", "device_id", "action", "entity", "entity_id", "work_order_id", "outcome", "reason", "detail"])}

@@ -29,6 +29,8 @@ const KIND_NAMES: Record<string, string> = {
   "photo.queued": "Photo",
   "stage.signed-off": "Stage sign-off",
   "part.fitted": "Part fitted",
+  "clock.on": "Clocked on",
+  "clock.off": "Clocked off",
 };
 
 const MAX_SHOWN = 300;
@@ -155,6 +157,16 @@ export function describeEntry(op: unknown, job: JobSnapshot | undefined, jobNumb
       add("Batch number", p.batch);
       add("Quantity", p.quantity);
       add("Supplier", p.supplier);
+      break;
+    case "clock.on": {
+      const proc = job?.procedures.find((x) => x.jobProcedureId === p.jobProcedureId);
+      const stage = proc?.stages.find((s) => s.key === p.stageKey);
+      add("Clocked on at", p.startedAt);
+      if (p.stageKey !== undefined) add("Stage", stage ? `${proc!.name} · ${stage.title}` : p.stageKey);
+      break;
+    }
+    case "clock.off":
+      add("Clocked off at", p.endedAt);
       break;
     case "step.completed":
       break;

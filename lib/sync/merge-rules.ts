@@ -7,6 +7,7 @@ import { canReach, type Role } from "@/lib/auth/roles";
 import { sameMeasurementKind, type MeasurementUnit } from "@/lib/calc/units";
 import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { compareStamps, parseStamp } from "./hlc";
+import { clockAuthority, clockFlags, clockProblem, noteClock, type ClockState } from "./clocks";
 import { describeHold, holdAt, runningAt, type HoldTimer } from "./holds";
 import type { Operation } from "./operations";
 import { partSerialOnWorkOrder, repeatedSerialReason, type SerialOnFile } from "./parts";
@@ -110,6 +111,8 @@ export interface MergeState {
   bolts: Map<string, BoltOnFile[]>;
   /** Entries a withdrawal may name: those the batch names on file, and every one accepted earlier in the batch. */
   entries: Map<string, EntryFacts>;
+  /** Clocks of the batch's authors (one open clock per mechanic) and the ends on record (./clocks.ts). */
+  clock: ClockState;
 }
 
 export function emptyMergeState(): MergeState {
@@ -121,6 +124,7 @@ export function emptyMergeState(): MergeState {
     partSerials: new Map(),
     bolts: new Map(),
     entries: new Map(),
+    clock: { clocks: new Map(), ends: [] },
   };
 }
 
@@ -143,8 +147,8 @@ export interface DecisionInput {
 
 /** A record an operation acts on, which must be on file before it can be applied. */
 export interface Target {
-  /** A reading a correction names, a timer a stop, override or cancel names, an entry a withdrawal names. */
-  kind: "reading" | "timer" | "entry";
+  /** A reading a correction names, a timer a stop, override or cancel names, an entry a withdrawal names, a clock a clock-off names. */
+  kind: "reading" | "timer" | "entry" | "clock";
   id: string;
 }
 
@@ -233,6 +237,7 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
   flags.push(...holdFlags(op, job, input.state, stamp.wallMs));
   flags.push(...secondTimerFlags(op, job, input.state));
   flags.push(...withdrawalFlags(op, job, input.state));
+  flags.push(...clockFlags(op, input.state.clock));
   // Held only once everything else checks out; the flags are worked out again when it is applied.
   if (problem) return { outcome: "wait", ...problem };
   return flags.length ? { outcome: "flag", reason: flags.join(" ") } : accept;
@@ -357,6 +362,8 @@ export function timerTarget(timerId: string, job: { id: string; number: number }
  * its author is checked when it is applied.
  */
 function checkAuthority(op: Operation, actor: Actor, job: WorkOrderFacts, state: MergeState): string | null {
+  const clock = clockAuthority(op, actor.id, state.clock);
+  if (clock) return clock;
   if (op.kind === "entry.withdrawn") {
     const entry = state.entries.get(op.payload.operationId);
     return entry && entry.workOrderId === job.id ? withdrawalRefusal(actor, entry) : null;
@@ -428,6 +435,8 @@ export function targetOf(op: Operation): Target | null {
       return { kind: "timer", id: op.payload.timerId };
     case "entry.withdrawn":
       return { kind: "entry", id: op.payload.operationId };
+    case "clock.off":
+      return { kind: "clock", id: op.payload.clockId };
     default:
       return null;
   }
@@ -436,12 +445,15 @@ export function targetOf(op: Operation): Target | null {
 /** Whether the record `target` names is on file or was kept earlier in this merge. */
 export function targetPresent(target: Target, state: MergeState): boolean {
   if (target.kind === "reading") return state.readings.has(target.id);
+  if (target.kind === "clock") return state.clock.clocks.has(target.id);
   return target.kind === "timer" ? state.timers.has(target.id) : state.entries.has(target.id);
 }
 
-/** The ids of the records an accepted operation creates, which held operations may wait for (its entry, and a timer it starts). */
+/** The ids of the records an accepted operation creates, which held operations may wait for (its entry, a timer it starts, a clock it opens). */
 export function targetsCreated(op: Operation): string[] {
-  return op.kind === "timer.started" ? [op.id, op.payload.timerId] : [op.id];
+  if (op.kind === "timer.started") return [op.id, op.payload.timerId];
+  if (op.kind === "clock.on") return [op.id, op.payload.clockId];
+  return [op.id];
 }
 
 /** A record an operation names that has not arrived: the operation waits for it. */
@@ -455,7 +467,9 @@ function waitFor(op: Operation, state: MergeState): Missing | null {
       ? `the reading it corrects (${target.id})`
       : target.kind === "timer"
         ? `the start of timer ${target.id}`
-        : `the entry it withdraws (${target.id})`;
+        : target.kind === "clock"
+          ? `the clock-on of clock ${target.id}`
+          : `the entry it withdraws (${target.id})`;
   return { target, reason: `Held on the server until ${what} arrives; it is applied then, in stamp order.` };
 }
 
@@ -531,6 +545,13 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
       if (entry.workOrderId !== job.id) return `The entry ${op.payload.operationId} to withdraw is not on record ${onJob}.`;
       return null; // checkAuthority decides who may withdraw it
     }
+    case "clock.on":
+    case "clock.off": {
+      const stages = (jobProcedureId: string, stageKey: string) =>
+        [...job.steps.values()].some((s) => s.jobProcedureId === jobProcedureId && s.stageKey === stageKey);
+      const problem = clockProblem(op, { id: job.id, number: job.number, stages }, state.clock);
+      return problem === "missing" ? waitFor(op, state) : problem;
+    }
     case "photo.queued": {
       const missing = stepMissing(op.payload.stepId);
       if (missing) return missing;
@@ -556,7 +577,7 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
 }
 
 /** Adds what an accepted operation created to the state, so later operations in the batch can name it. */
-export function noteAccepted(op: Operation, state: MergeState): void {
+export function noteAccepted(op: Operation, state: MergeState, jobNumber = 0): void {
   const entry: EntryFacts = { workOrderId: op.workOrderId, kind: op.kind, authorId: op.authorId, withdrawn: false };
   if (!state.entries.has(op.id)) state.entries.set(op.id, entry);
   switch (op.kind) {
@@ -618,6 +639,10 @@ export function noteAccepted(op: Operation, state: MergeState): void {
     }
     case "photo.queued":
       state.attachmentIds.add(op.payload.attachmentId);
+      return;
+    case "clock.on":
+    case "clock.off":
+      noteClock(op, jobNumber, state.clock);
       return;
     case "part.fitted": {
       const p = op.payload;

@@ -34,6 +34,8 @@ export const OPERATION_KINDS = [
   "part.fitted",
   "timer.cancelled",
   "entry.withdrawn",
+  "clock.on",
+  "clock.off",
 ] as const;
 export type OperationKind = (typeof OPERATION_KINDS)[number];
 
@@ -240,6 +242,27 @@ export const partFittedPayload = z
     path: ["quantity"],
   });
 
+/**
+ * A mechanic clocks on a job (time at the bench), optionally naming the stage worked on.
+ * `clockId` is made on the tablet; the clock-off names it. Clocking on ends any clock of the same
+ * mechanic still running, at this clock-on's time (lib/clock/spans.ts).
+ */
+const clockOnPayload = z
+  .object({
+    clockId: id(),
+    startedAt: isoTime("Clock-on time"),
+    jobProcedureId: id().optional(),
+    stageKey: stageKey.optional(),
+  })
+  .strict()
+  .refine((p) => (p.jobProcedureId === undefined) === (p.stageKey === undefined), {
+    message: "Stage: name the procedure and the stage together, or neither",
+    path: ["stageKey"],
+  });
+
+/** The mechanic clocks off the clock `clockId` (its own). A clock-off before the clock-on is refused. */
+const clockOffPayload = z.object({ clockId: id(), endedAt: isoTime("Clock-off time") }).strict();
+
 // ---------------------------------------------------------------------------------------------
 // Operation and batch
 // ---------------------------------------------------------------------------------------------
@@ -270,6 +293,8 @@ export const operationSchema = z.discriminatedUnion("kind", [
   op("part.fitted", partFittedPayload),
   op("timer.cancelled", timerCancelledPayload),
   op("entry.withdrawn", entryWithdrawnPayload),
+  op("clock.on", clockOnPayload),
+  op("clock.off", clockOffPayload),
 ]);
 
 export type Operation = z.output<typeof operationSchema>;

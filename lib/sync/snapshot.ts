@@ -270,6 +270,26 @@ const partSnapshotSchema = z.object({
   operationId: id.nullable().optional(),
 });
 
+/** A clock on the job (time at the bench) and the records that end it (lib/clock/spans.ts works out when it ended). */
+const clockSnapshotSchema = z.object({
+  id,
+  mechanicId: id,
+  jobProcedureId: id.nullable(),
+  stageKey: z.string().nullable(),
+  startedAt: time,
+  /** The operation that clocked on. */
+  operationId: id,
+  ends: z.array(
+    z.object({
+      kind: z.enum(["clocked-off", "closed-by-supervisor"]),
+      endedAt: time,
+      recordedBy: id,
+      reason: z.string().nullable(),
+      operationId: id.nullable(),
+    }),
+  ),
+});
+
 /** GET /api/bench/jobs/[id]: everything the bench needs for one job, and the cursor it is current to. */
 export const jobSnapshotSchema = z.object({
   workOrder: z.object({
@@ -298,6 +318,8 @@ export const jobSnapshotSchema = z.object({
     photos: z.array(photoSnapshotSchema),
     parts: z.array(partSnapshotSchema),
     withdrawals: z.array(withdrawalSnapshotSchema).optional(),
+    /** Time at the bench on this job (absent from copies stored before clocks existed). */
+    clocks: z.array(clockSnapshotSchema).optional(),
   }),
   /**
    * The shop's change cursor the snapshot is current to. A device with no cursor yet starts syncing
@@ -310,3 +332,4 @@ export type BenchJobSummary = z.output<typeof benchJobSummarySchema>;
 export type TagLookup = z.output<typeof tagLookupSchema>;
 export type HandedOverLookup = z.output<typeof handedOverLookupSchema>["handedOver"];
 export type JobSnapshot = z.output<typeof jobSnapshotSchema>;
+export type ClockSnapshot = z.output<typeof clockSnapshotSchema>;

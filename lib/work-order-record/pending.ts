@@ -20,6 +20,7 @@ function recordedIds(snapshot: Snapshot): Set<string> {
     // A snapshot stored before parts (or withdrawals) were part of it has none.
     ...(s.parts ?? []).map((p) => `part:${p.id}`),
     ...(s.withdrawals ?? []).map((w) => w.id),
+    ...(s.clocks ?? []).flatMap((c) => [c.operationId, ...c.ends.flatMap((e) => (e.operationId ? [e.operationId] : []))]),
   ]);
 }
 

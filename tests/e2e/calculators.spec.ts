@@ -1,9 +1,10 @@
 import { expect, test } from "@playwright/test";
 import { signIn } from "./support/demo-users";
+import { goByHeader } from "./support/nav";
 
 test("engine numbers: compression, boosted compression and charge air against worked examples", async ({ page }) => {
   await signIn(page, "mechanic");
-  await page.getByRole("link", { name: "Numbers" }).click();
+  await goByHeader(page, "Numbers");
   await expect(page.getByRole("heading", { level: 1, name: "Engine numbers" })).toBeVisible();
 
   // Heywood, Internal Combustion Engine Fundamentals ch. 2 formula; worked values from

@@ -2,6 +2,7 @@ import { expect, test } from "@playwright/test";
 import { demoUser, signIn } from "./support/demo-users";
 import { query } from "./support/e2e-db";
 import { expectMail } from "./support/fakes";
+import { goByHeader } from "./support/nav";
 
 // The office's E-mail outbox: an e-mail that failed every try is listed with its error, in colour,
 // words and shape; "Try again" hands it to the queue worker running in the app, and it arrives.
@@ -15,7 +16,7 @@ test("a failed e-mail is listed on the outbox page and goes out once the office 
     [`e2e:${to}`, to, subject, demoUser("office").email],
   );
   await signIn(page, "office");
-  await page.getByRole("link", { name: "E-mail outbox" }).click();
+  await goByHeader(page, "E-mail outbox");
   await expect(page.getByRole("heading", { name: "E-mail outbox" })).toBeVisible();
   const row = page.getByTestId("mail-open").getByTestId("mail-row").filter({ hasText: subject });
   await expect(row).toContainText("✖ Failed — not sent");

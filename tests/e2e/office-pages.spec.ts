@@ -1,5 +1,6 @@
 import { expect, test, type Page } from "@playwright/test";
 import { signIn } from "./support/demo-users";
+import { goByHeader } from "./support/nav";
 
 // Templates import/export, parts search, tag labels, and a look at each office page at the two
 // tablet sizes (screenshots kept in test-results/office-screens for a person to look at).
@@ -11,7 +12,7 @@ async function noSideScroll(page: Page) {
 
 test("templates: export, a bad import refused with path and message, a good import makes a new version", async ({ page }) => {
   await signIn(page, "office");
-  await page.getByRole("link", { name: "Templates" }).click();
+  await goByHeader(page, "Templates");
   await expect(page.getByTestId("template")).toHaveCount(4);
   await expect(page.getByTestId("template").filter({ hasText: "First start and run-in" })).toContainText("Example figures");
 
@@ -118,7 +119,7 @@ test("parts search answers which bikes got a batch", async ({ page }) => {
 
 test("tag labels: a printable A4 sheet with a QR code and the tag code per bike", async ({ page }) => {
   await signIn(page, "office");
-  await page.getByRole("link", { name: "Labels" }).click();
+  await goByHeader(page, "Labels");
   await expect(page.getByRole("heading", { level: 1, name: "Tag labels" })).toBeVisible();
   const labels = page.getByTestId("tag-label");
   expect(await labels.count()).toBeGreaterThanOrEqual(5);

@@ -1,6 +1,7 @@
 import { expect, test } from "@playwright/test";
 import { signIn } from "./support/demo-users";
 import { fromOurPage } from "./support/same-origin";
+import { goByHeader } from "./support/nav";
 
 // Sam Okafor is a demo customer without a sign-in (bikes GSW-0004, GSW-0005, GSW-0006).
 test("the office gives a customer a sign-in; the customer sees only their bikes; turned off, it no longer signs in", async ({
@@ -8,7 +9,7 @@ test("the office gives a customer a sign-in; the customer sees only their bikes;
 }) => {
   const office = await (await browser.newContext()).newPage();
   await signIn(office, "office");
-  await office.getByRole("link", { name: "Sign-ins" }).click();
+  await goByHeader(office, "Sign-ins");
   await expect(office.getByRole("heading", { level: 1, name: "Sign-ins" })).toBeVisible();
 
   // bad input is answered beside the fields

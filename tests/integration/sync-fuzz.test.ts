@@ -108,7 +108,7 @@ function goodOp(author: SessionUser, device: string, pick: number): Record<strin
     deviceTime: new Date(at).toISOString(),
     stamp: formatStamp({ wallMs: at, counter: 0, deviceId: device }),
   };
-  switch (pick % 8) {
+  switch (pick % 10) {
     case 0:
       return { ...base, kind: "step.completed", payload: { stepId: specs.boreStepId } };
     case 1:
@@ -163,6 +163,11 @@ function goodOp(author: SessionUser, device: string, pick: number): Record<strin
         kind: "photo.queued",
         payload: { attachmentId: randomUUID(), stepId: specs.boreStepId, contentType: "image/jpeg", byteSize: 1000, caption: "deck" },
       };
+    case 8:
+      return { ...base, kind: "clock.on", payload: { clockId: randomUUID(), startedAt: new Date(at).toISOString() } };
+    case 9:
+      // a clock-off of a clock not on file: held until its clock-on arrives
+      return { ...base, kind: "clock.off", payload: { clockId: randomUUID(), endedAt: new Date(at).toISOString() } };
     default:
       return {
         ...base,
@@ -194,7 +199,7 @@ const TEXT_FIELDS = new Set([
   "kind",
   "unit",
 ]);
-const TIME_FIELDS = new Set(["deviceTime", "startedAt", "stoppedAt"]);
+const TIME_FIELDS = new Set(["deviceTime", "startedAt", "stoppedAt", "endedAt"]);
 const NUMBER_FIELDS = new Set(["value", "readingIndex", "passIndex", "bolt", "durationS", "byteSize", "quantity", "wrenchReading"]);
 type Hostile = "text" | "time" | "number" | "id";
 const hostileFor = (field: string): Hostile =>
@@ -248,7 +253,8 @@ const requestArb = fc.record({
 });
 
 const RAW_ZOD = /expected (string|number|object)|received|Invalid input|Too (big|small)|Unrecognized key/;
-const INTERNAL_NAMES = /\b(payload|readingIndex|supersedesId|torqueSpecId|timerId|deviceTime|stepId|specId|partFittedId|attachmentId)\b/;
+const INTERNAL_NAMES =
+  /\b(payload|readingIndex|supersedesId|torqueSpecId|timerId|clockId|endedAt|deviceTime|stepId|specId|partFittedId|attachmentId)\b/;
 
 describe("POST /api/sync under random hostile input (bounded fuzz)", () => {
   it("never answers 5xx, answers every operation, and names every refusal's reason", async () => {

@@ -73,7 +73,9 @@ type Event =
   | { t: "part" }
   | { t: "signOff" }
   | { t: "withdraw"; which: number; why: number }
-  | { t: "cancel"; which: number };
+  | { t: "cancel"; which: number }
+  | { t: "clockOn"; onStage: boolean }
+  | { t: "clockOff"; which: number; afterS: number };
 
 const eventArb: fc.Arbitrary<Event> = fc.oneof(
   fc.record({ t: fc.constant("complete" as const), step: fc.nat(3) }),
@@ -90,6 +92,8 @@ const eventArb: fc.Arbitrary<Event> = fc.oneof(
   fc.record({ t: fc.constant("withdraw" as const), which: fc.nat(20), why: fc.nat(2) }),
   fc.record({ t: fc.constant("withdraw" as const), which: fc.nat(20), why: fc.nat(2) }),
   fc.record({ t: fc.constant("cancel" as const), which: fc.nat(5) }),
+  fc.record({ t: fc.constant("clockOn" as const), onStage: fc.boolean() }),
+  fc.record({ t: fc.constant("clockOff" as const), which: fc.nat(5), afterS: fc.nat(60_000) }),
 );
 
 const WITHDRAW_REASONS = ["Recorded on the wrong job", "Tapped twice by mistake", "Part sent back to the supplier"];
@@ -122,11 +126,14 @@ function materialize(
   // Each bolt once: a bolt recorded twice is flagged on the record that reaches the server second
   // (by arrival, like a part), which no order-free property can hold; the repeat has its own tests.
   const bolts = new Set<string>();
+  const clocks: Array<{ symbol: string; startedAt: number }> = [];
   const steps = [specs.boreStepId, specs.rodStepId, specs.caseBoltsStepId, specs.cureStepId];
   events.forEach((e, i) => {
     const at = T0 + i * 1000;
     const make = <K extends OperationKind>(kind: K, payload: OperationOf<K>["payload"]) => {
-      if (kind !== "measurement.recorded" && !kind.startsWith("timer.") && kind !== "entry.withdrawn") withdrawable.push(`op${i}`);
+      if (kind !== "measurement.recorded" && !kind.startsWith("timer.") && !kind.startsWith("clock.") && kind !== "entry.withdrawn") {
+        withdrawable.push(`op${i}`);
+      }
       ops.push(tabletOp(kind, payload, { id: idFor(`op${i}`), workOrderId: job.id, authorId: sup.id, deviceId: DEVICE, at }));
     };
     const reading = (spot: number, v: number, supersedes?: string) => {
@@ -215,6 +222,18 @@ function materialize(
         const [target] = withdrawable.splice(e.which % withdrawable.length, 1);
         return make("entry.withdrawn", { operationId: idFor(target), reason: WITHDRAW_REASONS[e.why] });
       }
+      case "clockOn":
+        clocks.push({ symbol: `clock${i}`, startedAt: at });
+        return make("clock.on", {
+          clockId: idFor(`clock${i}`),
+          startedAt: new Date(at).toISOString(),
+          ...(e.onStage ? { jobProcedureId: job.jobProcedureId, stageKey: "measure" } : {}),
+        });
+      case "clockOff": {
+        if (!clocks.length) return make("step.completed", { stepId: specs.boreStepId });
+        const c = clocks[e.which % clocks.length];
+        return make("clock.off", { clockId: idFor(c.symbol), endedAt: new Date(c.startedAt + e.afterS * 1000).toISOString() });
+      }
     }
   });
   return ops;
@@ -224,7 +243,11 @@ function materialize(
 async function tablesOf(workOrderId: string, symbolOf: Map<string, string>): Promise<unknown> {
   const r = await sql<{ t: string; row: Record<string, unknown> }>`
     SELECT 'operations' AS t, jsonb_build_object('id', id, 'kind', kind, 'author', author_id, 'device', device_id, 'time', device_time,
-      'stamp', stamp, 'payload', payload, 'flagged', flagged, 'flag_reason', flag_reason) AS row FROM operations WHERE work_order_id = ${workOrderId}
+      'stamp', stamp, 'payload', payload,
+      -- a clock-on's flag (another clock of the same person still running) is decided on arrival and
+      -- names clocks on other jobs: compared by the unit property of lib/clock/spans.ts instead
+      'flagged', CASE WHEN kind = 'clock.on' THEN NULL ELSE flagged END,
+      'flag_reason', CASE WHEN kind = 'clock.on' THEN NULL ELSE flag_reason END) AS row FROM operations WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'step_completions', to_jsonb(c) - 'received_at' - 'work_order_id' FROM step_completions c WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'measurements', to_jsonb(m) - 'received_at' - 'work_order_id' FROM measurements m WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'current', to_jsonb(m) - 'received_at' - 'work_order_id' FROM current_measurements m WHERE work_order_id = ${workOrderId}
@@ -234,6 +257,8 @@ async function tablesOf(workOrderId: string, symbolOf: Map<string, string>): Pro
     UNION ALL SELECT 'photos', to_jsonb(x) - 'created_at' - 'work_order_id' - 'object_key' FROM attachments x WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'parts', to_jsonb(x) - 'work_order_id' FROM parts_fitted x WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'withdrawals', to_jsonb(x) - 'received_at' - 'work_order_id' FROM withdrawals x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'clocks', to_jsonb(x) - 'received_at' - 'work_order_id' - 'shop_id' FROM bench_clocks x WHERE work_order_id = ${workOrderId}
+    UNION ALL SELECT 'clock_ends', to_jsonb(x) - 'id' - 'recorded_at' - 'work_order_id' FROM bench_clock_ends x WHERE work_order_id = ${workOrderId}
     UNION ALL SELECT 'held', jsonb_build_object('id', id, 'resolution', resolution) FROM sync_pending_operations WHERE work_order_id = ${workOrderId}
   `.execute(db);
   const text = JSON.stringify(r.rows).replace(

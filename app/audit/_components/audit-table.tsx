@@ -7,6 +7,7 @@ import { JobNumberFilter, SelectFilter, jobNumberFilter } from "@/app/ui/table-f
 import type { AuditRow } from "@/db/audit/read";
 import { AUDIT_RANGE_DEFAULT_DAYS, auditExportSchema, isoDay } from "@/lib/review/audit-range";
 import { issuesOf } from "@/lib/zod-issues";
+import { formatDayTimeSeconds } from "@/lib/format/dates";
 
 const ACTIONS = [
   { value: "", label: "Anything" },
@@ -22,15 +23,7 @@ const OUTCOMES = [
   { value: "refused", label: "Refused" },
 ];
 
-const time = (v: string) =>
-  new Date(v).toLocaleString("en-GB", {
-    day: "numeric",
-    month: "short",
-    year: "numeric",
-    hour: "2-digit",
-    minute: "2-digit",
-    second: "2-digit",
-  });
+const time = (v: string) => formatDayTimeSeconds(v);
 
 const columns: ColumnDef<AuditRow, unknown>[] = [
   { id: "at", header: "When", cell: ({ row }) => <span className="whitespace-nowrap">{time(row.original.at)}</span> },

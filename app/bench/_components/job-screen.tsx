@@ -2,8 +2,10 @@
 
 import { useState } from "react";
 import { recordOperation } from "@/lib/client/bench-store";
+import { formatDayTime } from "@/lib/format/dates";
 import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
+import { ClockPanel } from "./clock-panel";
 import { go } from "./hash-route";
 import { useJob } from "./job-data";
 import { CopyFreshness } from "./copy-freshness";
@@ -64,6 +66,7 @@ export function JobScreen({ jobId }: { jobId: string }) {
           </BigButton>
         )}
       </div>
+      <ClockPanel snapshot={snapshot} pending={data.pending} />
       <ProgressBar done={view.doneCount} total={view.totalCount} />
       <CopyFreshness job={data} />
       {(!wo.mayWork || !wo.openForBenchWork) && (
@@ -123,7 +126,7 @@ export function JobScreen({ jobId }: { jobId: string }) {
             {stage.signedOff ? (
               <div className="flex flex-wrap items-center gap-4">
                 <p className="flex-1 text-lg font-bold" data-testid="stage-signed">
-                  Signed off {new Date(stage.signedOff.at).toLocaleString()}
+                  Signed off {formatDayTime(stage.signedOff.at)}
                   {stage.signedOff.pending ? " (waiting to send)" : ""}
                   {stage.decision === null || stage.decision.decision === "sent_back" ? " — waiting for review" : ""}
                 </p>

@@ -8,6 +8,7 @@ import { useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { go } from "./hash-route";
 import { useLive, useOnline } from "./use-live";
+import { formatDayTime } from "@/lib/format/dates";
 
 /** Shortest reason for discarding (the server asks the same). */
 const MIN_REASON = 3;
@@ -114,7 +115,7 @@ function EntryCard({ entry, job, jobNumber }: { entry: OutboxEntry; job: Paramet
           ))}
         </dl>
       )}
-      {d.recordedAt && <p className="text-lg text-steel-700">Recorded on this tablet {new Date(d.recordedAt).toLocaleString()}</p>}
+      {d.recordedAt && <p className="text-lg text-steel-700">Recorded on this tablet {formatDayTime(d.recordedAt)}</p>}
       <p className="rounded-lg border-2 border-steel-700 bg-white p-3 text-xl" data-testid="entry-reason">
         <strong>{entry.state === "held" ? "Why it waits: " : "Why: "}</strong>
         {visibleText(entry.reason ?? "")}

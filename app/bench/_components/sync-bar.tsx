@@ -6,13 +6,14 @@ import type { BayLight } from "./bay-light";
 import { useBench } from "./bench-context";
 import { go } from "./hash-route";
 import { useLive, useNow, useOnline } from "./use-live";
+import { formatDayTime } from "@/lib/format/dates";
 
 function ago(ms: number | null, now: number): string {
   if (!ms) return "never";
   const s = Math.max(0, Math.round((now - ms) / 1000));
   if (s < 60) return `${s} s ago`;
   if (s < 3600) return `${Math.round(s / 60)} min ago`;
-  return new Date(ms).toLocaleString();
+  return formatDayTime(ms);
 }
 
 /** Sync state for a glance across the bench: online or not, how much is waiting, last sync, problems. */

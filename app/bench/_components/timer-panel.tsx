@@ -5,6 +5,7 @@ import { recordOperation } from "@/lib/client/bench-store";
 import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { ReasonAction } from "./reason-action";
+import { formatTime } from "@/lib/format/dates";
 
 export function clock(ms: number): string {
   const s = Math.ceil(ms / 1000);
@@ -75,8 +76,7 @@ export function TimerPanel({ jobId, view }: { jobId: string; view: StepView }) {
             {running && (
               <>
                 <p className="mt-2 font-mono text-5xl font-bold" data-testid="timer-remaining" role="timer">
-                  {clock(t.remainingMs)}{" "}
-                  <span className="text-xl font-normal">left · ends {new Date(t.endsAtMs).toLocaleTimeString()}</span>
+                  {clock(t.remainingMs)} <span className="text-xl font-normal">left · ends {formatTime(t.endsAtMs)}</span>
                 </p>
                 {others.length > 0 && (
                   <p className="mt-2 text-lg font-bold text-warn">
@@ -115,7 +115,7 @@ export function TimerPanel({ jobId, view }: { jobId: string; view: StepView }) {
                   .filter((x) => x.cancelled)
                   .map((x) => (
                     <li key={x.id} className="text-steel-700">
-                      ⊘ Started {new Date(x.startedAtMs).toLocaleTimeString()}, cancelled: “{x.cancelled!.reason}”
+                      ⊘ Started {formatTime(x.startedAtMs)}, cancelled: “{x.cancelled!.reason}”
                     </li>
                   ))}
               </ul>

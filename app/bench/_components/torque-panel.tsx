@@ -13,6 +13,7 @@ import { PlausibilityPrompt } from "./plausibility-prompt";
 import { RecordButton } from "./record-button";
 import { boltLabel, nextBolt, passTarget, useRecordBolt, type BoltTarget } from "./torque-record";
 import { WithdrawEntry } from "./withdraw-entry";
+import { formatTime } from "@/lib/format/dates";
 
 /**
  * Every torque spec of a step: the bolt pattern showing where you are, the passes, and a wrench
@@ -245,7 +246,7 @@ function BoltRecords({ jobId, progress, name }: { jobId: string; progress: Torqu
             data-testid="bolt-record"
           >
             <span className={`flex-1 ${r.withdrawn ? "line-through" : "font-bold"}`}>
-              Bolt {r.bolt}, pass {r.passIndex} · {name(r.recordedBy)} · {new Date(r.deviceTime).toLocaleTimeString()}
+              Bolt {r.bolt}, pass {r.passIndex} · {name(r.recordedBy)} · {formatTime(r.deviceTime)}
               {r.wrench ? ` · ${r.wrench}` : ""}
               {r.pending ? " · ⏳ waiting to send" : ""}
             </span>

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { day, dayTime } from "@/app/ui/dates";
+import { formatDay, formatDayTime } from "@/lib/format/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { comeBackView } from "@/db/aftercare/come-backs";
 import { db } from "@/db/setup/client";
@@ -46,7 +46,8 @@ export default async function ComeBackPage({ params }: { params: Promise<{ id: s
       <p className="mt-2 flex flex-wrap items-center gap-3 text-lg">
         {now.job.make} {now.job.model} · <span className="font-mono">{now.job.tagCode}</span> · <StatusBadge status={now.job.status} />
         <span>
-          original handed over {c.originalHandedOverAt ? day(c.originalHandedOverAt) : "—"} · opened {dayTime(c.openedAt)} by {c.openedBy}
+          original handed over {c.originalHandedOverAt ? formatDay(c.originalHandedOverAt) : "—"} · opened {formatDayTime(c.openedAt)} by{" "}
+          {c.openedBy}
         </span>
       </p>
       <p className="mt-2 text-lg">
@@ -85,7 +86,7 @@ export default async function ComeBackPage({ params }: { params: Promise<{ id: s
                 </p>
                 <p className="text-lg whitespace-pre-wrap">{f.note}</p>
                 <p className="text-sm">
-                  {f.recordedBy}, {dayTime(f.recordedAt)}
+                  {f.recordedBy}, {formatDayTime(f.recordedAt)}
                 </p>
               </li>
             ))}

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { day } from "@/app/ui/dates";
+import { formatDay } from "@/lib/format/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { handedOverJobOfBike } from "@/db/aftercare/come-backs";
 import { db } from "@/db/setup/client";
@@ -27,7 +27,7 @@ export default async function NewComeBackPage({ searchParams }: { searchParams: 
       <p className="mt-2 flex flex-wrap items-center gap-3 text-lg">
         Job <span className="font-mono">#{wo.number}</span> {wo.title} · {wo.make} {wo.model} ·{" "}
         <span className="font-mono">{wo.tagCode}</span> <StatusBadge status={wo.status} />
-        {last?.workOrderId === wo.id && last.handedOverOn && <span>handed over {day(last.handedOverOn)}</span>}
+        {last?.workOrderId === wo.id && last.handedOverOn && <span>handed over {formatDay(last.handedOverOn)}</span>}
       </p>
       {wo.status !== "handed_over" ? (
         <p role="alert" className="mt-4 text-lg font-bold text-fail">

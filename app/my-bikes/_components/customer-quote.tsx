@@ -54,29 +54,29 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
           {quote.lines.map((l) => (
             <tr key={l.id} className="border-b border-steel-300">
               <td className="py-1 pr-2">{l.description}</td>
-              <td className="py-1 pr-2 font-mono">
+              <td className="py-1 pr-2 text-right tabular-nums whitespace-nowrap">
                 {qty(l.quantityHundredths)} × {formatMinor(l.unitPriceMinor, c)}
               </td>
-              <td className="py-1 text-right font-mono">{formatMinor(l.lineTotalMinor, c)}</td>
+              <td className="py-1 text-right tabular-nums whitespace-nowrap">{formatMinor(l.lineTotalMinor, c)}</td>
             </tr>
           ))}
           <tr>
             <td colSpan={2} className="pt-2 text-right">
               Subtotal
             </td>
-            <td className="pt-2 text-right font-mono">{formatMinor(quote.subtotalMinor, c)}</td>
+            <td className="pt-2 text-right tabular-nums">{formatMinor(quote.subtotalMinor, c)}</td>
           </tr>
           <tr>
             <td colSpan={2} className="text-right">
               Tax ({(quote.taxRateBp / 100).toFixed(2)} %)
             </td>
-            <td className="text-right font-mono">{formatMinor(quote.taxMinor, c)}</td>
+            <td className="text-right tabular-nums">{formatMinor(quote.taxMinor, c)}</td>
           </tr>
           <tr>
             <td colSpan={2} className="text-right font-bold">
               Total
             </td>
-            <td className="text-right font-mono font-bold" data-testid="customer-quote-total">
+            <td className="border-t-2 border-steel-700 text-right font-bold tabular-nums" data-testid="customer-quote-total">
               {formatMinor(quote.totalMinor, c)}
             </td>
           </tr>

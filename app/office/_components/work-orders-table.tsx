@@ -9,6 +9,7 @@ import { StatusBadge } from "@/app/ui/status-badge";
 import type { ReplyOf } from "@/app/_server/route";
 import type { GET } from "@/app/api/office/work-orders/route";
 import type { Wire } from "@/app/ui/api-client";
+import { formatDay } from "@/lib/format/dates";
 
 /** One row of GET /api/office/work-orders, taken from the route. */
 type Row = Wire<ReplyOf<typeof GET>>["workOrders"][number];
@@ -49,7 +50,7 @@ const columns: ColumnDef<Row, unknown>[] = [
     ),
   },
   { id: "mechanic", header: "Mechanic", enableSorting: false, cell: ({ row }) => row.original.mechanicName ?? "—" },
-  { id: "updated", header: "Last change", cell: ({ row }) => new Date(row.original.updatedAt).toLocaleDateString("en-GB") },
+  { id: "updated", header: "Last change", cell: ({ row }) => formatDay(row.original.updatedAt) },
 ];
 
 export function WorkOrdersTable() {

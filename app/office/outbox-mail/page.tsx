@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { outboxForOffice } from "@/db/mail/outbox";
 import { db } from "@/db/setup/client";
 import type { MailState } from "@/db/schema/mail";
@@ -56,11 +56,11 @@ function MailTable({ rows, testId, tryAgain }: { rows: Row[]; testId: string; tr
               <td className="py-2 pr-4">
                 {tryAgain ? (
                   <>
-                    {dayTime(m.queuedAt)}
+                    {formatDayTime(m.queuedAt)}
                     {m.lastError && <span className="block text-base break-all text-fail">{m.lastError}</span>}
                   </>
                 ) : (
-                  m.sentAt && dayTime(m.sentAt)
+                  m.sentAt && formatDayTime(m.sentAt)
                 )}
               </td>
               {tryAgain && (

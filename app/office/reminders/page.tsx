@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { listReminders, type ReminderRow } from "@/db/aftercare/reminders";
 import { db } from "@/db/setup/client";
 import { dayLabel, REMINDER_STATE_LABELS, type ReminderState } from "@/lib/aftercare/reminders";
@@ -69,7 +69,7 @@ function Rows({ rows, testId, today }: { rows: ReminderRow[]; testId: string; to
             <td className={td}>
               {r.doneAt ? (
                 <span className="text-base">
-                  Done {dayTime(r.doneAt)} by {r.doneBy}
+                  Done {formatDayTime(r.doneAt)} by {r.doneBy}
                   {r.doneNote ? ` — ${r.doneNote}` : ""}
                 </span>
               ) : (

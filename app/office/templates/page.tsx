@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
-import { day } from "@/app/ui/dates";
+import { formatDay } from "@/lib/format/dates";
 import { db } from "@/db/setup/client";
 import { templatesWithVersions } from "@/db/templates/documents";
 import { TemplateImport } from "./_components/template-import";
@@ -61,7 +61,7 @@ export default async function TemplatesPage() {
                 <ul className="mt-1">
                   {t.versions.map((v) => (
                     <li key={v.versionId} className="flex flex-wrap items-center gap-3">
-                      Version {v.version} · {day(v.createdAt)} · {v.createdByName ?? "—"}
+                      Version {v.version} · {formatDay(v.createdAt)} · {v.createdByName ?? "—"}
                       <a className="underline" href={`/api/office/templates/${encodeURIComponent(t.key)}?version=${v.version}&download=1`}>
                         export
                       </a>

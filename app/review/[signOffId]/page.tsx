@@ -13,7 +13,7 @@ export default async function ReviewSignOffPage({ params }: { params: Promise<{ 
   if (!id.success) notFound();
   return (
     <AppFrame user={user} current="/review">
-      <ReviewScreen signOffId={id.data} />
+      <ReviewScreen signOffId={id.data} canCloseClocks={user.role === "supervisor"} />
     </AppFrame>
   );
 }

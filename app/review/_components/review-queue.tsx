@@ -4,7 +4,7 @@ import type { ColumnDef } from "@tanstack/react-table";
 import Link from "next/link";
 import { useState } from "react";
 import { DataTable } from "@/app/ui/data-table";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { JobNumberFilter, SelectFilter, jobNumberFilter } from "@/app/ui/table-filters";
 import type { QueueRow } from "@/db/review/queue";
 
@@ -20,7 +20,7 @@ const columns: ColumnDef<QueueRow, unknown>[] = [
     header: "Signed off",
     cell: ({ row }) => (
       <span>
-        {dayTime(row.original.deviceTime)}
+        {formatDayTime(row.original.deviceTime)}
         {row.original.resubmitted && <span className="block text-sm font-bold">↺ after a send-back</span>}
         {row.original.backAfterApproval && (
           <span className="block text-sm font-bold text-warn" data-testid="queue-back-after-approval">

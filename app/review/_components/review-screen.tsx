@@ -4,15 +4,16 @@ import { useQuery, useQueryClient } from "@tanstack/react-query";
 import Link from "next/link";
 import { useState } from "react";
 import { api } from "@/app/ui/api-client";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { FormMessage, quietButtonClass } from "@/app/ui/form-field";
+import { HoursPanel } from "@/app/ui/hours-panel";
 import { DecisionPanel } from "./decision-panel";
 import type { SignOffReview } from "./review-types";
 import { StepRecord, Withdrawn } from "./step-record";
 import { When } from "./when";
 
 /** One sign-off under review: the record of its stage, then the decision. */
-export function ReviewScreen({ signOffId }: { signOffId: string }) {
+export function ReviewScreen({ signOffId, canCloseClocks = false }: { signOffId: string; canCloseClocks?: boolean }) {
   const client = useQueryClient();
   const [message, setMessage] = useState<string | null>(null);
   const [changing, setChanging] = useState(false);
@@ -89,7 +90,7 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
           data-testid="standing-decision"
         >
           {standing.decision === "approved" ? "✔ Approved" : `↺ Sent back: “${standing.reason}”`} by {standing.by.name},{" "}
-          {dayTime(standing.decidedAt)}
+          {formatDayTime(standing.decidedAt)}
           {r.decisions.length > 1 ? ` (replaces ${r.decisions.length - 1} earlier decision${r.decisions.length > 2 ? "s" : ""})` : ""}
         </p>
       )}
@@ -120,7 +121,7 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
                 <span className="font-bold">{f.description}</span> by {f.by.name}: {f.flagReason}{" "}
                 {f.acceptance ? (
                   <span className="font-bold text-pass">
-                    ✔ accepted by {f.acceptance.by.name}, {dayTime(f.acceptance.acceptedAt)}: “{f.acceptance.justification}”
+                    ✔ accepted by {f.acceptance.by.name}, {formatDayTime(f.acceptance.acceptedAt)}: “{f.acceptance.justification}”
                   </span>
                 ) : (
                   <span className="font-bold text-fail">✖ not accepted yet{f.afterApproval ? " (came in after the approval)" : ""}</span>
@@ -137,7 +138,7 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
           <ul className="mt-2 space-y-1">
             {r.earlier.map((e) => (
               <li key={e.id}>
-                {dayTime(e.deviceTime)} by {e.by.name}:{" "}
+                {formatDayTime(e.deviceTime)} by {e.by.name}:{" "}
                 {e.decisions.length === 0
                   ? "no decision"
                   : e.decisions
@@ -178,6 +179,7 @@ export function ReviewScreen({ signOffId }: { signOffId: string }) {
           }}
         />
       )}
+      <HoursPanel jobId={r.job.id} canClose={canCloseClocks} />
     </div>
   );
 }

@@ -1,4 +1,4 @@
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import type { ReadingLine, SpecView, StepReview, TorqueView, WithdrawnLine } from "./review-types";
 import { VerdictTag, When } from "./when";
 
@@ -6,7 +6,7 @@ import { VerdictTag, When } from "./when";
 export function Withdrawn({ w }: { w: WithdrawnLine }) {
   return (
     <span className="block rounded border-2 border-fail bg-fail-light px-2 py-1 text-sm font-bold text-fail" data-testid="withdrawn-mark">
-      ⊘ Withdrawn by {w.by.name}, {dayTime(w.at)}: “{w.reason}” — it no longer counts
+      ⊘ Withdrawn by {w.by.name}, {formatDayTime(w.at)}: “{w.reason}” — it no longer counts
     </span>
   );
 }
@@ -26,7 +26,7 @@ export function StepRecord({ step }: { step: StepReview }) {
       {step.sentBack.length > 0 && (
         <p className="mt-1 text-base font-bold text-warn">
           ↺ Sent back {step.sentBack.length === 1 ? "once" : `${step.sentBack.length} times`} — latest: “{step.sentBack[0].reason}” (
-          {step.sentBack[0].by.name}, {dayTime(step.sentBack[0].decidedAt)})
+          {step.sentBack[0].by.name}, {formatDayTime(step.sentBack[0].decidedAt)})
         </p>
       )}
       <div className="mt-2">
@@ -60,8 +60,8 @@ export function StepRecord({ step }: { step: StepReview }) {
           <ul>
             {step.timers.map((t) => (
               <li key={t.id}>
-                {t.label}: {Math.round(t.durationS / 60)} min, started {dayTime(t.startedAt)} by {t.startedBy.name}
-                {t.stoppedAt ? `, stopped ${dayTime(t.stoppedAt)}` : ""}
+                {t.label}: {Math.round(t.durationS / 60)} min, started {formatDayTime(t.startedAt)} by {t.startedBy.name}
+                {t.stoppedAt ? `, stopped ${formatDayTime(t.stoppedAt)}` : ""}
                 {t.stop && (t.stop.by || t.stop.reason) && (
                   <span className="block">
                     Stopped{t.stop.by ? ` by ${t.stop.by.name}` : ""}
@@ -70,8 +70,8 @@ export function StepRecord({ step }: { step: StepReview }) {
                 )}
                 {t.cancelled && (
                   <span className="block font-bold text-fail">
-                    ⊘ Cancelled{t.cancelled.by ? ` by ${t.cancelled.by.name}` : ""}, {dayTime(t.cancelled.at)}: “{t.cancelled.reason}” — it
-                    does not count
+                    ⊘ Cancelled{t.cancelled.by ? ` by ${t.cancelled.by.name}` : ""}, {formatDayTime(t.cancelled.at)}: “{t.cancelled.reason}”
+                    — it does not count
                   </span>
                 )}
                 {t.override && (
@@ -104,7 +104,7 @@ export function StepRecord({ step }: { step: StepReview }) {
                 )}
                 <span className="block">
                   {p.contentType.replace("image/", "").toUpperCase()}, {Math.max(1, Math.round(p.byteSize / 1024))} kB ·{" "}
-                  {dayTime(p.createdAt)}
+                  {formatDayTime(p.createdAt)}
                 </span>
                 {p.caption && <span className="block">{p.caption}</span>}
                 {p.withdrawn && <Withdrawn w={p.withdrawn} />}
@@ -122,7 +122,7 @@ export function StepRecord({ step }: { step: StepReview }) {
                 {p.quantity} × <span className="font-mono">{p.partNumber}</span> {p.description}
                 {p.serial && <span className="font-mono"> · serial {p.serial}</span>}
                 {p.batch && <span className="font-mono"> · batch {p.batch}</span>} · {p.by ? p.by.name : "recorded in the office"} ·{" "}
-                {dayTime(p.fittedAt)}
+                {formatDayTime(p.fittedAt)}
                 {p.flagReason && <span className="block font-bold text-warn">⚑ {p.flagReason}</span>}
                 {p.withdrawn && <Withdrawn w={p.withdrawn} />}
               </li>
@@ -237,7 +237,7 @@ function boltState(b: TorqueView["passes"][number]["bolts"][number]) {
   const counting = b.records.filter((r) => !r.withdrawn);
   if (counting.length > 1) return { mark: "2×", cls: "border-warn bg-warn-light text-warn", what: `recorded ${counting.length} times` };
   if (b.done)
-    return { mark: "✔", cls: "border-pass bg-pass-light text-pass", what: `done by ${b.done.by.name} ${dayTime(b.done.deviceTime)}` };
+    return { mark: "✔", cls: "border-pass bg-pass-light text-pass", what: `done by ${b.done.by.name} ${formatDayTime(b.done.deviceTime)}` };
   if (b.records.length) return { mark: "⊘", cls: "border-fail text-fail", what: "withdrawn, to do again" };
   return { mark: "✖", cls: "border-fail text-fail", what: "not done" };
 }
@@ -309,8 +309,8 @@ function TorqueGrid({ t }: { t: TorqueView }) {
           const wrench = counting.filter((d) => d.r.wrench).map((d) => d.r.wrench);
           return (
             <p className="text-sm">
-              By {by}, {dayTime(new Date(Math.min(...times)).toISOString())} to {dayTime(new Date(Math.max(...times)).toISOString())} on the
-              tablet
+              By {by}, {formatDayTime(new Date(Math.min(...times)).toISOString())} to{" "}
+              {formatDayTime(new Date(Math.max(...times)).toISOString())} on the tablet
               {wrench.length ? ` · wrench readings: ${wrench.join(", ")}` : ""}
             </p>
           );
@@ -320,7 +320,7 @@ function TorqueGrid({ t }: { t: TorqueView }) {
           {withdrawn.map(({ r, pass, bolt }) => (
             <li key={r.id} data-testid="withdrawn-bolt">
               <span className="line-through">
-                Bolt {bolt}, pass {pass} by {r.by.name}, {dayTime(r.deviceTime)}
+                Bolt {bolt}, pass {pass} by {r.by.name}, {formatDayTime(r.deviceTime)}
               </span>{" "}
               <Withdrawn w={r.withdrawn!} />
             </li>

@@ -1,4 +1,4 @@
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import type { Verdict } from "@/lib/sync/readings";
 
 /** Device time, and when the server received it (they differ when the tablet was offline). */
@@ -6,10 +6,10 @@ export function When({ device, received }: { device: string; received: string | 
   const gapMin = received ? Math.round((Date.parse(received) - Date.parse(device)) / 60_000) : 0;
   return (
     <span className="text-sm">
-      <span>on the tablet {dayTime(device)}</span>
+      <span>on the tablet {formatDayTime(device)}</span>
       {received && (
         <span className="block text-steel-700">
-          received {dayTime(received)}
+          received {formatDayTime(received)}
           {gapMin >= 2 ? ` (${gapMin} min later)` : ""}
         </span>
       )}

@@ -1,11 +1,12 @@
 import { createDb } from "../client";
 import { demoAftercareExists, seedDemoAftercare } from "../../seed/demo-aftercare";
 import { demoBenchChecksExist, seedDemoBenchChecks } from "../../seed/demo-bench-checks";
+import { demoBenchTimeExists, seedDemoBenchTime } from "../../seed/demo-bench-time";
 import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
 import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
 
 // Seeds the invented demo workshop once; a second run leaves existing data alone. A shop seeded
-// before demo jobs 1030–1032, 1020–1022 or 1040–1041 existed gets them (once) without anything else being touched.
+// before demo jobs 1030–1032, 1020–1022, 1040–1041 or 1060–1061 existed gets them (once) without anything else being touched.
 const db = createDb(undefined, 1);
 try {
   const shopId = await demoShopId(db);
@@ -25,6 +26,10 @@ try {
     if (!(await demoAftercareExists(db, shopId))) {
       await seedDemoAftercare(db, shopId);
       console.log("[seed] demo jobs 1040–1041 (come-backs and reminders) added");
+    }
+    if (!(await demoBenchTimeExists(db, shopId))) {
+      await seedDemoBenchTime(db, shopId);
+      console.log("[seed] demo jobs 1060–1061 (time at the bench) added");
     }
   }
 } finally {

@@ -9,7 +9,7 @@ import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { TagQr } from "@/app/ui/tag-qr";
-import { day } from "@/app/ui/dates";
+import { formatDay } from "@/lib/format/dates";
 import { db } from "@/db/setup/client";
 import { bikeRecord } from "@/db/records/bike-record";
 import { canReach } from "@/lib/auth/roles";
@@ -115,7 +115,7 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
               )}
               <StatusBadge status={w.status} />
               <span className="text-steel-700">
-                booked in {day(w.createdAt)}
+                booked in {formatDay(w.createdAt)}
                 {w.odometerKm !== null ? ` at ${w.odometerKm.toLocaleString("en-GB")} km` : ""}
               </span>
             </li>
@@ -156,7 +156,7 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
                     {[p.serial && `S ${p.serial}`, p.batch && `B ${p.batch}`].filter(Boolean).join(" · ") || "—"}
                   </td>
                   <td className="py-1 pr-3">{p.stepTitle ?? "—"}</td>
-                  <td className="py-1 pr-3">{day(p.fittedAt)}</td>
+                  <td className="py-1 pr-3">{formatDay(p.fittedAt)}</td>
                 </tr>
               ))}
             </tbody>
@@ -221,7 +221,8 @@ export default async function BikePage({ params }: { params: Promise<{ id: strin
               <li key={w.id} className="rounded-lg border-2 border-fail bg-fail-light p-2">
                 <span className="font-mono font-bold">#{w.workOrderNumber}</span> <span className="line-through">{w.what}</span>
                 <span className="block">
-                  Recorded by {w.recordedBy}, {day(w.recordedAt)} · ⊘ withdrawn by {w.withdrawnBy}, {day(w.withdrawnAt)}: “{w.reason}”
+                  Recorded by {w.recordedBy}, {formatDay(w.recordedAt)} · ⊘ withdrawn by {w.withdrawnBy}, {formatDay(w.withdrawnAt)}: “
+                  {w.reason}”
                 </span>
               </li>
             ))}

@@ -4,7 +4,7 @@ import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useState, type FormEvent } from "react";
 import { api } from "@/app/ui/api-client";
-import { day } from "@/app/ui/dates";
+import { formatDay } from "@/lib/format/dates";
 import { buttonClass, inputClass } from "@/app/ui/form-field";
 
 interface Fitting {
@@ -103,7 +103,7 @@ export function PartsSearch() {
                     <span className="font-mono">{f.partNumber}</span> {f.description} {f.supplier && `(${f.supplier})`}
                   </td>
                   <td className="py-1 pr-3 font-mono">{[f.serial, f.batch].filter(Boolean).join(" · ")}</td>
-                  <td className="py-1 pr-3">{day(f.fittedAt)}</td>
+                  <td className="py-1 pr-3">{formatDay(f.fittedAt)}</td>
                 </tr>
               ))}
             </tbody>

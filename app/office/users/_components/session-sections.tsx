@@ -1,5 +1,5 @@
 import type { SignInWaitRow } from "@/app/_server/sign-in-waits";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import type { listOutboxHandovers } from "@/db/auth/outbox-handovers";
 import type { listOpenSessions } from "@/db/auth/sessions";
 import type { BucketKind } from "@/lib/auth/sign-in-throttle";
@@ -43,8 +43,8 @@ export function OpenSessions({ sessions }: { sessions: Sessions }) {
               <td className="py-2 pr-4">{s.userName}</td>
               <td className="py-2 pr-4 font-mono text-base">{s.deviceId ?? "—"}</td>
               <td className="py-2 pr-4 font-mono text-base">{s.clientAddress || "—"}</td>
-              <td className="py-2 pr-4">{dayTime(s.startedAt)}</td>
-              <td className="py-2 pr-4">{dayTime(s.lastSeenAt)}</td>
+              <td className="py-2 pr-4">{formatDayTime(s.startedAt)}</td>
+              <td className="py-2 pr-4">{formatDayTime(s.lastSeenAt)}</td>
               <td className="flex flex-wrap gap-2 py-2 pr-4">
                 <PostButton
                   url="/api/office/sessions"
@@ -128,7 +128,8 @@ export function HandedOver({ handovers }: { handovers: Handovers }) {
       <ul className="mt-2 flex flex-col gap-2 text-lg">
         {handovers.map((h) => (
           <li key={h.id}>
-            {dayTime(h.receivedAt)} — {h.userName} on <span className="font-mono">{h.deviceId}</span>: {h.entryCount} entries not sent —{" "}
+            {formatDayTime(h.receivedAt)} — {h.userName} on <span className="font-mono">{h.deviceId}</span>: {h.entryCount} entries not sent
+            —{" "}
             <a className="font-bold underline" href={`/api/office/outbox-handovers/${h.id}`}>
               download
             </a>

@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { fileSizeWords, groupedHash, TUNE_FILE_MAX_BYTES, type TuneVersion } from "@/lib/dyno/tune-version";
 import type { ErrorBody } from "@/lib/errors";
 import { FormStatus, type FormOutcome } from "./form-status";
@@ -65,7 +65,7 @@ export function TuneVersions({ workOrderId, tunes }: { workOrderId: string; tune
                   <span className="rounded bg-ink px-2 text-base font-bold text-white">✓ newest: the one handed over</span>
                 )}
                 <span className="text-base">
-                  {t.fileName}, {fileSizeWords(t.sizeBytes)} · {t.uploadedBy}, {dayTime(t.uploadedAt)}
+                  {t.fileName}, {fileSizeWords(t.sizeBytes)} · {t.uploadedBy}, {formatDayTime(t.uploadedAt)}
                 </span>
               </p>
               <p className="font-mono text-base break-all" data-testid="tune-hash">

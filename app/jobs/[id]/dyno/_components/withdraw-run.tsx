@@ -3,7 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
 import { api } from "@/app/ui/api-client";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { buttonClass, Field, FormMessage, inputClass } from "@/app/ui/form-field";
 import { useCheckedForm } from "@/app/ui/use-checked-form";
 import { runWithdrawalSchema, type StoredDynoRun } from "@/lib/dyno";
@@ -79,7 +79,7 @@ export function WithdrawnRuns({ runs }: { runs: StoredDynoRun[] }) {
           <li key={r.id} className="border-l-4 border-steel-700 pl-3 text-lg" data-testid="withdrawn-run">
             <span className="font-bold line-through">{r.label}</span> <span className="font-mono">({r.ranOn})</span>
             <span className="block">
-              ⊘ withdrawn {r.withdrawn ? `${dayTime(r.withdrawn.at)} by ${r.withdrawn.byName ?? "—"}: “${r.withdrawn.reason}”` : ""}
+              ⊘ withdrawn {r.withdrawn ? `${formatDayTime(r.withdrawn.at)} by ${r.withdrawn.byName ?? "—"}: “${r.withdrawn.reason}”` : ""}
             </span>
           </li>
         ))}

@@ -2,9 +2,10 @@
 
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { STAGE_PROGRESS_LABELS, type BuildProgress, type StageProgressState } from "@/lib/work-orders/build-progress";
 import { STATUS_LABELS } from "@/lib/work-orders/status";
+import { noReasonGiven } from "@/lib/errors";
 
 // A mark beside every state, so it never rests on colour alone.
 const MARK: Record<StageProgressState, { mark: string; className: string }> = {
@@ -22,8 +23,8 @@ export function BuildProgressPanel({ workOrderId, number }: { workOrderId: strin
     queryKey: ["work-order", workOrderId, "progress"],
     queryFn: async () => {
       const res = await fetch(`/api/office/work-orders/${workOrderId}/progress`);
-      const data = await res.json();
-      if (!res.ok) throw new Error(data.error ?? `Failed (${res.status})`);
+      const data = await res.json().catch(() => ({}));
+      if (!res.ok) throw new Error(data.error ?? noReasonGiven(res.status));
       return data as BuildProgress;
     },
   });
@@ -84,7 +85,7 @@ export function BuildProgressPanel({ workOrderId, number }: { workOrderId: strin
                       <span className={`font-bold ${MARK[s.state].className}`}>
                         <span aria-hidden="true">{MARK[s.state].mark}</span> {STAGE_PROGRESS_LABELS[s.state]}
                       </span>
-                      {s.signedOffAt && <span className="block text-sm text-steel-700">signed off {dayTime(s.signedOffAt)}</span>}
+                      {s.signedOffAt && <span className="block text-sm text-steel-700">signed off {formatDayTime(s.signedOffAt)}</span>}
                       {s.reason && <span className="block text-sm">“{s.reason}”</span>}
                     </td>
                   </tr>

@@ -5,7 +5,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState, type FormEvent } from "react";
 import { noteSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { Field, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { WorkOrderData } from "./types";
 
@@ -51,7 +51,7 @@ export function NotesPanel({ data }: { data: WorkOrderData }) {
         {wo.notes.map((n) => (
           <li key={n.id} className="border-l-4 border-steel-700 pl-3" data-testid="note">
             <p className="text-sm text-steel-700">
-              {KIND[n.kind as keyof typeof KIND] ?? n.kind} · {n.authorName ?? "—"} · {dayTime(n.at)}
+              {KIND[n.kind as keyof typeof KIND] ?? n.kind} · {n.authorName ?? "—"} · {formatDayTime(n.at)}
             </p>
             <p className="text-lg whitespace-pre-wrap">{n.body}</p>
             {photosOf(n.id).length > 0 && (

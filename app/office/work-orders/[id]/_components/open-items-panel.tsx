@@ -1,7 +1,7 @@
 "use client";
 
 import Link from "next/link";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { openItemLine, openItemsSummary } from "@/lib/work-orders/open-items";
 import { STATUS_LABELS } from "@/lib/work-orders/status";
 import type { WorkOrderData } from "./types";
@@ -83,7 +83,7 @@ export function OpenItemsPanel({ data, highlight }: { data: WorkOrderData; highl
                   <span aria-hidden="true">⚠</span> {STATUS_LABELS[o.from]} → {STATUS_LABELS[o.to]} with {openItemsSummary(o.openItems)}
                 </p>
                 <p>
-                  {o.byName}, {dayTime(o.at)}: “{o.reason}”
+                  {o.byName}, {formatDayTime(o.at)}: “{o.reason}”
                 </p>
                 <details>
                   <summary className="cursor-pointer font-bold">Open at that moment ({o.openItems.length})</summary>

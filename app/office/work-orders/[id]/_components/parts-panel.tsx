@@ -5,7 +5,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState, type FormEvent } from "react";
 import { partFittedSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { Field, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { WorkOrderData } from "./types";
 
@@ -61,7 +61,7 @@ export function PartsPanel({ data }: { data: WorkOrderData }) {
               {p.flagReason && <span className="block font-bold text-warn">⚑ Flagged for the supervisor: {p.flagReason}</span>}
               {p.withdrawn && (
                 <span className="block font-bold text-fail">
-                  ⊘ Withdrawn by {p.withdrawn.by}, {dayTime(p.withdrawn.at)}: “{p.withdrawn.reason}” — no longer counted as fitted
+                  ⊘ Withdrawn by {p.withdrawn.by}, {formatDayTime(p.withdrawn.at)}: “{p.withdrawn.reason}” — no longer counted as fitted
                 </span>
               )}
             </li>

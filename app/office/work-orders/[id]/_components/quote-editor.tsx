@@ -8,6 +8,7 @@ import { quoteDraftSchema } from "@/lib/office/schemas";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
 import { buttonClass, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import type { Quote, WorkOrderData } from "./types";
+import { MoneyTotals } from "@/app/ui/money-totals";
 
 interface LineText {
   kind: "part" | "labour";
@@ -175,7 +176,9 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
                       />
                       {err(i, "unitPriceMinor") && <p className="font-bold text-fail">✖ enter a price like 68.00</p>}
                     </td>
-                    <td className="py-1 pr-2 text-right font-mono">{live ? formatMinor(live.lineTotals[i], currency) : "—"}</td>
+                    <td className="py-1 pr-2 text-right tabular-nums whitespace-nowrap">
+                      {live ? formatMinor(live.lineTotals[i], currency) : "—"}
+                    </td>
                     <td className="py-1">
                       <button
                         type="button"
@@ -197,16 +200,15 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
             + Add a line
           </button>
           <div className="mt-4 grid gap-4 md:grid-cols-2">
-            <dl className="grid grid-cols-[auto_auto] justify-start gap-x-6 text-lg" data-testid="quote-totals">
-              <dt>Subtotal</dt>
-              <dd className="text-right font-mono">{live ? formatMinor(live.subtotalMinor, currency) : "—"}</dd>
-              <dt>Tax ({(taxRateBp / 100).toFixed(2)} %)</dt>
-              <dd className="text-right font-mono">{live ? formatMinor(live.taxMinor, currency) : "—"}</dd>
-              <dt className="font-bold">Total</dt>
-              <dd className="text-right font-mono font-bold" data-testid="quote-total">
-                {live ? formatMinor(live.totalMinor, currency) : "—"}
-              </dd>
-            </dl>
+            <MoneyTotals
+              testId="quote-totals"
+              currency={currency}
+              rows={[
+                { label: "Subtotal", minor: live ? live.subtotalMinor : null },
+                { label: `Tax (${(taxRateBp / 100).toFixed(2)} %)`, minor: live ? live.taxMinor : null },
+                { label: "Total", minor: live ? live.totalMinor : null, strong: true, testId: "quote-total" },
+              ]}
+            />
             <div className="grid gap-3">
               <label className="flex flex-col gap-1 font-bold">
                 Deposit asked
@@ -249,11 +251,14 @@ export function QuoteEditor({ data, currency, taxRateBp }: { data: WorkOrderData
       {data.invoice && (
         <div className="mt-4 rounded-lg border-2 border-pass bg-pass-light p-3" data-testid="invoice">
           <h3 className="text-lg font-bold">Final invoice {data.invoice.number}</h3>
-          <p className="font-mono">
-            Total {formatMinor(data.invoice.totalMinor, data.invoice.currency)} · deposit paid{" "}
-            {formatMinor(data.invoice.depositsPaidMinor, data.invoice.currency)} · balance due{" "}
-            {formatMinor(data.invoice.balanceDueMinor, data.invoice.currency)}
-          </p>
+          <MoneyTotals
+            currency={data.invoice.currency}
+            rows={[
+              { label: "Total", minor: data.invoice.totalMinor },
+              { label: "Deposit paid", minor: data.invoice.depositsPaidMinor },
+              { label: "Balance due", minor: data.invoice.balanceDueMinor, strong: true },
+            ]}
+          />
         </div>
       )}
     </section>
@@ -271,18 +276,22 @@ function QuoteLines({ q }: { q: Quote }) {
             <td className="py-1 pr-2">
               {l.description} {l.partNumber && <span className="font-mono text-steel-700">{l.partNumber}</span>}
             </td>
-            <td className="py-1 pr-2 font-mono">
+            <td className="py-1 pr-2 text-right tabular-nums whitespace-nowrap">
               {(l.quantityHundredths / 100).toFixed(2)} × {formatMinor(l.unitPriceMinor, c)}
             </td>
-            <td className="py-1 text-right font-mono">{formatMinor(l.lineTotalMinor, c)}</td>
+            <td className="py-1 text-right tabular-nums whitespace-nowrap">{formatMinor(l.lineTotalMinor, c)}</td>
           </tr>
         ))}
         <tr>
-          <td colSpan={3} className="pt-2 text-right">
-            Subtotal · tax {(q.taxRateBp / 100).toFixed(2)} % · total
-          </td>
-          <td className="pt-2 text-right font-mono">
-            {formatMinor(q.subtotalMinor, c)} · {formatMinor(q.taxMinor, c)} · <strong>{formatMinor(q.totalMinor, c)}</strong>
+          <td colSpan={4} className="pt-3">
+            <MoneyTotals
+              currency={c}
+              rows={[
+                { label: "Subtotal", minor: q.subtotalMinor },
+                { label: `Tax (${(q.taxRateBp / 100).toFixed(2)} %)`, minor: q.taxMinor },
+                { label: "Total", minor: q.totalMinor, strong: true },
+              ]}
+            />
           </td>
         </tr>
       </tbody>
@@ -297,7 +306,7 @@ function QuoteSummary({ q }: { q: Quote }) {
     <li className="flex flex-wrap items-center gap-3 text-lg" data-testid="quote-version">
       <span className="font-bold">v{q.version}</span>
       <span>{QUOTE_STATUS[q.status]}</span>
-      <span className="font-mono">{formatMinor(q.totalMinor, q.currency)}</span>
+      <span className="tabular-nums">{formatMinor(q.totalMinor, q.currency)}</span>
       {q.depositMinor > 0 && (
         <span
           data-testid="deposit-state"

@@ -1,6 +1,6 @@
 "use client";
 
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import type { WorkOrderData } from "./types";
 
 /**
@@ -30,7 +30,7 @@ export function ReportCopies({ data }: { data: WorkOrderData }) {
               <a href={`${url}?revision=${r.revision}`} download className="font-bold underline">
                 Revision {r.revision}
               </a>{" "}
-              {r.handedOver ? "✔ as handed over" : "after an accepted change"}, {dayTime(r.madeAt)}
+              {r.handedOver ? "✔ as handed over" : "after an accepted change"}, {formatDayTime(r.madeAt)}
               {r.madeByName ? ` by ${r.madeByName}` : ""}
               <span className="block break-all font-mono text-sm text-steel-700">SHA-256 {r.sha256}</span>
               {r.changes.length > 0 && (

@@ -5,8 +5,9 @@ import Link from "next/link";
 import { useState } from "react";
 import { READY_FOR_BUILD_NOTICE } from "@/lib/office/deposit-notice";
 import { STATUS_LABELS } from "@/lib/work-orders/status";
-import { dayTime } from "@/app/ui/dates";
+import { formatDayTime } from "@/lib/format/dates";
 import { StatusBadge } from "@/app/ui/status-badge";
+import { HoursPanel } from "@/app/ui/hours-panel";
 import { AftercarePanel } from "./aftercare-panel";
 import { BuildProgressPanel } from "./build-progress-panel";
 import { NotesPanel } from "./notes-panel";
@@ -16,6 +17,7 @@ import { PartsPanel } from "./parts-panel";
 import { QuoteEditor } from "./quote-editor";
 import { AssignPanel, StatusPanel } from "./status-panel";
 import type { WorkOrderData } from "./types";
+import { noReasonGiven } from "@/lib/errors";
 
 const MAIL_KIND = {
   quote_ready: "Quote ready",
@@ -31,8 +33,8 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
     queryKey: ["work-order", id],
     queryFn: async () => {
       const res = await fetch(`/api/office/work-orders/${id}`);
-      const data = await res.json();
-      if (!res.ok) throw new Error(data.error ?? `Failed (${res.status})`);
+      const data = await res.json().catch(() => ({}));
+      if (!res.ok) throw new Error(data.error ?? noReasonGiven(res.status));
       return data as WorkOrderData;
     },
   });
@@ -90,7 +92,7 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
           data-testid="ready-for-build"
         >
           <span aria-hidden="true">✔</span> {READY_FOR_BUILD_NOTICE}
-          {wo.depositPaidAt ? ` (paid ${dayTime(wo.depositPaidAt)})` : ""}
+          {wo.depositPaidAt ? ` (paid ${formatDayTime(wo.depositPaidAt)})` : ""}
         </p>
       )}
       <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
@@ -101,6 +103,7 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
       <OpenItemsPanel data={data} highlight={gateRefused} />
       <ReportCopies data={data} />
       <BuildProgressPanel workOrderId={wo.id} number={wo.number} />
+      <HoursPanel jobId={wo.id} />
       <QuoteEditor key={data.quotes.map((x) => `${x.id}${x.status}`).join()} data={data} currency={currency} taxRateBp={taxRateBp} />
       <NotesPanel data={data} />
       <PartsPanel data={data} />
@@ -113,9 +116,9 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
           <ul className="mt-2 space-y-1" data-testid="withdrawn-entries">
             {wo.withdrawn.map((w) => (
               <li key={w.id} className="text-lg">
-                <span className="line-through">{w.what}</span> · recorded by {w.recordedBy}, {dayTime(w.recordedAt)} ·{" "}
+                <span className="line-through">{w.what}</span> · recorded by {w.recordedBy}, {formatDayTime(w.recordedAt)} ·{" "}
                 <span className="font-bold text-fail">
-                  ⊘ withdrawn by {w.withdrawnBy}, {dayTime(w.withdrawnAt)}: “{w.reason}”
+                  ⊘ withdrawn by {w.withdrawnBy}, {formatDayTime(w.withdrawnAt)}: “{w.reason}”
                 </span>
               </li>
             ))}
@@ -127,7 +130,7 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
         <ol className="mt-2 space-y-1" data-testid="transitions">
           {wo.transitions.map((t) => (
             <li key={t.id} className="text-lg">
-              {dayTime(t.at)} · {t.from ? `${STATUS_LABELS[t.from]} → ` : ""}
+              {formatDayTime(t.at)} · {t.from ? `${STATUS_LABELS[t.from]} → ` : ""}
               <span className="font-bold">{STATUS_LABELS[t.to]}</span> · {t.byName ?? "—"}
               {t.note ? ` · “${t.note}”` : ""}
             </li>
@@ -140,7 +143,7 @@ export function WorkOrderView({ id, currency, taxRateBp, warning }: { id: string
           <ul className="mt-1 space-y-1" data-testid="emails">
             {wo.emails.map((m) => (
               <li key={m.id}>
-                {dayTime(m.at)} · {MAIL_KIND[m.kind as keyof typeof MAIL_KIND] ?? m.kind} to {m.recipient}{" "}
+                {formatDayTime(m.at)} · {MAIL_KIND[m.kind as keyof typeof MAIL_KIND] ?? m.kind} to {m.recipient}{" "}
                 {m.error ? <span className="font-bold text-fail">✖ not sent: {m.error}</span> : <span className="text-pass">✔ sent</span>}
               </li>
             ))}
