@@ -223,9 +223,10 @@ export async function writeKept(
 }
 
 /**
- * Timer stops and cancels of the batch, in one UPDATE: the earliest stop is kept (with who and
- * why), the first cancel stands; none replaces what is on file. Overrides are settled by stamp
- * afterwards, across batches (`applyFirstOverrides`).
+ * Timer stops and cancels of the batch, in one UPDATE: the earliest stop and the earliest cancel
+ * are kept (with who and why), whichever batch brought them, so a cancel sent twice ends the same
+ * in any order of arrival. Overrides are settled by stamp afterwards, across batches
+ * (`applyFirstOverrides`).
  */
 async function writeTimerEvents(trx: Tx, ops: readonly Operation[]): Promise<void> {
   const events = ops.flatMap((op, ord) => {
@@ -256,17 +257,17 @@ async function writeTimerEvents(trx: Tx, ops: readonly Operation[]): Promise<voi
       SELECT e.timer_id,
         ${first("at", "stop", "e.at, e.ord")} AS stop_at, ${first("actor", "stop", "e.at, e.ord")} AS stop_by,
         ${first("reason", "stop", "e.at, e.ord")} AS stop_reason,
-        ${first("at", "cancel", "e.ord")} AS cancel_at, ${first("actor", "cancel", "e.ord")} AS cancel_by,
-        ${first("reason", "cancel", "e.ord")} AS cancel_reason
+        ${first("at", "cancel", "e.at, e.ord")} AS cancel_at, ${first("actor", "cancel", "e.at, e.ord")} AS cancel_by,
+        ${first("reason", "cancel", "e.at, e.ord")} AS cancel_reason
       FROM e GROUP BY e.timer_id
     )
     UPDATE timers t SET
       stopped_at = CASE WHEN a.stop_at IS NOT NULL AND (t.stopped_at IS NULL OR a.stop_at < t.stopped_at) THEN a.stop_at ELSE t.stopped_at END,
       stopped_by = CASE WHEN a.stop_at IS NOT NULL AND (t.stopped_at IS NULL OR a.stop_at < t.stopped_at) THEN a.stop_by ELSE t.stopped_by END,
       stop_reason = CASE WHEN a.stop_at IS NOT NULL AND (t.stopped_at IS NULL OR a.stop_at < t.stopped_at) THEN a.stop_reason ELSE t.stop_reason END,
-      cancelled_at = COALESCE(t.cancelled_at, a.cancel_at),
-      cancelled_by = CASE WHEN t.cancelled_at IS NULL THEN a.cancel_by ELSE t.cancelled_by END,
-      cancel_reason = CASE WHEN t.cancelled_at IS NULL THEN a.cancel_reason ELSE t.cancel_reason END
+      cancelled_at = CASE WHEN a.cancel_at IS NOT NULL AND (t.cancelled_at IS NULL OR a.cancel_at < t.cancelled_at) THEN a.cancel_at ELSE t.cancelled_at END,
+      cancelled_by = CASE WHEN a.cancel_at IS NOT NULL AND (t.cancelled_at IS NULL OR a.cancel_at < t.cancelled_at) THEN a.cancel_by ELSE t.cancelled_by END,
+      cancel_reason = CASE WHEN a.cancel_at IS NOT NULL AND (t.cancelled_at IS NULL OR a.cancel_at < t.cancelled_at) THEN a.cancel_reason ELSE t.cancel_reason END
     FROM a WHERE t.id = a.timer_id
   `.execute(trx);
 }
