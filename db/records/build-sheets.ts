@@ -1,0 +1,103 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import { buildFiguresFromReadings, readStoredSheet, readingKindOf, type BuildReading, type BuildSheet } from "@/lib/build-figures";
+import { intercoolerFromRuns } from "@/lib/build-figures/intercooler-from-run";
+import { boostTargetKpa } from "@/lib/dyno/boost";
+import { countingRuns } from "@/lib/dyno/run-withdrawal";
+import type { Database } from "../schema";
+import { listDynoRuns } from "./dyno";
+
+// A work order's build sheet (lib/build-figures/build-sheet.ts; table build_sheets, append-only:
+// each save is a new row, the newest is current) and the build's own figures worked out from the
+// job's current readings.
+
+/** The newest build sheet of the work order, with who saved it and when; null when none was saved. */
+export async function currentBuildSheet(db: Kysely<Database>, shopId: string, workOrderId: string) {
+  const row = await db
+    .selectFrom("build_sheets as s")
+    .innerJoin("users as u", "u.id", "s.created_by")
+    .select(["s.id", "s.figures", "u.name as savedBy", "s.created_at as savedAt"])
+    .where("s.shop_id", "=", shopId)
+    .where("s.work_order_id", "=", workOrderId)
+    .orderBy("s.created_at", "desc")
+    .orderBy("s.id", "desc")
+    .limit(1)
+    .executeTakeFirst();
+  if (!row) return null;
+  return { id: row.id, sheet: readStoredSheet(row.figures), savedBy: row.savedBy, savedAt: row.savedAt.toISOString() };
+}
+
+/** Saves a checked sheet as the work order's newest; returns its id. */
+export async function saveBuildSheet(
+  db: Kysely<Database>,
+  user: { id: string; shopId: string },
+  workOrderId: string,
+  sheet: BuildSheet,
+): Promise<string> {
+  const { id } = await db
+    .insertInto("build_sheets")
+    .values({ shop_id: user.shopId, work_order_id: workOrderId, figures: JSON.stringify(sheet), created_by: user.id })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return id;
+}
+
+/**
+ * The work order's current readings that feed the build figures (spec keys bore, stroke,
+ * chamber-volume, deck-clearance, gasket-thickness…), read from current_measurements like every
+ * other screen; optionally only those of one stage.
+ */
+export async function buildReadingsOf(
+  db: Kysely<Database>,
+  workOrderId: string,
+  stage?: { jobProcedureId: string; stageKey: string },
+): Promise<BuildReading[]> {
+  let q = db
+    .selectFrom("current_measurements as m")
+    .innerJoin("measurement_specs as s", "s.id", "m.spec_id")
+    .innerJoin("template_steps as t", "t.id", "m.step_id")
+    .select(["s.key as specKey", "m.value", "m.unit"])
+    .where("m.work_order_id", "=", workOrderId);
+  if (stage) {
+    q = q
+      .innerJoin("job_procedures as jp", "jp.template_version_id", "t.template_version_id")
+      .where("jp.id", "=", stage.jobProcedureId)
+      .where("t.stage_key", "=", stage.stageKey);
+  }
+  const rows = await q.execute();
+  return rows.filter((r) => readingKindOf(r.specKey) !== null).map((r) => ({ specKey: r.specKey, value: Number(r.value), unit: r.unit }));
+}
+
+/**
+ * Everything the job's "turbo and fuel figures" and build figures read: the bike's displacement,
+ * the boost target of the newest counting dyno run, the saved sheet, the figures from the readings,
+ * and the intercooler rated from logged channels when a run has them. null when not this shop's job.
+ */
+export async function loadBuildNumbers(db: Kysely<Database>, shopId: string, workOrderId: string) {
+  const job = await db
+    .selectFrom("work_orders as w")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .select(["w.id", "b.displacement_cc as displacementCc"])
+    .where("w.shop_id", "=", shopId)
+    .where("w.id", "=", workOrderId)
+    .executeTakeFirst();
+  if (!job) return null;
+  const [saved, readings, allRuns] = await Promise.all([
+    currentBuildSheet(db, shopId, workOrderId),
+    buildReadingsOf(db, workOrderId),
+    listDynoRuns(db, shopId, workOrderId),
+  ]);
+  const runs = countingRuns(allRuns);
+  const newest = runs.at(-1) ?? null;
+  const dynoBoostKpa = newest ? boostTargetKpa(newest.boostTarget, newest.boostUnit) : null;
+  const sheet = saved?.sheet ?? { figures: {}, fuel: null, mapOutline: null };
+  const figures = buildFiguresFromReadings({ readings, sheet, boostKpa: sheet.figures.boostKpa ?? dynoBoostKpa });
+  return {
+    displacementCc: job.displacementCc,
+    dynoBoost: newest ? { kpa: dynoBoostKpa!, label: newest.label, value: newest.boostTarget, unit: newest.boostUnit } : null,
+    saved,
+    sheet,
+    figures,
+    intercooler: intercoolerFromRuns(runs),
+  };
+}
