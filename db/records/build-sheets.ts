@@ -1,9 +1,17 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import { buildFiguresFromReadings, readStoredSheet, readingKindOf, type BuildReading, type BuildSheet } from "@/lib/build-figures";
+import {
+  buildFiguresFromReadings,
+  EMPTY_BUILD_SHEET,
+  readStoredSheet,
+  readingKindOf,
+  type BuildReading,
+  type BuildSheet,
+} from "@/lib/build-figures";
 import { intercoolerFromRuns } from "@/lib/build-figures/intercooler-from-run";
 import { boostTargetKpa } from "@/lib/dyno/boost";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
+import type { StoredDynoRun } from "@/lib/dyno/run-summary";
 import type { Database } from "../schema";
 import { listDynoRuns } from "./dyno";
 
@@ -68,6 +76,21 @@ export async function buildReadingsOf(
   return rows.filter((r) => readingKindOf(r.specKey) !== null).map((r) => ({ specKey: r.specKey, value: Number(r.value), unit: r.unit }));
 }
 
+/** The build's own figures of a work order: its current readings and its saved sheet, with `boostKpa` when no sheet boost is saved. */
+export async function buildFiguresOf(db: Kysely<Database>, shopId: string, workOrderId: string, boostKpa: number | null) {
+  const [saved, readings] = await Promise.all([currentBuildSheet(db, shopId, workOrderId), buildReadingsOf(db, workOrderId)]);
+  const sheet = saved?.sheet ?? EMPTY_BUILD_SHEET;
+  return { saved, sheet, figures: buildFiguresFromReadings({ readings, sheet, boostKpa: sheet.figures.boostKpa ?? boostKpa }) };
+}
+
+/** Boost target of the newest counting run, kPa gauge, with the run; null without runs. */
+export function newestRunBoost(runs: readonly StoredDynoRun[]) {
+  const newest = countingRuns(runs).at(-1);
+  return newest
+    ? { kpa: boostTargetKpa(newest.boostTarget, newest.boostUnit), label: newest.label, value: newest.boostTarget, unit: newest.boostUnit }
+    : null;
+}
+
 /**
  * Everything the job's "turbo and fuel figures" and build figures read: the bike's displacement,
  * the boost target of the newest counting dyno run, the saved sheet, the figures from the readings,
@@ -82,22 +105,8 @@ export async function loadBuildNumbers(db: Kysely<Database>, shopId: string, wor
     .where("w.id", "=", workOrderId)
     .executeTakeFirst();
   if (!job) return null;
-  const [saved, readings, allRuns] = await Promise.all([
-    currentBuildSheet(db, shopId, workOrderId),
-    buildReadingsOf(db, workOrderId),
-    listDynoRuns(db, shopId, workOrderId),
-  ]);
-  const runs = countingRuns(allRuns);
-  const newest = runs.at(-1) ?? null;
-  const dynoBoostKpa = newest ? boostTargetKpa(newest.boostTarget, newest.boostUnit) : null;
-  const sheet = saved?.sheet ?? { figures: {}, fuel: null, mapOutline: null };
-  const figures = buildFiguresFromReadings({ readings, sheet, boostKpa: sheet.figures.boostKpa ?? dynoBoostKpa });
-  return {
-    displacementCc: job.displacementCc,
-    dynoBoost: newest ? { kpa: dynoBoostKpa!, label: newest.label, value: newest.boostTarget, unit: newest.boostUnit } : null,
-    saved,
-    sheet,
-    figures,
-    intercooler: intercoolerFromRuns(runs),
-  };
+  const runs = countingRuns(await listDynoRuns(db, shopId, workOrderId));
+  const dynoBoost = newestRunBoost(runs);
+  const { saved, sheet, figures } = await buildFiguresOf(db, shopId, workOrderId, dynoBoost?.kpa ?? null);
+  return { displacementCc: job.displacementCc, dynoBoost, saved, sheet, figures, intercooler: intercoolerFromRuns(runs) };
 }
