@@ -110,3 +110,23 @@ export async function loadBuildNumbers(db: Kysely<Database>, shopId: string, wor
   const { saved, sheet, figures } = await buildFiguresOf(db, shopId, workOrderId, dynoBoost?.kpa ?? null);
   return { displacementCc: job.displacementCc, dynoBoost, saved, sheet, figures, intercooler: intercoolerFromRuns(runs) };
 }
+
+/**
+ * The build's figures for the review of a sign-off, when its stage holds readings that feed them
+ * (bore, chamber volume, deck …); null otherwise or when the sign-off is not this shop's. The figures
+ * are worked from all the job's current readings (a chamber may be measured in another stage).
+ */
+export async function buildFiguresForSignOff(db: Kysely<Database>, shopId: string, signOffId: string) {
+  const so = await db
+    .selectFrom("sign_offs as so")
+    .innerJoin("work_orders as w", "w.id", "so.work_order_id")
+    .select(["so.work_order_id as workOrderId", "so.job_procedure_id as jobProcedureId", "so.stage_key as stageKey"])
+    .where("so.id", "=", signOffId)
+    .where("w.shop_id", "=", shopId)
+    .executeTakeFirst();
+  if (!so) return null;
+  const inStage = await buildReadingsOf(db, so.workOrderId, { jobProcedureId: so.jobProcedureId, stageKey: so.stageKey });
+  if (inStage.length === 0) return null;
+  const runs = countingRuns(await listDynoRuns(db, shopId, so.workOrderId));
+  return (await buildFiguresOf(db, shopId, so.workOrderId, newestRunBoost(runs)?.kpa ?? null)).figures;
+}

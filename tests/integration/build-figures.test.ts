@@ -2,7 +2,7 @@ import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { renderBuildReport } from "@/app/_server/handover-report";
 import { GET as getSheet, POST as postSheet } from "@/app/api/jobs/[id]/build-sheet/route";
-import { buildReadingsOf } from "@/db/records/build-sheets";
+import { buildFiguresForSignOff, buildReadingsOf } from "@/db/records/build-sheets";
 import { createTemplateVersion } from "@/db/templates/versions";
 import type { TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import { Tablet } from "../bench/sync-ops";
@@ -57,6 +57,7 @@ async function measuredJob() {
   const tablet = new Tablet(`tablet-${randomUUID().slice(0, 8)}`, mech.id, fx.workOrderId);
   // REFERENCE-CHECKS "Static CR" worked example (Heywood ch. 2, calc): 86 × 86, 45 cc, 87 × 1.1 gasket,
   // 0.2 deck, 5 cc dish → 9.6577. Bore read twice (85.998, 86.002: mean 86).
+  const signOff = tablet.make("stage.signed-off", { jobProcedureId: jp.id, stageKey: "measure" });
   const r = await sync(db, mech, tablet, [
     tablet.read(step.id, specs["bore-1"], 0, 85.998),
     tablet.read(step.id, specs["bore-1"], 1, 86.002),
@@ -64,9 +65,11 @@ async function measuredJob() {
     tablet.read(step.id, specs["chamber-volume"], 0, 45, { unit: "cc" }),
     tablet.read(step.id, specs["deck-clearance"], 0, 0.2),
     tablet.read(step.id, specs["gasket-thickness"], 0, 1.1),
+    tablet.complete(step.id),
+    signOff,
   ]);
   expect(r.refused).toEqual([]);
-  return { fx, stage: { jobProcedureId: jp.id, stageKey: "measure" } };
+  return { fx, stage: { jobProcedureId: jp.id, stageKey: "measure" }, signOffId: signOff.id };
 }
 
 const post = (workOrderId: string, user: ReturnType<typeof asUser>, body: unknown) =>
@@ -122,7 +125,7 @@ describe("the build's own figures from its readings (real PostgreSQL, readings t
   });
 
   it("the handover report's rows and PDF carry the actual compression and boosted figures beside the targets", async () => {
-    const { fx, stage } = await measuredJob();
+    const { fx, stage, signOffId } = await measuredJob();
     expect(
       await post(fx.workOrderId, asUser(fx.users.office), {
         figures: { targetCompressionRatio: 9.5, gasketBoreMm: 87, pistonDishCc: 5, boostKpa: 68.9476 },
@@ -137,6 +140,12 @@ describe("the build's own figures from its readings (real PostgreSQL, readings t
       "gasket-thickness",
       "stroke",
     ]);
+
+    // the supervisor's review of the measuring stage shows the same figures; another shop's sign-off gives nothing
+    const inReview = await buildFiguresForSignOff(db, fx.shopId, signOffId);
+    expect(inReview?.compressionRatio).toBeCloseTo(9.6577, 4);
+    expect(inReview?.targetCompressionRatio).toBe(9.5);
+    expect(await buildFiguresForSignOff(db, (await createShopFixture(db)).shopId, signOffId)).toBeNull();
 
     const { pdf, lines } = await renderBuildReport(db, fx.shopId, fx.workOrderId);
     // 9.6577 static; boosted rule of thumb 9.6577 × (101.325 + 68.9476) / 101.325 = 16.229 (common practice); target 9.5 → 15.964
