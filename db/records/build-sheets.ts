@@ -12,6 +12,8 @@ import { intercoolerFromRuns } from "@/lib/build-figures/intercooler-from-run";
 import { boostTargetKpa } from "@/lib/dyno/boost";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
 import type { StoredDynoRun } from "@/lib/dyno/run-summary";
+import { closedRecordRefusal } from "@/lib/work-orders/closed-record";
+import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 import { listDynoRuns } from "./dyno";
 
@@ -35,19 +37,47 @@ export async function currentBuildSheet(db: Kysely<Database>, shopId: string, wo
   return { id: row.id, sheet: readStoredSheet(row.figures), savedBy: row.savedBy, savedAt: row.savedAt.toISOString() };
 }
 
-/** Saves a checked sheet as the work order's newest; returns its id. */
+/**
+ * Saves a checked sheet as the work order's newest, with its audit entry, in one transaction.
+ * Refused (409, audit entry kept) once the job's record is closed: the sheet's targets are in the
+ * handover report. null when the work order is not this shop's.
+ */
 export async function saveBuildSheet(
   db: Kysely<Database>,
   user: { id: string; shopId: string },
   workOrderId: string,
   sheet: BuildSheet,
-): Promise<string> {
-  const { id } = await db
-    .insertInto("build_sheets")
-    .values({ shop_id: user.shopId, work_order_id: workOrderId, figures: JSON.stringify(sheet), created_by: user.id })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  return id;
+): Promise<{ ok: true; id: string } | { ok: false; refused: string } | null> {
+  return db.transaction().execute(async (trx) => {
+    const job = await trx
+      .selectFrom("work_orders")
+      .select(["id", "number", "status"])
+      .where("shop_id", "=", user.shopId)
+      .where("id", "=", workOrderId)
+      .forShare()
+      .executeTakeFirst();
+    if (!job) return null;
+    const audit = { shopId: user.shopId, actorId: user.id, action: "build-sheet.saved", entity: "build_sheet", workOrderId };
+    const refused = closedRecordRefusal(job, "build sheet");
+    if (refused) {
+      await appendAudit(trx, [{ ...audit, outcome: "refused", reason: refused }]);
+      return { ok: false as const, refused };
+    }
+    const { id } = await trx
+      .insertInto("build_sheets")
+      .values({ shop_id: user.shopId, work_order_id: workOrderId, figures: JSON.stringify(sheet), created_by: user.id })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await appendAudit(trx, [
+      {
+        ...audit,
+        entityId: id,
+        outcome: "accepted",
+        detail: { figures: Object.keys(sheet.figures).length, mapOutline: sheet.mapOutline !== null },
+      },
+    ]);
+    return { ok: true as const, id };
+  });
 }
 
 /**

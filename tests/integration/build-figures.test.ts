@@ -118,6 +118,22 @@ describe("the build's own figures from its readings (real PostgreSQL, readings t
     };
     expect(numbers.sheet.figures.targetCompressionRatio).toBe(9.5); // the newest is current
     expect(numbers.figures.compressionRatio).toBeCloseTo(9.6577, 4);
+    // every save is in the audit log
+    const audited = await db
+      .selectFrom("audit_log")
+      .select(["outcome"])
+      .where("action", "=", "build-sheet.saved")
+      .where("work_order_id", "=", fx.workOrderId)
+      .execute();
+    expect(audited.map((a) => a.outcome)).toEqual(["accepted", "accepted"]);
+    // a handed-over job's record is closed: its build sheet is refused, with the reason on record
+    const closed = await createShopFixture(db, { status: "handed_over" });
+    const late = await post(closed.workOrderId, asUser(closed.users.office), { figures: { targetCompressionRatio: 9 } });
+    expect(late.status).toBe(409);
+    expect(((await late.json()) as { error: string }).error).toMatch(
+      /its record is closed\. A change to the build sheet for a bike that has left belongs on a new work order/,
+    );
+    expect(await db.selectFrom("build_sheets").select("id").where("work_order_id", "=", closed.workOrderId).execute()).toEqual([]);
     // another shop's user gets nothing
     const other = await createShopFixture(db);
     const refused = await post(fx.workOrderId, asUser(other.users.office), { figures: { targetCompressionRatio: 9 } });

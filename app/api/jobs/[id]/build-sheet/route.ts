@@ -25,7 +25,9 @@ export const POST = route(
     const id = idParam(params.id, NOT_FOUND);
     const checked = checkBuildSheet(body);
     if (!checked.ok) throw new Refusal(CHECK_THE_FIELDS, 400, checked.issues);
-    if (!(await loadBuildNumbers(db, user.shopId, id))) throw new Refusal(NOT_FOUND, 404);
-    return created({ id: await saveBuildSheet(db, user, id, checked.sheet) });
+    const saved = await saveBuildSheet(db, user, id, checked.sheet);
+    if (!saved) throw new Refusal(NOT_FOUND, 404);
+    if (!saved.ok) throw new Refusal(saved.refused, 409);
+    return created({ id: saved.id });
   },
 );
