@@ -5,7 +5,8 @@ import { ChargeAirCard } from "./_components/charge-air-card";
 import { CompressionCard } from "./_components/compression-card";
 import { GapsCard } from "./_components/gaps-card";
 import { IntercoolerCard } from "./_components/intercooler-card";
-import { PLANNER_START, TurboPlanner } from "./_components/turbo-planner";
+import { PLANNER_START } from "./_components/planner-fields";
+import { TurboPlanner } from "./_components/turbo-planner";
 import { TorqueUnitsCard } from "./_components/torque-units-card";
 
 export const metadata: Metadata = { title: "Engine numbers" };

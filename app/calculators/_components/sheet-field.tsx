@@ -4,7 +4,9 @@ import { describeRange, requireQuantity, withUnit } from "@/lib/calc";
 import { SHEET_FIELDS, type SheetField } from "@/lib/build-figures/build-sheet";
 import { NumberField, readNumber } from "./number-field";
 
-export type SheetForm = Partial<Record<SheetField, string>>;
+import type { SheetForm } from "./planner-fields";
+
+export type { SheetForm };
 
 /** A build sheet figure as a form field: the label, unit and range come from the one rule the server checks. */
 export function SheetNumberField({
@@ -47,13 +49,6 @@ export function sheetFigures(form: SheetForm): Partial<Record<SheetField, number
     const t = v.trim().replace(",", ".");
     out[k] = /^-?\d+(\.\d+)?$/.test(t) ? Number(t) : v;
   }
-  return out;
-}
-
-/** A sheet's figures as form text. */
-export function formOf(figures: Partial<Record<SheetField, number>>): SheetForm {
-  const out: SheetForm = {};
-  for (const [k, v] of Object.entries(figures) as Array<[SheetField, number]>) out[k] = String(Number(v.toPrecision(10)));
   return out;
 }
 

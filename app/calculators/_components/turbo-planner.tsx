@@ -27,89 +27,8 @@ import type { SheetField } from "@/lib/build-figures/build-sheet";
 import { outlineLinesText, parseOutlineLines } from "@/lib/build-figures/outline-text";
 import { CompressorMapChart, POINT_LOOK, type ChartPoint } from "./compressor-map-chart";
 import { fixed } from "./number-field";
-import { formOf, kpaText, readSheetField, SheetNumberField, sheetFigures, type SheetForm } from "./sheet-field";
-
-/** Figures a planner starts from when nothing is saved: an invented 1 000 cc four on 100 kPa boost. */
-export const PLANNER_START: SheetForm = {
-  displacementCc: "998",
-  rpmFrom: "4000",
-  rpmTo: "11000",
-  rpmStep: "1000",
-  volumetricEfficiencyPercent: "95",
-  boostKpa: "70",
-  stationPressureKpa: "101.3",
-  ambientC: "25",
-  filterLossKpa: "2",
-  intercoolerDropKpa: "7",
-  pipingDropKpa: "3",
-  compressorEfficiencyPercent: "72",
-  intercoolerEffectivenessPercent: "70",
-  powerKw: "190",
-  bsfcGPerKwh: "380",
-  injectors: "4",
-  maxDutyPercent: "80",
-  injectorRatedFlowCcMin: "440",
-  injectorRatedPressureKpa: "300",
-  baseFuelPressureKpa: "300",
-  regulatorRiseRatio: "1",
-  pumpMarginPercent: "25",
-  boreMm: "76",
-  strokeMm: "55",
-  rodLengthMm: "110",
-  targetCompressionRatio: "9.5",
-  intakeClosesDegAbdc: "45",
-  deckClearanceMm: "0.2",
-  gasketThicknessMm: "0.7",
-};
-
-/** Fields that belong to the build's own targets (job page only), shown with the save button. */
-const TARGET_FIELDS: SheetField[] = [
-  "targetCompressionRatio",
-  "chamberCc",
-  "pistonDishCc",
-  "gasketBoreMm",
-  "boreMm",
-  "strokeMm",
-  "gasketThicknessMm",
-  "deckClearanceMm",
-  "rodLengthMm",
-  "intakeClosesDegAbdc",
-];
-const AIR_FIELDS: SheetField[] = [
-  "displacementCc",
-  "rpmFrom",
-  "rpmTo",
-  "rpmStep",
-  "volumetricEfficiencyPercent",
-  "boostKpa",
-  "stationPressureKpa",
-  "ambientC",
-  "filterLossKpa",
-  "intercoolerDropKpa",
-  "pipingDropKpa",
-  "compressorEfficiencyPercent",
-  "intercoolerEffectivenessPercent",
-];
-const FUEL_FIELDS: SheetField[] = [
-  "powerKw",
-  "bsfcGPerKwh",
-  "injectors",
-  "maxDutyPercent",
-  "injectorRatedFlowCcMin",
-  "injectorRatedPressureKpa",
-  "baseFuelPressureKpa",
-  "regulatorRiseRatio",
-  "pumpMarginPercent",
-];
-const CRANK_FIELDS: SheetField[] = [
-  "boreMm",
-  "strokeMm",
-  "rodLengthMm",
-  "targetCompressionRatio",
-  "intakeClosesDegAbdc",
-  "deckClearanceMm",
-  "gasketThicknessMm",
-];
+import { AIR_FIELDS, CRANK_FIELDS, formOf, FUEL_FIELDS, TARGET_FIELDS } from "./planner-fields";
+import { kpaText, readSheetField, SheetNumberField, sheetFigures, type SheetForm } from "./sheet-field";
 
 function attempt<T>(f: () => T): { value: T; error: null } | { value: null; error: string } {
   try {
@@ -562,5 +481,3 @@ export function TurboPlanner({
     </div>
   );
 }
-
-export { formOf };

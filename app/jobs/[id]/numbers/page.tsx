@@ -2,8 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { IntercoolerCard } from "@/app/calculators/_components/intercooler-card";
-import { formOf, PLANNER_START, TurboPlanner } from "@/app/calculators/_components/turbo-planner";
-import type { SheetForm } from "@/app/calculators/_components/sheet-field";
+import { CRANK_FIELDS, formOf, PLANNER_START, type SheetForm } from "@/app/calculators/_components/planner-fields";
+import { TurboPlanner } from "@/app/calculators/_components/turbo-planner";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
 import { BuildFiguresTable } from "@/app/ui/build-figures-table";
@@ -25,20 +25,7 @@ export default async function JobNumbersPage({ params }: { params: Promise<{ id:
   if (!job || !numbers) notFound();
 
   // Planning assumptions from the engine numbers page, then the job's own figures, then what was saved.
-  const planning = Object.fromEntries(
-    Object.entries(PLANNER_START).filter(
-      ([k]) =>
-        ![
-          "boreMm",
-          "strokeMm",
-          "rodLengthMm",
-          "targetCompressionRatio",
-          "intakeClosesDegAbdc",
-          "deckClearanceMm",
-          "gasketThicknessMm",
-        ].includes(k),
-    ),
-  ) as SheetForm;
+  const planning = Object.fromEntries(Object.entries(PLANNER_START).filter(([k]) => !(CRANK_FIELDS as string[]).includes(k))) as SheetForm;
   const fromJob: SheetForm = {};
   if (numbers.displacementCc) fromJob.displacementCc = String(numbers.displacementCc);
   if (numbers.dynoBoost) fromJob.boostKpa = String(Number(numbers.dynoBoost.kpa.toFixed(1)));
