@@ -27,7 +27,7 @@ import type { SheetField } from "@/lib/build-figures/build-sheet";
 import { outlineLinesText, parseOutlineLines } from "@/lib/build-figures/outline-text";
 import { CompressorMapChart, POINT_LOOK, type ChartPoint } from "./compressor-map-chart";
 import { fixed } from "./number-field";
-import { AIR_FIELDS, CRANK_FIELDS, formOf, FUEL_FIELDS, TARGET_FIELDS } from "./planner-fields";
+import { AIR_FIELDS, CRANK_FIELDS, FUEL_FIELDS, TARGET_FIELDS } from "./planner-fields";
 import { kpaText, readSheetField, SheetNumberField, sheetFigures, type SheetForm } from "./sheet-field";
 
 function attempt<T>(f: () => T): { value: T; error: null } | { value: null; error: string } {
