@@ -28,7 +28,7 @@ export function SheetNumberField({
       unit={rule.unit || "ratio"}
       value={form[field] ?? ""}
       onChange={(v) => set(field, v)}
-      hint={`${describeRange({ ...rule, hint: undefined })}`.replace(/^between /, "")}
+      hint={`Range: ${describeRange({ ...rule, hint: undefined })}`}
     />
   );
 }
