@@ -18,6 +18,8 @@ import {
   readingRows,
   readingsSummary,
   reportLines,
+  buildFigureReportRows,
+  buildFigureNotes,
   runsOf,
   signOffRows,
   torqueRows,
@@ -115,6 +117,22 @@ function measurements(doc: Pdf, d: HandoverReportData) {
   for (const line of boreLines(d)) paragraph(doc, line);
 }
 
+function buildFigures(doc: Pdf, d: HandoverReportData) {
+  const rows = buildFigureReportRows(d);
+  if (rows.length === 0) paragraph(doc, "Not enough readings or build sheet figures to work out the compression figures.");
+  else
+    table(
+      doc,
+      [
+        { header: "Figure", width: 0.52 },
+        { header: "This build", width: 0.2, figures: true },
+        { header: "Target", width: 0.28, figures: true },
+      ],
+      rows,
+    );
+  for (const line of buildFigureNotes(d)) paragraph(doc, line, { size: 9 });
+}
+
 function dynoResults(doc: Pdf, d: HandoverReportData) {
   if (d.runs.length === 0) return paragraph(doc, "No dyno runs recorded.");
   const runs = runsOf(d);
@@ -191,6 +209,8 @@ function draw(doc: Pdf, d: HandoverReportData, revision: RevisionHeading | null)
     );
   heading(doc, "Measurements against spec");
   measurements(doc, d);
+  heading(doc, "Build figures");
+  buildFigures(doc, d);
   heading(doc, "Torque applied");
   const torque = torqueRows(d);
   if (torque.length === 0) paragraph(doc, "No torque work recorded yet.");

@@ -4,6 +4,9 @@ import { AppFrame } from "../ui/app-frame";
 import { ChargeAirCard } from "./_components/charge-air-card";
 import { CompressionCard } from "./_components/compression-card";
 import { GapsCard } from "./_components/gaps-card";
+import { IntercoolerCard } from "./_components/intercooler-card";
+import { PLANNER_START } from "./_components/planner-fields";
+import { TurboPlanner } from "./_components/turbo-planner";
 import { TorqueUnitsCard } from "./_components/torque-units-card";
 
 export const metadata: Metadata = { title: "Engine numbers" };
@@ -21,6 +24,13 @@ export default async function CalculatorsPage() {
       <div className="mt-6 grid gap-6">
         <CompressionCard />
         <ChargeAirCard />
+        <section aria-labelledby="turbo-h" className="grid gap-6">
+          <h2 id="turbo-h" className="text-2xl font-bold">
+            Turbo and fuel figures
+          </h2>
+          <TurboPlanner start={PLANNER_START} />
+          <IntercoolerCard />
+        </section>
         <GapsCard />
         <TorqueUnitsCard />
       </div>

@@ -15,6 +15,7 @@ import type { Database } from "../schema";
 import { workOrdersWithBike } from "../shop/work-orders";
 import { withdrawnEntries } from "./withdrawn-entries";
 import { listTuneVersions } from "./tunes";
+import { buildFiguresOf, newestRunBoost } from "./build-sheets";
 
 // Everything the handover build report shows, read for one work order of one shop.
 
@@ -235,6 +236,8 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
     openItems,
     withdrawn,
     tunes: await listTuneVersions(db, shopId, workOrderId),
+    // the build's own figures from its readings, beside the build sheet's targets
+    buildFigures: (await buildFiguresOf(db, shopId, workOrderId, newestRunBoost(runs)?.kpa ?? null)).figures,
   };
 }
 

@@ -13,6 +13,7 @@ import { seedDemoBenchTime } from "./demo-bench-time";
 import { seedDemoLateWork } from "./demo-late-work";
 import { seedDemoOffice } from "./demo-office";
 import { seedDemoReview } from "./demo-review";
+import { seedDemoTurboPlan } from "./demo-turbo-plan";
 
 // An invented workshop for the demo and the browser tests. All names are made up.
 const DEMO_SHOP_SLUG = "gannet-street";
@@ -202,6 +203,7 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
   await seedDemoLateWork(db, shopId);
   await seedDemoBenchChecks(db, shopId);
   await seedDemoDyno(db, shopId);
+  await seedDemoTurboPlan(db, shopId);
   await seedDemoReview(db, shopId);
   await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
   await seedDemoAftercare(db, shopId);

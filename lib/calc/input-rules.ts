@@ -41,6 +41,15 @@ export const INPUT_RULES = Object.freeze({
     hint: "positive when the crown is below the block deck, negative when it stands proud",
   }),
   compressedGasket: rule({ label: "Compressed head gasket thickness", unit: "mm", min: 0, max: 5 }),
+  gasketBore: rule({ label: "Head gasket bore", unit: "mm", min: 20, max: 210 }),
+  chamberVolume: rule({ label: "Combustion chamber volume", unit: "cc", min: 1, max: 500 }),
+  pistonDish: rule({
+    label: "Piston dish",
+    unit: "cc",
+    min: -100,
+    max: 200,
+    hint: "positive for a dish or valve reliefs, negative for a dome",
+  }),
 
   // --- air and charge ---
   manifoldPressure: rule({ label: "Manifold pressure (absolute)", unit: "kPa", min: 10, max: 700 }),

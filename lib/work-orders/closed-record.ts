@@ -4,8 +4,8 @@
  *   - bench work from a tablet (steps, readings, torque, timers, photos, parts, sign-offs): kept and
  *     flagged (sync rule 6) — it was recorded offline before the tablet knew, and nothing recorded
  *     is lost; a supervisor accepts it (a new revision of the stored report) or leaves it open;
- *   - dyno runs, parts, notes with photos entered from the office or the dyno page, and a change of
- *     mechanic: refused — they are typed online, so the person sees the refusal at once and still
+ *   - dyno runs, parts, notes with photos entered from the office or the dyno page, a new build
+ *     sheet (its targets are in the report) and a change of mechanic: refused — they are typed online, so the person sees the refusal at once and still
  *     has what they typed; work on a bike that has left belongs on a new work order.
  * Withdrawing a dyno run recorded by mistake stays possible (a correction pointing at the old
  * record, never an edit): it is an accepted change and makes a new revision of the stored report.
@@ -20,6 +20,7 @@ export const AFTER_CLOSE = {
   note: "refused",
   photo: "refused",
   "mechanic assignment": "refused",
+  "build sheet": "refused",
   "dyno run withdrawal": "allowed (a new report revision)",
 } as const;
 
@@ -34,6 +35,7 @@ const WHAT: Record<RefusedAfterClose, string> = {
   note: "A note",
   photo: "A photo",
   "mechanic assignment": "A change of mechanic",
+  "build sheet": "A change to the build sheet",
 };
 
 /** Why `kind` may not be added to this work order any more, or null while its record is open. */

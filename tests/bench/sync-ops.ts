@@ -104,7 +104,7 @@ export class Tablet {
     specId: string,
     readingIndex: number,
     value: number | string,
-    extra: { supersedesId?: string; note?: string; unit?: "mm" | "in" | "µm" } = {},
+    extra: { supersedesId?: string; note?: string; unit?: "mm" | "in" | "µm" | "cc" } = {},
   ) {
     return this.make("measurement.recorded", {
       stepId,

@@ -1,4 +1,5 @@
 import "server-only";
+import { buildFigureRows, figureUsedText } from "@/lib/build-figures/figure-rows";
 import { boreGeometry, convertPower, convertTorque } from "@/lib/calc";
 import { compareAtSameRpm, summariseRun } from "@/lib/dyno";
 import { torquePassCount } from "@/lib/procedures/spec-counts";
@@ -216,6 +217,8 @@ export function reportLines(d: HandoverReportData): string[] {
     ...rows("Measurements", readingRows(d)),
     ...(d.readings.length ? [`Measurements: ${readingsSummary(d)}`] : []),
     ...boreLines(d).map((l) => `Measurements: ${l}`),
+    ...rows("Build figures", buildFigureReportRows(d)),
+    ...buildFigureNotes(d).map((l) => `Build figures: ${l}`),
     ...rows("Torque applied", torqueRows(d)),
     ...rows("Sign-offs and reviews", signOffRows(d)),
     ...rows("Withdrawn entries", withdrawnRows(d)),
@@ -226,4 +229,18 @@ export function reportLines(d: HandoverReportData): string[] {
     ...(dynoComparison(runs) ? [`Dyno results: ${dynoComparison(runs)}`] : []),
     ...d.tunes.map((t) => `Tune: ${t.label} · ${t.fileName} · SHA-256 ${t.sha256}`),
   ];
+}
+
+/** The build's own figures beside the targets (lib/build-figures/figure-rows.ts, the rows every screen shows). */
+export function buildFigureReportRows(d: HandoverReportData): string[][] {
+  return buildFigureRows(d.buildFigures)
+    .filter((r) => r.actual !== "—" || r.target !== "—")
+    .map((r) => [r.label, r.actual, r.target === "—" ? "" : `target ${r.target}`]);
+}
+
+/** What the build figures were worked from, and what is missing for the rest. */
+export function buildFigureNotes(d: HandoverReportData): string[] {
+  const f = d.buildFigures;
+  const used = f.used.length ? [`worked from ${f.used.map(figureUsedText).join("; ")}`] : [];
+  return [...used, ...f.missing, ...f.problems];
 }

@@ -7,12 +7,15 @@ export function NumberField({
   value,
   onChange,
   id,
+  hint,
 }: {
   label: string;
   unit: string;
   value: string;
   onChange: (v: string) => void;
   id: string;
+  /** The range the field takes, in words, shown under it. */
+  hint?: string;
 }) {
   return (
     <label htmlFor={id} className="flex flex-col gap-1 text-base font-bold">
@@ -24,6 +27,7 @@ export function NumberField({
         onChange={(e) => onChange(e.target.value)}
         className="min-h-12 rounded-lg border-2 border-steel-700 bg-white px-3 font-mono text-lg"
       />
+      {hint && <span className="text-sm font-normal text-steel-700">{hint}</span>}
     </label>
   );
 }

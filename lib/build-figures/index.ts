@@ -1,0 +1,4 @@
+export * from "./build-sheet";
+export * from "./build-figures";
+export * from "./outline-text";
+export * from "./figure-rows";
