@@ -26,7 +26,7 @@ import { isSameOrigin, NOT_FROM_OUR_PAGES } from "./same-origin";
 //   5. the body and the query string parsed with zod: 400 (or the route's own status) with each
 //      problem in workshop words (lib/zod-issues.ts);
 //   6. the handler. A Refusal it throws becomes its status; a database failure anywhere (the
-//      session lookup included) 503; anything else 500.
+//      session lookup included) 503; anything else unexpected 503 too (a server error, "try again").
 // Every refusal has one body: { error, issues: [{ path, message }] } (lib/errors.ts).
 
 type RawParams = Record<string, string | string[] | undefined>;
@@ -176,7 +176,8 @@ function answerFailure(e: unknown): Response {
     return refusalResponse(503, DATABASE_NOT_ANSWERING);
   }
   console.error("[route] unexpected error", e);
-  return refusalResponse(500, UNEXPECTED_FAILURE);
+  // one answer for every server error: 503 with the one body; the log says which kind it was
+  return refusalResponse(503, UNEXPECTED_FAILURE);
 }
 
 function isZodError(e: unknown): e is z.ZodError {

@@ -15,7 +15,7 @@ import { useTestDb } from "./support/test-db";
 // (next-auth reads it from the request, which a direct handler call has none of). A database that
 // refuses the connection, drops it in the middle of the session lookup, or never answers gives
 // 503 with the one error body `{ error, issues }`, on a bench route and on /api/sync alike; any
-// other unexpected exception in a handler gives 500 with the same body. The tablet treats every
+// other unexpected exception in a handler gives 503 too, with the same body (its own message). The tablet treats every
 // 5xx as "kept, try again or split" (tests/unit/client/sync-not-stored.test.ts).
 
 const claim = vi.hoisted(() => ({ current: null as { userId: string; sessionId: string } | null }));
@@ -132,10 +132,10 @@ describe("a database that does not answer during the session lookup", () => {
 });
 
 describe("any other unexpected exception in a handler", () => {
-  const failing = { status: 500, body: { error: UNEXPECTED_FAILURE, issues: [] }, cache: "no-store" };
+  const failing = { status: 503, body: { error: UNEXPECTED_FAILURE, issues: [] }, cache: "no-store" };
   const asMechanic = () => ({ ...fx.users.mechanic, customerId: null });
 
-  it("answers 500 with the same body shape: a handler that throws, and /api/sync when the merge throws a non-database error", async () => {
+  it("answers 503 with the same body shape: a handler that throws, and /api/sync when the merge throws a non-database error", async () => {
     const throwing = route({ access: { area: "bench" } }, async (): Promise<never> => {
       throw new TypeError("Cannot read properties of undefined (reading 'id')");
     });
