@@ -1,6 +1,7 @@
 import { expect, test, type Page } from "@playwright/test";
 import { typeTag } from "./support/bench-pad";
 import { signIn } from "./support/demo-users";
+import { goByHeader } from "./support/nav";
 
 // After handover. Demo job #1040 (tag GSW-1040, a Tern Velo 750 of Ida Brannock) was handed over
 // with readings and a batch of rod bearings on record; #1041's run-in check is overdue.
@@ -81,7 +82,7 @@ test("a mechanic scanning a handed-over bike is told to ask; a supervisor opens 
 
 test("the office sees the overdue run-in check and records it done", async ({ page }) => {
   await signIn(page, "office");
-  await page.getByRole("link", { name: "Reminders" }).click();
+  await goByHeader(page, "Reminders");
   const row = page
     .getByTestId("reminders-due")
     .getByTestId("reminder-row")
