@@ -1,5 +1,6 @@
 import { expect, test, type Page } from "@playwright/test";
 import { signIn } from "./support/demo-users";
+import { query } from "./support/e2e-db";
 import { goByHeader } from "./support/nav";
 
 // Templates import/export, parts search, tag labels, and a look at each office page at the two
@@ -40,8 +41,8 @@ test("templates: export, a bad import refused with path and message, a good impo
 test("template editor: the structured form and the JSON view are checked as they are edited", async ({ page }) => {
   await signIn(page, "office");
   await page.goto("/office/templates/edit?key=first-start-run-in");
-  // the demo template has 2 + 5 + 2 steps, one torque spec, one measurement spec, three timers
-  await expect(page.getByTestId("template-valid")).toContainText("3 stages, 9 steps, 1 torque specs, 1 measurement specs, 3 timers");
+  // the demo template has 2 + 5 + 2 + 2 steps, one torque spec, one measurement spec, three timers
+  await expect(page.getByTestId("template-valid")).toContainText("4 stages, 11 steps, 1 torque specs, 1 measurement specs, 3 timers");
 
   // form: a negative timer is named beside the field and in the list, and blocks saving
   const step = page.locator("details").filter({ hasText: "Step 2: Heat cycle 1" });
@@ -184,8 +185,9 @@ test("the customer's own page shows the quote to approve, at both tablet sizes",
 test("the customer sees how far the build has got, in the same figures the office sees", async ({ browser }) => {
   const office = await (await browser.newContext()).newPage();
   await signIn(office, "office");
-  await office.goto("/office");
-  await office.getByRole("link", { name: "1001", exact: true }).click();
+  // the demo's oldest job: opened by its address (the list, newest first, may page it off the first screen)
+  const [job] = await query<{ id: string }>("SELECT id FROM work_orders WHERE number = 1001");
+  await office.goto(`/office/work-orders/${job.id}`);
   const summary = office.getByTestId("build-progress").getByTestId("progress-summary");
   await expect(summary).toContainText("steps done");
   const [, done, total, approved, stages] = /^(\d+) of (\d+) steps done · (\d+) of (\d+) stages approved/.exec(
