@@ -224,3 +224,15 @@ export async function listWorkOrderBookings(
 
 /** The shop's opening hours and zone, for the calendar page. */
 export const shopHours = shopOf;
+
+/** Open jobs of the shop that may be booked (not handed over or cancelled), newest number first. */
+export async function listBookableJobs(db: Kysely<Database>, shopId: string) {
+  return db
+    .selectFrom("work_orders as w")
+    .innerJoin("bikes as k", "k.id", "w.bike_id")
+    .select(["w.id", "w.number", "w.title", "k.make", "k.model"])
+    .where("w.shop_id", "=", shopId)
+    .where("w.status", "not in", [...CLOSED])
+    .orderBy("w.number", "desc")
+    .execute();
+}

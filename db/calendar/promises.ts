@@ -107,3 +107,14 @@ export async function listLateJobs(db: Kysely<Database>, shopId: string): Promis
     .orderBy("w.number")
     .execute();
 }
+
+/** Whether a work order is closed (handed over or cancelled) and its promised date, for its office page. */
+export async function promiseOfWorkOrder(db: Kysely<Database>, shopId: string, workOrderId: string) {
+  const wo = await db
+    .selectFrom("work_orders")
+    .select("status")
+    .where("id", "=", workOrderId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirstOrThrow();
+  return { closed: wo.status === "handed_over" || wo.status === "cancelled", promised: await promisedDateOf(db, shopId, workOrderId) };
+}
