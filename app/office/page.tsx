@@ -2,12 +2,16 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
+import { listLateJobs } from "@/db/calendar/promises";
+import { db } from "@/db/setup/client";
+import { LateJobs } from "./_components/late-jobs";
 import { WorkOrdersTable } from "./_components/work-orders-table";
 
 export const metadata: Metadata = { title: "Work orders" };
 
 export default async function OfficePage() {
   const user = await requirePageArea("office");
+  const late = await listLateJobs(db(), user.shopId);
   return (
     <AppFrame user={user} current="/office">
       <div className="flex flex-wrap items-center gap-4">
@@ -19,6 +23,7 @@ export default async function OfficePage() {
           + Book a bike in
         </Link>
       </div>
+      <LateJobs jobs={late} />
       <WorkOrdersTable />
     </AppFrame>
   );

@@ -16,6 +16,7 @@ const NAV: Array<{ href: string; label: string; area: Area; row: boolean }> = [
   { href: "/office/templates", label: "Templates", area: "templates", row: false },
   { href: "/office/parts", label: "Parts", area: "office", row: true },
   { href: "/office/labels", label: "Labels", area: "office", row: false },
+  { href: "/office/calendar", label: "Week plan", area: "office", row: false },
   { href: "/office/reminders", label: "Reminders", area: "office", row: false },
   { href: "/come-backs", label: "Come-backs", area: "come-backs", row: false },
   { href: "/office/outbox-mail", label: "E-mail outbox", area: "office", row: false },

@@ -19,6 +19,7 @@ import * as m020 from "./2026_12_03_020_closed_record";
 import * as m060 from "./2026_12_04_060_mail_outbox";
 import * as m061 from "./2026_12_05_061_come_backs";
 import * as m062 from "./2026_12_05_062_service_reminders";
+import * as m063 from "./2026_12_05_063_calendar";
 import * as m091 from "./2026_12_05_091_bench_clocks";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
@@ -45,5 +46,6 @@ export const migrations: Record<string, Migration> = {
   "2026_12_04_060_mail_outbox": m060,
   "2026_12_05_061_come_backs": m061,
   "2026_12_05_062_service_reminders": m062,
+  "2026_12_05_063_calendar": m063,
   "2026_12_05_091_bench_clocks": m091,
 };

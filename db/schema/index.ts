@@ -2,6 +2,7 @@ import type { Selectable } from "kysely";
 import type { AftercareTables } from "./aftercare";
 import type { AuditTables } from "./audit";
 import type { BenchTables } from "./bench";
+import type { CalendarTables } from "./calendar";
 import type { ClockTables } from "./clocks";
 import type { DynoTables } from "./dyno";
 import type { MailTables } from "./mail";
@@ -28,6 +29,7 @@ export interface Database
     SyncTables,
     MailTables,
     AftercareTables,
+    CalendarTables,
     ClockTables {}
 
 export type User = Selectable<UsersTable>;

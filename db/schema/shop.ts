@@ -13,6 +13,10 @@ interface ShopsTable {
   torque_unit: Generated<ShopTorqueUnit>;
   currency: Generated<string>;
   tax_rate_bp: Generated<number>;
+  /** Opening hours (migration 2026_12_05_063): "HH:MM:SS" and ISO weekdays 1 (Mon) to 7 (Sun). */
+  opens_at: Generated<string>;
+  closes_at: Generated<string>;
+  open_days: Generated<number[]>;
   created_at: DefaultTimestamp;
 }
 

@@ -7,6 +7,7 @@ import { DEMO_PASSWORD, DEMO_USERS } from "./demo-people";
 import { createTemplateVersion } from "../templates/versions";
 import { insertDemoBike } from "./demo-bike";
 import { seedDemoAftercare } from "./demo-aftercare";
+import { seedDemoCalendar } from "./demo-calendar";
 import { seedDemoBenchChecks } from "./demo-bench-checks";
 import { seedDemoDyno } from "./demo-dyno";
 import { seedDemoBenchTime } from "./demo-bench-time";
@@ -208,5 +209,6 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
   await seedDemoOffice(db, shopId, userIds.get("office")!, userIds.get("mechanic")!);
   await seedDemoAftercare(db, shopId);
   await seedDemoBenchTime(db, shopId);
+  await seedDemoCalendar(db, shopId);
   return { shopId };
 }

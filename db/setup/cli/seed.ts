@@ -1,6 +1,7 @@
 import { createDb } from "../client";
 import { demoAftercareExists, seedDemoAftercare } from "../../seed/demo-aftercare";
 import { demoBenchChecksExist, seedDemoBenchChecks } from "../../seed/demo-bench-checks";
+import { demoCalendarExists, seedDemoCalendar } from "../../seed/demo-calendar";
 import { demoBenchTimeExists, seedDemoBenchTime } from "../../seed/demo-bench-time";
 import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
 import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
@@ -30,6 +31,10 @@ try {
     if (!(await demoBenchTimeExists(db, shopId))) {
       await seedDemoBenchTime(db, shopId);
       console.log("[seed] demo jobs 1060–1061 (time at the bench) added");
+    }
+    if (!(await demoCalendarExists(db, shopId))) {
+      await seedDemoCalendar(db, shopId);
+      console.log("[seed] calendar resources (dyno, bays, lift, a mechanic) added");
     }
   }
 } finally {

@@ -5,12 +5,14 @@ import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
 import { StatusBadge } from "@/app/ui/status-badge";
 import { db } from "@/db/setup/client";
+import { listWorkOrderBookings } from "@/db/calendar/bookings";
 import { findDynoWorkOrder, listDynoRuns } from "@/db/records/dyno";
 import { listTuneVersions } from "@/db/records/tunes";
 import { listPresets } from "@/db/shop/presets";
 import { canReach } from "@/lib/auth/roles";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
 import { isUuid } from "@/lib/ids";
+import { DynoBookings } from "./_components/dyno-bookings";
 import { DynoCellCautions } from "./_components/dyno-cell-cautions";
 import { DynoWorkspace } from "./_components/dyno-workspace";
 import { TuneVersions } from "./_components/tune-versions";
@@ -24,10 +26,11 @@ export default async function JobDynoPage({ params }: { params: Promise<{ id: st
   if (!isUuid(id)) notFound();
   const job = await findDynoWorkOrder(db(), user.shopId, id);
   if (!job) notFound();
-  const [all, tunes, mappings] = await Promise.all([
+  const [all, tunes, mappings, dynoBookings] = await Promise.all([
     listDynoRuns(db(), user.shopId, id),
     listTuneVersions(db(), user.shopId, id),
     listPresets(db(), user.shopId, "dyno-csv-mapping"),
+    listWorkOrderBookings(db(), user.shopId, id, "dyno"),
   ]);
   const runs = countingRuns(all);
   const withdrawn = all.filter((r) => r.withdrawn !== null);
@@ -67,6 +70,7 @@ export default async function JobDynoPage({ params }: { params: Promise<{ id: st
         </div>
       </div>
       <div className="mt-6 flex flex-col gap-6">
+        <DynoBookings bookings={dynoBookings} linkToPlan={canReach(user.role, "office")} />
         <DynoCellCautions />
         <TuneVersions workOrderId={job.id} tunes={tunes} />
       </div>

@@ -2,10 +2,16 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
+import { listWorkOrderBookings } from "@/db/calendar/bookings";
+import { promiseOfWorkOrder } from "@/db/calendar/promises";
 import { db } from "@/db/setup/client";
+import { dayLabel } from "@/lib/aftercare/reminders";
+import { weekStart } from "@/lib/calendar/rules";
+import { formatDayTime } from "@/lib/format/dates";
 import { shopSettings } from "@/db/shop/settings";
 import { workOrderInShop } from "@/db/shop/work-orders";
 import { isUuid } from "@/lib/ids";
+import { PromisePanel } from "./_components/promise-panel";
 import { WorkOrderView } from "./_components/work-order-view";
 
 export const metadata: Metadata = { title: "Work order" };
@@ -22,8 +28,22 @@ export default async function WorkOrderPage({
   if (!isUuid(id) || !(await workOrderInShop(db(), user.shopId, id))) notFound();
   const shop = await shopSettings(db(), user.shopId);
   const { warning } = await searchParams;
+  const [{ closed, promised }, bookings] = await Promise.all([
+    promiseOfWorkOrder(db(), user.shopId, id),
+    listWorkOrderBookings(db(), user.shopId, id),
+  ]);
   return (
     <AppFrame user={user} current="/office">
+      <PromisePanel
+        workOrderId={id}
+        closed={closed}
+        promised={promised && { label: dayLabel(promised.promisedOn), setBy: promised.setBy, setAt: formatDayTime(promised.setAt) }}
+        bookings={bookings.map((b) => ({
+          id: b.id,
+          text: `${b.resourceName}: ${dayLabel(b.day)}, ${b.from}–${b.to}`,
+          href: `/office/calendar?resource=${b.resourceId}&week=${weekStart(b.day)}`,
+        }))}
+      />
       <WorkOrderView id={id} currency={shop.currency} taxRateBp={shop.taxRateBp} warning={warning?.slice(0, 300)} />
     </AppFrame>
   );

@@ -1,0 +1,65 @@
+import { expect, test, type Page } from "@playwright/test";
+import { signIn } from "./support/demo-users";
+
+// The week plan: the office books demo job #1050 (the Kestrel on the dyno) on the dyno next week,
+// a second job on an overlapping time is refused naming #1050, and the job's dyno page shows the
+// booking with a link back to the week plan.
+
+const SIZES = [
+  { width: 1024, height: 768 },
+  { width: 768, height: 1024 },
+];
+
+async function checkSizes(page: Page, name: string) {
+  for (const size of SIZES) {
+    await page.setViewportSize(size);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)).toBeLessThanOrEqual(0);
+    await page.screenshot({ path: `test-results/calendar-screens/${name}-${size.width}x${size.height}.png`, fullPage: true });
+  }
+  await page.setViewportSize(SIZES[0]);
+}
+
+async function chooseJob(page: Page, prefix: string) {
+  const value = await page.locator("select[name=workOrderId] option", { hasText: prefix }).first().getAttribute("value");
+  await page.locator("select[name=workOrderId]").selectOption(value!);
+}
+
+test("book a job on the dyno in the week plan; a clash names it; the job's dyno page shows the booking", async ({ page }) => {
+  await signIn(page, "office");
+  await page.goto("/office/calendar");
+  await expect(page.getByTestId("week-title")).toContainText("Dyno: week of");
+  await page.getByRole("link", { name: "Week after →" }).click();
+  await expect(page).toHaveURL(/week=\d{4}-\d{2}-\d{2}/);
+  const form = page.getByTestId("book-form");
+  await chooseJob(page, "#1050 ·");
+  const dayLabel = (await form.locator("select[name=day] option").first().textContent())!;
+  await form.locator("input[name=from]").fill("09:00");
+  await form.locator("input[name=to]").fill("11:00");
+  await form.getByRole("button", { name: "Book this slot" }).click();
+  const booking = page.getByTestId("booking").filter({ hasText: "Job #1050" });
+  await expect(booking).toContainText("09:00–11:00");
+  await expect(booking).toContainText("booked by");
+
+  // Another job over the same time: refused, naming the booking there.
+  const jobAtFirst = await booking.getByRole("link", { name: "Job #1050" }).getAttribute("href");
+  const values = await page.locator("select[name=workOrderId] option").evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value));
+  const other = values.find((v) => v && !jobAtFirst!.endsWith(v));
+  await page.locator("select[name=workOrderId]").selectOption(other!);
+  await form.locator("input[name=from]").fill("10:00");
+  await form.locator("input[name=to]").fill("12:00");
+  await form.getByRole("button", { name: "Book this slot" }).click();
+  const shortDay = dayLabel.replace(/^\w+ /, "").replace(/ \d{4}$/, "");
+  await expect(page.getByTestId("book-error")).toHaveText(`✖ The dyno is booked for job #1050, 09:00–11:00 on ${shortDay}.`);
+  await expect(page.getByTestId("booking")).toHaveCount(1);
+  await checkSizes(page, "week-plan");
+
+  // The job's dyno page shows it and links back to the week plan.
+  const workOrderId = jobAtFirst!.split("/").pop()!;
+  await page.goto(`/jobs/${workOrderId}/dyno`);
+  const panel = page.getByTestId("dyno-bookings");
+  await expect(panel).toContainText(`09:00–11:00 on Dyno`);
+  await checkSizes(page, "dyno-page");
+  await panel.getByRole("link").first().click();
+  await expect(page.getByTestId("week-title")).toContainText("Dyno: week of");
+  await expect(page.getByTestId("booking").filter({ hasText: "Job #1050" })).toContainText("09:00–11:00");
+});
