@@ -61,19 +61,19 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
             </tr>
           ))}
           <tr>
-            <td colSpan={2} className="pt-2 text-right">
+            <td colSpan={2} className="pt-2 pr-6 text-right">
               Subtotal
             </td>
-            <td className="pt-2 text-right tabular-nums">{formatMinor(quote.subtotalMinor, c)}</td>
+            <td className="pt-2 text-right whitespace-nowrap tabular-nums">{formatMinor(quote.subtotalMinor, c)}</td>
           </tr>
           <tr>
-            <td colSpan={2} className="text-right">
+            <td colSpan={2} className="pr-6 text-right">
               Tax ({(quote.taxRateBp / 100).toFixed(2)} %)
             </td>
-            <td className="text-right tabular-nums">{formatMinor(quote.taxMinor, c)}</td>
+            <td className="text-right whitespace-nowrap tabular-nums">{formatMinor(quote.taxMinor, c)}</td>
           </tr>
           <tr>
-            <td colSpan={2} className="text-right font-bold">
+            <td colSpan={2} className="pr-6 text-right font-bold">
               Total
             </td>
             <td className="border-t-2 border-steel-700 text-right font-bold tabular-nums" data-testid="customer-quote-total">
