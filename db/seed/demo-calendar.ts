@@ -1,5 +1,6 @@
 import type { Kysely } from "kysely";
 import type { Database } from "../schema";
+import { demoUserId } from "./demo-lookups";
 
 // The demo shop's calendar resources (invented): the dyno, two bays, a lift and one mechanic
 // (Tomas). No bookings are seeded; the shop keeps the default opening hours (08:00–18:00, Mon–Fri).
@@ -16,8 +17,7 @@ export async function demoCalendarExists(db: Kysely<Database>, shopId: string): 
 }
 
 export async function seedDemoCalendar(db: Kysely<Database>, shopId: string): Promise<void> {
-  const user = async (email: string) =>
-    (await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("email", "=", email).executeTakeFirstOrThrow()).id;
+  const user = (email: string) => demoUserId(db, shopId, email);
   const office = await user("maren@gannet-street.test");
   const tomas = await user("tomas@gannet-street.test");
   await db

@@ -1,6 +1,7 @@
 import type { Kysely } from "kysely";
 import type { Database } from "../schema";
 import { insertDemoBike, type DemoBike } from "./demo-bike";
+import { DEMO_JOB_OWNER, demoCustomerId, demoUserId, firstTemplateVersionId } from "./demo-lookups";
 import { demoTablet, sendDemoWork } from "./demo-tablet";
 
 // Three invented jobs for trying what the sync does with work it cannot store at once (and for
@@ -45,9 +46,6 @@ export async function seedDemoLateWork(db: Kysely<Database>, shopId: string): Pr
   await seedYesterdaysWork(db, { shopId, mechanicId }, jobIds[0]);
 }
 
-const demoUserId = async (db: Kysely<Database>, shopId: string, email: string) =>
-  (await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("email", "=", email).executeTakeFirstOrThrow()).id;
-
 /**
  * Invented bikes of Noor Haddad, each with a job in build on the first versions of the given
  * demo templates, assigned to the mechanic Tomas Reyes; returns the jobs' ids in order.
@@ -59,29 +57,14 @@ export async function insertAssignedDemoJobs(
   templateKeys: readonly string[],
   title: string,
 ): Promise<string[]> {
-  const customer = await db
-    .selectFrom("customers")
-    .select("id")
-    .where("shop_id", "=", shopId)
-    .where("email", "=", "noor.haddad@example.test")
-    .executeTakeFirstOrThrow();
+  const customerId = await demoCustomerId(db, shopId, DEMO_JOB_OWNER);
   const versionIds: string[] = [];
-  for (const key of templateKeys) {
-    const version = await db
-      .selectFrom("template_versions as v")
-      .innerJoin("procedure_templates as t", "t.id", "v.template_id")
-      .select("v.id")
-      .where("t.shop_id", "=", shopId)
-      .where("t.key", "=", key)
-      .orderBy("v.version")
-      .executeTakeFirstOrThrow();
-    versionIds.push(version.id);
-  }
+  for (const key of templateKeys) versionIds.push(await firstTemplateVersionId(db, shopId, key));
   const officeId = await demoUserId(db, shopId, "maren@gannet-street.test");
   const mechanicId = await demoUserId(db, shopId, "tomas@gannet-street.test");
   const jobIds: string[] = [];
   for (const b of bikes) {
-    const bikeId = await insertDemoBike(db, shopId, customer.id, b);
+    const bikeId = await insertDemoBike(db, shopId, customerId, b);
     const wo = await db
       .insertInto("work_orders")
       .values({
@@ -141,19 +124,8 @@ export async function demoBottomEndJobBasics(
   db: Kysely<Database>,
   shopId: string,
 ): Promise<{ customerId: string; bottomEndVersionId: string }> {
-  const customer = await db
-    .selectFrom("customers")
-    .select("id")
-    .where("shop_id", "=", shopId)
-    .where("email", "=", "noor.haddad@example.test")
-    .executeTakeFirstOrThrow();
-  const version = await db
-    .selectFrom("template_versions as v")
-    .innerJoin("procedure_templates as t", "t.id", "v.template_id")
-    .select("v.id")
-    .where("t.shop_id", "=", shopId)
-    .where("t.key", "=", "bottom-end-assembly")
-    .orderBy("v.version")
-    .executeTakeFirstOrThrow();
-  return { customerId: customer.id, bottomEndVersionId: version.id };
+  return {
+    customerId: await demoCustomerId(db, shopId, DEMO_JOB_OWNER),
+    bottomEndVersionId: await firstTemplateVersionId(db, shopId, "bottom-end-assembly"),
+  };
 }

@@ -1,6 +1,7 @@
 import type { Kysely } from "kysely";
 import type { Database } from "../schema";
 import { insertDemoBike } from "./demo-bike";
+import { DEMO_JOB_OWNER, demoCustomerId, demoUserId } from "./demo-lookups";
 
 // An invented turbo conversion on the dyno with no runs yet, for trying the dyno page's logged-file
 // import, tune versions and the job's turbo and fuel figures (and for the browser test of that
@@ -10,16 +11,10 @@ const BIKE = { number: 1050, tag: "GSW-0050", make: "Kestrel", model: "KR900 Tur
 
 /** Writes job 1050 for the demo shop. */
 export async function seedDemoTurboPlan(db: Kysely<Database>, shopId: string): Promise<void> {
-  const user = async (email: string) =>
-    (await db.selectFrom("users").select("id").where("shop_id", "=", shopId).where("email", "=", email).executeTakeFirstOrThrow()).id;
-  const customer = await db
-    .selectFrom("customers")
-    .select("id")
-    .where("shop_id", "=", shopId)
-    .where("email", "=", "noor.haddad@example.test")
-    .executeTakeFirstOrThrow();
+  const user = (email: string) => demoUserId(db, shopId, email);
+  const customerId = await demoCustomerId(db, shopId, DEMO_JOB_OWNER);
   const officeId = await user("maren@gannet-street.test");
-  const bikeId = await insertDemoBike(db, shopId, customer.id, BIKE);
+  const bikeId = await insertDemoBike(db, shopId, customerId, BIKE);
   const wo = await db
     .insertInto("work_orders")
     .values({
