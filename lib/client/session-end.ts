@@ -4,7 +4,8 @@
  * server — the whole IndexedDB store (job copies, photos, outbox).
  *
  * Unsent work cannot go through the sync any more (nobody is signed in to stand behind it), so it
- * is **handed over**: `POST /api/bench/outbox-handover` keeps the waiting entries as they are, for
+ * is **handed over**: `POST /api/bench/outbox-handover` keeps every entry the server has not taken —
+ * waiting, refused (with the server's reason) and being discarded — as they are, for
  * the office (Sign-ins page, downloadable), and records it in the audit log. Only after the
  * server has answered 201 is the store deleted; if the hand-over fails (network down), nothing is
  * deleted and it is tried again at the next check. Photo bytes not yet uploaded are not sent
@@ -38,10 +39,14 @@ export async function nameThisTablet(deviceId: string, fetchFn: typeof fetch = f
   }).catch(() => undefined);
 }
 
+/** Outbox states the server has not taken: handed over rather than dropped with the store. */
+const UNTAKEN = ["waiting", "refused", "discarding"] as const;
+
 /** Hands over the unsent work, then clears the store. "cleared", or "kept" when the hand-over did not go through. */
 export async function letGoOfTablet(db: BenchDb, deviceId: string, fetchFn: typeof fetch = fetch): Promise<"cleared" | "kept"> {
   await clearUserCaches().catch(() => undefined);
-  const entries = await db.outbox.where("state").equals("waiting").sortBy("stamp");
+  // Sent and held entries are with the server already; everything else is only here.
+  const entries = await db.outbox.where("state").anyOf(UNTAKEN).sortBy("stamp");
   const photos = await db.photos.where("uploaded").equals(0).toArray();
   if (entries.length || photos.length) {
     const res = await fetchFn("/api/bench/outbox-handover", {
@@ -49,7 +54,16 @@ export async function letGoOfTablet(db: BenchDb, deviceId: string, fetchFn: type
       headers: { "content-type": "application/json" },
       body: JSON.stringify({
         deviceId,
-        entries: entries.map((e) => ({ id: e.id, workOrderId: e.workOrderId, stamp: e.stamp, createdAt: e.createdAt, op: e.op })),
+        entries: entries.map((e) => ({
+          id: e.id,
+          workOrderId: e.workOrderId,
+          stamp: e.stamp,
+          createdAt: e.createdAt,
+          op: e.op,
+          state: e.state,
+          ...(e.reason ? { reason: e.reason } : {}),
+          ...(e.discardReason ? { discardReason: e.discardReason } : {}),
+        })),
         photosLeft: photos.map((p) => ({ id: p.id, stepId: p.stepId, byteSize: p.byteSize, caption: p.caption.slice(0, 400) })),
       }),
     }).catch(() => null);

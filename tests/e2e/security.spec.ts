@@ -190,11 +190,16 @@ test("the office ends a tablet's sessions: the tablet hands its unsent work over
   await page.evaluate(() => window.dispatchEvent(new Event("focus")));
   await page.waitForURL(/\/signin\?ended=1/, { timeout: 45_000 });
   await expect(page.getByTestId("ended-notice")).toBeVisible();
-  const handed = await query<{ entry_count: number; entries: Array<{ id: string }> }>(
-    "SELECT entry_count, entries FROM outbox_handovers WHERE device_id = $1",
-    [deviceId],
-  );
-  expect(handed.map((h) => [h.entry_count, h.entries[0].id])).toEqual([[1, entryId]]);
+  // the entry is handed over whether the bench's own sync had it refused first (no such job) or not
+  await expect
+    .poll(async () => {
+      const handed = await query<{ entry_count: number; entries: Array<{ id: string }> }>(
+        "SELECT entry_count, entries FROM outbox_handovers WHERE device_id = $1",
+        [deviceId],
+      );
+      return handed.map((h) => [h.entry_count, h.entries[0].id]);
+    })
+    .toEqual([[1, entryId]]);
   const stores = await page.evaluate(() => indexedDB.databases().then((dbs) => dbs.map((d) => d.name)));
   expect(stores).not.toContain(`benchtag-bench-${userId}`);
   const kept = await page.evaluate(() => caches.keys());
