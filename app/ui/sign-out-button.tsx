@@ -1,21 +1,34 @@
 "use client";
 
-import { signOut } from "next-auth/react";
+import { useState } from "react";
+import { signOutTo } from "@/lib/client/sign-out";
 import { clearUserCaches } from "@/lib/client/worker-caches";
 
 // Signing out clears the pages the service worker kept for this user (the tablet's unsent bench
-// work in IndexedDB stays, to be sent when that user signs in again).
+// work in IndexedDB stays, to be sent when that user signs in again). If the server does not
+// answer (offline), the page says so and stays: the session still stands.
 export function SignOutButton() {
+  const [failed, setFailed] = useState(false);
   return (
-    <button
-      type="button"
-      onClick={async () => {
-        await clearUserCaches().catch(() => undefined);
-        await signOut({ callbackUrl: "/signin" });
-      }}
-      className="min-h-12 rounded-lg border-2 border-white px-4 text-base font-bold text-white"
-    >
-      Sign out
-    </button>
+    <span className="flex items-center gap-2">
+      {failed && (
+        <span role="alert" className="text-sm font-bold text-white">
+          ⚠ Not signed out: no answer from the server. Try again online.
+        </span>
+      )}
+      <button
+        type="button"
+        onClick={async () => {
+          setFailed(false);
+          await clearUserCaches().catch(() => undefined);
+          const to = await signOutTo("/signin").catch(() => null);
+          if (to) window.location.href = to;
+          else setFailed(true);
+        }}
+        className="min-h-12 rounded-lg border-2 border-white px-4 text-base font-bold text-white"
+      >
+        Sign out
+      </button>
+    </span>
   );
 }

@@ -3,6 +3,7 @@ import { sql, type Kysely, type RawBuilder } from "kysely";
 import { DatabaseError } from "pg";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { addDays } from "@/lib/aftercare/reminders";
+import { wallClockIn } from "@/lib/format/dates";
 import { bookingTimeProblem, clashMessage, type NewBookingInput, type ResourceKind } from "@/lib/calendar/rules";
 import { Refusal } from "@/lib/errors";
 import { STATUS_LABELS } from "@/lib/work-orders/status";
@@ -41,7 +42,7 @@ async function shopOf(db: Kysely<Database>, shopId: string) {
 /** Books a work order on a resource; refused with the reason (and nothing saved) when it cannot be. */
 export async function bookWorkOrder(db: Kysely<Database>, user: SessionUser, input: NewBookingInput) {
   const shop = await shopOf(db, user.shopId);
-  const problem = bookingTimeProblem(input, shop);
+  const problem = bookingTimeProblem(input, shop, wallClockIn(shop.timeZone));
   if (problem) throw new Refusal(problem.message, 422, [problem]);
   const during = () => rangeOf(input.day, input.from, input.to, shop.timeZone);
   try {

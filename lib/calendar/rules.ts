@@ -57,12 +57,19 @@ export function clashMessage(
   return `${resourceSubject(resource.kind, resource.name)} is booked for job #${other.number}, ${hhmm(other.from)}–${hhmm(other.to)} on ${shortDay(other.day)}.`;
 }
 
-/** Why a booking's day and times are refused against the opening hours, or null when they fit. */
+/** Why a booking's day and times are refused against the opening hours (and, given the shop's
+ * wall-clock now, against time already gone), or null when they fit. */
 export function bookingTimeProblem(
   b: { day: string; from: string; to: string },
   hours: OpeningHours,
+  now?: { day: string; time: string },
 ): { path: string; message: string } | null {
   if (b.to <= b.from) return { path: "to", message: `Until (${b.to}) must be after from (${b.from}).` };
+  if (now && (b.day < now.day || (b.day === now.day && b.to <= now.time)))
+    return {
+      path: b.day < now.day ? "day" : "to",
+      message: `${dayLabel(b.day)} ${b.from}–${b.to} is already over (it is ${now.time} on ${dayLabel(now.day)}): book a time still to come.`,
+    };
   const wd = isoWeekday(b.day);
   const open = `${hhmm(hours.opensAt)}–${hhmm(hours.closesAt)}`;
   if (!hours.openDays.includes(wd))
@@ -115,3 +122,21 @@ export const newResourceSchema = z
 export type NewResourceInput = z.infer<typeof newResourceSchema>;
 
 export const promiseSchema = z.object({ promisedOn: day("Promised date") }).strict();
+
+/** The shop's opening hours as the office sets them: from and until (24-hour) and the days open. */
+export const openingHoursSchema = z
+  .object({
+    opensAt: clock("Opens at"),
+    closesAt: clock("Closes at"),
+    openDays: z
+      .array(z.number({ error: "Open days are weekdays 1 (Monday) to 7 (Sunday)." }).int().min(1).max(7), {
+        error: "Choose the days the shop is open.",
+      })
+      .min(1, "Choose at least one day the shop is open.")
+      .max(7)
+      .refine((d) => new Set(d).size === d.length, "Each open day once."),
+  })
+  .strict()
+  .refine((h) => h.closesAt > h.opensAt, { path: ["closesAt"], message: "Closes at must be after opens at." });
+export type OpeningHoursInput = z.infer<typeof openingHoursSchema>;
+export const WEEKDAY_LABELS = WEEKDAY_NAMES;

@@ -44,3 +44,18 @@ export function formatTime(v: DateLike, timeZone?: string): string {
   const d = asDate(v);
   return valid(d) ? formatter("time", TIME, timeZone).format(d) : "—";
 }
+
+/** The shop's wall clock now: the calendar day ("YYYY-MM-DD") and the time ("HH:MM", 24-hour) in its zone. */
+export function wallClockIn(timeZone: string, at: Date = new Date()): { day: string; time: string } {
+  const parts = new Intl.DateTimeFormat("en-CA", {
+    timeZone,
+    year: "numeric",
+    month: "2-digit",
+    day: "2-digit",
+    hour: "2-digit",
+    minute: "2-digit",
+    hourCycle: "h23",
+  }).formatToParts(at);
+  const get = (t: string) => parts.find((p) => p.type === t)!.value;
+  return { day: `${get("year")}-${get("month")}-${get("day")}`, time: `${get("hour")}:${get("minute")}` };
+}

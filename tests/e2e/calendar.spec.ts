@@ -63,3 +63,58 @@ test("book a job on the dyno in the week plan; a clash names it; the job's dyno 
   await expect(page.getByTestId("week-title")).toContainText("Dyno: week of");
   await expect(page.getByTestId("booking").filter({ hasText: "Job #1050" })).toContainText("09:00–11:00");
 });
+
+test("the office adds a resource, sees it in the week plan, retires it with a reason; opening hours refuse a closing before the opening", async ({
+  page,
+}) => {
+  const name = `Bay ${Date.now() % 100000}`;
+  await signIn(page, "office");
+  await page.goto("/office/calendar");
+  await page.getByRole("link", { name: "Resources and opening hours" }).click();
+  await expect(page.getByRole("heading", { name: "Resources and opening hours" })).toBeVisible();
+
+  // opening hours: a closing before the opening is refused in words, and nothing changes
+  const hours = page.getByTestId("hours-form");
+  const opensBefore = await hours.locator("input[name=opensAt]").inputValue();
+  const closesBefore = await hours.locator("input[name=closesAt]").inputValue();
+  await hours.locator("input[name=closesAt]").fill("07:00");
+  await hours.getByRole("button", { name: "Save opening hours" }).click();
+  await expect(page.getByTestId("hours-error")).toContainText("Closes at must be after opens at.");
+  await page.reload();
+  await expect(page.getByTestId("hours-form").locator("input[name=closesAt]")).toHaveValue(closesBefore);
+  await expect(page.getByTestId("hours-form").locator("input[name=opensAt]")).toHaveValue(opensBefore);
+
+  // a new bay: refused without a name, then added and bookable in the week plan
+  const add = page.getByTestId("add-resource-form");
+  await add.getByRole("button", { name: "Add resource" }).click();
+  await expect(page.getByTestId("add-resource-error")).toContainText("Name");
+  await add.locator("input[name=name]").fill(name);
+  await add.getByRole("button", { name: "Add resource" }).click();
+  await expect(page.getByTestId("add-resource-ok")).toHaveText(`✔ ${name} added: it can be booked now.`);
+  const row = page.getByTestId("resource-row").filter({ hasText: name });
+  await expect(row).toContainText("● In use");
+  await checkSizes(page, "resources");
+  await page.goto("/office/calendar");
+  await page
+    .getByRole("navigation", { name: "Resources" })
+    .getByRole("link", { name: new RegExp(name) })
+    .click();
+  await expect(page.getByTestId("week-title")).toContainText(`${name}: week of`);
+
+  // retired with the reason: marked, and no longer offered a booking form
+  await page.goto("/office/calendar/resources");
+  await row.getByRole("button", { name: `Retire ${name}…` }).click();
+  await row.getByRole("button", { name: "Retire it" }).click();
+  await expect(row.getByTestId("retire-error")).toContainText("say why");
+  await row.locator("input[name=reason]").fill("Wall knocked through for the new dyno cell");
+  await row.getByRole("button", { name: "Retire it" }).click();
+  await expect(page.getByTestId("resource-row").filter({ hasText: name })).toContainText("⊘ Retired");
+  await expect(page.getByTestId("resource-row").filter({ hasText: name })).toContainText("Wall knocked through for the new dyno cell");
+  await page.goto("/office/calendar");
+  await page
+    .getByRole("navigation", { name: "Resources" })
+    .getByRole("link", { name: new RegExp(name) })
+    .click();
+  await expect(page.getByText("⊘ Retired: Wall knocked through for the new dyno cell. It can no longer be booked.")).toBeVisible();
+  await expect(page.getByTestId("book-form")).toHaveCount(0);
+});

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { POST as cancelRoute } from "@/app/api/office/bookings/[id]/cancel/route";
 import { POST as bookRoute } from "@/app/api/office/bookings/route";
 import { GET as dynoBookingsRoute } from "@/app/api/jobs/[id]/dyno-bookings/route";
+import { PUT as hoursRoute } from "@/app/api/office/opening-hours/route";
 import { POST as retireRoute } from "@/app/api/office/resources/[id]/retire/route";
 import { POST as addResourceRoute } from "@/app/api/office/resources/route";
 import { POST as promiseRoute } from "@/app/api/office/work-orders/[id]/promise/route";
@@ -124,6 +125,11 @@ describe("refusals save nothing", () => {
       [{ ...base, from: "25:00", to: "26:00" }, 400, /From must be a time of day/],
       [{ ...base, day: "0000-01-01", from: "09:00", to: "10:00" }, 400, /Day must be a/],
       [{ ...base, from: "09:00", to: "10:00", note: "a\u0000b" }, 400, /Note/],
+      [
+        { ...base, day: addDays(s.monday, -21), from: "09:00", to: "10:00" },
+        422,
+        /is already over \(it is \d\d:\d\d on .*\): book a time still to come/,
+      ],
     ];
     for (const [body, status, message] of cases) {
       const res = await book(s.office, body);
@@ -236,5 +242,69 @@ describe("promised dates and late jobs", () => {
     expect((await listLateJobs(db, s.fx.shopId)).map((j) => j.number)).toEqual([1]);
     await db.updateTable("work_orders").set({ status: "ready" }).where("id", "=", s.fx.workOrderId).execute();
     expect(await listLateJobs(db, s.fx.shopId)).toEqual([]);
+  });
+});
+
+describe("opening hours", () => {
+  const put = (user: SessionUser, body: unknown) =>
+    hoursRoute.handle(
+      appRequest("/api/office/opening-hours", {
+        method: "PUT",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify(body),
+      }),
+      { user, db, params: {} },
+    );
+
+  it("the office sets them (audited, before and after); bookings from then on must fit; bad hours are refused and change nothing", async () => {
+    const s = await shopWithDyno();
+    const cases: [unknown, RegExp][] = [
+      [{ opensAt: "18:00", closesAt: "08:00", openDays: [1] }, /Closes at must be after opens at/],
+      [{ opensAt: "08:00", closesAt: "18:00", openDays: [] }, /at least one day/],
+      [{ opensAt: "08:00", closesAt: "18:00", openDays: [1, 1] }, /Each open day once/],
+      [{ opensAt: "8 o'clock", closesAt: "18:00", openDays: [1] }, /Opens at must be a time of day/],
+      [{ opensAt: "08:00", closesAt: "18:00", openDays: [9] }, /Open days|weekdays|7/],
+    ];
+    for (const [body, message] of cases) {
+      const res = await put(s.office, body);
+      expect(res.status, JSON.stringify(body)).toBe(400);
+      const r = await refusal(res);
+      expect([r.error, ...r.issues.map((i) => i.message)].join(" | ")).toMatch(message);
+    }
+    const unchanged = await db
+      .selectFrom("shops")
+      .select(["opens_at", "closes_at", "open_days"])
+      .where("id", "=", s.fx.shopId)
+      .executeTakeFirstOrThrow();
+    expect([unchanged.opens_at, unchanged.closes_at, unchanged.open_days.map(Number)]).toEqual(["08:00:00", "18:00:00", [1, 2, 3, 4, 5]]);
+    expect((await put(s.fx.users.mechanic as SessionUser, { opensAt: "07:00", closesAt: "19:00", openDays: [1] })).status).toBe(403);
+
+    const res = await put(s.office, { opensAt: "07:30", closesAt: "16:00", openDays: [6, 1, 2, 3, 4] });
+    expect(res.status).toBe(200);
+    expect(await res.json()).toEqual({ opensAt: "07:30", closesAt: "16:00", openDays: [1, 2, 3, 4, 6] });
+    const base = { resourceId: s.dyno, workOrderId: s.fx.workOrderId };
+    expect((await book(s.office, { ...base, day: s.monday, from: "07:30", to: "08:30" })).status).toBe(201);
+    expect((await refusal(await book(s.office, { ...base, day: s.monday, from: "15:00", to: "17:00" }))).error).toBe(
+      "15:00–17:00 is outside opening hours (07:30–16:00).",
+    );
+    expect((await book(s.office, { ...base, day: addDays(s.monday, 5), from: "09:00", to: "10:00" })).status).toBe(201);
+    expect((await refusal(await book(s.office, { ...base, day: addDays(s.monday, 4), from: "09:00", to: "10:00" }))).error).toMatch(
+      /closed on Fridays/,
+    );
+    const audit = await db
+      .selectFrom("audit_log")
+      .select(["actor_id", "detail"])
+      .where("shop_id", "=", s.fx.shopId)
+      .where("action", "=", "shop.opening-hours")
+      .execute();
+    expect(audit).toEqual([
+      {
+        actor_id: s.office.id,
+        detail: {
+          before: { opensAt: "08:00", closesAt: "18:00", openDays: [1, 2, 3, 4, 5] },
+          after: { opensAt: "07:30", closesAt: "16:00", openDays: [1, 2, 3, 4, 6] },
+        },
+      },
+    ]);
   });
 });

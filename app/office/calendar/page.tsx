@@ -30,13 +30,17 @@ export default async function CalendarPage({ searchParams }: { searchParams: Pro
     : [[], []];
   const href = (resourceId: string, week: string) => `/office/calendar?resource=${resourceId}&week=${week}`;
   const days = weekDays(monday);
-  const openDays = days.filter((d) => hours.openDays.includes(isoWeekday(d)));
+  // the form offers the week's opening days still to come (a slot already over is refused anyway)
+  const openDays = days.filter((d) => hours.openDays.includes(isoWeekday(d)) && d >= today);
   return (
     <AppFrame user={user} current="/office/calendar">
       <h1 className="text-3xl font-bold">Week plan</h1>
       <p className="mt-2 text-lg">
         Open {hhmm(hours.opensAt)}–{hhmm(hours.closesAt)}, {hours.openDays.map((d) => WEEKDAY[d - 1]).join(", ")}. A slot already taken is
-        refused with the job that has it.
+        refused with the job that has it.{" "}
+        <Link href="/office/calendar/resources" className="font-bold underline">
+          Resources and opening hours
+        </Link>
       </p>
       <nav aria-label="Resources" className="mt-4 flex flex-wrap gap-3">
         {resources.map((r) => (

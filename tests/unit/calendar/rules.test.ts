@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { wallClockIn } from "@/lib/format/dates";
 import { bookingTimeProblem, clashMessage, isoWeekday, newBookingSchema, resourceSubject, weekDays, weekStart } from "@/lib/calendar/rules";
 
 // Calendar rules. Check values: 3 Dec 2026 is a Thursday and 7 Dec 2026 a Monday (any calendar).
@@ -37,6 +38,22 @@ describe("booking times", () => {
       message: "07:45–09:00 is outside opening hours (08:00–18:00).",
     });
     expect(bookingTimeProblem({ day: "2026-12-07", from: "17:00", to: "18:15" }, HOURS)?.path).toBe("to");
+  });
+  it("refuses a slot already over by the shop's clock; a slot still running or to come is fine", () => {
+    const now = { day: "2026-12-07", time: "10:30" };
+    expect(bookingTimeProblem({ day: "2026-12-04", from: "09:00", to: "10:00" }, HOURS, now)).toEqual({
+      path: "day",
+      message: "4 Dec 2026 09:00–10:00 is already over (it is 10:30 on 7 Dec 2026): book a time still to come.",
+    });
+    expect(bookingTimeProblem({ day: "2026-12-07", from: "09:00", to: "10:30" }, HOURS, now)?.path).toBe("to");
+    expect(bookingTimeProblem({ day: "2026-12-07", from: "10:00", to: "11:00" }, HOURS, now)).toBeNull();
+    expect(bookingTimeProblem({ day: "2026-12-08", from: "08:00", to: "09:00" }, HOURS, now)).toBeNull();
+  });
+  it("the shop's wall clock is read in its own zone", () => {
+    // 23:30 UTC on 6 Dec is 08:30 on 7 Dec in Tokyo (UTC+9, no summer time) and 23:30 in London (winter, UTC+0)
+    const at = new Date("2026-12-06T23:30:00Z");
+    expect(wallClockIn("Asia/Tokyo", at)).toEqual({ day: "2026-12-07", time: "08:30" });
+    expect(wallClockIn("Europe/London", at)).toEqual({ day: "2026-12-06", time: "23:30" });
   });
   it("the input shape refuses impossible days and times in workshop words", () => {
     const base = { resourceId: crypto.randomUUID(), workOrderId: crypto.randomUUID(), day: "2026-12-07", from: "09:00", to: "10:00" };
