@@ -1,5 +1,6 @@
 import { expect, test, type Page } from "@playwright/test";
 import { signIn } from "./support/demo-users";
+import { query } from "./support/e2e-db";
 
 // The week plan: the office books demo job #1050 (the Kestrel on the dyno) on the dyno next week,
 // a second job on an overlapping time is refused naming #1050, and the job's dyno page shows the
@@ -117,4 +118,44 @@ test("the office adds a resource, sees it in the week plan, retires it with a re
     .click();
   await expect(page.getByText("⊘ Retired: Wall knocked through for the new dyno cell. It can no longer be booked.")).toBeVisible();
   await expect(page.getByTestId("book-form")).toHaveCount(0);
+});
+
+test("the office promises a job back on a day (not one gone by), and a job past its promised day is listed first as late", async ({
+  page,
+}) => {
+  const [job] = await query<{ id: string; shop_id: string }>("SELECT id, shop_id FROM work_orders WHERE number = 1060");
+  const [late] = await query<{ id: string }>("SELECT id FROM work_orders WHERE number = 1061");
+  await signIn(page, "office");
+  await page.goto(`/office/work-orders/${job.id}`);
+  const panel = page.getByTestId("promise-panel");
+  const day = (offset: number) => {
+    const d = new Date(Date.now() + offset * 86_400_000);
+    return d.toISOString().slice(0, 10);
+  };
+  // a day gone by is refused with the reason; nothing is promised
+  const before = await panel.getByTestId("promised-date").textContent();
+  await panel.locator("input[name=promisedOn]").fill(day(-3));
+  await panel.getByRole("button", { name: "Set promised date" }).click();
+  await expect(panel.getByText(/✖ .*past/i)).toBeVisible();
+  await expect(panel.getByTestId("promised-date")).toHaveText(before!);
+  // a day to come is kept with who set it
+  await panel.locator("input[name=promisedOn]").fill(day(10));
+  await panel.getByRole("button", { name: "Set promised date" }).click();
+  await expect(panel.getByTestId("promised-date")).toContainText("Promised for");
+  await expect(panel.getByTestId("promised-date")).toContainText("set by");
+
+  // time passes for job 1061: a promise made earlier for a day now gone (written as that earlier request left it)
+  const [office] = await query<{ id: string }>("SELECT id FROM users WHERE shop_id = $1 AND role = 'office' ORDER BY name LIMIT 1", [
+    job.shop_id,
+  ]);
+  await query(
+    "INSERT INTO work_order_promises (shop_id, work_order_id, promised_on, set_by, set_at) VALUES ($1, $2, $3, $4, now() - interval '9 days')",
+    [job.shop_id, late.id, day(-2), office.id],
+  );
+  await page.goto("/office");
+  const lateList = page.getByTestId("late-jobs");
+  await expect(lateList).toBeVisible();
+  await expect(lateList.getByTestId("late-job").filter({ hasText: "Job #1061" })).toContainText(/2 days late/);
+  await expect(lateList.getByTestId("late-job").filter({ hasText: "Job #1060" })).toHaveCount(0);
+  await checkSizes(page, "late-jobs");
 });
