@@ -1,6 +1,7 @@
 import { Kysely, PostgresDialect } from "kysely";
 import pg from "pg";
 import { databaseUrl } from "./config";
+import { acceptCopyRows } from "./copy-rows";
 import type { Database } from "../schema";
 
 // bigint (int8) counts come back as strings by default; they are small here, so parse them.
@@ -30,7 +31,10 @@ export function createDb(url = databaseUrl(), max = 10, opts: { connectTimeoutMs
   pool.on("error", (e) => console.error("[db] an idle connection was lost:", e.message));
   // a connection lost in the middle of a query fails that query (answered 503); the event it also
   // raises on the connection is logged here, not left to end the process
-  pool.on("connect", (client) => client.on("error", (e) => console.error("[db] a connection was lost:", e.message)));
+  pool.on("connect", (client) => {
+    client.on("error", (e) => console.error("[db] a connection was lost:", e.message));
+    acceptCopyRows(client);
+  });
   return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }
 

@@ -74,9 +74,9 @@ async function heldForRecordsOf(
  *    on has not arrived. So a withdrawal held for a part counts before a later part with its serial.
  * 5. Applies held operations whose record turned up later in that pass (a stamp out of causal
  *    order), round after round, until none is left.
- * 6. Inserts the kept ones into `operations` (ON CONFLICT (id) DO NOTHING), the read tables and
- *    the audit log in one statement; audits the refused ones (the malformed ones too) in another;
- *    holds the ones still waiting.
+ * 6. Writes the kept ones into `operations`, the read tables and the audit log (by COPY, in stamp
+ *    order: `writeKept`); audits the refused ones (the malformed ones too); holds the ones still
+ *    waiting.
  * 7. Answers with the outcome of each operation and the changes from elsewhere after the cursor.
  *
  * Resending the same batch, or the rest of a batch that was cut off, leaves the database as if it
@@ -195,7 +195,7 @@ export async function mergeBatch(
       for (const { h } of sortByStamp(ready.map((h) => ({ id: h.op.id, stamp: h.op.stamp, h })))) settle(h, decideAs(h));
     }
 
-    const inserted = await writeKept(trx, actor.shopId, kept, jobs, state);
+    await writeKept(trx, actor.shopId, kept, jobs, state);
     await applyFirstOverrides(
       trx,
       kept.flatMap((k) => (k.op.kind === "timer.overridden" ? [k.op.payload.timerId] : [])),
@@ -243,11 +243,8 @@ export async function mergeBatch(
         })),
     );
 
-    const answered = kept.filter((k) => byId.has(k.op.id));
-    const stored = answered.filter((k) => inserted.has(k.op.id));
-    // Only when another transaction stored the same id meanwhile: those are duplicates.
-    for (const k of answered) if (!inserted.has(k.op.id)) duplicates.push(k.op.id);
-    for (const k of answered) pending.delete(k.op.id);
+    const stored = kept.filter((k) => byId.has(k.op.id));
+    for (const k of stored) pending.delete(k.op.id);
     for (const w of waiting) if (byId.has(w.op.id)) pending.set(w.op.id, w.reason);
     for (const r of refused) if (r.answered) pending.delete(r.id);
 

@@ -4,12 +4,15 @@ import type { Decision, MergeState } from "@/lib/sync/merge-rules";
 import type { Operation, OperationKind } from "@/lib/sync/operations";
 import { readingVerdict } from "@/lib/sync/readings";
 import { auditRow, type AuditEntry } from "../audit/append";
+import { copyRows } from "../setup/copy-rows";
 import type { LoadedWorkOrder } from "./context";
 import type { Database } from "../schema";
 
-// Set-based writes for the merge: every statement takes all its rows as one JSON array
-// (INSERT … SELECT FROM json_to_recordset), so a batch costs a fixed number of round trips
-// whatever its size, and no statement runs into the 65,535-parameter limit. No row-at-a-time loop.
+// Set-based writes for the merge: the kept operations, their read-table rows of the common kinds
+// and the audit entries go straight into their tables by COPY; the rarer kinds and timer events as
+// one JSON array per statement (INSERT … SELECT FROM json_to_recordset). A batch costs a fixed
+// number of round trips whatever its size, and no statement runs into the 65,535-parameter
+// limit. No row-at-a-time loop.
 
 type Tx = Transaction<Database>;
 
@@ -47,22 +50,57 @@ const flagReason = (k: KeptOperation) => (k.decision.outcome === "flag" ? k.deci
 /**
  * Takes the shop's sync lock (held until the transaction ends): merges in a shop run one at a time.
  * Any other code that inserts operations must take it first too (review decisions take it by trigger).
- * Also gives the merge enough sort memory to keep a 10,000-operation batch off the disk.
+ * Also gives the merge enough sort memory to keep a 10,000-operation batch off the disk, and turns
+ * off JIT compilation for it: a large batch's estimates pass JIT's threshold, and compiling the
+ * earlier single write statement took about half a second at 10,000 operations (EXPLAIN ANALYZE).
  */
 export async function lockShopForSync(trx: Tx, shopId: string): Promise<void> {
-  await sql`SELECT benchtag_lock_shop_sync(${shopId}::uuid), set_config('work_mem', '64MB', true)`.execute(trx);
+  await sql`SELECT benchtag_lock_shop_sync(${shopId}::uuid), set_config('work_mem', '64MB', true), set_config('jit', 'off', true)`.execute(
+    trx,
+  );
 }
 
+/** COPY rows into `table`, each row keyed by the table's column names (the compiler checks them). */
+function copyInto<T extends keyof Database & string, C extends keyof Database[T] & string>(
+  trx: Tx,
+  table: T,
+  columns: readonly C[],
+  rows: readonly { [K in C]: unknown }[],
+): Promise<void> {
+  return copyRows(
+    trx,
+    table,
+    columns,
+    rows.map((row) => columns.map((c) => row[c])),
+  );
+}
+
+const AUDIT_COLUMNS = [
+  "shop_id",
+  "actor_id",
+  "device_id",
+  "action",
+  "entity",
+  "entity_id",
+  "work_order_id",
+  "outcome",
+  "reason",
+  "detail",
+] as const satisfies readonly (keyof ReturnType<typeof auditRow>)[];
+
 /**
- * Writes the kept operations: ONE statement for the operations, the read tables and the audit log,
- * then (only when the batch holds any) one statement for timer stops and cancels.
- * In the first, the JSON array is parsed once (json_to_recordset), then data-modifying CTEs insert
- * into `operations` (in stamp order, ON CONFLICT (id) DO NOTHING) and, for the rows actually
- * inserted, into the read tables and the audit log. Foreign keys are checked at the end of the
- * statement, so a read-table row may name an operation inserted beside it. The timer statement
- * runs second because CTEs of one statement cannot see each other's rows (a timer started and
- * stopped in the same batch). Returns the ids inserted (fewer than kept only if another
- * transaction stored an id meanwhile). Overrides are settled after, by stamp (`applyFirstOverrides`).
+ * Writes the kept operations (in stamp order; the decisions have checked every reference they
+ * make, under the shop lock): `operations`, the read tables and the audit log, each by COPY
+ * (one round trip per table, no JSON to parse on the server), then the rarer kinds in one
+ * statement (`writeOtherKinds`) and timer stops and cancels in another. `operations` is written
+ * first and in stamp order, so seq (the sync cursor) follows the stamps.
+ *
+ * All of it goes in, or the transaction fails: an id stored meanwhile by a merge that does not
+ * share this one's lock (another shop's; within a shop the lock orders merges) is refused by the
+ * primary key, nothing is saved and the tablet sends again (it is then told the id is taken).
+ * The references of `operations` and the read tables are checked by the merge, not by foreign
+ * keys (lib/sync/README.md, "What PostgreSQL still checks"). Overrides are settled after, by
+ * stamp (`applyFirstOverrides`).
  *
  * Each row is audited under its own author: a held operation applied now was sent by its author,
  * perhaps from another tablet, not by whoever brought the record it waited for.
@@ -73,23 +111,15 @@ export async function writeKept(
   kept: readonly KeptOperation[],
   jobs: ReadonlyMap<string, LoadedWorkOrder>,
   state: MergeState,
-): Promise<Set<string>> {
-  if (!kept.length) return new Set();
-  const rows = kept.map((k, ord) => {
-    const { op } = k;
-    let verdict: string | null = null;
-    let bikeId: string | null = null;
-    let targetKind: string | null = null;
-    if (op.kind === "measurement.recorded") {
-      verdict = readingVerdict(op.payload.value, op.payload.unit, jobs.get(op.workOrderId)!.measurementSpecs.get(op.payload.specId)!);
-    } else if (op.kind === "photo.queued") {
-      bikeId = jobs.get(op.workOrderId)!.bikeId;
-    } else if (op.kind === "entry.withdrawn") {
-      targetKind = state.entries.get(op.payload.operationId)?.kind ?? null;
-    }
-    return {
-      ord,
+): Promise<void> {
+  if (!kept.length) return;
+  await copyInto(
+    trx,
+    "operations",
+    ["id", "shop_id", "work_order_id", "kind", "author_id", "device_id", "device_time", "stamp", "payload", "flagged", "flag_reason"],
+    kept.map(({ op, decision }) => ({
       id: op.id,
+      shop_id: shopId,
       work_order_id: op.workOrderId,
       kind: op.kind,
       author_id: op.authorId,
@@ -97,32 +127,159 @@ export async function writeKept(
       device_time: op.deviceTime,
       stamp: op.stamp,
       payload: op.payload,
-      flagged: k.decision.outcome === "flag",
-      flag_reason: flagReason(k),
-      verdict,
-      bike_id: bikeId,
-      target_kind: targetKind,
-    };
-  });
+      flagged: decision.outcome === "flag",
+      flag_reason: flagReason({ op, decision }),
+    })),
+  );
+
+  const completions: StepCompletionRow[] = [];
+  const readings: MeasurementRow[] = [];
+  const bolts: TorqueRecordRow[] = [];
+  const others: KeptOperation[] = [];
+  for (const k of kept) {
+    const { op } = k;
+    if (op.kind === "step.completed") {
+      completions.push({
+        id: op.id,
+        work_order_id: op.workOrderId,
+        step_id: op.payload.stepId,
+        completed_by: op.authorId,
+        device_time: op.deviceTime,
+        flagged: k.decision.outcome === "flag",
+        flag_reason: flagReason(k),
+      });
+    } else if (op.kind === "measurement.recorded") {
+      const p = op.payload;
+      readings.push({
+        id: op.id,
+        work_order_id: op.workOrderId,
+        step_id: p.stepId,
+        spec_id: p.specId,
+        reading_index: p.readingIndex,
+        // the decimal text typed: numeric keeps its scale ("0.030" stays "0.030")
+        value: p.value,
+        unit: p.unit,
+        verdict: readingVerdict(p.value, p.unit, jobs.get(op.workOrderId)!.measurementSpecs.get(p.specId)!),
+        note: p.note ?? "",
+        supersedes_id: p.supersedesId ?? null,
+        recorded_by: op.authorId,
+        device_id: op.deviceId,
+        device_time: op.deviceTime,
+        stamp: op.stamp,
+      });
+    } else if (op.kind === "torque.bolt-confirmed") {
+      const p = op.payload;
+      bolts.push({
+        id: op.id,
+        work_order_id: op.workOrderId,
+        step_id: p.stepId,
+        torque_spec_id: p.torqueSpecId,
+        pass_index: p.passIndex,
+        bolt: p.bolt,
+        wrench_reading: p.wrenchReading ?? null,
+        wrench_unit: p.wrenchUnit ?? null,
+        recorded_by: op.authorId,
+        device_time: op.deviceTime,
+      });
+    } else others.push(k);
+  }
+  await copyInto(trx, "step_completions", STEP_COMPLETION_COLUMNS, completions);
+  await copyInto(trx, "measurements", MEASUREMENT_COLUMNS, readings);
+  await copyInto(trx, "torque_records", TORQUE_RECORD_COLUMNS, bolts);
+  await writeOtherKinds(trx, shopId, others, jobs, state);
+  await copyInto(
+    trx,
+    "audit_log",
+    AUDIT_COLUMNS,
+    kept.map((k) =>
+      auditRow({
+        shopId,
+        actorId: k.op.authorId,
+        deviceId: k.op.deviceId,
+        action: `sync.${k.op.kind}`,
+        entity: "operation",
+        entityId: k.op.id,
+        workOrderId: k.op.workOrderId,
+        outcome: "accepted",
+        reason: flagReason(k),
+        detail: { stamp: k.op.stamp, flagged: k.decision.outcome === "flag" },
+      }),
+    ),
+  );
+  await writeTimerEvents(
+    trx,
+    kept.map((k) => k.op),
+  );
+}
+
+const STEP_COMPLETION_COLUMNS = ["id", "work_order_id", "step_id", "completed_by", "device_time", "flagged", "flag_reason"] as const;
+type StepCompletionRow = { [K in (typeof STEP_COMPLETION_COLUMNS)[number]]: unknown };
+const MEASUREMENT_COLUMNS = [
+  "id",
+  "work_order_id",
+  "step_id",
+  "spec_id",
+  "reading_index",
+  "value",
+  "unit",
+  "verdict",
+  "note",
+  "supersedes_id",
+  "recorded_by",
+  "device_id",
+  "device_time",
+  "stamp",
+] as const;
+type MeasurementRow = { [K in (typeof MEASUREMENT_COLUMNS)[number]]: unknown };
+const TORQUE_RECORD_COLUMNS = [
+  "id",
+  "work_order_id",
+  "step_id",
+  "torque_spec_id",
+  "pass_index",
+  "bolt",
+  "wrench_reading",
+  "wrench_unit",
+  "recorded_by",
+  "device_time",
+] as const;
+type TorqueRecordRow = { [K in (typeof TORQUE_RECORD_COLUMNS)[number]]: unknown };
+
+/**
+ * The read-table rows of the rarer kinds (timers, photos, sign-offs, parts, withdrawals, clocks),
+ * few per batch, in one statement taking them as one JSON array: data-modifying CTEs, one per
+ * table. A withdrawal goes in only if it is the first of its entry (`ON CONFLICT (operation_id)`).
+ */
+async function writeOtherKinds(
+  trx: Tx,
+  shopId: string,
+  kept: readonly KeptOperation[],
+  jobs: ReadonlyMap<string, LoadedWorkOrder>,
+  state: MergeState,
+): Promise<void> {
+  if (!kept.length) return;
+  const rows = kept.map(({ op }, ord) => ({
+    ord,
+    id: op.id,
+    work_order_id: op.workOrderId,
+    kind: op.kind,
+    author_id: op.authorId,
+    device_time: op.deviceTime,
+    payload: op.payload,
+    bike_id: op.kind === "photo.queued" ? jobs.get(op.workOrderId)!.bikeId : null,
+    target_kind: op.kind === "entry.withdrawn" ? (state.entries.get(op.payload.operationId)?.kind ?? null) : null,
+  }));
   const columns = recordset<(typeof rows)[number]>({
     ord: "int",
     id: "uuid",
     work_order_id: "uuid",
     kind: "text",
     author_id: "uuid",
-    device_id: "text",
     device_time: "timestamptz",
-    stamp: "text",
     payload: "jsonb",
-    flagged: "boolean",
-    flag_reason: "text",
-    verdict: "text",
     bike_id: "uuid",
     target_kind: "text",
   });
-  const step = payloadOf("step.completed");
-  const reading = payloadOf("measurement.recorded");
-  const torque = payloadOf("torque.bolt-confirmed");
   const timer = payloadOf("timer.started");
   const photo = payloadOf("photo.queued");
   const signOff = payloadOf("stage.signed-off");
@@ -130,36 +287,9 @@ export async function writeKept(
   const withdrawal = payloadOf("entry.withdrawn");
   const clockOn = payloadOf("clock.on");
   const clockOff = payloadOf("clock.off");
-  const r = await sql<{ id: string }>`
-    WITH x AS MATERIALIZED (
+  await sql`
+    WITH y AS MATERIALIZED (
       SELECT * FROM json_to_recordset(${JSON.stringify(rows)}::json) AS x(${columns})
-    ),
-    ops AS (
-      INSERT INTO ${into("operations", ["id", "shop_id", "work_order_id", "kind", "author_id", "device_id", "device_time", "stamp", "payload", "flagged", "flag_reason"])}
-      SELECT x.id, ${shopId}::uuid, x.work_order_id, x.kind, x.author_id, x.device_id, x.device_time, x.stamp, x.payload, x.flagged, x.flag_reason
-      FROM x ORDER BY x.ord
-      ON CONFLICT (id) DO NOTHING
-      RETURNING id
-    ),
-    y AS MATERIALIZED (SELECT x.* FROM x JOIN ops ON ops.id = x.id),
-    completions AS (
-      INSERT INTO ${into("step_completions", ["id", "work_order_id", "step_id", "completed_by", "device_time", "flagged", "flag_reason"])}
-      SELECT x.id, x.work_order_id, ${step("stepId", "uuid")}, x.author_id, x.device_time, x.flagged, x.flag_reason
-      FROM y x WHERE x.kind = 'step.completed'
-    ),
-    readings AS (
-      -- the value goes in as the decimal text typed: numeric keeps its scale ("0.030" stays "0.030")
-      INSERT INTO ${into("measurements", ["id", "work_order_id", "step_id", "spec_id", "reading_index", "value", "unit", "verdict", "note", "supersedes_id", "recorded_by", "device_id", "device_time", "stamp"])}
-      SELECT x.id, x.work_order_id, ${reading("stepId", "uuid")}, ${reading("specId", "uuid")}, ${reading("readingIndex", "int")},
-        ${reading("value", "numeric")}, ${reading("unit", "text")}, x.verdict, COALESCE(${reading("note", "text")}, ''), ${reading("supersedesId", "uuid")},
-        x.author_id, x.device_id, x.device_time, x.stamp
-      FROM y x WHERE x.kind = 'measurement.recorded'
-    ),
-    torque AS (
-      INSERT INTO ${into("torque_records", ["id", "work_order_id", "step_id", "torque_spec_id", "pass_index", "bolt", "wrench_reading", "wrench_unit", "recorded_by", "device_time"])}
-      SELECT x.id, x.work_order_id, ${torque("stepId", "uuid")}, ${torque("torqueSpecId", "uuid")}, ${torque("passIndex", "int")}, ${torque("bolt", "int")},
-        ${torque("wrenchReading", "numeric")}, ${torque("wrenchUnit", "text")}, x.author_id, x.device_time
-      FROM y x WHERE x.kind = 'torque.bolt-confirmed'
     ),
     timer_starts AS (
       INSERT INTO ${into("timers", ["id", "work_order_id", "step_id", "timer_spec_id", "label", "duration_s", "started_at", "started_by"])}
@@ -200,26 +330,11 @@ export async function writeKept(
       SELECT ${clockOn("clockId", "uuid")}, x.id, ${shopId}::uuid, x.work_order_id, ${clockOn("jobProcedureId", "uuid")}, ${clockOn("stageKey", "text")},
         x.author_id, ${clockOn("startedAt", "timestamptz")}
       FROM y x WHERE x.kind = 'clock.on'
-    ),
-    clocks_off AS (
-      INSERT INTO ${into("bench_clock_ends", ["clock_id", "work_order_id", "kind", "ended_at", "recorded_by", "operation_id"])}
-      SELECT ${clockOff("clockId", "uuid")}, x.work_order_id, 'clocked-off', ${clockOff("endedAt", "timestamptz")}, x.author_id, x.id
-      FROM y x WHERE x.kind = 'clock.off'
-    ),
-    audit AS (
-      INSERT INTO ${into("audit_log", ["shop_id", "actor_id", "device_id", "action", "entity", "entity_id", "work_order_id", "outcome", "reason", "detail"])}
-      SELECT ${shopId}::uuid, x.author_id, x.device_id, 'sync.' || x.kind, 'operation', x.id::text, x.work_order_id,
-        'accepted', x.flag_reason, jsonb_build_object('stamp', x.stamp, 'flagged', x.flagged)
-      FROM y x ORDER BY x.ord
     )
-    SELECT id FROM ops
+    INSERT INTO ${into("bench_clock_ends", ["clock_id", "work_order_id", "kind", "ended_at", "recorded_by", "operation_id"])}
+    SELECT ${clockOff("clockId", "uuid")}, x.work_order_id, 'clocked-off', ${clockOff("endedAt", "timestamptz")}, x.author_id, x.id
+    FROM y x WHERE x.kind = 'clock.off'
   `.execute(trx);
-  const inserted = new Set(r.rows.map((o) => o.id));
-  await writeTimerEvents(
-    trx,
-    kept.map((k) => k.op).filter((op) => inserted.has(op.id)),
-  );
-  return inserted;
 }
 
 /**
@@ -302,25 +417,7 @@ export async function refusalsOnRecord(trx: Tx, ids: readonly string[]): Promise
   return new Set(r.rows.map((a) => `${a.entity_id}\n${a.reason}`));
 }
 
-/** Appends many audit entries in one statement (the same rows as db/audit/append.ts appendAudit, without its per-value parameters). */
+/** Appends many audit entries by one COPY (the same rows as db/audit/append.ts appendAudit). */
 export async function appendAuditBatch(trx: Tx, entries: readonly AuditEntry[]): Promise<void> {
-  if (!entries.length) return;
-  const rows = entries.map(auditRow);
-  const columns = recordset<(typeof rows)[number]>({
-    shop_id: "uuid",
-    actor_id: "uuid",
-    device_id: "text",
-    action: "text",
-    entity: "text",
-    entity_id: "text",
-    work_order_id: "uuid",
-    outcome: "text",
-    reason: "text",
-    detail: "jsonb",
-  });
-  await sql`
-    INSERT INTO ${into("audit_log", ["shop_id", "actor_id", "device_id", "action", "entity", "entity_id", "work_order_id", "outcome", "reason", "detail"])}
-    SELECT x.shop_id, x.actor_id, x.device_id, x.action, x.entity, x.entity_id, x.work_order_id, x.outcome, x.reason, x.detail
-    FROM json_to_recordset(${JSON.stringify(rows)}::json) AS x(${columns})
-  `.execute(trx);
+  await copyInto(trx, "audit_log", AUDIT_COLUMNS, entries.map(auditRow));
 }
