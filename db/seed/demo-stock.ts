@@ -2,7 +2,7 @@ import type { Kysely } from "kysely";
 import type { Database } from "../schema";
 import { receiveDelivery } from "../stock/receive";
 import { insertAssignedDemoJobs } from "./demo-late-work";
-import { demoUserId } from "./demo-lookups";
+import { demoJobExists, demoUserId } from "./demo-lookups";
 
 // Invented stock for the demo shop, and two jobs to fit it on: work orders 1070–1071 (tags
 // GSW-0070, GSW-0071), in build on the demo bottom-end procedure, assigned to Tomas Reyes.
@@ -15,15 +15,7 @@ const BIKES = [
 ];
 
 /** Whether the demo stock is on file (a database seeded before it existed gets it on the next seed). */
-export async function demoStockExists(db: Kysely<Database>, shopId: string): Promise<boolean> {
-  const row = await db
-    .selectFrom("work_orders")
-    .select("id")
-    .where("shop_id", "=", shopId)
-    .where("number", "=", BIKES[0].number)
-    .executeTakeFirst();
-  return Boolean(row);
-}
+export const demoStockExists = (db: Kysely<Database>, shopId: string) => demoJobExists(db, shopId, BIKES[0].number);
 
 export async function seedDemoStock(db: Kysely<Database>, shopId: string): Promise<void> {
   await insertAssignedDemoJobs(db, shopId, BIKES, ["bottom-end-assembly"], "Bottom-end rebuild with parts from stock");

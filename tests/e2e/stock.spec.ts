@@ -20,8 +20,10 @@ test("receive a delivery in the office, fit two at the bench offline, and see th
   const office = await browser.newContext();
   const desk = await office.newPage();
   await signIn(desk, "office");
-  await desk.getByRole("button", { name: "More" }).click();
-  await desk.getByRole("link", { name: "Stock" }).click();
+  await desk.goto("/office");
+  const nav = desk.getByRole("navigation", { name: "Main" });
+  await nav.getByText("More").click();
+  await nav.getByRole("link", { name: "Stock" }).click();
   await expect(desk.getByRole("heading", { name: "Stock", level: 1 })).toBeVisible();
   const form = desk.getByRole("form", { name: "Receive a delivery" });
   await form.getByLabel("Supplier").fill("Tidewater Engine Spares");

@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { api } from "@/app/ui/api-client";
 import { buttonClass, inputClass, quietButtonClass } from "@/app/ui/form-field";
+import { ReasonAction } from "@/app/ui/reason-action";
 
 // Puts some of one lot aside for a job (by its number); refused with the reason when that much is not free.
 export function ReserveForm({ lotId, label }: { lotId: string; label: string }) {
@@ -59,44 +60,13 @@ export function ReserveForm({ lotId, label }: { lotId: string; label: string }) 
 
 // Lets go what a reservation still holds, with the reason (kept on record).
 export function ReleaseForm({ reservationId, label }: { reservationId: string; label: string }) {
-  const router = useRouter();
-  const [open, setOpen] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-  if (!open)
-    return (
-      <button type="button" className={quietButtonClass} onClick={() => setOpen(true)} aria-label={`Let go: ${label}`}>
-        Let go…
-      </button>
-    );
   return (
-    <form
-      noValidate
-      className="flex flex-wrap items-end gap-2"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        setError(null);
-        try {
-          await api("POST", `/api/office/stock/reservations/${reservationId}/release`, {
-            reason: String(new FormData(e.currentTarget).get("reason") ?? ""),
-          });
-          router.refresh();
-        } catch (err) {
-          setError((err as Error).message);
-        }
-      }}
-    >
-      <label className="flex flex-col text-base font-bold">
-        Why let it go?
-        <input name="reason" maxLength={500} className={inputClass} />
-      </label>
-      <button type="submit" className={buttonClass}>
-        Let it go
-      </button>
-      {error && (
-        <p role="alert" className="w-full font-bold text-fail">
-          ✖ {error}
-        </p>
-      )}
-    </form>
+    <ReasonAction
+      url={`/api/office/stock/reservations/${reservationId}/release`}
+      openText="Let go…"
+      openLabel={`Let go: ${label}`}
+      question="Why let it go?"
+      submitText="Let it go"
+    />
   );
 }
