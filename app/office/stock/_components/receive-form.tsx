@@ -28,13 +28,13 @@ const blank = (key: number): Line => ({
 });
 
 const COLUMNS: Array<{ field: Exclude<keyof Line, "key">; label: string; width: string; mono?: boolean }> = [
-  { field: "partNumber", label: "Part number", width: "w-40", mono: true },
-  { field: "description", label: "Description", width: "w-56" },
-  { field: "location", label: "Shelf", width: "w-28" },
-  { field: "batch", label: "Batch number", width: "w-36", mono: true },
-  { field: "serial", label: "Serial number", width: "w-36", mono: true },
-  { field: "quantity", label: "Quantity", width: "w-24" },
-  { field: "lowStockAt", label: "Low-stock level", width: "w-24" },
+  { field: "partNumber", label: "Part number", width: "w-36", mono: true },
+  { field: "description", label: "Description", width: "w-48" },
+  { field: "location", label: "Shelf", width: "w-24" },
+  { field: "batch", label: "Batch number", width: "w-32", mono: true },
+  { field: "serial", label: "Serial number", width: "w-32", mono: true },
+  { field: "quantity", label: "Quantity", width: "w-20" },
+  { field: "lowStockAt", label: "Low-stock level", width: "w-20" },
 ];
 
 /** A number as typed ("" left out; anything else sent as a number, so the server names a bad one). */

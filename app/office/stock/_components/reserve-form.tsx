@@ -13,7 +13,12 @@ export function ReserveForm({ lotId, label }: { lotId: string; label: string }) 
   const [error, setError] = useState<string | null>(null);
   if (!open)
     return (
-      <button type="button" className={quietButtonClass} onClick={() => setOpen(true)} aria-label={`Put aside for a job: ${label}`}>
+      <button
+        type="button"
+        className={`${quietButtonClass} whitespace-nowrap`}
+        onClick={() => setOpen(true)}
+        aria-label={`Put aside for a job: ${label}`}
+      >
         Put aside…
       </button>
     );
