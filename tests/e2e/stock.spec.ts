@@ -94,5 +94,7 @@ test("receive a delivery in the office, fit two at the bench offline, and see th
   await expect(results.getByTestId("stock-event-fitted")).toContainText("GSW-0070");
   await desk.setViewportSize({ width: 1024, height: 768 });
   await desk.screenshot({ path: "test-results/stock-office-1024.png", fullPage: true });
+  await desk.setViewportSize({ width: 768, height: 1024 });
+  await desk.screenshot({ path: "test-results/stock-office-768.png", fullPage: true });
   await office.close();
 });
