@@ -322,3 +322,38 @@ describe("the batch search", () => {
     expect(((await none.json()) as { events: unknown[] }).events).toEqual([]);
   });
 });
+
+describe("hostile input to the stock routes", () => {
+  it("answers in workshop words: a NUL in the search, a job that does not exist, stock of another shop", async () => {
+    const { fx, office } = await setup();
+    const nul = await searchRoute.handle(appRequest(`/api/office/stock/search?code=${encodeURIComponent("L24\u0000")}`), {
+      user: office,
+      db,
+    });
+    expect(nul.status).toBe(400);
+    expect(((await nul.json()) as { issues: Array<{ message: string }> }).issues[0].message).toMatch(
+      /^Batch or serial number holds a NUL character/,
+    );
+    const { body } = await receive(office, { supplier: "Harbour Pistons", lines: [rodBolts()] });
+    const noJob = await reservationsRoute.handle(
+      post("/api/office/stock/reservations", { lotId: body.lots![0], workOrderNumber: 99999, quantity: 1 }),
+      {
+        user: office,
+        db,
+      },
+    );
+    expect(noJob.status).toBe(422);
+    expect(((await noJob.json()) as { error: string }).error).toBe("There is no job #99999 in this shop.");
+    const outsider = asUser((await createShopFixture(db)).users.office);
+    const theirs = await reservationsRoute.handle(
+      post("/api/office/stock/reservations", { lotId: body.lots![0], workOrderNumber: 1, quantity: 1 }),
+      {
+        user: outsider,
+        db,
+      },
+    );
+    expect(theirs.status).toBe(404);
+    expect(await lot(body.lots![0])).toEqual({ on_hand: 8, reserved: 0 });
+    expect(fx.shopId).not.toBe(outsider.shopId);
+  });
+});
