@@ -40,7 +40,7 @@ export async function seedDemoStock(db: Kysely<Database>, shopId: string): Promi
         location: "Cage 1",
         serial: "FP-88-1042",
         quantity: 1,
-        lowStockAt: 2,
+        lowStockAt: 1,
       },
       {
         partNumber: "GSE-MB-STD",
