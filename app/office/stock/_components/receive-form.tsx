@@ -34,7 +34,7 @@ const COLUMNS: Array<{ field: Exclude<keyof Line, "key">; label: string; width: 
   { field: "batch", label: "Batch number", width: "w-32", mono: true },
   { field: "serial", label: "Serial number", width: "w-32", mono: true },
   { field: "quantity", label: "Quantity", width: "w-20" },
-  { field: "lowStockAt", label: "Low-stock level", width: "w-20" },
+  { field: "lowStockAt", label: "Low-stock level", width: "w-32" },
 ];
 
 /** A number as typed ("" left out; anything else sent as a number, so the server names a bad one). */
@@ -111,49 +111,39 @@ export function ReceiveForm() {
           />
         </label>
       </div>
-      <div className="overflow-x-auto">
-        <table className="border-collapse text-left">
-          <thead>
-            <tr>
-              {COLUMNS.map((c) => (
-                <th key={c.field} className="pb-1 pr-2 text-base">
+      {lines.map((l, i) => (
+        <fieldset key={l.key} className="rounded-lg border-2 border-steel-300 px-3 pb-3" data-testid={`delivery-line-${i}`}>
+          <legend className="px-1 text-base font-bold">Line {i + 1}</legend>
+          <div className="flex flex-wrap items-start gap-x-3 gap-y-2">
+            {COLUMNS.map((c) => {
+              const problem = issueAt(`lines.${i}.${c.field}`);
+              return (
+                <label key={c.field} className="flex flex-col gap-1 text-base font-bold">
                   {c.label}
-                </th>
-              ))}
-              <th />
-            </tr>
-          </thead>
-          <tbody>
-            {lines.map((l, i) => (
-              <tr key={l.key} className="align-top" data-testid={`delivery-line-${i}`}>
-                {COLUMNS.map((c) => {
-                  const problem = issueAt(`lines.${i}.${c.field}`);
-                  return (
-                    <td key={c.field} className="pb-2 pr-2">
-                      <input
-                        aria-label={`${c.label}, line ${i + 1}`}
-                        aria-invalid={problem ? true : undefined}
-                        inputMode={c.field === "quantity" || c.field === "lowStockAt" ? "numeric" : undefined}
-                        value={l[c.field]}
-                        onChange={(e) => set(l.key, c.field, e.target.value)}
-                        className={`${inputClass} ${c.width} ${c.mono ? "font-mono" : ""}`}
-                      />
-                      {problem && <p className="max-w-64 text-base font-bold text-fail">✖ {problem}</p>}
-                    </td>
-                  );
-                })}
-                <td className="pb-2">
-                  {lines.length > 1 && (
-                    <button type="button" className={quietButtonClass} onClick={() => setLines((ls) => ls.filter((x) => x.key !== l.key))}>
-                      Remove line {i + 1}
-                    </button>
-                  )}
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+                  <input
+                    aria-label={`${c.label}, line ${i + 1}`}
+                    aria-invalid={problem ? true : undefined}
+                    inputMode={c.field === "quantity" || c.field === "lowStockAt" ? "numeric" : undefined}
+                    value={l[c.field]}
+                    onChange={(e) => set(l.key, c.field, e.target.value)}
+                    className={`${inputClass} ${c.width} font-normal ${c.mono ? "font-mono" : ""}`}
+                  />
+                  {problem && <span className="max-w-64 font-bold text-fail">✖ {problem}</span>}
+                </label>
+              );
+            })}
+            {lines.length > 1 && (
+              <button
+                type="button"
+                className={`${quietButtonClass} self-end`}
+                onClick={() => setLines((ls) => ls.filter((x) => x.key !== l.key))}
+              >
+                Remove line {i + 1}
+              </button>
+            )}
+          </div>
+        </fieldset>
+      ))}
       <div className="flex flex-wrap gap-4">
         <button type="button" className={quietButtonClass} onClick={() => setLines((ls) => [...ls, blank(Date.now())])}>
           Add a line
