@@ -6,6 +6,7 @@ import { POST as releaseRoute } from "@/app/api/office/stock/reservations/[id]/r
 import { POST as reservationsRoute } from "@/app/api/office/stock/reservations/route";
 import { GET as searchRoute } from "@/app/api/office/stock/search/route";
 import { GET as stockRoute } from "@/app/api/office/stock/route";
+import { flaggedEntriesOf } from "@/db/review/flagged-work";
 import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { OperationOf } from "@/lib/sync/operations";
@@ -200,6 +201,9 @@ describe("fitting at the bench draws from stock", () => {
     expect(parts).toHaveLength(2);
     const ops = await db.selectFrom("operations").select(["id", "flagged", "flag_reason"]).where("id", "in", [opA.id, opB.id]).execute();
     expect(ops.filter((o) => o.flagged).map((o) => o.flag_reason)).toEqual([flagged[0].reason]);
+    // the supervisor's review lists it with its reason
+    const review = (await flaggedEntriesOf(db, fx.shopId, [fx.workOrderId])).get(fx.workOrderId) ?? [];
+    expect(review.map((e) => e.flagReason)).toEqual([flagged[0].reason]);
     const page = await (await stockRoute.handle(appRequest("/api/office/stock"), { user: office, db })).json();
     expect(page.shortfalls).toMatchObject([{ partNumber: "GS-RB-8", batch: "L24-118", fitted: 1, short: 1, workOrderNumber: 1 }]);
     expect(page.low).toMatchObject([{ partNumber: "GS-RB-8", onHand: 0, free: 0, lowAt: 4 }]);
