@@ -15,6 +15,7 @@ const NAV: Array<{ href: string; label: string; area: Area; row: boolean }> = [
   { href: "/office/customers", label: "Customers", area: "office", row: true },
   { href: "/office/templates", label: "Templates", area: "templates", row: false },
   { href: "/office/parts", label: "Parts", area: "office", row: true },
+  { href: "/office/stock", label: "Stock", area: "office", row: false },
   { href: "/office/labels", label: "Labels", area: "office", row: false },
   { href: "/office/calendar", label: "Week plan", area: "office", row: false },
   { href: "/office/reminders", label: "Reminders", area: "office", row: false },

@@ -9,6 +9,7 @@ import type { MailTables } from "./mail";
 import type { OfficeTables } from "./office";
 import type { ReviewTables } from "./review";
 import type { SessionTables } from "./sessions";
+import type { StockTables } from "./stock";
 import type { ShopTables, UsersTable } from "./shop";
 import type { SyncTables } from "./sync";
 import type { TemplateTables } from "./templates";
@@ -30,6 +31,7 @@ export interface Database
     MailTables,
     AftercareTables,
     CalendarTables,
-    ClockTables {}
+    ClockTables,
+    StockTables {}
 
 export type User = Selectable<UsersTable>;

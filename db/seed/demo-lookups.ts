@@ -30,3 +30,9 @@ export async function firstTemplateVersionId(db: Kysely<Database>, shopId: strin
     .executeTakeFirstOrThrow();
   return version.id;
 }
+
+/** Whether the demo shop has a work order with this number (a seed's "already written?" check). */
+export async function demoJobExists(db: Kysely<Database>, shopId: string, number: number): Promise<boolean> {
+  const row = await db.selectFrom("work_orders").select("id").where("shop_id", "=", shopId).where("number", "=", number).executeTakeFirst();
+  return Boolean(row);
+}

@@ -14,6 +14,7 @@ import { seedDemoBenchTime } from "./demo-bench-time";
 import { seedDemoLateWork } from "./demo-late-work";
 import { seedDemoOffice } from "./demo-office";
 import { seedDemoReview } from "./demo-review";
+import { seedDemoStock } from "./demo-stock";
 import { seedDemoTurboPlan } from "./demo-turbo-plan";
 
 // An invented workshop for the demo and the browser tests. All names are made up.
@@ -210,5 +211,6 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
   await seedDemoAftercare(db, shopId);
   await seedDemoBenchTime(db, shopId);
   await seedDemoCalendar(db, shopId);
+  await seedDemoStock(db, shopId);
   return { shopId };
 }

@@ -13,7 +13,9 @@ import {
 } from "@/lib/sync/merge-rules";
 import type { Operation, SyncBatch } from "@/lib/sync/operations";
 import type { MalformedOperation } from "@/lib/sync/parse-batch";
+import { withStockReason } from "@/lib/stock/draw";
 import type { AuditEntry } from "../audit/append";
+import { planStockDraws, writeStockDraws } from "../stock/draw";
 import type { Database } from "../schema";
 import { changesSince } from "./changes";
 import { existingOperations, loadWorkOrderFacts, loadMergeState } from "./context";
@@ -74,10 +76,12 @@ async function heldForRecordsOf(
  *    on has not arrived. So a withdrawal held for a part counts before a later part with its serial.
  * 5. Applies held operations whose record turned up later in that pass (a stamp out of causal
  *    order), round after round, until none is left.
- * 6. Writes the kept ones into `operations`, the read tables and the audit log (by COPY, in stamp
+ * 6. Plans the stock drawn by parts fitted (db/stock/draw.ts): a fit the shelf cannot cover is
+ *    kept and flagged, and the draw stops at zero.
+ * 7. Writes the kept ones into `operations`, the read tables and the audit log (by COPY, in stamp
  *    order: `writeKept`); audits the refused ones (the malformed ones too); holds the ones still
- *    waiting.
- * 7. Answers with the outcome of each operation and the changes from elsewhere after the cursor.
+ *    waiting; writes the stock drawn by the fits stored.
+ * 8. Answers with the outcome of each operation and the changes from elsewhere after the cursor.
  *
  * Resending the same batch, or the rest of a batch that was cut off, leaves the database as if it
  * had arrived once; any order of one device's operations across batches ends as one delivery does.
@@ -195,7 +199,20 @@ export async function mergeBatch(
       for (const { h } of sortByStamp(ready.map((h) => ({ id: h.op.id, stamp: h.op.stamp, h })))) settle(h, decideAs(h));
     }
 
+    // Parts fitted draw from stock; one the shelf cannot cover is kept and flagged (never refused).
+    const draws = await planStockDraws(
+      trx,
+      actor.shopId,
+      kept.flatMap((k) => (k.op.kind === "part.fitted" ? [k.op] : [])),
+    );
+    for (const k of kept) {
+      const stockReason = draws.get(k.op.id)?.reason ?? null;
+      const reason = withStockReason(k.decision.outcome === "flag" ? k.decision.reason : null, stockReason);
+      if (reason) k.decision = { outcome: "flag", reason };
+    }
+    // every kept operation is written (an id taken meanwhile by another shop fails the whole batch)
     await writeKept(trx, actor.shopId, kept, jobs, state);
+    await writeStockDraws(trx, actor.shopId, [...draws.values()]);
     await applyFirstOverrides(
       trx,
       kept.flatMap((k) => (k.op.kind === "timer.overridden" ? [k.op.payload.timerId] : [])),

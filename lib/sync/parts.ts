@@ -3,13 +3,15 @@
  * the merge (to flag a repeat for the supervisor) and by the bench screen (to warn at once).
  */
 
-/** A serial number as compared: case, spaces and punctuation ignored ("ag-552 901" = "AG552901"). */
+/** A part, serial or batch number as compared: case, spaces and punctuation ignored ("ag-552 901" = "AG552901"). */
+export function plainCode(s: string): string {
+  const t = s.normalize("NFKC").toUpperCase();
+  return t.replace(/[^\p{L}\p{N}]/gu, "") || t.trim();
+}
+
+/** A serial number of a part as compared (`plainCode` of both). */
 export function serialKey(partNumber: string, serial: string): string {
-  const plain = (s: string) => {
-    const t = s.normalize("NFKC").toUpperCase();
-    return t.replace(/[^\p{L}\p{N}]/gu, "") || t.trim();
-  };
-  return `${plain(partNumber)}\u0000${plain(serial)}`;
+  return `${plainCode(partNumber)}\u0000${plainCode(serial)}`;
 }
 
 /** The merge's key for a serial-numbered part on one job. */

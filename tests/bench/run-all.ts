@@ -3,6 +3,7 @@
 import { print as printAuditLog, run as auditLog } from "./audit-log";
 import { print as printPrecache, run as precache } from "./bench-precache";
 import { run as calcBuildSheet } from "./calc-build-sheet";
+import { print as printStockWeek, run as stockWeek } from "./stock-week";
 import { print as printSyncMerge, run as syncMerge } from "./sync-merge";
 
 console.log("== lib/calc: a full build sheet");
@@ -11,6 +12,8 @@ console.log("\n== sync merge into PostgreSQL");
 printSyncMerge(await syncMerge());
 console.log("\n== audit log: page and CSV on a large log vs the demo's");
 printAuditLog(await auditLog());
+console.log("\n== a busy year: the week plan and the stock's batch search vs a small shop");
+printStockWeek(await stockWeek());
 console.log("\n== the bench's service worker precache and first load (from the last build)");
 printPrecache(precache());
 process.exit(0);

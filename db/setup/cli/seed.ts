@@ -5,6 +5,7 @@ import { demoCalendarExists, seedDemoCalendar } from "../../seed/demo-calendar";
 import { demoBenchTimeExists, seedDemoBenchTime } from "../../seed/demo-bench-time";
 import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
 import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
+import { demoStockExists, seedDemoStock } from "../../seed/demo-stock";
 
 // Seeds the invented demo workshop once; a second run leaves existing data alone. A shop seeded
 // before demo jobs 1030–1032, 1020–1022, 1040–1041 or 1060–1061 existed gets them (once) without anything else being touched.
@@ -35,6 +36,10 @@ try {
     if (!(await demoCalendarExists(db, shopId))) {
       await seedDemoCalendar(db, shopId);
       console.log("[seed] calendar resources (dyno, bays, lift, a mechanic) added");
+    }
+    if (!(await demoStockExists(db, shopId))) {
+      await seedDemoStock(db, shopId);
+      console.log("[seed] demo stock and jobs 1070–1071 added");
     }
   }
 } finally {

@@ -1,0 +1,136 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { Refusal } from "@/lib/errors";
+import { lotName } from "@/lib/stock/draw";
+import type { ReservationInput } from "@/lib/stock/input";
+import { isClosed, STATUS_LABELS } from "@/lib/work-orders/status";
+import { appendAudit } from "../audit/append";
+import type { Database } from "../schema";
+import { outstandingReservations } from "./balances";
+
+// Putting stock aside for a job, and letting it go again. A reservation is a movement; letting it
+// go is a second movement pointing at it, with a reason. The lot's `reserved` balance changes in
+// the same transaction, under the lot's row lock, so two people cannot put aside the same part.
+
+/** Puts `quantity` of a lot aside for a job; refused when that much is not free. */
+export async function reserveToJob(db: Kysely<Database>, user: SessionUser, input: ReservationInput) {
+  return db.transaction().execute(async (trx) => {
+    const job = await trx
+      .selectFrom("work_orders")
+      .select(["id", "number", "status"])
+      .where("shop_id", "=", user.shopId)
+      .where("number", "=", input.workOrderNumber)
+      .executeTakeFirst();
+    if (!job)
+      throw new Refusal(`There is no job #${input.workOrderNumber} in this shop.`, 422, [
+        { path: "workOrderNumber", message: `No job #${input.workOrderNumber}.` },
+      ]);
+    if (isClosed(job.status))
+      throw new Refusal(`Job #${job.number} is ${STATUS_LABELS[job.status].toLowerCase()}: stock cannot be put aside for it.`, 409, [
+        { path: "workOrderNumber", message: "closed job" },
+      ]);
+    const lot = await trx
+      .selectFrom("stock_lots as l")
+      .innerJoin("stock_items as i", "i.id", "l.item_id")
+      .select(["l.id", "l.item_id as itemId", "l.on_hand as onHand", "l.reserved", "l.batch", "l.serial", "i.part_number as partNumber"])
+      .where("l.id", "=", input.lotId)
+      .where("l.shop_id", "=", user.shopId)
+      .forUpdate("l")
+      .executeTakeFirst();
+    if (!lot) throw new Refusal("No such stock in this shop.", 404, [{ path: "lotId", message: "not found" }]);
+    const free = Math.max(0, lot.onHand - lot.reserved);
+    if (input.quantity > free)
+      throw new Refusal(
+        `Only ${free} of part ${lot.partNumber} ${lotName(lot)} ${free === 1 ? "is" : "are"} free (${lot.onHand} on the shelf, ${lot.reserved} put aside already).`,
+        409,
+        [{ path: "quantity", message: `at most ${free}` }],
+      );
+    const movement = await trx
+      .insertInto("stock_movements")
+      .values({
+        shop_id: user.shopId,
+        item_id: lot.itemId,
+        lot_id: lot.id,
+        kind: "reserved",
+        quantity: input.quantity,
+        work_order_id: job.id,
+        recorded_by: user.id,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await trx
+      .updateTable("stock_lots")
+      .set((eb) => ({ reserved: eb("reserved", "+", input.quantity) }))
+      .where("id", "=", lot.id)
+      .execute();
+    await appendAudit(trx, [
+      {
+        shopId: user.shopId,
+        actorId: user.id,
+        action: "stock.reserved",
+        entity: "stock_movement",
+        entityId: movement.id,
+        workOrderId: job.id,
+        outcome: "accepted",
+        detail: { lotId: lot.id, quantity: input.quantity },
+      },
+    ]);
+    return { id: movement.id };
+  });
+}
+
+/** Lets go what is still put aside by a reservation (less what the job's fits already used), with a reason. */
+export async function releaseReservation(db: Kysely<Database>, user: SessionUser, reservationId: string, reason: string) {
+  return db.transaction().execute(async (trx) => {
+    const res = await trx
+      .selectFrom("stock_movements")
+      .select(["id", "item_id", "lot_id", "work_order_id", "quantity"])
+      .where("id", "=", reservationId)
+      .where("shop_id", "=", user.shopId)
+      .where("kind", "=", "reserved")
+      .executeTakeFirst();
+    if (!res) throw new Refusal("No such reservation in this shop.", 404);
+    // The lot's lock first: fits and other releases of this lot wait.
+    await trx.selectFrom("stock_lots").select("id").where("id", "=", res.lot_id!).forUpdate().execute();
+    const already = await trx.selectFrom("stock_movements").select("id").where("releases_id", "=", res.id).executeTakeFirst();
+    if (already) throw new Refusal("This reservation was already let go.", 409);
+    const outstanding = (await outstandingReservations(trx, [res.lot_id!])).get(res.lot_id!)?.get(res.work_order_id!) ?? 0;
+    const quantity = Math.min(res.quantity, outstanding);
+    if (quantity <= 0) throw new Refusal("Nothing of this reservation is left to let go: the job's fits used it.", 409);
+    const movement = await trx
+      .insertInto("stock_movements")
+      .values({
+        shop_id: user.shopId,
+        item_id: res.item_id,
+        lot_id: res.lot_id,
+        kind: "released",
+        quantity,
+        work_order_id: res.work_order_id,
+        releases_id: res.id,
+        reason,
+        recorded_by: user.id,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await trx
+      .updateTable("stock_lots")
+      .set((eb) => ({ reserved: eb("reserved", "-", quantity) }))
+      .where("id", "=", res.lot_id!)
+      .execute();
+    await appendAudit(trx, [
+      {
+        shopId: user.shopId,
+        actorId: user.id,
+        action: "stock.released",
+        entity: "stock_movement",
+        entityId: movement.id,
+        workOrderId: res.work_order_id,
+        outcome: "accepted",
+        reason,
+        detail: { reservationId: res.id, quantity },
+      },
+    ]);
+    return { id: movement.id, quantity };
+  });
+}
