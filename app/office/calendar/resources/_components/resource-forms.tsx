@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
-import { api } from "@/app/ui/api-client";
+import { api, ApiError } from "@/app/ui/api-client";
 import { buttonClass, inputClass } from "@/app/ui/form-field";
 import { RESOURCE_KIND_LABELS, RESOURCE_KINDS, WEEKDAY_LABELS } from "@/lib/calendar/rules";
 
@@ -26,7 +26,9 @@ function useSubmit(send: (f: FormData) => Promise<string>) {
       setOk(await send(new FormData(form)));
       router.refresh();
     } catch (err) {
-      setError((err as Error).message);
+      // the form marks no fields: say each field's problem in words instead of "check the marked fields"
+      const each = err instanceof ApiError ? err.issues.map((i) => i.message) : [];
+      setError(each.length ? each.join(" ") : (err as Error).message);
     } finally {
       setBusy(false);
     }
