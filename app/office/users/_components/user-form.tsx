@@ -24,7 +24,9 @@ export function UserForm({ customers }: { customers: Array<{ id: string; name: s
       await api("POST", "/api/office/users", values);
       form.reset();
       router.refresh();
-      return `Sign-in made for ${user.email}.`;
+      return user.role === "customer" && !user.password
+        ? `Sign-in made for ${user.email}; the invitation e-mail is on its way.`
+        : `Sign-in made for ${user.email}.`;
     });
   }
 
@@ -64,9 +66,15 @@ export function UserForm({ customers }: { customers: Array<{ id: string; name: s
             </select>
           </Field>
         )}
-        <Field label="First password" name="password" error={errors.password} hint="At least 10 characters; tell it to them in person.">
-          <input {...f("password")} type="password" className={inputClass} autoComplete="new-password" />
-        </Field>
+        {role === "customer" ? (
+          <p className="self-end text-lg" data-testid="invitation-note">
+            No password here: the customer gets an e-mail with a link to choose their own (it works once, for 72 hours).
+          </p>
+        ) : (
+          <Field label="First password" name="password" error={errors.password} hint="At least 10 characters; tell it to them in person.">
+            <input {...f("password")} type="password" className={inputClass} autoComplete="new-password" />
+          </Field>
+        )}
       </div>
       <FormMessage {...message} />
       <button type="submit" disabled={busy} className={buttonClass}>
