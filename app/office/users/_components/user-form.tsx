@@ -66,15 +66,18 @@ export function UserForm({ customers }: { customers: Array<{ id: string; name: s
             </select>
           </Field>
         )}
-        {role === "customer" ? (
-          <p className="self-end text-lg" data-testid="invitation-note">
-            No password here: the customer gets an e-mail with a link to choose their own (it works once, for 72 hours).
-          </p>
-        ) : (
-          <Field label="First password" name="password" error={errors.password} hint="At least 10 characters; tell it to them in person.">
-            <input {...f("password")} type="password" className={inputClass} autoComplete="new-password" />
-          </Field>
-        )}
+        <Field
+          label="First password"
+          name="password"
+          error={errors.password}
+          hint={
+            role === "customer"
+              ? "Leave it empty to e-mail them a link to choose their own (it works once, for 72 hours)."
+              : "At least 10 characters; tell it to them in person."
+          }
+        >
+          <input {...f("password")} type="password" className={inputClass} autoComplete="new-password" />
+        </Field>
       </div>
       <FormMessage {...message} />
       <button type="submit" disabled={busy} className={buttonClass}>
