@@ -65,7 +65,7 @@ export default async function UsersPage() {
                       url={`/api/office/users/${u.id}/invitation`}
                       body={undefined}
                       label={invitations.has(u.id) ? "Send a new invitation" : "Send an invitation"}
-                      ariaLabel={`Send ${u.name} an invitation e-mail`}
+                      ariaLabel={`Send ${u.name} an invitation`}
                     />
                   )}
                 </div>
