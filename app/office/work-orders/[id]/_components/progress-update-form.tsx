@@ -42,7 +42,7 @@ export function ProgressUpdateForm({ workOrderId, photos }: { workOrderId: strin
           Photos to share ({chosen.length} chosen of {photos.length})
         </legend>
         {photos.length === 0 && <p className="text-base text-steel-700">No stored photos on this job yet.</p>}
-        <div className="mt-2 grid grid-cols-2 gap-4 md:grid-cols-3">
+        <div className="mt-2 grid grid-cols-2 gap-4 lg:grid-cols-3">
           {photos.map((p) => {
             const on = chosen.includes(p.id);
             return (
@@ -53,10 +53,17 @@ export function ProgressUpdateForm({ workOrderId, photos }: { workOrderId: strin
               >
                 {/* eslint-disable-next-line @next/next/no-img-element -- a private photo served by our own route */}
                 <img src={`/api/office/attachments/${p.id}`} alt={p.label} className="aspect-[4/3] w-full rounded object-cover" />
-                <span className="flex items-center gap-2 text-base">
-                  <input type="checkbox" checked={on} onChange={() => toggle(p.id)} className="size-8" aria-label={`Share: ${p.label}`} />
-                  <span className="font-bold">{on ? "✔ Shared" : "Not shared"}</span> · {p.label}
+                <span className="flex items-center gap-3 text-lg">
+                  <input
+                    type="checkbox"
+                    checked={on}
+                    onChange={() => toggle(p.id)}
+                    className="size-8 shrink-0"
+                    aria-label={`Share: ${p.label}`}
+                  />
+                  <span className="font-bold">{on ? "✔ Shared" : "○ Not shared"}</span>
                 </span>
+                <span className="break-words text-base">{p.label}</span>
               </label>
             );
           })}
