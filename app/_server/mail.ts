@@ -3,6 +3,7 @@ import nodemailer from "nodemailer";
 import { claimMail, finishMail, queueMails, type QueuedMail } from "@/db/mail/outbox";
 import { recordEmail } from "@/db/office/emails";
 import { bikeReadyAttachment } from "./bike-ready-attachment";
+import { INVITATION_KIND, withInvitationLink } from "./invitation-link";
 import { officeConfig } from "./office-config";
 import { appBoss } from "./queue/boss";
 import { QUEUES } from "./queue/names";
@@ -56,7 +57,8 @@ export async function deliverQueuedMail(db: Db, mailId: string, final: boolean):
             },
           ]
         : undefined;
-    const info = await transport.sendMail({ from: cfg.MAIL_FROM, to: m.to, subject: m.subject, text: m.text, attachments });
+    const text = m.kind === INVITATION_KIND ? await withInvitationLink(db, m.cause, m.text) : m.text;
+    const info = await transport.sendMail({ from: cfg.MAIL_FROM, to: m.to, subject: m.subject, text, attachments });
     await finishMail(db, m.id, { sent: true, messageId: info.messageId ?? null });
     await recordEmail(db, { ...log, messageId: info.messageId ?? null, error: null });
     return "sent";

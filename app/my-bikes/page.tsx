@@ -8,6 +8,9 @@ import { quotesForCustomer } from "@/db/office/quotes";
 import { reportRevisionsOf } from "@/db/records/report-revisions";
 import { reviseAfterAcceptedChange } from "../_server/frozen-report";
 import { CustomerQuote } from "./_components/customer-quote";
+import { JobContact } from "./_components/job-contact";
+import { threadOf } from "@/db/customer-contact/messages";
+import { progressUpdatesOf } from "@/db/customer-contact/progress-updates";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { StatusBadge } from "../ui/status-badge";
@@ -34,6 +37,10 @@ export default async function MyBikesPage() {
       }),
     ),
   );
+  // what the workshop shared, and each job's thread (the jobs are the customer's own)
+  const jobIds = bikes.flatMap((b) => b.workOrders).map((w) => w.id);
+  const updates = await progressUpdatesOf(db(), user.shopId, jobIds);
+  const threads = new Map(await Promise.all(jobIds.map(async (id) => [id, await threadOf(db(), user.shopId, id)] as const)));
   return (
     <AppFrame user={user} current="/my-bikes">
       <h1 className="text-3xl font-bold">My bikes</h1>
@@ -62,6 +69,11 @@ export default async function MyBikesPage() {
                   <BuildLine progress={progress.get(w.id) ?? null} />
                   <StoredCopies workOrderId={w.id} copies={copies.get(w.id) ?? []} />
                   {quoteOf(w.id) && <CustomerQuote quote={quoteOf(w.id)!} />}
+                  <JobContact
+                    workOrderId={w.id}
+                    updates={updates.filter((u) => u.workOrderId === w.id)}
+                    messages={threads.get(w.id) ?? []}
+                  />
                 </li>
               ))}
             </ul>

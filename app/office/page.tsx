@@ -5,13 +5,15 @@ import { AppFrame } from "../ui/app-frame";
 import { listLateJobs } from "@/db/calendar/promises";
 import { db } from "@/db/setup/client";
 import { LateJobs } from "./_components/late-jobs";
+import { UnansweredMessages } from "./_components/unanswered-messages";
+import { unansweredThreads } from "@/db/customer-contact/messages";
 import { WorkOrdersTable } from "./_components/work-orders-table";
 
 export const metadata: Metadata = { title: "Work orders" };
 
 export default async function OfficePage() {
   const user = await requirePageArea("office");
-  const late = await listLateJobs(db(), user.shopId);
+  const [late, unanswered] = await Promise.all([listLateJobs(db(), user.shopId), unansweredThreads(db(), user.shopId)]);
   return (
     <AppFrame user={user} current="/office">
       <div className="flex flex-wrap items-center gap-4">
@@ -23,6 +25,7 @@ export default async function OfficePage() {
           + Book a bike in
         </Link>
       </div>
+      <UnansweredMessages threads={unanswered} />
       <LateJobs jobs={late} />
       <WorkOrdersTable />
     </AppFrame>

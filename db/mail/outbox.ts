@@ -46,6 +46,7 @@ export async function queueMails(db: Kysely<Database>, mails: QueuedMail[]): Pro
 export interface ClaimedMail {
   id: string;
   shopId: string;
+  cause: string;
   workOrderId: string | null;
   kind: string;
   to: string;
@@ -60,6 +61,7 @@ export async function claimMail(db: Kysely<Database>, id: string): Promise<Claim
   const r = await sql<{
     id: string;
     shop_id: string;
+    cause: string;
     work_order_id: string | null;
     kind: string;
     recipient: string;
@@ -71,13 +73,14 @@ export async function claimMail(db: Kysely<Database>, id: string): Promise<Claim
     UPDATE mail_outbox SET state = 'sending', attempts = attempts + 1, claimed_at = now()
     WHERE id = ${id}
       AND (state = 'queued' OR (state = 'sending' AND claimed_at < now() - make_interval(secs => ${CLAIM_STALE_MS / 1000})))
-    RETURNING id, shop_id, work_order_id, kind, recipient, subject, body, attachment, attempts
+    RETURNING id, shop_id, cause, work_order_id, kind, recipient, subject, body, attachment, attempts
   `.execute(db);
   const m = r.rows[0];
   if (!m) return null;
   return {
     id: m.id,
     shopId: m.shop_id,
+    cause: m.cause,
     workOrderId: m.work_order_id,
     kind: m.kind,
     to: m.recipient,

@@ -4,6 +4,7 @@ import type { AuditTables } from "./audit";
 import type { BenchTables } from "./bench";
 import type { CalendarTables } from "./calendar";
 import type { ClockTables } from "./clocks";
+import type { CustomerContactTables } from "./customer-contact";
 import type { DynoTables } from "./dyno";
 import type { MailTables } from "./mail";
 import type { OfficeTables } from "./office";
@@ -32,6 +33,7 @@ export interface Database
     AftercareTables,
     CalendarTables,
     ClockTables,
-    StockTables {}
+    StockTables,
+    CustomerContactTables {}
 
 export type User = Selectable<UsersTable>;

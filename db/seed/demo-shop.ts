@@ -8,6 +8,7 @@ import { createTemplateVersion } from "../templates/versions";
 import { insertDemoBike } from "./demo-bike";
 import { seedDemoAftercare } from "./demo-aftercare";
 import { seedDemoCalendar } from "./demo-calendar";
+import { seedDemoCustomerContact } from "./demo-customer-contact";
 import { seedDemoBenchChecks } from "./demo-bench-checks";
 import { seedDemoDyno } from "./demo-dyno";
 import { seedDemoBenchTime } from "./demo-bench-time";
@@ -212,5 +213,6 @@ export async function seedDemoShop(db: Kysely<Database>): Promise<{ shopId: stri
   await seedDemoBenchTime(db, shopId);
   await seedDemoCalendar(db, shopId);
   await seedDemoStock(db, shopId);
+  await seedDemoCustomerContact(db, shopId);
   return { shopId };
 }

@@ -1,4 +1,5 @@
 import "server-only";
+import { randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
 import type { Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
@@ -41,7 +42,9 @@ export async function createShopUser(db: Kysely<Database>, shopId: string, input
       name: input.name,
       email: input.email,
       role: input.role,
-      password_hash: await bcrypt.hash(input.password, 10),
+      // no password given (a customer invited by e-mail): a hash of random bytes nobody knows, until
+      // they set their own from the invitation link
+      password_hash: await bcrypt.hash(input.password ?? randomBytes(32).toString("base64url"), 10),
       customer_id: input.customerId,
     })
     .returning("id")

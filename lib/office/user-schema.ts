@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { newPassword } from "@/lib/auth/password-rule";
 import { ROLES } from "@/lib/auth/roles";
 
 // A sign-in for someone in the shop. A customer's sign-in is tied to their customer record, so they
@@ -8,10 +9,16 @@ export const newUserSchema = z
     name: z.string().trim().min(2, "give the person's name").max(120),
     email: z.string().trim().toLowerCase().email("enter an e-mail address they can sign in with"),
     role: z.enum(ROLES, { error: "choose a role" }),
-    password: z.string().min(10, "at least 10 characters").max(200, "at most 200 characters"),
+    // A customer's sign-in may be made without one: they get an invitation e-mail to set their own.
+    password: z
+      .string({ error: "enter a password" })
+      .optional()
+      .transform((v) => v || null),
     customerId: z.union([z.uuid("choose the customer"), z.literal(""), z.null()]).transform((v) => v || null),
   })
   .superRefine((u, ctx) => {
+    const password = u.password === null && u.role === "customer" ? null : newPassword.safeParse(u.password ?? "");
+    if (password && !password.success) ctx.addIssue({ code: "custom", path: ["password"], message: password.error.issues[0].message });
     if (u.role === "customer" && !u.customerId)
       ctx.addIssue({ code: "custom", path: ["customerId"], message: "a customer sign-in needs the customer it belongs to" });
     if (u.role !== "customer" && u.customerId)

@@ -16,6 +16,10 @@ test("the office gives a customer a sign-in; the customer sees only their bikes;
   await office.getByLabel("Role").selectOption("customer");
   await office.getByRole("button", { name: "Make the sign-in" }).click();
   await expect(office.getByTestId("error-customerId")).toContainText("needs the customer");
+  // a customer's sign-in may be made without a password (an invitation e-mail goes instead); a short one is refused
+  await expect(office.getByTestId("error-password")).toHaveCount(0);
+  await office.getByLabel("First password").fill("short");
+  await office.getByRole("button", { name: "Make the sign-in" }).click();
   await expect(office.getByTestId("error-password")).toContainText("at least 10 characters");
 
   await office.getByLabel("Name").fill("Sam Okafor");

@@ -10,6 +10,9 @@ import { listOpenSessions } from "@/db/auth/sessions";
 import { ActiveToggle } from "./_components/active-toggle";
 import { HandedOver, OpenSessions, SignInWaits } from "./_components/session-sections";
 import { UserForm } from "./_components/user-form";
+import { PostButton } from "./_components/post-button";
+import { latestInvitations } from "@/db/customer-contact/invitations";
+import { formatDayTime } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "Sign-ins" };
 
@@ -17,12 +20,13 @@ const ROLE_LABELS = { mechanic: "Mechanic", supervisor: "Supervisor", office: "O
 
 export default async function UsersPage() {
   const user = await requirePageArea("users");
-  const [users, customers, sessions, handovers, waits] = await Promise.all([
+  const [users, customers, sessions, handovers, waits, invitations] = await Promise.all([
     listShopUsers(db(), user.shopId),
     listCustomers(db(), user.shopId),
     listOpenSessions(db(), user.shopId),
     listOutboxHandovers(db(), user.shopId),
     signInWaitRows(db(), user.shopId),
+    latestInvitations(db(), user.shopId),
   ]);
   return (
     <AppFrame user={user} current="/office/users">
@@ -49,8 +53,23 @@ export default async function UsersPage() {
                 {ROLE_LABELS[u.role]}
                 {u.customerName ? ` (${u.customerName})` : ""}
               </td>
-              <td className="py-2 pr-4 font-bold">{u.active ? "Active" : "Turned off"}</td>
-              <td className="py-2 pr-4">{u.id !== user.id && <ActiveToggle userId={u.id} active={u.active} name={u.name} />}</td>
+              <td className="py-2 pr-4">
+                <span className="font-bold">{u.active ? "Active" : "Turned off"}</span>
+                {u.role === "customer" && <InvitationState invitation={invitations.get(u.id)} />}
+              </td>
+              <td className="py-2 pr-4">
+                <div className="flex flex-wrap gap-4">
+                  {u.id !== user.id && <ActiveToggle userId={u.id} active={u.active} name={u.name} />}
+                  {u.role === "customer" && u.active && (
+                    <PostButton
+                      url={`/api/office/users/${u.id}/invitation`}
+                      body={undefined}
+                      label={invitations.has(u.id) ? "Send a new invitation" : "Send an invitation"}
+                      ariaLabel={`Send ${u.name} an invitation`}
+                    />
+                  )}
+                </div>
+              </td>
             </tr>
           ))}
         </tbody>
@@ -65,5 +84,23 @@ export default async function UsersPage() {
         </div>
       </section>
     </AppFrame>
+  );
+}
+
+/** Where a customer's newest invitation stands, in words (and a mark, not colour alone). */
+function InvitationState({ invitation }: { invitation: ReturnType<Awaited<ReturnType<typeof latestInvitations>>["get"]> }) {
+  const line = !invitation
+    ? "No invitation sent"
+    : invitation.usedAt
+      ? `✔ Password set ${formatDayTime(invitation.usedAt)}`
+      : !invitation.expiresAt
+        ? `◷ Invitation of ${formatDayTime(invitation.invitedAt)} waiting to be e-mailed`
+        : invitation.expiresAt.getTime() <= Date.now()
+          ? `✖ Invitation expired ${formatDayTime(invitation.expiresAt)}`
+          : `◷ Invited; the link works until ${formatDayTime(invitation.expiresAt)}`;
+  return (
+    <span className="block text-base" data-testid="invitation-state">
+      {line}
+    </span>
   );
 }

@@ -44,6 +44,13 @@ const PUBLIC: Record<string, { check: string; mustContain: Array<{ file: string;
       },
     ],
   },
+  "app/api/welcome/route.ts": {
+    check: "invitation-link",
+    mustContain: [
+      { file: "app/api/welcome/route.ts", text: "setPasswordFromLink(db, { token: body.token" },
+      { file: "db/customer-contact/invitations.ts", text: '.where("l.token_sha256", "=", hashOf(token))' },
+    ],
+  },
   "app/api/payments/webhook/route.ts": {
     check: "payment-signature",
     mustContain: [{ file: "app/_server/payment-webhook.ts", text: "verifyPaymentWebhook(rawBody, signature" }],

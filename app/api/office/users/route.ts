@@ -1,4 +1,5 @@
 import { created, json, route } from "@/app/_server/route";
+import { sendInvitation } from "@/app/_server/send-invitation";
 import { appendAudit } from "@/db/audit/append";
 import { createShopUser, listShopUsers } from "@/db/shop/users";
 import { newUserSchema } from "@/lib/office/user-schema";
@@ -18,5 +19,7 @@ export const POST = route({ access: { area: "users" }, body: json(newUserSchema)
       detail: { role: body.role },
     },
   ]);
-  return created(made);
+  // a customer's sign-in made without a password: they choose their own from an invitation e-mail
+  const invitation = body.role === "customer" && !body.password ? await sendInvitation(db, user, made.id) : null;
+  return created({ ...made, invitation });
 });

@@ -24,7 +24,9 @@ export function UserForm({ customers }: { customers: Array<{ id: string; name: s
       await api("POST", "/api/office/users", values);
       form.reset();
       router.refresh();
-      return `Sign-in made for ${user.email}.`;
+      return user.role === "customer" && !user.password
+        ? `Sign-in made for ${user.email}; the invitation e-mail is on its way.`
+        : `Sign-in made for ${user.email}.`;
     });
   }
 
@@ -64,7 +66,16 @@ export function UserForm({ customers }: { customers: Array<{ id: string; name: s
             </select>
           </Field>
         )}
-        <Field label="First password" name="password" error={errors.password} hint="At least 10 characters; tell it to them in person.">
+        <Field
+          label="First password"
+          name="password"
+          error={errors.password}
+          hint={
+            role === "customer"
+              ? "Leave it empty to e-mail them a link to choose their own (it works once, for 72 hours)."
+              : "At least 10 characters; tell it to them in person."
+          }
+        >
           <input {...f("password")} type="password" className={inputClass} autoComplete="new-password" />
         </Field>
       </div>

@@ -12,6 +12,9 @@ import { shopSettings } from "@/db/shop/settings";
 import { workOrderInShop } from "@/db/shop/work-orders";
 import { isUuid } from "@/lib/ids";
 import { PromisePanel } from "./_components/promise-panel";
+import { CustomerContactPanel } from "./_components/customer-contact-panel";
+import { threadOf } from "@/db/customer-contact/messages";
+import { progressUpdatesOf, shareablePhotos } from "@/db/customer-contact/progress-updates";
 import { WorkOrderView } from "./_components/work-order-view";
 
 export const metadata: Metadata = { title: "Work order" };
@@ -28,9 +31,12 @@ export default async function WorkOrderPage({
   if (!isUuid(id) || !(await workOrderInShop(db(), user.shopId, id))) notFound();
   const shop = await shopSettings(db(), user.shopId);
   const { warning } = await searchParams;
-  const [{ closed, promised }, bookings] = await Promise.all([
+  const [{ closed, promised }, bookings, messages, updates, photos] = await Promise.all([
     promiseOfWorkOrder(db(), user.shopId, id),
     listWorkOrderBookings(db(), user.shopId, id),
+    threadOf(db(), user.shopId, id),
+    progressUpdatesOf(db(), user.shopId, [id]),
+    shareablePhotos(db(), user.shopId, id),
   ]);
   return (
     <AppFrame user={user} current="/office">
@@ -45,6 +51,7 @@ export default async function WorkOrderPage({
         }))}
       />
       <WorkOrderView id={id} currency={shop.currency} taxRateBp={shop.taxRateBp} warning={warning?.slice(0, 300)} />
+      <CustomerContactPanel workOrderId={id} messages={messages} updates={updates} photos={photos} />
     </AppFrame>
   );
 }
