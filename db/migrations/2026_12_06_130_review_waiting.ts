@@ -4,7 +4,7 @@ import { sql, type Kysely } from "kysely";
 // out-of-tolerance filter cost what waits, not a year of history.
 // - review_waiting: one row per stage whose newest sign-off (not withdrawn) has no decision yet,
 //   or was approved while a current reading of the stage is out of tolerance and nobody has let it
-//   stand. It is derived, not a record: the rows of a job are worked out again from the record
+//   stand; with how many such readings the stage has (out_of_tolerance). It is derived, not a record: the rows of a job are worked out again from the record
 //   (sign_offs, withdrawals, review_decisions, measurements, reading_acceptances) by the triggers
 //   below, at the end of every statement that adds to those tables, inside the writer's own
 //   transaction. Every writer of them holds the shop's sync lock (benchtag_lock_shop_sync), so two
@@ -21,6 +21,7 @@ export async function up(db: Kysely<unknown>): Promise<void> {
       shop_id uuid NOT NULL REFERENCES shops(id),
       work_order_id uuid NOT NULL REFERENCES work_orders(id),
       sign_off_id uuid NOT NULL REFERENCES sign_offs(id),
+      out_of_tolerance integer NOT NULL,
       PRIMARY KEY (job_procedure_id, stage_key)
     );
     CREATE INDEX review_waiting_shop_idx ON review_waiting (shop_id);
@@ -31,8 +32,8 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     CREATE FUNCTION benchtag_review_waiting_refresh(jobs uuid[]) RETURNS void LANGUAGE plpgsql AS $$
     BEGIN
       DELETE FROM review_waiting WHERE work_order_id = ANY(jobs);
-      INSERT INTO review_waiting (job_procedure_id, stage_key, shop_id, work_order_id, sign_off_id)
-      SELECT l.job_procedure_id, l.stage_key, w.shop_id, l.work_order_id, l.id
+      INSERT INTO review_waiting (job_procedure_id, stage_key, shop_id, work_order_id, sign_off_id, out_of_tolerance)
+      SELECT l.job_procedure_id, l.stage_key, w.shop_id, l.work_order_id, l.id, oot.n
       FROM (
         SELECT DISTINCT ON (s.job_procedure_id, s.stage_key) s.id, s.work_order_id, s.job_procedure_id, s.stage_key
         FROM sign_offs s
@@ -46,12 +47,13 @@ export async function up(db: Kysely<unknown>): Promise<void> {
       LEFT JOIN LATERAL (
         SELECT d.decision FROM review_decisions d WHERE d.sign_off_id = l.id ORDER BY d.change_seq DESC LIMIT 1
       ) standing ON true
-      WHERE standing.decision IS NULL
-        OR (standing.decision = 'approved' AND EXISTS (
-          SELECT 1 FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
-          WHERE cm.work_order_id = l.work_order_id AND ts.template_version_id = jp.template_version_id
-            AND ts.stage_key = l.stage_key AND cm.verdict <> 'in'
-            AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id)));
+      CROSS JOIN LATERAL (
+        SELECT count(*)::int AS n FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
+        WHERE cm.work_order_id = l.work_order_id AND ts.template_version_id = jp.template_version_id
+          AND ts.stage_key = l.stage_key AND cm.verdict <> 'in'
+          AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id)
+      ) oot
+      WHERE standing.decision IS NULL OR (standing.decision = 'approved' AND oot.n > 0);
     END $$;
 
     -- After a statement adds rows that can change what waits: the jobs they belong to.

@@ -59,7 +59,7 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
   const signOff = sql`s.id, s.work_order_id, s.job_procedure_id, s.stage_key, s.signed_by, s.device_time, s.received_at, o.seq, o.flag_reason`;
   if (source === "history")
     return sql`
-      SELECT DISTINCT ON (s.job_procedure_id, s.stage_key) ${signOff}
+      SELECT DISTINCT ON (s.job_procedure_id, s.stage_key) ${signOff}, NULL::int AS known_out_of_tolerance
       FROM sign_offs s
       JOIN operations o ON o.id = s.id
       JOIN work_orders w ON w.id = s.work_order_id
@@ -71,11 +71,11 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
     .map((k) => [k.slice(0, k.indexOf("|")), k.slice(k.indexOf("|") + 1)])
     .filter(([jobProcedureId]) => UUID.test(jobProcedureId));
   return sql`
-    SELECT ${signOff}
+    SELECT ${signOff}, c.out_of_tolerance AS known_out_of_tolerance
     FROM (
-      SELECT rw.sign_off_id AS id FROM review_waiting rw WHERE rw.shop_id = ${shopId}::uuid
-      UNION
-      SELECT newest.id
+      SELECT rw.sign_off_id AS id, rw.out_of_tolerance FROM review_waiting rw WHERE rw.shop_id = ${shopId}::uuid
+      UNION ALL
+      SELECT newest.id, NULL::int
       FROM unnest(${flagged.map((f) => f[0])}::uuid[], ${flagged.map((f) => f[1])}::text[]) AS f(job_procedure_id, stage_key)
       CROSS JOIN LATERAL (
         SELECT s.id FROM sign_offs s JOIN operations o ON o.id = s.id
@@ -83,6 +83,7 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
           AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = s.id)
         ORDER BY o.seq DESC LIMIT 1
       ) newest
+      WHERE NOT EXISTS (SELECT 1 FROM review_waiting rw WHERE rw.job_procedure_id = f.job_procedure_id AND rw.stage_key = f.stage_key)
     ) c
     JOIN sign_offs s ON s.id = c.id
     JOIN operations o ON o.id = s.id
@@ -96,10 +97,11 @@ function waiting(shopId: string, openFlagStages: readonly string[], source: Queu
     p AS (
       SELECT l.*, w.number, w.title AS job_title, b.make, b.model, b.tag_code, u.name AS mechanic_name,
         st.stage_title, v.name AS procedure_name,
-        (SELECT count(*) FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
+        -- kept in review_waiting; worked out here for the other candidates
+        COALESCE(l.known_out_of_tolerance, (SELECT count(*) FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
            WHERE cm.work_order_id = l.work_order_id AND ts.template_version_id = jp.template_version_id
              AND ts.stage_key = l.stage_key AND cm.verdict <> 'in'
-             AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id))::int AS out_of_tolerance,
+             AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id)))::int AS out_of_tolerance,
         EXISTS (SELECT 1 FROM review_decisions d JOIN sign_offs e ON e.id = d.sign_off_id
            WHERE e.job_procedure_id = l.job_procedure_id AND e.stage_key = l.stage_key AND d.decision = 'sent_back') AS resubmitted,
         (SELECT d.decision FROM review_decisions d WHERE d.sign_off_id = l.id ORDER BY d.change_seq DESC LIMIT 1) AS standing,

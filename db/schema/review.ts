@@ -59,6 +59,8 @@ interface ReviewWaitingTable {
   shop_id: string;
   work_order_id: string;
   sign_off_id: string;
+  /** Current readings of the stage out of tolerance that nobody has let stand. */
+  out_of_tolerance: number;
 }
 
 export interface ReviewTables {

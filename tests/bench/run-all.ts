@@ -2,6 +2,7 @@
 // passes or fails on a number.
 import { print as printAuditLog, run as auditLog } from "./audit-log";
 import { print as printPrecache, run as precache } from "./bench-precache";
+import { print as printReviewYear, run as reviewYear } from "./review-year";
 import { run as calcBuildSheet } from "./calc-build-sheet";
 import { print as printSyncMerge, run as syncMerge } from "./sync-merge";
 
@@ -11,6 +12,8 @@ console.log("\n== sync merge into PostgreSQL");
 printSyncMerge(await syncMerge());
 console.log("\n== audit log: page and CSV on a large log vs the demo's");
 printAuditLog(await auditLog());
+console.log("\n== review queue, its count, the out-of-tolerance filter and the audit log on a year of work vs a demo-sized shop");
+printReviewYear(await reviewYear());
 console.log("\n== the bench's service worker precache and first load (from the last build)");
 printPrecache(precache());
 process.exit(0);
