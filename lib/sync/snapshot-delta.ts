@@ -10,8 +10,8 @@
  * the record's, else a delta:
  *  - a section whose digest differs is sent whole, except the lists that only grow and whose entries
  *    do not change once recorded (completions, readings, torque, sign-offs, withdrawals, decisions):
- *    of those only the entries recorded after `since` come, each with its place in the list, and a
- *    reading's whole spot when one of its readings is new (which one is current may have changed);
+ *    of those only the entries recorded after `since` come, each with its place in the list, and the
+ *    reading that was current on a spot where a new one came (it may no longer be);
  *    the latest decision on a sign-off replaces the one held;
  *  - the record's digest and cursor.
  * The tablet applies it to its copy, checks that the result has the record's digest, and only then
@@ -105,12 +105,33 @@ export interface ChangedSince {
   operationIds: ReadonlySet<string>;
 }
 
-function changed(list: RowList, row: Record<string, unknown>, c: ChangedSince, newSpots: ReadonlySet<string>): boolean {
+type Reading = State["readings"][number];
+
+/**
+ * The readings that were current at `since` on the spots where a new reading came (the record's
+ * rule, as the current_measurements view has it: among the readings no other supersedes, the latest
+ * stamp, compared byte-wise, then the highest id): their `current` may have changed.
+ */
+function formerlyCurrent(readings: readonly Reading[], isNew: (id: string) => boolean): Set<string> {
+  const spot = (r: Reading) => `${r.specId}|${r.readingIndex}`;
+  const touched = new Set(readings.filter((r) => isNew(r.id)).map(spot));
+  const older = readings.filter((r) => touched.has(spot(r)) && !isNew(r.id));
+  const superseded = new Set(older.map((r) => r.supersedesId).filter((x): x is string => x !== null));
+  const best = new Map<string, Reading>();
+  for (const r of older) {
+    if (superseded.has(r.id)) continue;
+    const b = best.get(spot(r));
+    if (!b || r.stamp > b.stamp || (r.stamp === b.stamp && r.id > b.id)) best.set(spot(r), r);
+  }
+  return new Set([...best.values()].map((r) => r.id));
+}
+
+function changed(list: RowList, row: Record<string, unknown>, c: ChangedSince, wasCurrent: ReadonlySet<string>): boolean {
   switch (list) {
     case "reviewDecisions":
       return BigInt(String(row.seq)) > c.since;
     case "readings":
-      return c.operationIds.has(String(row.id)) || newSpots.has(`${row.specId}|${row.readingIndex}`);
+      return c.operationIds.has(String(row.id)) || wasCurrent.has(String(row.id));
     default:
       return c.operationIds.has(String(row.id));
   }
@@ -120,7 +141,7 @@ function changed(list: RowList, row: Record<string, unknown>, c: ChangedSince, n
 export async function buildSnapshotDelta(fresh: JobSnapshot, freshDigests: readonly string[], have: readonly string[], c: ChangedSince) {
   const replace: Partial<Record<SnapshotSection, unknown>> = {};
   const rows: Partial<Record<RowList, { at: number; row: Record<string, unknown> }[]>> = {};
-  const newSpots = new Set(fresh.state.readings.filter((r) => c.operationIds.has(r.id)).map((r) => `${r.specId}|${r.readingIndex}`));
+  const wasCurrent = formerlyCurrent(fresh.state.readings, (id) => c.operationIds.has(id));
   SNAPSHOT_SECTIONS.forEach((k, i) => {
     if (freshDigests[i] === have[i]) return;
     if (!isRowList(k)) {
@@ -128,7 +149,7 @@ export async function buildSnapshotDelta(fresh: JobSnapshot, freshDigests: reado
       return;
     }
     const list = (fresh.state[k] ?? []) as unknown as Record<string, unknown>[];
-    rows[k] = list.flatMap((row, at) => (changed(k, row, c, newSpots) ? [{ at, row }] : []));
+    rows[k] = list.flatMap((row, at) => (changed(k, row, c, wasCurrent) ? [{ at, row }] : []));
   });
   return { since: String(c.since), cursor: fresh.cursor, digest: await snapshotDigest(freshDigests), replace, rows };
 }
