@@ -11,12 +11,11 @@
 import os from "node:os";
 import { pathToFileURL } from "node:url";
 import { sql, type Kysely } from "kysely";
-import { auditCsvResponse } from "@/app/_server/audit-csv-response";
 import { pageAuditLog } from "@/db/audit/read";
 import { countReviewQueue, pageReviewQueue, type QueueSource } from "@/db/review/queue";
 import type { Database } from "@/db/schema";
-import { auditExportSchema } from "@/lib/review/audit-range";
 import { auditQuerySchema, queueQuerySchema } from "@/lib/review/list-queries";
+import { timedCsv } from "./audit-log";
 import { withThrowawayDb } from "./throwaway-db";
 import { generateShop, YEAR, type GeneratedShop } from "./year-of-work";
 
@@ -52,16 +51,7 @@ async function measure(db: Kysely<Database>, g: GeneratedShop): Promise<Figures>
     count: await timed(() => countReviewQueue(db, shopId, source)),
     outOfTolerance: await timed(() => pageReviewQueue(db, shopId, queueQuerySchema.parse({ outOfTolerance: "yes" }), source)),
   });
-  const t0 = performance.now();
-  const res = auditCsvResponse(db, shopId, auditExportSchema().parse({}));
-  let bytes = 0;
-  let lines = 0;
-  const reader = res.body!.getReader();
-  for (let r = await reader.read(); !r.done; r = await reader.read()) {
-    bytes += r.value.byteLength;
-    for (const b of r.value) if (b === 10) lines++;
-  }
-  const csvMs = performance.now() - t0;
+  const csv = await timedCsv(db, shopId);
   const audit = await db
     .selectFrom("audit_log")
     .select((eb) => eb.fn.countAll<string>().as("n"))
@@ -78,7 +68,7 @@ async function measure(db: Kysely<Database>, g: GeneratedShop): Promise<Figures>
     },
     queue: { waiting: await queue("waiting"), history: await queue("history") },
     auditPage: await timed(() => pageAuditLog(db, shopId, auditQuerySchema.parse({ size: "25" }))),
-    csv: { ms: csvMs, bytes, rows: lines - 1 },
+    csv,
   };
 }
 
