@@ -15,11 +15,10 @@ export type JobCopy =
   | { kind: "delta"; delta: SnapshotDelta; digest: string }
   | { kind: "full"; snapshot: JobSnapshot; digest: string };
 
-/** What the tablet holds: the cursor of its copy, its sections' digests, and its ETag (If-None-Match). */
+/** What the tablet holds: the cursor of its copy and its sections' digests. */
 export interface HeldCopy {
   since?: string;
   have?: string[];
-  etag?: string | null;
 }
 
 export async function jobCopyFor(
@@ -37,7 +36,7 @@ export async function jobCopyFor(
       const digests = await sectionDigests(snapshot);
       const digest = await snapshotDigest(digests);
       const heldDigest = held.have ? await snapshotDigest(held.have) : null;
-      if (held.etag === `"${digest}"` || heldDigest === digest) return { kind: "unchanged", cursor: snapshot.cursor, digest };
+      if (heldDigest === digest) return { kind: "unchanged", cursor: snapshot.cursor, digest };
       if (held.since === undefined || !held.have || BigInt(held.since) > BigInt(snapshot.cursor)) return { kind: "full", snapshot, digest };
       const since = BigInt(held.since);
       const ops = await sql<{ id: string }>`

@@ -24,9 +24,14 @@ import { splitIntoBatches } from "@/lib/sync/batching";
 import { tabletSyncResponseSchema } from "@/lib/sync/changes";
 import { discardResponseSchema } from "@/lib/sync/discards";
 import type { Operation } from "@/lib/sync/operations";
-import { cursorSchema } from "@/lib/sync/operations";
 import { benchJobListSchema, jobSnapshotSchema, type JobSnapshot } from "@/lib/sync/snapshot";
-import { applySnapshotDelta, sectionDigests, snapshotDeltaSchema, snapshotDigest } from "@/lib/sync/snapshot-delta";
+import {
+  applySnapshotDelta,
+  sectionDigests,
+  snapshotDeltaSchema,
+  snapshotDigest,
+  snapshotUnchangedSchema,
+} from "@/lib/sync/snapshot-delta";
 import { readSyncMeta, type BenchDb } from "./bench-db";
 import {
   discardsToSend,
@@ -87,7 +92,7 @@ async function fetchJobSnapshot(fetchFn: typeof fetch, id: string): Promise<JobS
 
 /**
  * A job's copy, fetching only what changed when the tablet holds one (lib/sync/snapshot-delta.ts):
- * the held copy as it is (304: nothing in the job changed), the held copy with the delta applied
+ * the held copy as it is (nothing in the job changed), the held copy with the delta applied
  * once it has the record's digest, or else the whole copy.
  */
 async function fetchJobCopy(db: BenchDb, fetchFn: typeof fetch, id: string): Promise<JobSnapshot> {
@@ -95,20 +100,13 @@ async function fetchJobCopy(db: BenchDb, fetchFn: typeof fetch, id: string): Pro
   if (!held || typeof crypto === "undefined" || !crypto.subtle) return fetchJobSnapshot(fetchFn, id);
   const have = await sectionDigests(held);
   const res = await fetchFn(`/api/bench/jobs/${id}`, {
-    headers: {
-      accept: "application/json",
-      "if-none-match": `"${await snapshotDigest(have)}"`,
-      "x-bench-since": held.cursor,
-      "x-bench-have": have.join("."),
-    },
+    headers: { accept: "application/json", "x-bench-since": held.cursor, "x-bench-have": have.join(".") },
     cache: "no-store",
   });
-  if (res.status === 304) {
-    const cursor = cursorSchema.safeParse(res.headers.get("x-bench-cursor"));
-    return cursor.success ? { ...held, cursor: cursor.data } : fetchJobSnapshot(fetchFn, id);
-  }
   if (!res.ok) throw new SyncHttpError(res.status, await errorText(res));
   const body: unknown = await res.json();
+  const unchanged = snapshotUnchangedSchema.safeParse(body);
+  if (unchanged.success) return { ...held, cursor: unchanged.data.cursor };
   const delta = snapshotDeltaSchema.safeParse(body);
   if (!delta.success) return jobSnapshotSchema.parse(body);
   const next = jobSnapshotSchema.safeParse(applySnapshotDelta(held, delta.data.delta));

@@ -6,8 +6,8 @@
  * of recorded work). Each section has a digest: SHA-256 of its JSON with keys in sorted order
  * (fast-json-stable-stringify), 16 hex digits; the copy's digest is the digest of its sections'
  * digests, and is the snapshot's ETag. The tablet sends the cursor its copy is current to (`since`)
- * and its sections' digests (`have`); the server answers 304 when the copy's digest is the same as
- * the record's, else a delta:
+ * and its sections' digests (`have`); the server answers `{ cursor, unchanged: true }` when the
+ * copy's digest is the same as the record's, else `{ cursor, delta }`:
  *  - a section whose digest differs is sent whole, except the lists that only grow and whose entries
  *    do not change once recorded (completions, readings, torque, sign-offs, withdrawals, decisions):
  *    of those only the entries recorded after `since` come, each with its place in the list, and the
@@ -84,6 +84,9 @@ export function sectionDigests(s: JobSnapshot): Promise<string[]> {
 export const snapshotDigest = (sections: readonly string[]) => sha(sections.join("."));
 
 const rowsSchema = z.array(z.object({ at: z.number().int().min(0), row: z.record(z.string(), z.unknown()) }));
+
+/** The answer when nothing in the job changed since the tablet's copy: it is current to `cursor`. */
+export const snapshotUnchangedSchema = z.object({ cursor: cursorSchema, unchanged: z.literal(true) });
 
 /** The answer when something changed and the tablet sent `since` and `have`. */
 export const snapshotDeltaSchema = z.object({
