@@ -45,26 +45,63 @@ const SORT_SQL: Record<QueueQuery["sort"], string> = {
   outOfTolerance: "q.out_of_tolerance",
 };
 
-function waiting(shopId: string, openFlagStages: readonly string[]) {
-  return sql`
-    WITH latest AS (
-      SELECT DISTINCT ON (s.job_procedure_id, s.stage_key) s.id, s.work_order_id, s.job_procedure_id, s.stage_key, s.signed_by,
-        s.device_time, s.received_at, o.seq, o.flag_reason
+/** Where the queue's candidates come from: the small table of what waits, or (the reference it must agree with) the whole history. */
+export type QueueSource = "waiting" | "history";
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/**
+ * The newest sign-off (not withdrawn) of each candidate stage. From review_waiting (kept by
+ * triggers; migration 2026_12_06_130) plus the stages with open flagged entries, so the cost follows
+ * what waits; or, as the reference, from every sign-off of the shop.
+ */
+function latest(shopId: string, openFlagStages: readonly string[], source: QueueSource) {
+  const signOff = sql`s.id, s.work_order_id, s.job_procedure_id, s.stage_key, s.signed_by, s.device_time, s.received_at, o.seq, o.flag_reason`;
+  if (source === "history")
+    return sql`
+      SELECT DISTINCT ON (s.job_procedure_id, s.stage_key) ${signOff}, NULL::int AS known_out_of_tolerance
       FROM sign_offs s
       JOIN operations o ON o.id = s.id
       JOIN work_orders w ON w.id = s.work_order_id
       WHERE w.shop_id = ${shopId}::uuid
         -- a withdrawn sign-off waits for nobody: the stage waits for a new one
         AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = s.id)
-      ORDER BY s.job_procedure_id, s.stage_key, o.seq DESC
-    ),
+      ORDER BY s.job_procedure_id, s.stage_key, o.seq DESC`;
+  const flagged = openFlagStages
+    .map((k) => [k.slice(0, k.indexOf("|")), k.slice(k.indexOf("|") + 1)])
+    .filter(([jobProcedureId]) => UUID.test(jobProcedureId));
+  return sql`
+    SELECT ${signOff}, c.out_of_tolerance AS known_out_of_tolerance
+    FROM (
+      SELECT rw.sign_off_id AS id, rw.out_of_tolerance FROM review_waiting rw WHERE rw.shop_id = ${shopId}::uuid
+      UNION ALL
+      SELECT newest.id, NULL::int
+      FROM unnest(${flagged.map((f) => f[0])}::uuid[], ${flagged.map((f) => f[1])}::text[]) AS f(job_procedure_id, stage_key)
+      CROSS JOIN LATERAL (
+        SELECT s.id FROM sign_offs s JOIN operations o ON o.id = s.id
+        WHERE s.job_procedure_id = f.job_procedure_id AND s.stage_key = f.stage_key
+          AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = s.id)
+        ORDER BY o.seq DESC LIMIT 1
+      ) newest
+      WHERE NOT EXISTS (SELECT 1 FROM review_waiting rw WHERE rw.job_procedure_id = f.job_procedure_id AND rw.stage_key = f.stage_key)
+    ) c
+    JOIN sign_offs s ON s.id = c.id
+    JOIN operations o ON o.id = s.id
+    JOIN work_orders w ON w.id = s.work_order_id
+    WHERE w.shop_id = ${shopId}::uuid`;
+}
+
+function waiting(shopId: string, openFlagStages: readonly string[], source: QueueSource) {
+  return sql`
+    WITH latest AS (${latest(shopId, openFlagStages, source)}),
     p AS (
       SELECT l.*, w.number, w.title AS job_title, b.make, b.model, b.tag_code, u.name AS mechanic_name,
         st.stage_title, v.name AS procedure_name,
-        (SELECT count(*) FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
+        -- kept in review_waiting; worked out here for the other candidates
+        COALESCE(l.known_out_of_tolerance, (SELECT count(*) FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
            WHERE cm.work_order_id = l.work_order_id AND ts.template_version_id = jp.template_version_id
              AND ts.stage_key = l.stage_key AND cm.verdict <> 'in'
-             AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id))::int AS out_of_tolerance,
+             AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id)))::int AS out_of_tolerance,
         EXISTS (SELECT 1 FROM review_decisions d JOIN sign_offs e ON e.id = d.sign_off_id
            WHERE e.job_procedure_id = l.job_procedure_id AND e.stage_key = l.stage_key AND d.decision = 'sent_back') AS resubmitted,
         (SELECT d.decision FROM review_decisions d WHERE d.sign_off_id = l.id ORDER BY d.change_seq DESC LIMIT 1) AS standing,
@@ -105,9 +142,14 @@ function filters(o: Partial<QueueQuery>) {
 }
 
 /** One page of the queue, newest sign-off first unless another sort is asked for. */
-export async function pageReviewQueue(db: Kysely<Database>, shopId: string, o: QueueQuery): Promise<{ rows: QueueRow[]; total: number }> {
+export async function pageReviewQueue(
+  db: Kysely<Database>,
+  shopId: string,
+  o: QueueQuery,
+  source: QueueSource = "waiting",
+): Promise<{ rows: QueueRow[]; total: number }> {
   const order = sql.raw(`${SORT_SQL[o.sort]} ${o.dir === "asc" ? "ASC" : "DESC"} NULLS LAST, q.seq DESC`);
-  const w = waiting(shopId, await stagesWithOpenFlags(db, shopId));
+  const w = waiting(shopId, await stagesWithOpenFlags(db, shopId), source);
   const [count, rows] = await Promise.all([
     sql<{ n: number }>`${w} SELECT count(*)::int AS n FROM q WHERE ${filters(o)}`.execute(db),
     sql<{
@@ -161,10 +203,9 @@ export async function pageReviewQueue(db: Kysely<Database>, shopId: string, o: Q
 }
 
 /** How many sign-offs wait for review in the shop (the navigation shows it). */
-export async function countReviewQueue(db: Kysely<Database>, shopId: string): Promise<number> {
-  const r = await sql<{ n: number }>`${waiting(shopId, await stagesWithOpenFlags(db, shopId))} SELECT count(*)::int AS n FROM q`.execute(
-    db,
-  );
+export async function countReviewQueue(db: Kysely<Database>, shopId: string, source: QueueSource = "waiting"): Promise<number> {
+  const w = waiting(shopId, await stagesWithOpenFlags(db, shopId), source);
+  const r = await sql<{ n: number }>`${w} SELECT count(*)::int AS n FROM q`.execute(db);
   return r.rows[0]?.n ?? 0;
 }
 

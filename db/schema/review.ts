@@ -52,9 +52,21 @@ interface ReviewNoticesTable {
   done_at: Timestamp | null;
 }
 
+/** A stage waiting for review (derived, kept by triggers; migration 2026_12_06_130_review_waiting). */
+interface ReviewWaitingTable {
+  job_procedure_id: string;
+  stage_key: string;
+  shop_id: string;
+  work_order_id: string;
+  sign_off_id: string;
+  /** Current readings of the stage out of tolerance that nobody has let stand. */
+  out_of_tolerance: number;
+}
+
 export interface ReviewTables {
   review_decisions: ReviewDecisionsTable;
   reading_acceptances: ReadingAcceptancesTable;
   flag_acceptances: FlagAcceptancesTable;
   review_notices: ReviewNoticesTable;
+  review_waiting: ReviewWaitingTable;
 }

@@ -25,6 +25,13 @@ import { tabletSyncResponseSchema } from "@/lib/sync/changes";
 import { discardResponseSchema } from "@/lib/sync/discards";
 import type { Operation } from "@/lib/sync/operations";
 import { benchJobListSchema, jobSnapshotSchema, type JobSnapshot } from "@/lib/sync/snapshot";
+import {
+  applySnapshotDelta,
+  sectionDigests,
+  snapshotDeltaSchema,
+  snapshotDigest,
+  snapshotUnchangedSchema,
+} from "@/lib/sync/snapshot-delta";
 import { readSyncMeta, type BenchDb } from "./bench-db";
 import {
   discardsToSend,
@@ -83,9 +90,33 @@ async function fetchJobSnapshot(fetchFn: typeof fetch, id: string): Promise<JobS
   return getJson(fetchFn, `/api/bench/jobs/${id}`, (v) => jobSnapshotSchema.parse(v));
 }
 
-/** Fetches a job's copy and stores it unless a newer one is held. Returns the copy fetched. */
+/**
+ * A job's copy, fetching only what changed when the tablet holds one (lib/sync/snapshot-delta.ts):
+ * the held copy as it is (nothing in the job changed), the held copy with the delta applied
+ * once it has the record's digest, or else the whole copy.
+ */
+async function fetchJobCopy(db: BenchDb, fetchFn: typeof fetch, id: string): Promise<JobSnapshot> {
+  const held = (await db.jobs.get(id))?.snapshot;
+  if (!held || typeof crypto === "undefined" || !crypto.subtle) return fetchJobSnapshot(fetchFn, id);
+  const have = await sectionDigests(held);
+  const res = await fetchFn(`/api/bench/jobs/${id}`, {
+    headers: { accept: "application/json", "x-bench-since": held.cursor, "x-bench-have": have.join(".") },
+    cache: "no-store",
+  });
+  if (!res.ok) throw new SyncHttpError(res.status, await errorText(res));
+  const body: unknown = await res.json();
+  const unchanged = snapshotUnchangedSchema.safeParse(body);
+  if (unchanged.success) return { ...held, cursor: unchanged.data.cursor };
+  const delta = snapshotDeltaSchema.safeParse(body);
+  if (!delta.success) return jobSnapshotSchema.parse(body);
+  const next = jobSnapshotSchema.safeParse(applySnapshotDelta(held, delta.data.delta));
+  if (next.success && (await snapshotDigest(await sectionDigests(next.data))) === delta.data.delta.digest) return next.data;
+  return fetchJobSnapshot(fetchFn, id); // the delta did not give the record's copy: fetch it whole
+}
+
+/** Fetches a job's copy (only what changed, when one is held) and stores it unless a newer one is held. Returns the copy fetched. */
 export async function refreshJobCopy(db: BenchDb, id: string, fetchFn: typeof fetch = fetch): Promise<JobSnapshot> {
-  const snapshot = await fetchJobSnapshot(fetchFn, id);
+  const snapshot = await fetchJobCopy(db, fetchFn, id);
   await storeJobCopy(db, snapshot);
   return snapshot;
 }

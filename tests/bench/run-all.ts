@@ -2,8 +2,10 @@
 // passes or fails on a number.
 import { print as printAuditLog, run as auditLog } from "./audit-log";
 import { print as printPrecache, run as precache } from "./bench-precache";
+import { print as printReviewYear, run as reviewYear } from "./review-year";
 import { run as calcBuildSheet } from "./calc-build-sheet";
 import { print as printStockWeek, run as stockWeek } from "./stock-week";
+import { print as printSnapshotDelta, run as snapshotDelta } from "./snapshot-delta";
 import { print as printSyncMerge, run as syncMerge } from "./sync-merge";
 
 console.log("== lib/calc: a full build sheet");
@@ -14,6 +16,10 @@ console.log("\n== audit log: page and CSV on a large log vs the demo's");
 printAuditLog(await auditLog());
 console.log("\n== a busy year: the week plan and the stock's batch search vs a small shop");
 printStockWeek(await stockWeek());
+console.log("\n== review queue, its count, the out-of-tolerance filter and the audit log on a year of work vs a demo-sized shop");
+printReviewYear(await reviewYear());
+console.log("\n== a job's copy per sync: whole vs only what changed");
+printSnapshotDelta(await snapshotDelta());
 console.log("\n== the bench's service worker precache and first load (from the last build)");
 printPrecache(precache());
 process.exit(0);
