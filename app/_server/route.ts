@@ -103,9 +103,11 @@ export type Access = { area: Area } | { anyArea: readonly Area[] } | { signedIn:
  * - "next-auth": next-auth's own sign-in endpoints (CSRF token; the credentials check is rate-limited);
  * - "payment-signature": the payment service's webhook, checked by its signature (no browser, no Origin);
  * - "ended-session": a tablet whose session the office ended hands over its unsent work; the handler
- *   checks that the signed cookie names such a session (app/api/bench/outbox-handover).
+ *   checks that the signed cookie names such a session (app/api/bench/outbox-handover);
+ * - "answer-link": a customer's answers to extra work through the e-mailed one-time link, checked
+ *   by the link's token (db/office/supplements.ts answerByLink).
  */
-export type PublicCheck = "next-auth" | "payment-signature" | "ended-session";
+export type PublicCheck = "next-auth" | "payment-signature" | "ended-session" | "answer-link";
 
 export interface RouteContext<P, B, Q, U> {
   req: Request;

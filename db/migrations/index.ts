@@ -21,6 +21,7 @@ import * as m061 from "./2026_12_05_061_come_backs";
 import * as m062 from "./2026_12_05_062_service_reminders";
 import * as m063 from "./2026_12_05_063_calendar";
 import * as m091 from "./2026_12_05_091_bench_clocks";
+import * as m110 from "./2026_12_06_110_extra_work_and_bill";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -48,4 +49,5 @@ export const migrations: Record<string, Migration> = {
   "2026_12_05_062_service_reminders": m062,
   "2026_12_05_063_calendar": m063,
   "2026_12_05_091_bench_clocks": m091,
+  "2026_12_06_110_extra_work_and_bill": m110,
 };

@@ -5,6 +5,7 @@ import type { BenchTables } from "./bench";
 import type { CalendarTables } from "./calendar";
 import type { ClockTables } from "./clocks";
 import type { DynoTables } from "./dyno";
+import type { ExtraWorkTables } from "./extra-work";
 import type { MailTables } from "./mail";
 import type { OfficeTables } from "./office";
 import type { ReviewTables } from "./review";
@@ -30,6 +31,7 @@ export interface Database
     MailTables,
     AftercareTables,
     CalendarTables,
-    ClockTables {}
+    ClockTables,
+    ExtraWorkTables {}
 
 export type User = Selectable<UsersTable>;
