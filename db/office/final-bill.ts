@@ -263,6 +263,9 @@ export async function issuedBillOf(db: Db, shopId: string, workOrderId: string) 
         "il.line_total_minor as lineTotalMinor",
         "il.counted",
         "s.number as supplementNumber",
+        "il.quote_line_id as quoteLineId",
+        "il.supplement_line_id as supplementLineId",
+        "il.part_fitted_id as partFittedId",
       ])
       .where("il.invoice_id", "=", inv.id)
       .orderBy("il.position")
@@ -274,7 +277,15 @@ export async function issuedBillOf(db: Db, shopId: string, workOrderId: string) 
       .orderBy("created_at")
       .execute(),
   ]);
-  return { ...inv, lines, payments };
+  return {
+    ...inv,
+    lines: lines.map(({ quoteLineId, supplementLineId, partFittedId, ...l }) => ({
+      ...l,
+      /** The quote line, extra-work line or fitted part it was made from. */
+      lineId: (quoteLineId ?? supplementLineId ?? partFittedId)!,
+    })),
+    payments,
+  };
 }
 
 export type IssuedBill = NonNullable<Awaited<ReturnType<typeof issuedBillOf>>>;
