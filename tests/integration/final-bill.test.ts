@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { sql } from "kysely";
 import { beforeAll, describe, expect, it } from "vitest";
 import { issueBill, issuedBillOf } from "@/db/office/final-bill";
-import { answerAsCustomer, answerByLink, writeSupplement } from "@/db/office/supplements";
+import { answerAsCustomer, writeSupplement } from "@/db/office/supplements";
 import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { formatStamp } from "@/lib/sync/hlc";
