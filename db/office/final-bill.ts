@@ -7,6 +7,7 @@ import { billChoicesSchema, type BillChoicesInput } from "@/lib/office/extra-wor
 import { BillTooLarge, buildBill, type BillChoices, type BillInput, type BillSourceLine, type FittedPart } from "@/lib/money/final-bill";
 import { appendAudit } from "../audit/append";
 import { hoursOfJob } from "../bench/clocks";
+import { supplementsOf } from "./supplements";
 import type { Database } from "../schema";
 
 // The final bill: gathered from the approved quote, the answered extra work, the clocked hours and
@@ -289,3 +290,27 @@ export async function issuedBillOf(db: Db, shopId: string, workOrderId: string) 
 }
 
 export type IssuedBill = NonNullable<Awaited<ReturnType<typeof issuedBillOf>>>;
+
+/** What the office's extra-work and bill panels need: the job's state, its extra work, its photos, the bill's sources or the issued bill. */
+export async function billPageData(db: Kysely<Database>, shopId: string, workOrderId: string) {
+  const wo = await db
+    .selectFrom("work_orders")
+    .select("status")
+    .where("id", "=", workOrderId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
+  if (!wo) return null;
+  const [supplements, photos, source, issued] = await Promise.all([
+    supplementsOf(db, [workOrderId]),
+    db
+      .selectFrom("attachments")
+      .select(["id", "caption"])
+      .where("work_order_id", "=", workOrderId)
+      .where("shop_id", "=", shopId)
+      .orderBy("created_at")
+      .execute(),
+    billInputOf(db, shopId, workOrderId),
+    issuedBillOf(db, shopId, workOrderId),
+  ]);
+  return { status: wo.status, supplements, photos, source, issued };
+}

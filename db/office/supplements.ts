@@ -356,3 +356,28 @@ export async function supplementsOf(db: Db, workOrderIds: readonly string[]) {
 }
 
 export type SupplementView = Awaited<ReturnType<typeof supplementsOf>>[number];
+
+/** A photo shown with extra work on the customer's own bike (null: not theirs, or not shown with extra work). */
+export async function extraWorkPhotoForCustomer(
+  db: Kysely<Database>,
+  user: { shopId: string; customerId: string | null },
+  attachmentId: string,
+) {
+  return db
+    .selectFrom("supplement_photos as p")
+    .innerJoin("supplements as s", "s.id", "p.supplement_id")
+    .innerJoin("work_orders as w", "w.id", "s.work_order_id")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .innerJoin("attachments as a", "a.id", "p.attachment_id")
+    .select(["a.object_key as objectKey", "a.content_type as contentType"])
+    .where("p.attachment_id", "=", attachmentId)
+    .where("s.shop_id", "=", user.shopId)
+    .where("b.customer_id", "=", user.customerId ?? "00000000-0000-0000-0000-000000000000")
+    .executeTakeFirst();
+}
+
+/** The work order a supplement belongs to. */
+export async function supplementWorkOrder(db: Kysely<Database>, supplementId: string): Promise<string> {
+  return (await db.selectFrom("supplements").select("work_order_id").where("id", "=", supplementId).executeTakeFirstOrThrow())
+    .work_order_id;
+}
