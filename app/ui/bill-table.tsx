@@ -2,26 +2,11 @@ import { AnswerBadge } from "@/app/ui/answer-badge";
 import { MoneyTotals } from "@/app/ui/money-totals";
 import { qty } from "@/app/ui/supplement-lines";
 import { formatHundredthsAsHours } from "@/lib/clock/hours";
-import type { BillAnswer, LabourBasis } from "@/lib/money/final-bill";
+import type { BillLine } from "@/lib/money/final-bill";
 import { formatMinor } from "@/lib/money/quote-totals";
 
-/** A bill line as the office's draft and the issued bill both show it. */
-export interface ShownBillLine {
-  key: string;
-  source: "quote" | "supplement" | "fitted_part";
-  kind: "part" | "labour";
-  description: string;
-  partNumber: string | null;
-  answer: BillAnswer;
-  supplementNumber: number | null;
-  labourBasis: LabourBasis | null;
-  quotedHundredths: number;
-  clockedHundredths: number | null;
-  quantityHundredths: number;
-  unitPriceMinor: number;
-  lineTotalMinor: number;
-  counted: boolean;
-}
+/** A bill line as the office's draft and the issued bill both show it (keyed for React). */
+export type ShownBillLine = Omit<BillLine, "ref"> & { key: string };
 
 export interface ShownBillTotals {
   subtotalMinor: number;

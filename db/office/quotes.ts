@@ -123,6 +123,17 @@ export async function sendQuote(db: Kysely<Database>, shopId: string, userId: st
   });
 }
 
+/** A quote with the customer who owns its bike, locked for the customer's answer. */
+const lockQuoteWithOwner = (trx: Kysely<Database>, quoteId: string) =>
+  trx
+    .selectFrom("quotes as q")
+    .innerJoin("work_orders as w", "w.id", "q.work_order_id")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .select(["q.id", "q.status", "q.work_order_id as workOrderId", "b.customer_id as customerId", "q.shop_id as shopId"])
+    .where("q.id", "=", quoteId)
+    .forUpdate("q")
+    .executeTakeFirst();
+
 // The customer's approval from their own sign-in. Refused unless the quote is on a bike they own.
 export async function approveQuoteAsCustomer(
   db: Kysely<Database>,
@@ -130,14 +141,7 @@ export async function approveQuoteAsCustomer(
   quoteId: string,
 ) {
   return db.transaction().execute(async (trx) => {
-    const q = await trx
-      .selectFrom("quotes as q")
-      .innerJoin("work_orders as w", "w.id", "q.work_order_id")
-      .innerJoin("bikes as b", "b.id", "w.bike_id")
-      .select(["q.id", "q.status", "q.work_order_id as workOrderId", "b.customer_id as customerId", "q.shop_id as shopId"])
-      .where("q.id", "=", quoteId)
-      .forUpdate("q")
-      .executeTakeFirst();
+    const q = await lockQuoteWithOwner(trx, quoteId);
     if (!q || q.shopId !== user.shopId || !user.customerId || q.customerId !== user.customerId) {
       await appendAudit(db, [
         {
@@ -192,14 +196,7 @@ export async function declineQuoteAsCustomer(
   comment: string,
 ) {
   return db.transaction().execute(async (trx) => {
-    const q = await trx
-      .selectFrom("quotes as q")
-      .innerJoin("work_orders as w", "w.id", "q.work_order_id")
-      .innerJoin("bikes as b", "b.id", "w.bike_id")
-      .select(["q.id", "q.status", "q.work_order_id as workOrderId", "b.customer_id as customerId", "q.shop_id as shopId"])
-      .where("q.id", "=", quoteId)
-      .forUpdate("q")
-      .executeTakeFirst();
+    const q = await lockQuoteWithOwner(trx, quoteId);
     if (!q || q.shopId !== user.shopId || !user.customerId || q.customerId !== user.customerId)
       throw new Refusal("This quote is not yours to decline.", 403);
     if (q.status === "approved") throw new Refusal("You have already approved this quote; ask the workshop to change it.", 409);
