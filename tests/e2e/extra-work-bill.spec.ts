@@ -21,6 +21,7 @@ async function signInAsWren(page: Page) {
 }
 
 test("extra work round trip: written, one line declined and one approved, billed, balance paid", async ({ browser }) => {
+  test.setTimeout(240_000); // three people's pages, a payment and two e-mails
   const [{ id }] = await query<{ id: string }>("SELECT id FROM work_orders WHERE number = 1073");
   const office = await (await browser.newContext({ viewport: { width: 1024, height: 768 } })).newPage();
   await signIn(office, "office");
