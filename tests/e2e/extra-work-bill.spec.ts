@@ -35,13 +35,13 @@ test("extra work round trip: written, one line declined and one approved, billed
   const first = form.getByTestId("extra-work-line").nth(0);
   await first.getByLabel("Description").fill("Cam chain guide");
   await first.getByLabel("Part number").fill("GS-CCG");
-  await first.getByLabel("Quantity").fill("1");
+  await first.getByLabel("Quantity", { exact: true }).fill("1");
   await first.getByLabel("Unit price (GBP)").fill("42.50");
   await form.getByRole("button", { name: "Add a line" }).click();
   const second = form.getByTestId("extra-work-line").nth(1);
   await second.getByLabel("Kind").selectOption("labour");
   await second.getByLabel("Description").fill("Fit the cam chain guide");
-  await second.getByLabel("Hours").fill("1.5");
+  await second.getByLabel("Hours", { exact: true }).fill("1.5");
   await second.getByLabel("Unit price (GBP)").fill("68");
   // a price with three decimals is refused with the field named, and nothing is written
   await second.getByLabel("Unit price (GBP)").fill("68.001");
