@@ -15,7 +15,7 @@ export function AnswerBadge({ answer }: { answer: "approved" | "declined" | "no_
   if (answer === "added")
     return (
       <span className="font-bold whitespace-nowrap text-steel-900" data-testid="answer-badge">
-        ＋ Fitted, added by the workshop
+        + Fitted, added by the workshop
       </span>
     );
   return (

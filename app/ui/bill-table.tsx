@@ -51,10 +51,7 @@ export function BillTable({
         <thead>
           <tr className="border-b-2 border-steel-700 text-base">
             <th className="py-1 pr-2">Line</th>
-            <th className="py-1 pr-2">From</th>
-            <th className="py-1 pr-2 text-right">Quantity × price</th>
-            <th className="py-1 pr-2 text-right">Amount</th>
-            <th className="py-1 text-right">Answer</th>
+            <th className="py-1 text-right">Amount</th>
           </tr>
         </thead>
         <tbody>
@@ -62,20 +59,22 @@ export function BillTable({
             <tr key={l.key} className={`border-b border-steel-300 align-top ${l.counted ? "" : "text-steel-700"}`} data-testid="bill-line">
               <td className="py-2 pr-2">
                 <span className={l.counted ? "" : "line-through"}>{l.description}</span>
-                {l.partNumber && <span className="ml-2 font-mono text-base">{l.partNumber}</span>}
+                {l.partNumber && <span className="ml-2 font-mono text-base break-all">{l.partNumber}</span>}
+                <p className="text-base">
+                  {from(l)} · <AnswerBadge answer={l.answer} />
+                </p>
                 {choose ? choose(l) : <LabourFigures line={l} />}
               </td>
-              <td className="py-2 pr-2 text-base">{from(l)}</td>
-              <td className="py-2 pr-2 text-right whitespace-nowrap tabular-nums">
-                {l.counted
-                  ? `${qty(l.quantityHundredths)}${l.kind === "labour" ? " h" : ""} × ${formatMinor(l.unitPriceMinor, currency)}`
-                  : "—"}
-              </td>
-              <td className="py-2 pr-2 text-right whitespace-nowrap tabular-nums">
-                {l.counted ? formatMinor(l.lineTotalMinor, currency) : "not billed"}
-              </td>
               <td className="py-2 text-right">
-                <AnswerBadge answer={l.answer} />
+                <span className="font-bold whitespace-nowrap tabular-nums">
+                  {l.counted ? formatMinor(l.lineTotalMinor, currency) : "not billed"}
+                </span>
+                {l.counted && (
+                  <span className="block text-base whitespace-nowrap tabular-nums">
+                    {qty(l.quantityHundredths)}
+                    {l.kind === "labour" ? " h" : ""} × {formatMinor(l.unitPriceMinor, currency)}
+                  </span>
+                )}
               </td>
             </tr>
           ))}

@@ -16,17 +16,19 @@ export function SupplementLines({ supplement, currency }: { supplement: Wire<Sup
           <tr key={l.id} className="border-b border-steel-300 align-top" data-testid="supplement-line">
             <td className="py-2 pr-2">
               {l.description}
-              {l.partNumber && <span className="ml-2 font-mono text-base text-steel-700">{l.partNumber}</span>}
+              {l.partNumber && <span className="ml-2 font-mono text-base break-all text-steel-700">{l.partNumber}</span>}
+              <p className="text-base">
+                <AnswerBadge answer={l.answer?.decision ?? null} />
+                {l.answer && <span className="ml-2 text-sm text-steel-700">{formatDayTime(l.answer.at)}</span>}
+              </p>
               {l.answer?.comment && <p className="text-base italic">“{l.answer.comment}”</p>}
             </td>
-            <td className="py-2 pr-2 text-right whitespace-nowrap tabular-nums">
-              {qty(l.quantityHundredths)}
-              {l.kind === "labour" ? " h" : ""} × {formatMinor(Number(l.unitPriceMinor), currency)}
-            </td>
-            <td className="py-2 pr-2 text-right whitespace-nowrap tabular-nums">{formatMinor(Number(l.lineTotalMinor), currency)}</td>
             <td className="py-2 text-right">
-              <AnswerBadge answer={l.answer?.decision ?? null} />
-              {l.answer && <p className="text-sm text-steel-700">{formatDayTime(l.answer.at)}</p>}
+              <span className="font-bold whitespace-nowrap tabular-nums">{formatMinor(Number(l.lineTotalMinor), currency)}</span>
+              <span className="block text-base whitespace-nowrap tabular-nums">
+                {qty(l.quantityHundredths)}
+                {l.kind === "labour" ? " h" : ""} × {formatMinor(Number(l.unitPriceMinor), currency)}
+              </span>
             </td>
           </tr>
         ))}

@@ -74,6 +74,7 @@ test("extra work round trip: written, one line declined and one approved, billed
   await expect(answers).toContainText("“I have a new guide at home; fit mine please”");
   // the job's total: the approved quote (238.00 + 145.00) and the approved labour (102.00), tax 20 %
   await expect(card.getByTestId("agreed-total-figure")).toHaveText("£582.00");
+  await answers.screenshot({ path: test.info().outputPath("customer-answers-768.png") });
 
   // the e-mailed link, opened afterwards without signing in, shows the answers and asks nothing
   const anon = await (await browser.newContext()).newPage();
