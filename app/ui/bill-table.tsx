@@ -70,7 +70,7 @@ export function BillTable({
                   {l.counted ? formatMinor(l.lineTotalMinor, currency) : "not billed"}
                 </span>
                 {l.counted && (
-                  <span className="block text-base whitespace-nowrap tabular-nums">
+                  <span className="block text-base tabular-nums">
                     {qty(l.quantityHundredths)}
                     {l.kind === "labour" ? " h" : ""} × {formatMinor(l.unitPriceMinor, currency)}
                   </span>

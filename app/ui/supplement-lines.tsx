@@ -25,7 +25,7 @@ export function SupplementLines({ supplement, currency }: { supplement: Wire<Sup
             </td>
             <td className="py-2 text-right">
               <span className="font-bold whitespace-nowrap tabular-nums">{formatMinor(Number(l.lineTotalMinor), currency)}</span>
-              <span className="block text-base whitespace-nowrap tabular-nums">
+              <span className="block text-base tabular-nums">
                 {qty(l.quantityHundredths)}
                 {l.kind === "labour" ? " h" : ""} × {formatMinor(Number(l.unitPriceMinor), currency)}
               </span>

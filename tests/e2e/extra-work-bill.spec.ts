@@ -1,7 +1,7 @@
 import { expect, test, type Page } from "@playwright/test";
 import { DEMO_PASSWORD } from "@/db/seed/demo-people";
 import { query } from "./support/e2e-db";
-import { expectMail, paymentEvents, webhookDeliveries } from "./support/fakes";
+import { expectMail, MAIL_WEB, paymentEvents, webhookDeliveries } from "./support/fakes";
 import { signIn } from "./support/demo-users";
 
 // Extra work and the final bill on demo job 1073 (in build, approved quote: 3.50 h × £68.00 and a
@@ -11,6 +11,16 @@ import { signIn } from "./support/demo-users";
 // customer pays the balance through the fake payment service and its signed webhook, and gets a receipt.
 
 const WREN = { email: "wren.ashby@example.test", name: "Wren Ashby" };
+
+/** Every e-mail to Wren with this subject, oldest first (maildev outlives one run: the newest is this run's). */
+async function mailsToWren(subject: string): Promise<Array<{ subject: string; text?: string; to: Array<{ address: string }> }>> {
+  const all = (await (await fetch(`${MAIL_WEB}/api/email`)).json()) as Array<{
+    subject: string;
+    text?: string;
+    to: Array<{ address: string }>;
+  }>;
+  return all.filter((m) => m.subject === subject && m.to.some((t) => t.address === WREN.email));
+}
 
 async function signInAsWren(page: Page) {
   await page.goto("/signin");
@@ -54,7 +64,8 @@ test("extra work round trip: written, one line declined and one approved, billed
   await expect(sup).toHaveCount(1);
   await expect(sup.getByTestId("supplement-line")).toHaveCount(2);
   await expect(sup.getByTestId("answer-badge")).toHaveText(["… Waiting for the customer", "… Waiting for the customer"]);
-  const mail = await expectMail(WREN.email, "Extra work found on your Pelham Scarp 800 (work order 1073)");
+  await expectMail(WREN.email, "Extra work found on your Pelham Scarp 800 (work order 1073)");
+  const mail = (await mailsToWren("Extra work found on your Pelham Scarp 800 (work order 1073)")).at(-1)!;
   const link = /\/extra-work\/([A-Za-z0-9_-]{43})/.exec(mail.text ?? "")?.[0];
   expect(link).toBeTruthy();
 
@@ -103,6 +114,7 @@ test("extra work round trip: written, one line declined and one approved, billed
   await bill.screenshot({ path: test.info().outputPath("office-bill-1024.png") });
 
   // the customer pays the balance; the fake's signed webhook marks it paid; a receipt is e-mailed
+  const receiptsBefore = (await mailsToWren("Receipt: bill for work order 1073 paid")).length;
   await customer.reload();
   const cbill = customer.getByTestId("customer-bill");
   await expect(
@@ -123,8 +135,10 @@ test("extra work round trip: written, one line declined and one approved, billed
       timeout: 10_000,
     })
     .toBe(200);
-  const receipt = await expectMail(WREN.email, "Receipt: bill for work order 1073 paid");
-  expect(receipt.text).toContain("£493.40");
+  await expect
+    .poll(async () => (await mailsToWren("Receipt: bill for work order 1073 paid")).length, { timeout: 15_000 })
+    .toBe(receiptsBefore + 1);
+  expect((await mailsToWren("Receipt: bill for work order 1073 paid")).at(-1)!.text).toContain("£493.40");
   const rows = await query<{ status: string; amount_minor: string }>(
     "SELECT p.status, p.amount_minor FROM balance_payments p JOIN work_orders w ON w.id = p.work_order_id WHERE w.number = 1073",
   );
