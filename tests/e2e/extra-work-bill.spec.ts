@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { expect, test, type Page } from "@playwright/test";
 import { DEMO_PASSWORD } from "@/db/seed/demo-people";
 import { query } from "./support/e2e-db";
@@ -12,7 +13,7 @@ import { signIn } from "./support/demo-users";
 
 const WREN = { email: "wren.ashby@example.test", name: "Wren Ashby" };
 
-/** Every e-mail to Wren with this subject, oldest first (maildev outlives one run: the newest is this run's). */
+/** Every e-mail to Wren with this subject, oldest first (maildev outlives one run). */
 async function mailsToWren(subject: string): Promise<Array<{ subject: string; text?: string; to: Array<{ address: string }> }>> {
   const all = (await (await fetch(`${MAIL_WEB}/api/email`)).json()) as Array<{
     subject: string;
@@ -65,8 +66,11 @@ test("extra work round trip: written, one line declined and one approved, billed
   await expect(sup.getByTestId("supplement-line")).toHaveCount(2);
   await expect(sup.getByTestId("answer-badge")).toHaveText(["… Waiting for the customer", "… Waiting for the customer"]);
   await expectMail(WREN.email, "Extra work found on your Pelham Scarp 800 (work order 1073)");
-  const mail = (await mailsToWren("Extra work found on your Pelham Scarp 800 (work order 1073)")).at(-1)!;
-  const link = /\/extra-work\/([A-Za-z0-9_-]{43})/.exec(mail.text ?? "")?.[0];
+  // maildev keeps earlier runs' e-mails: this run's link is the one whose token's hash is on file
+  const onFile = new Set((await query<{ token_sha256: string }>("SELECT token_sha256 FROM supplement_links")).map((r) => r.token_sha256));
+  const link = (await mailsToWren("Extra work found on your Pelham Scarp 800 (work order 1073)"))
+    .map((m) => /\/extra-work\/([A-Za-z0-9_-]{43})/.exec(m.text ?? ""))
+    .find((m) => m && onFile.has(createHash("sha256").update(m[1]).digest("hex")))?.[0];
   expect(link).toBeTruthy();
 
   // the customer, signed in, declines the part and approves the labour
