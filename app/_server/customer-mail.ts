@@ -3,6 +3,7 @@ import { emailContext, latestTransitionTo } from "@/db/office/emails";
 import { overridesOf } from "@/db/records/status-overrides";
 import { openItemLine } from "@/lib/work-orders/open-items";
 import { formatMinor } from "@/lib/money/quote-totals";
+import { ANSWER_LINK_DAYS } from "@/lib/office/extra-work";
 import { enqueueMails, type QueuedMail } from "./mail";
 import { officeConfig } from "./office-config";
 import type { Db } from "@/db/setup/client";
@@ -49,6 +50,26 @@ export async function mailDepositReceived(db: Db, shopId: string, workOrderId: s
     cause: `deposit:${depositId}`,
     subject: `Deposit received for work order ${c.number}`,
     text: `Hello ${c.customerName},\n\nThank you: we have received your deposit of ${formatMinor(amountMinor, c.currency)} for the ${c.make} ${c.model} (${c.tagCode}). Work can start.\n\n${c.shopName}`,
+  }));
+}
+
+export async function mailBalanceReceived(db: Db, shopId: string, workOrderId: string, paymentId: string, amountMinor: number) {
+  return queueForCustomer(db, shopId, workOrderId, (c) => ({
+    kind: "balance_received",
+    cause: `balance:${paymentId}`,
+    subject: `Receipt: bill for work order ${c.number} paid`,
+    text: `Hello ${c.customerName},\n\nThank you: we have received ${formatMinor(amountMinor, c.currency)}, the balance of the bill for the ${c.make} ${c.model} (${c.tagCode}) — "${c.title}". Nothing more is due on it.\n\n${c.shopName}`,
+  }));
+}
+
+/** Extra work found on the bike: what it is, what it costs, and the one-time link to answer each line. */
+export async function mailExtraWork(db: Db, shopId: string, workOrderId: string, supplementId: string, token: string, totalMinor: number) {
+  const base = officeConfig().NEXTAUTH_URL;
+  return queueForCustomer(db, shopId, workOrderId, (c) => ({
+    kind: "extra_work",
+    cause: `supplement:${supplementId}`,
+    subject: `Extra work found on your ${c.make} ${c.model} (work order ${c.number})`,
+    text: `Hello ${c.customerName},\n\nWhile working on your ${c.make} ${c.model} (${c.tagCode}) we found something that needs more work: ${formatMinor(totalMinor, c.currency)} before tax. Please approve or decline each line — nothing is done without your yes.\n\nAnswer here (this link works once, for ${ANSWER_LINK_DAYS} days): ${base}/extra-work/${token}\nOr sign in and answer on your page: ${base}/my-bikes\n\n${c.shopName}`,
   }));
 }
 

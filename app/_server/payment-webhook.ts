@@ -2,7 +2,7 @@ import "server-only";
 import type Stripe from "stripe";
 import { applyPaymentEvent } from "@/db/office/deposits";
 import { appendAudit } from "@/db/audit/append";
-import { mailDepositReceived } from "./customer-mail";
+import { mailBalanceReceived, mailDepositReceived } from "./customer-mail";
 import { verifyPaymentWebhook } from "./payments";
 import type { Db } from "@/db/setup/client";
 
@@ -53,10 +53,13 @@ export async function handlePaymentWebhook(
     return { status: 409, body: { error: "Webhook refused: event already processed" } };
   }
   if (outcome.kind === "ignored") return { status: 200, body: { received: true, outcome: `ignored: ${outcome.reason}` } };
-  if (outcome.kind === "failed") return { status: 200, body: { received: true, outcome: "deposit payment failed" } };
-  // One "deposit received" e-mail per deposit: only the event that paid it sends one; a later,
-  // different event about the same payment (a second succeeded event, a resend under a new id) does not.
-  if (!outcome.newlyPaid) return { status: 200, body: { received: true, outcome: "deposit already paid" } };
-  if (opts.sendMail !== false) await mailDepositReceived(db, outcome.shopId, outcome.workOrderId, outcome.depositId, outcome.amountMinor);
-  return { status: 200, body: { received: true, outcome: "deposit paid" } };
+  if (outcome.kind === "failed") return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} payment failed` } };
+  // One receipt e-mail per payment: only the event that paid it sends one; a later, different
+  // event about the same payment (a second succeeded event, a resend under a new id) does not.
+  if (!outcome.newlyPaid) return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} already paid` } };
+  if (opts.sendMail !== false) {
+    const mail = outcome.paymentFor === "deposit" ? mailDepositReceived : mailBalanceReceived;
+    await mail(db, outcome.shopId, outcome.workOrderId, outcome.paymentId, outcome.amountMinor);
+  }
+  return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} paid` } };
 }

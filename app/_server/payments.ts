@@ -17,16 +17,26 @@ export function paymentsClient(): Stripe {
   });
 }
 
-// Creates the PaymentIntent for a deposit (idempotent per deposit) and, in test mode, confirms it
-// with the configured test payment method; the provider then reports success by webhook.
-export async function startDepositPayment(d: {
-  depositId: string;
+interface PaymentStart {
   amountMinor: number;
   currency: string;
   shopId: string;
   workOrderId: string;
   description: string;
-}) {
+}
+
+// Creates the PaymentIntent for a deposit (idempotent per deposit) and, in test mode, confirms it
+// with the configured test payment method; the provider then reports success by webhook.
+export async function startDepositPayment(d: PaymentStart & { depositId: string }) {
+  return startPayment(d, `deposit-${d.depositId}`, { deposit_id: d.depositId });
+}
+
+/** The same for the balance of a bill (idempotent per balance payment row). */
+export async function startBalancePayment(d: PaymentStart & { balancePaymentId: string; invoiceId: string }) {
+  return startPayment(d, `balance-${d.balancePaymentId}`, { balance_payment_id: d.balancePaymentId, invoice_id: d.invoiceId });
+}
+
+async function startPayment(d: PaymentStart, key: string, metadata: Record<string, string>) {
   const cfg = officeConfig();
   const stripe = paymentsClient();
   const intent = await stripe.paymentIntents.create(
@@ -34,15 +44,15 @@ export async function startDepositPayment(d: {
       amount: d.amountMinor,
       currency: d.currency.toLowerCase(),
       description: d.description,
-      metadata: { deposit_id: d.depositId, shop_id: d.shopId, work_order_id: d.workOrderId },
+      metadata: { ...metadata, shop_id: d.shopId, work_order_id: d.workOrderId },
     },
-    { idempotencyKey: `deposit-${d.depositId}` },
+    { idempotencyKey: key },
   );
   if (intent.status !== "succeeded" && intent.status !== "processing" && cfg.STRIPE_TEST_PAYMENT_METHOD) {
     const confirmed = await stripe.paymentIntents.confirm(
       intent.id,
       { payment_method: cfg.STRIPE_TEST_PAYMENT_METHOD },
-      { idempotencyKey: `deposit-confirm-${d.depositId}` },
+      { idempotencyKey: `${key}-confirm` },
     );
     return { id: confirmed.id, status: confirmed.status };
   }

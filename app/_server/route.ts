@@ -105,9 +105,11 @@ export type Access = { area: Area } | { anyArea: readonly Area[] } | { signedIn:
  * - "ended-session": a tablet whose session the office ended hands over its unsent work; the handler
  *   checks that the signed cookie names such a session (app/api/bench/outbox-handover);
  * - "invitation-link": a customer sets their password with the token of an invitation e-mail
- *   (app/api/welcome; db/customer-contact/invitations.ts checks it).
+ *   (app/api/welcome; db/customer-contact/invitations.ts checks it);
+ * - "answer-link": a customer's answers to extra work through the e-mailed one-time link, checked
+ *   by the link's token (db/office/supplements.ts answerByLink).
  */
-export type PublicCheck = "next-auth" | "payment-signature" | "ended-session" | "invitation-link";
+export type PublicCheck = "next-auth" | "payment-signature" | "ended-session" | "invitation-link" | "answer-link";
 
 export interface RouteContext<P, B, Q, U> {
   req: Request;

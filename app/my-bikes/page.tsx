@@ -11,6 +11,12 @@ import { CustomerQuote } from "./_components/customer-quote";
 import { JobContact } from "./_components/job-contact";
 import { threadOf } from "@/db/customer-contact/messages";
 import { progressUpdatesOf } from "@/db/customer-contact/progress-updates";
+import { CustomerBill } from "./_components/customer-bill";
+import { ExtraWorkAnswers } from "../ui/extra-work-answers";
+import { MoneyTotals } from "../ui/money-totals";
+import { supplementsOf } from "@/db/office/supplements";
+import { billInputOf, issuedBillOf } from "@/db/office/final-bill";
+import { agreedTotal } from "@/lib/money/final-bill";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
 import { StatusBadge } from "../ui/status-badge";
@@ -41,6 +47,21 @@ export default async function MyBikesPage() {
   const jobIds = bikes.flatMap((b) => b.workOrders).map((w) => w.id);
   const updates = await progressUpdatesOf(db(), user.shopId, jobIds);
   const threads = new Map(await Promise.all(jobIds.map(async (id) => [id, await threadOf(db(), user.shopId, id)] as const)));
+  // extra work, the total agreed so far and the issued bill, per work order
+  const allJobs = bikes.flatMap((b) => b.workOrders);
+  const supplements = await supplementsOf(
+    db(),
+    allJobs.map((w) => w.id),
+  );
+  const money = new Map(
+    await Promise.all(
+      allJobs.map(async (w) => {
+        const [source, bill] = await Promise.all([billInputOf(db(), user.shopId, w.id), issuedBillOf(db(), user.shopId, w.id)]);
+        return [w.id, { source, bill }] as const;
+      }),
+    ),
+  );
+  const wire = <T,>(v: T) => JSON.parse(JSON.stringify(v));
   return (
     <AppFrame user={user} current="/my-bikes">
       <h1 className="text-3xl font-bold">My bikes</h1>
@@ -69,6 +90,19 @@ export default async function MyBikesPage() {
                   <BuildLine progress={progress.get(w.id) ?? null} />
                   <StoredCopies workOrderId={w.id} copies={copies.get(w.id) ?? []} />
                   {quoteOf(w.id) && <CustomerQuote quote={quoteOf(w.id)!} />}
+                  {supplements
+                    .filter((s) => s.workOrderId === w.id)
+                    .map((s) => (
+                      <ExtraWorkAnswers
+                        key={s.id}
+                        supplement={wire(s)}
+                        currency={s.currency}
+                        photoBase="/api/my-bikes/extra-work-photos/"
+                        submit={{ url: `/api/my-bikes/supplements/${s.id}/answers` }}
+                      />
+                    ))}
+                  <AgreedTotal money={money.get(w.id)} hasExtraWork={supplements.some((s) => s.workOrderId === w.id)} />
+                  {money.get(w.id)?.bill && <CustomerBill bill={wire(money.get(w.id)!.bill)} />}
                   <JobContact
                     workOrderId={w.id}
                     updates={updates.filter((u) => u.workOrderId === w.id)}
@@ -127,6 +161,31 @@ function StoredCopies({ workOrderId, copies }: { workOrderId: string; copies: Aw
           </li>
         ))}
       </ol>
+    </div>
+  );
+}
+
+/** The job's total as agreed: the approved quote and the approved extra work, with tax (shown once there is extra work). */
+function AgreedTotal({
+  money,
+  hasExtraWork,
+}: {
+  money: { source: Awaited<ReturnType<typeof billInputOf>>; bill: unknown } | undefined;
+  hasExtraWork: boolean;
+}) {
+  if (!money?.source || money.bill || !hasExtraWork) return null;
+  const t = agreedTotal(money.source.input.lines, money.source.input.taxRateBp);
+  return (
+    <div className="mt-2" data-testid="agreed-total">
+      <p className="text-base font-bold">The job so far: your approved quote and the extra work you approved</p>
+      <MoneyTotals
+        currency={money.source.currency}
+        rows={[
+          { label: "Subtotal", minor: t.subtotalMinor },
+          { label: "Tax", minor: t.taxMinor },
+          { label: "Job total", minor: t.totalMinor, strong: true, testId: "agreed-total-figure" },
+        ]}
+      />
     </div>
   );
 }

@@ -22,6 +22,7 @@ import * as m062 from "./2026_12_05_062_service_reminders";
 import * as m063 from "./2026_12_05_063_calendar";
 import * as m091 from "./2026_12_05_091_bench_clocks";
 import * as m100 from "./2026_12_06_100_stock";
+import * as m110 from "./2026_12_06_110_extra_work_and_bill";
 import * as m120 from "./2026_12_06_120_customer_contact";
 import * as m130 from "./2026_12_06_130_review_waiting";
 import * as m140 from "./2026_12_06_140_merge_checked_references";
@@ -53,6 +54,7 @@ export const migrations: Record<string, Migration> = {
   "2026_12_05_063_calendar": m063,
   "2026_12_05_091_bench_clocks": m091,
   "2026_12_06_100_stock": m100,
+  "2026_12_06_110_extra_work_and_bill": m110,
   "2026_12_06_120_customer_contact": m120,
   "2026_12_06_130_review_waiting": m130,
   "2026_12_06_140_merge_checked_references": m140,

@@ -1,5 +1,6 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import type { Kysely, Transaction } from "kysely";
+import type { DepositStatus } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
@@ -64,14 +65,56 @@ export async function attachPaymentIntent(db: Kysely<Database>, depositId: strin
     .execute();
 }
 
+/** What a payment is for: a quote's deposit or a bill's balance (db/office/balance-payments.ts). */
+export type PaymentFor = "deposit" | "balance";
+
 type PaymentOutcome =
-  | { kind: "paid"; depositId: string; shopId: string; workOrderId: string; amountMinor: number; newlyPaid: boolean }
-  | { kind: "failed"; depositId: string }
+  | {
+      kind: "paid";
+      paymentFor: PaymentFor;
+      paymentId: string;
+      shopId: string;
+      workOrderId: string;
+      amountMinor: number;
+      newlyPaid: boolean;
+    }
+  | { kind: "failed"; paymentFor: PaymentFor; paymentId: string }
   | { kind: "replayed" }
   | { kind: "ignored"; reason: string };
 
-// Applies a verified payment event exactly once. A second delivery of the same event id is
-// "replayed" (and changes nothing). Amount and currency must match the deposit.
+interface Payable {
+  paymentFor: PaymentFor;
+  id: string;
+  shop_id: string;
+  work_order_id: string;
+  amount_minor: number;
+  currency: string;
+  status: DepositStatus;
+}
+
+/** The deposit or balance payment a payment intent was started for, locked. */
+async function payableOf(trx: Transaction<Database>, paymentIntentId: string): Promise<Payable | null> {
+  const cols = ["id", "shop_id", "work_order_id", "amount_minor", "currency", "status"] as const;
+  const dep = await trx.selectFrom("deposits").select(cols).where("payment_intent_id", "=", paymentIntentId).forUpdate().executeTakeFirst();
+  if (dep) return { paymentFor: "deposit", ...dep };
+  const bal = await trx
+    .selectFrom("balance_payments")
+    .select(cols)
+    .where("payment_intent_id", "=", paymentIntentId)
+    .forUpdate()
+    .executeTakeFirst();
+  return bal ? { paymentFor: "balance", ...bal, amount_minor: Number(bal.amount_minor) } : null;
+}
+
+async function setPaymentStatus(trx: Transaction<Database>, p: Payable, status: "paid" | "failed") {
+  const set = status === "paid" ? { status, paid_at: new Date() } : { status };
+  if (p.paymentFor === "deposit") await trx.updateTable("deposits").set(set).where("id", "=", p.id).execute();
+  else await trx.updateTable("balance_payments").set(set).where("id", "=", p.id).execute();
+}
+
+// Applies a verified payment event exactly once, to the deposit or the bill's balance payment it
+// is about. A second delivery of the same event id is "replayed" (and changes nothing). Amount and
+// currency must match the payment.
 export async function applyPaymentEvent(
   db: Kysely<Database>,
   event: { id: string; type: string; paymentIntentId: string | null; amount: number | null; currency: string | null },
@@ -81,13 +124,9 @@ export async function applyPaymentEvent(
     if (seen) return { kind: "replayed" } as const;
     const used = event.type === "payment_intent.succeeded" || event.type === "payment_intent.payment_failed";
     if (!used || !event.paymentIntentId) return { kind: "ignored", reason: `event type ${event.type} is not used` } as const;
-    const dep = await trx
-      .selectFrom("deposits")
-      .selectAll()
-      .where("payment_intent_id", "=", event.paymentIntentId)
-      .forUpdate()
-      .executeTakeFirst();
-    if (!dep) return { kind: "ignored", reason: "no deposit for this payment" } as const;
+    const dep = await payableOf(trx, event.paymentIntentId);
+    if (!dep) return { kind: "ignored", reason: "no deposit or balance payment for this payment" } as const;
+    const what = dep.paymentFor;
     const inserted = await trx
       .insertInto("payment_events")
       .values({ event_id: event.id, type: event.type, payment_intent_id: event.paymentIntentId })
@@ -95,62 +134,43 @@ export async function applyPaymentEvent(
       .returning("event_id")
       .executeTakeFirst();
     if (!inserted) return { kind: "replayed" } as const;
-    if (event.type === "payment_intent.payment_failed") {
-      // a declined card: the deposit can be paid again (a new deposit row and payment intent)
-      if (dep.status === "pending") {
-        await trx.updateTable("deposits").set({ status: "failed" }).where("id", "=", dep.id).execute();
-        await appendAudit(trx, [
-          {
-            shopId: dep.shop_id,
-            actorId: null,
-            action: "deposit.failed",
-            entity: "deposit",
-            entityId: dep.id,
-            workOrderId: dep.work_order_id,
-            outcome: "accepted",
-            detail: { eventId: event.id },
-          },
-        ]);
-      }
-      return { kind: "failed", depositId: dep.id } as const;
-    }
-    if (event.amount !== dep.amount_minor || (event.currency ?? "").toUpperCase() !== dep.currency.toUpperCase()) {
-      await appendAudit(trx, [
+    const audit = (action: string, outcome: "accepted" | "refused", detail: Record<string, unknown>, reason?: string) =>
+      appendAudit(trx, [
         {
           shopId: dep.shop_id,
           actorId: null,
-          action: "deposit.paid",
-          entity: "deposit",
+          action: `${what}.${action}`,
+          entity: what,
           entityId: dep.id,
           workOrderId: dep.work_order_id,
-          outcome: "refused",
-          reason: "amount or currency does not match",
-          detail: { eventId: event.id },
+          outcome,
+          reason,
+          detail,
         },
       ]);
-      return { kind: "ignored", reason: "amount or currency does not match the deposit" } as const;
+    if (event.type === "payment_intent.payment_failed") {
+      // a declined card: it can be paid again (a new row and payment intent)
+      if (dep.status === "pending") {
+        await setPaymentStatus(trx, dep, "failed");
+        await audit("failed", "accepted", { eventId: event.id });
+      }
+      return { kind: "failed", paymentFor: what, paymentId: dep.id } as const;
+    }
+    if (event.amount !== dep.amount_minor || (event.currency ?? "").toUpperCase() !== dep.currency.toUpperCase()) {
+      await audit("paid", "refused", { eventId: event.id }, "amount or currency does not match");
+      return { kind: "ignored", reason: `amount or currency does not match the ${what}` } as const;
     }
     const newlyPaid = dep.status !== "paid";
     if (newlyPaid) {
-      await trx.updateTable("deposits").set({ status: "paid", paid_at: new Date() }).where("id", "=", dep.id).execute();
-      await appendAudit(trx, [
-        {
-          shopId: dep.shop_id,
-          actorId: null,
-          action: "deposit.paid",
-          entity: "deposit",
-          entityId: dep.id,
-          workOrderId: dep.work_order_id,
-          outcome: "accepted",
-          detail: { eventId: event.id, paymentIntentId: event.paymentIntentId },
-        },
-      ]);
+      await setPaymentStatus(trx, dep, "paid");
+      await audit("paid", "accepted", { eventId: event.id, paymentIntentId: event.paymentIntentId });
     }
     // newlyPaid: this event is the one that paid it (the row is locked, so of two events about one
-    // deposit arriving together exactly one sees it unpaid): only then is the customer e-mailed.
+    // payment arriving together exactly one sees it unpaid): only then is the customer e-mailed.
     return {
       kind: "paid",
-      depositId: dep.id,
+      paymentFor: what,
+      paymentId: dep.id,
       shopId: dep.shop_id,
       workOrderId: dep.work_order_id,
       amountMinor: dep.amount_minor,

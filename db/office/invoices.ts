@@ -1,9 +1,9 @@
 import "server-only";
 import { setRemindersAtHandover } from "../aftercare/reminders";
 import type { Kysely, Transaction } from "kysely";
-import { Refusal } from "@/lib/errors";
 import type { OverrideRequest } from "@/lib/work-orders/transition-rules";
 import { appendAudit } from "../audit/append";
+import { issueBillIn } from "./final-bill";
 import type { Database } from "../schema";
 import { MoveRefusal, moveWorkOrder } from "../shop/work-orders";
 
@@ -32,48 +32,10 @@ export async function handOver<R>(db: Kysely<Database>, shopId: string, userId: 
   }
 }
 
-// The final invoice at handover: the approved quote's totals less the deposits paid. One per job.
-async function createFinalInvoice(trx: Kysely<Database> | Transaction<Database>, shopId: string, userId: string, workOrderId: string) {
-  const existing = await trx.selectFrom("invoices").selectAll().where("work_order_id", "=", workOrderId).executeTakeFirst();
-  if (existing) return existing;
-  const q = await trx
-    .selectFrom("quotes")
-    .selectAll()
-    .where("work_order_id", "=", workOrderId)
-    .where("shop_id", "=", shopId)
-    .where("status", "=", "approved")
-    .orderBy("version", "desc")
-    .executeTakeFirst();
-  if (!q) throw new Refusal("There is no approved quote to invoice.", 409);
-  const paid = await trx
-    .selectFrom("deposits")
-    .select((eb) => eb.fn.coalesce(eb.fn.sum<number>("amount_minor"), eb.lit(0)).as("s"))
-    .where("quote_id", "=", q.id)
-    .where("status", "=", "paid")
-    .executeTakeFirstOrThrow();
-  const last = await trx
-    .selectFrom("invoices")
-    .select((eb) => eb.fn.max("number").as("n"))
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst();
-  const depositsPaid = Number(paid.s);
-  return trx
-    .insertInto("invoices")
-    .values({
-      shop_id: shopId,
-      work_order_id: workOrderId,
-      quote_id: q.id,
-      number: (last?.n ?? 5000) + 1,
-      currency: q.currency,
-      subtotal_minor: q.subtotal_minor,
-      tax_minor: q.tax_minor,
-      total_minor: q.total_minor,
-      deposits_paid_minor: depositsPaid,
-      balance_due_minor: q.total_minor - depositsPaid,
-      created_by: userId,
-    })
-    .returningAll()
-    .executeTakeFirstOrThrow();
+// The final bill at handover: the one the office issued, else one issued now by the standing rules
+// (labour as quoted, no fitted part added: db/office/final-bill.ts). One per job.
+async function createFinalInvoice(trx: Transaction<Database>, shopId: string, userId: string, workOrderId: string) {
+  return issueBillIn(trx, shopId, userId, workOrderId, {}, { refuseIfIssued: false });
 }
 
 const INVOICE_COLUMNS = [

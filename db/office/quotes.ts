@@ -123,6 +123,17 @@ export async function sendQuote(db: Kysely<Database>, shopId: string, userId: st
   });
 }
 
+/** A quote with the customer who owns its bike, locked for the customer's answer. */
+const lockQuoteWithOwner = (trx: Kysely<Database>, quoteId: string) =>
+  trx
+    .selectFrom("quotes as q")
+    .innerJoin("work_orders as w", "w.id", "q.work_order_id")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .select(["q.id", "q.status", "q.work_order_id as workOrderId", "b.customer_id as customerId", "q.shop_id as shopId"])
+    .where("q.id", "=", quoteId)
+    .forUpdate("q")
+    .executeTakeFirst();
+
 // The customer's approval from their own sign-in. Refused unless the quote is on a bike they own.
 export async function approveQuoteAsCustomer(
   db: Kysely<Database>,
@@ -130,14 +141,7 @@ export async function approveQuoteAsCustomer(
   quoteId: string,
 ) {
   return db.transaction().execute(async (trx) => {
-    const q = await trx
-      .selectFrom("quotes as q")
-      .innerJoin("work_orders as w", "w.id", "q.work_order_id")
-      .innerJoin("bikes as b", "b.id", "w.bike_id")
-      .select(["q.id", "q.status", "q.work_order_id as workOrderId", "b.customer_id as customerId", "q.shop_id as shopId"])
-      .where("q.id", "=", quoteId)
-      .forUpdate("q")
-      .executeTakeFirst();
+    const q = await lockQuoteWithOwner(trx, quoteId);
     if (!q || q.shopId !== user.shopId || !user.customerId || q.customerId !== user.customerId) {
       await appendAudit(db, [
         {
@@ -154,6 +158,7 @@ export async function approveQuoteAsCustomer(
     }
     if (q.status === "approved") throw new Refusal("You have already approved this quote.", 409);
     if (q.status !== "sent") throw new Refusal("This quote has been replaced by a newer one; please look at the latest.", 409);
+    if (await declineOf(trx, quoteId)) throw new Refusal("You declined this quote; the workshop will send you a new one.", 409);
     await trx
       .updateTable("quotes")
       .set({ status: "approved", approved_at: new Date(), approved_by: user.id })
@@ -168,6 +173,41 @@ export async function approveQuoteAsCustomer(
         shopId: user.shopId,
         actorId: user.id,
         action: "quote.approve",
+        entity: "quote",
+        entityId: quoteId,
+        workOrderId: q.workOrderId,
+        outcome: "accepted",
+      },
+    ]);
+    return { workOrderId: q.workOrderId };
+  });
+}
+
+const declineOf = (db: Kysely<Database>, quoteId: string) =>
+  db.selectFrom("quote_declines").select(["comment", "declined_at as at"]).where("quote_id", "=", quoteId).executeTakeFirst();
+
+// The customer's "no" to a sent quote, with an optional comment: recorded once (append-only), the
+// quote stays on file as sent and declined, the work order stays quoted, and the office may write
+// a new version. Refused unless the quote is on a bike they own and still waits for an answer.
+export async function declineQuoteAsCustomer(
+  db: Kysely<Database>,
+  user: { id: string; shopId: string; customerId: string | null },
+  quoteId: string,
+  comment: string,
+) {
+  return db.transaction().execute(async (trx) => {
+    const q = await lockQuoteWithOwner(trx, quoteId);
+    if (!q || q.shopId !== user.shopId || !user.customerId || q.customerId !== user.customerId)
+      throw new Refusal("This quote is not yours to decline.", 403);
+    if (q.status === "approved") throw new Refusal("You have already approved this quote; ask the workshop to change it.", 409);
+    if (q.status !== "sent") throw new Refusal("This quote has been replaced by a newer one; please look at the latest.", 409);
+    if (await declineOf(trx, quoteId)) throw new Refusal("You have already declined this quote.", 409);
+    await trx.insertInto("quote_declines").values({ quote_id: quoteId, declined_by: user.id, comment }).execute();
+    await appendAudit(trx, [
+      {
+        shopId: user.shopId,
+        actorId: user.id,
+        action: "quote.decline",
         entity: "quote",
         entityId: quoteId,
         workOrderId: q.workOrderId,
@@ -209,7 +249,8 @@ export async function quoteWithLines(db: Kysely<Database>, shopId: string, quote
   if (!q) return null;
   const lines = await db.selectFrom("quote_lines").select(LINE_COLUMNS).where("quote_id", "=", quoteId).orderBy("position").execute();
   const deposits = await db.selectFrom("deposits").select(DEPOSIT_COLUMNS).where("quote_id", "=", quoteId).orderBy("created_at").execute();
-  return { ...q, lines, deposits };
+  const declined = (await declineOf(db, quoteId)) ?? null;
+  return { ...q, lines, deposits, declined };
 }
 
 // The quotes of a work order, newest first, each with lines and deposits.

@@ -6,6 +6,7 @@ import type { CalendarTables } from "./calendar";
 import type { ClockTables } from "./clocks";
 import type { CustomerContactTables } from "./customer-contact";
 import type { DynoTables } from "./dyno";
+import type { ExtraWorkTables } from "./extra-work";
 import type { MailTables } from "./mail";
 import type { OfficeTables } from "./office";
 import type { ReviewTables } from "./review";
@@ -34,6 +35,7 @@ export interface Database
     CalendarTables,
     ClockTables,
     StockTables,
-    CustomerContactTables {}
+    CustomerContactTables,
+    ExtraWorkTables {}
 
 export type User = Selectable<UsersTable>;

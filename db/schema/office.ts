@@ -90,6 +90,9 @@ interface InvoicesTable {
   total_minor: number;
   deposits_paid_minor: number;
   balance_due_minor: number;
+  /** Filled on bills issued from migration 2026_12_06_110 on. */
+  tax_rate_bp: number | null;
+  clocked_hundredths: number | null;
   created_by: string | null;
   created_at: DefaultTimestamp;
 }

@@ -6,7 +6,7 @@ import { useState } from "react";
 import { formatMinor } from "@/lib/money/quote-totals";
 import { api } from "@/app/ui/api-client";
 import type { CustomerQuoteView } from "@/db/office/quotes";
-import { buttonClass, FormMessage } from "@/app/ui/form-field";
+import { buttonClass, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
 
 const qty = (h: number) => (h % 100 === 0 ? String(h / 100) : (h / 100).toFixed(2));
 
@@ -22,6 +22,16 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
     mutationFn: () => api("POST", `/api/my-bikes/quotes/${quote.id}/approve`),
     onSuccess: () => {
       setMessage({ ok: "Thank you — quote approved." });
+      router.refresh();
+    },
+    onError: (e) => setMessage({ error: (e as Error).message }),
+  });
+  const [declining, setDeclining] = useState(false);
+  const [comment, setComment] = useState("");
+  const decline = useMutation({
+    mutationFn: () => api("POST", `/api/my-bikes/quotes/${quote.id}/decline`, { comment }),
+    onSuccess: () => {
+      setMessage({ ok: "Your answer is with the workshop: quote declined." });
       router.refresh();
     },
     onError: (e) => setMessage({ error: (e as Error).message }),
@@ -47,7 +57,8 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
   return (
     <div className="mt-3 rounded-lg border-2 border-steel-300 p-3" data-testid="customer-quote">
       <h3 className="text-xl font-bold">
-        Quote (version {quote.version}) — {quote.status === "approved" ? "approved" : "waiting for your approval"}
+        Quote (version {quote.version}) —{" "}
+        {quote.status === "approved" ? "✔ approved" : quote.declined ? "✖ declined by you" : "… waiting for your answer"}
       </h3>
       <table className="mt-2 w-full border-collapse text-left">
         <tbody>
@@ -85,10 +96,20 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
       {quote.note && <p className="mt-2 italic">{quote.note}</p>}
       {quote.depositMinor > 0 && <p className="mt-2 text-lg">Deposit to start the work: {formatMinor(quote.depositMinor, c)}</p>}
       <div className="mt-3 flex flex-wrap items-center gap-3">
-        {quote.status === "sent" && (
+        {quote.status === "sent" && !quote.declined && (
           <button type="button" className={buttonClass} disabled={approve.isPending} onClick={() => approve.mutate()}>
             Approve this quote
           </button>
+        )}
+        {quote.status === "sent" && !quote.declined && !declining && (
+          <button type="button" className={quietButtonClass} onClick={() => setDeclining(true)}>
+            Decline this quote
+          </button>
+        )}
+        {quote.declined && (
+          <p className="text-lg font-bold text-fail" data-testid="quote-declined">
+            ✖ You declined this quote{quote.declined.comment ? `: “${quote.declined.comment}”` : "."} The workshop will be in touch.
+          </p>
         )}
         {quote.status === "approved" && quote.depositMinor > 0 && depositStatus !== "paid" && (!depositId || failed) && (
           <button type="button" className={buttonClass} disabled={pay.isPending} onClick={() => pay.mutate()}>
@@ -111,6 +132,17 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
           </p>
         )}
       </div>
+      {declining && !quote.declined && (
+        <div className="mt-3 flex flex-wrap items-end gap-4">
+          <label className="flex grow flex-col gap-1 text-base font-bold">
+            Comment for the workshop (optional)
+            <input className={inputClass} value={comment} onChange={(e) => setComment(e.target.value)} />
+          </label>
+          <button type="button" className={buttonClass} disabled={decline.isPending} onClick={() => decline.mutate()}>
+            Decline the quote
+          </button>
+        </div>
+      )}
       <div className="mt-2">
         <FormMessage error={message.error} ok={message.ok} />
       </div>

@@ -3,6 +3,7 @@ import { demoAftercareExists, seedDemoAftercare } from "../../seed/demo-aftercar
 import { demoBenchChecksExist, seedDemoBenchChecks } from "../../seed/demo-bench-checks";
 import { demoCalendarExists, seedDemoCalendar } from "../../seed/demo-calendar";
 import { demoBenchTimeExists, seedDemoBenchTime } from "../../seed/demo-bench-time";
+import { demoExtraWorkExists, seedDemoExtraWork } from "../../seed/demo-extra-work";
 import { demoLateWorkExists, seedDemoLateWork } from "../../seed/demo-late-work";
 import { demoShopId, seedDemoShop } from "../../seed/demo-shop";
 import { demoStockExists, seedDemoStock } from "../../seed/demo-stock";
@@ -14,6 +15,7 @@ try {
   const shopId = await demoShopId(db);
   if (shopId === null) {
     await seedDemoShop(db);
+    await seedDemoExtraWork(db, (await demoShopId(db))!);
     console.log("[seed] demo shop written");
   } else {
     console.log("[seed] demo shop already present");
@@ -32,6 +34,10 @@ try {
     if (!(await demoBenchTimeExists(db, shopId))) {
       await seedDemoBenchTime(db, shopId);
       console.log("[seed] demo jobs 1060–1061 (time at the bench) added");
+    }
+    if (!(await demoExtraWorkExists(db, shopId))) {
+      await seedDemoExtraWork(db, shopId);
+      console.log("[seed] demo jobs 1073–1074 (extra work and the final bill) added");
     }
     if (!(await demoCalendarExists(db, shopId))) {
       await seedDemoCalendar(db, shopId);

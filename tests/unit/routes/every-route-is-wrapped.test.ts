@@ -51,6 +51,13 @@ const PUBLIC: Record<string, { check: string; mustContain: Array<{ file: string;
       { file: "db/customer-contact/invitations.ts", text: '.where("l.token_sha256", "=", hashOf(token))' },
     ],
   },
+  "app/api/extra-work/answers/route.ts": {
+    check: "answer-link",
+    mustContain: [
+      { file: "app/api/extra-work/answers/route.ts", text: "answerByLink(db, body.token" },
+      { file: "db/office/supplements.ts", text: "const refused = linkRefusal(state, signedInCustomerId);" },
+    ],
+  },
   "app/api/payments/webhook/route.ts": {
     check: "payment-signature",
     mustContain: [{ file: "app/_server/payment-webhook.ts", text: "verifyPaymentWebhook(rawBody, signature" }],
