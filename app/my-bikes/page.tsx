@@ -66,7 +66,8 @@ export default async function MyBikesPage() {
     <AppFrame user={user} current="/my-bikes">
       <h1 className="text-3xl font-bold">My bikes</h1>
       {bikes.length === 0 && <p className="mt-4 text-lg">No bikes on record yet.</p>}
-      <ul className="mt-6 grid gap-4 md:grid-cols-2">
+      {/* one bike per row: a bill's amounts need the full width of a tablet held upright */}
+      <ul className="mt-6 grid gap-4">
         {bikes.map((b) => (
           <li key={b.id} className="rounded-xl border-2 border-steel-700 bg-white p-5" data-testid="my-bike">
             <h2 className="text-2xl font-bold">

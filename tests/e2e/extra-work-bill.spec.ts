@@ -132,6 +132,9 @@ test("extra work round trip: written, one line declined and one approved, billed
     timeout: 15_000,
   });
   await cbill.screenshot({ path: test.info().outputPath("customer-bill-768.png") });
+  // the whole bill shows at 768 px: nothing of it runs past its card or the page
+  expect(await cbill.evaluate((el) => [...el.querySelectorAll("*")].filter((c) => c.scrollWidth > c.clientWidth + 1).length)).toBe(0);
+  expect(await customer.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)).toBeLessThanOrEqual(0);
   const paid = (await paymentEvents()).find((e) => e.type === "payment_intent.succeeded" && e.data.object.amount === 49340);
   expect(paid?.data.object.metadata.invoice_id).toBeTruthy();
   await expect
