@@ -88,7 +88,7 @@ test("the office adds a resource, sees it in the week plan, retires it with a re
   // a new bay: refused without a name, then added and bookable in the week plan
   const add = page.getByTestId("add-resource-form");
   await add.getByRole("button", { name: "Add resource" }).click();
-  await expect(page.getByTestId("add-resource-error")).toContainText("Name");
+  await expect(page.getByTestId("add-resource-error")).toHaveText("✖ Enter the name.");
   await add.locator("input[name=name]").fill(name);
   await add.getByRole("button", { name: "Add resource" }).click();
   await expect(page.getByTestId("add-resource-ok")).toHaveText(`✔ ${name} added: it can be booked now.`);
