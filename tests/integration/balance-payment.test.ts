@@ -4,6 +4,7 @@ import { handlePaymentWebhook } from "@/app/_server/payment-webhook";
 import { attachBalanceIntent, openBalancePayment } from "@/db/office/balance-payments";
 import { issueBill } from "@/db/office/final-bill";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
+import { insertQuotedJob } from "./support/quoted-job";
 import { useTestDb } from "./support/test-db";
 
 // The balance of an issued bill, paid through the payment service: the signed webhook marks it
@@ -19,36 +20,9 @@ beforeAll(async () => {
 
 async function billedJob() {
   const n = ++number;
-  const wo = await db
-    .insertInto("work_orders")
-    .values({
-      shop_id: fx.shopId,
-      bike_id: fx.bike.id,
-      number: n,
-      title: `Balance ${n}`,
-      status: "ready",
-      intake_odometer_km: 1,
-      assigned_mechanic_id: null,
-      closed_at: null,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  const q = await db
-    .insertInto("quotes")
-    .values({
-      shop_id: fx.shopId,
-      work_order_id: wo.id,
-      version: 1,
-      status: "approved",
-      currency: "GBP",
-      tax_rate_bp: 2000,
-      created_by: fx.users.office.id,
-      sent_at: new Date(),
-      approved_at: new Date(),
-      approved_by: null,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
+  const { workOrderId, quoteId } = await insertQuotedJob(db, fx, { number: n, title: `Balance ${n}`, status: "ready" });
+  const wo = { id: workOrderId };
+  const q = { id: quoteId };
   await db
     .insertInto("quote_lines")
     .values({

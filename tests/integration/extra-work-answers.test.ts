@@ -8,6 +8,7 @@ import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { supplementSchema } from "@/lib/office/extra-work-schemas";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
+import { insertQuotedJob } from "./support/quoted-job";
 import { useTestDb } from "./support/test-db";
 
 // Extra work on real PostgreSQL: the office writes it, the customer answers each line once (signed
@@ -28,36 +29,7 @@ beforeAll(async () => {
 
 async function jobWithApprovedQuote() {
   const n = ++number;
-  const wo = await db
-    .insertInto("work_orders")
-    .values({
-      shop_id: fx.shopId,
-      bike_id: fx.bike.id,
-      number: n,
-      title: `Extra ${n}`,
-      status: "in_build",
-      intake_odometer_km: 1,
-      assigned_mechanic_id: null,
-      closed_at: null,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  await db
-    .insertInto("quotes")
-    .values({
-      shop_id: fx.shopId,
-      work_order_id: wo.id,
-      version: 1,
-      status: "approved",
-      currency: "GBP",
-      tax_rate_bp: 2000,
-      created_by: fx.users.office.id,
-      sent_at: new Date(),
-      approved_at: new Date(),
-      approved_by: null,
-    })
-    .execute();
-  return wo.id;
+  return (await insertQuotedJob(db, fx, { number: n, title: `Extra ${n}`, status: "in_build" })).workOrderId;
 }
 
 const TWO_LINES = {

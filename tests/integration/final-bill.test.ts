@@ -8,6 +8,7 @@ import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { formatStamp } from "@/lib/sync/hlc";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
+import { insertQuotedJob } from "./support/quoted-job";
 import { useTestDb } from "./support/test-db";
 
 // The final bill on real PostgreSQL. The property: whatever the quote, the extra work, the
@@ -55,36 +56,17 @@ const lineArb = fc.record({
 async function newJobInBuild(quoteLines: Line[], taxRateBp: number, depositMinor: number) {
   await db.updateTable("shops").set({ tax_rate_bp: taxRateBp }).where("id", "=", fx.shopId).execute();
   const n = ++number;
-  const wo = await db
-    .insertInto("work_orders")
-    .values({
-      shop_id: fx.shopId,
-      bike_id: fx.bike.id,
-      number: n,
-      title: `Bill job ${n}`,
-      status: "in_build",
-      intake_odometer_km: 1000,
-      assigned_mechanic_id: fx.users.mechanic.id,
-      closed_at: null,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  const q = await db
-    .insertInto("quotes")
-    .values({
-      shop_id: fx.shopId,
-      work_order_id: wo.id,
-      version: 1,
-      status: "approved",
-      currency: "GBP",
-      tax_rate_bp: taxRateBp,
-      created_by: office.id,
-      sent_at: new Date(),
-      approved_at: new Date(),
-      approved_by: fx.users.customer.id,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
+  const { workOrderId, quoteId } = await insertQuotedJob(db, fx, {
+    number: n,
+    title: `Bill job ${n}`,
+    status: "in_build",
+    taxRateBp,
+    odometerKm: 1000,
+    mechanicId: fx.users.mechanic.id,
+    approvedBy: fx.users.customer.id,
+  });
+  const wo = { id: workOrderId };
+  const q = { id: quoteId };
   await db
     .insertInto("quote_lines")
     .values(
