@@ -1,6 +1,7 @@
 // Every benchmark in one go (`npm run bench`). Each prints its own table of figures; nothing here
 // passes or fails on a number.
 import { print as printAuditLog, run as auditLog } from "./audit-log";
+import { print as printPaint, run as paint } from "./bench-paint";
 import { print as printPrecache, run as precache } from "./bench-precache";
 import { print as printReviewYear, run as reviewYear } from "./review-year";
 import { run as calcBuildSheet } from "./calc-build-sheet";
@@ -22,4 +23,6 @@ console.log("\n== a job's copy per sync: whole vs only what changed");
 printSnapshotDelta(await snapshotDelta());
 console.log("\n== the bench's service worker precache and first load (from the last build)");
 printPrecache(precache());
+console.log("\n== the bench's first paint in Chromium: first load and reopened offline (needs the app running)");
+printPaint(await paint());
 process.exit(0);
