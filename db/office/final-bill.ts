@@ -6,6 +6,7 @@ import { mayIssueBill } from "@/lib/office/extra-work";
 import { billChoicesSchema, type BillChoicesInput } from "@/lib/office/extra-work-schemas";
 import { BillTooLarge, buildBill, type BillChoices, type BillInput, type BillSourceLine, type FittedPart } from "@/lib/money/final-bill";
 import { appendAudit } from "../audit/append";
+import { lockWorkOrder } from "../shop/work-orders";
 import { hoursOfJob } from "../bench/clocks";
 import { supplementsOf } from "./supplements";
 import type { Database } from "../schema";
@@ -134,14 +135,7 @@ export async function issueBillIn(
   choices: BillChoicesInput,
   opts: { refuseIfIssued: boolean },
 ) {
-  const wo = await trx
-    .selectFrom("work_orders")
-    .select(["id", "status"])
-    .where("id", "=", workOrderId)
-    .where("shop_id", "=", shopId)
-    .forUpdate()
-    .executeTakeFirst();
-  if (!wo) throw new Refusal("No such work order in this shop.", 404);
+  const wo = await lockWorkOrder(trx, shopId, workOrderId);
   const existing = await trx.selectFrom("invoices").selectAll().where("work_order_id", "=", workOrderId).executeTakeFirst();
   if (existing) {
     if (opts.refuseIfIssued)

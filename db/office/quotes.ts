@@ -6,7 +6,7 @@ import { Refusal } from "@/lib/errors";
 import { isQuotable } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
-import { moveWorkOrder } from "../shop/work-orders";
+import { lockWorkOrder, moveWorkOrder } from "../shop/work-orders";
 import { DEPOSIT_COLUMNS } from "./deposits";
 
 // Saves the office's draft quote for a work order: replaces the open draft's lines, or starts a
@@ -14,14 +14,7 @@ import { DEPOSIT_COLUMNS } from "./deposits";
 export async function saveQuoteDraft(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, input: QuoteDraftInput) {
   const d = quoteDraftSchema.parse(input);
   return db.transaction().execute(async (trx) => {
-    const wo = await trx
-      .selectFrom("work_orders")
-      .select(["id", "status"])
-      .where("id", "=", workOrderId)
-      .where("shop_id", "=", shopId)
-      .forUpdate()
-      .executeTakeFirst();
-    if (!wo) throw new Refusal("No such work order in this shop.", 404);
+    const wo = await lockWorkOrder(trx, shopId, workOrderId);
     if (!isQuotable(wo.status)) throw new Refusal("A quote can be written only before the customer approves one.", 409);
     const shop = await trx.selectFrom("shops").select(["tax_rate_bp", "currency"]).where("id", "=", shopId).executeTakeFirstOrThrow();
     const totals = quoteTotals(d.lines, shop.tax_rate_bp);

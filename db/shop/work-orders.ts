@@ -182,7 +182,8 @@ export async function bookInWith(trx: Trx, shopId: string, userId: string, i: Re
   return { ...wo, intakeNoteId: note.id };
 }
 
-async function lockWorkOrder(trx: Trx, shopId: string, id: string) {
+/** The shop's work order, locked for a change inside the caller's transaction; 404 when the shop has none by that id. */
+export async function lockWorkOrder(trx: Trx, shopId: string, id: string) {
   const wo = await trx
     .selectFrom("work_orders")
     .select(["id", "status", "assigned_mechanic_id as mechanicId", "number"])
