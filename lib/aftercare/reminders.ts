@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { wallClockIn } from "../format/dates";
 import { safeText } from "../safe-values";
 
 // Reminders after handover: run-in check and first service, due on a date and optionally at an
@@ -14,9 +15,7 @@ export function addDays(day: string, days: number): string {
 
 /** Today in a time zone, as YYYY-MM-DD. */
 export function dayIn(timeZone: string, at: Date = new Date()): string {
-  const parts = new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).formatToParts(at);
-  const get = (t: string) => parts.find((p) => p.type === t)!.value;
-  return `${get("year")}-${get("month")}-${get("day")}`;
+  return wallClockIn(timeZone, at).day;
 }
 
 /** A calendar day as people read it: "3 Dec 2026". */
