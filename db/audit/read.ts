@@ -114,10 +114,16 @@ export async function* auditLogBatches(
   range?: AuditRange,
   batch = 500,
 ): AsyncGenerator<AuditRow[]> {
-  const top = await sql<{ id: string | null }>`SELECT max(id)::text AS id FROM audit_log WHERE shop_id = ${shopId}::uuid`.execute(db);
-  const last = top.rows[0]?.id;
-  if (!last) return;
-  let after = "0";
+  // The ids to walk: from the first entry of the range (found through the (shop_id, at) index, so a
+  // month's download of a year's log does not read the eleven months before it) to the newest
+  // entry there was when the download started.
+  const bounds = await sql<{ first: string | null; last: string | null }>`
+    SELECT (SELECT min(id) FROM audit_log WHERE shop_id = ${shopId}::uuid
+              ${range ? sql`AND at >= ${range.from} AND at < ${range.until}` : sql``})::text AS first,
+           (SELECT max(id) FROM audit_log WHERE shop_id = ${shopId}::uuid)::text AS last`.execute(db);
+  const { first, last } = bounds.rows[0] ?? { first: null, last: null };
+  if (!first || !last) return;
+  let after = (BigInt(first) - 1n).toString();
   for (;;) {
     const r = await sql<Raw>`
       SELECT ${columns} FROM ${from}

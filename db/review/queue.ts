@@ -70,10 +70,12 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
   const flagged = openFlagStages
     .map((k) => [k.slice(0, k.indexOf("|")), k.slice(k.indexOf("|") + 1)])
     .filter(([jobProcedureId]) => UUID.test(jobProcedureId));
-  return sql`
-    SELECT ${signOff}, c.out_of_tolerance AS known_out_of_tolerance
-    FROM (
-      SELECT rw.sign_off_id AS id, rw.out_of_tolerance FROM review_waiting rw WHERE rw.shop_id = ${shopId}::uuid
+  const table = sql`SELECT rw.sign_off_id AS id, rw.out_of_tolerance FROM review_waiting rw WHERE rw.shop_id = ${shopId}::uuid`;
+  // no stage with open flagged work (the usual case): the table alone, a smaller query to plan
+  const candidates =
+    flagged.length === 0
+      ? table
+      : sql`${table}
       UNION ALL
       SELECT newest.id, NULL::int
       FROM unnest(${flagged.map((f) => f[0])}::uuid[], ${flagged.map((f) => f[1])}::text[]) AS f(job_procedure_id, stage_key)
@@ -83,8 +85,10 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
           AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = s.id)
         ORDER BY o.seq DESC LIMIT 1
       ) newest
-      WHERE NOT EXISTS (SELECT 1 FROM review_waiting rw WHERE rw.job_procedure_id = f.job_procedure_id AND rw.stage_key = f.stage_key)
-    ) c
+      WHERE NOT EXISTS (SELECT 1 FROM review_waiting rw WHERE rw.job_procedure_id = f.job_procedure_id AND rw.stage_key = f.stage_key)`;
+  return sql`
+    SELECT ${signOff}, c.out_of_tolerance AS known_out_of_tolerance
+    FROM (${candidates}) c
     JOIN sign_offs s ON s.id = c.id
     JOIN operations o ON o.id = s.id
     JOIN work_orders w ON w.id = s.work_order_id
@@ -93,8 +97,10 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
 
 function waiting(shopId: string, openFlagStages: readonly string[], source: QueueSource) {
   return sql`
-    WITH latest AS (${latest(shopId, openFlagStages, source)}),
-    p AS (
+    -- MATERIALIZED: each part is planned on its own (the queue is small, so nothing is lost by not
+    -- folding the parts together, and planning the folded query took longer than running it)
+    WITH latest AS MATERIALIZED (${latest(shopId, openFlagStages, source)}),
+    p AS MATERIALIZED (
       SELECT l.*, w.number, w.title AS job_title, b.make, b.model, b.tag_code, u.name AS mechanic_name,
         st.stage_title, v.name AS procedure_name,
         -- kept in review_waiting; worked out here for the other candidates
@@ -150,33 +156,38 @@ export async function pageReviewQueue(
 ): Promise<{ rows: QueueRow[]; total: number }> {
   const order = sql.raw(`${SORT_SQL[o.sort]} ${o.dir === "asc" ? "ASC" : "DESC"} NULLS LAST, q.seq DESC`);
   const w = waiting(shopId, await stagesWithOpenFlags(db, shopId), source);
-  const [count, rows] = await Promise.all([
-    sql<{ n: number }>`${w} SELECT count(*)::int AS n FROM q WHERE ${filters(o)}`.execute(db),
-    sql<{
-      id: string;
-      work_order_id: string;
-      number: number;
-      job_title: string;
-      make: string;
-      model: string;
-      tag_code: string;
-      stage_key: string;
-      stage_title: string;
-      procedure_name: string;
-      signed_by: string;
-      mechanic_name: string;
-      device_time: Date;
-      received_at: Date;
-      flag_reason: string | null;
-      out_of_tolerance: number;
-      resubmitted: boolean;
-      back_after_approval: "flagged" | "out_of_tolerance" | null;
-      job_status: WorkOrderStatus;
-      handed_over_with_open_items: boolean;
-    }>`${w} SELECT * FROM q WHERE ${filters(o)} ORDER BY ${order} LIMIT ${o.size} OFFSET ${o.page * o.size}`.execute(db),
-  ]);
+  // one query for the page and the number of matches (a window count, computed before LIMIT): the
+  // queue's plan is costly to make, so it is made once; a page past the end counts separately
+  const rows = await sql<{
+    id: string;
+    work_order_id: string;
+    number: number;
+    job_title: string;
+    make: string;
+    model: string;
+    tag_code: string;
+    stage_key: string;
+    stage_title: string;
+    procedure_name: string;
+    signed_by: string;
+    mechanic_name: string;
+    device_time: Date;
+    received_at: Date;
+    flag_reason: string | null;
+    out_of_tolerance: number;
+    resubmitted: boolean;
+    back_after_approval: "flagged" | "out_of_tolerance" | null;
+    job_status: WorkOrderStatus;
+    handed_over_with_open_items: boolean;
+    total: number;
+  }>`${w} SELECT *, count(*) OVER ()::int AS total FROM q WHERE ${filters(o)} ORDER BY ${order} LIMIT ${o.size} OFFSET ${o.page * o.size}`.execute(
+    db,
+  );
+  const total =
+    rows.rows[0]?.total ??
+    (o.page > 0 ? ((await sql<{ n: number }>`${w} SELECT count(*)::int AS n FROM q WHERE ${filters(o)}`.execute(db)).rows[0]?.n ?? 0) : 0);
   return {
-    total: count.rows[0]?.n ?? 0,
+    total,
     rows: rows.rows.map((r) => ({
       signOffId: r.id,
       workOrderId: r.work_order_id,

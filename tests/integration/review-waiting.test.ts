@@ -20,6 +20,8 @@ async function queueFrom(shopId: string, source: QueueSource) {
     outOfTolerance: await page({ outOfTolerance: "yes" }),
     inTolerance: await page({ outOfTolerance: "no" }),
     byJob: await page({ sort: "job", dir: "asc" }),
+    // a page past the end: no rows, and still the number of matches
+    pastEnd: await page({ page: "40" }),
     count: await countReviewQueue(db, shopId, source),
   };
 }
@@ -28,6 +30,8 @@ async function queueFrom(shopId: string, source: QueueSource) {
 async function expectAgreement(shopId: string) {
   const fromTable = await queueFrom(shopId, "waiting");
   expect(fromTable).toEqual(await queueFrom(shopId, "history"));
+  expect(fromTable.pastEnd).toEqual({ rows: [], total: fromTable.count });
+  expect(fromTable.all.total).toBe(fromTable.count);
   return fromTable;
 }
 

@@ -6,6 +6,7 @@ import { benchDb } from "@/lib/client/bench-db";
 import { deviceId as readDeviceId } from "@/lib/client/device-id";
 import { useBayLight } from "./bay-light";
 import { BenchContext, type BenchUser } from "./bench-context";
+import { BenchShell } from "./bench-shell";
 import { useHashRoute } from "./hash-route";
 import { HomeScreen } from "./home-screen";
 import { JobScreen } from "./job-screen";
@@ -39,7 +40,7 @@ function BenchRoot({ user }: { user: BenchUser }) {
   const route = useHashRoute();
   const [bayLight, toggleBayLight] = useBayLight();
   const value = useMemo(() => (author ? { user, db, author, syncNow } : null), [user, db, author, syncNow]);
-  if (!value) return <p className="p-6 text-xl">Opening the bench…</p>;
+  if (!value) return <BenchShell />;
   return (
     <BenchContext.Provider value={value}>
       <div data-bay={bayLight} data-testid="bench-root" className="flex flex-1 flex-col bg-paper text-ink">
