@@ -1,19 +1,21 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { api } from "./api-client";
 import { buttonClass, inputClass } from "./form-field";
+import { Outcome, useSubmit } from "./use-submit";
 
-// An action that needs a reason on record (cancel a booking, let go of stock put aside): a button
-// opens a one-field form; the reason is posted as `{ reason }` to `url` and the page refreshed. A
-// refusal shows its message under the form.
+// An action that needs a reason on record (cancel a booking, let go of stock put aside, retire a
+// resource): a button opens a one-field form; the reason is posted as `{ reason }` to `url` and the
+// page refreshed. A refusal shows each field's message under the form.
 export function ReasonAction({
   url,
   openText,
   openLabel,
   question,
   submitText,
+  done = "",
+  testId = "reason",
 }: {
   url: string;
   /** The button that opens the form ("Cancel booking…"). */
@@ -23,10 +25,16 @@ export function ReasonAction({
   /** The reason field's label ("Why cancel?"). */
   question: string;
   submitText: string;
+  /** What to say once done (nothing by default: the refreshed page shows it). */
+  done?: string;
+  /** Names the outcome's test ids (`<testId>-error`, `<testId>-ok`). */
+  testId?: string;
 }) {
-  const router = useRouter();
   const [open, setOpen] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const s = useSubmit(async (f) => {
+    await api("POST", url, { reason: String(f.get("reason") ?? "") });
+    return done;
+  });
   if (!open)
     return (
       <button
@@ -39,28 +47,15 @@ export function ReasonAction({
       </button>
     );
   return (
-    <form
-      noValidate
-      className="flex flex-wrap items-end gap-2"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        setError(null);
-        try {
-          await api("POST", url, { reason: String(new FormData(e.currentTarget).get("reason") ?? "") });
-          router.refresh();
-        } catch (err) {
-          setError((err as Error).message);
-        }
-      }}
-    >
+    <form noValidate className="flex flex-wrap items-end gap-2" onSubmit={s.onSubmit}>
       <label className="flex flex-col text-base font-bold">
         {question}
         <input name="reason" maxLength={500} className={inputClass} />
       </label>
-      <button type="submit" className={buttonClass}>
+      <button type="submit" disabled={s.busy} className={buttonClass}>
         {submitText}
       </button>
-      {error && <p className="w-full font-bold text-fail">✖ {error}</p>}
+      <Outcome error={s.error} ok={s.ok} testId={testId} />
     </form>
   );
 }

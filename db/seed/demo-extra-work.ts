@@ -1,10 +1,10 @@
 import bcrypt from "bcryptjs";
 import type { Kysely } from "kysely";
-import { quoteTotals } from "@/lib/money/quote-totals";
 import type { Database } from "../schema";
 import { DEMO_PASSWORD } from "./demo-people";
 import { insertDemoBike } from "./demo-bike";
 import { demoUserId, firstTemplateVersionId } from "./demo-lookups";
+import { insertQuotedDemoJob } from "./demo-quoted-job";
 
 // Invented jobs for extra work and the final bill (and the browser test of them): work orders
 // 1073–1074, tags GSW-1073…GSW-1074, bikes of the invented customer Wren Ashby (who signs in as
@@ -52,76 +52,29 @@ export async function seedDemoExtraWork(db: Kysely<Database>, shopId: string): P
       customer_id: customer.id,
     })
     .execute();
-  const shop = await db.selectFrom("shops").select(["tax_rate_bp", "currency"]).where("id", "=", shopId).executeTakeFirstOrThrow();
-  const totals = quoteTotals(
-    LINES.map((l) => ({ quantityHundredths: l.qty, unitPriceMinor: l.price })),
-    shop.tax_rate_bp,
-  );
   for (const b of BIKES) {
     const bikeId = await insertDemoBike(db, shopId, customer.id, b);
-    const wo = await db
-      .insertInto("work_orders")
-      .values({
-        shop_id: shopId,
-        bike_id: bikeId,
-        number: b.number,
-        title: "Bottom-end rebuild after a spun bearing",
-        status: "in_build",
-        complaint: "Knock from the bottom end under load; wants it rebuilt.",
-        intake_odometer_km: 30_000 + b.number,
-        assigned_mechanic_id: tomasId,
-        closed_at: null,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    await db
-      .insertInto("work_order_transitions")
-      .values({ work_order_id: wo.id, from_status: null, to_status: "in_build", by_user_id: officeId, note: "demo data" })
-      .execute();
-    await db.insertInto("job_procedures").values({ work_order_id: wo.id, template_version_id: bottomEndVersionId, position: 0 }).execute();
-    const quote = await db
-      .insertInto("quotes")
-      .values({
-        shop_id: shopId,
-        work_order_id: wo.id,
-        version: 1,
-        status: "approved",
-        currency: shop.currency,
-        tax_rate_bp: shop.tax_rate_bp,
-        subtotal_minor: totals.subtotalMinor,
-        tax_minor: totals.taxMinor,
-        total_minor: totals.totalMinor,
-        deposit_minor: DEPOSIT,
-        created_by: officeId,
-        sent_at: new Date(),
-        approved_at: new Date(),
-        approved_by: null,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    await db
-      .insertInto("quote_lines")
-      .values(
-        LINES.map((l, i) => ({
-          quote_id: quote.id,
-          position: i,
-          kind: l.kind,
-          description: l.description,
-          part_number: l.partNumber,
-          quantity_hundredths: l.qty,
-          unit_price_minor: l.price,
-          line_total_minor: totals.lineTotals[i],
-        })),
-      )
-      .execute();
+    const { workOrderId, quoteId, currency } = await insertQuotedDemoJob(db, {
+      shopId,
+      bikeId,
+      number: b.number,
+      title: "Bottom-end rebuild after a spun bearing",
+      complaint: "Knock from the bottom end under load; wants it rebuilt.",
+      odometerKm: 30_000 + b.number,
+      mechanicId: tomasId,
+      officeId,
+      templateVersionId: bottomEndVersionId,
+      lines: LINES,
+      depositMinor: DEPOSIT,
+    });
     await db
       .insertInto("deposits")
       .values({
         shop_id: shopId,
-        work_order_id: wo.id,
-        quote_id: quote.id,
+        work_order_id: workOrderId,
+        quote_id: quoteId,
         amount_minor: DEPOSIT,
-        currency: shop.currency,
+        currency,
         status: "paid",
         payment_intent_id: null,
         paid_at: new Date(),
@@ -132,7 +85,7 @@ export async function seedDemoExtraWork(db: Kysely<Database>, shopId: string): P
       .insertInto("parts_fitted")
       .values({
         shop_id: shopId,
-        work_order_id: wo.id,
+        work_order_id: workOrderId,
         step_id: null,
         part_number: "GS-OF-204",
         description: "Oil filter",

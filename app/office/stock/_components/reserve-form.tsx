@@ -5,6 +5,7 @@ import { useState } from "react";
 import { api } from "@/app/ui/api-client";
 import { buttonClass, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import { ReasonAction } from "@/app/ui/reason-action";
+import { refusalText } from "@/app/ui/use-submit";
 
 // Puts some of one lot aside for a job (by its number); refused with the reason when that much is not free.
 export function ReserveForm({ lotId, label }: { lotId: string; label: string }) {
@@ -39,7 +40,7 @@ export function ReserveForm({ lotId, label }: { lotId: string; label: string }) 
           setOpen(false);
           router.refresh();
         } catch (err) {
-          setError((err as Error).message);
+          setError(refusalText(err));
         }
       }}
     >

@@ -1,56 +1,16 @@
 "use client";
 
-import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
-import { api, ApiError } from "@/app/ui/api-client";
+import { useState } from "react";
+import { api } from "@/app/ui/api-client";
 import { buttonClass, inputClass } from "@/app/ui/form-field";
+import { ReasonAction } from "@/app/ui/reason-action";
+import { Outcome, useSubmit } from "@/app/ui/use-submit";
 import { RESOURCE_KIND_LABELS, RESOURCE_KINDS, WEEKDAY_LABELS } from "@/lib/calendar/rules";
 
 // The forms of the resources page. Every refusal comes back from the server in workshop words and
 // is shown as it is; nothing is kept in the page that the server did not store.
 
 const label = "flex flex-col gap-1 text-base font-bold";
-
-function useSubmit(send: (f: FormData) => Promise<string>) {
-  const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const [ok, setOk] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  const onSubmit = async (e: FormEvent<HTMLFormElement>) => {
-    e.preventDefault();
-    const form = e.currentTarget;
-    setBusy(true);
-    setError(null);
-    setOk(null);
-    try {
-      setOk(await send(new FormData(form)));
-      router.refresh();
-    } catch (err) {
-      // the form marks no fields: say each field's problem in words instead of "check the marked fields"
-      const each = err instanceof ApiError ? err.issues.map((i) => i.message) : [];
-      setError(each.length ? each.join(" ") : (err as Error).message);
-    } finally {
-      setBusy(false);
-    }
-  };
-  return { error, ok, busy, onSubmit };
-}
-
-function Outcome({ error, ok, testId }: { error: string | null; ok: string | null; testId: string }) {
-  if (error)
-    return (
-      <p role="alert" data-testid={`${testId}-error`} className="font-bold text-fail md:col-span-2">
-        ✖ {error}
-      </p>
-    );
-  if (ok)
-    return (
-      <p role="status" data-testid={`${testId}-ok`} className="font-bold text-pass md:col-span-2">
-        ✔ {ok}
-      </p>
-    );
-  return null;
-}
 
 export function OpeningHoursForm(props: { opensAt: string; closesAt: string; openDays: number[] }) {
   const s = useSubmit(async (f) => {
@@ -146,32 +106,15 @@ export function AddResourceForm({ mechanics }: { mechanics: Array<{ id: string; 
 }
 
 export function RetireResource({ resourceId, name }: { resourceId: string; name: string }) {
-  const [open, setOpen] = useState(false);
-  const s = useSubmit(async (f) => {
-    await api("POST", `/api/office/resources/${resourceId}/retire`, { reason: String(f.get("reason") ?? "") });
-    return `${name} retired.`;
-  });
-  if (!open)
-    return (
-      <button
-        type="button"
-        onClick={() => setOpen(true)}
-        aria-label={`Retire ${name}…`}
-        className="min-h-12 rounded-lg border-2 border-steel-700 px-4 text-base font-bold"
-      >
-        Retire…
-      </button>
-    );
   return (
-    <form noValidate onSubmit={s.onSubmit} className="flex flex-wrap items-end gap-2">
-      <label className={label}>
-        Why retire {name}?
-        <input name="reason" maxLength={500} className={inputClass} />
-      </label>
-      <button type="submit" disabled={s.busy} className={buttonClass}>
-        Retire it
-      </button>
-      <Outcome error={s.error} ok={s.ok} testId="retire" />
-    </form>
+    <ReasonAction
+      url={`/api/office/resources/${resourceId}/retire`}
+      openText="Retire…"
+      openLabel={`Retire ${name}…`}
+      question={`Why retire ${name}?`}
+      submitText="Retire it"
+      done={`${name} retired.`}
+      testId="retire"
+    />
   );
 }
