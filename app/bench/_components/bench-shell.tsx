@@ -7,12 +7,13 @@ const nothing = () => undefined;
 /**
  * What the bench shows before its own code has loaded: the first screen with its keypad, rendered
  * on the server (and kept by the service worker), so a tablet paints it from the page itself. It
- * takes no taps (inert, and marked disabled for assistive technology) until the bench replaces it.
+ * takes no taps (pointer events off, and marked disabled and busy for assistive technology, its
+ * heading still read) until the bench replaces it.
  */
 export function BenchShell({ failed, onRetry }: { failed?: boolean; onRetry?: () => void }) {
   return (
     <div data-testid="bench-shell" className="flex flex-1 flex-col bg-paper text-ink">
-      <div className="no-print flex min-h-[68px] items-center border-b-4 border-steel-900 bg-steel-100 px-4 py-2 text-lg font-bold">
+      <div role="status" className="no-print flex min-h-[68px] items-center border-b-4 border-steel-900 bg-steel-100 px-4 py-2 text-lg font-bold">
         {failed ? "" : "Opening the bench…"}
       </div>
       {failed && (
@@ -26,7 +27,7 @@ export function BenchShell({ failed, onRetry }: { failed?: boolean; onRetry?: ()
           </button>
         </div>
       )}
-      <div inert aria-disabled="true" aria-busy="true" className="flex-1">
+      <div aria-disabled="true" aria-busy="true" className="pointer-events-none flex-1">
         <HomeView jobs={null} busy={false} onScan={nothing} onOpenTag={nothing} onOpenJob={nothing} />
       </div>
     </div>
