@@ -95,23 +95,25 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
     WHERE w.shop_id = ${shopId}::uuid`;
 }
 
-function waiting(shopId: string, openFlagStages: readonly string[], source: QueueSource) {
-  return sql`
-    -- MATERIALIZED: each part is planned on its own (the queue is small, so nothing is lost by not
-    -- folding the parts together, and planning the folded query took longer than running it)
-    WITH latest AS MATERIALIZED (${latest(shopId, openFlagStages, source)}),
-    p AS MATERIALIZED (
-      SELECT l.*, w.number, w.title AS job_title, b.make, b.model, b.tag_code, u.name AS mechanic_name,
-        st.stage_title, v.name AS procedure_name,
+/**
+ * The queue as CTEs ending in `q`. `display`: with what the page shows (job, bike, mechanic, stage,
+ * procedure, history); without it (the count), only what decides whether a sign-off waits.
+ */
+function waiting(shopId: string, openFlagStages: readonly string[], source: QueueSource, display = true) {
+  const outOfTolerance = sql`
         -- kept in review_waiting; worked out here for the other candidates
         COALESCE(l.known_out_of_tolerance, (SELECT count(*) FROM current_measurements cm JOIN template_steps ts ON ts.id = cm.step_id
            WHERE cm.work_order_id = l.work_order_id AND ts.template_version_id = jp.template_version_id
              AND ts.stage_key = l.stage_key AND cm.verdict <> 'in'
              AND NOT EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id)))::int AS out_of_tolerance,
+        (SELECT d.decision FROM review_decisions d WHERE d.sign_off_id = l.id ORDER BY d.change_seq DESC LIMIT 1) AS standing,
+        (l.job_procedure_id::text || '|' || l.stage_key) = ANY(${[...openFlagStages]}::text[]) AS open_flags`;
+  const p = display
+    ? sql`
+      SELECT l.*, w.number, w.title AS job_title, b.make, b.model, b.tag_code, u.name AS mechanic_name,
+        st.stage_title, v.name AS procedure_name, ${outOfTolerance},
         EXISTS (SELECT 1 FROM review_decisions d JOIN sign_offs e ON e.id = d.sign_off_id
            WHERE e.job_procedure_id = l.job_procedure_id AND e.stage_key = l.stage_key AND d.decision = 'sent_back') AS resubmitted,
-        (SELECT d.decision FROM review_decisions d WHERE d.sign_off_id = l.id ORDER BY d.change_seq DESC LIMIT 1) AS standing,
-        (l.job_procedure_id::text || '|' || l.stage_key) = ANY(${[...openFlagStages]}::text[]) AS open_flags,
         w.status AS job_status,
         EXISTS (SELECT 1 FROM status_overrides so WHERE so.work_order_id = l.work_order_id AND so.to_status = 'handed_over')
           AS handed_over_with_open_items
@@ -122,7 +124,16 @@ function waiting(shopId: string, openFlagStages: readonly string[], source: Queu
       JOIN job_procedures jp ON jp.id = l.job_procedure_id
       JOIN template_versions v ON v.id = jp.template_version_id
       JOIN LATERAL (SELECT stage_title FROM template_steps ts WHERE ts.template_version_id = jp.template_version_id
-                    AND ts.stage_key = l.stage_key LIMIT 1) st ON true
+                    AND ts.stage_key = l.stage_key LIMIT 1) st ON true`
+    : sql`
+      SELECT l.id, ${outOfTolerance}
+      FROM latest l
+      JOIN job_procedures jp ON jp.id = l.job_procedure_id`;
+  return sql`
+    -- MATERIALIZED: each part is planned on its own (the queue is small, so nothing is lost by not
+    -- folding the parts together, and planning the folded query took longer than running it)
+    WITH latest AS MATERIALIZED (${latest(shopId, openFlagStages, source)}),
+    p AS MATERIALIZED (${p}
     ),
     q AS (
       SELECT p.*, CASE WHEN p.standing IS NULL THEN NULL WHEN p.open_flags THEN 'flagged' ELSE 'out_of_tolerance' END AS back_after_approval
@@ -215,7 +226,7 @@ export async function pageReviewQueue(
 
 /** How many sign-offs wait for review in the shop (the navigation shows it). */
 export async function countReviewQueue(db: Kysely<Database>, shopId: string, source: QueueSource = "waiting"): Promise<number> {
-  const w = waiting(shopId, await stagesWithOpenFlags(db, shopId), source);
+  const w = waiting(shopId, await stagesWithOpenFlags(db, shopId), source, false);
   const r = await sql<{ n: number }>`${w} SELECT count(*)::int AS n FROM q`.execute(db);
   return r.rows[0]?.n ?? 0;
 }
