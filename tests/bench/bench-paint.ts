@@ -3,10 +3,14 @@
  * on a first load (no HTTP cache, no service worker, over a shop-Wi-Fi-like link: 20 Mbit/s down,
  * 5 up, 40 ms round trip — our choice of profile), and on reopening it offline from the worker's
  * precache; then a deck clearance typed on the number keypad, tap by tap, timed from the
- * click to the entry and its verdict in the page and to the next frame. Needs the app running (the e2e server: `bash tests/e2e/serve.sh`, or
- * BENCH_APP_URL); without one it says so and measures nothing. Median of a few runs; figures only.
+ * click to the entry and its verdict in the page and to the next frame. Uses the app running at
+ * BENCH_APP_URL or on E2E_PORT; with none, starts the e2e server from the last build (and stops
+ * it after); with no build either, it says so and measures nothing. Median of a few runs;
+ * figures only.
  * `npx tsx tests/bench/bench-paint.ts`
  */
+import { spawn } from "node:child_process";
+import fs from "node:fs";
 import { pathToFileURL } from "node:url";
 import { chromium, type Page } from "@playwright/test";
 import { DEMO_PASSWORD, DEMO_USERS } from "@/db/seed/demo-people";
@@ -81,8 +85,28 @@ async function reachable(): Promise<boolean> {
   }
 }
 
+/**
+ * Runs `body` with the app answering: the one already running, or (when there is a build and no
+ * BENCH_APP_URL) the e2e server started here for the measurement and stopped after it.
+ */
+async function withApp<T>(body: () => Promise<T>): Promise<T | null> {
+  if (await reachable()) return body();
+  if (process.env.BENCH_APP_URL || !fs.existsSync(".next/BUILD_ID")) return null;
+  console.log("  (starting the e2e server from the last build for this measurement)");
+  const server = spawn("bash", ["tests/e2e/serve.sh"], { detached: true, stdio: "ignore" });
+  try {
+    for (let i = 0; i < 120 && !(await reachable()); i++) await new Promise((r) => setTimeout(r, 1000));
+    return (await reachable()) ? await body() : null;
+  } finally {
+    if (server.pid) process.kill(-server.pid, "SIGTERM");
+  }
+}
+
 export async function run(): Promise<PaintFigures | null> {
-  if (!(await reachable())) return null;
+  return withApp(measure);
+}
+
+async function measure(): Promise<PaintFigures> {
   const mechanic = DEMO_USERS.find((u) => u.role === "mechanic")!;
   const browser = await chromium.launch({ executablePath: "/usr/bin/chromium", args: ["--no-sandbox"] });
   const figures: PaintFigures = { firstLoadLcpMs: [], offlineLcpMs: [], lcpElement: "", taps: [] };
@@ -141,7 +165,7 @@ export async function run(): Promise<PaintFigures | null> {
 
 export function print(f: PaintFigures | null): void {
   if (!f) {
-    console.log(`no app answering at ${APP}: start it (bash tests/e2e/serve.sh after npm run build) to measure the bench's paint`);
+    console.log(`no app answering at ${APP} and no build to start one from: run \`npm run build\` first to measure the bench's paint`);
     return;
   }
   const ms = (xs: number[]) => `${median(xs).toFixed(0)} ms (runs: ${xs.map((x) => x.toFixed(0)).join(", ")})`;

@@ -23,6 +23,8 @@ console.log("\n== a job's copy per sync: whole vs only what changed");
 printSnapshotDelta(await snapshotDelta());
 console.log("\n== the bench's service worker precache and first load (from the last build)");
 printPrecache(precache());
-console.log("\n== the bench's first paint in Chromium: first load and reopened offline (needs the app running)");
+console.log(
+  "\n== the bench's first paint in Chromium: first load, reopened offline, keypad taps (the running app, or the last build served for it)",
+);
 printPaint(await paint());
 process.exit(0);
