@@ -27,12 +27,30 @@ async function copyIn(query: QueryFn, text: string, values: unknown) {
   return { command: "COPY", rowCount: stream.rowCount, rows: [] };
 }
 
-/** One value in COPY's text format: NULL as \N; backslash, tab, line feed and carriage return escaped. */
+const SPECIAL = /[\\\t\n\r]/;
+const ESCAPES: Record<string, string> = { "\\": "\\\\", "\t": "\\t", "\n": "\\n", "\r": "\\r" };
+
+/** A text in COPY's text format: backslash, tab, line feed and carriage return escaped (most texts hold none: no copy made). */
+function copyText(text: string): string {
+  return SPECIAL.test(text) ? text.replace(/[\\\t\n\r]/g, (c) => ESCAPES[c]) : text;
+}
+
+/** One value in COPY's text format: NULL as \N; objects as their JSON, dates as ISO, texts escaped. */
 function copyValue(v: unknown): string {
-  if (v === null || v === undefined) return "\\N";
-  if (typeof v === "boolean") return v ? "t" : "f";
-  const text = typeof v === "string" ? v : v instanceof Date ? v.toISOString() : typeof v === "object" ? JSON.stringify(v) : String(v);
-  return text.replace(/[\\\t\n\r]/g, (c) => (c === "\\" ? "\\\\" : c === "\t" ? "\\t" : c === "\n" ? "\\n" : "\\r"));
+  switch (typeof v) {
+    case "string":
+      return copyText(v);
+    case "number":
+    case "bigint":
+      return String(v);
+    case "boolean":
+      return v ? "t" : "f";
+    case "undefined":
+      return "\\N";
+    default:
+      if (v === null) return "\\N";
+      return copyText(v instanceof Date ? v.toISOString() : typeof v === "object" ? JSON.stringify(v) : String(v));
+  }
 }
 
 /**
@@ -47,7 +65,11 @@ export async function copyRows(
   rows: readonly unknown[][],
 ): Promise<void> {
   if (!rows.length) return;
-  const data = rows.map((r) => r.map(copyValue).join("\t")).join("\n") + "\n";
+  let data = "";
+  for (const row of rows) {
+    for (let i = 0; i < row.length; i++) data += (i ? "\t" : "") + copyValue(row[i]);
+    data += "\n";
+  }
   const name = (id: string) => `"${id.replaceAll('"', '""')}"`;
   await db.executeQuery(CompiledQuery.raw(`${COPY_MARK}COPY ${name(table)} (${columns.map(name).join(", ")}) FROM STDIN`, [data]));
 }
