@@ -7,7 +7,8 @@ import { from as copyFrom } from "pg-copy-streams";
 // Loading many rows by PostgreSQL's COPY (pg-copy-streams), through Kysely, inside whatever
 // transaction the caller holds. Kysely hands a query's text and values to the pool's client; a
 // client set up by `acceptCopyRows` (createDb does it for every connection) runs a text that
-// starts with COPY_MARK as `COPY … FROM STDIN`, streaming its one value as the data.
+// starts with COPY_MARK as `COPY … FROM STDIN`, streaming its one value (the data, as an iterable
+// of text chunks) to the server.
 
 const COPY_MARK = "/* benchtag: copy from stdin */ ";
 
@@ -21,9 +22,9 @@ export function acceptCopyRows(client: pg.ClientBase): void {
 }
 
 async function copyIn(query: QueryFn, text: string, values: unknown) {
-  const [data] = values as [string];
+  const [data] = values as [Iterable<string>];
   const stream = query(copyFrom(text)) as ReturnType<typeof copyFrom>;
-  await pipeline(Readable.from([Buffer.from(data, "utf8")]), stream);
+  await pipeline(Readable.from(data), stream);
   return { command: "COPY", rowCount: stream.rowCount, rows: [] };
 }
 
@@ -53,10 +54,26 @@ function copyValue(v: unknown): string {
   }
 }
 
+/** Rows per chunk of COPY data: the server parses and stores one chunk while the next is being written. */
+const CHUNK_ROWS = 250;
+
+/** `rows` in COPY's text format, `CHUNK_ROWS` rows at a time, each made only when the stream asks for it. */
+function* copyChunks(rows: readonly unknown[][]): Generator<string> {
+  for (let start = 0; start < rows.length; start += CHUNK_ROWS) {
+    let chunk = "";
+    for (const row of rows.slice(start, start + CHUNK_ROWS)) {
+      for (let i = 0; i < row.length; i++) chunk += (i ? "\t" : "") + copyValue(row[i]);
+      chunk += "\n";
+    }
+    yield chunk;
+  }
+}
+
 /**
  * COPY `rows` into `table` (`columns` in the rows' order): one round trip, no parameters, no JSON
  * to parse on the server. Objects go in as their JSON text (for json/jsonb columns), dates as ISO.
- * Runs on `db`'s connection, so in its transaction when `db` is one.
+ * Runs on `db`'s connection, so in its transaction when `db` is one. The data is streamed in
+ * chunks, so the server works on the first rows while the later ones are still being written.
  */
 export async function copyRows(
   db: Pick<Kysely<unknown>, "executeQuery">,
@@ -65,11 +82,8 @@ export async function copyRows(
   rows: readonly unknown[][],
 ): Promise<void> {
   if (!rows.length) return;
-  let data = "";
-  for (const row of rows) {
-    for (let i = 0; i < row.length; i++) data += (i ? "\t" : "") + copyValue(row[i]);
-    data += "\n";
-  }
   const name = (id: string) => `"${id.replaceAll('"', '""')}"`;
-  await db.executeQuery(CompiledQuery.raw(`${COPY_MARK}COPY ${name(table)} (${columns.map(name).join(", ")}) FROM STDIN`, [data]));
+  await db.executeQuery(
+    CompiledQuery.raw(`${COPY_MARK}COPY ${name(table)} (${columns.map(name).join(", ")}) FROM STDIN`, [copyChunks(rows)]),
+  );
 }
