@@ -13,10 +13,10 @@ import { sql, type Kysely } from "kysely";
 // - deleting a shop, user or work order the log names, or changing its id, is refused (the
 //   foreign key's NO ACTION side). Nothing in the application deletes them; this keeps the log
 //   from ever pointing at nothing all the same.
-// Also: the indexes (shop_id, at) and (work_order_id, at) go. The log is read by (shop_id, id) and
-// (work_order_id, id) (db/audit/read.ts) and the time range is a filter on those; the one query by
-// time, a job's last assignment (db/sync/context.ts), gets a partial index holding only the
-// assignments, which the merge's entries never touch.
+// Also: the index (work_order_id, at) goes. A job's entries are read by (work_order_id, id)
+// (db/audit/read.ts); the one query of a job's entries by time, its last assignment
+// (db/sync/context.ts), gets a partial index holding only the assignments, which the merge's
+// entries never enter. (shop_id, at) stays: the export finds a range's first entry through it.
 
 const references = [
   { table: "shops", column: "shop_id" },
@@ -98,7 +98,7 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     `.execute(db);
   }
   await sql`
-    DROP INDEX audit_log_shop_idx, audit_log_job_idx;
+    DROP INDEX audit_log_job_idx;
     CREATE INDEX audit_log_assign_idx ON audit_log (work_order_id, at) WHERE action = 'work_order.assign';
   `.execute(db);
 }
@@ -106,7 +106,6 @@ export async function up(db: Kysely<unknown>): Promise<void> {
 export async function down(db: Kysely<unknown>): Promise<void> {
   await sql`
     DROP INDEX IF EXISTS audit_log_assign_idx;
-    CREATE INDEX IF NOT EXISTS audit_log_shop_idx ON audit_log (shop_id, at);
     CREATE INDEX IF NOT EXISTS audit_log_job_idx ON audit_log (work_order_id, at);
   `.execute(db);
   for (const { table } of references) {
