@@ -19,10 +19,29 @@ import { sql, type Kysely } from "kysely";
 // entries never enter. (shop_id, at) stays: the export finds a range's first entry through it.
 
 const references = [
-  { table: "shops", column: "shop_id" },
-  { table: "users", column: "actor_id" },
-  { table: "work_orders", column: "work_order_id" },
+  { table: "shops", column: "shop_id", what: "a shop" },
+  { table: "users", column: "actor_id", what: "a user" },
+  { table: "work_orders", column: "work_order_id", what: "a work order" },
 ] as const;
+
+// The trigger functions' bodies, one block per reference (names from the list above, no input).
+const namedIds = references.map((r) => `${r.column}s uuid[];`).join("\n");
+const collectIds = `SELECT ${references.map((r) => `array_agg(DISTINCT ${r.column}) FILTER (WHERE ${r.column} IS NOT NULL)`).join(", ")}
+  INTO ${references.map((r) => `${r.column}s`).join(", ")} FROM added;`;
+const checkIds = references
+  .map(
+    (r) => `IF ${r.column}s IS NOT NULL THEN
+  PERFORM 1 FROM ${r.table} WHERE id = ANY(${r.column}s) FOR KEY SHARE;
+  GET DIAGNOSTICS found = ROW_COUNT;
+  IF found < cardinality(${r.column}s) THEN
+    RAISE EXCEPTION 'audit_log names ${r.what} that does not exist' USING ERRCODE = 'foreign_key_violation';
+  END IF;
+END IF;`,
+  )
+  .join("\n");
+const isNamed = references
+  .map((r) => `IF TG_TABLE_NAME = '${r.table}' THEN named := EXISTS (SELECT 1 FROM audit_log WHERE ${r.column} = OLD.id); END IF;`)
+  .join("\n");
 
 export async function up(db: Kysely<unknown>): Promise<void> {
   await sql`
@@ -34,36 +53,11 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     -- After a statement adds entries: every shop, user and work order they name exists (locked as a foreign key locks it).
     CREATE FUNCTION benchtag_audit_log_references() RETURNS trigger LANGUAGE plpgsql AS $$
     DECLARE
-      shop_ids uuid[];
-      user_ids uuid[];
-      job_ids uuid[];
+      ${sql.raw(namedIds)}
       found bigint;
     BEGIN
-      SELECT array_agg(DISTINCT shop_id) FILTER (WHERE shop_id IS NOT NULL),
-             array_agg(DISTINCT actor_id) FILTER (WHERE actor_id IS NOT NULL),
-             array_agg(DISTINCT work_order_id) FILTER (WHERE work_order_id IS NOT NULL)
-        INTO shop_ids, user_ids, job_ids FROM added;
-      IF shop_ids IS NOT NULL THEN
-        PERFORM 1 FROM shops WHERE id = ANY(shop_ids) FOR KEY SHARE;
-        GET DIAGNOSTICS found = ROW_COUNT;
-        IF found < cardinality(shop_ids) THEN
-          RAISE EXCEPTION 'audit_log names a shop that does not exist' USING ERRCODE = 'foreign_key_violation';
-        END IF;
-      END IF;
-      IF user_ids IS NOT NULL THEN
-        PERFORM 1 FROM users WHERE id = ANY(user_ids) FOR KEY SHARE;
-        GET DIAGNOSTICS found = ROW_COUNT;
-        IF found < cardinality(user_ids) THEN
-          RAISE EXCEPTION 'audit_log names a user that does not exist' USING ERRCODE = 'foreign_key_violation';
-        END IF;
-      END IF;
-      IF job_ids IS NOT NULL THEN
-        PERFORM 1 FROM work_orders WHERE id = ANY(job_ids) FOR KEY SHARE;
-        GET DIAGNOSTICS found = ROW_COUNT;
-        IF found < cardinality(job_ids) THEN
-          RAISE EXCEPTION 'audit_log names a work order that does not exist' USING ERRCODE = 'foreign_key_violation';
-        END IF;
-      END IF;
+      ${sql.raw(collectIds)}
+      ${sql.raw(checkIds)}
       RETURN NULL;
     END $$;
     CREATE TRIGGER audit_log_references AFTER INSERT ON audit_log
@@ -74,15 +68,9 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     -- committed meanwhile (it held the row FOR KEY SHARE) is seen.
     CREATE FUNCTION benchtag_audit_log_referenced() RETURNS trigger LANGUAGE plpgsql AS $$
     DECLARE
-      named boolean;
+      named boolean := false;
     BEGIN
-      IF TG_TABLE_NAME = 'shops' THEN
-        named := EXISTS (SELECT 1 FROM audit_log WHERE shop_id = OLD.id);
-      ELSIF TG_TABLE_NAME = 'users' THEN
-        named := EXISTS (SELECT 1 FROM audit_log WHERE actor_id = OLD.id);
-      ELSE
-        named := EXISTS (SELECT 1 FROM audit_log WHERE work_order_id = OLD.id);
-      END IF;
+      ${sql.raw(isNamed)}
       IF named THEN
         RAISE EXCEPTION '% % is named by the audit log: % refused', TG_TABLE_NAME, OLD.id, TG_OP USING ERRCODE = 'foreign_key_violation';
       END IF;
