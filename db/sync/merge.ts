@@ -18,8 +18,8 @@ import type { AuditEntry } from "../audit/append";
 import { planStockDraws, writeStockDraws } from "../stock/draw";
 import type { Database } from "../schema";
 import { changesSince } from "./changes";
-import { existingOperations, loadWorkOrderFacts, loadMergeState } from "./context";
-import { heldForTargets, heldOnFile, holdOperations, resolveHeld, type HeldOperation } from "./pending";
+import { loadWorkOrderFacts, loadMergeState } from "./context";
+import { batchOnFile, heldForTargets, holdOperations, resolveHeld, type HeldOperation } from "./pending";
 import { appendAuditBatch, applyFirstOverrides, lockShopForSync, refusalsOnRecord, writeKept, type KeptOperation } from "./write";
 
 /** A refusal to audit: the operation (or the storable copy of a malformed one), who sent it and why. */
@@ -49,14 +49,19 @@ async function heldForRecordsOf(
   ops: readonly Operation[],
   looked: Set<string>,
   seen: Set<string>,
+  /** Held operations already read for every record `ops` create (the first round, read with the batch's ids). */
+  waitingForOps: readonly HeldOperation[],
 ): Promise<HeldOperation[]> {
   const out: HeldOperation[] = [];
   let targets = ops.flatMap(targetsCreated);
-  for (;;) {
+  for (let round = 0; ; round++) {
     const query = targets.filter((t) => !looked.has(t));
     if (!query.length) return out;
     for (const t of query) looked.add(t);
-    const found = await heldForTargets(trx, shopId, query, seen);
+    const asked = new Set(query);
+    const found = round
+      ? await heldForTargets(trx, shopId, query, seen)
+      : waitingForOps.filter((h) => asked.has(h.target.id) && !seen.has(h.op.id));
     for (const h of found) seen.add(h.op.id);
     out.push(...found);
     targets = found.flatMap((h) => targetsCreated(h.op));
@@ -103,7 +108,17 @@ export async function mergeBatch(
     // The same id twice in one batch counts once.
     const byId = new Map<string, Operation>();
     for (const op of batch.operations) if (!byId.has(op.id)) byId.set(op.id, op);
-    const [onFile, heldBefore] = await Promise.all([existingOperations(trx, [...byId.keys()]), heldOnFile(trx, [...byId.keys()])]);
+    const ids = [...byId.keys()];
+    const {
+      onFile,
+      held: heldBefore,
+      waiting: waitingForBatch,
+    } = await batchOnFile(
+      trx,
+      actor.shopId,
+      ids,
+      [...byId.values()].flatMap(targetsCreated).filter((t) => !byId.has(t)),
+    );
 
     const duplicates: string[] = [];
     const refused: Refused[] = [];
@@ -133,7 +148,7 @@ export async function mergeBatch(
     // Operations held by earlier batches for a record this batch brings (and for what those bring in turn).
     const looked = new Set<string>();
     const seen = new Set<string>();
-    const filed = await heldForRecordsOf(trx, actor.shopId, ordered, looked, seen);
+    const filed = await heldForRecordsOf(trx, actor.shopId, ordered, looked, seen, waitingForBatch);
     const fromFile = new Set(filed.map((h) => h.op.id));
     const jobIds = new Set([
       ...ordered.map((o) => o.workOrderId),

@@ -79,4 +79,16 @@ describe("copyRows", () => {
     await db.transaction().execute((trx) => copyRows(trx, "copy_checked", ["n"], [[2], [3]]));
     expect((await sql<{ n: number }>`SELECT sum(n)::int AS n FROM copy_checked`.execute(db)).rows[0].n).toBe(5);
   });
+
+  it("streams many rows in chunks: all of them land in order, and a refused row in an early chunk fails the statement and nothing of it stays", async () => {
+    await sql`CREATE TABLE IF NOT EXISTS copy_many (n int NOT NULL CHECK (n <> 7), t text)`.execute(db);
+    const rows = Array.from({ length: 2_000 }, (_, i) => [i + 10, `row ${i}\twith a tab`]);
+    await expect(
+      db.transaction().execute((trx) => copyRows(trx, "copy_many", ["n", "t"], [[1, "a"], [7, "refused"], ...rows])),
+    ).rejects.toThrow(/copy_many/);
+    expect((await sql<{ n: number }>`SELECT count(*)::int AS n FROM copy_many`.execute(db)).rows[0].n).toBe(0);
+    await db.transaction().execute((trx) => copyRows(trx, "copy_many", ["n", "t"], rows));
+    const got = await sql<{ n: number; t: string }>`SELECT n, t FROM copy_many ORDER BY n`.execute(db);
+    expect(got.rows.map((r) => [r.n, r.t])).toEqual(rows);
+  });
 });
