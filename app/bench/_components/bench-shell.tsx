@@ -13,7 +13,10 @@ const nothing = () => undefined;
 export function BenchShell({ failed, onRetry }: { failed?: boolean; onRetry?: () => void }) {
   return (
     <div data-testid="bench-shell" className="flex flex-1 flex-col bg-paper text-ink">
-      <div role="status" className="no-print flex min-h-[68px] items-center border-b-4 border-steel-900 bg-steel-100 px-4 py-2 text-lg font-bold">
+      <div
+        role="status"
+        className="no-print flex min-h-[68px] items-center border-b-4 border-steel-900 bg-steel-100 px-4 py-2 text-lg font-bold"
+      >
         {failed ? "" : "Opening the bench…"}
       </div>
       {failed && (
