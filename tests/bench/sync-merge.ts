@@ -48,6 +48,8 @@ export interface BenchFigures {
   backlog: { sentOperations: number; receivedChanges: number; requests: number; ms: number };
   /** 1-minute load average before and after (other work on the machine inflates every figure). */
   loadAverage: { before: number; after: number; cpus: number };
+  /** The cluster's durability settings (the test cluster runs with both off; COPY is measured on the same cluster). */
+  durability: { fsync: string; synchronousCommit: string };
 }
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
@@ -196,6 +198,10 @@ export async function run(): Promise<BenchFigures> {
       sizes,
       backlog: { sentOperations: outbox.length, receivedChanges: received, requests, ms },
       loadAverage: { before: loadBefore, after: os.loadavg()[0], cpus: os.cpus().length },
+      durability: (
+        await sql<{ fsync: string; synchronousCommit: string }>`
+          SELECT current_setting('fsync') AS fsync, current_setting('synchronous_commit') AS "synchronousCommit"`.execute(db)
+      ).rows[0],
     };
   } finally {
     await db.destroy();
@@ -234,7 +240,11 @@ export function print(f: BenchFigures): void {
     `10,000-operation backlog through the HTTP handler: sent ${b.sentOperations.toLocaleString("en")} operations, received ${b.receivedChanges.toLocaleString("en")} changes in ${b.requests} requests: ${b.ms.toFixed(0)} ms`,
   );
   const l = f.loadAverage;
-  console.log(`Machine: ${l.cpus} CPUs, load average ${l.before.toFixed(1)} before / ${l.after.toFixed(1)} after\n`);
+  console.log(`Machine: ${l.cpus} CPUs, load average ${l.before.toFixed(1)} before / ${l.after.toFixed(1)} after`);
+  console.log(
+    `PostgreSQL: fsync ${f.durability.fsync}, synchronous_commit ${f.durability.synchronousCommit} ` +
+      `(the scripts' test cluster runs with both off; TEST_DATABASE_URL can name a database on a cluster that has them on)\n`,
+  );
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
