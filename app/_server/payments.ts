@@ -1,5 +1,6 @@
 import "server-only";
 import Stripe from "stripe";
+import { Refusal } from "@/lib/errors";
 import { officeConfig } from "./office-config";
 
 // The payment provider through the Stripe SDK, pointed by STRIPE_API_BASE at the real API or at
@@ -36,7 +37,16 @@ export async function startBalancePayment(d: PaymentStart & { balancePaymentId: 
   return startPayment(d, `balance-${d.balancePaymentId}`, { balance_payment_id: d.balancePaymentId, invoice_id: d.invoiceId });
 }
 
+/** Starts the payment; the provider's failure is refused (409) with its reason, in one place for deposits and balances. */
 async function startPayment(d: PaymentStart, key: string, metadata: Record<string, string>) {
+  try {
+    return await createIntent(d, key, metadata);
+  } catch (e) {
+    throw new Refusal(`The payment service did not take the payment: ${(e as Error).message}`, 409);
+  }
+}
+
+async function createIntent(d: PaymentStart, key: string, metadata: Record<string, string>) {
   const cfg = officeConfig();
   const stripe = paymentsClient();
   const intent = await stripe.paymentIntents.create(
