@@ -7,6 +7,7 @@ import { BillTable, type ShownBillLine } from "@/app/ui/bill-table";
 import { buttonClass, FormMessage } from "@/app/ui/form-field";
 import type { IssuedBill } from "@/db/office/final-bill";
 import { formatMinor } from "@/lib/money/quote-totals";
+import { PaymentStatus } from "./payment-status";
 
 // The customer's issued bill: every line (declined ones marked, not billed), labour as quoted or as
 // clocked, the deposit taken off, and the balance paid through the payment service.
@@ -58,21 +59,12 @@ export function CustomerBill({ bill }: { bill: Wire<IssuedBill> }) {
             Pay the balance ({formatMinor(balance, c)})
           </button>
         )}
-        {status === "failed" && (
-          <p role="alert" className="text-lg font-bold text-fail" data-testid="balance-status">
-            ✖ The payment was declined; nothing was taken. You can try again.
-          </p>
-        )}
-        {paymentId && status === "pending" && (
-          <p role="status" className="text-lg font-bold text-warn" data-testid="balance-status">
-            … Payment sent; waiting for the payment service to confirm.
-          </p>
-        )}
-        {status === "paid" && (
-          <p role="status" className="text-lg font-bold text-pass" data-testid="balance-status">
-            ✔ Balance paid. Thank you — a receipt is on its way by e-mail.
-          </p>
-        )}
+        <PaymentStatus
+          status={status}
+          sent={Boolean(paymentId)}
+          paidText="Balance paid. Thank you — a receipt is on its way by e-mail."
+          testId="balance-status"
+        />
       </div>
       <FormMessage error={error} />
     </div>

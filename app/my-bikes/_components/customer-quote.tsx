@@ -7,6 +7,7 @@ import { formatMinor } from "@/lib/money/quote-totals";
 import { api } from "@/app/ui/api-client";
 import type { CustomerQuoteView } from "@/db/office/quotes";
 import { buttonClass, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
+import { PaymentStatus } from "./payment-status";
 
 const qty = (h: number) => (h % 100 === 0 ? String(h / 100) : (h / 100).toFixed(2));
 
@@ -116,21 +117,7 @@ export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
             Pay the deposit ({formatMinor(quote.depositMinor, c)})
           </button>
         )}
-        {failed && (
-          <p role="alert" className="text-lg font-bold text-fail" data-testid="deposit-status">
-            ✖ The payment was declined; nothing was taken. You can try again.
-          </p>
-        )}
-        {depositId && depositStatus === "pending" && (
-          <p role="status" className="text-lg font-bold text-warn" data-testid="deposit-status">
-            … Payment sent; waiting for the payment service to confirm.
-          </p>
-        )}
-        {depositStatus === "paid" && (
-          <p role="status" className="text-lg font-bold text-pass" data-testid="deposit-status">
-            ✔ Deposit paid. Thank you.
-          </p>
-        )}
+        <PaymentStatus status={depositStatus} sent={Boolean(depositId)} paidText="Deposit paid. Thank you." testId="deposit-status" />
       </div>
       {declining && !quote.declined && (
         <div className="mt-3 flex flex-wrap items-end gap-4">
