@@ -9,7 +9,7 @@ import { ApiError } from "./api-client";
 // each field's own ("Reason: say why, at least 3 characters") rather than "Check the marked fields".
 
 /** The refusal in words: each field's message when the server named fields, else its message. */
-export function refusalText(err: unknown): string {
+function refusalText(err: unknown): string {
   const each = err instanceof ApiError ? err.issues.map((i) => i.message) : [];
   return each.length ? each.join(" ") : err instanceof Error ? err.message : String(err);
 }

@@ -1,17 +1,23 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { api } from "@/app/ui/api-client";
 import { buttonClass, inputClass, quietButtonClass } from "@/app/ui/form-field";
 import { ReasonAction } from "@/app/ui/reason-action";
-import { refusalText } from "@/app/ui/use-submit";
+import { Outcome, useSubmit } from "@/app/ui/use-submit";
 
 // Puts some of one lot aside for a job (by its number); refused with the reason when that much is not free.
 export function ReserveForm({ lotId, label }: { lotId: string; label: string }) {
-  const router = useRouter();
   const [open, setOpen] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const s = useSubmit(async (f) => {
+    await api("POST", "/api/office/stock/reservations", {
+      lotId,
+      workOrderNumber: Number(String(f.get("job") ?? "").replace(/^#/, "")),
+      quantity: Number(f.get("quantity")),
+    });
+    setOpen(false);
+    return "";
+  });
   if (!open)
     return (
       <button
@@ -24,26 +30,7 @@ export function ReserveForm({ lotId, label }: { lotId: string; label: string }) 
       </button>
     );
   return (
-    <form
-      noValidate
-      className="flex flex-wrap items-end gap-2"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        setError(null);
-        const f = new FormData(e.currentTarget);
-        try {
-          await api("POST", "/api/office/stock/reservations", {
-            lotId,
-            workOrderNumber: Number(String(f.get("job") ?? "").replace(/^#/, "")),
-            quantity: Number(f.get("quantity")),
-          });
-          setOpen(false);
-          router.refresh();
-        } catch (err) {
-          setError(refusalText(err));
-        }
-      }}
-    >
+    <form noValidate className="flex flex-wrap items-end gap-2" onSubmit={s.onSubmit}>
       <label className="flex flex-col text-base font-bold">
         Job number
         <input name="job" inputMode="numeric" className={`${inputClass} w-28`} />
@@ -55,11 +42,7 @@ export function ReserveForm({ lotId, label }: { lotId: string; label: string }) 
       <button type="submit" className={buttonClass}>
         Put aside
       </button>
-      {error && (
-        <p role="alert" className="w-full font-bold text-fail">
-          ✖ {error}
-        </p>
-      )}
+      <Outcome error={s.error} ok={s.ok} testId="reserve" />
     </form>
   );
 }
