@@ -13,7 +13,7 @@ import os from "node:os";
 import { pathToFileURL } from "node:url";
 import type { Kysely } from "kysely";
 import { auditCsvResponse } from "@/app/_server/audit-csv-response";
-import { spreadAuditOverYear, yearAgoDay, YEAR_DAYS } from "./back-date";
+import { spreadAuditOverYear, yearAgoDay, SPREAD_DAYS } from "./back-date";
 import { appendAudit, type AuditEntry } from "@/db/audit/append";
 import { pageAuditLog } from "@/db/audit/read";
 import type { Database } from "@/db/schema";
@@ -146,7 +146,7 @@ export function print(f: Awaited<ReturnType<typeof run>>): void {
     [demo.yearCsvRows, large.yearCsvRows],
     [demo.yearCsvBytes, large.yearCsvBytes],
   );
-  console.log(`(each log spread evenly over the ${YEAR_DAYS} days before today)`);
+  console.log(`(each log spread evenly over the ${SPREAD_DAYS} days before now, so a year's download, today included, holds it all)`);
   console.log(
     `load average ${f.loadAverage.before.toFixed(2)} → ${f.loadAverage.after.toFixed(2)} on ${f.loadAverage.cpus} cpus (other work inflates every figure)`,
   );

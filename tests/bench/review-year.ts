@@ -16,7 +16,7 @@ import { countReviewQueue, pageReviewQueue, type QueueSource } from "@/db/review
 import type { Database } from "@/db/schema";
 import { auditQuerySchema, queueQuerySchema } from "@/lib/review/list-queries";
 import { timedCsv } from "./audit-log";
-import { spreadAuditOverYear, yearAgoDay, YEAR_DAYS } from "./back-date";
+import { spreadAuditOverYear, yearAgoDay, SPREAD_DAYS } from "./back-date";
 import { withThrowawayDb } from "./throwaway-db";
 import { generateShop, YEAR, type GeneratedShop } from "./year-of-work";
 
@@ -126,7 +126,7 @@ export function print(f: Awaited<ReturnType<typeof run>>): void {
     );
   csvLine("audit CSV, last 30 days", demo.csv, year.csv);
   csvLine("audit CSV, the whole year", demo.yearCsv, year.yearCsv);
-  console.log(`(each shop's audit entries spread evenly over the ${YEAR_DAYS} days before today: the writers stamp them when written)`);
+  console.log(`(each shop's audit entries spread evenly over the ${SPREAD_DAYS} days before now: the writers stamp them when written)`);
   console.log("Targets at a year's data (printed, not tested): queue, count and filter ≤ 20 ms; audit page ≤ 20 ms.");
   console.log(
     `load average ${f.loadAverage.before.toFixed(2)} → ${f.loadAverage.after.toFixed(2)} on ${f.loadAverage.cpus} cpus (other work inflates every figure)`,
