@@ -17,11 +17,12 @@ const optional = (label: string, max: number) =>
     .optional()
     .transform((s) => (s ? s : undefined));
 
-const wholeCount = (label: string, min: number, max: number) =>
+/** A whole count from `min` to `max`; `belowMin` says why less is refused (default: "cannot be below"). */
+const wholeCount = (label: string, min: number, max: number, belowMin = `${label} cannot be below ${min}.`) =>
   z
     .number({ error: `${label} must be a whole number from ${min} to ${max.toLocaleString("en-GB")}.` })
     .int(`${label} must be a whole number from ${min} to ${max.toLocaleString("en-GB")}.`)
-    .min(min, min === 1 ? `${label} must be at least 1: a delivery cannot take stock away.` : `${label} cannot be below ${min}.`)
+    .min(min, belowMin)
     .max(max, `${label} must be at most ${max.toLocaleString("en-GB")}.`);
 
 export const deliveryLineSchema = z
@@ -31,7 +32,7 @@ export const deliveryLineSchema = z
     location: safeText({ label: "Shelf", min: 1, max: LOCATION_MAX, tooShort: "Shelf: say where the parts are put away." }),
     batch: optional("Batch number", PART_TEXT_LIMITS.batch),
     serial: optional("Serial number", PART_TEXT_LIMITS.serial),
-    quantity: wholeCount("Quantity", 1, MAX_RECEIPT_QUANTITY),
+    quantity: wholeCount("Quantity", 1, MAX_RECEIPT_QUANTITY, "Quantity must be at least 1: a delivery cannot take stock away."),
     lowStockAt: wholeCount("Low-stock level", 0, MAX_RECEIPT_QUANTITY).optional(),
   })
   .strict()
@@ -65,7 +66,7 @@ export const reservationSchema = z
       .int("Job must be a job number.")
       .min(1, "Job must be a job number.")
       .max(2_147_483_647, "Job must be a job number."),
-    quantity: wholeCount("Quantity", 1, MAX_RECEIPT_QUANTITY),
+    quantity: wholeCount("Quantity", 1, MAX_RECEIPT_QUANTITY, "Quantity must be at least 1: put aside one part or more."),
   })
   .strict();
 export type ReservationInput = z.infer<typeof reservationSchema>;

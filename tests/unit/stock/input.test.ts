@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { deliverySchema } from "@/lib/stock/input";
+import { deliverySchema, reservationSchema } from "@/lib/stock/input";
 
 // A delivery as the office types it: every refusal names the field and the rule in workshop words.
 
@@ -41,5 +41,14 @@ describe("deliverySchema", () => {
       /^lines\.0\.batch: Batch number holds a NUL character/,
     );
     expect(messages({ supplier: "H", lines: [] })).toEqual(["lines: A delivery needs at least one line."]);
+  });
+});
+
+describe("reservationSchema", () => {
+  it("refuses putting aside less than one part, in words about putting aside (not about a delivery)", () => {
+    const r = reservationSchema.safeParse({ lotId: "7c0c3a52-2d5e-4d7c-9a51-2f1f0b7d8e11", workOrderNumber: 1070, quantity: 0 });
+    expect(r.success ? [] : r.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`)).toEqual([
+      "quantity: Quantity must be at least 1: put aside one part or more.",
+    ]);
   });
 });
