@@ -30,6 +30,9 @@ const nextConfig = {
   serverExternalPackages: ["pdfkit", "pg-boss"],
   // Pages take no body: the proxy copies at most this much of one (proxy.ts never matches /api/).
   experimental: { proxyClientMaxBodySize: 64 * 1024 },
+  // html5-qrcode's decoder imports a 1.1 MB ZXing build with every barcode format; a bike's tag is
+  // a QR code, so that import is served the QR reader alone (app/bench/_scanner/zxing-qr-only.ts).
+  turbopack: { resolveAlias: { "../third_party/zxing-js.umd": "./app/bench/_scanner/zxing-qr-only.ts" } },
   // The service worker (public/sw.js) is built by `serwist build` after `next build`.
   async headers() {
     return [

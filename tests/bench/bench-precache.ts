@@ -22,6 +22,33 @@ interface PrecacheFigures {
   afterPaintJsGzip: number;
   /** The precache by part, raw bytes: boot scripts, the QR scanner's chunk, the bench's other scripts, styles. */
   parts: { boot: number; scanner: number; bench: number; styles: number };
+  /** Every entry of the worker's precache list (scripts, styles, fonts, icons, the offline page), raw bytes, and how many. */
+  listBytes: number;
+  listEntries: number;
+}
+
+// The precache when issue 17 was filed, as `serwist build` printed it then ("2.29 MB", decimal units):
+// the fixed "today's bytes" its 40 % target is counted against.
+const PRECACHE_WHEN_FILED = 2.29e6;
+
+/** The worker's precache list as built (public/sw.js), each entry's file size: the figure `serwist build` prints. */
+function precacheList(): { bytes: number; entries: number } | null {
+  if (!fs.existsSync("public/sw.js")) return null;
+  const urls = new Set(
+    [...fs.readFileSync("public/sw.js", "utf8").matchAll(/\{revision:[^{}]*?url:"([^"]+)"\}|\{url:"([^"]+)",revision:[^{}]*?\}/g)].map(
+      (m) => m[1] ?? m[2],
+    ),
+  );
+  let bytes = 0;
+  for (const url of urls) {
+    const file = url.startsWith("/_next/")
+      ? path.join(DIST, url.slice("/_next/".length))
+      : fs.existsSync(path.join("public", url))
+        ? path.join("public", url)
+        : path.join(DIST, "server/app", `${url}.html`);
+    bytes += fs.statSync(file).size;
+  }
+  return { bytes, entries: urls.size };
 }
 
 // The QR scanner's chunk (html5-qrcode and the ZXing decoder it bundles), loaded when the scan screen opens.
@@ -40,7 +67,10 @@ export function run(): PrecacheFigures | null {
   const scanner = bench.filter((f) => f.endsWith(".js") && isScanner(fs.readFileSync(path.join(DIST, f), "utf8")));
   const afterPaint = bench.filter((f) => f.endsWith(".js") && !firstLoad.includes(f) && !scanner.includes(f));
   const sum = (files: string[]) => files.reduce((n, f) => n + size(f), 0);
+  const list = precacheList();
   return {
+    listBytes: list?.bytes ?? 0,
+    listEntries: list?.entries ?? 0,
     allChunkBytes: all.reduce((n, f) => n + size(`static/chunks/${f}`), 0),
     allChunks: all.length,
     precacheChunkBytes: bench.reduce((n, f) => n + size(f), 0),
@@ -63,9 +93,14 @@ export function print(f: PrecacheFigures | null): void {
     return;
   }
   const kb = (n: number) => `${(n / 1024).toFixed(0)} kB`;
+  const mb = (n: number) => `${(n / 1e6).toFixed(2)} MB`;
+  console.log(
+    `The worker's whole precache list: ${f.listEntries} entries, ${mb(f.listBytes)} (scripts, styles, fonts, icons, the offline page), ` +
+      `${((100 * f.listBytes) / PRECACHE_WHEN_FILED).toFixed(0)} % of the ${mb(PRECACHE_WHEN_FILED)} precached when issue 17 was filed (target at most 40 %)`,
+  );
   console.log(
     `Precached scripts and styles: ${f.precacheChunks} of ${f.allChunks} chunks, ${kb(f.precacheChunkBytes)} of ${kb(f.allChunkBytes)} ` +
-      `(${((100 * f.precacheChunkBytes) / f.allChunkBytes).toFixed(0)} % of the whole; target at most 40 %)`,
+      `(${((100 * f.precacheChunkBytes) / f.allChunkBytes).toFixed(0)} % of every script and style of this build)`,
   );
   console.log(
     `  of which: React and the Next.js runtime ${kb(f.parts.boot)}, the QR scanner ${kb(f.parts.scanner)}, ` +

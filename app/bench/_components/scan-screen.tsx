@@ -18,12 +18,17 @@ export function ScanScreen() {
   const done = useRef(false);
 
   useEffect(() => {
-    let scanner: import("html5-qrcode").Html5Qrcode | null = null;
+    let scanner: import("html5-qrcode/esm/html5-qrcode").Html5Qrcode | null = null;
     let cancelled = false;
     (async () => {
-      const { Html5Qrcode } = await import("html5-qrcode");
+      // the camera-and-decoder class alone, not the package's index with its own scanner UI and images
+      const [{ Html5Qrcode }, { Html5QrcodeSupportedFormats }] = await Promise.all([
+        import("html5-qrcode/esm/html5-qrcode"),
+        import("html5-qrcode/esm/core"),
+      ]);
       if (cancelled) return;
-      scanner = new Html5Qrcode(READER_ID, false);
+      // a bike's tag is a QR code, and the decoder is built for QR codes only (app/bench/_scanner/)
+      scanner = new Html5Qrcode(READER_ID, { verbose: false, formatsToSupport: [Html5QrcodeSupportedFormats.QR_CODE] });
       try {
         await scanner.start(
           { facingMode: "environment" },
