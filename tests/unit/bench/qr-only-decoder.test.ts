@@ -2,6 +2,8 @@ import BarcodeFormat from "@zxing/library/esm/core/BarcodeFormat";
 import EncodeHintType from "@zxing/library/esm/core/EncodeHintType";
 import RGBLuminanceSource from "@zxing/library/esm/core/RGBLuminanceSource";
 import QRCodeWriter from "@zxing/library/esm/core/qrcode/QRCodeWriter";
+import { readFileSync } from "node:fs";
+import { createRequire } from "node:module";
 import { describe, expect, it } from "vitest";
 import * as ZXing from "@/app/bench/_scanner/zxing-qr-only";
 
@@ -47,5 +49,25 @@ describe("the scanner's QR-only decoder", () => {
   it("asked for other formats only, reads nothing, even from a QR code", () => {
     const reader = new ZXing.MultiFormatReader(false, hintsFor([ZXing.BarcodeFormat.CODE_128]));
     expect(() => reader.decode(frameOf("GSW-0003"))).toThrow();
+  });
+});
+
+describe("the alias that hands html5-qrcode this decoder", () => {
+  // If an update of html5-qrcode moved or renamed its ZXing import, the alias in next.config.mjs
+  // would stop applying and the 1.1 MB build would be bundled again without a word: checked here.
+  const decoderFile = createRequire(import.meta.url).resolve("html5-qrcode/esm/zxing-html5-qrcode-decoder.js");
+  const decoder = readFileSync(decoderFile, "utf8");
+  const config = readFileSync(new URL("../../../next.config.mjs", import.meta.url), "utf8");
+
+  it("names the very import html5-qrcode's decoder makes", () => {
+    const imported = /import \* as ZXing from "([^"]+)"/.exec(decoder)?.[1];
+    expect(imported).toBe("../third_party/zxing-js.umd");
+    expect(config).toContain(`"${imported}": "./app/bench/_scanner/zxing-qr-only.ts"`);
+  });
+
+  it("gives every name the decoder takes from ZXing", () => {
+    const used = new Set([...decoder.matchAll(/ZXing\.([A-Za-z]+)/g)].map((m) => m[1]));
+    expect(used.size).toBeGreaterThan(0);
+    for (const name of used) expect(ZXing, name).toHaveProperty(name);
   });
 });
