@@ -8,6 +8,7 @@ import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 import { lockWorkOrder, moveWorkOrder } from "../shop/work-orders";
 import { DEPOSIT_COLUMNS } from "./deposits";
+import { pricedLineRow } from "./price-lines";
 
 // Saves the office's draft quote for a work order: replaces the open draft's lines, or starts a
 // new version (a sent quote is never edited; revising one supersedes it when the new one is sent).
@@ -55,18 +56,7 @@ export async function saveQuoteDraft(db: Kysely<Database>, shopId: string, userI
     await trx.deleteFrom("quote_lines").where("quote_id", "=", draft.id).execute();
     await trx
       .insertInto("quote_lines")
-      .values(
-        d.lines.map((l, i) => ({
-          quote_id: draft.id,
-          position: i,
-          kind: l.kind,
-          description: l.description,
-          part_number: l.partNumber,
-          quantity_hundredths: l.quantityHundredths,
-          unit_price_minor: l.unitPriceMinor,
-          line_total_minor: totals.lineTotals[i],
-        })),
-      )
+      .values(d.lines.map((l, i) => ({ quote_id: draft.id, ...pricedLineRow(l, i, totals.lineTotals[i]) })))
       .execute();
     await trx
       .updateTable("quotes")

@@ -8,6 +8,7 @@ import { amountFor } from "@/lib/money/final-bill";
 import { decisionsSchema, supplementSchema, type DecisionsInput, type SupplementInput } from "@/lib/office/extra-work-schemas";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
+import { pricedLineRow } from "./price-lines";
 
 // Extra work found while the bike is being built: the office writes a supplement (finding, photos,
 // parts and labour lines), the customer answers each line once — approve or decline, with a comment —
@@ -77,18 +78,7 @@ export async function writeSupplement(db: Kysely<Database>, shopId: string, user
       .executeTakeFirstOrThrow();
     await trx
       .insertInto("supplement_lines")
-      .values(
-        s.lines.map((l, i) => ({
-          supplement_id: sup.id,
-          position: i,
-          kind: l.kind,
-          description: l.description,
-          part_number: l.partNumber,
-          quantity_hundredths: l.quantityHundredths,
-          unit_price_minor: l.unitPriceMinor,
-          line_total_minor: amountFor(l.quantityHundredths, l.unitPriceMinor),
-        })),
-      )
+      .values(s.lines.map((l, i) => ({ supplement_id: sup.id, ...pricedLineRow(l, i, amountFor(l.quantityHundredths, l.unitPriceMinor)) })))
       .execute();
     if (s.photoIds.length)
       await trx
