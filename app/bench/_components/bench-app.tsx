@@ -1,12 +1,11 @@
 "use client";
 
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
-import { useEffect, useMemo, useState } from "react";
+import { useMemo, useState } from "react";
 import { benchDb } from "@/lib/client/bench-db";
 import { deviceId as readDeviceId } from "@/lib/client/device-id";
 import { useBayLight } from "./bay-light";
 import { BenchContext, type BenchUser } from "./bench-context";
-import { BenchShell } from "./bench-shell";
 import { useHashRoute } from "./hash-route";
 import { HomeScreen } from "./home-screen";
 import { JobScreen } from "./job-screen";
@@ -29,18 +28,16 @@ export function BenchApp({ user }: { user: BenchUser }) {
 
 function BenchRoot({ user }: { user: BenchUser }) {
   const db = useMemo(() => benchDb(user.id), [user.id]);
-  const [device, setDevice] = useState<string | null>(null);
-  useEffect(() => {
-    setDevice(readDeviceId());
-  }, []);
+  // Rendered only in the browser (bench-boot.tsx loads this module after the first paint), so the
+  // device id kept in localStorage is read at once: the first render is already the live bench.
+  const [device] = useState(readDeviceId);
   const { syncing, syncNow } = useBenchSync(db, user.id, device);
   const tabletSession = useSessionWatch(db, user.id, device);
-  const author = useMemo(() => (device ? { userId: user.id, deviceId: device } : null), [user.id, device]);
+  const author = useMemo(() => ({ userId: user.id, deviceId: device }), [user.id, device]);
 
   const route = useHashRoute();
   const [bayLight, toggleBayLight] = useBayLight();
-  const value = useMemo(() => (author ? { user, db, author, syncNow } : null), [user, db, author, syncNow]);
-  if (!value) return <BenchShell />;
+  const value = useMemo(() => ({ user, db, author, syncNow }), [user, db, author, syncNow]);
   return (
     <BenchContext.Provider value={value}>
       <div data-bay={bayLight} data-testid="bench-root" className="flex flex-1 flex-col bg-paper text-ink">
