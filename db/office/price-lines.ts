@@ -1,3 +1,5 @@
+import "server-only";
+
 // What a quote line and an extra-work line have in common: a part or labour, as the office wrote it,
 // priced. Both are stored with the same columns (quote_lines, supplement_lines), written from here.
 
