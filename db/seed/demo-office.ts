@@ -1,12 +1,11 @@
 import type { Kysely } from "kysely";
-import { quoteTotals } from "@/lib/money/quote-totals";
 import type { Database } from "../schema";
+import { insertDemoQuote, type DemoQuoteLine } from "./demo-quote";
 
 // Office records for the invented demo workshop: quotes, deposits, parts with batches, notes,
 // one final invoice. Called from seedDemoShop after the work orders exist.
-type Line = { kind: "part" | "labour"; description: string; partNumber?: string; qty: number; price: number };
 
-const QUOTES: Record<number, { status: "sent" | "approved"; lines: Line[]; deposit: number; paid: boolean }> = {
+const QUOTES: Record<number, { status: "sent" | "approved"; lines: DemoQuoteLine[]; deposit: number; paid: boolean }> = {
   1001: {
     status: "approved",
     paid: true,
@@ -75,52 +74,22 @@ export async function seedDemoOffice(db: Kysely<Database>, shopId: string, offic
 
   for (const [num, q] of Object.entries(QUOTES)) {
     const workOrderId = idOf(Number(num));
-    const t = quoteTotals(
-      q.lines.map((l) => ({ quantityHundredths: l.qty, unitPriceMinor: l.price })),
-      shop.tax_rate_bp,
-    );
-    const quote = await db
-      .insertInto("quotes")
-      .values({
-        shop_id: shopId,
-        work_order_id: workOrderId,
-        version: 1,
-        status: q.status,
-        currency: shop.currency,
-        tax_rate_bp: shop.tax_rate_bp,
-        subtotal_minor: t.subtotalMinor,
-        tax_minor: t.taxMinor,
-        total_minor: t.totalMinor,
-        deposit_minor: q.deposit,
-        created_by: officeUserId,
-        sent_at: new Date(),
-        approved_at: q.status === "approved" ? new Date() : null,
-        approved_by: q.status === "approved" ? await ownerUser(workOrderId) : null,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    await db
-      .insertInto("quote_lines")
-      .values(
-        q.lines.map((l, i) => ({
-          quote_id: quote.id,
-          position: i,
-          kind: l.kind,
-          description: l.description,
-          part_number: l.partNumber ?? null,
-          quantity_hundredths: l.qty,
-          unit_price_minor: l.price,
-          line_total_minor: t.lineTotals[i],
-        })),
-      )
-      .execute();
+    const { id: quoteId, totals: t } = await insertDemoQuote(db, {
+      shop: { id: shopId, ...shop },
+      workOrderId,
+      status: q.status,
+      lines: q.lines,
+      depositMinor: q.deposit,
+      createdBy: officeUserId,
+      approvedBy: q.status === "approved" ? await ownerUser(workOrderId) : null,
+    });
     if (q.paid) {
       await db
         .insertInto("deposits")
         .values({
           shop_id: shopId,
           work_order_id: workOrderId,
-          quote_id: quote.id,
+          quote_id: quoteId,
           amount_minor: q.deposit,
           currency: shop.currency,
           payment_intent_id: `pi_demo_${num}`,
@@ -135,7 +104,7 @@ export async function seedDemoOffice(db: Kysely<Database>, shopId: string, offic
         .values({
           shop_id: shopId,
           work_order_id: workOrderId,
-          quote_id: quote.id,
+          quote_id: quoteId,
           number: 5001,
           currency: shop.currency,
           subtotal_minor: t.subtotalMinor,

@@ -12,7 +12,7 @@ interface QuoteLineInput {
   unitPriceMinor: number;
 }
 
-interface QuoteTotals {
+export interface QuoteTotals {
   lineTotals: number[];
   subtotalMinor: number;
   taxMinor: number;
