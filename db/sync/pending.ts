@@ -38,9 +38,8 @@ type HeldRow = Pick<
   "id" | "operation" | "author_role" | "batch_cursor" | "received_at" | "target_kind" | "target_id" | "reason"
 >;
 
-/** A held row as the merge decides it; null for a row a later wire format no longer reads (it stays held). */
+/** A held row as the merge decides it (stored after the wire format passed it); null for a row a later format no longer reads (it stays held). */
 function heldOperation(r: HeldRow): HeldOperation | null {
-  // Stored after the wire format passed it; a row a later format no longer reads stays held.
   const parsed = operationSchema.safeParse(r.operation);
   if (!parsed.success) return null;
   return {
