@@ -1,10 +1,13 @@
 import "server-only";
 import type { Kysely } from "kysely";
+import { storableCopy } from "@/lib/safe-values";
 import type { Database } from "../schema";
 
 // The unsent work of a tablet whose session the office ended, handed over as it was on the
 // tablet (not merged into the record: nobody signed in stands behind it any more). The office
-// reads it and downloads it; it is kept for good.
+// reads it and downloads it; it is kept for good. Kept as a copy jsonb accepts, whatever the
+// tablet held (a NUL or half of an emoji is written out as its \u escape; nothing is cut short):
+// an entry the server would refuse must not stop the rest from being handed over.
 
 export async function recordOutboxHandover(
   db: Kysely<Database>,
@@ -18,8 +21,8 @@ export async function recordOutboxHandover(
       session_id: h.sessionId,
       device_id: h.deviceId,
       entry_count: h.entries.length,
-      entries: JSON.stringify(h.entries),
-      photos_left: JSON.stringify(h.photosLeft),
+      entries: JSON.stringify(storableCopy(h.entries, Infinity)),
+      photos_left: JSON.stringify(storableCopy(h.photosLeft, Infinity)),
     })
     .returning("id")
     .executeTakeFirstOrThrow();
