@@ -135,3 +135,35 @@ export function storableCopy(value: unknown, maxChars = 16_000): unknown {
   const text = JSON.stringify(copy) ?? "null";
   return text.length <= maxChars ? copy : { truncated: true, text: storableString(text.slice(0, maxChars)) };
 }
+
+/** A text in a request that cannot be stored, where it is and why (in the words of `textProblem`). */
+export interface UnstorableText {
+  path: (string | number)[];
+  message: string;
+}
+
+/**
+ * Every text in `value` (a parsed JSON body, a query, a form's fields; object keys too) that
+ * PostgreSQL or a UTF-8 reader refuses: a NUL, another control character, or a broken character.
+ * Line breaks and tabs are left to each field's own rule. `labelAt` names the field at a path, as
+ * the person sees it. At most `max` are listed; nesting is followed 32 levels deep.
+ */
+export function unstorableTexts(value: unknown, labelAt: (path: (string | number)[]) => string, max = 50): UnstorableText[] {
+  const found: UnstorableText[] = [];
+  const check = (s: string, path: (string | number)[]) => {
+    const message = textProblem(s, { label: labelAt(path), multiline: true });
+    if (message) found.push({ path, message });
+  };
+  const walk = (v: unknown, path: (string | number)[], depth: number): void => {
+    if (found.length >= max || depth > 32) return;
+    if (typeof v === "string") check(v, path);
+    else if (Array.isArray(v)) v.forEach((x, i) => walk(x, [...path, i], depth + 1));
+    else if (v !== null && typeof v === "object")
+      for (const [k, x] of Object.entries(v)) {
+        check(k, [...path, k]);
+        walk(x, [...path, k], depth + 1);
+      }
+  };
+  walk(value, [], 0);
+  return found.slice(0, max);
+}

@@ -161,7 +161,7 @@ export const FIELD_LABELS: FieldLabels = {
 };
 
 /** The label of the field at `path`: its key's label, or "This entry" for a field with none. */
-function fieldLabel(path: ReadonlyArray<PropertyKey>, labels: FieldLabels = {}): string {
+export function fieldLabel(path: ReadonlyArray<PropertyKey>, labels: FieldLabels = {}): string {
   for (let i = path.length - 1; i >= 0; i--) {
     const key = path[i];
     if (typeof key !== "string") continue;

@@ -9,7 +9,8 @@ import { SESSION_STATE_HEADER, type SessionState } from "@/lib/auth/session-life
 import type { SessionUser } from "@/lib/auth/session-user";
 import { isUuid } from "@/lib/ids";
 import { CHECK_THE_FIELDS, DATABASE_NOT_ANSWERING, errorBody, Refusal, UNEXPECTED_FAILURE, type FieldIssue } from "@/lib/errors";
-import { issuesOf, workshopErrors, type FieldLabels } from "@/lib/zod-issues";
+import { unstorableTexts } from "@/lib/safe-values";
+import { fieldLabel, issuesOf, workshopErrors, type FieldLabels } from "@/lib/zod-issues";
 import { readMultipart, type MultipartLimits } from "./multipart";
 import { readLimited, type BodyLimit } from "./request-body";
 import { isSameOrigin, NOT_FROM_OUR_PAGES } from "./same-origin";
@@ -41,6 +42,7 @@ export type BodySpec =
       invalid?: { status: 400 | 422; error: string };
       emptyMessage?: string;
       before?: (raw: unknown) => void;
+      anyText?: boolean;
     } & BodyLimit)
   | ({ kind: "multipart" } & MultipartLimits)
   | ({ kind: "binary"; types: readonly string[] } & BodyLimit)
@@ -78,6 +80,13 @@ export function json<S extends z.ZodType>(
     emptyMessage?: string;
     tooLargeHint?: string;
     before?: (raw: unknown) => void;
+    /**
+     * Texts are taken as sent, NUL and broken characters included: the route's schema and writer
+     * make them storable themselves, item by item, so one bad entry never refuses the others (the
+     * sync batch, discards, an ended session's hand-over). Every other JSON body is refused whole
+     * when a text in it cannot be stored (`unstorableTextIssues`).
+     */
+    anyText?: boolean;
   } = {},
 ) {
   return { kind: "json" as const, schema, maxBytes: opts.maxBytes ?? 256 * KIB, ...opts };
@@ -151,6 +160,10 @@ export interface RouteRule {
   check?: PublicCheck;
   /** The content types its body may have (empty: it takes no body). */
   takes: readonly string[];
+  /** It reads a query (checked by a schema). */
+  readsQuery: boolean;
+  /** Its JSON body's texts are taken as sent (`json(…, { anyText: true })`): its schema and writer make them storable. */
+  textsTakenAsSent: boolean;
 }
 
 export interface RouteHandler<R> {
@@ -217,7 +230,15 @@ async function readBody(req: Request, spec: BodySpec | undefined): Promise<unkno
   }
   const wanted = spec.kind === "json" ? ["application/json"] : spec.kind === "multipart" ? ["multipart/form-data"] : spec.types;
   if (!wanted.includes(type)) throw new Refusal(`This request takes ${wanted.join(" or ")}; ${type || "no type"} was sent.`, 415);
-  if (spec.kind === "multipart") return readMultipart(req, spec);
+  if (spec.kind === "multipart") {
+    const form = await readMultipart(req, spec);
+    const issues: FieldIssue[] = [];
+    form.forEach((value, key) => {
+      if (typeof value === "string") issues.push(...unstorableTextIssues({ [key]: value }, undefined));
+    });
+    if (issues.length) throw new Refusal(CHECK_THE_FIELDS, 400, issues.slice(0, 50));
+    return form;
+  }
   if (spec.kind === "binary") {
     const declared = req.headers.get("content-length");
     if (declared !== null && Number(declared) > spec.maxBytes)
@@ -244,13 +265,29 @@ async function readBody(req: Request, spec: BodySpec | undefined): Promise<unkno
       }
       spec.before?.(raw);
       const parsed = spec.schema.safeParse(raw, { error: workshopErrors(spec.labels) });
-      if (!parsed.success) {
+      const issues = parsed.success ? [] : issuesOf(parsed.error, { max: 50 });
+      if (!spec.anyText) issues.push(...unstorableTextIssues(raw, spec.labels, issues));
+      if (issues.length) {
         const { status = 400, error = CHECK_THE_FIELDS } = spec.invalid ?? {};
-        throw new Refusal(error, status, issuesOf(parsed.error, { max: 50 }));
+        throw new Refusal(error, status, issues.slice(0, 50));
       }
       return parsed.data;
     }
   }
+}
+
+/**
+ * The texts of a body, query or form that PostgreSQL cannot store (a NUL, another control
+ * character, half of an emoji), each named in workshop words, except where the schema has said
+ * what is wrong with that field already (`safeText` says it in the field's own words). Such a
+ * text is refused before anything reads it: it would otherwise fail the database write as a
+ * server error.
+ */
+function unstorableTextIssues(value: unknown, labels: FieldLabels | undefined, known: readonly FieldIssue[] = []): FieldIssue[] {
+  const said = new Set(known.map((i) => i.path));
+  return unstorableTexts(value, (path) => fieldLabel(path, labels))
+    .map((f) => ({ path: f.path.map(String).join("."), message: f.message }))
+    .filter((i) => !said.has(i.path));
 }
 
 function utf8(bytes: Uint8Array): string {
@@ -263,8 +300,11 @@ function utf8(bytes: Uint8Array): string {
 
 function readQuery(req: Request, schema: z.ZodType | undefined, labels?: FieldLabels): unknown {
   if (!schema) return undefined;
-  const parsed = schema.safeParse(Object.fromEntries(new URL(req.url).searchParams), { error: workshopErrors(labels) });
-  if (!parsed.success) throw new Refusal(CHECK_THE_FIELDS, 400, issuesOf(parsed.error, { max: 50 }));
+  const params = Object.fromEntries(new URL(req.url).searchParams);
+  const parsed = schema.safeParse(params, { error: workshopErrors(labels) });
+  const issues = parsed.success ? [] : issuesOf(parsed.error, { max: 50 });
+  issues.push(...unstorableTextIssues(params, labels, issues));
+  if (issues.length) throw new Refusal(CHECK_THE_FIELDS, 400, issues.slice(0, 50));
   return parsed.data;
 }
 
@@ -351,7 +391,8 @@ function build<R>(
       : body.kind === "multipart"
         ? ["multipart/form-data"]
         : [...body.types];
-  const rule: RouteRule = "access" in gate ? { access: gate.access, takes } : { check: gate.publicCheck, takes };
+  const checks = { takes, readsQuery: spec.query !== undefined, textsTakenAsSent: body?.kind === "json" && body.anyText === true };
+  const rule: RouteRule = "access" in gate ? { access: gate.access, ...checks } : { check: gate.publicCheck, ...checks };
   return Object.assign(handler, { handle, rule });
 }
 

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import type { FieldIssue } from "../errors";
-import { issuesOf } from "../zod-issues";
+import { unstorableTexts } from "../safe-values";
+import { documentPath, fieldLabel, issuesOf } from "../zod-issues";
 import { templateDocumentSchema, type TemplateDocument } from "./template-schema";
 
 // Template files: one "benchtag-template" document, or a bundle of several
@@ -36,6 +37,9 @@ export function readTemplateFile(text: string): TemplateFileResult {
   } catch (e) {
     return { ok: false, issues: [{ path: "(file)", message: `not valid JSON: ${(e as Error).message}` }] };
   }
+  // a NUL, control character or half of an emoji cannot be stored: said here, field by field
+  const unstorable = unstorableTexts(raw, (path) => fieldLabel(path));
+  if (unstorable.length) return { ok: false, issues: unstorable.map((u) => ({ path: documentPath(u.path), message: u.message })) };
   const format = (raw as { format?: unknown } | null)?.format;
   if (format === "benchtag-template-bundle") {
     const r = templateBundleSchema.safeParse(raw);

@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { finiteNumber, hasLoneSurrogate, safeText, saneInstant } from "@/lib/safe-values";
+import { finiteNumber, hasLoneSurrogate, safeText, saneInstant, unstorableTexts } from "@/lib/safe-values";
+import { readTemplateFile } from "@/lib/procedures/template-file";
 import { operationSchema } from "@/lib/sync/operations";
 
 // Inputs PostgreSQL refuses (NUL in text: "invalid byte sequence for encoding UTF8: 0x00"; a lone
@@ -92,5 +93,54 @@ describe("the sync wire format uses them", () => {
       operationSchema.safeParse({ ...base, deviceTime: "0000-01-01T00:00:00.000Z", kind: "step.completed", payload: { stepId: step } })
         .success,
     ).toBe(false);
+  });
+});
+
+describe("texts a request holds that cannot be stored", () => {
+  const label = (path: (string | number)[]) => `[${path.join("/")}]`;
+
+  it("finds each one with where it is, keys included, and leaves line breaks, tabs and whole emoji alone", () => {
+    const found = unstorableTexts(
+      { name: "ok 🏍", notes: "line\nnext\ttab\r", lines: [{ d: "a\u0000" }, { d: "b" }], ["k\u0001"]: 1, deep: { x: ["\udc00"] } },
+      label,
+    );
+    expect(found).toEqual([
+      { path: ["lines", 0, "d"], message: "[lines/0/d] holds a NUL character, which cannot be stored: retype it." },
+      { path: ["k\u0001"], message: "[k\u0001] holds a control character, which cannot be stored: retype it." },
+      { path: ["deep", "x", 0], message: "[deep/x/0] holds a broken character (half of an emoji or symbol): retype it." },
+    ]);
+    expect(unstorableTexts({ a: 1, b: null, c: true, d: [2.5, "fine"] }, label)).toEqual([]);
+  });
+
+  it("lists at most `max`, and any text anywhere that holds a NUL is found (property)", () => {
+    expect(
+      unstorableTexts(
+        Array.from({ length: 80 }, () => "\u0000"),
+        label,
+        50,
+      ),
+    ).toHaveLength(50);
+    fc.assert(
+      fc.property(fc.json(), fc.string(), fc.string(), (json, before, after) => {
+        const value = { text: `${before}\u0000${after}`, data: JSON.parse(json) as unknown };
+        return unstorableTexts(value, label).some((f) => f.path[0] === "text");
+      }),
+    );
+  });
+
+  it("a template file holding one is refused with its place in the file", () => {
+    const r = readTemplateFile(
+      JSON.stringify({
+        format: "benchtag-template",
+        formatVersion: 1,
+        key: "k",
+        name: "Head",
+        stages: [{ key: "s", title: "T\u0000", steps: [] }],
+      }),
+    );
+    expect(r).toEqual({
+      ok: false,
+      issues: [{ path: "stages[0].title", message: "Title holds a NUL character, which cannot be stored: retype it." }],
+    });
   });
 });

@@ -18,6 +18,8 @@ import { parseBatch } from "@/lib/sync/parse-batch";
 const batch = json(syncEnvelopeSchema, {
   maxBytes: SYNC_LIMITS.maxBodyBytes,
   tooLargeHint: "Send the outbox in smaller batches.",
+  // each operation is checked on its own (a text it cannot store refuses that operation alone)
+  anyText: true,
   emptyMessage: "The body is empty: send a JSON batch { deviceId, cursor, operations }.",
   invalid: { status: 422, error: "The batch does not match the sync format; nothing was saved." },
   before: (raw) => {

@@ -64,6 +64,9 @@ const PUBLIC: Record<string, { check: string; mustContain: Array<{ file: string;
   },
 };
 
+/** The routes whose JSON texts are taken as sent: each item is checked, and made storable, on its own. */
+const TEXTS_TAKEN_AS_SENT = ["app/api/sync/route.ts", "app/api/sync/discards/route.ts", "app/api/bench/outbox-handover/route.ts"];
+
 const noDb = {} as Db; // never used: every call below is refused before a query
 const userWith = (role: Role): SessionUser => ({
   id: "00000000-0000-4000-8000-000000000001",
@@ -157,6 +160,47 @@ describe("every route handler goes through the route wrapper", () => {
           );
           expect([m, plain.status], `${m} refuses a text/plain body`).toEqual([m, 415]);
           expect((await plain.json()).issues).toEqual([]);
+        }
+      });
+
+      it("refuses a text the database cannot store, naming the field, before the handler runs (unless it takes texts as sent)", async () => {
+        const mod = (await import(path.join(root, file))) as Record<string, RouteHandler<unknown>>;
+        for (const m of METHODS.filter((x) => x in mod)) {
+          const h = mod[m];
+          if (h.rule.check === "payment-signature" || h.rule.check === "next-auth") continue;
+          const opts = { user: userWith(rolesAllowed(h)[0]), db: noDb, params: { id: "00000000-0000-4000-8000-000000000003" } };
+          const headers = { origin: ORIGIN, "content-type": "application/json" };
+          if (h.rule.readsQuery) {
+            const res = await h.handle(
+              new Request(`${ORIGIN}/x?q=a%00b`, { method: m, headers, ...(MUTATING.has(m) ? { body: "{}" } : {}) }),
+              opts,
+            );
+            const issues = ((await res.json()) as { issues: { path: string; message: string }[] }).issues;
+            expect([m, res.status, issues.filter((x) => x.path === "q")]).toEqual([
+              m,
+              400,
+              [{ path: "q", message: "Search holds a NUL character, which cannot be stored: retype it." }],
+            ]);
+          }
+          if (!h.rule.takes.includes("application/json")) continue;
+          const hostile = JSON.stringify({ note: "bore \u0000 ok", lines: [{ description: "shim \ud83d" }] });
+          const res = await h.handle(new Request(`${ORIGIN}/x`, { method: m, headers, body: hostile }), opts);
+          if (h.rule.textsTakenAsSent) {
+            // these check each item on their own (the sync batch, discards, an ended session's hand-over)
+            expect(TEXTS_TAKEN_AS_SENT, `${m} takes texts as sent only as a listed exception`).toContain(file);
+            continue;
+          }
+          // refused before the handler (which would fail on this test's stand-in database: 503), with each
+          // field named: in the words of the field's own rule where it has one (a wrong type, a text rule),
+          // else "<label> holds a NUL character…" by the label the person sees (a route may give its own);
+          // a template file's paths read as in the file ("lines[0].description")
+          const issues = ((await res.json()) as { issues: { path: string; message: string }[] }).issues;
+          expect([m, res.status === 400 || res.status === 422]).toEqual([m, true]);
+          const at = (p: string) => issues.filter((x) => x.path.replace(/\[(\d+)\]/g, ".$1") === p).map((x) => x.message);
+          expect(at("note"), `${m} names the note`).not.toEqual([]);
+          expect([...at("lines.0.description"), ...at("lines.0"), ...at("lines")], `${m} names the line`).not.toEqual([]);
+          if (!at("note").some((x) => x.includes("NUL character")))
+            expect(at("note").join(" "), `${m}: the note's own rule speaks instead`).toMatch(/^Note[^:]*: /);
         }
       });
     });

@@ -14,7 +14,7 @@ import { SYNC_LIMITS } from "@/lib/sync/operations";
 // (outbox_handovers), not merged into the job record: nobody signed in stands behind them now.
 // The office reads them on the Sign-ins page.
 export const POST = publicRoute(
-  { check: "ended-session", body: json(outboxHandoverSchema, { maxBytes: SYNC_LIMITS.maxBodyBytes }) },
+  { check: "ended-session", body: json(outboxHandoverSchema, { maxBytes: SYNC_LIMITS.maxBodyBytes, anyText: true }) },
   async ({ body, db }) => {
     const claim = await signedInClaim();
     const session = claim && isUuid(claim.sessionId) ? await sessionEndedByOthers(db, claim.sessionId) : null;

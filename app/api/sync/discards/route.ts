@@ -8,6 +8,6 @@ import { discardRequestSchema } from "@/lib/sync/discards";
 // stored (the server holds it as recorded work: treat it as sent). Sending the same discard again
 // is harmless. Rules and shapes: lib/sync/discards.ts, db/sync/discards.ts.
 export const POST = route(
-  { access: { area: "bench" }, body: json(discardRequestSchema, { maxBytes: 2 * 1024 * 1024 }) },
+  { access: { area: "bench" }, body: json(discardRequestSchema, { maxBytes: 2 * 1024 * 1024, anyText: true }) },
   ({ user, body, db }) => recordDiscards(db, user, body),
 );
