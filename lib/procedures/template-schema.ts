@@ -15,7 +15,9 @@ export type BoltPattern = (typeof BOLT_PATTERNS)[number];
 export const MEASUREMENT_GEOMETRIES = ["bore", "oil-clearance"] as const;
 export type MeasurementGeometry = (typeof MEASUREMENT_GEOMETRIES)[number];
 
-const key = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "use lower-case letters, digits and dashes (max 63)");
+/** A template's, stage's or step's key: lower-case letters, digits and dashes, at most 63. */
+export const TEMPLATE_KEY_PATTERN = /^[a-z0-9][a-z0-9-]{0,62}$/;
+const key = z.string().regex(TEMPLATE_KEY_PATTERN, "use lower-case letters, digits and dashes (max 63)");
 
 export const cautionSchema = z.object({
   kind: z.enum(CAUTION_KINDS),

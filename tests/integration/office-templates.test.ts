@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { importTemplateDocuments, loadTemplateDocument, templatesWithVersions } from "@/db/templates/documents";
+import { GET as exportTemplate } from "@/app/api/office/templates/[key]/route";
 import { createTemplateVersion } from "@/db/templates/versions";
 import { DEMO_TEMPLATES } from "@/lib/procedures/demo-templates";
 import { firstStartTemplate } from "@/lib/procedures/demo-templates/first-start";
@@ -7,6 +8,7 @@ import { turboKitTemplate } from "@/lib/procedures/demo-templates/turbo-kit";
 import { readTemplateFile } from "@/lib/procedures/template-file";
 import { templateDocumentSchema } from "@/lib/procedures/template-schema";
 import { createShopFixture } from "./support/shop-fixture";
+import { appRequest } from "./support/route-calls";
 import { useTestDb } from "./support/test-db";
 
 const db = useTestDb();
@@ -29,6 +31,27 @@ describe("template export and import", () => {
     // and the exported text reads back cleanly
     const again = readTemplateFile(JSON.stringify(exported));
     expect(again).toEqual({ ok: true, documents: [exported] });
+  });
+
+  it("the export route answers a key no template can have, or a version past any number stored, in words, not as a server error", async () => {
+    const fx = await createShopFixture(db);
+    await createTemplateVersion(db, fx.shopId, turboKitTemplate, fx.users.office.id);
+    const user = { ...fx.users.office, customerId: null };
+    const get = async (key: string, query = "") => {
+      const res = await exportTemplate.handle(appRequest(`/api/office/templates/x${query}`), { user, db, params: { key } });
+      return [
+        res.status,
+        res.status === 200 ? ((await res.json()) as { key: string }).key : ((await res.json()) as { error: string; issues: unknown[] }),
+      ];
+    };
+    expect(await get("turbo-kit-intercooler", "?version=1")).toEqual([200, "turbo-kit-intercooler"]);
+    for (const key of ["%E0%A4%A", "turbo\u0000kit", "Turbo Kit", "x".repeat(64)])
+      expect(await get(key)).toEqual([404, { error: "No such template or version.", issues: [] }]);
+    expect(await get("turbo-kit-intercooler", "?version=99999999999")).toEqual([
+      400,
+      { error: "Check the marked fields.", issues: [{ path: "version", message: "Version: must be at most 2147483647" }] },
+    ]);
+    expect(await get("turbo-kit-intercooler", "?version=2")).toEqual([404, { error: "No such template or version.", issues: [] }]);
   });
 
   it("editing makes a new version; a job keeps the version it was started with", async () => {
