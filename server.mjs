@@ -17,7 +17,29 @@ const app = next({ dev: false, dir: import.meta.dirname, port, hostname: hostnam
 const handle = app.getRequestHandler();
 await app.prepare();
 
+// An address whose %-escapes do not decode to text (a cut-off "%E0%A4", half of an emoji) is
+// answered here, in words: Next fails on it while reading the path's values, as a server error.
+const BROKEN_ADDRESS = JSON.stringify({ error: "This address is not valid: part of it is a broken %-escape. Check the link.", issues: [] });
+function pathDecodes(url = "/") {
+  try {
+    decodeURIComponent(url.split("?")[0]);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 const server = http.createServer((req, res) => {
+  if (!pathDecodes(req.url)) {
+    res.writeHead(400, {
+      "content-type": "application/json; charset=utf-8",
+      "cache-control": "no-store",
+      "content-security-policy": "default-src 'none'; frame-ancestors 'none'",
+      "x-content-type-options": "nosniff",
+    });
+    res.end(BROKEN_ADDRESS);
+    return;
+  }
   req.headers["x-benchtag-peer"] = req.socket.remoteAddress ?? "";
   void handle(req, res);
 });

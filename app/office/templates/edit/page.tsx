@@ -5,7 +5,7 @@ import { requirePageArea } from "@/app/_server/session";
 import { AppFrame } from "@/app/ui/app-frame";
 import { db } from "@/db/setup/client";
 import { loadTemplateDocument } from "@/db/templates/documents";
-import type { TemplateDocumentInput } from "@/lib/procedures/template-schema";
+import { TEMPLATE_KEY_PATTERN, type TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import { TemplateEditor } from "../_components/template-editor";
 
 export const metadata: Metadata = { title: "Edit template" };
@@ -40,7 +40,9 @@ const STARTER: TemplateDocumentInput = {
 export default async function EditTemplatePage({ searchParams }: { searchParams: Promise<{ key?: string }> }) {
   const user = await requirePageArea("templates");
   const { key } = await searchParams;
-  const doc = key ? await loadTemplateDocument(db(), user.shopId, key.slice(0, 80)) : STARTER;
+  // a key no template can have (a NUL, capitals, too long) names none
+  if (key !== undefined && !TEMPLATE_KEY_PATTERN.test(key)) notFound();
+  const doc = key ? await loadTemplateDocument(db(), user.shopId, key) : STARTER;
   if (!doc) notFound();
   return (
     <AppFrame user={user} current="/office/templates">
