@@ -19,10 +19,13 @@ await app.prepare();
 
 // An address whose %-escapes do not decode to text (a cut-off "%E0%A4", half of an emoji) is
 // answered here, in words: Next fails on it while reading the path's values, as a server error.
-const BROKEN_ADDRESS = JSON.stringify({ error: "This address is not valid: part of it is a broken %-escape. Check the link.", issues: [] });
-function pathDecodes(url = "/") {
+// An API route gets the one error body; a page, a page that says the same and leads home.
+const BROKEN = "This address is not valid: part of it is a broken %-escape. Check the link.";
+const BROKEN_JSON = JSON.stringify({ error: BROKEN, issues: [] });
+const BROKEN_PAGE = `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width"><title>Address not valid · Benchtag</title></head><body><h1>Address not valid</h1><p>${BROKEN}</p><p><a href="/">Go to Benchtag's start page</a></p></body></html>`;
+function pathDecodes(path) {
   try {
-    decodeURIComponent(url.split("?")[0]);
+    decodeURIComponent(path);
     return true;
   } catch {
     return false;
@@ -30,14 +33,16 @@ function pathDecodes(url = "/") {
 }
 
 const server = http.createServer((req, res) => {
-  if (!pathDecodes(req.url)) {
+  const path = (req.url ?? "/").split("?")[0];
+  if (!pathDecodes(path)) {
+    const api = path.startsWith("/api/");
     res.writeHead(400, {
-      "content-type": "application/json; charset=utf-8",
+      "content-type": api ? "application/json; charset=utf-8" : "text/html; charset=utf-8",
       "cache-control": "no-store",
       "content-security-policy": "default-src 'none'; frame-ancestors 'none'",
       "x-content-type-options": "nosniff",
     });
-    res.end(BROKEN_ADDRESS);
+    res.end(api ? BROKEN_JSON : BROKEN_PAGE);
     return;
   }
   req.headers["x-benchtag-peer"] = req.socket.remoteAddress ?? "";
