@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { MEASUREMENT_UNITS, TORQUE_UNITS } from "../calc/units";
+import { MAX_READING, WRENCH_READING_LIMIT } from "../sync/operations";
 import "../zod-issues";
 
 // Benchtag's own procedure-template document ("benchtag-template", format version 1).
@@ -41,15 +42,30 @@ export const torqueSpecSchema = z
     lubricant: z.string().max(200).default(""),
     torqueToYield: z.boolean().default(false),
   })
-  .strict();
+  .strict()
+  // no fastener on a motorcycle engine comes near the wrench limit of its unit (lib/sync/operations.ts)
+  .superRefine((t, ctx) => {
+    const limit = WRENCH_READING_LIMIT[t.unit];
+    const beyond = (v: number, path: (string | number)[], what: string) => {
+      if (v > limit)
+        ctx.addIssue({
+          code: "custom",
+          path,
+          message: `${what}: ${v} ${t.unit} is beyond any fastener on an engine (the most is ${limit} ${t.unit}).`,
+        });
+    };
+    beyond(t.finalValue, ["finalValue"], "Final value");
+    t.passes.forEach((p, i) => "value" in p && beyond(p.value, ["passes", i, "value"], `Pass ${i + 1}`));
+  });
 
 const measurementSpecSchema = z
   .object({
     key,
     label: z.string().trim().min(1).max(120),
-    nominal: z.number().nullable().default(null),
-    min: z.number(),
-    max: z.number(),
+    // a metre in µm is the most any reading may be, either way (MAX_READING): the same bound as the bench's readings
+    nominal: z.number().min(-MAX_READING).max(MAX_READING).nullable().default(null),
+    min: z.number().min(-MAX_READING).max(MAX_READING),
+    max: z.number().min(-MAX_READING).max(MAX_READING),
     unit: z.enum(MEASUREMENT_UNITS),
     readingLabels: z.array(z.string().trim().min(1).max(40)).max(64).default([]),
     geometry: z.enum(MEASUREMENT_GEOMETRIES).nullable().default(null),
