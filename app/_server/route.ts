@@ -264,16 +264,27 @@ async function readBody(req: Request, spec: BodySpec | undefined): Promise<unkno
         throw new Refusal(`The body is not valid JSON: ${(e as Error).message}`, 400);
       }
       spec.before?.(raw);
-      const parsed = spec.schema.safeParse(raw, { error: workshopErrors(spec.labels) });
-      const issues = parsed.success ? [] : issuesOf(parsed.error, { max: 50 });
-      if (!spec.anyText) issues.push(...unstorableTextIssues(raw, spec.labels, issues));
-      if (issues.length) {
-        const { status = 400, error = CHECK_THE_FIELDS } = spec.invalid ?? {};
-        throw new Refusal(error, status, issues.slice(0, 50));
-      }
-      return parsed.data;
+      return checkedFields(spec.schema, raw, spec.labels, { texts: !spec.anyText, ...spec.invalid });
     }
   }
+}
+
+/**
+ * `value` parsed by `schema`, with every text PostgreSQL cannot store refused too (unless `texts`
+ * is false); else a Refusal naming each field (at most 50).
+ */
+function checkedFields(
+  schema: z.ZodType,
+  value: unknown,
+  labels: FieldLabels | undefined,
+  refusal: { texts?: boolean; status?: 400 | 422; error?: string } = {},
+): unknown {
+  const { texts = true, status = 400, error = CHECK_THE_FIELDS } = refusal;
+  const parsed = schema.safeParse(value, { error: workshopErrors(labels) });
+  const issues = parsed.success ? [] : issuesOf(parsed.error, { max: 50 });
+  if (texts) issues.push(...unstorableTextIssues(value, labels, issues));
+  if (issues.length) throw new Refusal(error, status, issues.slice(0, 50));
+  return parsed.data;
 }
 
 /**
@@ -300,12 +311,7 @@ function utf8(bytes: Uint8Array): string {
 
 function readQuery(req: Request, schema: z.ZodType | undefined, labels?: FieldLabels): unknown {
   if (!schema) return undefined;
-  const params = Object.fromEntries(new URL(req.url).searchParams);
-  const parsed = schema.safeParse(params, { error: workshopErrors(labels) });
-  const issues = parsed.success ? [] : issuesOf(parsed.error, { max: 50 });
-  issues.push(...unstorableTextIssues(params, labels, issues));
-  if (issues.length) throw new Refusal(CHECK_THE_FIELDS, 400, issues.slice(0, 50));
-  return parsed.data;
+  return checkedFields(schema, Object.fromEntries(new URL(req.url).searchParams), labels);
 }
 
 function pickParams(names: readonly string[], raw: RawParams = {}): Record<string, string> {
