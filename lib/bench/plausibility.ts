@@ -9,7 +9,7 @@
  * Pure; shared rules are written once here.
  */
 import { convertTorque, type MeasurementUnit, type TorqueUnit } from "@/lib/calc/units";
-import { WRENCH_READING_LIMIT } from "@/lib/sync/operations";
+import { beyondWrenchLimit } from "@/lib/sync/operations";
 import { readingValueProblem } from "@/lib/sync/reading-value";
 
 export type Plausibility = { kind: "ok" } | { kind: "refuse"; reason: string } | { kind: "confirm"; reasons: string[] };
@@ -57,14 +57,9 @@ export function wrenchPlausibility(
   target: { value: number; unit: TorqueUnit } | null,
 ): Plausibility {
   const value = Number(reading);
-  const limit = WRENCH_READING_LIMIT[unit];
   if (!Number.isFinite(value) || value <= 0) return { kind: "refuse", reason: "Wrench reading must be above zero." };
-  if (value > limit) {
-    return {
-      kind: "refuse",
-      reason: `Wrench reading: ${reading} ${unit} is beyond any fastener on an engine (the most is ${limit} ${unit}); check the wrench and type it again.`,
-    };
-  }
+  const beyond = beyondWrenchLimit("Wrench reading", reading, unit);
+  if (beyond) return { kind: "refuse", reason: `${beyond}; check the wrench and type it again.` };
   if (!target) return ok;
   const aim = convertTorque(target.value, target.unit, unit);
   const shown = `${Number.parseFloat(aim.toPrecision(4))} ${unit}`;

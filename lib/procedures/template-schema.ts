@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { MEASUREMENT_UNITS, TORQUE_UNITS } from "../calc/units";
-import { MAX_READING, WRENCH_READING_LIMIT } from "../sync/operations";
+import { beyondWrenchLimit, MAX_READING } from "../sync/operations";
 import "../zod-issues";
 
 // Benchtag's own procedure-template document ("benchtag-template", format version 1).
@@ -45,17 +45,12 @@ export const torqueSpecSchema = z
   .strict()
   // no fastener on a motorcycle engine comes near the wrench limit of its unit (lib/sync/operations.ts)
   .superRefine((t, ctx) => {
-    const limit = WRENCH_READING_LIMIT[t.unit];
-    const beyond = (v: number, path: (string | number)[], what: string) => {
-      if (v > limit)
-        ctx.addIssue({
-          code: "custom",
-          path,
-          message: `${what}: ${v} ${t.unit} is beyond any fastener on an engine (the most is ${limit} ${t.unit}).`,
-        });
+    const check = (value: number, path: (string | number)[], what: string) => {
+      const beyond = beyondWrenchLimit(what, value, t.unit);
+      if (beyond) ctx.addIssue({ code: "custom", path, message: `${beyond}.` });
     };
-    beyond(t.finalValue, ["finalValue"], "Final value");
-    t.passes.forEach((p, i) => "value" in p && beyond(p.value, ["passes", i, "value"], `Pass ${i + 1}`));
+    check(t.finalValue, ["finalValue"], "Final value");
+    t.passes.forEach((p, i) => "value" in p && check(p.value, ["passes", i, "value"], `Pass ${i + 1}`));
   });
 
 const measurementSpecSchema = z

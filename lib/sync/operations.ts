@@ -7,7 +7,7 @@
  * - `passIndex` and `bolt` count from 1, as the torque pass list and the tightening order do.
  */
 import { z } from "zod";
-import { MEASUREMENT_UNITS, TORQUE_UNITS } from "@/lib/calc/units";
+import { MEASUREMENT_UNITS, TORQUE_UNITS, type TorqueUnit } from "@/lib/calc/units";
 import { isSaneInstant, safeText, saneInstant } from "@/lib/safe-values";
 import { DEVICE_ID_PATTERN, STAMP_PATTERN } from "./hlc";
 import { canonicalDecimal, decimalOfNumber, readingValueProblem } from "./reading-value";
@@ -116,12 +116,21 @@ const measurementRecordedPayload = z
   });
 
 /** Largest wrench reading per unit: no fastener on a motorcycle engine comes near (about 2000 N·m). */
-export const WRENCH_READING_LIMIT: Record<(typeof TORQUE_UNITS)[number], number> = {
+export const WRENCH_READING_LIMIT: Record<TorqueUnit, number> = {
   "N·m": 2000,
   "lbf·ft": 1500,
   "lbf·in": 18000,
   "kgf·m": 200,
 };
+
+/**
+ * Why a torque figure cannot be right — "Final value: 2500 N·m is beyond any fastener on an engine
+ * (the most is 2000 N·m)" — or null within the limit of its unit. `value` is named as given ("31.50").
+ */
+export function beyondWrenchLimit(what: string, value: number | string, unit: TorqueUnit): string | null {
+  const limit = WRENCH_READING_LIMIT[unit];
+  return Number(value) > limit ? `${what}: ${value} ${unit} is beyond any fastener on an engine (the most is ${limit} ${unit})` : null;
+}
 
 const torqueBoltConfirmedPayload = z
   .object({
@@ -140,16 +149,11 @@ const torqueBoltConfirmedPayload = z
   })
   .superRefine((p, ctx) => {
     if (p.wrenchReading === undefined || p.wrenchUnit === undefined) return;
-    const limit = WRENCH_READING_LIMIT[p.wrenchUnit];
-    const reading = Number(p.wrenchReading);
-    if (!(reading > 0)) {
+    const beyond = beyondWrenchLimit("Wrench reading", p.wrenchReading, p.wrenchUnit);
+    if (!(Number(p.wrenchReading) > 0)) {
       ctx.addIssue({ code: "custom", path: ["wrenchReading"], message: "Wrench reading must be above zero." });
-    } else if (reading > limit) {
-      ctx.addIssue({
-        code: "custom",
-        path: ["wrenchReading"],
-        message: `Wrench reading: ${p.wrenchReading} ${p.wrenchUnit} is beyond any fastener on an engine (the most is ${limit} ${p.wrenchUnit}); check the wrench and type it again.`,
-      });
+    } else if (beyond) {
+      ctx.addIssue({ code: "custom", path: ["wrenchReading"], message: `${beyond}; check the wrench and type it again.` });
     }
   });
 
