@@ -7,6 +7,9 @@ import { z } from "zod";
 // here, per field and in workshop words, never by a failed transaction that takes other work
 // down with it.
 
+/** The largest value of PostgreSQL's integer (int4) column: a job number, a version. */
+export const INT4_MAX = 2_147_483_647;
+
 /** Earliest and latest instants Benchtag accepts for anything that happened at the bench or the office. */
 export const SANE_TIME_RANGE = { from: Date.UTC(2000, 0, 1), to: Date.UTC(2100, 0, 1) } as const;
 

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { safeText } from "../safe-values";
+import { INT4_MAX, safeText } from "../safe-values";
 import { PART_TEXT_LIMITS } from "../sync/operations";
 
 // What the office types when stock comes in, is put aside for a job, or is let go again. Every
@@ -65,7 +65,7 @@ export const reservationSchema = z
       .number({ error: "Job must be a job number." })
       .int("Job must be a job number.")
       .min(1, "Job must be a job number.")
-      .max(2_147_483_647, "Job must be a job number."),
+      .max(INT4_MAX, "Job must be a job number."),
     quantity: wholeCount("Quantity", 1, MAX_RECEIPT_QUANTITY, "Quantity must be at least 1: put aside one part or more."),
   })
   .strict();

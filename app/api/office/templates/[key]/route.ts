@@ -3,10 +3,11 @@ import { route } from "@/app/_server/route";
 import { loadTemplateDocument } from "@/db/templates/documents";
 import { Refusal } from "@/lib/errors";
 import { TEMPLATE_KEY_PATTERN } from "@/lib/procedures/template-schema";
+import { INT4_MAX } from "@/lib/safe-values";
 
-// A version is a whole number from 1 (the database's integer holds at most 2,147,483,647).
+// A version is a whole number from 1 to the most the database's integer holds.
 const query = z.object({
-  version: z.coerce.number().int().positive().max(2_147_483_647).optional(),
+  version: z.coerce.number().int().positive().max(INT4_MAX).optional(),
   download: z.enum(["1"]).optional(),
 });
 const NOT_FOUND = "No such template or version.";
