@@ -1,9 +1,9 @@
-import { readdirSync, statSync } from "node:fs";
 import path from "node:path";
 import { expect, it } from "vitest";
 import type { RouteHandler } from "@/app/_server/route";
-import { ROLES, rolesFor, type Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";
+import { ROOT as root, rolesAllowed, routeFiles } from "../support/route-handlers";
 import { createShopFixture } from "./support/shop-fixture";
 import { appRequest } from "./support/route-calls";
 import { useTestDb } from "./support/test-db";
@@ -15,23 +15,7 @@ import { useTestDb } from "./support/test-db";
 // tests check what it answers; this holds them all to the floor.)
 
 const db = useTestDb();
-const root = path.resolve(import.meta.dirname, "../..");
 const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"] as const;
-
-function routeFiles(dir: string): string[] {
-  return readdirSync(dir).flatMap((name) => {
-    const full = path.join(dir, name);
-    if (statSync(full).isDirectory()) return routeFiles(full);
-    return name === "route.ts" ? [full] : [];
-  });
-}
-
-function firstRoleAllowed(h: RouteHandler<unknown>): Role {
-  const access = h.rule.access;
-  if (!access || "signedIn" in access) return ROLES[0];
-  const areas = "area" in access ? [access.area] : access.anyArea;
-  return ROLES.find((r) => areas.some((a) => rolesFor(a).includes(r)))!;
-}
 
 it("no route answers hostile paths, queries or bodies with a server error", async () => {
   const fx = await createShopFixture(db);
@@ -57,13 +41,13 @@ it("no route answers hostile paths, queries or bodies with a server error", asyn
   ];
   const serverErrors: string[] = [];
   let calls = 0;
-  for (const file of routeFiles(path.join(root, "app/api"))) {
-    const mod = (await import(file)) as Record<string, RouteHandler<unknown>>;
-    const names = [...path.relative(root, file).matchAll(/\[(?:\.\.\.)?([A-Za-z]+)\]/g)].map((m) => m[1]);
+  for (const file of routeFiles()) {
+    const mod = (await import(path.join(root, file))) as Record<string, RouteHandler<unknown>>;
+    const names = [...file.matchAll(/\[(?:\.\.\.)?([A-Za-z]+)\]/g)].map((m) => m[1]);
     for (const m of METHODS.filter((x) => x in mod)) {
       const h = mod[m];
       if (h.rule.check) continue; // the public routes check a signature, a link or next-auth's token first
-      const user = userOf(firstRoleAllowed(h));
+      const user = userOf(rolesAllowed(h)[0]);
       for (const value of pathValues) {
         const params = Object.fromEntries(names.map((n) => [n, value]));
         const requests =
@@ -75,8 +59,7 @@ it("no route answers hostile paths, queries or bodies with a server error", asyn
         for (const req of requests) {
           const res = await h.handle(req, { user, db, params });
           calls++;
-          if (res.status >= 500)
-            serverErrors.push(`${m} ${path.relative(root, file)} ${JSON.stringify(params)} ${req.url} → ${res.status}`);
+          if (res.status >= 500) serverErrors.push(`${m} ${file} ${JSON.stringify(params)} ${req.url} → ${res.status}`);
         }
       }
     }

@@ -1,11 +1,12 @@
-import { readdirSync, readFileSync, statSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import type { RouteHandler } from "@/app/_server/route";
 import { NOT_FROM_OUR_PAGES } from "@/app/_server/same-origin";
 import type { Db } from "@/db/setup/client";
-import { ROLES, rolesFor, type Role } from "@/lib/auth/roles";
+import { ROLES, type Role } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";
+import { ROOT as root, rolesAllowed, routeFiles } from "../../support/route-handlers";
 
 // Every route handler (every GET/POST/PUT/PATCH/DELETE exported by app/api/**/route.ts) is built by
 // the one route wrapper (app/_server/route.ts): it is imported here and called. Each must
@@ -15,18 +16,9 @@ import type { SessionUser } from "@/lib/auth/session-user";
 //     and refuse a text/plain body (415) even from a role that may use it.
 // None of these calls reaches the database: the wrapper refuses before the handler runs.
 
-const root = path.resolve(import.meta.dirname, "../../..");
 const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"] as const;
 const MUTATING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
 const ORIGIN = "http://benchtag.test";
-
-function routeFiles(dir: string): string[] {
-  return readdirSync(dir).flatMap((name) => {
-    const full = path.join(dir, name);
-    if (statSync(full).isDirectory()) return routeFiles(full);
-    return name === "route.ts" ? [full] : [];
-  });
-}
 
 /** The public routes and the check each makes instead of a session, looked for in its code. */
 const PUBLIC: Record<string, { check: string; mustContain: Array<{ file: string; text: string }> }> = {
@@ -77,15 +69,7 @@ const userWith = (role: Role): SessionUser => ({
   customerId: null,
 });
 
-function rolesAllowed(h: RouteHandler<unknown>): Role[] {
-  const access = h.rule.access;
-  if (!access) return [...ROLES];
-  if ("signedIn" in access) return [...ROLES];
-  const areas = "area" in access ? [access.area] : access.anyArea;
-  return ROLES.filter((r) => areas.some((a) => rolesFor(a).includes(r)));
-}
-
-const files = routeFiles(path.join(root, "app/api")).map((f) => path.relative(root, f).split(path.sep).join("/"));
+const files = routeFiles();
 
 describe("every route handler goes through the route wrapper", () => {
   it("finds the route handlers", () => {
