@@ -164,6 +164,8 @@ export interface RouteRule {
   readsQuery: boolean;
   /** Its JSON body's texts are taken as sent (`json(…, { anyText: true })`): its schema and writer make them storable. */
   textsTakenAsSent: boolean;
+  /** The schemas its JSON body and its query are checked with (read by the test that bounds every field). */
+  schemas: { body?: z.ZodType; query?: z.ZodType };
 }
 
 export interface RouteHandler<R> {
@@ -397,7 +399,12 @@ function build<R>(
       : body.kind === "multipart"
         ? ["multipart/form-data"]
         : [...body.types];
-  const checks = { takes, readsQuery: spec.query !== undefined, textsTakenAsSent: body?.kind === "json" && body.anyText === true };
+  const checks = {
+    takes,
+    readsQuery: spec.query !== undefined,
+    textsTakenAsSent: body?.kind === "json" && body.anyText === true,
+    schemas: { body: body?.kind === "json" ? body.schema : undefined, query: spec.query },
+  };
   const rule: RouteRule = "access" in gate ? { access: gate.access, ...checks } : { check: gate.publicCheck, ...checks };
   return Object.assign(handler, { handle, rule });
 }

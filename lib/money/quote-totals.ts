@@ -45,6 +45,21 @@ export function lineTotalMinor(line: QuoteLineInput): number {
   return whole * line.unitPriceMinor + divideHalfUp(frac * line.unitPriceMinor, 100);
 }
 
+/** What a quote's lines are told when together they pass MAX_MINOR (each line may be within range alone). */
+export const QUOTE_TOO_LARGE = "together the lines come to more than 100,000,000.00, the most one quote can hold";
+
+/** Whether the lines' subtotal passes MAX_MINOR; lines out of range on their own are left to their own checks. */
+export function quoteSubtotalTooLarge(lines: readonly QuoteLineInput[]): boolean {
+  let subtotal = 0;
+  for (const line of lines) {
+    const { quantityHundredths: q, unitPriceMinor: p } = line;
+    if (!Number.isInteger(q) || q < 1 || q > 100_000_00 || !Number.isInteger(p) || p < 0 || p > MAX_MINOR) return false;
+    subtotal += lineTotalMinor(line);
+    if (subtotal > MAX_MINOR) return true;
+  }
+  return false;
+}
+
 export function quoteTotals(lines: QuoteLineInput[], taxRateBp: number): QuoteTotals {
   assertInt("tax rate (basis points)", taxRateBp, 0, MAX_TAX_RATE_BP);
   const lineTotals = lines.map(lineTotalMinor);

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import "../zod-issues";
-import { MAX_MINOR } from "../money/quote-totals";
+import { EMAIL_MAX_CHARS } from "../auth/credentials";
+import { MAX_MINOR, QUOTE_TOO_LARGE, quoteSubtotalTooLarge } from "../money/quote-totals";
 import { WORK_ORDER_STATUSES } from "../work-orders/status";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS } from "../sync/operations";
 import { safeText } from "../safe-values";
@@ -23,7 +24,7 @@ export const customerSchema = z.object({
     .string()
     .trim()
     .toLowerCase()
-    .max(200)
+    .max(EMAIL_MAX_CHARS, `at most ${EMAIL_MAX_CHARS} characters`)
     .refine((v) => v === "" || z.email().safeParse(v).success, "enter a valid e-mail address, or leave it empty")
     .transform((v) => (v === "" ? null : v))
     .nullable()
@@ -145,11 +146,16 @@ const quoteLineSchema = z.object({
   unitPriceMinor: z.number().int("price may have two decimals at most").min(0, "price cannot be negative").max(MAX_MINOR),
 });
 
-export const quoteDraftSchema = z.object({
-  lines: z.array(quoteLineSchema).min(1, "add at least one line").max(200),
-  depositMinor: z.number().int().min(0, "the deposit cannot be negative").max(MAX_MINOR),
-  note: z.string().trim().max(2000).default(""),
-});
+export const quoteDraftSchema = z
+  .object({
+    lines: z.array(quoteLineSchema).min(1, "add at least one line").max(200),
+    depositMinor: z.number().int().min(0, "the deposit cannot be negative").max(MAX_MINOR),
+    note: z.string().trim().max(2000).default(""),
+  })
+  .superRefine((q, ctx) => {
+    // Each line is within range on its own; together they must stay within what a quote can hold.
+    if (quoteSubtotalTooLarge(q.lines)) ctx.addIssue({ code: "custom", path: ["lines"], message: QUOTE_TOO_LARGE });
+  });
 export type QuoteDraftInput = z.input<typeof quoteDraftSchema>;
 
 export const partFittedSchema = z.object({

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { EMAIL_MAX_CHARS } from "@/lib/auth/credentials";
 import { newPassword } from "@/lib/auth/password-rule";
 import { ROLES } from "@/lib/auth/roles";
 
@@ -7,7 +8,12 @@ import { ROLES } from "@/lib/auth/roles";
 export const newUserSchema = z
   .object({
     name: z.string().trim().min(2, "give the person's name").max(120),
-    email: z.string().trim().toLowerCase().email("enter an e-mail address they can sign in with"),
+    email: z
+      .string()
+      .trim()
+      .toLowerCase()
+      .max(EMAIL_MAX_CHARS, `at most ${EMAIL_MAX_CHARS} characters`)
+      .email("enter an e-mail address they can sign in with"),
     role: z.enum(ROLES, { error: "choose a role" }),
     // A customer's sign-in may be made without one: they get an invitation e-mail to set their own.
     password: z

@@ -1,6 +1,16 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { divideHalfUp, formatMinor, lineTotalMinor, parseHundredths, quoteTotals } from "@/lib/money/quote-totals";
+import { credentialsSchema } from "@/lib/auth/credentials";
+import { quoteDraftSchema } from "@/lib/office/schemas";
+import {
+  divideHalfUp,
+  formatMinor,
+  lineTotalMinor,
+  MAX_MINOR,
+  parseHundredths,
+  quoteSubtotalTooLarge,
+  quoteTotals,
+} from "@/lib/money/quote-totals";
 
 // Expected figures below are worked by hand (pencil arithmetic), not produced by the code under test.
 describe("quote totals (integer minor units, tax once on the subtotal, half-up)", () => {
@@ -70,5 +80,41 @@ describe("quote totals (integer minor units, tax once on the subtotal, half-up)"
     expect(parseHundredths("-1")).toBeNull();
     expect(formatMinor(123456, "GBP")).toBe("£1,234.56");
     expect(formatMinor(5, "EUR")).toBe("€0.05");
+  });
+
+  it("says when lines within range alone pass the most a quote holds together, exactly at the edge", () => {
+    const line = (unitPriceMinor: number, quantityHundredths = 100) => ({ unitPriceMinor, quantityHundredths });
+    // by hand: 2 × 50,000,000.00 = 100,000,000.00, the most; one minor unit more is too much
+    expect(quoteSubtotalTooLarge([line(MAX_MINOR / 2), line(MAX_MINOR / 2)])).toBe(false);
+    expect(quoteSubtotalTooLarge([line(MAX_MINOR / 2), line(MAX_MINOR / 2 + 1)])).toBe(true);
+    // 0.01 × 100,000,000.00 = 1,000,000.00 a line: 100 lines make the most
+    expect(quoteSubtotalTooLarge(Array.from({ length: 100 }, () => line(MAX_MINOR, 1)))).toBe(false);
+    expect(quoteSubtotalTooLarge(Array.from({ length: 101 }, () => line(MAX_MINOR, 1)))).toBe(true);
+    // a line out of range on its own is left to its own field's message
+    expect(quoteSubtotalTooLarge([line(MAX_MINOR + 1), line(MAX_MINOR)])).toBe(false);
+  });
+
+  it("the quote form's schema names the lines when together they are too much, and quoteTotals is never reached with them", () => {
+    const line = { kind: "part", description: "Crank", quantityHundredths: 100_000_00, unitPriceMinor: MAX_MINOR };
+    const parsed = quoteDraftSchema.safeParse({ lines: Array.from({ length: 200 }, () => line), depositMinor: 0 });
+    expect(parsed.success).toBe(false);
+    expect(parsed.error?.issues.map((i) => [i.path.join("."), i.message])).toEqual([
+      ["lines", "together the lines come to more than 100,000,000.00, the most one quote can hold"],
+    ]);
+    expect(() =>
+      quoteTotals(
+        Array.from({ length: 200 }, () => line),
+        2000,
+      ),
+    ).toThrow(RangeError);
+  });
+});
+
+describe("the sign-in form's e-mail address", () => {
+  it("refuses one longer than any sign-in's with the words for a mistyped one (it would otherwise reach the lock-out's index)", () => {
+    const at = (n: number) => `${"a".repeat(n - "@example.test".length)}@example.test`;
+    expect(credentialsSchema.safeParse({ email: at(200), password: "x" }).success).toBe(true);
+    const long = credentialsSchema.safeParse({ email: at(201), password: "x" });
+    expect(long.error?.issues.map((i) => i.message)).toEqual(["Enter the e-mail address you sign in with"]);
   });
 });
