@@ -5,6 +5,7 @@ import type { NewResourceInput, ResourceKind } from "@/lib/calendar/rules";
 import { Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
+import { withKeysHeld } from "../setup/key-locks";
 
 // The shop's resources (bays, lifts, the dyno, mechanics). Added once; retired by its own record.
 
@@ -40,7 +41,8 @@ export async function addResource(db: Kysely<Database>, user: SessionUser, input
     if (!u || u.role !== "mechanic")
       throw new Refusal("That person is not a mechanic of this shop.", 422, [{ path: "userId", message: "not a mechanic of this shop" }]);
   }
-  return db.transaction().execute(async (trx) => {
+  // the name is checked and written one request at a time: a second "add" at once is refused in words
+  return withKeysHeld(db, [`resource-name:${user.shopId}:${input.name}`], async (trx) => {
     const clash = await trx
       .selectFrom("shop_resources")
       .select("id")

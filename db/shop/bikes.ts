@@ -3,6 +3,7 @@ import type { Kysely } from "kysely";
 import { bikeSchema, type BikeInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
 import type { Database } from "../schema";
+import { withKeysHeld } from "../setup/key-locks";
 import { containsPattern } from "./search";
 
 // The next free tag in the shop's series (e.g. GSW-0006): the prefix of its existing tags, or
@@ -42,27 +43,32 @@ export async function createBike(db: Kysely<Database>, shopId: string, input: Bi
     .where("shop_id", "=", shopId)
     .executeTakeFirst();
   if (!owner) throw new Refusal("Choose an owner from this shop's customers.", 422, [{ path: "customerId", message: "unknown customer" }]);
-  const tag = b.tagCode || (await nextTagCode(db, shopId));
-  const clash = await db.selectFrom("bikes").select("id").where("tag_code", "=", tag).executeTakeFirst();
-  if (clash)
-    throw new Refusal(`Tag ${tag} is already on another bike.`, 422, [{ path: "tagCode", message: `tag ${tag} is already in use` }]);
-  return db
-    .insertInto("bikes")
-    .values({
-      shop_id: shopId,
-      customer_id: b.customerId,
-      make: b.make,
-      model: b.model,
-      year: b.year,
-      vin: b.vin,
-      engine_number: b.engineNumber,
-      displacement_cc: b.displacementCc,
-      colour: b.colour,
-      tag_code: tag,
-      notes: b.notes,
-    })
-    .returning(["id", "tag_code as tagCode"])
-    .executeTakeFirstOrThrow();
+  // The shop's next free tag is given, and a chosen tag checked, one request at a time (two offices
+  // registering bikes at once): the second gets the tag after, or is refused in words, never by the
+  // unique index.
+  return withKeysHeld(db, [`bike-tags:${shopId}`, ...(b.tagCode ? [`bike-tag:${b.tagCode}`] : [])], async (trx) => {
+    const tag = b.tagCode || (await nextTagCode(trx, shopId));
+    const clash = await trx.selectFrom("bikes").select("id").where("tag_code", "=", tag).executeTakeFirst();
+    if (clash)
+      throw new Refusal(`Tag ${tag} is already on another bike.`, 422, [{ path: "tagCode", message: `tag ${tag} is already in use` }]);
+    return trx
+      .insertInto("bikes")
+      .values({
+        shop_id: shopId,
+        customer_id: b.customerId,
+        make: b.make,
+        model: b.model,
+        year: b.year,
+        vin: b.vin,
+        engine_number: b.engineNumber,
+        displacement_cc: b.displacementCc,
+        colour: b.colour,
+        tag_code: tag,
+        notes: b.notes,
+      })
+      .returning(["id", "tag_code as tagCode"])
+      .executeTakeFirstOrThrow();
+  });
 }
 
 export async function bikesForLabels(db: Kysely<Database>, shopId: string, ids: string[] | null) {

@@ -8,6 +8,7 @@ import type { newUserSchema } from "@/lib/office/user-schema";
 import type { z } from "zod";
 import { endSessions } from "../auth/sessions";
 import type { Database } from "../schema";
+import { withKeysHeld } from "../setup/key-locks";
 
 export async function listShopUsers(db: Kysely<Database>, shopId: string) {
   return db
@@ -22,33 +23,40 @@ export async function listShopUsers(db: Kysely<Database>, shopId: string) {
 }
 
 export async function createShopUser(db: Kysely<Database>, shopId: string, input: z.output<typeof newUserSchema>): Promise<{ id: string }> {
-  const taken = await db.selectFrom("users").select("id").where("email", "=", input.email).executeTakeFirst();
-  if (taken) throw new Refusal("That e-mail already has a sign-in.", 409, [{ path: "email", message: "already has a sign-in" }]);
-  if (input.customerId) {
-    const c = await db
-      .selectFrom("customers")
-      .select("id")
-      .where("id", "=", input.customerId)
-      .where("shop_id", "=", shopId)
-      .executeTakeFirst();
-    if (!c) throw new Refusal("That customer is not in this shop.", 400, [{ path: "customerId", message: "not a customer of this shop" }]);
-    const has = await db.selectFrom("users").select("id").where("customer_id", "=", input.customerId).executeTakeFirst();
-    if (has) throw new Refusal("That customer already has a sign-in.", 409, [{ path: "customerId", message: "already has a sign-in" }]);
-  }
-  return db
-    .insertInto("users")
-    .values({
-      shop_id: shopId,
-      name: input.name,
-      email: input.email,
-      role: input.role,
-      // no password given (a customer invited by e-mail): a hash of random bytes nobody knows, until
-      // they set their own from the invitation link
-      password_hash: await bcrypt.hash(input.password ?? randomBytes(32).toString("base64url"), 10),
-      customer_id: input.customerId,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
+  // the e-mail and the customer are checked and written one request at a time (two clicks on Save,
+  // two offices at once): the second is refused in words below, never by the unique index
+  // no password given (a customer invited by e-mail): a hash of random bytes nobody knows, until
+  // they set their own from the invitation link (hashed before the keys are held)
+  const passwordHash = await bcrypt.hash(input.password ?? randomBytes(32).toString("base64url"), 10);
+  const keys = [`user-email:${input.email}`, ...(input.customerId ? [`customer-sign-in:${input.customerId}`] : [])];
+  return withKeysHeld(db, keys, async (trx) => {
+    const taken = await trx.selectFrom("users").select("id").where("email", "=", input.email).executeTakeFirst();
+    if (taken) throw new Refusal("That e-mail already has a sign-in.", 409, [{ path: "email", message: "already has a sign-in" }]);
+    if (input.customerId) {
+      const c = await trx
+        .selectFrom("customers")
+        .select("id")
+        .where("id", "=", input.customerId)
+        .where("shop_id", "=", shopId)
+        .executeTakeFirst();
+      if (!c)
+        throw new Refusal("That customer is not in this shop.", 400, [{ path: "customerId", message: "not a customer of this shop" }]);
+      const has = await trx.selectFrom("users").select("id").where("customer_id", "=", input.customerId).executeTakeFirst();
+      if (has) throw new Refusal("That customer already has a sign-in.", 409, [{ path: "customerId", message: "already has a sign-in" }]);
+    }
+    return trx
+      .insertInto("users")
+      .values({
+        shop_id: shopId,
+        name: input.name,
+        email: input.email,
+        role: input.role,
+        password_hash: passwordHash,
+        customer_id: input.customerId,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+  });
 }
 
 /**

@@ -126,6 +126,9 @@ export async function bookIn(db: Kysely<Database>, shopId: string, userId: strin
 export async function bookInWith(trx: Trx, shopId: string, userId: string, i: ReturnType<typeof intakeSchema.parse>) {
   const bike = await trx.selectFrom("bikes").select("id").where("id", "=", i.bikeId).where("shop_id", "=", shopId).executeTakeFirst();
   if (!bike) throw new Refusal("Choose a bike from this shop.", 422, [{ path: "bikeId", message: "unknown bike" }]);
+  // the shop's row is held from here: a second booking-in of the same bike at once waits, then finds
+  // this one open (and the job numbers are given one at a time)
+  await trx.selectFrom("shops").select("id").where("id", "=", shopId).forUpdate().execute();
   const open = await trx
     .selectFrom("work_orders")
     .select("number")
@@ -136,7 +139,6 @@ export async function bookInWith(trx: Trx, shopId: string, userId: string, i: Re
     throw new Refusal(`This bike already has an open work order (#${open.number}).`, 409, [
       { path: "bikeId", message: `work order #${open.number} is still open` },
     ]);
-  await trx.selectFrom("shops").select("id").where("id", "=", shopId).forUpdate().execute();
   const last = await trx
     .selectFrom("work_orders")
     .select((eb) => eb.fn.max("number").as("n"))

@@ -2,6 +2,7 @@ import "server-only";
 import type { Kysely, Transaction } from "kysely";
 import { templateDocumentSchema, type TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import type { Database } from "../schema";
+import { holdKeys } from "../setup/key-locks";
 
 type Db = Kysely<Database> | Transaction<Database>;
 
@@ -16,6 +17,8 @@ export async function createTemplateVersion(
   const doc = templateDocumentSchema.parse(input);
   // Inside a caller's transaction (a bundle import) the version joins it; otherwise it has its own.
   const run = async (trx: Transaction<Database>) => {
+    // a new template's key is claimed one request at a time (two imports of the same file at once)
+    await holdKeys(trx, [`template-key:${shopId}:${doc.key}`]);
     const existing = await trx
       .selectFrom("procedure_templates")
       .select("id")
