@@ -4,6 +4,7 @@ import type { TuneFields, TuneVersion } from "@/lib/dyno/tune-version";
 import { CHECK_THE_FIELDS, Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
+import { withKeysHeld } from "../setup/key-locks";
 
 // Tune versions of a work order (lib/dyno/tune-version.ts). Rows are append-only (a trigger refuses
 // changes); the bytes live in object storage under `object_key`.
@@ -75,7 +76,8 @@ export async function recordTuneVersion(
   workOrderId: string,
   tune: TuneFields & { id: string; fileName: string; contentType: string; sizeBytes: number; sha256: string; objectKey: string },
 ): Promise<string> {
-  return db.transaction().execute(async (trx) => {
+  // the label is checked and written one upload at a time (a double click on Upload)
+  return withKeysHeld(db, [`tune-label:${workOrderId}:${tune.label}`], async (trx) => {
     await checkTuneLabelFree(trx, user.shopId, workOrderId, tune.label);
     await trx
       .insertInto("tune_versions")

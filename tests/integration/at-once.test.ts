@@ -1,8 +1,11 @@
+import { randomUUID } from "node:crypto";
 import { expect, it } from "vitest";
+import type { Refusal } from "@/lib/errors";
 import { POST as addResource } from "@/app/api/office/resources/route";
 import { POST as makeBike } from "@/app/api/office/bikes/route";
 import { POST as makeUser } from "@/app/api/office/users/route";
 import { issueBill } from "@/db/office/final-bill";
+import { recordTuneVersion } from "@/db/records/tunes";
 import { createBike } from "@/db/shop/bikes";
 import { createCustomer } from "@/db/shop/customers";
 import { bookIn } from "@/db/shop/work-orders";
@@ -150,4 +153,28 @@ it("a new template imported six times at once is one template with six versions"
   );
   expect(new Set(made.map((m) => m.templateId)).size).toBe(1);
   expect(made.map((m) => m.version).sort()).toEqual([1, 2, 3, 4, 5, 6]);
+});
+
+it("a tune's label is given once on a job, however many uploads of it arrive at once", async () => {
+  const fx = await createShopFixture(db);
+  const tries = await Promise.allSettled(
+    Array.from({ length: AT_ONCE }, () => {
+      const id = randomUUID();
+      return recordTuneVersion(db, { id: fx.users.supervisor.id, shopId: fx.shopId }, fx.workOrderId, {
+        id,
+        label: "v3 10 psi",
+        notes: "",
+        fileName: "v3.bin",
+        contentType: "application/octet-stream",
+        sizeBytes: 4,
+        sha256: "0".repeat(64),
+        objectKey: `tunes/${fx.shopId}/${fx.workOrderId}/${id}`,
+      });
+    }),
+  );
+  expect(tries.filter((t) => t.status === "fulfilled")).toHaveLength(1);
+  const refused = tries.flatMap((t) => (t.status === "rejected" ? [t.reason as Refusal] : []));
+  expect(refused.map((r) => [r.status, r.issues[0]?.message])).toEqual(
+    Array(AT_ONCE - 1).fill([409, "This work order already has a tune labelled “v3 10 psi”: give the new version its own label."]),
+  );
 });
