@@ -10,7 +10,7 @@ import { z } from "zod";
 import { MEASUREMENT_UNITS, TORQUE_UNITS, type TorqueUnit } from "@/lib/calc/units";
 import { isSaneInstant, safeText, saneInstant } from "@/lib/safe-values";
 import { DEVICE_ID_PATTERN, STAMP_PATTERN } from "./hlc";
-import { canonicalDecimal, decimalOfNumber, readingValueProblem } from "./reading-value";
+import { canonicalDecimal, decimalOfNumber, heldExactly, MAX_READING_DIGITS, readingValueProblem } from "./reading-value";
 
 /** Limits of one POST /api/sync. A bigger outbox is sent as several batches (see ./batching.ts). */
 export const SYNC_LIMITS = {
@@ -89,6 +89,13 @@ const typedDecimal = (label: string, example: string) =>
       const text = typeof v === "number" ? decimalOfNumber(v) : canonicalDecimal(v);
       if (text === null) {
         ctx.addIssue({ code: "custom", message: `${label}: must be a plain decimal number as typed on the keypad, e.g. ${example}.` });
+        return z.NEVER;
+      }
+      if (!heldExactly(text)) {
+        ctx.addIssue({
+          code: "custom",
+          message: `${label}: at most ${MAX_READING_DIGITS} digits; no instrument at the bench reads finer.`,
+        });
         return z.NEVER;
       }
       return text;

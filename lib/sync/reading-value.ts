@@ -63,14 +63,13 @@ export function significantDigits(text: string): number {
   return Math.max(1, digits.length);
 }
 
-/** The decimal value of a text without trailing fraction zeros ("0.030" → "0.03"), to compare values. */
-const plainValue = (text: string) => (text.includes(".") ? text.replace(/0+$/, "").replace(/\.$/, "") : text);
-
 /** Whether a JavaScript number holds the text's value exactly (so the verdict compares exactly what was typed). */
 export function heldExactly(text: string): boolean {
   if (significantDigits(text) <= MAX_READING_DIGITS) return true;
-  const back = decimalOfNumber(Number(text));
-  return back !== null && plainValue(back) === plainValue(text);
+  // past 15 digits, only the text an older tablet's number prints as (its shortest decimal, never
+  // with trailing zeros): "31.5" followed by 20,000 zeros is no reading, and PostgreSQL's numeric
+  // keeps at most 16,383 decimal places (the whole sync batch failed on one such entry)
+  return decimalOfNumber(Number(text)) === text;
 }
 
 /** Why a reading text cannot be stored, in the mechanic's words, or null when it can. */

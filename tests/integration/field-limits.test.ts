@@ -1,12 +1,14 @@
-import { randomInt } from "node:crypto";
+import { randomInt, randomUUID } from "node:crypto";
 import { expect, it } from "vitest";
 import { POST as makeUser } from "@/app/api/office/users/route";
+import { POST as syncRoute } from "@/app/api/sync/route";
 import { PUT as putQuote } from "@/app/api/office/work-orders/[id]/quote/route";
 import { quotesOfWorkOrder } from "@/db/office/quotes";
 import { createBike } from "@/db/shop/bikes";
 import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { MAX_MINOR } from "@/lib/money/quote-totals";
 import { INT4_MAX } from "@/lib/safe-values";
+import { fixtureSpecs, Tablet } from "../bench/sync-ops";
 import { appRequest } from "./support/route-calls";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
 import { useTestDb } from "./support/test-db";
@@ -97,4 +99,31 @@ it("refuses a sign-in's e-mail address longer than any real one, in words, savin
   );
   expect(ok.status).toBe(201);
   expect(await db.selectFrom("users").select("email").where("name", "=", "Long Address").execute()).toEqual([{ email: fits }]);
+});
+
+it("refuses a reading or a wrench reading typed with thousands of zeros alone, and merges the rest of the batch", async () => {
+  // PostgreSQL's numeric keeps at most 16,383 decimal places: such an entry failed the whole batch
+  // (503), and a tablet's outbox could not get past it
+  const fx = await createShopFixture(db);
+  const specs = await fixtureSpecs(db, fx);
+  const mechanic = { ...fx.users.mechanic, customerId: null };
+  const tablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, mechanic.id, fx.workOrderId);
+  const reading = tablet.read(specs.boreStepId, specs.boreSpecId, 0, 76.004);
+  const longReading = { ...reading, payload: { ...reading.payload, value: `76.004${"0".repeat(20_000)}` } };
+  const bolt = tablet.bolt(specs.caseBoltsStepId, specs.caseBoltsSpecId, 1, 1);
+  const longWrench = { ...bolt, payload: { ...bolt.payload, wrenchReading: `31.5${"0".repeat(20_000)}`, wrenchUnit: "N·m" } };
+  const good = tablet.complete(specs.boreStepId);
+  const res = await syncRoute.handle(
+    send("POST", "/api/sync", { deviceId: tablet.deviceId, cursor: null, operations: [longReading, longWrench, good] }),
+    { user: mechanic, db },
+  );
+  expect(res.status).toBe(200);
+  const body = await res.json();
+  expect(body.accepted).toEqual([good.id]);
+  expect(body.refused.map((r: { id: string; reason: string }) => [r.id, r.reason.split(". ")[0]])).toEqual([
+    [longReading.id, "Value: at most 15 digits; no instrument at the bench reads finer"],
+    [longWrench.id, "Wrench reading: at most 15 digits; no instrument at the bench reads finer"],
+  ]);
+  const kept = await db.selectFrom("operations").select("id").where("work_order_id", "=", fx.workOrderId).execute();
+  expect(kept.map((o) => o.id)).toEqual([good.id]);
 });

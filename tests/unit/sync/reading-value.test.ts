@@ -68,6 +68,13 @@ describe("a reading's value keeps its digits", () => {
     expect(heldExactly("76.00512345678901")).toBe(true); // the 16 digits an older tablet's number printed
     expect(heldExactly("0.10000000000000001")).toBe(false); // 17 typed digits that no number holds
     expect(readingValueProblem("0.10000000000000001", "mm")).toBe("Value: at most 15 digits; no instrument at the bench reads finer.");
+    // trailing zeros are digits as typed: past 15 of them, no reading (and past 16,383 decimal
+    // places PostgreSQL's numeric refuses the value)
+    expect(heldExactly("0.0300000000000000")).toBe(true); // 15 significant digits, trailing zeros included
+    expect(heldExactly("0.03000000000000000")).toBe(false);
+    expect(readingValueProblem(`31.5${"0".repeat(20_000)}`, "mm")).toBe(
+      "Value: at most 15 digits; no instrument at the bench reads finer.",
+    );
   });
 
   it("gives the exact verdict from the text: a limit reading is in, whatever its trailing zeros (common practice: limits count as in)", () => {
