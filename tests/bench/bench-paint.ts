@@ -16,7 +16,7 @@ import { chromium, type Page } from "@playwright/test";
 import { DEMO_PASSWORD, DEMO_USERS } from "@/db/seed/demo-people";
 
 const APP = process.env.BENCH_APP_URL ?? `http://localhost:${process.env.E2E_PORT ?? 3100}`;
-const RUNS = Number(process.env.BENCH_PAINT_RUNS ?? 3);
+const RUNS = Number(process.env.BENCH_PAINT_RUNS ?? 5);
 
 export interface PaintFigures {
   firstLoadLcpMs: number[];
