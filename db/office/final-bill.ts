@@ -10,7 +10,7 @@ import { lockWorkOrder } from "../shop/work-orders";
 import { hoursOfJob } from "../bench/clocks";
 import { supplementsOf } from "./supplements";
 import type { Database } from "../schema";
-import { withKeysHeld } from "../setup/key-locks";
+import { holdKeys } from "../setup/key-locks";
 
 // The final bill: gathered from the approved quote, the answered extra work, the clocked hours and
 // the parts fitted (lib/money/final-bill.ts holds the arithmetic), issued once, never edited.
@@ -155,13 +155,12 @@ export async function issueBillIn(
     throw e;
   }
   // bill numbers are the shop's, and bills of two jobs may be issued at once: one number at a time
-  const last = await withKeysHeld(trx, [`bill-numbers:${shopId}`], (held) =>
-    held
-      .selectFrom("invoices")
-      .select((eb) => eb.fn.max("number").as("n"))
-      .where("shop_id", "=", shopId)
-      .executeTakeFirst(),
-  );
+  await holdKeys(trx, [`bill-numbers:${shopId}`]);
+  const last = await trx
+    .selectFrom("invoices")
+    .select((eb) => eb.fn.max("number").as("n"))
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
   const invoice = await trx
     .insertInto("invoices")
     .values({

@@ -23,11 +23,11 @@ export async function listShopUsers(db: Kysely<Database>, shopId: string) {
 }
 
 export async function createShopUser(db: Kysely<Database>, shopId: string, input: z.output<typeof newUserSchema>): Promise<{ id: string }> {
-  // the e-mail and the customer are checked and written one request at a time (two clicks on Save,
-  // two offices at once): the second is refused in words below, never by the unique index
   // no password given (a customer invited by e-mail): a hash of random bytes nobody knows, until
   // they set their own from the invitation link (hashed before the keys are held)
   const passwordHash = await bcrypt.hash(input.password ?? randomBytes(32).toString("base64url"), 10);
+  // the e-mail and the customer are checked and written one request at a time (two clicks on Save,
+  // two offices at once): the second is refused in words below, never by the unique index
   const keys = [`user-email:${input.email}`, ...(input.customerId ? [`customer-sign-in:${input.customerId}`] : [])];
   return withKeysHeld(db, keys, async (trx) => {
     const taken = await trx.selectFrom("users").select("id").where("email", "=", input.email).executeTakeFirst();

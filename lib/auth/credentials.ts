@@ -6,13 +6,10 @@ import { z } from "zod";
  */
 export const EMAIL_MAX_CHARS = 200;
 
+const NOT_A_SIGN_IN_ADDRESS = "Enter the e-mail address you sign in with";
+
 export const credentialsSchema = z.object({
   // an address longer than any sign-in's belongs to nobody: the same words as a mistyped one
-  email: z
-    .string()
-    .trim()
-    .toLowerCase()
-    .max(EMAIL_MAX_CHARS, "Enter the e-mail address you sign in with")
-    .email("Enter the e-mail address you sign in with"),
+  email: z.string().trim().toLowerCase().max(EMAIL_MAX_CHARS, NOT_A_SIGN_IN_ADDRESS).email(NOT_A_SIGN_IN_ADDRESS),
   password: z.string().min(1, "Enter your password").max(200, "Password is too long"),
 });

@@ -21,10 +21,14 @@ export interface QuoteTotals {
 
 // The largest amount we accept anywhere, so every product below stays an exact integer in a double.
 export const MAX_MINOR = 100_000_000_00; // 100 million in major units
+/** The largest quantity of a quote line, in hundredths (100,000.00). */
+export const MAX_QUANTITY_HUNDREDTHS = 100_000_00;
 const MAX_TAX_RATE_BP = 10_000;
 
+const within = (v: number, min: number, max: number) => Number.isInteger(v) && v >= min && v <= max;
+
 function assertInt(name: string, v: number, min: number, max: number): void {
-  if (!Number.isInteger(v) || v < min || v > max) throw new RangeError(`${name} must be a whole number from ${min} to ${max}, got ${v}`);
+  if (!within(v, min, max)) throw new RangeError(`${name} must be a whole number from ${min} to ${max}, got ${v}`);
 }
 
 // round(numerator / denominator) with halves going up, for non-negative integers.
@@ -37,7 +41,7 @@ export function divideHalfUp(numerator: number, denominator: number): number {
 }
 
 export function lineTotalMinor(line: QuoteLineInput): number {
-  assertInt("quantity (hundredths)", line.quantityHundredths, 1, 100_000_00);
+  assertInt("quantity (hundredths)", line.quantityHundredths, 1, MAX_QUANTITY_HUNDREDTHS);
   assertInt("unit price", line.unitPriceMinor, 0, MAX_MINOR);
   // quantity ≤ 100 000.00 and price ≤ 1e10 → product ≤ 1e17 would overflow; split the product.
   const whole = Math.floor(line.quantityHundredths / 100);
@@ -52,8 +56,7 @@ export const QUOTE_TOO_LARGE = "together the lines come to more than 100,000,000
 export function quoteSubtotalTooLarge(lines: readonly QuoteLineInput[]): boolean {
   let subtotal = 0;
   for (const line of lines) {
-    const { quantityHundredths: q, unitPriceMinor: p } = line;
-    if (!Number.isInteger(q) || q < 1 || q > 100_000_00 || !Number.isInteger(p) || p < 0 || p > MAX_MINOR) return false;
+    if (!within(line.quantityHundredths, 1, MAX_QUANTITY_HUNDREDTHS) || !within(line.unitPriceMinor, 0, MAX_MINOR)) return false;
     subtotal += lineTotalMinor(line);
     if (subtotal > MAX_MINOR) return true;
   }

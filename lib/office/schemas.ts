@@ -1,7 +1,7 @@
 import { z } from "zod";
 import "../zod-issues";
 import { EMAIL_MAX_CHARS } from "../auth/credentials";
-import { MAX_MINOR, QUOTE_TOO_LARGE, quoteSubtotalTooLarge } from "../money/quote-totals";
+import { MAX_MINOR, MAX_QUANTITY_HUNDREDTHS, QUOTE_TOO_LARGE, quoteSubtotalTooLarge } from "../money/quote-totals";
 import { WORK_ORDER_STATUSES } from "../work-orders/status";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS } from "../sync/operations";
 import { safeText } from "../safe-values";
@@ -142,7 +142,11 @@ const quoteLineSchema = z.object({
   kind: z.enum(QUOTE_LINE_KINDS, "choose part or labour"),
   description: z.string().trim().min(2, "describe the line").max(200),
   partNumber: optionalText(60),
-  quantityHundredths: z.number().int("quantity may have two decimals at most").min(1, "quantity must be more than 0").max(100_000_00),
+  quantityHundredths: z
+    .number()
+    .int("quantity may have two decimals at most")
+    .min(1, "quantity must be more than 0")
+    .max(MAX_QUANTITY_HUNDREDTHS),
   unitPriceMinor: z.number().int("price may have two decimals at most").min(0, "price cannot be negative").max(MAX_MINOR),
 });
 
