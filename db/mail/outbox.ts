@@ -110,13 +110,19 @@ export async function finishMail(
 }
 
 /**
- * E-mails queued longer than `olderThanMs` with no live job (created, waiting for a retry, or
- * running) in the queue's table: their job was lost, e.g. the process stopped before handing it on.
+ * E-mails with no live job (created, waiting for a retry, or running) in the queue's table, left
+ * waiting: queued longer than `olderThanMs` (their job was lost, e.g. the process stopped before
+ * handing it on), or claimed for sending longer ago than a claim is trusted (the worker stopped
+ * between claiming and finishing, and its job expired and ended "not mine"). Such a claim is
+ * taken again by the next job (`claimMail`), so the e-mail goes out rather than waiting for ever;
+ * a worker that stopped after the SMTP server took it but before it was marked sent means it goes
+ * out twice, the lesser harm.
  */
 export async function strandedMails(db: Kysely<Database>, olderThanMs: number, limit = 200): Promise<string[]> {
   const r = await sql<{ id: string }>`
     SELECT m.id FROM mail_outbox m
-    WHERE m.state = 'queued' AND m.queued_at < ${new Date(Date.now() - olderThanMs)}
+    WHERE ((m.state = 'queued' AND m.queued_at < ${new Date(Date.now() - olderThanMs)})
+        OR (m.state = 'sending' AND m.claimed_at < now() - make_interval(secs => ${CLAIM_STALE_MS / 1000})))
       AND NOT EXISTS (
         SELECT 1 FROM pgboss.job j
         WHERE j.name = 'mail-send' AND j.data->>'mailId' = m.id::text AND j.state IN ('created', 'retry', 'active')

@@ -3,7 +3,7 @@ import { enqueueMails, handToQueue } from "@/app/_server/mail";
 import { QUEUES } from "@/app/_server/queue/names";
 import { POST as tryAgain } from "@/app/api/office/outbox-mail/route";
 import { GET as reviewQueue } from "@/app/api/review/queue/route";
-import { outboxForOffice, queueMails } from "@/db/mail/outbox";
+import { outboxForOffice, queueMails, strandedMails } from "@/db/mail/outbox";
 import { Tablet } from "../bench/sync-ops";
 import { mailTo, useFakes } from "./support/fakes";
 import { eventually, TEST_MAIL_RETRY, useQueueWorkers, withSmtpRefusing } from "./support/queue";
@@ -161,5 +161,38 @@ describe("the e-mail queue", () => {
     await eventually(async () => (await outboxRows(fx.workOrderId))[0].state === "sent");
     expect(await mailTo(ports.mailWeb, to, 2, 1500)).toHaveLength(1);
     expect((await outboxRows(fx.workOrderId))[0].attempts).toBe(1);
+  });
+
+  it("an e-mail whose worker stopped between claiming and sending it is sent by the sweep, not left claimed for ever", async () => {
+    const fx = await createShopFixture(db);
+    const to = `claimed-${Date.now()}@example.test`;
+    const [id] = await queueMails(db, [testMail(fx, "test-claimed", to, "Claimed, never sent")]);
+    // As a worker leaves it when it stops after claiming: marked sending, its job long gone (pg-boss
+    // expired it, and the retry found the claim still fresh and ended as "not mine").
+    await db
+      .updateTable("mail_outbox")
+      .set({ state: "sending", attempts: 1, claimed_at: new Date(Date.now() - 10 * 60_000), queued_at: new Date(Date.now() - 11 * 60_000) })
+      .where("id", "=", id)
+      .execute();
+    expect(await strandedMails(db, 60_000)).toContain(id);
+    await workers[0].send(QUEUES.sweep, {});
+    await eventually(async () => (await outboxRows(fx.workOrderId))[0].state === "sent");
+    expect(await mailTo(ports.mailWeb, to, 1, 1500)).toHaveLength(1);
+    expect((await outboxRows(fx.workOrderId))[0].attempts).toBe(2);
+  });
+
+  it("an e-mail claimed a moment ago by a live worker is left to it by the sweep", async () => {
+    const fx = await createShopFixture(db);
+    const to = `fresh-claim-${Date.now()}@example.test`;
+    const [id] = await queueMails(db, [testMail(fx, "test-fresh-claim", to, "Being sent")]);
+    await db
+      .updateTable("mail_outbox")
+      .set({ state: "sending", attempts: 1, claimed_at: new Date(), queued_at: new Date(Date.now() - 11 * 60_000) })
+      .where("id", "=", id)
+      .execute();
+    expect(await strandedMails(db, 60_000)).not.toContain(id);
+    const row = (await outboxRows(fx.workOrderId))[0];
+    expect(row.state).toBe("sending");
+    expect(row.attempts).toBe(1);
   });
 });
