@@ -127,3 +127,31 @@ it("refuses a reading or a wrench reading typed with thousands of zeros alone, a
   const kept = await db.selectFrom("operations").select("id").where("work_order_id", "=", fx.workOrderId).execute();
   expect(kept.map((o) => o.id)).toEqual([good.id]);
 });
+
+it("counts a withdrawal's reason in characters as the column's CHECK does: two emoji are refused alone, three are kept", async () => {
+  // "🔧🔧" is four UTF-16 units but two characters (PostgreSQL's length()). zod's length rules count
+  // characters too; this holds them to it, since a reason the CHECK refuses would fail the batch
+  const fx = await createShopFixture(db);
+  const specs = await fixtureSpecs(db, fx);
+  const mechanic = { ...fx.users.mechanic, customerId: null };
+  const tablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, mechanic.id, fx.workOrderId);
+  const bolt = tablet.bolt(specs.caseBoltsStepId, specs.caseBoltsSpecId, 1, 1);
+  const first = await syncRoute.handle(send("POST", "/api/sync", tablet.batch([bolt])), { user: mechanic, db });
+  expect((await first.json()).accepted).toEqual([bolt.id]);
+  const emoji = tablet.make("entry.withdrawn", { operationId: bolt.id, reason: "🔧🔧" });
+  const good = tablet.complete(specs.boreStepId);
+  const res = await syncRoute.handle(send("POST", "/api/sync", tablet.batch([emoji, good])), { user: mechanic, db });
+  expect(res.status).toBe(200);
+  const body = await res.json();
+  expect(body.accepted).toEqual([good.id]);
+  expect(body.refused.map((r: { id: string; reason: string }) => r.id)).toEqual([emoji.id]);
+  expect(body.refused[0].reason).toMatch(/^give the reason in a few words\./);
+  // three emoji are three characters: taken, and the bolt is withdrawn on the record
+  const three = tablet.make("entry.withdrawn", { operationId: bolt.id, reason: "🔧🔧🔧" });
+  const again = await syncRoute.handle(send("POST", "/api/sync", tablet.batch([three])), { user: mechanic, db });
+  const againBody = await again.json();
+  expect(againBody.refused).toEqual([]);
+  expect(againBody.accepted).toEqual([three.id]);
+  const w = await db.selectFrom("withdrawals").select(["operation_id", "reason"]).where("operation_id", "=", bolt.id).execute();
+  expect(w).toEqual([{ operation_id: bolt.id, reason: "🔧🔧🔧" }]);
+});
