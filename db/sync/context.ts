@@ -10,7 +10,7 @@ import type {
   TimerSpecFacts,
   TorqueSpecFacts,
 } from "@/lib/sync/merge-rules";
-import { boltKey, emptyMergeState } from "@/lib/sync/merge-rules";
+import { approvedStageKey, boltKey, emptyMergeState } from "@/lib/sync/merge-rules";
 import { partSerialOnWorkOrder } from "@/lib/sync/parts";
 import type { Operation } from "@/lib/sync/operations";
 import type { ReadingSpec } from "@/lib/sync/readings";
@@ -66,6 +66,7 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
       timerSpecs: new Map(),
       sendBacks: [],
       holds: new Map(),
+      approvedStages: new Set(),
     });
   }
   const own = jobs.filter((j) => j.shop_id === shopId).map((j) => j.id);
@@ -76,7 +77,7 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
     .selectFrom("job_procedures as jp")
     .innerJoin("template_steps as s", "s.template_version_id", "jp.template_version_id")
     .where("jp.work_order_id", "=", anyId(own));
-  const [steps, measurementSpecs, torqueSpecs, timerSpecs, sendBacks, holds] = await Promise.all([
+  const [steps, measurementSpecs, torqueSpecs, timerSpecs, sendBacks, holds, stageDecisions] = await Promise.all([
     pinned
       .select(["jp.work_order_id", "jp.id as job_procedure_id", "s.id", "s.key", "s.title", "s.stage_key"])
       .orderBy("jp.position")
@@ -118,7 +119,23 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
       )
       .select(["jp.work_order_id", "t.id", "t.label", "held.id as held_step_id"])
       .execute(),
+    // each stage's latest decision on a sign-off still standing (not withdrawn)
+    db
+      .selectFrom("review_decisions as d")
+      .innerJoin("sign_offs as so", "so.id", "d.sign_off_id")
+      .select(["so.work_order_id", "so.job_procedure_id", "so.stage_key", "d.decision"])
+      .distinctOn(["so.job_procedure_id", "so.stage_key"])
+      .where("so.work_order_id", "=", anyId(own))
+      .where((eb) => eb.not(eb.exists(eb.selectFrom("withdrawals as w").select("w.id").whereRef("w.operation_id", "=", "so.id"))))
+      .orderBy("so.job_procedure_id")
+      .orderBy("so.stage_key")
+      .orderBy("d.change_seq", "desc")
+      .execute(),
   ]);
+  for (const d of stageDecisions) {
+    if (d.decision === "approved")
+      (out.get(d.work_order_id)!.approvedStages as Set<string>).add(approvedStageKey(d.job_procedure_id, d.stage_key));
+  }
   for (const s of steps) {
     const steps = out.get(s.work_order_id)!.steps as Map<string, StepFacts>;
     // A step pinned twice on one job (same version run twice) belongs to the first procedure.
@@ -266,6 +283,13 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
             "p.serial",
             eb.not(notWithdrawn("o.id")).as("withdrawn"),
             eb.exists(eb.selectFrom("review_decisions as d").select("d.id").whereRef("d.sign_off_id", "=", "o.id")).as("decided"),
+            sql<string | null>`o.payload->>'stepId'`.as("step_id"),
+            eb
+              .and([
+                eb("o.flagged", "=", true),
+                eb.not(eb.exists(eb.selectFrom("flag_acceptances as fa").select("fa.id").whereRef("fa.operation_id", "=", "o.id"))),
+              ])
+              .as("flagged_open"),
           ])
           .where("o.id", "=", anyId(entryIds))
           .execute()
@@ -309,6 +333,8 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
         ? { serialKey: partSerialOnWorkOrder(e.work_order_id, e.part_number, e.serial) }
         : {}),
       ...(e.kind === "stage.signed-off" ? { decided: Boolean(e.decided) } : {}),
+      ...(e.step_id !== null ? { stepId: e.step_id } : {}),
+      ...(e.flagged_open ? { flaggedOpen: true } : {}),
     });
   }
   return state;

@@ -182,6 +182,8 @@ export async function mergeBatch(
       } else {
         kept.push({ op: h.op, decision });
         noteAccepted(h.op, state, jobs.get(h.op.workOrderId)?.number);
+        const entry = state.entries.get(h.op.id);
+        if (entry && decision.outcome === "flag") entry.flaggedOpen = true;
         if (wasFiled) applied.push(h.op.id);
       }
     };

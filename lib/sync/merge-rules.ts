@@ -81,7 +81,12 @@ export interface WorkOrderFacts {
   sendBacks: readonly SendBackFacts[];
   /** Held step id → the timer specs that hold it (none when absent). */
   holds?: ReadonlyMap<string, readonly HoldFacts[]>;
+  /** Stages whose latest decision (on a sign-off still standing) is an approval, as `approvedStageKey`s. */
+  approvedStages?: ReadonlySet<string>;
 }
+
+/** A stage's key in `WorkOrderFacts.approvedStages`. */
+export const approvedStageKey = (jobProcedureId: string, stageKey: string) => `${jobProcedureId}|${stageKey}`;
 
 /** A timer on record (or started earlier in the batch), with what the hold rule needs (./holds.ts). */
 export interface TimerFacts extends HoldTimer {
@@ -336,16 +341,38 @@ function secondTimerFlags(op: Operation, job: WorkOrderFacts, state: MergeState)
   ];
 }
 
-/** A sign-off withdrawn after a supervisor decided on it is flagged: the decision no longer has a sign-off to stand on. */
+/**
+ * Withdrawals the supervisor must see, since they change what a decision stood on:
+ * - a sign-off a supervisor had decided on (the stage needs a new sign-off and review);
+ * - work on a step whose stage the supervisor has approved: the approved record is no longer the
+ *   record, so the stage goes back to the review queue (and the handover gate) until they accept it;
+ * - an entry that was itself flagged and not yet accepted: withdrawing it must not make the flag
+ *   (a stretch bolt tightened twice, work during a hold) disappear from review.
+ */
 function withdrawalFlags(op: Operation, job: WorkOrderFacts, state: MergeState): string[] {
   if (op.kind !== "entry.withdrawn") return [];
   const entry = state.entries.get(op.payload.operationId);
-  if (entry?.kind === "stage.signed-off" && entry.decided) {
-    return [
-      "This stage sign-off had already been decided on by a supervisor when it was withdrawn: the stage needs a new sign-off and review.",
-    ];
+  if (!entry) return [];
+  if (entry.kind === "stage.signed-off") {
+    return entry.decided
+      ? [
+          "This stage sign-off had already been decided on by a supervisor when it was withdrawn: the stage needs a new sign-off and review.",
+        ]
+      : [];
   }
-  return [];
+  const flags: string[] = [];
+  const step = entry.stepId ? job.steps.get(entry.stepId) : undefined;
+  if (step && job.approvedStages?.has(approvedStageKey(step.jobProcedureId, step.stageKey))) {
+    flags.push(
+      `Withdrawn from step “${step.title}” after the supervisor approved its stage: the approved record has changed, so the stage is checked again.`,
+    );
+  }
+  if (entry.flaggedOpen) {
+    flags.push(
+      "The entry withdrawn had been flagged for the supervisor and not yet accepted: the supervisor sees it with this withdrawal.",
+    );
+  }
+  return flags;
 }
 
 /** The timer an operation names, on this job. "Not found" may one day mean "not here yet". */
@@ -579,6 +606,8 @@ function checkReferences(op: Operation, job: WorkOrderFacts, state: MergeState):
 /** Adds what an accepted operation created to the state, so later operations in the batch can name it. */
 export function noteAccepted(op: Operation, state: MergeState, jobNumber = 0): void {
   const entry: EntryFacts = { workOrderId: op.workOrderId, kind: op.kind, authorId: op.authorId, withdrawn: false };
+  const stepId = (op.payload as { stepId?: unknown }).stepId;
+  if (typeof stepId === "string") entry.stepId = stepId;
   if (!state.entries.has(op.id)) state.entries.set(op.id, entry);
   switch (op.kind) {
     case "measurement.recorded":

@@ -37,6 +37,10 @@ export interface EntryFacts {
   serialKey?: string;
   /** For a sign-off: whether a supervisor has decided on it. */
   decided?: boolean;
+  /** For work on a step: the step. */
+  stepId?: string;
+  /** Kept flagged and not (yet) accepted by a supervisor. */
+  flaggedOpen?: boolean;
 }
 
 /** The outcome of looking up something an operation names: found, or not on record (yet). */

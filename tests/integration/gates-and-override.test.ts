@@ -205,6 +205,73 @@ describe("the gates on ready and handed over (real PostgreSQL)", () => {
     expect(await db.selectFrom("report_revisions").select("id").where("work_order_id", "=", job.workOrderId).execute()).toEqual([]);
   });
 
+  it("work withdrawn from a stage the supervisor approved puts the stage back in review, and the gate holds until it is accepted", async () => {
+    const job = await closeOutJob(db);
+    // before any decision a withdrawal is an ordinary correction: kept, not flagged
+    const early = job.tablet.complete(job.steps.seal);
+    await sync(db, job.users.mech, job.tablet, [early]);
+    const fix = job.tablet.make("entry.withdrawn", { operationId: early.id, reason: "Tapped the wrong step" });
+    const r0 = await sync(db, job.users.mech, job.tablet, [fix]);
+    expect(r0.accepted).toEqual([fix.id]);
+    expect(r0.flagged).toEqual([]);
+
+    await finishEverything(db, job);
+    expect(await loadOpenItems(db, job.fx.shopId, job.workOrderId)).toEqual([]);
+    const done = await db
+      .selectFrom("step_completions as c")
+      .select("c.id")
+      .where("c.work_order_id", "=", job.workOrderId)
+      .where("c.step_id", "=", job.steps["fit-cover"])
+      .executeTakeFirstOrThrow();
+    // after the approval: the cover's completion is withdrawn and the step done again
+    const withdraw = job.tablet.make("entry.withdrawn", { operationId: done.id, reason: "Cover came off again for a leak" });
+    const redo = job.tablet.complete(job.steps["fit-cover"]);
+    const r = await sync(db, job.users.mech, job.tablet, [withdraw, redo]);
+    expect(r.flagged.map((f) => f.id)).toEqual([withdraw.id]);
+    expect(r.flagged[0].reason).toMatch(/^Withdrawn from step “Fit the cover” after the supervisor approved its stage/);
+    const items = (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!;
+    expect(items).toEqual([
+      expect.objectContaining({
+        kind: "flagged_not_accepted",
+        stage: expect.objectContaining({ key: "check" }),
+        step: { id: job.steps["fit-cover"], title: "Fit the cover" },
+      }),
+    ]);
+    expect((await refusedMove(job)).issues).toHaveLength(1);
+    expect(await statusOf(job)).toBe("on_dyno");
+
+    // the supervisor looks at the stage again and accepts the withdrawal in writing: nothing is open
+    const check = await db
+      .selectFrom("sign_offs")
+      .select("id")
+      .where("work_order_id", "=", job.workOrderId)
+      .where("stage_key", "=", "check")
+      .executeTakeFirstOrThrow();
+    const standing = await db.selectFrom("review_decisions").select("id").where("sign_off_id", "=", check.id).executeTakeFirstOrThrow();
+    const ok = await decideOnSignOff(
+      db,
+      job.users.sup,
+      check.id,
+      approve([{ operationId: withdraw.id, justification: "Leak fixed and cover refitted; checked it myself" }], standing.id),
+    );
+    expect(ok.ok).toBe(true);
+    expect(await loadOpenItems(db, job.fx.shopId, job.workOrderId)).toEqual([]);
+  });
+
+  it("withdrawing a flagged entry nobody accepted keeps it in front of the supervisor", async () => {
+    const job = await closeOutJob(db);
+    // a tablet whose clock is 10 minutes ahead: its completion is kept and flagged
+    const fast = new Tablet("fast-tablet-2", job.users.mech.id, job.workOrderId, () => Date.now() + 10 * 60_000);
+    const late = fast.complete(job.steps.seal);
+    expect((await sync(db, job.users.mech, fast, [late])).flagged.map((f) => f.id)).toEqual([late.id]);
+    const withdraw = fast.make("entry.withdrawn", { operationId: late.id, reason: "Recorded on the wrong tablet" });
+    const r = await sync(db, job.users.mech, fast, [withdraw]);
+    expect(r.flagged.map((f) => f.id)).toContain(withdraw.id);
+    expect(r.flagged.find((f) => f.id === withdraw.id)!.reason).toMatch(/had been flagged for the supervisor and not yet accepted/);
+    const items = (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!;
+    expect(items.filter((i) => i.kind === "flagged_not_accepted").map((i) => i.key)).toEqual([`flagged_not_accepted:${withdraw.id}`]);
+  });
+
   it("a job with no procedure pinned has nothing to review: the gate says so", async () => {
     const job = await closeOutJob(db);
     await db.deleteFrom("job_procedures").where("work_order_id", "=", job.workOrderId).execute();
