@@ -4,6 +4,7 @@ import { overridesOf } from "@/db/records/status-overrides";
 import { openItemLine } from "@/lib/work-orders/open-items";
 import { formatMinor } from "@/lib/money/quote-totals";
 import { ANSWER_LINK_DAYS } from "@/lib/office/extra-work";
+import { queueMails } from "@/db/mail/outbox";
 import { enqueueMails, type QueuedMail } from "./mail";
 import { officeConfig } from "./office-config";
 import type { Db } from "@/db/setup/client";
@@ -12,7 +13,9 @@ import type { Db } from "@/db/setup/client";
 // worker (app/_server/queue/). Each answers { ok: false } when the customer has no e-mail address
 // on file (the work order page shows that nothing was sent).
 
-type Queued = { ok: true; queued: boolean } | { ok: false; error: string };
+type Queued = { ok: true; queued: boolean; ids: string[] } | { ok: false; error: string };
+/** handOn false: only stored in the outbox (in the caller's transaction); the caller hands it to the queue after committing. */
+type QueueOptions = { handOn?: boolean };
 type Context = NonNullable<Awaited<ReturnType<typeof emailContext>>>;
 
 async function queueForCustomer(
@@ -20,11 +23,13 @@ async function queueForCustomer(
   shopId: string,
   workOrderId: string,
   write: (c: Context) => Omit<QueuedMail, "shopId" | "workOrderId" | "to">,
+  opts: QueueOptions = {},
 ): Promise<Queued> {
   const c = await emailContext(db, shopId, workOrderId);
   if (!c?.email) return { ok: false, error: "no e-mail address" };
-  const ids = await enqueueMails(db, [{ shopId, workOrderId, to: c.email, ...write(c) }]);
-  return { ok: true, queued: ids.length > 0 };
+  const mail = [{ shopId, workOrderId, to: c.email, ...write(c) }];
+  const ids = opts.handOn === false ? await queueMails(db, mail) : await enqueueMails(db, mail);
+  return { ok: true, queued: ids.length > 0, ids };
 }
 
 export async function mailQuoteReady(
@@ -44,22 +49,48 @@ export async function mailQuoteReady(
   }));
 }
 
-export async function mailDepositReceived(db: Db, shopId: string, workOrderId: string, depositId: string, amountMinor: number) {
-  return queueForCustomer(db, shopId, workOrderId, (c) => ({
-    kind: "deposit_received",
-    cause: `deposit:${depositId}`,
-    subject: `Deposit received for work order ${c.number}`,
-    text: `Hello ${c.customerName},\n\nThank you: we have received your deposit of ${formatMinor(amountMinor, c.currency)} for the ${c.make} ${c.model} (${c.tagCode}). Work can start.\n\n${c.shopName}`,
-  }));
+export async function mailDepositReceived(
+  db: Db,
+  shopId: string,
+  workOrderId: string,
+  depositId: string,
+  amountMinor: number,
+  opts: QueueOptions = {},
+) {
+  return queueForCustomer(
+    db,
+    shopId,
+    workOrderId,
+    (c) => ({
+      kind: "deposit_received",
+      cause: `deposit:${depositId}`,
+      subject: `Deposit received for work order ${c.number}`,
+      text: `Hello ${c.customerName},\n\nThank you: we have received your deposit of ${formatMinor(amountMinor, c.currency)} for the ${c.make} ${c.model} (${c.tagCode}). Work can start.\n\n${c.shopName}`,
+    }),
+    opts,
+  );
 }
 
-export async function mailBalanceReceived(db: Db, shopId: string, workOrderId: string, paymentId: string, amountMinor: number) {
-  return queueForCustomer(db, shopId, workOrderId, (c) => ({
-    kind: "balance_received",
-    cause: `balance:${paymentId}`,
-    subject: `Receipt: bill for work order ${c.number} paid`,
-    text: `Hello ${c.customerName},\n\nThank you: we have received ${formatMinor(amountMinor, c.currency)}, the balance of the bill for the ${c.make} ${c.model} (${c.tagCode}) — "${c.title}". Nothing more is due on it.\n\n${c.shopName}`,
-  }));
+export async function mailBalanceReceived(
+  db: Db,
+  shopId: string,
+  workOrderId: string,
+  paymentId: string,
+  amountMinor: number,
+  opts: QueueOptions = {},
+) {
+  return queueForCustomer(
+    db,
+    shopId,
+    workOrderId,
+    (c) => ({
+      kind: "balance_received",
+      cause: `balance:${paymentId}`,
+      subject: `Receipt: bill for work order ${c.number} paid`,
+      text: `Hello ${c.customerName},\n\nThank you: we have received ${formatMinor(amountMinor, c.currency)}, the balance of the bill for the ${c.make} ${c.model} (${c.tagCode}) — "${c.title}". Nothing more is due on it.\n\n${c.shopName}`,
+    }),
+    opts,
+  );
 }
 
 /** Extra work found on the bike: what it is, what it costs, and the one-time link to answer each line. */

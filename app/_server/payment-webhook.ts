@@ -3,6 +3,7 @@ import type Stripe from "stripe";
 import { applyPaymentEvent } from "@/db/office/deposits";
 import { appendAudit } from "@/db/audit/append";
 import { mailBalanceReceived, mailDepositReceived } from "./customer-mail";
+import { handToQueue } from "./mail";
 import { verifyPaymentWebhook } from "./payments";
 import type { Db } from "@/db/setup/client";
 
@@ -12,8 +13,9 @@ interface WebhookAnswer {
 }
 
 // The payment webhook, apart from Next so the integration tests drive it with a real database:
-// verify the signature (refuse unsigned, wrongly signed and stale), apply the event once (refuse
-// a replayed event id), mark the deposit paid and write to the customer.
+// verify the signature (refuse unsigned, wrongly signed and stale), apply the event once (a
+// replayed event id changes nothing and is answered 2xx, so the provider stops sending it), mark
+// the deposit paid and write to the customer.
 export async function handlePaymentWebhook(
   db: Db,
   rawBody: string,
@@ -31,13 +33,28 @@ export async function handlePaymentWebhook(
     return { status: 400, body: { error: `Webhook refused: ${reason}` } };
   }
   const obj = event.data?.object as Partial<Stripe.PaymentIntent> | undefined;
-  const outcome = await applyPaymentEvent(db, {
-    id: event.id,
-    type: event.type,
-    paymentIntentId: obj?.object === "payment_intent" ? (obj.id ?? null) : null,
-    amount: typeof obj?.amount === "number" ? obj.amount : null,
-    currency: typeof obj?.currency === "string" ? obj.currency : null,
-  });
+  const metadata = obj?.metadata ?? {};
+  // The receipt is queued in the payment's own transaction (so a failure to queue it undoes the
+  // payment's record, and the provider's retry does both), and handed to the queue after it commits.
+  let receipts: string[] = [];
+  const outcome = await applyPaymentEvent(
+    db,
+    {
+      id: event.id,
+      type: event.type,
+      paymentIntentId: obj?.object === "payment_intent" ? (obj.id ?? null) : null,
+      amount: typeof obj?.amount === "number" ? obj.amount : null,
+      currency: typeof obj?.currency === "string" ? obj.currency : null,
+      named: { depositId: metadata.deposit_id ?? null, balancePaymentId: metadata.balance_payment_id ?? null },
+    },
+    async (trx, paid) => {
+      if (opts.sendMail === false) return;
+      const mail = paid.paymentFor === "deposit" ? mailDepositReceived : mailBalanceReceived;
+      const r = await mail(trx, paid.shopId, paid.workOrderId, paid.paymentId, paid.amountMinor, { handOn: false });
+      if (r.ok) receipts = r.ids;
+    },
+  );
+  await handToQueue(receipts).catch((e) => console.error("[mail] queue not reached; the sweep will hand the receipt on", e));
   if (outcome.kind === "replayed") {
     await appendAudit(db, [
       {
@@ -50,16 +67,13 @@ export async function handlePaymentWebhook(
         reason: "event already processed",
       },
     ]);
-    return { status: 409, body: { error: "Webhook refused: event already processed" } };
+    // a 2xx: the event was applied when it first came; a refusal would only make the provider send it again
+    return { status: 200, body: { received: true, outcome: "already processed" } };
   }
   if (outcome.kind === "ignored") return { status: 200, body: { received: true, outcome: `ignored: ${outcome.reason}` } };
   if (outcome.kind === "failed") return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} payment failed` } };
   // One receipt e-mail per payment: only the event that paid it sends one; a later, different
   // event about the same payment (a second succeeded event, a resend under a new id) does not.
   if (!outcome.newlyPaid) return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} already paid` } };
-  if (opts.sendMail !== false) {
-    const mail = outcome.paymentFor === "deposit" ? mailDepositReceived : mailBalanceReceived;
-    await mail(db, outcome.shopId, outcome.workOrderId, outcome.paymentId, outcome.amountMinor);
-  }
   return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} paid` } };
 }

@@ -37,12 +37,22 @@ export async function startBalancePayment(d: PaymentStart & { balancePaymentId: 
   return startPayment(d, `balance-${d.balancePaymentId}`, { balance_payment_id: d.balancePaymentId, invoice_id: d.invoiceId });
 }
 
-/** Starts the payment; the provider's failure is refused (409) with its reason, in one place for deposits and balances. */
+/**
+ * Starts the payment; the provider's failure is refused (409) in one place for deposits and
+ * balances. A declined card is said as the provider words it for the payer; anything else (a key,
+ * a connection, an id the provider does not know) is the workshop's to fix: logged, and the
+ * customer is told plainly that nothing was charged.
+ */
 async function startPayment(d: PaymentStart, key: string, metadata: Record<string, string>) {
   try {
     return await createIntent(d, key, metadata);
   } catch (e) {
-    throw new Refusal(`The payment service did not take the payment: ${(e as Error).message}`, 409);
+    if (e instanceof Stripe.errors.StripeCardError) throw new Refusal(`The card was not accepted: ${e.message}`, 409);
+    console.error("[payments] the payment service refused to start a payment", e);
+    throw new Refusal(
+      "The payment service could not take the payment just now, and nothing was charged. Try again later, or ask the workshop.",
+      409,
+    );
   }
 }
 

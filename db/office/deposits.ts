@@ -2,6 +2,7 @@ import "server-only";
 import type { Kysely, Transaction } from "kysely";
 import type { DepositStatus } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
+import { isClosed, STATUS_LABELS } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 
@@ -27,6 +28,13 @@ export async function openDeposit(db: Kysely<Database>, user: { id: string; shop
       .forUpdate("q")
       .executeTakeFirst();
     if (!q || q.shopId !== user.shopId || q.customerId !== user.customerId) throw new Refusal("This quote is not yours.", 403);
+    // the job's status under its own lock: a cancel at this moment is seen, or waits for this
+    const job = await trx.selectFrom("work_orders").select("status").where("id", "=", q.workOrderId).forShare().executeTakeFirstOrThrow();
+    if (isClosed(job.status))
+      throw new Refusal(
+        `This job is ${STATUS_LABELS[job.status].toLowerCase()}: no deposit is taken on it. Ask the workshop if you think that is wrong.`,
+        409,
+      );
     if (q.status !== "approved") throw new Refusal("Approve the quote before paying the deposit.", 409);
     if (q.depositMinor <= 0) throw new Refusal("No deposit is asked for this quote.", 409);
     const existing = await trx
@@ -92,8 +100,21 @@ interface Payable {
   status: DepositStatus;
 }
 
-/** The deposit or balance payment a payment intent was started for, locked. */
-async function payableOf(trx: Transaction<Database>, paymentIntentId: string): Promise<Payable | null> {
+/** The row a payment was started for, as the payment's metadata names it (set when it was created). */
+export interface PaymentNamed {
+  depositId?: string | null;
+  balancePaymentId?: string | null;
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/**
+ * The deposit or balance payment a payment intent was started for, locked: the row the intent is
+ * tied to, or else the row its metadata names that is tied to no intent yet, which is tied to it
+ * now. The provider may report the payment before the route that started it has tied the intent to
+ * its row (the event comes the moment the payment is confirmed), and that report is the only one.
+ */
+async function payableOf(trx: Transaction<Database>, paymentIntentId: string, named: PaymentNamed = {}): Promise<Payable | null> {
   const cols = ["id", "shop_id", "work_order_id", "amount_minor", "currency", "status"] as const;
   const dep = await trx.selectFrom("deposits").select(cols).where("payment_intent_id", "=", paymentIntentId).forUpdate().executeTakeFirst();
   if (dep) return { paymentFor: "deposit", ...dep };
@@ -103,7 +124,28 @@ async function payableOf(trx: Transaction<Database>, paymentIntentId: string): P
     .where("payment_intent_id", "=", paymentIntentId)
     .forUpdate()
     .executeTakeFirst();
-  return bal ? { paymentFor: "balance", ...bal, amount_minor: Number(bal.amount_minor) } : null;
+  if (bal) return { paymentFor: "balance", ...bal, amount_minor: Number(bal.amount_minor) };
+  if (named.depositId && UUID.test(named.depositId)) {
+    const d = await trx
+      .updateTable("deposits")
+      .set({ payment_intent_id: paymentIntentId })
+      .where("id", "=", named.depositId)
+      .where("payment_intent_id", "is", null)
+      .returning(cols)
+      .executeTakeFirst();
+    if (d) return { paymentFor: "deposit", ...d };
+  }
+  if (named.balancePaymentId && UUID.test(named.balancePaymentId)) {
+    const b = await trx
+      .updateTable("balance_payments")
+      .set({ payment_intent_id: paymentIntentId })
+      .where("id", "=", named.balancePaymentId)
+      .where("payment_intent_id", "is", null)
+      .returning(cols)
+      .executeTakeFirst();
+    if (b) return { paymentFor: "balance", ...b, amount_minor: Number(b.amount_minor) };
+  }
+  return null;
 }
 
 async function setPaymentStatus(trx: Transaction<Database>, p: Payable, status: "paid" | "failed") {
@@ -117,14 +159,24 @@ async function setPaymentStatus(trx: Transaction<Database>, p: Payable, status: 
 // currency must match the payment.
 export async function applyPaymentEvent(
   db: Kysely<Database>,
-  event: { id: string; type: string; paymentIntentId: string | null; amount: number | null; currency: string | null },
+  event: {
+    id: string;
+    type: string;
+    paymentIntentId: string | null;
+    amount: number | null;
+    currency: string | null;
+    /** What the payment's metadata names it for (used when the intent is not yet tied to its row). */
+    named?: PaymentNamed;
+  },
+  /** Run in the same transaction when this event is the one that paid: the receipt is queued with the payment, or neither is kept. */
+  onNewlyPaid?: (trx: Transaction<Database>, paid: Extract<PaymentOutcome, { kind: "paid" }>) => Promise<void>,
 ): Promise<PaymentOutcome> {
   return db.transaction().execute(async (trx) => {
     const seen = await trx.selectFrom("payment_events").select("event_id").where("event_id", "=", event.id).executeTakeFirst();
     if (seen) return { kind: "replayed" } as const;
     const used = event.type === "payment_intent.succeeded" || event.type === "payment_intent.payment_failed";
     if (!used || !event.paymentIntentId) return { kind: "ignored", reason: `event type ${event.type} is not used` } as const;
-    const dep = await payableOf(trx, event.paymentIntentId);
+    const dep = await payableOf(trx, event.paymentIntentId, event.named);
     if (!dep) return { kind: "ignored", reason: "no deposit or balance payment for this payment" } as const;
     const what = dep.paymentFor;
     const inserted = await trx
@@ -167,7 +219,7 @@ export async function applyPaymentEvent(
     }
     // newlyPaid: this event is the one that paid it (the row is locked, so of two events about one
     // payment arriving together exactly one sees it unpaid): only then is the customer e-mailed.
-    return {
+    const paid = {
       kind: "paid",
       paymentFor: what,
       paymentId: dep.id,
@@ -176,6 +228,8 @@ export async function applyPaymentEvent(
       amountMinor: dep.amount_minor,
       newlyPaid,
     } as const;
+    if (newlyPaid && onNewlyPaid) await onNewlyPaid(trx, paid);
+    return paid;
   });
 }
 

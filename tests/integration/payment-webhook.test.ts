@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { handlePaymentWebhook } from "@/app/_server/payment-webhook";
 import { paymentsClient, startDepositPayment } from "@/app/_server/payments";
 import { createBike } from "@/db/shop/bikes";
-import { attachPaymentIntent, openDeposit } from "@/db/office/deposits";
+import { applyPaymentEvent, attachPaymentIntent, openDeposit } from "@/db/office/deposits";
 import { approveQuoteAsCustomer, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
 import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { createShopFixture } from "./support/shop-fixture";
@@ -40,13 +40,18 @@ async function workOrderWithPendingDeposit(pi: string) {
   return { fx, wo, deposit, quoteId, cust };
 }
 
-function succeededEvent(pi: string, amount = 5000, id = `evt_test_${Math.random().toString(36).slice(2)}`) {
+function succeededEvent(
+  pi: string,
+  amount = 5000,
+  id = `evt_test_${Math.random().toString(36).slice(2)}`,
+  metadata: Record<string, string> = {},
+) {
   return JSON.stringify({
     id,
     object: "event",
     type: "payment_intent.succeeded",
     created: Math.floor(Date.now() / 1000),
-    data: { object: { id: pi, object: "payment_intent", amount, currency: "gbp", status: "succeeded" } },
+    data: { object: { id: pi, object: "payment_intent", amount, currency: "gbp", status: "succeeded", metadata } },
   });
 }
 const sign = (payload: string, secret = SECRET, timestamp?: number) =>
@@ -148,16 +153,65 @@ describe("payment webhook signature checks", () => {
     expect(await sent()).toBe(1);
   });
 
-  it("refuses a replayed event id, even re-signed, and changes nothing more", async () => {
+  it("answers a replayed event id with a 2xx (so the provider stops sending it), even re-signed, and changes nothing more", async () => {
     const pi = `pi_test_${Date.now()}e`;
     const { deposit } = await workOrderWithPendingDeposit(pi);
     const body = succeededEvent(pi, 5000, `evt_replay_${Date.now()}`);
     expect((await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false })).status).toBe(200);
     const paidAt = (await db.selectFrom("deposits").select("paid_at").where("id", "=", deposit.id).executeTakeFirstOrThrow()).paid_at;
     const again = await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
-    expect(again).toEqual({ status: 409, body: { error: "Webhook refused: event already processed" } });
+    expect(again).toEqual({ status: 200, body: { received: true, outcome: "already processed" } });
     const after = (await db.selectFrom("deposits").select("paid_at").where("id", "=", deposit.id).executeTakeFirstOrThrow()).paid_at;
     expect(after).toEqual(paidAt);
+  });
+
+  it("a payment reported before its intent is tied to the deposit is recorded on the deposit its metadata names", async () => {
+    // the provider reports the payment the moment it is confirmed, which can be before the route that
+    // started it has written the intent's id on the deposit: that report is the only one it sends
+    const pi = `pi_test_${Date.now()}early`;
+    const { deposit } = await workOrderWithPendingDeposit("");
+    const body = succeededEvent(pi, 5000, undefined, { deposit_id: deposit.id });
+    const answer = await handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
+    expect(answer).toEqual({ status: 200, body: { received: true, outcome: "deposit paid" } });
+    const row = await db
+      .selectFrom("deposits")
+      .select(["status", "payment_intent_id"])
+      .where("id", "=", deposit.id)
+      .executeTakeFirstOrThrow();
+    expect(row).toEqual({ status: "paid", payment_intent_id: pi });
+    // the route's own tie, coming after, changes nothing
+    await attachPaymentIntent(db, deposit.id, pi);
+    expect(await depositStatus(deposit.id)).toBe("paid");
+
+    // metadata naming a deposit already tied to another payment is not taken at its word
+    const other = `pi_test_${Date.now()}other`;
+    const stray = succeededEvent(other, 5000, undefined, { deposit_id: deposit.id });
+    const strayAnswer = await handlePaymentWebhook(db, stray, sign(stray), { secret: SECRET, sendMail: false });
+    expect(strayAnswer.body.outcome).toMatch(/^ignored: no deposit or balance payment for this payment/);
+    expect(
+      (await db.selectFrom("deposits").select("payment_intent_id").where("id", "=", deposit.id).executeTakeFirstOrThrow())
+        .payment_intent_id,
+    ).toBe(pi);
+  });
+
+  it("the receipt is queued in the payment's own transaction: when queueing fails, nothing is kept and the provider's retry does both", async () => {
+    const pi = `pi_test_${Date.now()}tx`;
+    const { deposit } = await workOrderWithPendingDeposit(pi);
+    const event = { id: `evt_tx_${Date.now()}`, type: "payment_intent.succeeded", paymentIntentId: pi, amount: 5000, currency: "gbp" };
+    await expect(
+      applyPaymentEvent(db, event, async () => {
+        throw new Error("outbox unreachable");
+      }),
+    ).rejects.toThrow(/outbox unreachable/);
+    expect(await depositStatus(deposit.id)).toBe("pending");
+    expect(await db.selectFrom("payment_events").select("event_id").where("event_id", "=", event.id).execute()).toEqual([]);
+    let receipts = 0;
+    const retry = await applyPaymentEvent(db, event, async () => {
+      receipts++;
+    });
+    expect(retry).toMatchObject({ kind: "paid", newlyPaid: true });
+    expect(receipts).toBe(1);
+    expect(await depositStatus(deposit.id)).toBe("paid");
   });
 
   it("does not mark a deposit paid when the amount differs", async () => {
@@ -254,6 +308,43 @@ describe("a declined deposit", () => {
       expect(again.deposit.status).toBe("pending");
     } finally {
       await new Promise<void>((r) => server.close(() => r()));
+    }
+  });
+});
+
+describe("starting a payment", () => {
+  it("is refused on a job that was cancelled after its quote was approved, and nothing is charged", async () => {
+    const { fx, wo, quoteId, cust } = await workOrderWithPendingDeposit("pi_unused_" + Date.now());
+    await db.updateTable("deposits").set({ status: "failed" }).where("quote_id", "=", quoteId).execute();
+    await moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "cancelled", { note: "Customer took the bike elsewhere" });
+    await expect(openDeposit(db, cust, quoteId)).rejects.toMatchObject({
+      status: 409,
+      message: "This job is cancelled: no deposit is taken on it. Ask the workshop if you think that is wrong.",
+    });
+    const pending = await db.selectFrom("deposits").select("id").where("quote_id", "=", quoteId).where("status", "=", "pending").execute();
+    expect(pending).toEqual([]);
+  });
+
+  it("tells the customer plainly when the payment service cannot be reached, without its internals", async () => {
+    const { fx, wo, deposit } = await workOrderWithPendingDeposit("");
+    const base = process.env.STRIPE_API_BASE;
+    process.env.STRIPE_API_BASE = "http://127.0.0.1:9"; // nothing listens there
+    try {
+      const e = await startDepositPayment({
+        depositId: deposit.id,
+        amountMinor: 5000,
+        currency: "GBP",
+        shopId: fx.shopId,
+        workOrderId: wo.id,
+        description: "deposit",
+      }).catch((err: unknown) => err as Error & { status?: number });
+      expect(e).toMatchObject({
+        status: 409,
+        message: "The payment service could not take the payment just now, and nothing was charged. Try again later, or ask the workshop.",
+      });
+    } finally {
+      if (base === undefined) delete process.env.STRIPE_API_BASE;
+      else process.env.STRIPE_API_BASE = base;
     }
   });
 });
