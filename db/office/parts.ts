@@ -54,26 +54,30 @@ export async function bikesWithPart(
   code: string,
   field: "batch" | "serial" | "part_number" = "batch",
 ) {
-  return db
-    .selectFrom("parts_fitted as p")
-    .innerJoin("work_orders as w", "w.id", "p.work_order_id")
-    .innerJoin("bikes as b", "b.id", "w.bike_id")
-    .innerJoin("customers as c", "c.id", "b.customer_id")
-    .select([
-      ...partColumns,
-      "w.id as workOrderId",
-      "w.number as workOrderNumber",
-      "b.id as bikeId",
-      "b.tag_code as tagCode",
-      "b.make",
-      "b.model",
-      "c.name as customerName",
-    ])
-    .where("p.shop_id", "=", shopId)
-    .where((eb) => eb(eb.fn("lower", [`p.${field}`]), "=", code.trim().toLowerCase()))
-    .orderBy("b.tag_code")
-    .orderBy("p.fitted_at")
-    .execute();
+  return (
+    db
+      .selectFrom("parts_fitted as p")
+      .innerJoin("work_orders as w", "w.id", "p.work_order_id")
+      .innerJoin("bikes as b", "b.id", "w.bike_id")
+      .innerJoin("customers as c", "c.id", "b.customer_id")
+      .select([
+        ...partColumns,
+        "w.id as workOrderId",
+        "w.number as workOrderNumber",
+        "b.id as bikeId",
+        "b.tag_code as tagCode",
+        "b.make",
+        "b.model",
+        "c.name as customerName",
+      ])
+      .where("p.shop_id", "=", shopId)
+      .where((eb) => eb(eb.fn("lower", [`p.${field}`]), "=", code.trim().toLowerCase()))
+      // a fit withdrawn at the bench was recorded by mistake: the bike did not get the part
+      .where((eb) => eb.not(eb.exists(eb.selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "p.operation_id"))))
+      .orderBy("b.tag_code")
+      .orderBy("p.fitted_at")
+      .execute()
+  );
 }
 
 // Steps of the job's pinned procedures, for "which step fitted this part".

@@ -3,7 +3,7 @@ import type { DefaultTimestamp } from "./columns";
 
 // Stock: items, low-stock levels, deliveries, lots with their balances, movements (migration 2026_12_06_100).
 
-export type StockMovementKind = "received" | "reserved" | "released" | "drawn";
+export type StockMovementKind = "received" | "reserved" | "released" | "drawn" | "returned";
 
 interface StockItemsTable {
   id: Generated<string>;

@@ -4,7 +4,8 @@ import type { LotBalance } from "@/lib/stock/draw";
 import type { Database } from "../schema";
 
 // The balances of lots as the draw planner needs them, read under a row lock: on hand, put aside in
-// all, and what is still put aside for each work order (reserved − released − used by its fits).
+// all, and what is still put aside for each work order (reserved − released − used by its fits,
+// plus what a withdrawn fit put back).
 
 type Db = Kysely<Database> | Transaction<Database>;
 
@@ -14,7 +15,8 @@ export async function outstandingReservations(db: Db, lotIds: readonly string[])
   if (!lotIds.length) return out;
   const rows = await sql<{ lot_id: string; work_order_id: string; outstanding: number }>`
     SELECT lot_id, work_order_id,
-      sum(CASE kind WHEN 'reserved' THEN quantity WHEN 'released' THEN -quantity WHEN 'drawn' THEN -reserved_used ELSE 0 END)::int AS outstanding
+      sum(CASE kind WHEN 'reserved' THEN quantity WHEN 'released' THEN -quantity WHEN 'drawn' THEN -reserved_used
+        WHEN 'returned' THEN reserved_used ELSE 0 END)::int AS outstanding
     FROM stock_movements
     WHERE lot_id = ANY(${[...lotIds]}::uuid[]) AND work_order_id IS NOT NULL
     GROUP BY lot_id, work_order_id

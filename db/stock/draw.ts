@@ -95,3 +95,71 @@ export async function writeStockDraws(trx: Tx, shopId: string, draws: readonly S
   }
   await trx.insertInto("stock_movements").values(movements).execute();
 }
+
+/** A part fit withdrawn at the bench: the fit's operation, the withdrawal's reason and who made it. */
+export interface FitWithdrawal {
+  fitOperationId: string;
+  reason: string;
+  by: string;
+}
+
+/**
+ * Puts back what withdrawn fits drew: a fit withdrawn was recorded by mistake, so the part never
+ * left the shelf. Each lot drawn from gets its quantity back on hand, and what the draw took from
+ * the job's reservation is put aside for the job again, by one "returned" movement per draw,
+ * pointing at it (a draw is put back once: releases_id is unique). A draw the shelf could not cover
+ * (short) puts back only what it took. Runs in the merge's transaction, before the batch's own
+ * fits draw, so a part withdrawn from one job and fitted to another in the same batch is there.
+ */
+export async function returnWithdrawnDraws(trx: Tx, shopId: string, withdrawals: readonly FitWithdrawal[]): Promise<void> {
+  if (!withdrawals.length) return;
+  const byFit = new Map(withdrawals.map((w) => [w.fitOperationId, w]));
+  const draws = await trx
+    .selectFrom("stock_movements as m")
+    .innerJoin("parts_fitted as p", "p.id", "m.part_fitted_id")
+    .select(["m.id", "m.item_id", "m.lot_id", "m.quantity", "m.reserved_used", "m.work_order_id", "m.part_fitted_id", "p.operation_id"])
+    .where("m.shop_id", "=", shopId)
+    .where("m.kind", "=", "drawn")
+    .where("m.lot_id", "is not", null)
+    .where("m.quantity", ">", 0)
+    .where("p.operation_id", "in", [...byFit.keys()])
+    .where((eb) => eb.not(eb.exists(eb.selectFrom("stock_movements as r").select("r.id").whereRef("r.releases_id", "=", "m.id"))))
+    .orderBy("m.id")
+    .execute();
+  if (!draws.length) return;
+  const perLot = new Map<string, { back: number; aside: number }>();
+  for (const d of draws) {
+    const t = perLot.get(d.lot_id!) ?? { back: 0, aside: 0 };
+    t.back += d.quantity;
+    t.aside += d.reserved_used;
+    perLot.set(d.lot_id!, t);
+  }
+  const rows = [...perLot].sort(([a], [b]) => (a < b ? -1 : 1)).map(([id, t]) => ({ id, ...t }));
+  await sql`SELECT id FROM stock_lots WHERE id = ANY(${rows.map((r) => r.id)}::uuid[]) ORDER BY id FOR UPDATE`.execute(trx);
+  await sql`
+    UPDATE stock_lots l SET on_hand = l.on_hand + x.back, reserved = l.reserved + x.aside
+    FROM json_to_recordset(${JSON.stringify(rows)}::json) AS x(id uuid, back int, aside int)
+    WHERE l.id = x.id
+  `.execute(trx);
+  await trx
+    .insertInto("stock_movements")
+    .values(
+      draws.map((d) => {
+        const w = byFit.get(d.operation_id!)!;
+        return {
+          shop_id: shopId,
+          item_id: d.item_id,
+          lot_id: d.lot_id,
+          kind: "returned" as const,
+          quantity: d.quantity,
+          reserved_used: d.reserved_used,
+          work_order_id: d.work_order_id,
+          part_fitted_id: d.part_fitted_id,
+          releases_id: d.id,
+          reason: `Fit withdrawn at the bench: ${w.reason}`.slice(0, 500),
+          recorded_by: w.by,
+        };
+      }),
+    )
+    .execute();
+}

@@ -146,26 +146,30 @@ export interface ShortfallRow {
 
 /** Fits the shelf could not cover (kept and flagged at the merge), newest first. */
 export async function stockShortfalls(db: Kysely<Database>, shopId: string): Promise<ShortfallRow[]> {
-  return db
-    .selectFrom("stock_movements as m")
-    .innerJoin("parts_fitted as p", "p.id", "m.part_fitted_id")
-    .innerJoin("work_orders as w", "w.id", "m.work_order_id")
-    .leftJoin("users as u", "u.id", "m.recorded_by")
-    .select([
-      "m.id",
-      "p.part_number as partNumber",
-      "p.batch",
-      "p.serial",
-      "p.quantity as fitted",
-      "m.short",
-      "w.id as workOrderId",
-      "w.number as workOrderNumber",
-      "u.name as fittedBy",
-      "m.recorded_at as recordedAt",
-    ])
-    .where("m.shop_id", "=", shopId)
-    .where("m.short", ">", 0)
-    .orderBy("m.recorded_at", "desc")
-    .limit(200)
-    .execute();
+  return (
+    db
+      .selectFrom("stock_movements as m")
+      .innerJoin("parts_fitted as p", "p.id", "m.part_fitted_id")
+      .innerJoin("work_orders as w", "w.id", "m.work_order_id")
+      .leftJoin("users as u", "u.id", "m.recorded_by")
+      .select([
+        "m.id",
+        "p.part_number as partNumber",
+        "p.batch",
+        "p.serial",
+        "p.quantity as fitted",
+        "m.short",
+        "w.id as workOrderId",
+        "w.number as workOrderNumber",
+        "u.name as fittedBy",
+        "m.recorded_at as recordedAt",
+      ])
+      .where("m.shop_id", "=", shopId)
+      .where("m.short", ">", 0)
+      // a fit withdrawn at the bench was a mistake: nothing was short
+      .where((eb) => eb.not(eb.exists(eb.selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "p.operation_id"))))
+      .orderBy("m.recorded_at", "desc")
+      .limit(200)
+      .execute()
+  );
 }

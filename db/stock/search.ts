@@ -7,7 +7,7 @@ import type { Database } from "../schema";
 // a job, let go, and fitted — fitted from stock (the draw names the part fitted) or recorded
 // without stock (matched as typed, any case). Serial numbers are found the same way.
 
-export type StockEvent = "received" | "reserved" | "released" | "fitted";
+export type StockEvent = "received" | "reserved" | "released" | "returned" | "fitted";
 
 export interface StockSearchRow {
   event: StockEvent;
@@ -49,14 +49,15 @@ export async function searchStockByCode(db: Kysely<Database>, shopId: string, co
       FROM parts_fitted p
       WHERE p.shop_id = ${shopId}::uuid
         AND ((p.batch IS NOT NULL AND lower(p.batch) = ${lower}) OR (p.serial IS NOT NULL AND lower(p.serial) = ${lower}))
+        AND NOT EXISTS (SELECT 1 FROM withdrawals w WHERE w.operation_id = p.operation_id)
       UNION
       SELECT p.id, p.fitted_at, p.part_number, p.description, p.batch, p.serial, p.quantity, p.supplier, p.work_order_id
       FROM moves JOIN parts_fitted p ON p.id = moves.part_fitted_id
-      WHERE moves.kind = 'drawn'
+      WHERE moves.kind = 'drawn' AND NOT EXISTS (SELECT 1 FROM withdrawals w WHERE w.operation_id = p.operation_id)
     ),
     events AS (
       SELECT m.kind AS event, m.at, m.part_number, m.description, m.batch, m.serial, m.quantity, m.location, m.supplier, m.work_order_id
-      FROM moves m WHERE m.kind IN ('received', 'reserved', 'released')
+      FROM moves m WHERE m.kind IN ('received', 'reserved', 'released', 'returned')
       UNION ALL
       SELECT 'fitted', f.fitted_at, f.part_number, f.description, f.batch, f.serial, f.quantity, NULL, NULLIF(f.supplier, ''), f.work_order_id
       FROM fitted f

@@ -15,7 +15,7 @@ import type { Operation, SyncBatch } from "@/lib/sync/operations";
 import type { MalformedOperation } from "@/lib/sync/parse-batch";
 import { withStockReason } from "@/lib/stock/draw";
 import type { AuditEntry } from "../audit/append";
-import { planStockDraws, writeStockDraws } from "../stock/draw";
+import { planStockDraws, returnWithdrawnDraws, writeStockDraws } from "../stock/draw";
 import type { Database } from "../schema";
 import { changesSince } from "./changes";
 import { loadWorkOrderFacts, loadMergeState } from "./context";
@@ -217,10 +217,24 @@ export async function mergeBatch(
     }
 
     // Parts fitted draw from stock; one the shelf cannot cover is kept and flagged (never refused).
+    // A fit withdrawn never left the shelf: one on file puts back what it drew (first, so the batch's
+    // own fits find it there), and one made and withdrawn within this batch draws nothing.
+    const fitWithdrawals = kept.flatMap((k) =>
+      k.op.kind === "entry.withdrawn" && state.entries.get(k.op.payload.operationId)?.kind === "part.fitted"
+        ? [{ fitOperationId: k.op.payload.operationId, reason: k.op.payload.reason, by: k.op.authorId }]
+        : [],
+    );
+    const keptIds = new Set(kept.map((k) => k.op.id));
+    const withdrawnHere = new Set(fitWithdrawals.filter((w) => keptIds.has(w.fitOperationId)).map((w) => w.fitOperationId));
+    await returnWithdrawnDraws(
+      trx,
+      actor.shopId,
+      fitWithdrawals.filter((w) => !withdrawnHere.has(w.fitOperationId)),
+    );
     const draws = await planStockDraws(
       trx,
       actor.shopId,
-      kept.flatMap((k) => (k.op.kind === "part.fitted" ? [k.op] : [])),
+      kept.flatMap((k) => (k.op.kind === "part.fitted" && !withdrawnHere.has(k.op.id) ? [k.op] : [])),
     );
     for (const k of kept) {
       const stockReason = draws.get(k.op.id)?.reason ?? null;

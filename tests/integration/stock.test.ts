@@ -6,6 +6,7 @@ import { POST as releaseRoute } from "@/app/api/office/stock/reservations/[id]/r
 import { POST as reservationsRoute } from "@/app/api/office/stock/reservations/route";
 import { GET as searchRoute } from "@/app/api/office/stock/search/route";
 import { GET as stockRoute } from "@/app/api/office/stock/route";
+import { bikesWithPart } from "@/db/office/parts";
 import { flaggedEntriesOf } from "@/db/review/flagged-work";
 import { mergeBatch } from "@/db/sync/merge";
 import type { SessionUser } from "@/lib/auth/session-user";
@@ -296,6 +297,95 @@ describe("putting stock aside for a job", () => {
       params: { id: reservationId },
     });
     expect(twice.status).toBe(409);
+  });
+});
+
+describe("a fit withdrawn at the bench", () => {
+  const withdraw = (tablet: Tablet, operationId: string, reason = "Recorded against the wrong job") =>
+    tablet.make("entry.withdrawn", { operationId, reason });
+
+  it("puts back what it drew and what it used of the job's reservation; the search shows it put back, not fitted", async () => {
+    const { fx, office, stepId } = await setup();
+    const { body } = await receive(office, { supplier: "Harbour Pistons", lines: [rodBolts({ quantity: 4 })] });
+    const lotId = body.lots![0];
+    await reservationsRoute.handle(post("/api/office/stock/reservations", { lotId, workOrderNumber: 1, quantity: 3 }), {
+      user: office,
+      db,
+    });
+    const mech = asUser(fx.users.mechanic);
+    const tablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, mech.id, fx.workOrderId);
+    const fit = tablet.make("part.fitted", fitBolts(stepId, { quantity: 2 }));
+    await mergeBatch(db, mech, tablet.batch([fit]));
+    expect(await lot(lotId)).toEqual({ on_hand: 2, reserved: 1 });
+    const w = withdraw(tablet, fit.id);
+    const r = await mergeBatch(db, mech, tablet.batch([w]));
+    expect(r.accepted).toEqual([w.id]);
+    expect(await lot(lotId)).toEqual({ on_hand: 4, reserved: 3 });
+    const moves = await db
+      .selectFrom("stock_movements")
+      .select(["kind", "quantity", "reserved_used", "reason"])
+      .where("lot_id", "=", lotId)
+      .where("kind", "in", ["drawn", "returned"])
+      .orderBy("recorded_at")
+      .execute();
+    expect(moves).toEqual([
+      { kind: "drawn", quantity: 2, reserved_used: 2, reason: null },
+      { kind: "returned", quantity: 2, reserved_used: 2, reason: "Fit withdrawn at the bench: Recorded against the wrong job" },
+    ]);
+    // the same withdrawal sent again puts back nothing more
+    await mergeBatch(db, mech, tablet.batch([w]));
+    expect(await lot(lotId)).toEqual({ on_hand: 4, reserved: 3 });
+    const res = await searchRoute.handle(appRequest("/api/office/stock/search?code=L24-118"), { user: office, db });
+    const { events } = (await res.json()) as { events: Array<{ event: string; quantity: number }> };
+    expect(events.map((e) => [e.event, e.quantity])).toEqual([
+      ["received", 4],
+      ["reserved", 3],
+      ["returned", 2],
+    ]);
+    // the recall search by batch does not name the bike either: it never got the bolts
+    expect(await bikesWithPart(db, fx.shopId, "L24-118")).toEqual([]);
+  });
+
+  it("a serial number withdrawn and fitted again in the next batch is there to draw: no shortfall flagged", async () => {
+    const { fx, office, stepId } = await setup();
+    const piston = { partNumber: "GS-PST-7600", description: "Forged piston", location: "Cage 1", serial: "GS-0911", quantity: 1 };
+    const { body } = await receive(office, { supplier: "Harbour Pistons", lines: [piston] });
+    const lotId = body.lots![0];
+    const mech = asUser(fx.users.mechanic);
+    const tablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, mech.id, fx.workOrderId);
+    const fitPiston = () =>
+      tablet.make("part.fitted", {
+        partFittedId: randomUUID(),
+        stepId,
+        partNumber: "GS-PST-7600",
+        description: "Forged piston",
+        serial: "GS-0911",
+        quantity: 1,
+      });
+    const first = fitPiston();
+    await mergeBatch(db, mech, tablet.batch([first]));
+    expect(await lot(lotId)).toEqual({ on_hand: 0, reserved: 0 });
+    const w = withdraw(tablet, first.id, "Fitted to the wrong cylinder on the sheet");
+    const again = fitPiston();
+    const r = await mergeBatch(db, mech, tablet.batch([w, again]));
+    expect(r.accepted.sort()).toEqual([w.id, again.id].sort());
+    expect(r.flagged).toEqual([]);
+    expect(await lot(lotId)).toEqual({ on_hand: 0, reserved: 0 });
+    const shorts = await db.selectFrom("stock_movements").select("id").where("lot_id", "=", lotId).where("short", ">", 0).execute();
+    expect(shorts).toEqual([]);
+  });
+
+  it("a fit made and withdrawn within one batch draws nothing", async () => {
+    const { fx, office, stepId } = await setup();
+    const { body } = await receive(office, { supplier: "Harbour Pistons", lines: [rodBolts({ quantity: 4 })] });
+    const mech = asUser(fx.users.mechanic);
+    const tablet = new Tablet(`tab-${randomUUID().slice(0, 6)}`, mech.id, fx.workOrderId);
+    const fit = tablet.make("part.fitted", fitBolts(stepId, { quantity: 4 }));
+    const r = await mergeBatch(db, mech, tablet.batch([fit, withdraw(tablet, fit.id, "Typed four, fitted none yet")]));
+    expect(r.accepted).toHaveLength(2);
+    expect(await lot(body.lots![0])).toEqual({ on_hand: 4, reserved: 0 });
+    const moves = await db.selectFrom("stock_movements").select("kind").where("lot_id", "=", body.lots![0]).execute();
+    expect(moves.map((m) => m.kind)).toEqual(["received"]);
   });
 });
 

@@ -14,10 +14,11 @@ const EVENT_WORDS: Record<Events[number]["event"], { word: string; mark: string 
   received: { word: "Received", mark: "⬇" },
   reserved: { word: "Put aside", mark: "⏸" },
   released: { word: "Let go", mark: "↩" },
+  returned: { word: "Put back (fit withdrawn)", mark: "⤴" },
   fitted: { word: "Fitted", mark: "⚙" },
 };
 
-// "Which bikes got batch X?" across the stock's life: received, put aside, let go, fitted.
+// "Which bikes got batch X?" across the stock's life: received, put aside, let go, fitted, put back.
 export function StockSearch() {
   const [code, setCode] = useState("");
   const [asked, setAsked] = useState<string | null>(null);
