@@ -4,7 +4,8 @@ import type { TuneFields, TuneVersion } from "@/lib/dyno/tune-version";
 import { CHECK_THE_FIELDS, Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
-import { withKeysHeld } from "../setup/key-locks";
+import { holdKeys } from "../setup/key-locks";
+import { withOpenRecord } from "../shop/open-record";
 
 // Tune versions of a work order (lib/dyno/tune-version.ts). Rows are append-only (a trigger refuses
 // changes); the bytes live in object storage under `object_key`.
@@ -76,8 +77,10 @@ export async function recordTuneVersion(
   workOrderId: string,
   tune: TuneFields & { id: string; fileName: string; contentType: string; sizeBytes: number; sha256: string; objectKey: string },
 ): Promise<string> {
-  // the label is checked and written one upload at a time (a double click on Upload)
-  return withKeysHeld(db, [`tune-label:${workOrderId}:${tune.label}`], async (trx) => {
+  // on an open record only (a handover waits for this, or this sees it), and the label checked and
+  // written one upload at a time (a double click on Upload)
+  return withOpenRecord(db, { shopId: user.shopId, userId: user.id }, workOrderId, "tune version", async (trx) => {
+    await holdKeys(trx, [`tune-label:${workOrderId}:${tune.label}`]);
     await checkTuneLabelFree(trx, user.shopId, workOrderId, tune.label);
     await trx
       .insertInto("tune_versions")

@@ -5,7 +5,8 @@
  *     flagged (sync rule 6) — it was recorded offline before the tablet knew, and nothing recorded
  *     is lost; a supervisor accepts it (a new revision of the stored report) or leaves it open;
  *   - dyno runs, parts, notes with photos entered from the office or the dyno page, a new build
- *     sheet (its targets are in the report) and a change of mechanic: refused — they are typed online, so the person sees the refusal at once and still
+ *     sheet (its targets are in the report), a new tune version (the report names the tune the
+ *     bike left with) and a change of mechanic: refused — they are typed online, so the person sees the refusal at once and still
  *     has what they typed; work on a bike that has left belongs on a new work order.
  * Withdrawing a dyno run recorded by mistake stays possible (a correction pointing at the old
  * record, never an edit): it is an accepted change and makes a new revision of the stored report.
@@ -21,6 +22,7 @@ export const AFTER_CLOSE = {
   photo: "refused",
   "mechanic assignment": "refused",
   "build sheet": "refused",
+  "tune version": "refused",
   "dyno run withdrawal": "allowed (a new report revision)",
 } as const;
 
@@ -36,6 +38,7 @@ const WHAT: Record<RefusedAfterClose, string> = {
   photo: "A photo",
   "mechanic assignment": "A change of mechanic",
   "build sheet": "A change to the build sheet",
+  "tune version": "A new tune version",
 };
 
 /** Why `kind` may not be added to this work order any more, or null while its record is open. */

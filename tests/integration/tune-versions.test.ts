@@ -116,6 +116,21 @@ describe("tune versions (real PostgreSQL, s3rver)", () => {
     expect(text).toContain(expected.slice(32));
   });
 
+  it("a new tune version on a handed-over job is refused in words and stored nowhere: the report keeps naming the tune the bike left with", async () => {
+    const fx = await createShopFixture(db);
+    const first = await upload(fx, form(new Blob([new Uint8Array([1, 2, 3])]), "left-with.bin", "v3 as handed over"));
+    expect(first.status).toBe(201);
+    await db.updateTable("work_orders").set({ status: "handed_over", closed_at: new Date() }).where("id", "=", fx.workOrderId).execute();
+    const late = await upload(fx, form(new Blob([new Uint8Array([4, 5, 6])]), "after.bin", "v4 after handover"));
+    expect(late.status).toBe(409);
+    const body = (await late.json()) as { error: string };
+    expect(body.error).toMatch(
+      /^Work order #\d+ is handed over: its record is closed\. A new tune version for a bike that has left belongs on a new work order/,
+    );
+    const labels = await db.selectFrom("tune_versions").select("label").where("work_order_id", "=", fx.workOrderId).execute();
+    expect(labels).toEqual([{ label: "v3 as handed over" }]);
+  });
+
   it("a run cannot name another work order's tune", async () => {
     const a = await createShopFixture(db);
     const b = await createShopFixture(db);

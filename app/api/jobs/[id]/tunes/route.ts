@@ -4,6 +4,7 @@ import { findDynoWorkOrder } from "@/db/records/dyno";
 import { listTuneVersions } from "@/db/records/tunes";
 import { TUNE_FILE_MAX_BYTES } from "@/lib/dyno/tune-version";
 import { Refusal } from "@/lib/errors";
+import { closedRecordRefusal } from "@/lib/work-orders/closed-record";
 
 const NOT_FOUND = "No such work order in your shop.";
 
@@ -25,7 +26,11 @@ export const POST = route(
   },
   async ({ user, params, body, db }) => {
     const id = idParam(params.id, NOT_FOUND);
-    if (!(await findDynoWorkOrder(db, user.shopId, id))) throw new Refusal(NOT_FOUND, 404);
+    const job = await findDynoWorkOrder(db, user.shopId, id);
+    if (!job) throw new Refusal(NOT_FOUND, 404);
+    // said before the file is stored; checked again where the version is written (db/records/tunes.ts)
+    const closed = closedRecordRefusal(job, "tune version");
+    if (closed) throw new Refusal(closed, 409, [{ path: "workOrder", message: closed }]);
     return created(await storeTuneVersion(db, user, id, body));
   },
 );
