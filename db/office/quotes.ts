@@ -79,6 +79,8 @@ export async function saveQuoteDraft(db: Kysely<Database>, shopId: string, userI
 // work order moves to "quoted" (from booked in / inspected; it stays quoted on a revision).
 export async function sendQuote(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string) {
   return db.transaction().execute(async (trx) => {
+    // the job first (a customer approving the sent quote at this moment is seen, or waits for this)
+    const wo = await lockWorkOrder(trx, shopId, workOrderId);
     const draft = await trx
       .selectFrom("quotes")
       .select(["id", "version"])
@@ -88,7 +90,11 @@ export async function sendQuote(db: Kysely<Database>, shopId: string, userId: st
       .forUpdate()
       .executeTakeFirst();
     if (!draft) throw new Refusal("There is no draft quote to send.", 409);
-    const wo = await trx.selectFrom("work_orders").select("status").where("id", "=", workOrderId).executeTakeFirstOrThrow();
+    if (!isQuotable(wo.status))
+      throw new Refusal(
+        "The customer has approved a quote already (the job has moved on): this draft cannot be sent. Agree any change with the customer as extra work.",
+        409,
+      );
     if (wo.status === "booked_in")
       throw new Refusal("Record the inspection first: move the work order to Inspected, then send the quote.", 409);
     await trx
@@ -107,8 +113,14 @@ export async function sendQuote(db: Kysely<Database>, shopId: string, userId: st
 }
 
 /** A quote with the customer who owns its bike, locked for the customer's answer. */
-const lockQuoteWithOwner = (trx: Kysely<Database>, quoteId: string) =>
-  trx
+// Locks are taken job first, then its quotes, everywhere (saving and sending a draft, the
+// customer's answer): two of them at once wait for each other instead of deadlocking, and each sees
+// what the other did.
+async function lockQuoteWithOwner(trx: Kysely<Database>, quoteId: string) {
+  const of = await trx.selectFrom("quotes").select("work_order_id").where("id", "=", quoteId).executeTakeFirst();
+  if (!of) return undefined;
+  await trx.selectFrom("work_orders").select("id").where("id", "=", of.work_order_id).forUpdate().execute();
+  return trx
     .selectFrom("quotes as q")
     .innerJoin("work_orders as w", "w.id", "q.work_order_id")
     .innerJoin("bikes as b", "b.id", "w.bike_id")
@@ -116,6 +128,7 @@ const lockQuoteWithOwner = (trx: Kysely<Database>, quoteId: string) =>
     .where("q.id", "=", quoteId)
     .forUpdate("q")
     .executeTakeFirst();
+}
 
 // The customer's approval from their own sign-in. Refused unless the quote is on a bike they own.
 export async function approveQuoteAsCustomer(

@@ -8,7 +8,8 @@ import { issueBill } from "@/db/office/final-bill";
 import { recordTuneVersion } from "@/db/records/tunes";
 import { createBike } from "@/db/shop/bikes";
 import { createCustomer } from "@/db/shop/customers";
-import { bookIn } from "@/db/shop/work-orders";
+import { approveQuoteAsCustomer, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
+import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { createTemplateVersion } from "@/db/templates/versions";
 import { turboKitTemplate } from "@/lib/procedures/demo-templates/turbo-kit";
 import { insertQuotedJob } from "./support/quoted-job";
@@ -177,4 +178,54 @@ it("a tune's label is given once on a job, however many uploads of it arrive at 
   expect(refused.map((r) => [r.status, r.issues[0]?.message])).toEqual(
     Array(AT_ONCE - 1).fill([409, "This work order already has a tune labelled “v3 10 psi”: give the new version its own label."]),
   );
+});
+
+it("a revised quote sent while the customer approves the one sent: one of the two stands, never both", async () => {
+  const fx = await createShopFixture(db);
+  const cust = { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId };
+  const line = (price: number) => ({
+    lines: [{ kind: "labour" as const, description: "Rebuild", quantityHundredths: 100, unitPriceMinor: price }],
+    depositMinor: 0,
+  });
+  async function sentWithRevision() {
+    const bike = await createBike(db, fx.shopId, { customerId: fx.customerId, make: "Ostrava", model: "S4" });
+    const wo = await bookIn(db, fx.shopId, fx.users.office.id, { bikeId: bike.id, title: "Rebuild", complaint: "Tired", odometerKm: 100 });
+    await moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "inspected");
+    await saveQuoteDraft(db, fx.shopId, fx.users.office.id, wo.id, line(10_000));
+    const { quoteId } = await sendQuote(db, fx.shopId, fx.users.office.id, wo.id);
+    await saveQuoteDraft(db, fx.shopId, fx.users.office.id, wo.id, line(12_000));
+    return { workOrderId: wo.id, sentId: quoteId };
+  }
+  const stateOf = async (workOrderId: string) => ({
+    job: (await db.selectFrom("work_orders").select("status").where("id", "=", workOrderId).executeTakeFirstOrThrow()).status,
+    quotes: (
+      await db.selectFrom("quotes").select(["version", "status"]).where("work_order_id", "=", workOrderId).orderBy("version").execute()
+    ).map((q) => `v${q.version} ${q.status}`),
+  });
+
+  // one after the other: the approval stands, and the draft is refused in words
+  const a = await sentWithRevision();
+  await approveQuoteAsCustomer(db, cust, a.sentId);
+  await expect(sendQuote(db, fx.shopId, fx.users.office.id, a.workOrderId)).rejects.toMatchObject({
+    status: 409,
+    message: expect.stringMatching(/^The customer has approved a quote already/),
+  });
+  expect(await stateOf(a.workOrderId)).toEqual({ job: "approved", quotes: ["v1 approved", "v2 draft"] });
+
+  // at once, six times over: whichever goes first stands, and the other is refused
+  for (let i = 0; i < AT_ONCE; i++) {
+    const j = await sentWithRevision();
+    const [send, approve] = await Promise.allSettled([
+      sendQuote(db, fx.shopId, fx.users.office.id, j.workOrderId),
+      approveQuoteAsCustomer(db, cust, j.sentId),
+    ]);
+    expect([send.status, approve.status].sort()).toEqual(["fulfilled", "rejected"]);
+    const refused = (send.status === "rejected" ? send.reason : (approve as PromiseRejectedResult).reason) as Refusal;
+    expect(refused.status).toBe(409);
+    expect(await stateOf(j.workOrderId)).toEqual(
+      send.status === "fulfilled"
+        ? { job: "quoted", quotes: ["v1 superseded", "v2 sent"] }
+        : { job: "approved", quotes: ["v1 approved", "v2 draft"] },
+    );
+  }
 });
