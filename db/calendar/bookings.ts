@@ -49,14 +49,16 @@ export async function bookWorkOrder(db: Kysely<Database>, user: SessionUser, inp
     return await db.transaction().execute(async (trx) => {
       const resource = await trx
         .selectFrom("shop_resources as r")
-        .leftJoin("resource_retirements as x", "x.resource_id", "r.id")
-        .select(["r.id", "r.kind", "r.name", "x.retired_at as retiredAt"])
+        .select(["r.id", "r.kind", "r.name"])
         .where("r.id", "=", input.resourceId)
         .where("r.shop_id", "=", user.shopId)
         .forShare("r")
         .executeTakeFirst();
       if (!resource) throw new Refusal("No such resource in this shop.", 404, [{ path: "resourceId", message: "not found" }]);
-      if (resource.retiredAt)
+      // read after the lock, in a statement of its own: a retirement that held the resource while this
+      // waited is seen (joined into the locking statement, it was read as it stood before the wait)
+      const retired = await trx.selectFrom("resource_retirements").select("id").where("resource_id", "=", resource.id).executeTakeFirst();
+      if (retired)
         throw new Refusal(`${resource.name} is retired and can no longer be booked.`, 409, [{ path: "resourceId", message: "retired" }]);
       const wo = await trx
         .selectFrom("work_orders")

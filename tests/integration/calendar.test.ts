@@ -1,3 +1,4 @@
+import { sql } from "kysely";
 import { describe, expect, it } from "vitest";
 import { POST as cancelRoute } from "@/app/api/office/bookings/[id]/cancel/route";
 import { POST as bookRoute } from "@/app/api/office/bookings/route";
@@ -109,6 +110,33 @@ describe("double bookings", () => {
     const winnerNumber = live[0].workOrderId === s.fx.workOrderId ? 1 : 2;
     const winnerTimes = winnerNumber === 1 ? "13:00–15:00" : "14:00–16:00";
     expect((await refusal(loser)).error).toBe(`The dyno is booked for job #${winnerNumber}, ${winnerTimes} on ${shortDay(s.monday)}.`);
+  });
+});
+
+describe("a resource retired while it is being booked", () => {
+  it("the booking that waited for the retirement sees it and is refused; nothing is stored on the retired resource", async () => {
+    const s = await shopWithDyno();
+    let booking: Promise<Response> | null = null;
+    // the retirement as retireResource writes it, held open while a booking for the same bay comes in
+    await db.transaction().execute(async (trx) => {
+      await trx.selectFrom("shop_resources").select("id").where("id", "=", s.bay).forUpdate().execute();
+      await trx
+        .insertInto("resource_retirements")
+        .values({ shop_id: s.fx.shopId, resource_id: s.bay, reason: "Bay floor being relaid", retired_by: s.office.id })
+        .execute();
+      booking = book(s.office, { resourceId: s.bay, workOrderId: s.fx.workOrderId, day: s.monday, from: "09:00", to: "10:00" });
+      // the booking is now waiting for the bay's row
+      for (let i = 0; i < 50; i++) {
+        const waiting = await sql<{ n: number }>`
+          SELECT count(*)::int AS n FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND datname = current_database()`.execute(db);
+        if (waiting.rows[0].n > 0) break;
+        await new Promise((r) => setTimeout(r, 20));
+      }
+    });
+    const res = await booking!;
+    expect(res.status).toBe(409);
+    expect((await refusal(res)).error).toBe("Bay 2 is retired and can no longer be booked.");
+    expect(await liveBookings(s.bay)).toEqual([]);
   });
 });
 
