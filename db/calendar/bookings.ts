@@ -30,6 +30,21 @@ const localParts = (timeZone: string) =>
     sql<string>`to_char(upper(b.during) AT TIME ZONE ${timeZone}, 'HH24:MI')`.as("to"),
   ] as const;
 
+/** A resource's bookings not cancelled and not yet over, soonest first, as the shop's clock reads them. */
+export async function bookingsStillToCome(db: Kysely<Database>, shopId: string, resourceId: string) {
+  const { timeZone } = await shopOf(db, shopId);
+  return db
+    .selectFrom("bookings as b")
+    .innerJoin("work_orders as w", "w.id", "b.work_order_id")
+    .select(["b.id", "w.number", ...localParts(timeZone)])
+    .where("b.shop_id", "=", shopId)
+    .where("b.resource_id", "=", resourceId)
+    .where("b.released_at", "is", null)
+    .where(sql<boolean>`upper(b.during) > now()`)
+    .orderBy(sql`lower(b.during)`)
+    .execute();
+}
+
 async function shopOf(db: Kysely<Database>, shopId: string) {
   const s = await db
     .selectFrom("shops")

@@ -1,11 +1,12 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
-import type { NewResourceInput, ResourceKind } from "@/lib/calendar/rules";
+import { shortDay, type NewResourceInput, type ResourceKind } from "@/lib/calendar/rules";
 import { Refusal } from "@/lib/errors";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 import { withKeysHeld } from "../setup/key-locks";
+import { bookingsStillToCome } from "./bookings";
 
 // The shop's resources (bays, lifts, the dyno, mechanics). Added once; retired by its own record.
 
@@ -70,7 +71,7 @@ export async function addResource(db: Kysely<Database>, user: SessionUser, input
   });
 }
 
-/** Retires a resource (once, with the reason): it can no longer be booked; its bookings stay on record. */
+/** Retires a resource (once, with the reason) that has no bookings still to come: it can no longer be booked; its past bookings stay on record. */
 export async function retireResource(db: Kysely<Database>, user: SessionUser, resourceId: string, reason: string) {
   return db.transaction().execute(async (trx) => {
     const r = await trx
@@ -83,6 +84,14 @@ export async function retireResource(db: Kysely<Database>, user: SessionUser, re
     if (!r) throw new Refusal("No such resource in this shop.", 404);
     const done = await trx.selectFrom("resource_retirements").select("id").where("resource_id", "=", resourceId).executeTakeFirst();
     if (done) throw new Refusal(`${r.name} is already retired.`, 409);
+    // jobs still booked on it would keep a slot on something the shop no longer has: they are moved
+    // or cancelled first (each with its reason), so none is silently left without its bay or dyno
+    const ahead = await bookingsStillToCome(trx, user.shopId, resourceId);
+    if (ahead.length) {
+      const list = ahead.map((b) => `job #${b.number}, ${b.from}–${b.to} on ${shortDay(b.day)}`);
+      const message = `${r.name} still has ${ahead.length === 1 ? "a booking" : `${ahead.length} bookings`} to come (${list.join("; ")}): book ${ahead.length === 1 ? "that job" : "those jobs"} elsewhere or cancel, then retire it.`;
+      throw new Refusal(message, 409, [{ path: "reason", message }]);
+    }
     const row = await trx
       .insertInto("resource_retirements")
       .values({ shop_id: user.shopId, resource_id: resourceId, reason, retired_by: user.id })

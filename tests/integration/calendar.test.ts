@@ -140,6 +140,33 @@ describe("a resource retired while it is being booked", () => {
   });
 });
 
+describe("retiring a resource with jobs still booked on it", () => {
+  it("is refused, naming each booking still to come; once they are cancelled it is retired", async () => {
+    const s = await shopWithDyno();
+    const first = await book(s.office, { resourceId: s.dyno, workOrderId: s.fx.workOrderId, day: s.monday, from: "09:00", to: "11:00" });
+    const tuesday = addDays(s.monday, 1);
+    const second = await book(s.office, { resourceId: s.dyno, workOrderId: s.second, day: tuesday, from: "13:00", to: "15:30" });
+    expect([first.status, second.status]).toEqual([201, 201]);
+    const retire = () =>
+      retireRoute.handle(post(`/api/office/resources/${s.dyno}/retire`, { reason: "Rollers sent away for regrinding" }), {
+        user: s.office,
+        db,
+        params: { id: s.dyno },
+      });
+    const refused = await retire();
+    expect(refused.status).toBe(409);
+    expect((await refusal(refused)).error).toBe(
+      `Dyno still has 2 bookings to come (job #1, 09:00–11:00 on ${shortDay(s.monday)}; job #2, 13:00–15:30 on ${shortDay(tuesday)}): book those jobs elsewhere or cancel, then retire it.`,
+    );
+    expect(await db.selectFrom("resource_retirements").select("id").where("resource_id", "=", s.dyno).execute()).toEqual([]);
+    for (const res of [first, second]) {
+      const { id } = (await res.json()) as { id: string };
+      expect((await cancel(s.office, id, "Dyno going away for a month")).status).toBe(201);
+    }
+    expect((await retire()).status).toBe(201);
+  });
+});
+
 describe("refusals save nothing", () => {
   it("until before from, a closed day, outside opening hours, a retired resource, a closed job", async () => {
     const s = await shopWithDyno();
