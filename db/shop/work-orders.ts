@@ -262,11 +262,32 @@ export async function moveWorkOrder(
       const ok = await trx
         .selectFrom("template_versions as v")
         .innerJoin("procedure_templates as t", "t.id", "v.template_id")
-        .select("v.id")
+        .select(["v.id", "t.name", "v.version"])
         .where("v.id", "in", toPin)
         .where("t.shop_id", "=", shopId)
         .execute();
       if (ok.length !== new Set(toPin).size) throw new Refusal("One of the chosen templates is not in this shop.", 422);
+      // one version pinned once on a job: the bench keys its work by step, so a second copy of the
+      // same steps would read as done by the first copy's work, with nothing done on it
+      const name = (id: string) => {
+        const v = ok.find((x) => x.id === id)!;
+        return `“${v.name}” (version ${v.version})`;
+      };
+      const twice = toPin.find((id, i) => toPin.indexOf(id) !== i);
+      if (twice) {
+        const message = `${name(twice)} is chosen twice: pin each procedure once.`;
+        throw new Refusal(message, 422, [{ path: "templateVersionIds", message }]);
+      }
+      const already = await trx
+        .selectFrom("job_procedures")
+        .select("template_version_id as id")
+        .where("work_order_id", "=", workOrderId)
+        .where("template_version_id", "in", toPin)
+        .executeTakeFirst();
+      if (already) {
+        const message = `${name(already.id)} is already pinned on this job: its steps are on the bench already.`;
+        throw new Refusal(message, 422, [{ path: "templateVersionIds", message }]);
+      }
     }
     const open = isGatedMove(to) ? ((await loadOpenItems(trx, shopId, workOrderId)) ?? undefined) : undefined;
     const check = checkTransition(wo.status, to, {
@@ -461,7 +482,7 @@ export async function workOrderDetail(db: Kysely<Database>, shopId: string, id: 
       .selectFrom("job_procedures as j")
       .innerJoin("template_versions as v", "v.id", "j.template_version_id")
       .innerJoin("procedure_templates as t", "t.id", "v.template_id")
-      .select(["j.id", "j.position", "t.key", "v.name", "v.version"])
+      .select(["j.id", "j.position", "t.key", "v.name", "v.version", "v.id as versionId"])
       .where("j.work_order_id", "=", id)
       .orderBy("j.position")
       .execute(),

@@ -90,6 +90,32 @@ describe("work-order state flow", () => {
     expect(d.procedures).toMatchObject([{ key: "cylinder-head-installation", version: 1 }]);
   });
 
+  it("pins each procedure version once: twice in one move, or again when it is pinned already, is refused in words", async () => {
+    const { fx, wo } = await freshJob();
+    const office = fx.users.office.id;
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "inspected");
+    await saveQuoteDraft(db, fx.shopId, office, wo.id, { lines: [line], depositMinor: 0 });
+    const { quoteId } = await sendQuote(db, fx.shopId, office, wo.id);
+    await approveQuoteAsCustomer(db, { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId }, quoteId);
+    await assignMechanic(db, fx.shopId, office, wo.id, fx.users.mechanic.id);
+    const head = fx.templates.head.versionId;
+    await expect(moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [head, head] })).rejects.toMatchObject({
+      status: 422,
+      message: expect.stringMatching(/^“.+” \(version 1\) is chosen twice: pin each procedure once\.$/),
+    });
+    expect(await db.selectFrom("job_procedures").select("id").where("work_order_id", "=", wo.id).execute()).toHaveLength(0);
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [head] });
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "in_review");
+    await expect(moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [head] })).rejects.toMatchObject({
+      status: 422,
+      message: expect.stringMatching(/is already pinned on this job: its steps are on the bench already\.$/),
+    });
+    expect(await db.selectFrom("job_procedures").select("id").where("work_order_id", "=", wo.id).execute()).toHaveLength(1);
+    // back to build with a different procedure is fine
+    await moveWorkOrder(db, fx.shopId, office, wo.id, "in_build", { templateVersionIds: [fx.templates.bottom.versionId] });
+    expect(await db.selectFrom("job_procedures").select("id").where("work_order_id", "=", wo.id).execute()).toHaveLength(2);
+  });
+
   it("holds the job out of build until the deposit is paid", async () => {
     const { fx, wo } = await freshJob();
     const office = fx.users.office.id;

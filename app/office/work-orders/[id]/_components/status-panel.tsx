@@ -72,19 +72,21 @@ export function StatusPanel({ data, onGateRefused }: { data: WorkOrderData; onGa
             <p className="text-sm">Already pinned: {wo.procedures.map((p) => `${p.name} v${p.version}`).join(", ")}</p>
           )}
           <div className="mt-2 grid gap-2 md:grid-cols-2">
-            {data.templates.map((t) => (
-              <label key={t.versionId} className="flex min-h-12 items-center gap-3 rounded-lg border-2 border-steel-300 px-3">
-                <input
-                  type="checkbox"
-                  className="h-6 w-6"
-                  checked={pins.includes(t.versionId)}
-                  onChange={(e) => setPins((p) => (e.target.checked ? [...p, t.versionId] : p.filter((x) => x !== t.versionId)))}
-                />
-                <span>
-                  {t.name} <span className="text-steel-700">v{t.version}</span>
-                </span>
-              </label>
-            ))}
+            {data.templates
+              .filter((t) => !wo.procedures.some((p) => p.versionId === t.versionId))
+              .map((t) => (
+                <label key={t.versionId} className="flex min-h-12 items-center gap-3 rounded-lg border-2 border-steel-300 px-3">
+                  <input
+                    type="checkbox"
+                    className="h-6 w-6"
+                    checked={pins.includes(t.versionId)}
+                    onChange={(e) => setPins((p) => (e.target.checked ? [...p, t.versionId] : p.filter((x) => x !== t.versionId)))}
+                  />
+                  <span>
+                    {t.name} <span className="text-steel-700">v{t.version}</span>
+                  </span>
+                </label>
+              ))}
           </div>
         </fieldset>
       )}
