@@ -24,7 +24,8 @@ import { splitIntoBatches } from "@/lib/sync/batching";
 import { tabletSyncResponseSchema } from "@/lib/sync/changes";
 import { discardResponseSchema } from "@/lib/sync/discards";
 import type { Operation } from "@/lib/sync/operations";
-import { benchJobListSchema, jobSnapshotSchema, type JobSnapshot } from "@/lib/sync/snapshot";
+import { benchJobListSchema, jobSnapshotSchema, type BenchJobSummary, type JobSnapshot } from "@/lib/sync/snapshot";
+import { isOpenForBenchWork } from "@/lib/work-orders/status";
 import {
   applySnapshotDelta,
   sectionDigests,
@@ -277,6 +278,7 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promis
     const have = new Set(await db.jobs.toCollection().primaryKeys());
     const toLoad = new Set((await olderCopies(db)).map((w) => w.id));
     for (const j of list.jobs) if (j.assignedToMe && j.mayWork && !have.has(j.id)) toLoad.add(j.id);
+    for (const id of await copiesTheOfficeChanged(db, list.jobs)) toLoad.add(id);
     let failed: unknown = null;
     for (const id of toLoad) {
       try {
@@ -307,6 +309,30 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promis
     jobsRefreshed,
     photosSent,
   };
+}
+
+/**
+ * Held copies the office has changed since: the job moved on (in review, ready, handed over — it
+ * then leaves the list of jobs open for bench work — or back in build with more procedures pinned)
+ * or was given to another mechanic. Such a change makes no bench entry, so the change feed does not
+ * name the job; the job list does. A copy that says the same as the list (or already says the job
+ * left the bench) is not fetched again.
+ */
+async function copiesTheOfficeChanged(db: BenchDb, listed: readonly BenchJobSummary[]): Promise<string[]> {
+  const byId = new Map(listed.map((j) => [j.id, j]));
+  const changed: string[] = [];
+  await db.jobs.each((held) => {
+    const w = held.snapshot.workOrder;
+    const now = byId.get(held.id);
+    if (!now) {
+      if (isOpenForBenchWork(w.status)) changed.push(held.id);
+      return;
+    }
+    if (now.status !== w.status || (now.assignedMechanic?.id ?? null) !== (w.assignedMechanic?.id ?? null) || now.mayWork !== w.mayWork) {
+      changed.push(held.id);
+    }
+  });
+  return changed;
 }
 
 /**

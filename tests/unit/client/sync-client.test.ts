@@ -10,7 +10,7 @@ import type { Operation } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 import { buildWorkOrderView } from "@/lib/work-order-record";
 import { bolt, freshDb } from "../support/tablet-db";
-import { ids, jobSnapshot, torqueRecord } from "../support/job-snapshot";
+import { ids, jobSnapshot, torqueRecord, u } from "../support/job-snapshot";
 
 // The sync run (lib/client/sync-client.ts) against a stand-in server: what the tablet keeps when
 // the network goes between the sync answer and the job reload, and that runs never overlap.
@@ -138,5 +138,96 @@ describe("one sync run at a time", () => {
     expect(server.syncRequests.map((r) => r.operations.length)).toEqual([1, 1]);
     expect(server.syncRequests[1].cursor).toBe("11");
     expect(await db.outbox.count()).toBe(0);
+  });
+});
+
+describe("a change the office makes to a job the tablet holds", () => {
+  /** A server whose job list and job copy are the test's; counts the copies fetched. */
+  function officeServer(listed: () => unknown[], copy: () => JobSnapshot) {
+    const s = { copiesFetched: 0 };
+    const fetchFn = (async (input: RequestInfo | URL, init?: RequestInit) => {
+      const url = String(input);
+      if (url === "/api/sync") {
+        const body = JSON.parse(String(init?.body)) as { cursor: string | null };
+        return Response.json({
+          accepted: [],
+          duplicates: [],
+          refused: [],
+          flagged: [],
+          changes: [],
+          cursor: body.cursor ?? "10",
+          more: false,
+        });
+      }
+      if (url === "/api/bench/jobs") return Response.json({ jobs: listed() });
+      if (url === `/api/bench/jobs/${ids.job}`) {
+        s.copiesFetched++;
+        return Response.json(copy());
+      }
+      throw new Error(`unexpected request ${url}`);
+    }) as typeof fetch;
+    return { s, fetchFn };
+  }
+  const summary = (over: Record<string, unknown>) => {
+    const w = jobSnapshot().workOrder;
+    return {
+      id: w.id,
+      number: w.number,
+      title: w.title,
+      status: w.status,
+      statusLabel: w.statusLabel,
+      assignedMechanic: w.assignedMechanic,
+      assignedToMe: w.assignedToMe,
+      mayWork: w.mayWork,
+      bike: jobSnapshot().bike,
+      updatedAt: new Date().toISOString(),
+      ...over,
+    };
+  };
+  const withWorkOrder = (over: Partial<JobSnapshot["workOrder"]>): JobSnapshot => {
+    const c = jobSnapshot({}, "10");
+    return { ...c, workOrder: { ...c.workOrder, ...over } };
+  };
+
+  it("a job given to another mechanic is fetched again, once: the copy then says whose it is", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const other = { id: u(7), name: "Priya" };
+    const now = withWorkOrder({ assignedMechanic: other, assignedToMe: false, mayWork: false });
+    const { s, fetchFn } = officeServer(
+      () => [summary({ assignedMechanic: other, assignedToMe: false, mayWork: false })],
+      () => now,
+    );
+    await syncOnce(db, "tab-1", fetchFn);
+    expect(s.copiesFetched).toBe(1);
+    expect((await db.jobs.get(ids.job))!.snapshot.workOrder).toMatchObject({ assignedMechanic: other, mayWork: false });
+    await syncOnce(db, "tab-1", fetchFn);
+    expect(s.copiesFetched).toBe(1);
+  });
+
+  it("a job moved off the bench (it leaves the list) is fetched again, once: the copy then says where it stands", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const ready = withWorkOrder({ status: "ready", statusLabel: "Ready for collection", openForBenchWork: false });
+    const { s, fetchFn } = officeServer(
+      () => [],
+      () => ready,
+    );
+    await syncOnce(db, "tab-1", fetchFn);
+    expect(s.copiesFetched).toBe(1);
+    expect((await db.jobs.get(ids.job))!.snapshot.workOrder).toMatchObject({ status: "ready", openForBenchWork: false });
+    await syncOnce(db, "tab-1", fetchFn);
+    expect(s.copiesFetched).toBe(1);
+  });
+
+  it("a copy that says what the list says is not fetched again", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const { s, fetchFn } = officeServer(
+      () => [summary({})],
+      () => jobSnapshot({}, "10"),
+    );
+    await syncOnce(db, "tab-1", fetchFn);
+    expect(s.copiesFetched).toBe(0);
   });
 });
