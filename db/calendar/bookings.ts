@@ -1,5 +1,5 @@
 import "server-only";
-import { sql, type Kysely, type RawBuilder } from "kysely";
+import { sql, type Kysely, type RawBuilder, type Transaction } from "kysely";
 import { DatabaseError } from "pg";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { addDays } from "@/lib/aftercare/reminders";
@@ -253,4 +253,46 @@ export async function listBookableJobs(db: Kysely<Database>, shopId: string) {
     .where("w.status", "not in", [...CLOSED])
     .orderBy("w.number", "desc")
     .execute();
+}
+
+/**
+ * Cancels a closed job's bookings still to come (the dyno tomorrow for a job handed over today, a
+ * bay next week for a job cancelled), in the closing move's transaction, with the move as the
+ * reason: the slots are free for other jobs, and the week plan no longer shows the job there.
+ */
+export async function cancelBookingsOfClosedJob(
+  trx: Transaction<Database>,
+  who: { shopId: string; userId: string },
+  jobId: string,
+  reason: string,
+): Promise<number> {
+  const ahead = await trx
+    .selectFrom("bookings")
+    .select("id")
+    .where("shop_id", "=", who.shopId)
+    .where("work_order_id", "=", jobId)
+    .where("released_at", "is", null)
+    .where(sql<boolean>`upper(during) > now()`)
+    .orderBy("id")
+    .forUpdate()
+    .execute();
+  for (const b of ahead) {
+    await trx
+      .insertInto("booking_cancellations")
+      .values({ shop_id: who.shopId, booking_id: b.id, reason, cancelled_by: who.userId })
+      .execute();
+    await appendAudit(trx, [
+      {
+        shopId: who.shopId,
+        actorId: who.userId,
+        action: "booking.cancel",
+        entity: "booking",
+        entityId: b.id,
+        workOrderId: jobId,
+        outcome: "accepted",
+        reason,
+      },
+    ]);
+  }
+  return ahead.length;
 }

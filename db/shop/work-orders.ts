@@ -6,13 +6,15 @@ import { Refusal } from "@/lib/errors";
 import { checkTransition, isGatedMove, type OverrideRequest } from "@/lib/work-orders/transition-rules";
 import { openItemLine, openItemsSummary } from "@/lib/work-orders/open-items";
 import type { FieldIssue } from "@/lib/errors";
-import { CLOSED_STATUSES, isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { CLOSED_STATUSES, isClosed, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit, type AuditEntry } from "../audit/append";
 import type { Database } from "../schema";
 import { partsOfWorkOrder } from "../records/parts-fitted";
 import { loadOpenItems } from "../records/open-items";
 import { withOpenRecord } from "./open-record";
 import { withdrawnEntries } from "../records/withdrawn-entries";
+import { cancelBookingsOfClosedJob } from "../calendar/bookings";
+import { releaseReservationsOfClosedJob } from "../stock/reserve";
 import { containsPattern } from "./search";
 import type { PageOpts } from "./customers";
 
@@ -311,6 +313,12 @@ export async function moveWorkOrder(
       .set({ status: to, updated_at: sql`now()`, closed_at: isClosed(to) ? new Date() : null })
       .where("id", "=", workOrderId)
       .execute();
+    if (isClosed(to)) {
+      // a closed job holds no shelf stock and no slot still to come
+      const why = `Job #${wo.number} ${STATUS_LABELS[to].toLowerCase()}: let go when it closed.`;
+      await releaseReservationsOfClosedJob(trx, { shopId, userId }, { id: workOrderId, number: wo.number }, why);
+      await cancelBookingsOfClosedJob(trx, { shopId, userId }, workOrderId, why);
+    }
     const transition = await trx
       .insertInto("work_order_transitions")
       .values({ work_order_id: workOrderId, from_status: wo.status, to_status: to, by_user_id: userId, note: opts.note ?? "" })

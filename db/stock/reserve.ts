@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import type { Kysely, Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { Refusal } from "@/lib/errors";
 import { lotName } from "@/lib/stock/draw";
@@ -16,11 +16,13 @@ import { outstandingReservations } from "./balances";
 /** Puts `quantity` of a lot aside for a job; refused when that much is not free. */
 export async function reserveToJob(db: Kysely<Database>, user: SessionUser, input: ReservationInput) {
   return db.transaction().execute(async (trx) => {
+    // held while this is decided: a job closing at this moment (which lets its stock go) is seen
     const job = await trx
       .selectFrom("work_orders")
       .select(["id", "number", "status"])
       .where("shop_id", "=", user.shopId)
       .where("number", "=", input.workOrderNumber)
+      .forShare()
       .executeTakeFirst();
     if (!job)
       throw new Refusal(`There is no job #${input.workOrderNumber} in this shop.`, 422, [
@@ -133,4 +135,74 @@ export async function releaseReservation(db: Kysely<Database>, user: SessionUser
     ]);
     return { id: movement.id, quantity };
   });
+}
+
+/**
+ * Lets go everything still put aside for a job that has just closed (cancelled, or handed over with
+ * parts it never used), in the closing move's transaction, with the move as the reason: a closed job
+ * no longer holds shelf stock the next job needs. Each reservation gets its "released" movement for
+ * what its job's fits did not use, and each lot its balance back, under the lots' row locks.
+ */
+export async function releaseReservationsOfClosedJob(
+  trx: Transaction<Database>,
+  who: { shopId: string; userId: string },
+  job: { id: string; number: number },
+  reason: string,
+): Promise<number> {
+  const open = await trx
+    .selectFrom("stock_movements as m")
+    .select(["m.id", "m.item_id", "m.lot_id", "m.quantity"])
+    .where("m.shop_id", "=", who.shopId)
+    .where("m.work_order_id", "=", job.id)
+    .where("m.kind", "=", "reserved")
+    .where((eb) => eb.not(eb.exists(eb.selectFrom("stock_movements as r").select("r.id").whereRef("r.releases_id", "=", "m.id"))))
+    .orderBy("m.recorded_at")
+    .orderBy("m.id")
+    .execute();
+  if (!open.length) return 0;
+  const lotIds = [...new Set(open.map((r) => r.lot_id!))].sort();
+  await trx.selectFrom("stock_lots").select("id").where("id", "in", lotIds).orderBy("id").forUpdate().execute();
+  const held = await outstandingReservations(trx, lotIds);
+  let released = 0;
+  for (const res of open) {
+    const left = held.get(res.lot_id!)?.get(job.id) ?? 0;
+    const quantity = Math.min(res.quantity, left);
+    if (quantity <= 0) continue;
+    held.get(res.lot_id!)!.set(job.id, left - quantity);
+    const movement = await trx
+      .insertInto("stock_movements")
+      .values({
+        shop_id: who.shopId,
+        item_id: res.item_id,
+        lot_id: res.lot_id,
+        kind: "released",
+        quantity,
+        work_order_id: job.id,
+        releases_id: res.id,
+        reason,
+        recorded_by: who.userId,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await trx
+      .updateTable("stock_lots")
+      .set((eb) => ({ reserved: eb("reserved", "-", quantity) }))
+      .where("id", "=", res.lot_id!)
+      .execute();
+    await appendAudit(trx, [
+      {
+        shopId: who.shopId,
+        actorId: who.userId,
+        action: "stock.released",
+        entity: "stock_movement",
+        entityId: movement.id,
+        workOrderId: job.id,
+        outcome: "accepted",
+        reason,
+        detail: { reservationId: res.id, quantity },
+      },
+    ]);
+    released += quantity;
+  }
+  return released;
 }

@@ -2,6 +2,8 @@ import { sql } from "kysely";
 import { describe, expect, it } from "vitest";
 import { POST as cancelRoute } from "@/app/api/office/bookings/[id]/cancel/route";
 import { POST as bookRoute } from "@/app/api/office/bookings/route";
+import { POST as deliveriesRoute } from "@/app/api/office/stock/deliveries/route";
+import { POST as reservationsRoute } from "@/app/api/office/stock/reservations/route";
 import { GET as dynoBookingsRoute } from "@/app/api/jobs/[id]/dyno-bookings/route";
 import { PUT as hoursRoute } from "@/app/api/office/opening-hours/route";
 import { POST as retireRoute } from "@/app/api/office/resources/[id]/retire/route";
@@ -9,6 +11,7 @@ import { POST as addResourceRoute } from "@/app/api/office/resources/route";
 import { POST as promiseRoute } from "@/app/api/office/work-orders/[id]/promise/route";
 import { listLateJobs } from "@/db/calendar/promises";
 import { listWeek } from "@/db/calendar/bookings";
+import { moveWorkOrder } from "@/db/shop/work-orders";
 import { addDays, dayIn } from "@/lib/aftercare/reminders";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { shortDay, weekStart } from "@/lib/calendar/rules";
@@ -164,6 +167,50 @@ describe("retiring a resource with jobs still booked on it", () => {
       expect((await cancel(s.office, id, "Dyno going away for a month")).status).toBe(201);
     }
     expect((await retire()).status).toBe(201);
+  });
+});
+
+describe("a job that closes", () => {
+  it("lets go its stock still put aside and cancels its bookings still to come, with the move as the reason", async () => {
+    const s = await shopWithDyno();
+    const delivery = await deliveriesRoute.handle(
+      post("/api/office/stock/deliveries", {
+        supplier: "Harbour Pistons",
+        lines: [{ partNumber: "GS-RB-8", description: "Rod bolt", location: "Shelf B2", batch: "L24-200", quantity: 8 }],
+      }),
+      { user: s.office, db, params: {} },
+    );
+    const lotId = ((await delivery.json()) as { lots: string[] }).lots[0];
+    const reserved = await reservationsRoute.handle(post("/api/office/stock/reservations", { lotId, workOrderNumber: 2, quantity: 5 }), {
+      user: s.office,
+      db,
+      params: {},
+    });
+    expect(reserved.status).toBe(201);
+    const booked = await book(s.office, { resourceId: s.dyno, workOrderId: s.second, day: s.monday, from: "09:00", to: "11:00" });
+    expect(booked.status).toBe(201);
+    expect((await db.selectFrom("stock_lots").select("reserved").where("id", "=", lotId).executeTakeFirstOrThrow()).reserved).toBe(5);
+
+    await moveWorkOrder(db, s.fx.shopId, s.office.id, s.second, "cancelled", { note: "Customer sold the bike" });
+
+    expect(await db.selectFrom("stock_lots").select(["on_hand", "reserved"]).where("id", "=", lotId).executeTakeFirstOrThrow()).toEqual({
+      on_hand: 8,
+      reserved: 0,
+    });
+    const released = await db
+      .selectFrom("stock_movements")
+      .select(["quantity", "reason"])
+      .where("lot_id", "=", lotId)
+      .where("kind", "=", "released")
+      .execute();
+    expect(released).toEqual([{ quantity: 5, reason: "Job #2 cancelled: let go when it closed." }]);
+    expect(await liveBookings(s.dyno)).toEqual([]);
+    const why = await db.selectFrom("booking_cancellations").select("reason").where("shop_id", "=", s.fx.shopId).execute();
+    expect(why).toEqual([{ reason: "Job #2 cancelled: let go when it closed." }]);
+    // the slot is free for another job
+    expect(
+      (await book(s.office, { resourceId: s.dyno, workOrderId: s.fx.workOrderId, day: s.monday, from: "09:00", to: "11:00" })).status,
+    ).toBe(201);
   });
 });
 
