@@ -13,9 +13,12 @@ import type { Db } from "@/db/setup/client";
 // worker (app/_server/queue/). Each answers { ok: false } when the customer has no e-mail address
 // on file (the work order page shows that nothing was sent).
 
-type Queued = { ok: true; queued: boolean; ids: string[] } | { ok: false; error: string };
-/** handOn false: only stored in the outbox (in the caller's transaction); the caller hands it to the queue after committing. */
-type QueueOptions = { handOn?: boolean };
+type Queued = { ok: true; queued: boolean } | { ok: false; error: string };
+/**
+ * handOn false: only stored in the outbox (in the caller's transaction), its id added to
+ * `stored`; the caller hands it to the queue after committing.
+ */
+type QueueOptions = { handOn?: boolean; stored?: string[] };
 type Context = NonNullable<Awaited<ReturnType<typeof emailContext>>>;
 
 async function queueForCustomer(
@@ -29,7 +32,8 @@ async function queueForCustomer(
   if (!c?.email) return { ok: false, error: "no e-mail address" };
   const mail = [{ shopId, workOrderId, to: c.email, ...write(c) }];
   const ids = opts.handOn === false ? await queueMails(db, mail) : await enqueueMails(db, mail);
-  return { ok: true, queued: ids.length > 0, ids };
+  opts.stored?.push(...ids);
+  return { ok: true, queued: ids.length > 0 };
 }
 
 export async function mailQuoteReady(

@@ -36,7 +36,7 @@ export async function handlePaymentWebhook(
   const metadata = obj?.metadata ?? {};
   // The receipt is queued in the payment's own transaction (so a failure to queue it undoes the
   // payment's record, and the provider's retry does both), and handed to the queue after it commits.
-  let receipts: string[] = [];
+  const receipts: string[] = [];
   const outcome = await applyPaymentEvent(
     db,
     {
@@ -50,8 +50,7 @@ export async function handlePaymentWebhook(
     async (trx, paid) => {
       if (opts.sendMail === false) return;
       const mail = paid.paymentFor === "deposit" ? mailDepositReceived : mailBalanceReceived;
-      const r = await mail(trx, paid.shopId, paid.workOrderId, paid.paymentId, paid.amountMinor, { handOn: false });
-      if (r.ok) receipts = r.ids;
+      await mail(trx, paid.shopId, paid.workOrderId, paid.paymentId, paid.amountMinor, { handOn: false, stored: receipts });
     },
   );
   await handToQueue(receipts).catch((e) => console.error("[mail] queue not reached; the sweep will hand the receipt on", e));

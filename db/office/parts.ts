@@ -4,6 +4,7 @@ import { partFittedSchema } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
 import type { z } from "zod";
 import { partColumns } from "../records/parts-fitted";
+import { planStockDraws, writeStockDraws } from "../stock/draw";
 import { withOpenRecord } from "../shop/open-record";
 import type { Database } from "../schema";
 
@@ -27,7 +28,7 @@ export async function addPartFitted(
       if (!step)
         throw new Refusal("That step is not part of this job's procedures.", 422, [{ path: "stepId", message: "not a step of this job" }]);
     }
-    return trx
+    const row = await trx
       .insertInto("parts_fitted")
       .values({
         shop_id: shopId,
@@ -43,6 +44,23 @@ export async function addPartFitted(
       })
       .returning("id")
       .executeTakeFirstOrThrow();
+    // A part the shop keeps in stock is drawn from the shelf as a bench fit is (db/stock/draw.ts),
+    // under the lots' row locks: never refused for stock, and what the shelf could not cover is said.
+    const fit = {
+      id: row.id,
+      workOrderId,
+      authorId: userId,
+      payload: {
+        partFittedId: row.id,
+        partNumber: p.partNumber,
+        quantity: p.quantity,
+        serial: p.serial ?? undefined,
+        batch: p.batch ?? undefined,
+      },
+    };
+    const draw = (await planStockDraws(trx, shopId, [fit])).get(row.id);
+    if (draw) await writeStockDraws(trx, shopId, [draw]);
+    return { id: row.id, stockNote: draw?.reason ?? null };
   });
 }
 

@@ -13,7 +13,10 @@ import { lockedLots } from "./balances";
 // tablets fitting the last one are decided one after the other: the second is the short one.
 
 type Tx = Transaction<Database>;
-type Fit = OperationOf<"part.fitted">;
+/** A part fitted, as a draw needs it: a bench fit, or one the office recorded (db/office/parts.ts). */
+type Fit = Pick<OperationOf<"part.fitted">, "id" | "workOrderId" | "authorId"> & {
+  payload: Pick<OperationOf<"part.fitted">["payload"], "partFittedId" | "partNumber" | "serial" | "batch" | "quantity">;
+};
 
 export interface StockDraw {
   fit: Fit;

@@ -2,6 +2,7 @@ import { randomUUID } from "node:crypto";
 import { sql } from "kysely";
 import { describe, expect, it } from "vitest";
 import { POST as deliveriesRoute } from "@/app/api/office/stock/deliveries/route";
+import { POST as officePartsRoute } from "@/app/api/office/work-orders/[id]/parts/route";
 import { POST as releaseRoute } from "@/app/api/office/stock/reservations/[id]/release/route";
 import { POST as reservationsRoute } from "@/app/api/office/stock/reservations/route";
 import { GET as searchRoute } from "@/app/api/office/stock/search/route";
@@ -297,6 +298,40 @@ describe("putting stock aside for a job", () => {
       params: { id: reservationId },
     });
     expect(twice.status).toBe(409);
+  });
+});
+
+describe("a part the office records", () => {
+  it("draws from stock as a bench fit does, from the job's reservation first; past the shelf it is kept and the shortfall said", async () => {
+    const { fx, office } = await setup();
+    const { body } = await receive(office, { supplier: "Harbour Pistons", lines: [rodBolts({ quantity: 4 })] });
+    const lotId = body.lots![0];
+    await reservationsRoute.handle(post("/api/office/stock/reservations", { lotId, workOrderNumber: 1, quantity: 2 }), {
+      user: office,
+      db,
+    });
+    const record = (quantity: number) =>
+      officePartsRoute.handle(
+        post(`/api/office/work-orders/${fx.workOrderId}/parts`, {
+          partNumber: "gs-rb-8",
+          description: "Rod bolt",
+          batch: "L24-118",
+          quantity,
+        }),
+        { user: office, db, params: { id: fx.workOrderId } },
+      );
+    const first = await record(3);
+    expect(first.status).toBe(201);
+    expect(await first.json()).toMatchObject({ stockNote: null });
+    expect(await lot(lotId)).toEqual({ on_hand: 1, reserved: 0 });
+    const second = await record(2);
+    expect(second.status).toBe(201);
+    expect(((await second.json()) as { stockNote: string }).stockNote).toMatch(
+      /^Stock short: 2 of part gs-rb-8 batch L24-118 fitted but only 1 left/,
+    );
+    expect(await lot(lotId)).toEqual({ on_hand: 0, reserved: 0 });
+    const parts = await db.selectFrom("parts_fitted").select("quantity").where("work_order_id", "=", fx.workOrderId).execute();
+    expect(parts.map((p) => p.quantity).sort()).toEqual([2, 3]);
   });
 });
 

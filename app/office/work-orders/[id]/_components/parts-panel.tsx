@@ -17,9 +17,10 @@ export function PartsPanel({ data }: { data: WorkOrderData }) {
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
   const add = useMutation({
-    mutationFn: (body: unknown) => api("POST", `/api/office/work-orders/${wo.id}/parts`, body),
-    onSuccess: () => {
-      setMessage({ ok: "Part recorded." });
+    mutationFn: (body: unknown) => api<{ id: string; stockNote: string | null }>("POST", `/api/office/work-orders/${wo.id}/parts`, body),
+    onSuccess: (r) => {
+      // a part kept in stock is drawn from the shelf; what the shelf could not cover is said
+      setMessage({ ok: r.stockNote ? `Part recorded. ${r.stockNote}` : "Part recorded." });
       void qc.invalidateQueries({ queryKey: ["work-order", wo.id] });
     },
     onError: (e) => {
