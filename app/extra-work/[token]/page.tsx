@@ -4,13 +4,15 @@ import { ExtraWorkAnswers } from "@/app/ui/extra-work-answers";
 import { SupplementLines } from "@/app/ui/supplement-lines";
 import { linkRefusal, linkState, supplementsOf, supplementWorkOrder } from "@/db/office/supplements";
 import { db } from "@/db/setup/client";
+import { extraWorkLinkShowsDetails } from "@/lib/office/extra-work";
 
 export const metadata: Metadata = { title: "Extra work on your bike" };
 export const dynamic = "force-dynamic";
 
 // The page of the e-mailed one-time link: no sign-in needed (the link is the check). An unknown,
 // expired or used link, or one sent to another customer than the one signed in, says so and
-// offers nothing to change; the answers already given are shown.
+// offers nothing to change; the answers already given are shown until the link's own end (after
+// that, only to its customer signed in: lib/office/extra-work.ts extraWorkLinkShowsDetails).
 export default async function ExtraWorkLinkPage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
   const state = /^[A-Za-z0-9_-]{43}$/.test(token) ? await linkState(db(), token) : ({ kind: "unknown" } as const);
@@ -21,7 +23,7 @@ export default async function ExtraWorkLinkPage({ params }: { params: Promise<{ 
       ? null
       : (await supplementsOf(db(), [await supplementWorkOrder(db(), state.supplementId)])).find((s) => s.id === state.supplementId);
   const wire = JSON.parse(JSON.stringify(supplement ?? null));
-  const mayShow = state.kind !== "unknown" && (!user?.customerId || user.customerId === state.customerId);
+  const mayShow = extraWorkLinkShowsDetails(state, { signedIn: Boolean(user), customerId: user?.customerId ?? null });
   return (
     <main className="mx-auto flex min-h-screen max-w-3xl flex-col gap-4 px-6 py-8 text-lg">
       <h1 className="text-3xl font-bold">Extra work on your bike</h1>
@@ -34,7 +36,7 @@ export default async function ExtraWorkLinkPage({ params }: { params: Promise<{ 
           ✖ {refused.message}
         </p>
       )}
-      {!refused && wire && (
+      {!refused && mayShow && wire && (
         <ExtraWorkAnswers supplement={wire} currency={wire.currency} photoBase={null} submit={{ url: "/api/extra-work/answers", token }} />
       )}
       {refused && mayShow && wire && (
