@@ -217,7 +217,8 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
   const none = Promise.resolve([]);
   const notWithdrawn = (column: "t.id" | "o.id") =>
     sql<boolean>`NOT EXISTS (SELECT 1 FROM withdrawals w WHERE w.operation_id = ${sql.ref(column)})`;
-  const [readings, timers, attachments, parts, serials, bolts, entries, clock] = await Promise.all([
+  const stopJobIds = new Set(ops.filter((o) => o.kind === "timer.stopped" || o.kind === "timer.cancelled").map((o) => o.workOrderId));
+  const [readings, timers, attachments, parts, serials, bolts, entries, clock, stepWork] = await Promise.all([
     readingIds.size
       ? db
           .selectFrom("measurements")
@@ -295,7 +296,28 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
           .execute()
       : none,
     loadClockState(db, ops),
+    // work on the steps of jobs whose timers the batch stops or cancels (a late stop may put it inside a hold)
+    stopJobIds.size
+      ? db
+          .selectFrom("operations as o")
+          .select(["o.id", "o.work_order_id", "o.stamp", sql<string>`o.payload->>'stepId'`.as("step_id")])
+          .where("o.work_order_id", "=", anyId(stopJobIds))
+          .where("o.kind", "in", ["step.completed", "torque.bolt-confirmed", "measurement.recorded", "part.fitted"])
+          .where(notWithdrawn("o.id"))
+          .execute()
+      : none,
   ]);
+  if (stopJobIds.size) {
+    const byJob = new Map<string, Array<{ opId: string; stepId: string; atMs: number }>>();
+    for (const w of stepWork) {
+      if (!w.step_id) continue;
+      byJob.set(w.work_order_id, [
+        ...(byJob.get(w.work_order_id) ?? []),
+        { opId: w.id, stepId: w.step_id, atMs: Number(w.stamp.slice(0, 15)) },
+      ]);
+    }
+    state.stepWork = byJob;
+  }
   state.clock = clock;
   for (const r of readings) state.readings.set(r.id, { workOrderId: r.work_order_id, specId: r.spec_id, readingIndex: r.reading_index });
   for (const t of timers) {

@@ -118,6 +118,11 @@ export interface MergeState {
   entries: Map<string, EntryFacts>;
   /** Clocks of the batch's authors (one open clock per mechanic) and the ends on record (./clocks.ts). */
   clock: ClockState;
+  /**
+   * Work on file (not withdrawn) on the steps of jobs whose timers the batch stops or cancels, with
+   * the wall time of its stamp: a stop that arrives late may put some of it inside the hold.
+   */
+  stepWork?: Map<string, ReadonlyArray<{ opId: string; stepId: string; atMs: number }>>;
 }
 
 export function emptyMergeState(): MergeState {
@@ -241,6 +246,7 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
   flags.push(...repeatedBoltFlags(op, job, input.state));
   flags.push(...holdFlags(op, job, input.state, stamp.wallMs));
   flags.push(...secondTimerFlags(op, job, input.state));
+  flags.push(...lateStopFlags(op, job, input.state));
   flags.push(...withdrawalFlags(op, job, input.state));
   flags.push(...clockFlags(op, input.state.clock));
   // Held only once everything else checks out; the flags are worked out again when it is applied.
@@ -313,6 +319,42 @@ function holdFlags(op: Operation, job: WorkOrderFacts, state: MergeState, atMs: 
     const step = job.steps.get(stepId!)!;
     out.push(
       `Step “${step.title}” was on hold when this was recorded (${utc(atMs)}): ${describeHold(h.label, hold)}. Check the wait was kept before this work.`,
+    );
+  }
+  return out;
+}
+
+/**
+ * A timer stopped early or cancelled, arriving after work on the step it holds was accepted: that
+ * work was accepted because the server thought the wait had run its time (or a later timer stood),
+ * but with this stop it falls inside the hold. The stop is kept and flagged, naming the work, so
+ * the supervisor checks the wait was kept (had the stop come first, the work itself would have
+ * been flagged).
+ */
+function lateStopFlags(op: Operation, job: WorkOrderFacts, state: MergeState): string[] {
+  if (op.kind !== "timer.stopped" && op.kind !== "timer.cancelled") return [];
+  const timer = state.timers.get(op.payload.timerId);
+  if (!timer || timer.workOrderId !== job.id || timer.timerSpecId === null) return [];
+  const heldSteps = [...(job.holds ?? new Map<string, readonly HoldFacts[]>())]
+    .filter(([, hs]) => hs.some((h) => h.timerSpecId === timer.timerSpecId))
+    .map(([stepId, hs]) => ({ stepId, label: hs.find((h) => h.timerSpecId === timer.timerSpecId)!.label }));
+  if (!heldSteps.length) return [];
+  const before = timersOfSpec(state, job.id, timer.timerSpecId);
+  const changed: TimerFacts =
+    op.kind === "timer.cancelled"
+      ? { ...timer, cancelled: true }
+      : { ...timer, stoppedAtMs: Math.min(timer.stoppedAtMs ?? Infinity, Date.parse(op.payload.stoppedAt)) };
+  const after = before.map((t) => (t.id === timer.id ? changed : t));
+  const out: string[] = [];
+  for (const { stepId, label } of heldSteps) {
+    const now = (state.stepWork?.get(job.id) ?? []).filter(
+      (w) => w.stepId === stepId && !holdAt(before, w.atMs).held && holdAt(after, w.atMs).held,
+    );
+    if (!now.length) continue;
+    const step = job.steps.get(stepId);
+    const first = Math.min(...now.map((w) => w.atMs));
+    out.push(
+      `“${label}” was ${op.kind === "timer.cancelled" ? "cancelled" : "stopped before its time was up"}, and this reached the server after ${now.length === 1 ? "work" : `${now.length} entries of work`} on step “${step?.title ?? stepId}” (from ${utc(first)}) had been accepted as done after the wait: that work was recorded while the step was on hold. Check the wait was kept.`,
     );
   }
   return out;

@@ -95,6 +95,50 @@ describe("holds hold on the server", () => {
       startedAt: new Date(startedAt).toISOString(),
     });
 
+  it("a cure stopped early, or cancelled, that arrives after work on the held step was accepted is flagged, naming that work", async () => {
+    for (const how of ["stopped", "cancelled"] as const) {
+      const { specs, mech, mech2, a, b } = await setup();
+      const now = Date.now();
+      const started = cure(a, specs, now - 50 * 60_000);
+      await mergeBatch(db, mech, a.batch([started]));
+      // tablet B, online: the server thinks the cure ran its 30 minutes, so the oil fill is accepted
+      const fill = b.complete(specs.oilPrimeStepId);
+      const r = await mergeBatch(db, mech2, b.batch([fill]));
+      expect(r.accepted).toEqual([fill.id]);
+      expect(r.flagged).toEqual([]);
+      // tablet A was offline: it had stopped (or cancelled) the cure 5 minutes in
+      const stop =
+        how === "stopped"
+          ? a.make("timer.stopped", {
+              timerId: started.payload.timerId,
+              stoppedAt: new Date(now - 45 * 60_000).toISOString(),
+              reason: "Cases came apart",
+            })
+          : a.make("timer.cancelled", { timerId: started.payload.timerId, reason: "Started before the sealant went on" });
+      const late = await mergeBatch(db, mech, a.batch([stop]));
+      expect(late.accepted).toEqual([stop.id]);
+      expect(late.flagged.map((f) => f.id)).toEqual([stop.id]);
+      expect(late.flagged[0].reason).toMatch(
+        new RegExp(
+          `^“Sealant cure before oil and cranking” was ${how === "stopped" ? "stopped before its time was up" : "cancelled"}, and this reached the server after work on step “.+” \\(from .+ UTC\\) had been accepted as done after the wait`,
+        ),
+      );
+      expect(await opRow(stop.id)).toMatchObject({ flagged: true });
+    }
+  });
+
+  it("a cure stopped after it ran its time flags nothing", async () => {
+    const { specs, mech, mech2, a, b } = await setup();
+    const now = Date.now();
+    const started = cure(a, specs, now - 50 * 60_000);
+    await mergeBatch(db, mech, a.batch([started]));
+    expect((await mergeBatch(db, mech2, b.batch([b.complete(specs.oilPrimeStepId)]))).flagged).toEqual([]);
+    const stop = a.make("timer.stopped", { timerId: started.payload.timerId, stoppedAt: new Date(now - 15 * 60_000).toISOString() });
+    const r = await mergeBatch(db, mech, a.batch([stop]));
+    expect(r.accepted).toEqual([stop.id]);
+    expect(r.flagged).toEqual([]);
+  });
+
   it("work on the held step stamped during the cure is kept and flagged; after the cure it is accepted", async () => {
     const now = Date.now();
     let clock = now - 40 * 60_000;
