@@ -2,7 +2,7 @@ import "server-only";
 import { sql, type Kysely, type RawBuilder, type Transaction } from "kysely";
 import { DatabaseError } from "pg";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { addDays } from "@/lib/aftercare/reminders";
+import { addDays, dayLabel } from "@/lib/aftercare/reminders";
 import { wallClockIn } from "@/lib/format/dates";
 import { bookingTimeProblem, clashMessage, type NewBookingInput, type ResourceKind } from "@/lib/calendar/rules";
 import { Refusal } from "@/lib/errors";
@@ -60,6 +60,12 @@ export async function bookWorkOrder(db: Kysely<Database>, user: SessionUser, inp
   const problem = bookingTimeProblem(input, shop, wallClockIn(shop.timeZone));
   if (problem) throw new Refusal(problem.message, 422, [problem]);
   const during = () => rangeOf(input.day, input.from, input.to, shop.timeZone);
+  // the hour the clocks go forward does not happen: a booking wholly inside it is no time at all
+  const empty = await sql<{ empty: boolean }>`SELECT isempty(${during()}) AS empty`.execute(db);
+  if (empty.rows[0].empty) {
+    const message = `${input.from}–${input.to} on ${dayLabel(input.day)} does not happen: the clocks go forward then (${shop.timeZone}). Book a later time.`;
+    throw new Refusal(message, 422, [{ path: "from", message }]);
+  }
   try {
     return await db.transaction().execute(async (trx) => {
       const resource = await trx

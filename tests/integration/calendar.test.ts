@@ -214,6 +214,32 @@ describe("a job that closes", () => {
   });
 });
 
+describe("the hour the clocks go forward", () => {
+  it("a booking wholly inside it is refused in words, not a server error; the hour after is booked", async () => {
+    const s = await shopWithDyno();
+    // a shop open round the clock on Sundays, in a zone that moves its clocks: 28 March 2027, 01:00 → 02:00
+    await db
+      .updateTable("shops")
+      .set({ time_zone: "Europe/London", opens_at: "00:00", closes_at: "23:59", open_days: [1, 2, 3, 4, 5, 6, 7] })
+      .where("id", "=", s.fx.shopId)
+      .execute();
+    const gap = await book(s.office, { resourceId: s.dyno, workOrderId: s.fx.workOrderId, day: "2027-03-28", from: "01:00", to: "02:00" });
+    expect(gap.status).toBe(422);
+    expect((await refusal(gap)).error).toBe(
+      "01:00–02:00 on 28 Mar 2027 does not happen: the clocks go forward then (Europe/London). Book a later time.",
+    );
+    expect(await liveBookings(s.dyno)).toEqual([]);
+    const after = await book(s.office, {
+      resourceId: s.dyno,
+      workOrderId: s.fx.workOrderId,
+      day: "2027-03-28",
+      from: "02:00",
+      to: "03:00",
+    });
+    expect(after.status).toBe(201);
+  });
+});
+
 describe("refusals save nothing", () => {
   it("until before from, a closed day, outside opening hours, a retired resource, a closed job", async () => {
     const s = await shopWithDyno();
