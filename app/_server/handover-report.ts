@@ -7,7 +7,7 @@ import { FONT, footers, heading, newPdf, paragraph, pdfText, table, toBuffer, ty
 import {
   bikeRows,
   boreLines,
-  day,
+  shopDay,
   dynoComparison,
   dynoRows,
   flaggedRows,
@@ -62,7 +62,8 @@ export interface RevisionHeading {
   changes: readonly string[];
 }
 
-function revisionBlock(doc: Pdf, r: RevisionHeading) {
+function revisionBlock(doc: Pdf, r: RevisionHeading, timeZone: string) {
+  const day = (at: Date) => shopDay(timeZone, at);
   doc.moveDown(0.4);
   if (r.number === 1) {
     paragraph(doc, `Revision 1: the report as handed over on ${day(r.handedOverAt)}.`, { bold: true });
@@ -175,9 +176,9 @@ function draw(doc: Pdf, d: HandoverReportData, revision: RevisionHeading | null)
   doc
     .fontSize(10)
     .fillColor("#5b6773")
-    .text(pdfText(`${j.shopName} · made ${day(new Date())}`))
+    .text(pdfText(`${j.shopName} · made ${shopDay(j.timeZone, new Date())}`))
     .fillColor("#111418");
-  if (revision) revisionBlock(doc, revision);
+  if (revision) revisionBlock(doc, revision, j.timeZone);
   overridesBlock(doc, d);
 
   heading(doc, "The bike");
@@ -274,7 +275,7 @@ function draw(doc: Pdf, d: HandoverReportData, revision: RevisionHeading | null)
   }
   heading(doc, "Dyno results");
   dynoResults(doc, d);
-  tuneSection(doc, d.tunes);
+  tuneSection(doc, d.tunes, d.job.timeZone);
   heading(doc, "Run-in advice");
   for (const line of RUN_IN_ADVICE) paragraph(doc, `• ${line}`);
   heading(doc, "Cautions");

@@ -125,8 +125,10 @@ export async function markReminderDone(
       .select(["u.name", "d.recorded_at as at"])
       .where("d.reminder_id", "=", reminderId)
       .executeTakeFirst();
-    if (done)
-      throw new Refusal(`${r.label} was already recorded as done by ${done.name} on ${dayLabel(done.at.toISOString().slice(0, 10))}.`, 409);
+    if (done) {
+      const { timeZone } = await shopDay(trx, user.shopId, done.at);
+      throw new Refusal(`${r.label} was already recorded as done by ${done.name} on ${dayLabel(dayIn(timeZone, done.at))}.`, 409);
+    }
     const row = await trx
       .insertInto("service_reminder_done")
       .values({

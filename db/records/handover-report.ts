@@ -52,6 +52,7 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
       "w.complaint",
       "w.intake_odometer_km as odometerKm",
       "s.name as shopName",
+      "s.time_zone as timeZone",
       "b.make",
       "b.model",
       "b.year",

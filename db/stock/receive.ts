@@ -1,4 +1,5 @@
 import "server-only";
+import { dayIn } from "@/lib/aftercare/reminders";
 import type { Kysely, Transaction } from "kysely";
 import { DatabaseError } from "pg";
 import type { SessionUser } from "@/lib/auth/session-user";
@@ -32,6 +33,7 @@ async function serialsOnFile(trx: Tx, shopId: string, lines: readonly DeliveryLi
       });
     else seen.set(key, w.i);
   }
+  const { timeZone } = await trx.selectFrom("shops").select("time_zone as timeZone").where("id", "=", shopId).executeTakeFirstOrThrow();
   const [lots, fitted] = await Promise.all([
     trx
       .selectFrom("stock_lots as l")
@@ -66,7 +68,7 @@ async function serialsOnFile(trx: Tx, shopId: string, lines: readonly DeliveryLi
     if (lot)
       issues.push({
         path: `lines.${w.i}.serial`,
-        message: `Serial number ${w.l.serial} of part ${w.l.partNumber} is already on file: received from ${lot.supplier} on ${lot.receivedAt.toISOString().slice(0, 10)}.`,
+        message: `Serial number ${w.l.serial} of part ${w.l.partNumber} is already on file: received from ${lot.supplier} on ${dayIn(timeZone, lot.receivedAt)}.`,
       });
     else if (fit)
       issues.push({

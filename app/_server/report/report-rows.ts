@@ -5,13 +5,15 @@ import { compareAtSameRpm, summariseRun } from "@/lib/dyno";
 import { torquePassCount } from "@/lib/procedures/spec-counts";
 import { openItemLine, openItemsSummary } from "@/lib/work-orders/open-items";
 import { STATUS_LABELS } from "@/lib/work-orders/status";
+import { dayIn } from "@/lib/aftercare/reminders";
 import type { HandoverReportData } from "@/db/records/handover-report";
 
 // What the build report prints, section by section, as rows of text: the PDF draws these rows, and
 // a stored copy keeps them as lines (`reportLines`) so the next revision can say what changed.
 // Every figure comes from the record's own definitions (db/records/handover-report.ts).
 
-export const day = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
+/** The day an instant fell on at the shop, as the shop's own clock read it (YYYY-MM-DD). */
+export const shopDay = (timeZone: string, at: Date | string) => dayIn(timeZone, new Date(at));
 const num = (v: string | number | null) => (v === null ? "" : String(Number(v)));
 const VERDICT = { in: "in spec", low: "LOW, out of spec", high: "HIGH, out of spec" } as const;
 const TO_WORDS = { ready: "Released for collection", handed_over: "Handed over" } as const;
@@ -38,7 +40,7 @@ export function bikeRows(d: HandoverReportData): string[][] {
 export function overrideBlocks(d: HandoverReportData) {
   return d.overrides.map((o) => ({
     title: `${TO_WORDS[o.to]} with open items: ${openItemsSummary(o.openItems)}`,
-    who: `By ${o.byName} on ${day(o.at)}. Reason given: “${o.reason}”`,
+    who: `By ${o.byName} on ${shopDay(d.job.timeZone, o.at)}. Reason given: “${o.reason}”`,
     items: o.openItems.map(openItemLine),
   }));
 }
@@ -58,7 +60,11 @@ export function workDoneRows(d: HandoverReportData, versionId: string): string[]
       .map((s, i) => [
         i === 0 ? title : "",
         s.title,
-        s.done && s.doneAt ? `${day(s.doneAt)}, ${s.doneBy}` : s.reopenedReason ? `sent back, not redone: ${s.reopenedReason}` : "not done",
+        s.done && s.doneAt
+          ? `${shopDay(d.job.timeZone, s.doneAt)}, ${s.doneBy}`
+          : s.reopenedReason
+            ? `sent back, not redone: ${s.reopenedReason}`
+            : "not done",
       ]),
   );
 }
@@ -145,11 +151,11 @@ export function signOffRows(d: HandoverReportData): string[][] {
       ? ds
           .map(
             (x) =>
-              `${x.decision === "approved" ? "Approved" : "Sent back"} by ${x.decidedBy}, ${day(x.decidedAt)}${x.reason ? `: ${x.reason}` : ""}`,
+              `${x.decision === "approved" ? "Approved" : "Sent back"} by ${x.decidedBy}, ${shopDay(d.job.timeZone, x.decidedAt)}${x.reason ? `: ${x.reason}` : ""}`,
           )
           .join("; ")
       : "waiting for review";
-    return [stageTitle(s.stageKey), `${s.signedBy}, ${day(s.signedAt)}`, review];
+    return [stageTitle(s.stageKey), `${s.signedBy}, ${shopDay(d.job.timeZone, s.signedAt)}`, review];
   });
 }
 
@@ -199,7 +205,12 @@ export function dynoComparison(runs: ReturnType<typeof runsOf>): string | null {
 
 /** Entries taken back at the bench: they stay on the record, listed with who, when and why, and count nowhere above. */
 export const withdrawnRows = (d: HandoverReportData): string[][] =>
-  d.withdrawn.map((w) => [w.what, `${w.recordedBy}, ${day(w.recordedAt)}`, `${w.withdrawnBy}, ${day(w.withdrawnAt)}`, w.reason]);
+  d.withdrawn.map((w) => [
+    w.what,
+    `${w.recordedBy}, ${shopDay(d.job.timeZone, w.recordedAt)}`,
+    `${w.withdrawnBy}, ${shopDay(d.job.timeZone, w.withdrawnAt)}`,
+    w.reason,
+  ]);
 
 /**
  * Everything the report prints about the job's record, one line per row or sentence, prefixed

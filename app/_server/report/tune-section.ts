@@ -1,14 +1,14 @@
 import "server-only";
 import { fileSizeWords, tuneHandedOver, type TuneVersion } from "@/lib/dyno/tune-version";
 import { heading, paragraph, pdfText, table, type Pdf } from "./pdf-layout";
-
-const day = (iso: string) => iso.slice(0, 10);
+import { shopDay } from "./report-rows";
 
 /**
  * The build report's tune section: the tune handed over (the newest version) with its whole SHA-256,
  * so the file on the bike can be checked against it, and the earlier versions.
  */
-export function tuneSection(doc: Pdf, tunes: readonly TuneVersion[]) {
+export function tuneSection(doc: Pdf, tunes: readonly TuneVersion[], timeZone: string) {
+  const day = (iso: string) => shopDay(timeZone, iso);
   heading(doc, "Tune");
   const handed = tuneHandedOver(tunes);
   if (!handed) return paragraph(doc, "No tune file was recorded on this work order.");
