@@ -290,20 +290,24 @@ export async function listComeBacks(db: Kysely<Database>, shopId: string) {
 export async function comeBacksByBatch(db: Kysely<Database>, shopId: string) {
   const rows = await sql<{ partNumber: string; description: string; batch: string; comeBacks: string[]; fittedJobs: number }>`
     WITH fitted AS (
-      SELECT p.work_order_id, p.part_number, p.description, p.batch
+      SELECT p.work_order_id, p.part_number, p.description, p.batch, o.status,
+        -- part and batch as compared everywhere else (lib/sync/parts.ts plainCode): "l24-118" is "L24 118"
+        upper(regexp_replace(normalize(p.part_number, NFKC), '[^[:alnum:]]', '', 'g')) AS part_key,
+        upper(regexp_replace(normalize(p.batch, NFKC), '[^[:alnum:]]', '', 'g')) AS batch_key
       FROM parts_fitted p
+      JOIN work_orders o ON o.id = p.work_order_id
       WHERE p.shop_id = ${shopId} AND p.batch IS NOT NULL
         AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = p.operation_id)
     )
-    SELECT f.part_number AS "partNumber", min(f.description) AS description, f.batch,
+    SELECT min(f.part_number) AS "partNumber", min(f.description) AS description, min(f.batch) AS batch,
       array_agg(DISTINCT w.number::text) FILTER (WHERE c.id IS NOT NULL) AS "comeBacks",
-      count(DISTINCT f.work_order_id)::int AS "fittedJobs"
+      count(DISTINCT f.work_order_id) FILTER (WHERE f.status = 'handed_over')::int AS "fittedJobs"
     FROM fitted f
     LEFT JOIN come_backs c ON c.original_work_order_id = f.work_order_id
     LEFT JOIN work_orders w ON w.id = c.work_order_id
-    GROUP BY f.part_number, f.batch
+    GROUP BY f.part_key, f.batch_key
     HAVING count(c.id) > 0
-    ORDER BY count(DISTINCT c.id) DESC, f.part_number, f.batch
+    ORDER BY count(DISTINCT c.id) DESC, min(f.part_number), min(f.batch)
   `.execute(db);
   return rows.rows.map((r) => ({ ...r, comeBacks: r.comeBacks.map(Number).sort((a, b) => a - b) }));
 }

@@ -255,6 +255,40 @@ describe("come-backs grouped so a bad batch or procedure shows up", () => {
     expect(byBatch).toEqual([{ partNumber: "CS-118", description: "Cover seal", batch, comeBacks: [made.number], fittedJobs: 1 }]);
     const byTemplate = await comeBacksByTemplate(db, a.job.fx.shopId);
     expect(byTemplate).toEqual([expect.objectContaining({ name: "Close-out check", comeBacks: [made.number], handedOverJobs: 1 })]);
+    // the batch typed another way on another handed-over job is the same batch; a cancelled job that
+    // got it is not counted among the jobs that went out with it
+    const fx = a.job.fx;
+    const fit = (workOrderId: string, typed: string) =>
+      db
+        .insertInto("parts_fitted")
+        .values({
+          shop_id: fx.shopId,
+          work_order_id: workOrderId,
+          part_number: "cs 118",
+          description: "Cover seal",
+          batch: typed,
+          quantity: 1,
+          fitted_by: fx.users.office.id,
+        })
+        .execute();
+    const later = await db
+      .insertInto("work_orders")
+      .values({
+        shop_id: fx.shopId,
+        bike_id: fx.bike.id,
+        number: 77,
+        title: "Seal change",
+        status: "handed_over",
+        intake_odometer_km: 5,
+        closed_at: new Date(),
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await fit(later.id, batch.toLowerCase().replace(/-/g, " "));
+    await fit(fx.workOrderId, batch.toLowerCase());
+    expect(await comeBacksByBatch(db, fx.shopId)).toEqual([
+      { partNumber: "CS-118", description: "Cover seal", batch, comeBacks: [made.number], fittedJobs: 2 },
+    ]);
     // another shop sees none of it
     const other = await handedOverJob(batch);
     expect(await comeBacksByBatch(db, other.job.fx.shopId)).toEqual([]);
