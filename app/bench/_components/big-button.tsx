@@ -1,6 +1,7 @@
 "use client";
 
-import type { ButtonHTMLAttributes, ReactNode } from "react";
+import { useEffect, useRef, useState, type ButtonHTMLAttributes, type MouseEvent, type ReactNode } from "react";
+import { createTapGuard, REPEAT_TAP_WINDOW_MS } from "@/lib/bench/tap-guard";
 
 type Tone = "primary" | "plain" | "danger" | "go";
 
@@ -11,17 +12,51 @@ const TONES: Record<Tone, string> = {
   plain: "bg-white text-ink border-steel-700",
 };
 
-/** A bench button: at least 64 px tall, bold, high contrast. */
+/**
+ * A bench button: at least 64 px tall, bold, high contrast. One that `records` something takes one
+ * tap per deliberate press (`lib/bench/tap-guard.ts`, as the torque button does): a second tap
+ * while the first one's save is still being written, or within a short window after it (a double
+ * tap, a glove's bounce), is ignored, and the button rests (disabled) meanwhile.
+ */
 export function BigButton({
   tone = "primary",
   className = "",
   children,
+  records = false,
+  onClick,
+  disabled,
   ...rest
-}: ButtonHTMLAttributes<HTMLButtonElement> & { tone?: Tone; children: ReactNode }) {
+}: ButtonHTMLAttributes<HTMLButtonElement> & {
+  tone?: Tone;
+  children: ReactNode;
+  /** The click records work: guard it against double taps (its handler may return the save's promise). */
+  records?: boolean;
+  onClick?: (e: MouseEvent<HTMLButtonElement>) => unknown;
+}) {
+  const guard = useRef(createTapGuard());
+  const [resting, setResting] = useState(false);
+  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  useEffect(() => () => void (timer.current && clearTimeout(timer.current)), []);
+
+  async function guarded(e: MouseEvent<HTMLButtonElement>) {
+    const at = performance.now();
+    if (!guard.current.take(at)) return;
+    setResting(true);
+    try {
+      await onClick?.(e);
+    } finally {
+      guard.current.finish();
+      timer.current = setTimeout(() => setResting(false), Math.max(0, REPEAT_TAP_WINDOW_MS - (performance.now() - at)));
+    }
+  }
+
   return (
     <button
       type="button"
       {...rest}
+      disabled={disabled || resting}
+      aria-busy={records ? resting : undefined}
+      onClick={records ? (e) => void guarded(e) : onClick}
       className={`min-h-target min-w-target rounded-xl border-4 px-5 text-xl font-bold disabled:cursor-not-allowed disabled:border-steel-300 disabled:bg-steel-100 disabled:text-steel-700 ${TONES[tone]} ${className}`}
     >
       {children}

@@ -71,13 +71,13 @@ function SpecReadings({ jobId, view, spec, held }: { jobId: string; view: StepVi
   const label = (i: number) => spec.readingLabels[i] ?? (count > 1 ? `Reading ${i + 1}` : "Reading");
 
   /** First tap: refuse the impossible, question the unlikely, save the rest. */
-  function check() {
+  function check(): Promise<void> | undefined {
     if (text === null || held) return;
     const verdict = readingPlausibility(text, spec);
     setSaved(null);
     if (verdict.kind === "refuse") setProblem(verdict.reason);
     else if (verdict.kind === "confirm") setAsking(verdict.reasons);
-    else void save(text);
+    else return save(text);
   }
 
   async function save(typed: string) {
@@ -185,11 +185,11 @@ function SpecReadings({ jobId, view, spec, held }: { jobId: string; view: StepVi
             <PlausibilityPrompt
               reasons={asking}
               value={`${text} ${spec.unit}`}
-              onConfirm={() => void save(text)}
+              onConfirm={() => save(text)}
               onBack={() => setAsking(null)}
             />
           ) : (
-            <BigButton tone="go" disabled={value === null || held} onClick={check}>
+            <BigButton tone="go" records disabled={value === null || held} onClick={check}>
               {held ? "On hold: saving is off" : "Save reading"}
             </BigButton>
           )}

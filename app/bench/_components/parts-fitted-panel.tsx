@@ -1,6 +1,7 @@
 "use client";
 
-import { useState } from "react";
+import { useRef, useState } from "react";
+import { createTapGuard } from "@/lib/bench/tap-guard";
 import { stepWithSerial, type PartView, type StepView, type WorkOrderView } from "@/lib/work-order-record";
 import { recordOperation } from "@/lib/client/bench-store";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS, partFittedPayload } from "@/lib/sync/operations";
@@ -41,6 +42,7 @@ export function PartsFittedPanel({
   const { db, syncNow } = useBench();
   const author = useAuthor();
   const [open, setOpen] = useState(false);
+  const saveGuard = useRef(createTapGuard());
   const [text, setText] = useState(EMPTY);
   const [quantity, setQuantity] = useState(1);
   const [errors, setErrors] = useState<Partial<Record<string, string>>>({});
@@ -112,7 +114,10 @@ export function PartsFittedPanel({
           noValidate
           onSubmit={(e) => {
             e.preventDefault();
-            void save();
+            // one part per deliberate press of Save (a double tap, or Enter twice, records once)
+            const at = performance.now();
+            if (!saveGuard.current.take(at)) return;
+            void save().finally(() => saveGuard.current.finish());
           }}
         >
           <div className="grid gap-3 md:grid-cols-2">

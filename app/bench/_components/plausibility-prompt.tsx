@@ -20,7 +20,7 @@ export function PlausibilityPrompt({
   reasons: readonly string[];
   /** The value with its unit, as it will be saved. */
   value: string;
-  onConfirm: () => void;
+  onConfirm: () => unknown;
   onBack: () => void;
 }) {
   const settled = useSettled();
@@ -49,7 +49,7 @@ export function PlausibilityPrompt({
         <BigButton tone="plain" onClick={onBack} className="min-h-20">
           No, type it again
         </BigButton>
-        <BigButton tone="danger" disabled={!settled} onClick={onConfirm} className="min-h-20">
+        <BigButton tone="danger" records disabled={!settled} onClick={onConfirm} className="min-h-20">
           Yes, it is right: save {value}
         </BigButton>
       </div>

@@ -147,7 +147,7 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
                   ))}
                 </ul>
               )}
-              <BigButton tone="go" disabled={!canComplete} onClick={complete} className="min-h-24 w-full text-2xl">
+              <BigButton tone="go" records disabled={!canComplete} onClick={complete} className="min-h-24 w-full text-2xl">
                 Step done
               </BigButton>
             </>

@@ -48,7 +48,7 @@ export function TimerOverride({ jobId, blocked }: { jobId: string; blocked: NonN
         />
       </label>
       {error && <p className="font-bold text-fail">{error}</p>}
-      <BigButton tone="danger" onClick={override}>
+      <BigButton tone="danger" records onClick={override}>
         Override the wait
       </BigButton>
     </div>

@@ -64,7 +64,7 @@ export function TimerPanel({ jobId, view }: { jobId: string; view: StepView }) {
             <h3 className="text-2xl font-bold">Timer: {spec.label}</h3>
             <p className="text-lg">Runs for {clock(spec.durationS * 1000)}.</p>
             {(!t || t.stoppedEarly) && (
-              <BigButton tone="go" className="mt-2" onClick={() => start(spec)}>
+              <BigButton tone="go" records className="mt-2" onClick={() => start(spec)}>
                 {t ? "Start it again" : "Start"}: the {clock(spec.durationS * 1000)} timer
               </BigButton>
             )}

@@ -4,7 +4,7 @@ import { expect, type Locator, type Page } from "@playwright/test";
 // (other test files may have read some spots): only spots still "not read" are read.
 
 /** Types a number on the keypad inside `scope` (a step with two specs has two keypads). */
-async function typeIn(scope: Locator, value: string) {
+export async function typeIn(scope: Locator, value: string) {
   for (const ch of value) {
     const name = ch === "." ? "Decimal point" : ch === "-" ? "Minus" : `Digit ${ch}`;
     await scope.getByRole("button", { name, exact: true }).click();
