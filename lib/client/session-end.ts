@@ -42,13 +42,24 @@ export async function nameThisTablet(deviceId: string, fetchFn: typeof fetch = f
 /** Outbox states the server has not taken: handed over rather than dropped with the store. */
 const UNTAKEN = ["waiting", "refused", "discarding"] as const;
 
-/** Hands over the unsent work, then clears the store. "cleared", or "kept" when the hand-over did not go through. */
+/** Rounds of hand-over in one go: work recorded while one is on its way goes in the next. */
+const MAX_HANDOVER_ROUNDS = 5;
+
+/**
+ * Hands over the unsent work, then clears the store. "cleared", or "kept" when the hand-over did
+ * not go through. The screens stay usable under the "handing over" banner, so work recorded while
+ * a hand-over is on its way is handed over in a further round before anything is deleted: the
+ * store is read again after each answer, and only what was not handed yet is sent.
+ */
 export async function letGoOfTablet(db: BenchDb, deviceId: string, fetchFn: typeof fetch = fetch): Promise<"cleared" | "kept"> {
   await clearUserCaches().catch(() => undefined);
-  // Sent and held entries are with the server already; everything else is only here.
-  const entries = await db.outbox.where("state").anyOf(UNTAKEN).sortBy("stamp");
-  const photos = await db.photos.where("uploaded").equals(0).toArray();
-  if (entries.length || photos.length) {
+  const handed = new Set<string>();
+  for (let round = 0; ; round++) {
+    // Sent and held entries are with the server already; everything else is only here.
+    const entries = (await db.outbox.where("state").anyOf(UNTAKEN).sortBy("stamp")).filter((e) => !handed.has(`entry:${e.id}`));
+    const photos = (await db.photos.where("uploaded").equals(0).toArray()).filter((p) => !handed.has(`photo:${p.id}`));
+    if (!entries.length && !photos.length) break;
+    if (round >= MAX_HANDOVER_ROUNDS) return "kept";
     const res = await fetchFn("/api/bench/outbox-handover", {
       method: "POST",
       headers: { "content-type": "application/json" },
@@ -68,6 +79,8 @@ export async function letGoOfTablet(db: BenchDb, deviceId: string, fetchFn: type
       }),
     }).catch(() => null);
     if (!res || res.status !== 201) return "kept";
+    for (const e of entries) handed.add(`entry:${e.id}`);
+    for (const p of photos) handed.add(`photo:${p.id}`);
   }
   await dropBenchStore(db);
   return "cleared";

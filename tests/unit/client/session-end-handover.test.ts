@@ -48,6 +48,26 @@ describe("the tablet lets go of its store", () => {
     expect(await Dexie.exists(db.name)).toBe(false);
   });
 
+  it("work recorded while the hand-over is on its way is handed over too, in a further round, before the store goes", async () => {
+    const db = freshDb();
+    const first = await bolt(db, 1, 1);
+    const posted: HandedOver[] = [];
+    let during: { id: string } | null = null;
+    const fetchFn = (async (input: RequestInfo | URL, init?: RequestInit) => {
+      if (String(input) === "/api/bench/outbox-handover") {
+        posted.push(JSON.parse(String(init?.body)));
+        // the mechanic taps another bolt while the first hand-over is on its way
+        if (!during) during = await bolt(db, 1, 2);
+      }
+      return new Response(JSON.stringify({}), { status: 201 });
+    }) as typeof fetch;
+
+    expect(await letGoOfTablet(db, "tab-1", fetchFn)).toBe("cleared");
+
+    expect(posted.map((p) => p.entries.map((e) => e.id))).toEqual([[first.id], [during!.id]]);
+    expect(await Dexie.exists(db.name)).toBe(false);
+  });
+
   it("keeps everything when the hand-over does not go through", async () => {
     const db = freshDb();
     const refused = await bolt(db, 1, 1);
