@@ -200,8 +200,19 @@ export async function keepSyncAnswer(db: BenchDb, answer: SyncAnswer, now = Date
       sent.map((e) => ({ ...e, state: "sent" as const, sentCursor: laterCursor(e.sentCursor, answer.cursor), reason: undefined })),
     );
     for (const e of sent) touched.add(e.workOrderId);
-    for (const r of answer.refused) await db.outbox.update(r.id, { state: "refused", reason: r.reason, refusedAt: now });
-    for (const h of answer.held ?? []) await db.outbox.update(h.id, { state: "held", reason: h.reason });
+    // An entry the mechanic chose to discard while this answer was on its way stays being discarded
+    // (the server's reason is kept with it): the answer must not undo the mechanic's choice.
+    const discarding = new Set(
+      (await db.outbox.bulkGet([...answer.refused.map((r) => r.id), ...(answer.held ?? []).map((h) => h.id)]))
+        .filter((e) => e?.state === "discarding")
+        .map((e) => e!.id),
+    );
+    for (const r of answer.refused)
+      await db.outbox.update(
+        r.id,
+        discarding.has(r.id) ? { reason: r.reason, refusedAt: now } : { state: "refused", reason: r.reason, refusedAt: now },
+      );
+    for (const h of answer.held ?? []) if (!discarding.has(h.id)) await db.outbox.update(h.id, { state: "held", reason: h.reason });
 
     const sentFor = new Set(sent.map((e) => e.workOrderId));
     const held = new Set(

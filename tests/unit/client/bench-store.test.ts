@@ -4,6 +4,7 @@ import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { type BenchDb } from "@/lib/client/bench-db";
 import {
+  discardEntry,
   keepSyncAnswer,
   markMissedCopies,
   missedCopyCursor,
@@ -135,5 +136,32 @@ describe("a photo and its operation", () => {
     await expect(recordPhoto(db, author, ids.job, { stepId: "not-a-step", blob, contentType: "image/png" })).rejects.toThrow();
     expect(await db.photos.count()).toBe(1);
     expect(await db.outbox.count()).toBe(1);
+  });
+});
+
+describe("a discard made while a sync answer is on its way", () => {
+  it("stands: the answer refusing or holding the entry again does not undo it, and its reason is kept", async () => {
+    const db = freshDb();
+    const a = await bolt(db, 1, 1);
+    const b = await bolt(db, 1, 2);
+    await db.outbox.update(a.id, { state: "held", reason: "Held on the server" });
+    await db.outbox.update(b.id, { state: "refused", reason: "Not on this job", refusedAt: 1 });
+    // the mechanic discards both while a run that sent them is still waiting for its answer
+    await discardEntry(db, a.id, "typed on the wrong bike");
+    await discardEntry(db, b.id, "typed on the wrong bike");
+    await keepSyncAnswer(db, {
+      deviceId: "tab-1",
+      stored: [],
+      refused: [{ id: b.id, reason: "Not on this job any more" }],
+      held: [{ id: a.id, reason: "Held on the server until the entry it acts on arrives" }],
+      touchedJobs: [],
+      cursor: "14",
+      remoteStamps: [],
+    });
+    const after = await db.outbox.bulkGet([a.id, b.id]);
+    expect(after.map((e) => [e!.state, e!.discardReason, e!.reason])).toEqual([
+      ["discarding", "typed on the wrong bike", "Held on the server"],
+      ["discarding", "typed on the wrong bike", "Not on this job any more"],
+    ]);
   });
 });
