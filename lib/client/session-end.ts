@@ -16,13 +16,20 @@ import type { BenchDb } from "./bench-db";
 import { dropBenchStore } from "./bench-store";
 import { clearUserCaches } from "./worker-caches";
 
-export type SessionCheck = "open" | "ended" | "signed-out" | "unknown";
+export type SessionCheck = "open" | "ended" | "signed-out" | "someone-else" | "unknown";
 
-/** Asks the server whether this tablet's session still stands. */
-export async function checkSession(fetchFn: typeof fetch = fetch): Promise<SessionCheck> {
+/**
+ * Asks the server whether this tablet's session still stands; with `userId` (the bench's user),
+ * "someone-else" when the browser is now signed in as another person (in another tab).
+ */
+export async function checkSession(fetchFn: typeof fetch = fetch, userId?: string): Promise<SessionCheck> {
   try {
     const res = await fetchFn("/api/me", { cache: "no-store" });
-    if (res.ok) return "open";
+    if (res.ok) {
+      if (!userId) return "open";
+      const me = (await res.json().catch(() => null)) as { id?: unknown } | null;
+      return me && me.id !== userId ? "someone-else" : "open";
+    }
     if (res.status === 401) return res.headers.get(SESSION_STATE_HEADER) === "ended" ? "ended" : "signed-out";
     return "unknown";
   } catch {

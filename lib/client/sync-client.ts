@@ -126,9 +126,32 @@ function describeError(e: unknown): string {
   return e instanceof TypeError ? "No network: work is kept on this tablet." : e instanceof Error ? e.message : String(e);
 }
 
-export async function syncOnce(db: BenchDb, deviceId: string, fetchFn: typeof fetch = fetch): Promise<SyncReport> {
+/** The browser is signed in as someone else than this bench's user (another tab signed in): nothing is sent. */
+export class SignedInAsSomeoneElse extends Error {
+  constructor() {
+    super("This browser is now signed in as someone else (in another tab): nothing was sent. Reload the page.");
+    this.name = "SignedInAsSomeoneElse";
+  }
+}
+
+/**
+ * One sync run. With `userId` (the bench's own user, whose store `db` is), the run first asks who
+ * the browser is signed in as: a bench left open in one tab after another person signed in in
+ * another would otherwise send this user's waiting work under the other's sign-in, where every
+ * entry is refused (and could then be discarded by them).
+ */
+export async function syncOnce(
+  db: BenchDb,
+  deviceId: string,
+  fetchFn: typeof fetch = fetch,
+  opts: { userId?: string } = {},
+): Promise<SyncReport> {
   await noteSync(db, { lastAttemptAt: Date.now() });
   try {
+    if (opts.userId) {
+      const me = await fetchFn("/api/me", { cache: "no-store" });
+      if (me.ok && ((await me.json()) as { id?: unknown }).id !== opts.userId) throw new SignedInAsSomeoneElse();
+    }
     const report = await run(db, deviceId, fetchFn);
     await noteSync(db, { lastSyncedAt: Date.now(), lastError: null });
     return report;

@@ -18,7 +18,8 @@ const SYNC_EVERY_MS = 20_000;
 export function useBenchSync(db: BenchDb, userId: string, deviceId: string | null): { syncing: boolean; syncNow: () => void } {
   useEffect(() => followBrowserOnlineState(), []);
   const runner = useMemo(
-    () => (deviceId ? singleFlight(() => withBrowserLock(`benchtag-sync-${userId}`, () => syncOnce(db, deviceId))) : null),
+    () =>
+      deviceId ? singleFlight(() => withBrowserLock(`benchtag-sync-${userId}`, () => syncOnce(db, deviceId, fetch, { userId }))) : null,
     [db, userId, deviceId],
   );
   const sync = useQuery({

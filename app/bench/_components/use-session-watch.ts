@@ -26,7 +26,11 @@ export function useSessionWatch(db: BenchDb, userId: string, deviceId: string | 
       if (busy || stopped) return;
       busy = true;
       try {
-        if ((await checkSession()) !== "ended") return;
+        const session = await checkSession(fetch, userId);
+        // another person signed in in another tab: this page belongs to the last one; the reload
+        // opens the bench of whoever is signed in now (this user's store stays as it is)
+        if (session === "someone-else") return window.location.reload();
+        if (session !== "ended") return;
         setState("handing-over");
         const done = await withBrowserLock(`benchtag-sync-${userId}`, () => letGoOfTablet(db, deviceId));
         if (done === "cleared") window.location.assign("/signin?ended=1");

@@ -4,6 +4,7 @@ import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { type BenchDb, readSyncMeta } from "@/lib/client/bench-db";
 import { missedCopyCursor, storeJobCopy, workOnTop } from "@/lib/client/bench-store";
+import { checkSession } from "@/lib/client/session-end";
 import { singleFlight } from "@/lib/client/single-flight";
 import { syncOnce } from "@/lib/client/sync-client";
 import type { Operation } from "@/lib/sync/operations";
@@ -229,5 +230,26 @@ describe("a change the office makes to a job the tablet holds", () => {
     );
     await syncOnce(db, "tab-1", fetchFn);
     expect(s.copiesFetched).toBe(0);
+  });
+});
+
+describe("a bench left open after another person signed in in another tab", () => {
+  it("sends nothing under the other sign-in: the run stops, the work stays waiting, the session check says so", async () => {
+    const db = freshDb();
+    await storeJobCopy(db, jobSnapshot({}, "10"));
+    const a = await bolt(db, 1, 1);
+    const requests: string[] = [];
+    const fetchFn = (async (input: RequestInfo | URL) => {
+      requests.push(String(input));
+      if (String(input) === "/api/me") return Response.json({ id: u(55), name: "Priya", role: "mechanic" });
+      throw new Error(`unexpected request ${String(input)}`);
+    }) as typeof fetch;
+
+    await expect(syncOnce(db, "tab-1", fetchFn, { userId: ids.mech })).rejects.toThrow(/signed in as someone else/);
+    expect(requests).toEqual(["/api/me"]);
+    expect((await db.outbox.get(a.id))!.state).toBe("waiting");
+    expect((await readSyncMeta(db)).lastError).toMatch(/signed in as someone else/);
+    expect(await checkSession(fetchFn, ids.mech)).toBe("someone-else");
+    expect(await checkSession(fetchFn, u(55))).toBe("open");
   });
 });
