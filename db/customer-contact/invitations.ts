@@ -1,4 +1,5 @@
 import "server-only";
+import { endSessions } from "../auth/sessions";
 import { createHash, randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
 import { sql, type Kysely } from "kysely";
@@ -132,6 +133,8 @@ export async function setPasswordFromLink(
       throw new Refusal(again.ok ? "" : again.message, 409);
     }
     await trx.updateTable("users").set({ password_hash: passwordHash }).where("id", "=", link.userId).execute();
+    // every session of the sign-in ends with the old password: whoever held one signs in anew
+    await endSessions(trx, link.shopId, { userId: link.userId }, "password-set", link.userId);
     return { userId: link.userId, shopId: link.shopId, email: link.email, linkId: link.id };
   });
 }

@@ -30,6 +30,7 @@ import * as m150 from "./2026_12_07_150_audit_log_statement_references";
 import * as m151 from "./2026_12_07_151_operations_job_index";
 import * as m160 from "./2026_12_08_160_quote_money_bigint";
 import * as m170 from "./2026_12_09_170_stock_returned";
+import * as m180 from "./2026_12_09_180_session_end_password_set";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -66,4 +67,5 @@ export const migrations: Record<string, Migration> = {
   "2026_12_07_151_operations_job_index": m151,
   "2026_12_08_160_quote_money_bigint": m160,
   "2026_12_09_170_stock_returned": m170,
+  "2026_12_09_180_session_end_password_set": m180,
 };

@@ -13,7 +13,7 @@ export const SESSION_IDLE_S: Record<Role, number> = { mechanic: 2 * 3600, superv
 /** A session's last-seen time is written at most this often (a renewal is one UPDATE, not one per request). */
 export const SESSION_RENEW_EVERY_S = 60;
 
-export const SESSION_END_REASONS = ["signed-out", "ended-by-office", "tablet-ended-by-office", "user-turned-off"] as const;
+export const SESSION_END_REASONS = ["signed-out", "ended-by-office", "tablet-ended-by-office", "user-turned-off", "password-set"] as const;
 export type SessionEndReason = (typeof SESSION_END_REASONS)[number];
 
 /** Header on a 401 whose session was ended on the server (not merely expired): the tablet then clears its store. */

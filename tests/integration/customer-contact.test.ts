@@ -11,6 +11,7 @@ import { POST as makeUser } from "@/app/api/office/users/route";
 import { POST as officeReplies } from "@/app/api/office/work-orders/[id]/messages/route";
 import { POST as shareProgress } from "@/app/api/office/work-orders/[id]/progress-updates/route";
 import { POST as setPassword } from "@/app/api/welcome/route";
+import { startSession, userOfSession } from "@/db/auth/sessions";
 import { setPasswordFromLink } from "@/db/customer-contact/invitations";
 import { mailTo, useFakes } from "./support/fakes";
 import { eventually, useQueueWorkers } from "./support/queue";
@@ -240,6 +241,20 @@ describe("invitation links", () => {
       db,
     });
     expect(ok.status).toBe(200);
+  });
+
+  it("setting the password ends every session the sign-in had: a cookie held before does not outlive the old password", async () => {
+    const c = await inviteNewSignIn("Otto");
+    const user = { id: c.userId, shopId: fx.shopId, role: "customer" as const };
+    const before = await startSession(db, user, { address: "203.0.113.9", userAgent: "someone else's browser" });
+    expect("user" in (await userOfSession(db, before))).toBe(true);
+    await setPasswordFromLink(db, { token: c.token, password: "brand-new-pass-1", signedInUserId: null });
+    expect(await userOfSession(db, before)).toEqual({ refused: expect.any(String) });
+    const row = await db.selectFrom("sessions").select(["ended_reason"]).where("id", "=", before).executeTakeFirstOrThrow();
+    expect(row.ended_reason).toBe("password-set");
+    // a sign-in with the new password starts a session that stands
+    const after = await startSession(db, user, { address: "198.51.100.2", userAgent: "the customer's browser" });
+    expect("user" in (await userOfSession(db, after))).toBe(true);
   });
 
   it("lets exactly one of two uses at the same moment through", async () => {
