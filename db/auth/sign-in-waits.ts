@@ -66,8 +66,19 @@ export async function listSignInBuckets(db: Kysely<Database>, shopId: string): P
   return [...states.values()].filter((s) => s.failures > 0).sort((a, b) => b.failures - a.failures);
 }
 
-/** The office clears a bucket: its count starts again from now. Only a bucket that touched the shop. */
-export async function clearSignInBucket(db: Kysely<Database>, shopId: string, key: string, by: string): Promise<boolean> {
+/**
+ * The office clears a bucket: its count starts again from now. Only a bucket that touched the
+ * shop ("not-ours" otherwise), and only when every failure it counts now was against one of the
+ * shop's own sign-ins ("others-too" otherwise): a count of one address is shared by every shop,
+ * so one shop's office must not reset the wait that guards another shop's accounts (or addresses
+ * nobody has) against guessing.
+ */
+export async function clearSignInBucket(
+  db: Kysely<Database>,
+  shopId: string,
+  key: string,
+  by: string,
+): Promise<"cleared" | "not-ours" | "others-too"> {
   const touched = await db
     .selectFrom("sign_in_attempts")
     .select("id")
@@ -75,7 +86,15 @@ export async function clearSignInBucket(db: Kysely<Database>, shopId: string, ke
     .where("key", "=", key)
     .limit(1)
     .executeTakeFirst();
-  if (!touched) return false;
+  if (!touched) return "not-ours";
+  const { rows } = await sql<{ n: number }>`
+    SELECT count(*)::int AS n FROM sign_in_attempts a
+    WHERE a.key = ${key} AND NOT a.succeeded AND a.shop_id IS DISTINCT FROM ${shopId}::uuid
+      AND a.at > greatest(
+        now() - make_interval(mins => ${SIGN_IN_WAITS.windowMinutes}),
+        coalesce((SELECT max(s.at) FROM sign_in_attempts s WHERE s.key = ${key} AND s.succeeded), '-infinity'),
+        coalesce((SELECT max(c.cleared_at) FROM sign_in_waits_cleared c WHERE c.key = ${key}), '-infinity'))`.execute(db);
+  if (rows[0].n > 0) return "others-too";
   await db.insertInto("sign_in_waits_cleared").values({ key, shop_id: shopId, cleared_by: by }).execute();
-  return true;
+  return "cleared";
 }

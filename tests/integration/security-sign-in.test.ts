@@ -103,10 +103,27 @@ describe("sign-in waits", () => {
     // another shop sees none of it, and cannot clear it
     const other = await createShopFixture(db);
     expect((await signInWaitRows(db, other.shopId)).some((r) => r.email === email)).toBe(false);
-    expect(await clearSignInBucket(db, other.shopId, pair!.key, other.users.office.id)).toBe(false);
-    expect(await clearSignInBucket(db, fx.shopId, pair!.key, fx.users.office.id)).toBe(true);
+    expect(await clearSignInBucket(db, other.shopId, pair!.key, other.users.office.id)).toBe("not-ours");
+    expect(await clearSignInBucket(db, fx.shopId, pair!.key, fx.users.office.id)).toBe("cleared");
     expect(await attempt(email, FIXTURE_PASSWORD, address)).toBe("in");
     const cleared = await db.selectFrom("sign_in_waits_cleared").selectAll().where("key", "=", pair!.key).execute();
+    expect(cleared).toHaveLength(1);
+  });
+
+  it("one address's wait is not one shop's to clear once it counts wrong passwords against another shop's sign-ins", async () => {
+    const fx = await createShopFixture(db);
+    const other = await createShopFixture(db);
+    const address = someAddress();
+    const key = bucketKey("address", { address });
+    // one wrong password on this shop's sign-in: the office may clear that address's count
+    await attempt(fx.users.customer.email, "guess-0", address);
+    expect(await clearSignInBucket(db, fx.shopId, key, fx.users.office.id)).toBe("cleared");
+    // then guesses against the other shop's sign-ins, and addresses nobody has, from the same address
+    await attempt(fx.users.customer.email, "guess-1", address);
+    await attempt(other.users.supervisor.email, "guess-2", address);
+    await attempt(`nobody-${randomUUID().slice(0, 6)}@example.test`, "guess-3", address);
+    expect(await clearSignInBucket(db, fx.shopId, key, fx.users.office.id)).toBe("others-too");
+    const cleared = await db.selectFrom("sign_in_waits_cleared").select("id").where("key", "=", key).execute();
     expect(cleared).toHaveLength(1);
   });
 

@@ -12,8 +12,13 @@ import { clearWaitSchema } from "@/lib/auth/session-schemas";
 export const GET = route({ access: { area: "users" } }, async ({ user, db }) => ({ waits: await signInWaitRows(db, user.shopId) }));
 
 export const POST = route({ access: { area: "users" }, body: json(clearWaitSchema) }, async ({ user, body, db }) => {
-  if (!parseBucketKey(body.key) || !(await clearSignInBucket(db, user.shopId, body.key, user.id)))
-    throw new Refusal("No sign-in wait of this shop by that name.", 404);
+  const outcome = parseBucketKey(body.key) ? await clearSignInBucket(db, user.shopId, body.key, user.id) : "not-ours";
+  if (outcome === "not-ours") throw new Refusal("No sign-in wait of this shop by that name.", 404);
+  if (outcome === "others-too")
+    throw new Refusal(
+      "This wait also counts wrong passwords for sign-ins that are not your shop's (or for addresses nobody has), so it is not yours to clear: it ends on its own.",
+      409,
+    );
   await appendAudit(db, [
     {
       shopId: user.shopId,
