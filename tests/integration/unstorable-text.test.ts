@@ -2,7 +2,7 @@ import { sql } from "kysely";
 import { beforeAll, describe, expect, it } from "vitest";
 import { GET as listCustomers, POST as createCustomer } from "@/app/api/office/customers/route";
 import { POST as bookIn } from "@/app/api/office/work-orders/route";
-import { recordOutboxHandover } from "@/db/auth/outbox-handovers";
+import { MAX_HANDOVERS_PER_SESSION, recordOutboxHandover } from "@/db/auth/outbox-handovers";
 import { startSession } from "@/db/auth/sessions";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { createShopFixture, type ShopFixture } from "./support/shop-fixture";
@@ -108,5 +108,32 @@ describe("texts the database cannot store", () => {
       { id: "c", op: { payload: { note: "clean" } } },
     ]);
     expect(row.photos_left).toEqual([{ id: "p", stepId: "s", byteSize: 1, caption: "cap\\u0000" }]);
+  });
+});
+
+describe("an ended session's hand-overs", () => {
+  it("are kept a few times over, not without end, and only from the tablet the session was on", async () => {
+    const fx = await createShopFixture(db);
+    const sessionId = await startSession(db, fx.users.mechanic, { address: "127.0.0.1", userAgent: "handover-cap" });
+    const handOver = (deviceId: string, sessionDeviceId: string | null = "tablet-cap") =>
+      recordOutboxHandover(db, {
+        shopId: fx.shopId,
+        userId: fx.users.mechanic.id,
+        sessionId,
+        sessionDeviceId,
+        deviceId,
+        entries: [{ id: "a" }],
+        photosLeft: [],
+      });
+    await expect(handOver("some-other-tablet")).rejects.toMatchObject({ status: 403 });
+    for (let i = 0; i < MAX_HANDOVERS_PER_SESSION; i++) await handOver("tablet-cap");
+    await expect(handOver("tablet-cap")).rejects.toMatchObject({
+      status: 409,
+      message: expect.stringMatching(/^This tablet has handed its work over 10 times already/),
+    });
+    // at once, past the cap: none more
+    await Promise.allSettled(Array.from({ length: 4 }, () => handOver("tablet-cap")));
+    const kept = await db.selectFrom("outbox_handovers").select("id").where("session_id", "=", sessionId).execute();
+    expect(kept).toHaveLength(MAX_HANDOVERS_PER_SESSION);
   });
 });

@@ -24,6 +24,7 @@ export const POST = publicRoute(
       shopId: session.shopId,
       userId: session.userId,
       sessionId: session.id,
+      sessionDeviceId: session.deviceId,
       deviceId: body.deviceId,
       entries: body.entries,
       photosLeft: body.photosLeft,
