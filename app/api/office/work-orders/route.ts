@@ -1,4 +1,5 @@
 import { checkPhotos, filesOf, PHOTO_FORM, storePhotos } from "@/app/_server/photos";
+import { photoStoreTrouble } from "@/app/_server/photo-trouble";
 import { created, multipart, route } from "@/app/_server/route";
 import { bookIn, pageWorkOrders } from "@/db/shop/work-orders";
 import { intakeSchema, pageQuerySchema } from "@/lib/office/schemas";
@@ -27,7 +28,7 @@ export const POST = route({ access: { area: "office" }, body: multipart(PHOTO_FO
       photos,
     );
   } catch (e) {
-    warning = `The work order is saved, but the photos could not be stored (${(e as Error).message}). Add them again from the work order.`;
+    warning = `The work order is saved, but the photos could not be stored (${photoStoreTrouble(e)}). Add them again from the work order.`;
   }
   return created({ id: wo.id, number: wo.number, warning });
 });

@@ -1,4 +1,5 @@
 import { checkPhotos, filesOf, PHOTO_FORM, storePhotos } from "@/app/_server/photos";
+import { photoStoreTrouble } from "@/app/_server/photo-trouble";
 import { created, idParam, multipart, route } from "@/app/_server/route";
 import { addNote } from "@/db/shop/work-orders";
 import { noteSchema } from "@/lib/office/schemas";
@@ -26,7 +27,7 @@ export const POST = route(
         photos,
       );
     } catch (e) {
-      warning = `The note is saved, but the photos could not be stored (${(e as Error).message}).`;
+      warning = `The note is saved, but the photos could not be stored (${photoStoreTrouble(e)}). Add them again.`;
     }
     return created({ id: note.id, warning });
   },
