@@ -31,7 +31,13 @@ export interface LoadedWorkOrder extends WorkOrderFacts {
 const anyId = (ids: Iterable<string>) => sql<string>`ANY(${[...ids]}::uuid[])`;
 
 /** The named work orders (any shop: a job of another shop comes back without its procedures, to be refused). */
-export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonly string[]): Promise<Map<string, LoadedWorkOrder>> {
+export async function loadWorkOrderFacts(
+  db: Db,
+  shopId: string,
+  jobIds: readonly string[],
+  /** Also each stage's standing approval (`approvedStages`): only withdrawals read it, so a batch without one skips the query. */
+  opts: { approvals?: boolean } = { approvals: true },
+): Promise<Map<string, LoadedWorkOrder>> {
   const out = new Map<string, LoadedWorkOrder>();
   if (!jobIds.length) return out;
   const jobs = await db
@@ -120,17 +126,19 @@ export async function loadWorkOrderFacts(db: Db, shopId: string, jobIds: readonl
       .select(["jp.work_order_id", "t.id", "t.label", "held.id as held_step_id"])
       .execute(),
     // each stage's latest decision on a sign-off still standing (not withdrawn)
-    db
-      .selectFrom("review_decisions as d")
-      .innerJoin("sign_offs as so", "so.id", "d.sign_off_id")
-      .select(["so.work_order_id", "so.job_procedure_id", "so.stage_key", "d.decision"])
-      .distinctOn(["so.job_procedure_id", "so.stage_key"])
-      .where("so.work_order_id", "=", anyId(own))
-      .where((eb) => eb.not(eb.exists(eb.selectFrom("withdrawals as w").select("w.id").whereRef("w.operation_id", "=", "so.id"))))
-      .orderBy("so.job_procedure_id")
-      .orderBy("so.stage_key")
-      .orderBy("d.change_seq", "desc")
-      .execute(),
+    opts.approvals === false
+      ? Promise.resolve([])
+      : db
+          .selectFrom("review_decisions as d")
+          .innerJoin("sign_offs as so", "so.id", "d.sign_off_id")
+          .select(["so.work_order_id", "so.job_procedure_id", "so.stage_key", "d.decision"])
+          .distinctOn(["so.job_procedure_id", "so.stage_key"])
+          .where("so.work_order_id", "=", anyId(own))
+          .where((eb) => eb.not(eb.exists(eb.selectFrom("withdrawals as w").select("w.id").whereRef("w.operation_id", "=", "so.id"))))
+          .orderBy("so.job_procedure_id")
+          .orderBy("so.stage_key")
+          .orderBy("d.change_seq", "desc")
+          .execute(),
   ]);
   for (const d of stageDecisions) {
     if (d.decision === "approved")

@@ -155,7 +155,8 @@ export async function mergeBatch(
       ...filed.map((h) => h.op.workOrderId),
       ...malformed.flatMap((m) => (m.workOrderId ? [m.workOrderId] : [])),
     ]);
-    const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...jobIds]);
+    const withdraws = [...ordered, ...filed.map((h) => h.op)].some((o) => o.kind === "entry.withdrawn");
+    const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...jobIds], { approvals: withdraws });
     const state = await loadMergeState(trx, [...ordered, ...filed.map((h) => h.op)]);
 
     const kept: KeptOperation[] = [];
