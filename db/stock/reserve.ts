@@ -100,39 +100,13 @@ export async function releaseReservation(db: Kysely<Database>, user: SessionUser
     const outstanding = (await outstandingReservations(trx, [res.lot_id!])).get(res.lot_id!)?.get(res.work_order_id!) ?? 0;
     const quantity = Math.min(res.quantity, outstanding);
     if (quantity <= 0) throw new Refusal("Nothing of this reservation is left to let go: the job's fits used it.", 409);
-    const movement = await trx
-      .insertInto("stock_movements")
-      .values({
-        shop_id: user.shopId,
-        item_id: res.item_id,
-        lot_id: res.lot_id,
-        kind: "released",
-        quantity,
-        work_order_id: res.work_order_id,
-        releases_id: res.id,
-        reason,
-        recorded_by: user.id,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    await trx
-      .updateTable("stock_lots")
-      .set((eb) => ({ reserved: eb("reserved", "-", quantity) }))
-      .where("id", "=", res.lot_id!)
-      .execute();
-    await appendAudit(trx, [
-      {
-        shopId: user.shopId,
-        actorId: user.id,
-        action: "stock.released",
-        entity: "stock_movement",
-        entityId: movement.id,
-        workOrderId: res.work_order_id,
-        outcome: "accepted",
-        reason,
-        detail: { reservationId: res.id, quantity },
-      },
-    ]);
+    const movement = await writeRelease(
+      trx,
+      { shopId: user.shopId, userId: user.id },
+      { id: res.id, itemId: res.item_id, lotId: res.lot_id!, workOrderId: res.work_order_id! },
+      quantity,
+      reason,
+    );
     return { id: movement.id, quantity };
   });
 }
@@ -169,40 +143,56 @@ export async function releaseReservationsOfClosedJob(
     const quantity = Math.min(res.quantity, left);
     if (quantity <= 0) continue;
     held.get(res.lot_id!)!.set(job.id, left - quantity);
-    const movement = await trx
-      .insertInto("stock_movements")
-      .values({
-        shop_id: who.shopId,
-        item_id: res.item_id,
-        lot_id: res.lot_id,
-        kind: "released",
-        quantity,
-        work_order_id: job.id,
-        releases_id: res.id,
-        reason,
-        recorded_by: who.userId,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    await trx
-      .updateTable("stock_lots")
-      .set((eb) => ({ reserved: eb("reserved", "-", quantity) }))
-      .where("id", "=", res.lot_id!)
-      .execute();
-    await appendAudit(trx, [
-      {
-        shopId: who.shopId,
-        actorId: who.userId,
-        action: "stock.released",
-        entity: "stock_movement",
-        entityId: movement.id,
-        workOrderId: job.id,
-        outcome: "accepted",
-        reason,
-        detail: { reservationId: res.id, quantity },
-      },
-    ]);
+    await writeRelease(trx, who, { id: res.id, itemId: res.item_id, lotId: res.lot_id!, workOrderId: job.id }, quantity, reason);
     released += quantity;
   }
   return released;
+}
+
+/**
+ * Lets go `quantity` of a reservation: its "released" movement pointing at it (a reservation is let
+ * go once: releases_id is unique), the lot's balance, and the audit entry. The caller holds the
+ * lot's row lock and has worked out what is left of the reservation.
+ */
+async function writeRelease(
+  trx: Transaction<Database>,
+  who: { shopId: string; userId: string },
+  res: { id: string; itemId: string; lotId: string; workOrderId: string },
+  quantity: number,
+  reason: string,
+): Promise<{ id: string }> {
+  const movement = await trx
+    .insertInto("stock_movements")
+    .values({
+      shop_id: who.shopId,
+      item_id: res.itemId,
+      lot_id: res.lotId,
+      kind: "released",
+      quantity,
+      work_order_id: res.workOrderId,
+      releases_id: res.id,
+      reason,
+      recorded_by: who.userId,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  await trx
+    .updateTable("stock_lots")
+    .set((eb) => ({ reserved: eb("reserved", "-", quantity) }))
+    .where("id", "=", res.lotId)
+    .execute();
+  await appendAudit(trx, [
+    {
+      shopId: who.shopId,
+      actorId: who.userId,
+      action: "stock.released",
+      entity: "stock_movement",
+      entityId: movement.id,
+      workOrderId: res.workOrderId,
+      outcome: "accepted",
+      reason,
+      detail: { reservationId: res.id, quantity },
+    },
+  ]);
+  return movement;
 }
