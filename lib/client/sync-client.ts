@@ -26,6 +26,7 @@ import { discardResponseSchema } from "@/lib/sync/discards";
 import type { Operation } from "@/lib/sync/operations";
 import { benchJobListSchema, jobSnapshotSchema, type BenchJobSummary, type JobSnapshot } from "@/lib/sync/snapshot";
 import { isOpenForBenchWork } from "@/lib/work-orders/status";
+import { checkSession } from "./session-end";
 import {
   applySnapshotDelta,
   sectionDigests,
@@ -148,10 +149,7 @@ export async function syncOnce(
 ): Promise<SyncReport> {
   await noteSync(db, { lastAttemptAt: Date.now() });
   try {
-    if (opts.userId) {
-      const me = await fetchFn("/api/me", { cache: "no-store" });
-      if (me.ok && ((await me.json()) as { id?: unknown }).id !== opts.userId) throw new SignedInAsSomeoneElse();
-    }
+    if (opts.userId && (await checkSession(fetchFn, opts.userId)) === "someone-else") throw new SignedInAsSomeoneElse();
     const report = await run(db, deviceId, fetchFn);
     await noteSync(db, { lastSyncedAt: Date.now(), lastError: null });
     return report;
