@@ -10,7 +10,7 @@ import type {
   TimerSpecFacts,
   TorqueSpecFacts,
 } from "@/lib/sync/merge-rules";
-import { approvedStageKey, boltKey, emptyMergeState } from "@/lib/sync/merge-rules";
+import { approvedStageKey, boltKey, emptyMergeState, HELD_WORK_KINDS } from "@/lib/sync/merge-rules";
 import { partSerialOnWorkOrder } from "@/lib/sync/parts";
 import type { Operation } from "@/lib/sync/operations";
 import type { ReadingSpec } from "@/lib/sync/readings";
@@ -310,7 +310,7 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
           .selectFrom("operations as o")
           .select(["o.id", "o.work_order_id", "o.stamp", sql<string>`o.payload->>'stepId'`.as("step_id")])
           .where("o.work_order_id", "=", anyId(stopJobIds))
-          .where("o.kind", "in", ["step.completed", "torque.bolt-confirmed", "measurement.recorded", "part.fitted"])
+          .where("o.kind", "in", HELD_WORK_KINDS)
           .where(notWithdrawn("o.id"))
           .execute()
       : none,
@@ -319,10 +319,9 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
     const byJob = new Map<string, Array<{ opId: string; stepId: string; atMs: number }>>();
     for (const w of stepWork) {
       if (!w.step_id) continue;
-      byJob.set(w.work_order_id, [
-        ...(byJob.get(w.work_order_id) ?? []),
-        { opId: w.id, stepId: w.step_id, atMs: Number(w.stamp.slice(0, 15)) },
-      ]);
+      const ofJob = byJob.get(w.work_order_id) ?? [];
+      if (!ofJob.length) byJob.set(w.work_order_id, ofJob);
+      ofJob.push({ opId: w.id, stepId: w.step_id, atMs: Number(w.stamp.slice(0, 15)) });
     }
     state.stepWork = byJob;
   }

@@ -294,17 +294,14 @@ function timersOfSpec(state: MergeState, jobId: string, timerSpecId: string): Ti
   return [...state.timers.values()].filter((t) => t.workOrderId === jobId && t.timerSpecId === timerSpecId);
 }
 
+/** Kinds of work on a step that a hold stops (./holds.ts). */
+export const HELD_WORK_KINDS = ["step.completed", "torque.bolt-confirmed", "measurement.recorded", "part.fitted"] as const;
+type HeldWork = Extract<Operation, { kind: (typeof HELD_WORK_KINDS)[number] }>;
+const isHeldWork = (op: Operation): op is HeldWork => (HELD_WORK_KINDS as readonly string[]).includes(op.kind);
+
 /** The step an operation records work on, when it is work a hold stops (./holds.ts). */
 function heldWorkStep(op: Operation): string | null {
-  switch (op.kind) {
-    case "step.completed":
-    case "torque.bolt-confirmed":
-    case "measurement.recorded":
-    case "part.fitted":
-      return op.payload.stepId;
-    default:
-      return null;
-  }
+  return isHeldWork(op) ? op.payload.stepId : null;
 }
 
 /** Holds hold: work on a held step stamped before the hold ended (or was overridden) is kept and flagged. */
