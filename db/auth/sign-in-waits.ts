@@ -1,5 +1,5 @@
 import "server-only";
-import { sql, type Kysely, type Transaction } from "kysely";
+import { sql, type Kysely, type RawBuilder, type Transaction } from "kysely";
 import { parseBucketKey, SIGN_IN_WAITS } from "@/lib/auth/sign-in-throttle";
 import type { Database } from "../schema";
 
@@ -14,6 +14,12 @@ export interface BucketState {
   secondsSinceLastFailure: number | null;
 }
 
+/** Since when a bucket's failures count: the window, its last success, the office's last clearing, whichever is latest. */
+const countedSince = (key: RawBuilder<unknown>) => sql`greatest(
+  now() - make_interval(mins => ${SIGN_IN_WAITS.windowMinutes}),
+  coalesce((SELECT max(s.at) FROM sign_in_attempts s WHERE s.key = ${key} AND s.succeeded), '-infinity'),
+  coalesce((SELECT max(c.cleared_at) FROM sign_in_waits_cleared c WHERE c.key = ${key}), '-infinity'))`;
+
 export async function bucketStates(db: Db, keys: readonly string[]): Promise<Map<string, BucketState>> {
   const { rows } = await sql<{ key: string; failures: string; since: string | null }>`
     SELECT k.key,
@@ -23,10 +29,7 @@ export async function bucketStates(db: Db, keys: readonly string[]): Promise<Map
     LEFT JOIN LATERAL (
       SELECT a.id, a.at FROM sign_in_attempts a
       WHERE a.key = k.key AND NOT a.succeeded
-        AND a.at > greatest(
-          now() - make_interval(mins => ${SIGN_IN_WAITS.windowMinutes}),
-          coalesce((SELECT max(s.at) FROM sign_in_attempts s WHERE s.key = k.key AND s.succeeded), '-infinity'),
-          coalesce((SELECT max(c.cleared_at) FROM sign_in_waits_cleared c WHERE c.key = k.key), '-infinity'))
+        AND a.at > ${countedSince(sql.ref("k.key"))}
     ) a ON true
     GROUP BY k.key`.execute(db);
   return new Map(
@@ -90,10 +93,7 @@ export async function clearSignInBucket(
   const { rows } = await sql<{ n: number }>`
     SELECT count(*)::int AS n FROM sign_in_attempts a
     WHERE a.key = ${key} AND NOT a.succeeded AND a.shop_id IS DISTINCT FROM ${shopId}::uuid
-      AND a.at > greatest(
-        now() - make_interval(mins => ${SIGN_IN_WAITS.windowMinutes}),
-        coalesce((SELECT max(s.at) FROM sign_in_attempts s WHERE s.key = ${key} AND s.succeeded), '-infinity'),
-        coalesce((SELECT max(c.cleared_at) FROM sign_in_waits_cleared c WHERE c.key = ${key}), '-infinity'))`.execute(db);
+      AND a.at > ${countedSince(sql.val(key))}`.execute(db);
   if (rows[0].n > 0) return "others-too";
   await db.insertInto("sign_in_waits_cleared").values({ key, shop_id: shopId, cleared_by: by }).execute();
   return "cleared";
