@@ -15,10 +15,10 @@ import type { Db } from "@/db/setup/client";
 
 type Queued = { ok: true; queued: boolean } | { ok: false; error: string };
 /**
- * handOn false: only stored in the outbox (in the caller's transaction), its id added to
- * `stored`; the caller hands it to the queue after committing.
+ * With `storedInto`: only stored in the outbox (in the caller's transaction), its id added to that
+ * list; the caller hands it to the queue after committing.
  */
-type QueueOptions = { handOn?: boolean; stored?: string[] };
+type QueueOptions = { storedInto?: string[] };
 type Context = NonNullable<Awaited<ReturnType<typeof emailContext>>>;
 
 async function queueForCustomer(
@@ -31,8 +31,8 @@ async function queueForCustomer(
   const c = await emailContext(db, shopId, workOrderId);
   if (!c?.email) return { ok: false, error: "no e-mail address" };
   const mail = [{ shopId, workOrderId, to: c.email, ...write(c) }];
-  const ids = opts.handOn === false ? await queueMails(db, mail) : await enqueueMails(db, mail);
-  opts.stored?.push(...ids);
+  const ids = opts.storedInto ? await queueMails(db, mail) : await enqueueMails(db, mail);
+  opts.storedInto?.push(...ids);
   return { ok: true, queued: ids.length > 0 };
 }
 

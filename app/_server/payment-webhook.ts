@@ -50,7 +50,7 @@ export async function handlePaymentWebhook(
     async (trx, paid) => {
       if (opts.sendMail === false) return;
       const mail = paid.paymentFor === "deposit" ? mailDepositReceived : mailBalanceReceived;
-      await mail(trx, paid.shopId, paid.workOrderId, paid.paymentId, paid.amountMinor, { handOn: false, stored: receipts });
+      await mail(trx, paid.shopId, paid.workOrderId, paid.paymentId, paid.amountMinor, { storedInto: receipts });
     },
   );
   await handToQueue(receipts).catch((e) => console.error("[mail] queue not reached; the sweep will hand the receipt on", e));

@@ -2,6 +2,7 @@ import "server-only";
 import type { Kysely, Transaction } from "kysely";
 import type { DepositStatus } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
+import { isUuid } from "@/lib/ids";
 import { isClosed, STATUS_LABELS } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
@@ -106,8 +107,6 @@ export interface PaymentNamed {
   balancePaymentId?: string | null;
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
 /**
  * The deposit or balance payment a payment intent was started for, locked: the row the intent is
  * tied to, or else the row its metadata names that is tied to no intent yet, which is tied to it
@@ -125,7 +124,7 @@ async function payableOf(trx: Transaction<Database>, paymentIntentId: string, na
     .forUpdate()
     .executeTakeFirst();
   if (bal) return { paymentFor: "balance", ...bal, amount_minor: Number(bal.amount_minor) };
-  if (named.depositId && UUID.test(named.depositId)) {
+  if (named.depositId && isUuid(named.depositId)) {
     const d = await trx
       .updateTable("deposits")
       .set({ payment_intent_id: paymentIntentId })
@@ -135,7 +134,7 @@ async function payableOf(trx: Transaction<Database>, paymentIntentId: string, na
       .executeTakeFirst();
     if (d) return { paymentFor: "deposit", ...d };
   }
-  if (named.balancePaymentId && UUID.test(named.balancePaymentId)) {
+  if (named.balancePaymentId && isUuid(named.balancePaymentId)) {
     const b = await trx
       .updateTable("balance_payments")
       .set({ payment_intent_id: paymentIntentId })

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import type { Kysely, Transaction } from "kysely";
 import { quoteTotals } from "@/lib/money/quote-totals";
 import { quoteDraftSchema, type QuoteDraftInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
@@ -116,10 +116,10 @@ export async function sendQuote(db: Kysely<Database>, shopId: string, userId: st
 // Locks are taken job first, then its quotes, everywhere (saving and sending a draft, the
 // customer's answer): two of them at once wait for each other instead of deadlocking, and each sees
 // what the other did.
-async function lockQuoteWithOwner(trx: Kysely<Database>, quoteId: string) {
-  const of = await trx.selectFrom("quotes").select("work_order_id").where("id", "=", quoteId).executeTakeFirst();
+async function lockQuoteWithOwner(trx: Transaction<Database>, quoteId: string) {
+  const of = await trx.selectFrom("quotes").select(["shop_id", "work_order_id"]).where("id", "=", quoteId).executeTakeFirst();
   if (!of) return undefined;
-  await trx.selectFrom("work_orders").select("id").where("id", "=", of.work_order_id).forUpdate().execute();
+  await lockWorkOrder(trx, of.shop_id, of.work_order_id);
   return trx
     .selectFrom("quotes as q")
     .innerJoin("work_orders as w", "w.id", "q.work_order_id")
