@@ -1,7 +1,7 @@
 "use client";
 
-import { useEffect, useRef, useState, type ButtonHTMLAttributes, type MouseEvent, type ReactNode } from "react";
-import { createTapGuard, REPEAT_TAP_WINDOW_MS } from "@/lib/bench/tap-guard";
+import type { ButtonHTMLAttributes, MouseEvent, ReactNode } from "react";
+import { useTapGuard } from "./use-tap-guard";
 
 type Tone = "primary" | "plain" | "danger" | "go";
 
@@ -33,30 +33,15 @@ export function BigButton({
   records?: boolean;
   onClick?: (e: MouseEvent<HTMLButtonElement>) => unknown;
 }) {
-  const guard = useRef(createTapGuard());
-  const [resting, setResting] = useState(false);
-  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
-  useEffect(() => () => void (timer.current && clearTimeout(timer.current)), []);
-
-  async function guarded(e: MouseEvent<HTMLButtonElement>) {
-    const at = performance.now();
-    if (!guard.current.take(at)) return;
-    setResting(true);
-    try {
-      await onClick?.(e);
-    } finally {
-      guard.current.finish();
-      timer.current = setTimeout(() => setResting(false), Math.max(0, REPEAT_TAP_WINDOW_MS - (performance.now() - at)));
-    }
-  }
+  const { resting, tap } = useTapGuard();
 
   return (
     <button
       type="button"
       {...rest}
-      disabled={disabled || resting}
+      disabled={disabled || (records && resting)}
       aria-busy={records ? resting : undefined}
-      onClick={records ? (e) => void guarded(e) : onClick}
+      onClick={records ? (e) => void tap(() => onClick?.(e)) : onClick}
       className={`min-h-target min-w-target rounded-xl border-4 px-5 text-xl font-bold disabled:cursor-not-allowed disabled:border-steel-300 disabled:bg-steel-100 disabled:text-steel-700 ${TONES[tone]} ${className}`}
     >
       {children}

@@ -1,13 +1,13 @@
 "use client";
 
-import { useRef, useState } from "react";
-import { createTapGuard } from "@/lib/bench/tap-guard";
+import { useState } from "react";
 import { stepWithSerial, type PartView, type StepView, type WorkOrderView } from "@/lib/work-order-record";
 import { recordOperation } from "@/lib/client/bench-store";
 import { MAX_PART_QUANTITY, PART_TEXT_LIMITS, partFittedPayload } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
+import { useTapGuard } from "./use-tap-guard";
 import { WithdrawEntry } from "./withdraw-entry";
 
 type TextField = "partNumber" | "description" | "serial" | "batch" | "supplier";
@@ -42,7 +42,7 @@ export function PartsFittedPanel({
   const { db, syncNow } = useBench();
   const author = useAuthor();
   const [open, setOpen] = useState(false);
-  const saveGuard = useRef(createTapGuard());
+  const saveTap = useTapGuard();
   const [text, setText] = useState(EMPTY);
   const [quantity, setQuantity] = useState(1);
   const [errors, setErrors] = useState<Partial<Record<string, string>>>({});
@@ -115,9 +115,7 @@ export function PartsFittedPanel({
           onSubmit={(e) => {
             e.preventDefault();
             // one part per deliberate press of Save (a double tap, or Enter twice, records once)
-            const at = performance.now();
-            if (!saveGuard.current.take(at)) return;
-            void save().finally(() => saveGuard.current.finish());
+            void saveTap.tap(save);
           }}
         >
           <div className="grid gap-3 md:grid-cols-2">

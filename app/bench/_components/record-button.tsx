@@ -1,7 +1,7 @@
 "use client";
 
-import { useEffect, useRef, useState, type ReactNode } from "react";
-import { createTapGuard, REPEAT_TAP_WINDOW_MS } from "@/lib/bench/tap-guard";
+import { useRef, type ReactNode } from "react";
+import { useTapGuard } from "./use-tap-guard";
 
 /**
  * A button that records exactly what it showed when the finger went down. The target is fixed on
@@ -26,25 +26,15 @@ export function RecordButton<T>({
   testId?: string;
   children: ReactNode;
 }) {
-  const guard = useRef(createTapGuard());
+  const { resting, tap, ignoresTapAt } = useTapGuard();
   const fixed = useRef<T | null>(null);
-  const [resting, setResting] = useState(false);
-  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
-  useEffect(() => () => void (timer.current && clearTimeout(timer.current)), []);
 
   async function release() {
     // A keyboard press has no pointer-down: it records what is shown now.
     const chosen = fixed.current ?? target;
     fixed.current = null;
-    const at = performance.now();
-    if (chosen === null || disabled || !guard.current.take(at)) return;
-    setResting(true);
-    try {
-      await onRecord(chosen);
-    } finally {
-      guard.current.finish();
-      timer.current = setTimeout(() => setResting(false), Math.max(0, REPEAT_TAP_WINDOW_MS - (performance.now() - at)));
-    }
+    if (chosen === null || disabled) return;
+    await tap(() => onRecord(chosen));
   }
 
   return (
@@ -54,7 +44,7 @@ export function RecordButton<T>({
       disabled={disabled || target === null || resting}
       aria-busy={resting}
       onPointerDown={(e) => {
-        if (e.isPrimary && !guard.current.resting(performance.now())) fixed.current = target;
+        if (e.isPrimary && !ignoresTapAt(performance.now())) fixed.current = target;
       }}
       onPointerCancel={() => (fixed.current = null)}
       onClick={() => void release()}
