@@ -254,6 +254,25 @@ export async function markPhotoUploaded(db: BenchDb, id: string): Promise<void> 
   await db.photos.update(id, { uploaded: 1 });
 }
 
+/** How long a photo's bytes stay on the tablet after they reached object storage, while its job is still at the bench. */
+export const SENT_PHOTO_KEEP_MS = 7 * 24 * 3600 * 1000;
+
+/**
+ * Frees the tablet of photo bytes object storage already holds: those of jobs no longer open for
+ * bench work on this tablet (handed over, closed, given to someone else), and those taken more than
+ * `SENT_PHOTO_KEEP_MS` ago. The step then shows the stored copy from the server. A photo not yet
+ * sent is never touched. Returns how many were cleared.
+ */
+export async function trimSentPhotos(db: BenchDb, openJobIds: ReadonlySet<string>, now = Date.now()): Promise<number> {
+  return db.transaction("rw", db.photos, () =>
+    db.photos
+      .where("uploaded")
+      .equals(1)
+      .filter((p) => !openJobIds.has(p.workOrderId) || now - p.createdAt > SENT_PHOTO_KEEP_MS)
+      .delete(),
+  );
+}
+
 // ——— reads that go with the rules above ———
 
 /** Operations to send: those waiting, and those the server holds (to learn when it has applied them), in stamp order. */

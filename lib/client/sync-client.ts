@@ -17,7 +17,9 @@
  *     only if it is not older than the one held, and only then do the sent operations it covers
  *     leave the outbox. A copy that cannot be fetched now leaves the sent work on screen and the
  *     job marked as older than the last sync, for the next run;
- *  4. the job list, then the bytes of photos whose entry the server holds.
+ *  4. the job list, then the bytes of photos whose entry the server holds; bytes already sent are
+ *     cleared from the tablet once their job has left its bench, or after a week
+ *     (`trimSentPhotos`).
  * A run cut off anywhere is safe to repeat: the server ignores operations it already has.
  */
 import { splitIntoBatches } from "@/lib/sync/batching";
@@ -48,6 +50,7 @@ import {
   replaceJobList,
   settleDiscards,
   storeJobCopy,
+  trimSentPhotos,
   waitingOperations,
 } from "./bench-store";
 
@@ -293,6 +296,7 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promis
   const tally: PushTally = { cursor: (await readSyncMeta(db)).cursor, stored: 0, refused: 0, held: 0, changes: 0, touchedJobs: new Set() };
   for (const batch of batches) await push(db, deviceId, fetchFn, batch, tally);
   let jobsRefreshed = 0;
+  let listed: ReadonlyArray<BenchJobSummary> | undefined;
 
   try {
     const list = await getJson(fetchFn, "/api/bench/jobs", (v) => benchJobListSchema.parse(v));
@@ -316,10 +320,12 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promis
     }
     if (failed) throw failed;
     await replaceJobList(db, list.jobs);
+    listed = list.jobs;
   } finally {
     await markMissedCopies(db);
   }
   const photosSent = await uploadPhotos(db, fetchFn);
+  if (listed) await trimSentPhotos(db, new Set(listed.filter((j) => j.mayWork).map((j) => j.id)));
   return {
     sent: waiting.length,
     stored: tally.stored,

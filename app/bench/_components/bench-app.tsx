@@ -1,7 +1,7 @@
 "use client";
 
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { benchDb } from "@/lib/client/bench-db";
 import { deviceId as readDeviceId } from "@/lib/client/device-id";
 import { useBayLight } from "./bay-light";
@@ -9,6 +9,7 @@ import { BenchContext, type BenchUser } from "./bench-context";
 import { useHashRoute } from "./hash-route";
 import { HomeScreen } from "./home-screen";
 import { JobScreen } from "./job-screen";
+import { NotSavedNotice } from "./not-saved-notice";
 import { NotStoredScreen } from "./not-stored-screen";
 import { ScanScreen } from "./scan-screen";
 import { StepScreen } from "./step-screen";
@@ -35,6 +36,10 @@ function BenchRoot({ user }: { user: BenchUser }) {
   const tabletSession = useSessionWatch(db, user.id, device);
   const author = useMemo(() => ({ userId: user.id, deviceId: device }), [user.id, device]);
 
+  // Ask the browser to keep the bench's store under storage pressure (an evicted store would take
+  // work not yet sent with it). The browser decides; the bench works either way.
+  useEffect(() => void navigator.storage?.persist?.().catch(() => undefined), []);
+
   const route = useHashRoute();
   const [bayLight, toggleBayLight] = useBayLight();
   const value = useMemo(() => ({ user, db, author, syncNow }), [user, db, author, syncNow]);
@@ -54,6 +59,7 @@ function BenchRoot({ user }: { user: BenchUser }) {
               : "The work not yet sent could not be handed over yet (no network?): it stays here and is tried again."}
           </p>
         )}
+        <NotSavedNotice />
         <TimerAlerts />
         <div className="flex-1">
           {route.screen === "home" && <HomeScreen />}

@@ -3,6 +3,7 @@
 import { useState } from "react";
 import { formatMinutes, spanMinutes } from "@/lib/clock/hours";
 import { recordOperation } from "@/lib/client/bench-store";
+import { announceNotSaved } from "@/lib/client/not-saved";
 import { formatTime } from "@/lib/format/dates";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 import type { Operation } from "@/lib/sync/operations";
@@ -53,6 +54,8 @@ export function ClockPanel({ snapshot, pending }: { snapshot: JobSnapshot; pendi
         );
       }
       syncNow();
+    } catch (e) {
+      announceNotSaved(e);
     } finally {
       setBusy(false);
     }

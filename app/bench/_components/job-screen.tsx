@@ -2,6 +2,7 @@
 
 import { useState } from "react";
 import { recordOperation } from "@/lib/client/bench-store";
+import { announceNotSaved } from "@/lib/client/not-saved";
 import { formatDayTime } from "@/lib/format/dates";
 import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
@@ -39,6 +40,8 @@ export function JobScreen({ jobId }: { jobId: string }) {
     try {
       await recordOperation(db, author, jobId, "stage.signed-off", { jobProcedureId, stageKey });
       syncNow();
+    } catch (e) {
+      announceNotSaved(e);
     } finally {
       setBusy(null);
     }

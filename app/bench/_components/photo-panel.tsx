@@ -3,6 +3,7 @@
 import { useEffect, useState } from "react";
 import type { StepView } from "@/lib/work-order-record";
 import { recordPhoto } from "@/lib/client/bench-store";
+import { notSavedText } from "@/lib/client/not-saved-words";
 import { PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
 import { useAuthor, useBench } from "./bench-context";
@@ -37,6 +38,7 @@ export function PhotoPanel({
       <WithdrawEntry jobId={jobId} operationId={p.operationId} recordedBy={p.takenBy} what="this photo" />
     );
   };
+  // Photos whose bytes are not on this tablet: taken on another one, or sent and since cleared here.
   const others = snapshotPhotos.filter((p) => p.stepId === view.step.id && !localIds.has(p.id));
   const [urls, setUrls] = useState<Array<{ id: string; url: string; uploaded: boolean }>>([]);
   useEffect(() => {
@@ -52,11 +54,16 @@ export function PhotoPanel({
       setError(`That file is ${file.type || "of an unknown type"}; take a JPEG, PNG or WebP photo.`);
       return;
     }
-    await recordPhoto(db, author, jobId, {
-      stepId: view.step.id,
-      blob: file,
-      contentType: file.type as (typeof PHOTO_CONTENT_TYPES)[number],
-    });
+    try {
+      await recordPhoto(db, author, jobId, {
+        stepId: view.step.id,
+        blob: file,
+        contentType: file.type as (typeof PHOTO_CONTENT_TYPES)[number],
+      });
+    } catch (e) {
+      setError(notSavedText(e));
+      return;
+    }
     syncNow();
   }
 
@@ -94,7 +101,7 @@ export function PhotoPanel({
         ))}
       </ul>
       {others.length > 0 && (
-        <ul className="mt-3 flex flex-wrap gap-3" aria-label="Photos from other tablets">
+        <ul className="mt-3 flex flex-wrap gap-3" aria-label="Photos kept on the server">
           {others.map((p) => (
             <li key={p.id} className="flex flex-col items-center gap-1 text-center">
               {p.awaitingUpload ? (
@@ -105,7 +112,7 @@ export function PhotoPanel({
                 // eslint-disable-next-line @next/next/no-img-element
                 <img
                   src={`/api/bench/photos/${p.id}`}
-                  alt="Step photo from another tablet"
+                  alt="Step photo (kept on the server)"
                   className="h-28 w-28 rounded-lg border-2 border-steel-700 object-cover"
                 />
               )}

@@ -2,6 +2,7 @@
 
 import { useEffect, useState } from "react";
 import { REPEAT_TAP_WINDOW_MS } from "@/lib/bench/tap-guard";
+import { storeFailureMessage } from "@/lib/client/not-saved";
 import { issuesOf } from "@/lib/zod-issues";
 import { BigButton } from "./big-button";
 
@@ -17,6 +18,8 @@ export function useSettled(ms = REPEAT_TAP_WINDOW_MS): boolean {
 
 /** A refusal's message in workshop words, whether zod's or another error's. */
 export function messageOf(e: unknown): string {
+  const store = storeFailureMessage(e);
+  if (store) return store;
   if (e && typeof e === "object" && "issues" in e) {
     const issues = issuesOf(e as Parameters<typeof issuesOf>[0]);
     if (issues.length) return issues.map((i) => i.message).join(" ");

@@ -11,6 +11,7 @@ import {
   olderCopies,
   recordPhoto,
   storeJobCopy,
+  trimSentPhotos,
   waitingOperations,
   workOnTop,
 } from "@/lib/client/bench-store";
@@ -163,5 +164,38 @@ describe("a discard made while a sync answer is on its way", () => {
       ["discarding", "typed on the wrong bike", "Held on the server"],
       ["discarding", "typed on the wrong bike", "Not on this job any more"],
     ]);
+  });
+});
+
+describe("photo bytes already sent", () => {
+  it("are cleared once their job left this bench or after a week; a photo not yet sent never is", async () => {
+    const db = freshDb();
+    const now = Date.UTC(2026, 11, 4, 9);
+    const day = 24 * 3600 * 1000;
+    const otherJob = randomUUID();
+    const blob = new Blob([new Uint8Array([1, 2, 3])], { type: "image/jpeg" });
+    const photo = (id: string, workOrderId: string, uploaded: 0 | 1, ageDays: number) => ({
+      id,
+      workOrderId,
+      stepId: ids.stepBore,
+      blob,
+      contentType: "image/jpeg",
+      byteSize: 3,
+      caption: "",
+      uploaded,
+      createdAt: now - ageDays * day,
+    });
+    await db.photos.bulkAdd([
+      photo("sent-fresh", ids.job, 1, 1),
+      photo("sent-old", ids.job, 1, 8),
+      photo("unsent-old", ids.job, 0, 30),
+      photo("sent-left", otherJob, 1, 0),
+      photo("unsent-left", otherJob, 0, 0),
+    ]);
+    expect(await trimSentPhotos(db, new Set([ids.job]), now)).toBe(2);
+    expect((await db.photos.toCollection().primaryKeys()).sort()).toEqual(["sent-fresh", "unsent-left", "unsent-old"]);
+    // Six more days: the one kept is now over a week old.
+    expect(await trimSentPhotos(db, new Set([ids.job]), now + 7 * day)).toBe(1);
+    expect((await db.photos.toCollection().primaryKeys()).sort()).toEqual(["unsent-left", "unsent-old"]);
   });
 });
