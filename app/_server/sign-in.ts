@@ -6,7 +6,7 @@ import { bucketStates, holdAddressForSignIn, recordSignInAttempt } from "@/db/au
 import type { Db } from "@/db/setup/client";
 import { findUserForSignIn } from "@/db/shop/users";
 import { isRole, type Role } from "@/lib/auth/roles";
-import { bucketKey, SIGN_IN_WAITS, waitLeft, waitMessage } from "@/lib/auth/sign-in-throttle";
+import { bucketKey, SIGN_IN_WAITS, waitLeft, waitMessage, type WaitRule } from "@/lib/auth/sign-in-throttle";
 
 // One sign-in attempt with e-mail and password, with the waits of lib/auth/sign-in-throttle.ts.
 // Every attempt — success, wrong password, unknown e-mail, turned-off account, refused for a
@@ -28,6 +28,14 @@ export interface SignedIn {
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+/** Seconds before a password for this e-mail may be tried from this address again: the longer of the pair's and the address's waits. */
+export async function waitBeforeTrying(db: Db, keys: { pair: string; address: string }): Promise<number> {
+  const states = await bucketStates(db, [keys.pair, keys.address]);
+  const left = (key: string, rule: WaitRule) =>
+    waitLeft(states.get(key)?.failures ?? 0, states.get(key)?.secondsSinceLastFailure ?? null, rule);
+  return Math.max(left(keys.pair, SIGN_IN_WAITS.pair), left(keys.address, SIGN_IN_WAITS.address));
+}
 
 export async function signInWithPassword(
   db: Db,
@@ -63,18 +71,7 @@ export async function signInWithPassword(
 
   const result = await db.transaction().execute(async (trx) => {
     await holdAddressForSignIn(trx, address);
-    const states = await bucketStates(trx, [keys.pair, keys.address]);
-    const pairWait = waitLeft(
-      states.get(keys.pair)?.failures ?? 0,
-      states.get(keys.pair)?.secondsSinceLastFailure ?? null,
-      SIGN_IN_WAITS.pair,
-    );
-    const addressWait = waitLeft(
-      states.get(keys.address)?.failures ?? 0,
-      states.get(keys.address)?.secondsSinceLastFailure ?? null,
-      SIGN_IN_WAITS.address,
-    );
-    const wait = Math.max(pairWait, addressWait);
+    const wait = await waitBeforeTrying(trx, keys);
     const user = await findUserForSignIn(trx, email);
     const shopId = user?.shop_id ?? null;
     if (wait > 0) return { ok: false as const, shopId, userId: user?.id ?? null, reason: `waiting ${wait} s`, message: waitMessage(wait) };

@@ -90,6 +90,13 @@ export function AppFrame({
           <span className="whitespace-nowrap text-base" data-testid="whoami" title={ROLE_LABEL[user.role]}>
             {user.name} · {ROLE_LABEL[user.role]}
           </span>
+          <a
+            href="/account/password"
+            aria-current={current === "/account/password" ? "page" : undefined}
+            className="flex min-h-12 items-center whitespace-nowrap rounded-lg px-2 text-base underline"
+          >
+            Password
+          </a>
           <SignOutButton />
         </span>
       </header>

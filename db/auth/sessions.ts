@@ -96,7 +96,7 @@ export async function endSession(db: Db, sessionId: string, reason: SessionEndRe
 export async function endSessions(
   db: Db,
   shopId: string,
-  which: { userId: string } | { deviceId: string },
+  which: { userId: string; exceptSessionId?: string | null } | { deviceId: string },
   reason: SessionEndReason,
   by: string | null,
 ): Promise<number> {
@@ -106,6 +106,7 @@ export async function endSessions(
     .where("shop_id", "=", shopId)
     .where("ended_at", "is", null);
   q = "userId" in which ? q.where("user_id", "=", which.userId) : q.where("device_id", "=", which.deviceId);
+  if ("exceptSessionId" in which && which.exceptSessionId) q = q.where("id", "!=", which.exceptSessionId);
   const r = await q.executeTakeFirst();
   return Number(r.numUpdatedRows);
 }

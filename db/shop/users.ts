@@ -89,3 +89,17 @@ export async function loadSessionUser(db: Kysely<Database>, id: string): Promise
     .executeTakeFirst();
   return row ? { id: row.id, shopId: row.shop_id, role: row.role, name: row.name, email: row.email, customerId: row.customer_id } : null;
 }
+
+/** The user's e-mail and password hash, the row held until the transaction ends (a password change reads, then writes). */
+export async function lockPasswordOf(trx: Kysely<Database>, userId: string) {
+  return trx
+    .selectFrom("users")
+    .select(["id", "shop_id", "email", "password_hash", "active"])
+    .where("id", "=", userId)
+    .forUpdate()
+    .executeTakeFirst();
+}
+
+export async function setPasswordHash(trx: Kysely<Database>, userId: string, passwordHash: string): Promise<void> {
+  await trx.updateTable("users").set({ password_hash: passwordHash }).where("id", "=", userId).execute();
+}
