@@ -32,14 +32,16 @@ export async function shopCursor(db: Db, shopId: string): Promise<number> {
 }
 
 /**
- * Changes in the shop after `cursor` (null: from the start), leaving out operations from
- * `excludeDeviceId` (the asking device has them). At most `limit` entries; `more` says whether
- * others wait, and `cursor` is where to go on from.
+ * Changes in the shop after `cursor` (null: from the start), leaving out the operations the asking
+ * tablet already has: those its own user recorded on that device (`asking`). Another person's work
+ * on the same tablet is not left out: each person has their own store on a tablet, so theirs does
+ * not hold it. At most `limit` entries; `more` says whether others wait, and `cursor` is where to
+ * go on from.
  */
 export async function changesSince(
   db: Db,
   shopId: string,
-  excludeDeviceId: string | null,
+  asking: { deviceId: string; authorId: string } | null,
   cursor: number | null,
   limit: number = SYNC_LIMITS.maxChanges,
 ): Promise<ChangePage> {
@@ -49,7 +51,7 @@ export async function changesSince(
       SELECT o.seq, o.id, o.work_order_id, o.stamp
       FROM operations o JOIN work_orders w ON w.id = o.work_order_id
       WHERE o.shop_id = ${shopId}::uuid AND o.seq > ${after}
-        AND o.device_id IS DISTINCT FROM ${excludeDeviceId}::text
+        AND NOT ((o.device_id = ${asking?.deviceId ?? null}::text AND o.author_id = ${asking?.authorId ?? null}::uuid) IS TRUE)
         AND w.status <> ALL(${[...CLOSED_STATUSES]}::text[])
       ORDER BY o.seq
       LIMIT ${limit + 1}

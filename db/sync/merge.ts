@@ -297,7 +297,7 @@ export async function mergeBatch(
     for (const w of waiting) if (byId.has(w.op.id)) pending.set(w.op.id, w.reason);
     for (const r of refused) if (r.answered) pending.delete(r.id);
 
-    const page = await changesSince(trx, actor.shopId, batch.deviceId, cursor);
+    const page = await changesSince(trx, actor.shopId, { deviceId: batch.deviceId, authorId: actor.id }, cursor);
     return {
       accepted: stored.map((k) => k.op.id),
       duplicates,

@@ -49,6 +49,23 @@ describe("changes and cursor", () => {
     expect(r3.cursor).toBe(r2.cursor);
   });
 
+  it("brings a person the work another person recorded on the same tablet (each has their own store there)", async () => {
+    const { fx, specs, mech, sup } = await setup();
+    const shared = "bay-shared";
+    const mine = new Tablet(shared, mech.id, fx.workOrderId);
+    const theirs = new Tablet(shared, sup.id, fx.workOrderId);
+    const start = await mergeBatch(db, mech, mine.batch([]));
+    mine.cursor = start.cursor;
+    const own = mine.complete(specs.rodStepId);
+    await mergeBatch(db, mech, mine.batch([own], start.cursor));
+    // the mechanic signs out; the supervisor signs in on the same tablet and records a reading
+    const other = theirs.read(specs.boreStepId, specs.boreSpecId, 0, 76.004);
+    await mergeBatch(db, sup, theirs.batch([other]));
+    // the mechanic signs in again: the supervisor's reading comes, the mechanic's own work does not
+    const back = syncResponseSchema.parse(await mergeBatch(db, mech, mine.batch([], start.cursor)));
+    expect(back.changes.map((c) => c.type === "operation" && c.id)).toEqual([other.id]);
+  });
+
   it("sends review decisions with their reopened steps, and a stamp later tablet work sorts after", async () => {
     const { fx, specs, mech, sup, t1, t2 } = await setup();
     const signOff = t1.make("stage.signed-off", specs.measureStage);
@@ -113,7 +130,7 @@ describe("changes and cursor", () => {
     let cursor: number | null = null;
     let pages = 0;
     for (;;) {
-      const page = await changesSince(db, fx.shopId, "bay-2", cursor, 10);
+      const page = await changesSince(db, fx.shopId, { deviceId: "bay-2", authorId: fx.users.supervisor.id }, cursor, 10);
       pages += 1;
       for (const c of page.changes) if (c.type === "operation") seen.push(c.id);
       cursor = Number(page.cursor);
@@ -128,10 +145,10 @@ describe("changes and cursor", () => {
     const b = await setup();
     await mergeBatch(db, b.mech, b.t1.batch([b.t1.complete(b.specs.boreStepId)]));
     await mergeBatch(db, a.mech, a.t1.batch([a.t1.complete(a.specs.boreStepId)]));
-    const before = await changesSince(db, a.fx.shopId, "bay-9", null);
+    const before = await changesSince(db, a.fx.shopId, { deviceId: "bay-9", authorId: a.fx.users.supervisor.id }, null);
     expect(before.changes.map((c) => c.type === "operation" && c.workOrderId)).toEqual([a.fx.workOrderId]);
     await db.updateTable("work_orders").set({ status: "handed_over" }).where("id", "=", a.fx.workOrderId).execute();
-    const after = await changesSince(db, a.fx.shopId, "bay-9", null);
+    const after = await changesSince(db, a.fx.shopId, { deviceId: "bay-9", authorId: a.fx.users.supervisor.id }, null);
     expect(after.changes).toEqual([]);
   });
 

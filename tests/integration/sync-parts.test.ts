@@ -247,12 +247,12 @@ describe("bench-recorded parts read back", () => {
       }),
     ]);
 
-    const feed = await changesSince(db, fx.shopId, "another-tablet", null);
+    const feed = await changesSince(db, fx.shopId, { deviceId: "another-tablet", authorId: mech.id }, null);
     // another tablet is told both entries changed the job (their flags come with the job's fresh copy, above)
     const named = feed.changes.flatMap((c) => (c.type === "operation" ? [c.id] : []));
     expect(named.filter((id) => id === first.id || id === repeat.id)).toEqual([first.id, repeat.id]);
     expect(feed.changes.every((c) => c.workOrderId === fx.workOrderId)).toBe(true);
-    expect((await changesSince(db, fx.shopId, tablet.deviceId, null)).changes).toEqual([]);
+    expect((await changesSince(db, fx.shopId, { deviceId: tablet.deviceId, authorId: mech.id }, null)).changes).toEqual([]);
   });
 
   it("show on the supervisor's review of the signed-off stage, a repeated serial with its flag", async () => {
