@@ -6,7 +6,8 @@ import { clearUserCaches } from "@/lib/client/worker-caches";
 
 // Signing out clears the pages the service worker kept for this user (the tablet's unsent bench
 // work in IndexedDB stays, to be sent when that user signs in again). If the server does not
-// answer (offline), the page says so and stays: the session still stands.
+// answer (offline), the page says so and stays: the session still stands, and so do the kept pages
+// (the bench still opens offline).
 export function SignOutButton() {
   const [failed, setFailed] = useState(false);
   return (
@@ -20,10 +21,11 @@ export function SignOutButton() {
         type="button"
         onClick={async () => {
           setFailed(false);
-          await clearUserCaches().catch(() => undefined);
           const to = await signOutTo("/signin").catch(() => null);
-          if (to) window.location.href = to;
-          else setFailed(true);
+          if (!to) return setFailed(true);
+          // only once the server has ended the session: offline, the bench page stays kept for this user
+          await clearUserCaches().catch(() => undefined);
+          window.location.href = to;
         }}
         className="min-h-12 rounded-lg border-2 border-white px-4 text-base font-bold text-white"
       >

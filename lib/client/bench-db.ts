@@ -50,6 +50,9 @@ export interface StoredPhoto {
   /** 0 until the bytes reached object storage (numbers index in IndexedDB; booleans do not). */
   uploaded: 0 | 1;
   createdAt: number;
+  /** When the server last refused the bytes (not a passing trouble), and what it said: shown at the step. */
+  refusedAt?: number;
+  refusedReason?: string;
 }
 
 /** A job whose copy must be at least as new as `cursor` (a sync answer touched it); gone once it is. */

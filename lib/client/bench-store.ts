@@ -251,7 +251,21 @@ export async function noteSync(db: BenchDb, patch: Partial<Omit<SyncMeta, "curso
 }
 
 export async function markPhotoUploaded(db: BenchDb, id: string): Promise<void> {
-  await db.photos.update(id, { uploaded: 1 });
+  await db.photos.update(id, { uploaded: 1, refusedAt: undefined, refusedReason: undefined });
+}
+
+/** The server refused a photo's bytes: what it said stays on the photo (shown at its step), and when. */
+export async function markPhotoRefused(db: BenchDb, id: string, reason: string, now = Date.now()): Promise<void> {
+  await db.photos.update(id, { refusedAt: now, refusedReason: reason.slice(0, 400) });
+}
+
+/** The photos this tablet holds for one step of one job (step ids come from templates, so several jobs share them). */
+export function photosOfStep(db: BenchDb, jobId: string, stepId: string) {
+  return db.photos
+    .where("stepId")
+    .equals(stepId)
+    .filter((p) => p.workOrderId === jobId)
+    .toArray();
 }
 
 /** How long a photo's bytes stay on the tablet after they reached object storage, while its job is still at the bench. */

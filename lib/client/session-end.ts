@@ -24,7 +24,7 @@ export type SessionCheck = "open" | "ended" | "signed-out" | "someone-else" | "u
  */
 export async function checkSession(fetchFn: typeof fetch = fetch, userId?: string): Promise<SessionCheck> {
   try {
-    const res = await fetchFn("/api/me", { cache: "no-store" });
+    const res = await fetchFn("/api/me", { cache: "no-store", signal: AbortSignal.timeout(20_000) });
     if (res.ok) {
       if (!userId) return "open";
       const me = (await res.json().catch(() => null)) as { id?: unknown } | null;
@@ -84,6 +84,7 @@ export async function letGoOfTablet(db: BenchDb, deviceId: string, fetchFn: type
         })),
         photosLeft: photos.map((p) => ({ id: p.id, stepId: p.stepId, byteSize: p.byteSize, caption: p.caption.slice(0, 400) })),
       }),
+      signal: AbortSignal.timeout(60_000),
     }).catch(() => null);
     if (!res || res.status !== 201) return "kept";
     for (const e of entries) handed.add(`entry:${e.id}`);

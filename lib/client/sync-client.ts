@@ -43,6 +43,7 @@ import {
   keepSyncAnswer,
   undoDiscards,
   markMissedCopies,
+  markPhotoRefused,
   markPhotoUploaded,
   markUnstorable,
   noteSync,
@@ -63,6 +64,13 @@ export class SyncHttpError extends Error {
     this.name = "SyncHttpError";
   }
 }
+
+/** A request that has had no answer for this long is given up (the run ends; the next tries again), so one stalled connection never holds the sync's lock. */
+export const REQUEST_TIMEOUT_MS = 60_000;
+/** A photo's bytes may take longer on a slow workshop network. */
+export const PHOTO_UPLOAD_TIMEOUT_MS = 120_000;
+/** Photo bytes the server refused (not a passing trouble) are offered again after this long. */
+export const PHOTO_RETRY_AFTER_REFUSAL_MS = 60 * 60 * 1000;
 
 export interface SyncReport {
   sent: number;
@@ -86,7 +94,11 @@ async function errorText(res: Response): Promise<string> {
 }
 
 async function getJson<T>(fetchFn: typeof fetch, url: string, parse: (v: unknown) => T): Promise<T> {
-  const res = await fetchFn(url, { headers: { accept: "application/json" }, cache: "no-store" });
+  const res = await fetchFn(url, {
+    headers: { accept: "application/json" },
+    cache: "no-store",
+    signal: AbortSignal.timeout(REQUEST_TIMEOUT_MS),
+  });
   if (!res.ok) throw new SyncHttpError(res.status, await errorText(res));
   return parse(await res.json());
 }
@@ -107,6 +119,7 @@ async function fetchJobCopy(db: BenchDb, fetchFn: typeof fetch, id: string): Pro
   const res = await fetchFn(`/api/bench/jobs/${id}`, {
     headers: { accept: "application/json", "x-bench-since": held.cursor, "x-bench-have": have.join(".") },
     cache: "no-store",
+    signal: AbortSignal.timeout(REQUEST_TIMEOUT_MS),
   });
   if (!res.ok) throw new SyncHttpError(res.status, await errorText(res));
   const body: unknown = await res.json();
@@ -127,7 +140,11 @@ export async function refreshJobCopy(db: BenchDb, id: string, fetchFn: typeof fe
 }
 
 function describeError(e: unknown): string {
-  return e instanceof TypeError ? "No network: work is kept on this tablet." : e instanceof Error ? e.message : String(e);
+  if (e instanceof TypeError) return "No network: work is kept on this tablet.";
+  if (e instanceof Error && (e.name === "TimeoutError" || e.name === "AbortError")) {
+    return "The server did not answer in time: work is kept on this tablet and sent with the next sync.";
+  }
+  return e instanceof Error ? e.message : String(e);
 }
 
 /** The browser is signed in as someone else than this bench's user (another tab signed in): nothing is sent. */
@@ -173,6 +190,7 @@ async function sendDiscards(db: BenchDb, deviceId: string, fetchFn: typeof fetch
       deviceId,
       discards: entries.map((e) => ({ id: e.id, operation: e.op, refusedReason: e.reason ?? "", reason: e.discardReason ?? "" })),
     }),
+    signal: AbortSignal.timeout(REQUEST_TIMEOUT_MS),
   });
   if (!res.ok) {
     const error = await errorText(res);
@@ -225,6 +243,7 @@ async function exchange(
       method: "POST",
       headers: { "content-type": "application/json" },
       body: JSON.stringify({ deviceId, cursor, operations: ops }),
+      signal: AbortSignal.timeout(REQUEST_TIMEOUT_MS),
     });
     if (!res.ok) {
       if (ops === batch) return res;
@@ -297,6 +316,9 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promis
   for (const batch of batches) await push(db, deviceId, fetchFn, batch, tally);
   let jobsRefreshed = 0;
   let listed: ReadonlyArray<BenchJobSummary> | undefined;
+  // A copy or list that cannot be had now ends the run with its error, but only after the photos:
+  // one job's trouble never holds back the bytes of another's.
+  let copiesFailed: unknown = null;
 
   try {
     const list = await getJson(fetchFn, "/api/bench/jobs", (v) => benchJobListSchema.parse(v));
@@ -321,11 +343,14 @@ async function run(db: BenchDb, deviceId: string, fetchFn: typeof fetch): Promis
     if (failed) throw failed;
     await replaceJobList(db, list.jobs);
     listed = list.jobs;
+  } catch (e) {
+    copiesFailed = e;
   } finally {
     await markMissedCopies(db);
   }
   const photosSent = await uploadPhotos(db, fetchFn);
   if (listed) await trimSentPhotos(db, new Set(listed.filter((j) => j.mayWork).map((j) => j.id)));
+  if (copiesFailed) throw copiesFailed;
   return {
     sent: waiting.length,
     stored: tally.stored,
@@ -367,7 +392,7 @@ async function copiesTheOfficeChanged(db: BenchDb, listed: readonly BenchJobSumm
  * no longer waiting). A photo whose entry is still waiting or was refused, or one the server cannot
  * take now, stays on the tablet; the sync itself does not fail for it.
  */
-async function uploadPhotos(db: BenchDb, fetchFn: typeof fetch): Promise<number> {
+async function uploadPhotos(db: BenchDb, fetchFn: typeof fetch, now = Date.now()): Promise<number> {
   const pending = await db.photos.where("uploaded").equals(0).toArray();
   const notOnServer = new Set(
     (await db.outbox.toArray()).flatMap((o) => (o.op?.kind === "photo.queued" && o.state !== "sent" ? [o.op.payload?.attachmentId] : [])),
@@ -375,14 +400,24 @@ async function uploadPhotos(db: BenchDb, fetchFn: typeof fetch): Promise<number>
   let sent = 0;
   for (const photo of pending) {
     if (notOnServer.has(photo.id)) continue;
-    const res = await fetchFn(`/api/bench/photos/${photo.id}`, {
-      method: "POST",
-      headers: { "content-type": photo.contentType },
-      body: photo.blob,
-    });
+    // bytes the server refused are offered again only after a while, not with every sync
+    if (photo.refusedAt !== undefined && now - photo.refusedAt < PHOTO_RETRY_AFTER_REFUSAL_MS) continue;
+    let res: Response;
+    try {
+      res = await fetchFn(`/api/bench/photos/${photo.id}`, {
+        method: "POST",
+        headers: { "content-type": photo.contentType },
+        body: photo.blob,
+        signal: AbortSignal.timeout(PHOTO_UPLOAD_TIMEOUT_MS),
+      });
+    } catch {
+      break; // no network, or it stalled: the next run tries again
+    }
     if (res.ok) {
       await markPhotoUploaded(db, photo.id);
       sent++;
+    } else if (res.status >= 400 && res.status < 500 && res.status !== 401 && res.status !== 408 && res.status !== 429) {
+      await markPhotoRefused(db, photo.id, await errorText(res), now);
     }
   }
   return sent;

@@ -2,7 +2,7 @@
 
 import { useEffect, useState } from "react";
 import type { StepView } from "@/lib/work-order-record";
-import { recordPhoto } from "@/lib/client/bench-store";
+import { photosOfStep, recordPhoto } from "@/lib/client/bench-store";
 import { notSavedText } from "@/lib/client/not-saved-words";
 import { PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
 import type { JobSnapshot } from "@/lib/sync/snapshot";
@@ -23,7 +23,19 @@ export function PhotoPanel({
   const { db, syncNow } = useBench();
   const author = useAuthor();
   const [error, setError] = useState<string | null>(null);
-  const photos = useLive(() => db.photos.where("stepId").equals(view.step.id).toArray(), [db, view.step.id], []);
+  const photos = useLive(() => photosOfStep(db, jobId, view.step.id), [db, jobId, view.step.id], []);
+  // photos whose entry the server did not store: kept here, listed under "not stored"
+  const notStored = useLive(
+    () =>
+      db.outbox
+        .where("workOrderId")
+        .equals(jobId)
+        .filter((o) => o.op?.kind === "photo.queued" && (o.state === "refused" || o.state === "discarding"))
+        .toArray()
+        .then((rows) => new Set(rows.map((o) => (o.op.kind === "photo.queued" ? o.op.payload.attachmentId : "")))),
+    [db, jobId],
+    new Set<string>(),
+  );
   const localIds = new Set(photos.map((p) => p.id));
   const entry = new Map(view.photos.map((p) => [p.attachmentId, p]));
   /** The photo's state line and, unless withdrawn, its withdraw button. */
@@ -40,9 +52,14 @@ export function PhotoPanel({
   };
   // Photos whose bytes are not on this tablet: taken on another one, or sent and since cleared here.
   const others = snapshotPhotos.filter((p) => p.stepId === view.step.id && !localIds.has(p.id));
-  const [urls, setUrls] = useState<Array<{ id: string; url: string; uploaded: boolean }>>([]);
+  const [urls, setUrls] = useState<Array<{ id: string; url: string; uploaded: boolean; refusedReason?: string }>>([]);
   useEffect(() => {
-    const made = photos.map((p) => ({ id: p.id, url: URL.createObjectURL(p.blob), uploaded: p.uploaded === 1 }));
+    const made = photos.map((p) => ({
+      id: p.id,
+      url: URL.createObjectURL(p.blob),
+      uploaded: p.uploaded === 1,
+      refusedReason: p.refusedReason,
+    }));
     setUrls(made);
     return () => made.forEach((m) => URL.revokeObjectURL(m.url));
   }, [photos]);
@@ -95,7 +112,17 @@ export function PhotoPanel({
               alt="Step photo"
               className={`h-28 w-28 rounded-lg border-2 border-steel-700 object-cover ${entry.get(u.id)?.withdrawn ? "opacity-40" : ""}`}
             />
-            <span className="text-sm">{u.uploaded ? "sent" : "on tablet"}</span>
+            {notStored.has(u.id) ? (
+              <span className="max-w-28 text-sm font-bold text-fail" data-testid="photo-not-stored">
+                ✖ not stored: see the list
+              </span>
+            ) : u.refusedReason && !u.uploaded ? (
+              <span className="max-w-28 text-sm font-bold text-fail" data-testid="photo-not-sent">
+                ✖ not sent: {u.refusedReason}
+              </span>
+            ) : (
+              <span className="text-sm">{u.uploaded ? "sent" : "on tablet"}</span>
+            )}
             {withdrawOf(u.id)}
           </li>
         ))}

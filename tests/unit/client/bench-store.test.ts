@@ -9,6 +9,7 @@ import {
   markMissedCopies,
   missedCopyCursor,
   olderCopies,
+  photosOfStep,
   recordPhoto,
   storeJobCopy,
   trimSentPhotos,
@@ -197,5 +198,16 @@ describe("photo bytes already sent", () => {
     // Six more days: the one kept is now over a week old.
     expect(await trimSentPhotos(db, new Set([ids.job]), now + 7 * day)).toBe(1);
     expect((await db.photos.toCollection().primaryKeys()).sort()).toEqual(["unsent-left", "unsent-old"]);
+  });
+});
+
+describe("a step's photos on this tablet", () => {
+  it("are those of this job only: step ids come from templates, so another job's photo at the same step is not shown", async () => {
+    const db = freshDb();
+    const blob = new Blob([new Uint8Array([137, 80, 78, 71])], { type: "image/png" });
+    const here = await recordPhoto(db, author, ids.job, { stepId: ids.stepBore, blob, contentType: "image/png" });
+    await recordPhoto(db, author, randomUUID(), { stepId: ids.stepBore, blob, contentType: "image/png" });
+    const shown = await photosOfStep(db, ids.job, ids.stepBore);
+    expect(shown.map((p) => p.id)).toEqual([here.kind === "photo.queued" ? here.payload.attachmentId : ""]);
   });
 });

@@ -253,3 +253,68 @@ describe("a bench left open after another person signed in in another tab", () =
     expect(await checkSession(fetchFn, u(55))).toBe("open");
   });
 });
+
+describe("photo bytes", () => {
+  const syncAnswer = (init?: RequestInit) => {
+    const body = JSON.parse(String(init?.body)) as { cursor: string | null };
+    return Response.json({ accepted: [], duplicates: [], refused: [], flagged: [], changes: [], cursor: body.cursor ?? "10", more: false });
+  };
+  const addPhoto = (db: BenchDb, id: string) =>
+    db.photos.add({
+      id,
+      workOrderId: ids.job,
+      stepId: ids.stepBore,
+      blob: new Blob([new Uint8Array([1, 2, 3])], { type: "image/jpeg" }),
+      contentType: "image/jpeg",
+      byteSize: 3,
+      caption: "",
+      uploaded: 0,
+      createdAt: Date.now(),
+    });
+
+  it("are sent even when a job's copy cannot be had: one job's trouble holds back no photo; the run still reports it", async () => {
+    const db = freshDb();
+    const photoId = u(301);
+    await addPhoto(db, photoId);
+    const posted: string[] = [];
+    const fetchFn = (async (input: RequestInfo | URL, init?: RequestInit) => {
+      const url = String(input);
+      if (url === "/api/sync") return syncAnswer(init);
+      if (url === "/api/bench/jobs") return Response.json({ jobs: [] });
+      if (url === `/api/bench/photos/${photoId}`) {
+        posted.push(photoId);
+        return new Response(null, { status: 201 });
+      }
+      if (url.startsWith("/api/bench/jobs/")) return Response.json({ error: "broken copy", issues: [] }, { status: 500 });
+      throw new Error(`unexpected request ${url}`);
+    }) as typeof fetch;
+    // the tablet wants a fresh copy of a job the server fails on
+    await db.wanted.put({ id: ids.job, cursor: "99", since: Date.now() });
+    await expect(syncOnce(db, "tab-1", fetchFn)).rejects.toThrow(/broken copy/);
+    expect(posted).toEqual([photoId]);
+    expect((await db.photos.get(photoId))?.uploaded).toBe(1);
+  });
+
+  it("the server refuses keep its words on the photo and are not sent again with every sync", async () => {
+    const db = freshDb();
+    const photoId = u(302);
+    await addPhoto(db, photoId);
+    let posts = 0;
+    const fetchFn = (async (input: RequestInfo | URL, init?: RequestInit) => {
+      const url = String(input);
+      if (url === "/api/sync") return syncAnswer(init);
+      if (url === "/api/bench/jobs") return Response.json({ jobs: [] });
+      if (url === `/api/bench/photos/${photoId}`) {
+        posts++;
+        return Response.json({ error: "That file is not a JPEG, PNG or WebP photo.", issues: [] }, { status: 415 });
+      }
+      throw new Error(`unexpected request ${url}`);
+    }) as typeof fetch;
+    await syncOnce(db, "tab-1", fetchFn);
+    await syncOnce(db, "tab-1", fetchFn);
+    expect(posts).toBe(1);
+    const kept = await db.photos.get(photoId);
+    expect(kept?.uploaded).toBe(0);
+    expect(kept?.refusedReason).toBe("That file is not a JPEG, PNG or WebP photo.");
+  });
+});
