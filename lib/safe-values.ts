@@ -170,3 +170,22 @@ export function unstorableTexts(value: unknown, labelAt: (path: (string | number
   walk(value, [], 0);
   return found.slice(0, max);
 }
+
+/**
+ * An uploaded file's name as it can be stored and shown: control characters (a NUL among them,
+ * which PostgreSQL refuses; C1 ones too) and half emoji dropped, at most `max` characters (never
+ * cutting a character in two), "file" when nothing is left. A name is a label, not the file's
+ * content, so it is tidied rather than refused.
+ */
+export function storableFileName(name: string, max = 200): string {
+  // eslint-disable-next-line no-control-regex -- dropping control characters is the point
+  const kept = [...name.replace(/[\u0000-\u001F\u007F-\u009F]/gu, "")].filter((ch) => !hasLoneSurrogate(ch));
+  const cut = kept.slice(0, max).join("").trim();
+  return cut || "file";
+}
+
+/** A declared content type as it can be stored: "type/subtype" of at most 100 plain characters, else `fallback`. */
+export function storableContentType(declared: string, fallback = "application/octet-stream"): string {
+  const bare = declared.split(";")[0].trim().toLowerCase();
+  return bare.length <= 100 && /^[a-z0-9][a-z0-9!#$&^_.+-]*\/[a-z0-9][a-z0-9!#$&^_.+-]*$/.test(bare) ? bare : fallback;
+}

@@ -165,7 +165,7 @@ export function fieldLabel(path: ReadonlyArray<PropertyKey>, labels: FieldLabels
   for (let i = path.length - 1; i >= 0; i--) {
     const key = path[i];
     if (typeof key !== "string") continue;
-    return labels[key] ?? (Object.hasOwn(FIELD_LABELS, key) ? FIELD_LABELS[key] : "This entry");
+    return (Object.hasOwn(labels, key) ? labels[key] : undefined) ?? (Object.hasOwn(FIELD_LABELS, key) ? FIELD_LABELS[key] : "This entry");
   }
   return "This entry";
 }

@@ -2,6 +2,7 @@ import "server-only";
 import { Readable } from "node:stream";
 import busboy from "busboy";
 import { Refusal } from "@/lib/errors";
+import { storableContentType, storableFileName } from "@/lib/safe-values";
 
 /** Limits of a multipart form, enforced while it streams in. */
 export interface MultipartLimits {
@@ -35,6 +36,8 @@ export async function readMultipart(req: Request, limits: MultipartLimits): Prom
   try {
     parser = busboy({
       headers,
+      // browsers send a file's name as UTF-8 in filename="…"; busboy would read it as Latin-1
+      defParamCharset: "utf8",
       limits: {
         fileSize: limits.maxFileBytes,
         files: limits.maxFiles,
@@ -64,10 +67,17 @@ export async function readMultipart(req: Request, limits: MultipartLimits): Prom
     });
     source.on("error", () => fail(new Refusal("The form could not be read: send it again.", 400)));
     parser.on("field", (name, value, info) => {
-      if (info.valueTruncated) fail(new Refusal(`The field ${name} is too long.`, 413));
+      if (info.valueTruncated)
+        fail(
+          new Refusal(`A text in the form is longer than ${Math.round((limits.maxFieldBytes ?? 64 * 1024) / 1024)} kB: shorten it.`, 413, [
+            { path: name, message: "too long" },
+          ]),
+        );
       else form.append(name, value);
     });
-    parser.on("file", (name, stream, info) => {
+    parser.on("file", (name, stream, raw) => {
+      // the name and declared type as they can be stored and shown (a NUL in a name once lost photos)
+      const info = { filename: raw.filename ? storableFileName(raw.filename) : "", mimeType: storableContentType(raw.mimeType) };
       const chunks: Buffer[] = [];
       stream.on("data", (c: Buffer) => chunks.push(c));
       stream.on("limit", () =>

@@ -3,6 +3,7 @@ import { randomUUID } from "node:crypto";
 import { recordAttachment } from "@/db/office/attachments";
 import type { Db } from "@/db/setup/client";
 import { Refusal } from "@/lib/errors";
+import { storableFileName } from "@/lib/safe-values";
 import { typeByBytes } from "./file-bytes";
 import type { MultipartLimits } from "./multipart";
 import { putObject } from "./object-store";
@@ -48,7 +49,7 @@ export async function storePhotos(
   for (const { file: f, type } of photos) {
     const objectKey = `${a.shopId}/${a.workOrderId}/${randomUUID()}.${TYPES[type]}`;
     await putObject(objectKey, Buffer.from(await f.arrayBuffer()), type);
-    await recordAttachment(db, { ...a, objectKey, contentType: type, byteSize: f.size, caption: f.name.slice(0, 200) });
+    await recordAttachment(db, { ...a, objectKey, contentType: type, byteSize: f.size, caption: storableFileName(f.name) });
   }
 }
 

@@ -262,8 +262,8 @@ async function readBody(req: Request, spec: BodySpec | undefined): Promise<unkno
       let raw: unknown;
       try {
         raw = JSON.parse(text);
-      } catch (e) {
-        throw new Refusal(`The body is not valid JSON: ${(e as Error).message}`, 400);
+      } catch {
+        throw new Refusal("The body is not valid JSON: nothing was changed. Send the form again.", 400);
       }
       spec.before?.(raw);
       return checkedFields(spec.schema, raw, spec.labels, { texts: !spec.anyText, ...spec.invalid });

@@ -4,6 +4,7 @@ import { checkTuneLabelFree, findTuneFile, recordTuneVersion } from "@/db/record
 import type { Db } from "@/db/setup/client";
 import { fileSizeWords, TUNE_FILE_MAX_BYTES, tuneFieldsSchema, tuneFileNameSchema } from "@/lib/dyno/tune-version";
 import { CHECK_THE_FIELDS, Refusal } from "@/lib/errors";
+import { storableContentType } from "@/lib/safe-values";
 import { issuesOf } from "@/lib/zod-issues";
 import { getObject, putObject } from "./object-store";
 
@@ -38,7 +39,7 @@ export async function storeTuneVersion(db: Db, user: { id: string; shopId: strin
   const id = randomUUID();
   const sha256 = sha256Hex(bytes);
   const objectKey = `tunes/${user.shopId}/${workOrderId}/${id}`;
-  const contentType = file.type || "application/octet-stream";
+  const contentType = storableContentType(file.type);
   await putObject(objectKey, Buffer.from(bytes), contentType);
   await recordTuneVersion(db, user, workOrderId, {
     ...fields.data,

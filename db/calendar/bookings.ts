@@ -60,9 +60,13 @@ export async function bookWorkOrder(db: Kysely<Database>, user: SessionUser, inp
   const problem = bookingTimeProblem(input, shop, wallClockIn(shop.timeZone));
   if (problem) throw new Refusal(problem.message, 422, [problem]);
   const during = () => rangeOf(input.day, input.from, input.to, shop.timeZone);
-  // the hour the clocks go forward does not happen: a booking wholly inside it is no time at all
-  const empty = await sql<{ empty: boolean }>`SELECT isempty(${during()}) AS empty`.execute(db);
-  if (empty.rows[0].empty) {
+  // the hour the clocks go forward does not happen: a booking wholly inside it is no time at all, and
+  // one that starts inside it can end before it starts (PostgreSQL reads a time that does not exist
+  // with the offset before the change); both are said in words, never left to fail the range
+  const bounds = await sql<{ lo: Date; hi: Date }>`
+    SELECT (${input.day}::date + ${input.from}::time) AT TIME ZONE ${shop.timeZone} AS lo,
+           (${input.day}::date + ${input.to}::time) AT TIME ZONE ${shop.timeZone} AS hi`.execute(db);
+  if (bounds.rows[0].lo.getTime() >= bounds.rows[0].hi.getTime()) {
     const message = `${input.from}–${input.to} on ${dayLabel(input.day)} does not happen: the clocks go forward then (${shop.timeZone}). Book a later time.`;
     throw new Refusal(message, 422, [{ path: "from", message }]);
   }

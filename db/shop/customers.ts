@@ -31,7 +31,7 @@ export async function pageCustomers(db: Kysely<Database>, shopId: string, o: Pag
     );
   }
   const { n } = await base.select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow();
-  const sortCol = CUSTOMER_SORTS[o.sort as keyof typeof CUSTOMER_SORTS] ?? "c.name";
+  const sortCol = Object.hasOwn(CUSTOMER_SORTS, o.sort) ? CUSTOMER_SORTS[o.sort as keyof typeof CUSTOMER_SORTS] : "c.name";
   const rows = await base
     .select([
       "c.id",

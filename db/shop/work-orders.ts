@@ -109,7 +109,7 @@ export async function pageWorkOrders(db: Kysely<Database>, shopId: string, o: Pa
       "m.name as mechanicName",
     ])
     .select((eb) => depositColumns(eb))
-    .orderBy(sql.ref(SORTS[o.sort as keyof typeof SORTS] ?? "w.number"), o.dir)
+    .orderBy(sql.ref(Object.hasOwn(SORTS, o.sort) ? SORTS[o.sort as keyof typeof SORTS] : "w.number"), o.dir)
     .orderBy("w.id")
     .limit(o.size)
     .offset(o.page * o.size)

@@ -4,6 +4,7 @@
  * own curve format, or as a logged file with a column mapping. Field messages name the field and the
  * limit; curve problems come back with their row (file line) and column.
  */
+import { calendarDay } from "@/lib/calendar/rules";
 import { z } from "zod";
 import { FUEL_IDS, INPUT_RULES, POWER_CORRECTION_STANDARD_IDS, type FuelId } from "@/lib/calc";
 import type { FieldIssue } from "@/lib/errors";
@@ -21,7 +22,7 @@ const station = INPUT_RULES.stationPressure;
 const dynoRunFieldsSchema = z
   .object({
     label: safeText({ label: "Run name", max: 80, min: 1, tooShort: "Name the run (e.g. “Baseline 7 psi”)" }),
-    ranOn: z.iso.date({ message: "Date must be a date (YYYY-MM-DD)" }),
+    ranOn: calendarDay("Date"),
     boostTarget: numberFromText("Boost target", 0, Number.MAX_VALUE, "(gauge)"),
     boostUnit: z.enum(BOOST_UNITS, { message: "Boost unit must be psi, kPa or bar" }),
     pressureKpa: numberFromText("Air pressure", station.min, station.max, "kPa"),

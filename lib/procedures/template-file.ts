@@ -34,8 +34,8 @@ export function readTemplateFile(text: string): TemplateFileResult {
   let raw: unknown;
   try {
     raw = JSON.parse(text);
-  } catch (e) {
-    return { ok: false, issues: [{ path: "(file)", message: `not valid JSON: ${(e as Error).message}` }] };
+  } catch {
+    return { ok: false, issues: [{ path: "(file)", message: "not valid JSON: choose a template file exported from Benchtag (.json)" }] };
   }
   // a NUL, control character or half of an emoji cannot be stored: said here, field by field
   const unstorable = unstorableTexts(raw, (path) => fieldLabel(path));

@@ -48,7 +48,7 @@ export const decisionInputSchema = z.discriminatedUnion(
       reopenStepIds: z.array(z.uuid("not a step id")).min(1, "Choose at least one step to reopen.").max(100),
     }),
   ],
-  { error: 'decision must be "approved" or "sent_back"' },
+  { error: "Choose approve or send back." },
 );
 
 export type DecisionInput = z.output<typeof decisionInputSchema>;

@@ -4,14 +4,14 @@
  */
 import { z } from "zod";
 
-const page = z.coerce.number("page must be a number").int().min(0).max(100_000).default(0);
-const size = z.coerce.number("size must be a number").int().min(1).max(100).default(20);
-const dir = z.enum(["asc", "desc"], "dir must be asc or desc").default("desc");
+const page = z.coerce.number("The page must be a number").int().min(0).max(100_000).default(0);
+const size = z.coerce.number("The page size must be a number").int().min(1).max(100).default(20);
+const dir = z.enum(["asc", "desc"], "The order must be rising or falling").default("desc");
 const jobNumber = z
   .string()
   .trim()
   .max(9)
-  .regex(/^\d*$/, "job must be a work order number")
+  .regex(/^\d*$/, "The job must be a work order number")
   .transform((v) => (v === "" ? undefined : Number(v)))
   .optional();
 
@@ -26,12 +26,12 @@ export const queueQuerySchema = z.object({
   q: z.string().trim().max(100).default(""),
   job: jobNumber,
   mechanic: z
-    .union([z.literal(""), z.uuid("mechanic must be a user id")])
+    .union([z.literal(""), z.uuid("Choose the mechanic from the list")])
     .optional()
     .transform((v) => v || undefined),
   /** "yes": only sign-offs with readings out of tolerance not yet accepted; "no": only those without. */
   outOfTolerance: z
-    .enum(["", "yes", "no"], "outOfTolerance must be yes or no")
+    .enum(["", "yes", "no"], "Out of tolerance must be yes or no")
     .optional()
     .transform((v) => v || undefined),
 });
@@ -42,7 +42,7 @@ const AUDIT_SORTS = ["at", "job", "actor", "action", "outcome"] as const;
 export const auditFilterSchema = z.object({
   job: jobNumber,
   outcome: z
-    .enum(["", "accepted", "refused"], "outcome must be accepted or refused")
+    .enum(["", "accepted", "refused"], "The outcome must be accepted or refused")
     .optional()
     .transform((v) => v || undefined),
   /** What was done: an action name or the start of one ("review", "sync.measurement"). */

@@ -138,7 +138,7 @@ test("bad input to the review routes gets a clear answer naming the problem, nev
 
   const odd = await post({ decision: "maybe" });
   expect(odd.status()).toBe(400);
-  expect((await odd.json()).issues[0]).toMatchObject({ path: "decision", message: 'decision must be "approved" or "sent_back"' });
+  expect((await odd.json()).issues[0]).toMatchObject({ path: "decision", message: "Choose approve or send back." });
 
   const notJson = await page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, {
     data: Buffer.from("{not json"),

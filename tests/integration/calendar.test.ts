@@ -229,6 +229,19 @@ describe("the hour the clocks go forward", () => {
       "01:00–02:00 on 28 Mar 2027 does not happen: the clocks go forward then (Europe/London). Book a later time.",
     );
     expect(await liveBookings(s.dyno)).toEqual([]);
+    // one that starts inside it and ends as it does (01:30 does not exist; PostgreSQL reads it as 01:30 GMT)
+    const startsInGap = await book(s.office, {
+      resourceId: s.dyno,
+      workOrderId: s.fx.workOrderId,
+      day: "2027-03-28",
+      from: "01:30",
+      to: "02:00",
+    });
+    expect(startsInGap.status).toBe(422);
+    expect((await refusal(startsInGap)).error).toBe(
+      "01:30–02:00 on 28 Mar 2027 does not happen: the clocks go forward then (Europe/London). Book a later time.",
+    );
+    expect(await liveBookings(s.dyno)).toEqual([]);
     const after = await book(s.office, {
       resourceId: s.dyno,
       workOrderId: s.fx.workOrderId,

@@ -1,6 +1,15 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { finiteNumber, hasLoneSurrogate, safeText, saneInstant, unstorableTexts } from "@/lib/safe-values";
+import {
+  finiteNumber,
+  hasLoneSurrogate,
+  safeText,
+  saneInstant,
+  storableContentType,
+  storableFileName,
+  unstorableTexts,
+} from "@/lib/safe-values";
+import { fieldLabel } from "@/lib/zod-issues";
 import { readTemplateFile } from "@/lib/procedures/template-file";
 import { operationSchema } from "@/lib/sync/operations";
 
@@ -142,5 +151,31 @@ describe("texts a request holds that cannot be stored", () => {
       ok: false,
       issues: [{ path: "stages[0].title", message: "Title holds a NUL character, which cannot be stored: retype it." }],
     });
+  });
+});
+
+describe("a file's name and declared type as they can be stored", () => {
+  it("keeps the name as written less control characters and half emoji, never cutting a character in two", () => {
+    expect(storableFileName("Zylinderkopf\u0000\u0085 Übersicht ✓.png")).toBe("Zylinderkopf Übersicht ✓.png");
+    expect(storableFileName("\u0000\u0001")).toBe("file");
+    expect(storableFileName("a\uD83D.jpg")).toBe("a.jpg");
+    expect(storableFileName(`${"🔧".repeat(150)}.jpg`, 200)).toBe("🔧".repeat(150) + ".jpg");
+    expect([...storableFileName("🔧".repeat(300), 200)]).toHaveLength(200);
+  });
+
+  it("keeps a plain type/subtype and gives anything else as plain bytes", () => {
+    expect(storableContentType("image/PNG")).toBe("image/png");
+    expect(storableContentType("text/csv; charset=utf-8")).toBe("text/csv");
+    expect(storableContentType(`application/${"x".repeat(300)}`)).toBe("application/octet-stream");
+    expect(storableContentType("not a type")).toBe("application/octet-stream");
+    expect(storableContentType("")).toBe("application/octet-stream");
+  });
+});
+
+describe("a field's label", () => {
+  it("is never an object's own property: a key named toString or constructor is 'This entry'", () => {
+    expect(fieldLabel(["toString"])).toBe("This entry");
+    expect(fieldLabel(["constructor"], {})).toBe("This entry");
+    expect(fieldLabel(["name"], { name: "Run name" })).toBe("Run name");
   });
 });
