@@ -268,6 +268,15 @@ export function photosOfStep(db: BenchDb, jobId: string, stepId: string) {
     .toArray();
 }
 
+/** Entries the server does not have yet (waiting, refused, being discarded; a held one it has) and photos whose bytes it does not have. */
+export async function unsentCount(db: BenchDb): Promise<number> {
+  const [entries, photos] = await Promise.all([
+    db.outbox.where("state").anyOf("waiting", "refused", "discarding").count(),
+    db.photos.where("uploaded").equals(0).count(),
+  ]);
+  return entries + photos;
+}
+
 /** How long a photo's bytes stay on the tablet after they reached object storage, while its job is still at the bench. */
 export const SENT_PHOTO_KEEP_MS = 7 * 24 * 3600 * 1000;
 

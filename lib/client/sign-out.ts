@@ -13,3 +13,21 @@ export async function signOutTo(callbackUrl: string, fetchFn: typeof fetch = fet
   if (!res.ok) throw new Error(`sign-out answered ${res.status}`);
   return callbackUrl;
 }
+
+/**
+ * Work recorded on this tablet and not yet with the server, asked before signing out: the bench
+ * registers how to count it while it is open (`whileBenchOpen`); elsewhere there is none.
+ */
+let countUnsent: (() => Promise<number>) | null = null;
+
+export function whileBenchOpen(count: () => Promise<number>): () => void {
+  countUnsent = count;
+  return () => {
+    if (countUnsent === count) countUnsent = null;
+  };
+}
+
+/** How many entries and photos this tablet still holds for the server (0 off the bench, or if it cannot tell). */
+export async function unsentOnThisTablet(): Promise<number> {
+  return countUnsent ? countUnsent().catch(() => 0) : 0;
+}

@@ -40,6 +40,7 @@ test("a save the tablet's full storage refuses says so, keeps what was typed, an
 
   await typeTag(page, "GSW-1074");
   await page.getByRole("button", { name: "Open this bike's job" }).click();
+  await expect(page.getByRole("heading", { name: "Oxmoor Vane 650" })).toBeVisible();
   await openStep(page, 2);
   const section = page.getByRole("region", { name: /^Measure / }).first();
   // its first reading (read already by the double-tap test, so this one is a correction)

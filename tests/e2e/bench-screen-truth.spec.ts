@@ -332,7 +332,10 @@ test("after an offline reload, the sync starts within 2 s of the network returni
   expect(await headBoltRecords()).toContainEqual({ pass_index: tapped.pass, bolt: tapped.bolt, n: 1 });
 });
 
-test("no /api/ answer is kept in any cache; signing out clears the bench pages and keeps unsent work", async ({ page, context }) => {
+test("no /api/ answer is kept in any cache; signing out names the unsent work, clears the bench pages and keeps that work", async ({
+  page,
+  context,
+}) => {
   const mechanic = await signIn(page, "mechanic");
   await waitForServiceWorker(page);
   await waitForSynced(page);
@@ -353,7 +356,16 @@ test("no /api/ answer is kept in any cache; signing out clears the bench pages a
   await context.route("**/api/sync", (route) => route.abort("internetdisconnected"));
   const tapped = await tapConfirm(page);
   await expect(page.getByTestId("waiting-count")).toHaveText("1 waiting to send");
+  // signing out names the work not yet sent first; staying keeps the bench as it is
   await page.getByRole("button", { name: "Sign out" }).click();
+  await expect(page.getByTestId("unsent-before-sign-out")).toHaveText(
+    "1 piece of work on this tablet is not with the server yet. It stays here and is sent only when you sign in on this tablet again.",
+  );
+  await page.getByRole("button", { name: "Stay signed in" }).click();
+  await expect(page.getByTestId("unsent-before-sign-out")).toHaveCount(0);
+  await expect(page.getByTestId("bench-root")).toBeVisible();
+  await page.getByRole("button", { name: "Sign out" }).click();
+  await page.getByRole("button", { name: "Sign out anyway" }).click();
   await expect(page).toHaveURL(/\/signin/);
   const after = await cached();
   expect(after.filter((e) => e.includes(" /api/") || e.startsWith("bench-pages") || e.endsWith(" /bench"))).toEqual([]);

@@ -151,10 +151,10 @@ test("bad input to the review routes gets a clear answer naming the problem, nev
   expect((await page.request.get("/api/review/sign-offs/00000000-0000-4000-8000-000000000000")).status()).toBe(404);
   const badJob = await page.request.get("/api/review/queue?job=12a");
   expect(badJob.status()).toBe(400);
-  expect((await badJob.json()).issues[0]).toMatchObject({ path: "job", message: "job must be a work order number" });
+  expect((await badJob.json()).issues[0]).toMatchObject({ path: "job", message: "The job must be a work order number" });
   const badOutcome = await page.request.get("/api/audit/export?outcome=perhaps");
   expect(badOutcome.status()).toBe(400);
-  expect((await badOutcome.json()).issues[0].message).toBe("outcome must be accepted or refused");
+  expect((await badOutcome.json()).issues[0].message).toBe("The outcome must be accepted or refused");
 
   // The office may read the queue and the audit log; the count matches the queue's total.
   const queue = await (await page.request.get("/api/review/queue?size=100")).json();

@@ -122,6 +122,6 @@ describe("audit log: who did what, when, from which device, accepted or refused 
 
     const none = await csvOf(fx.shopId, { job: "999" });
     expect(none.text).toBe(`${AUDIT_CSV_COLUMNS.join(",")}\r\n`);
-    expect(auditFilterSchema.safeParse({ outcome: "maybe" }).error?.issues[0].message).toBe("outcome must be accepted or refused");
+    expect(auditFilterSchema.safeParse({ outcome: "maybe" }).error?.issues[0].message).toBe("The outcome must be accepted or refused");
   });
 });

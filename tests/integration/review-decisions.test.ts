@@ -385,6 +385,6 @@ describe("review decisions on synced sign-offs", () => {
     expect((await queue(fx.shopId, { q: "FX-" })).total).toBe(2);
     expect((await queue(fx.shopId, { q: "Halden" })).total).toBe(0);
     expect((await queue(fx.shopId, { size: "1", page: "1" })).rows.map((r) => r.stageKey)).toEqual(["measure"]);
-    expect(queueQuerySchema.safeParse({ job: "12a" }).error?.issues[0].message).toBe("job must be a work order number");
+    expect(queueQuerySchema.safeParse({ job: "12a" }).error?.issues[0].message).toBe("The job must be a work order number");
   });
 });

@@ -3,6 +3,8 @@
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { useEffect, useMemo, useState } from "react";
 import { benchDb } from "@/lib/client/bench-db";
+import { unsentCount } from "@/lib/client/bench-store";
+import { whileBenchOpen } from "@/lib/client/sign-out";
 import { deviceId as readDeviceId } from "@/lib/client/device-id";
 import { useBayLight } from "./bay-light";
 import { BenchContext, type BenchUser } from "./bench-context";
@@ -39,6 +41,8 @@ function BenchRoot({ user }: { user: BenchUser }) {
   // Ask the browser to keep the bench's store under storage pressure (an evicted store would take
   // work not yet sent with it). The browser decides; the bench works either way.
   useEffect(() => void navigator.storage?.persist?.().catch(() => undefined), []);
+  // signing out names the work this tablet still holds for the server
+  useEffect(() => whileBenchOpen(() => unsentCount(db)), [db]);
 
   const route = useHashRoute();
   const [bayLight, toggleBayLight] = useBayLight();
