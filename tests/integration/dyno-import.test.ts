@@ -92,7 +92,7 @@ describe("dyno run import (real PostgreSQL)", () => {
       ranOn: "20/11/2026",
       curve: { source: "csv", text: "rpm,torque_nm\n4000,80\n5000,90\n" },
     });
-    expect(r).toEqual({ ok: false, status: 400, issues: [{ path: "ranOn", message: "Date must be a date (YYYY-MM-DD)" }] });
+    expect(r).toEqual({ ok: false, status: 400, issues: [{ path: "ranOn", message: "Date must be a date (YYYY-MM-DD)." }] });
     expect(await counts(fx.workOrderId)).toEqual({ runs: 0, points: 0 });
   });
 
