@@ -35,7 +35,7 @@ export async function loadWorkOrderFacts(
   db: Db,
   shopId: string,
   jobIds: readonly string[],
-  /** Also each stage's standing approval (`approvedStages`): only withdrawals read it, so a batch without one skips the query. */
+  /** Also each stage's standing approval (`approvedStages`): only withdrawals and work on steps read it, so a batch with neither skips the query. */
   opts: { approvals?: boolean } = { approvals: true },
 ): Promise<Map<string, LoadedWorkOrder>> {
   const out = new Map<string, LoadedWorkOrder>();

@@ -5,6 +5,7 @@ import type { SyncResponse } from "@/lib/sync/changes";
 import {
   decideOperation,
   noteAccepted,
+  recordedStep,
   sortByStamp,
   targetPresent,
   targetsCreated,
@@ -155,8 +156,9 @@ export async function mergeBatch(
       ...filed.map((h) => h.op.workOrderId),
       ...malformed.flatMap((m) => (m.workOrderId ? [m.workOrderId] : [])),
     ]);
-    const withdraws = [...ordered, ...filed.map((h) => h.op)].some((o) => o.kind === "entry.withdrawn");
-    const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...jobIds], { approvals: withdraws });
+    // the stages' standing approvals are read by the rules on withdrawals and on work recorded after an approval
+    const readsApprovals = [...ordered, ...filed.map((h) => h.op)].some((o) => o.kind === "entry.withdrawn" || recordedStep(o) !== null);
+    const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...jobIds], { approvals: readsApprovals });
     const state = await loadMergeState(trx, [...ordered, ...filed.map((h) => h.op)]);
 
     const kept: KeptOperation[] = [];

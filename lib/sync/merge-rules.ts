@@ -248,6 +248,7 @@ export function decideOperation(op: Operation, input: DecisionInput): Decision {
   flags.push(...secondTimerFlags(op, job, input.state));
   flags.push(...lateStopFlags(op, job, input.state));
   flags.push(...withdrawalFlags(op, job, input.state));
+  flags.push(...afterApprovalFlags(op, job));
   flags.push(...clockFlags(op, input.state.clock));
   // Held only once everything else checks out; the flags are worked out again when it is applied.
   if (problem) return { outcome: "wait", ...problem };
@@ -298,6 +299,29 @@ function timersOfSpec(state: MergeState, jobId: string, timerSpecId: string): Ti
 export const HELD_WORK_KINDS = ["step.completed", "torque.bolt-confirmed", "measurement.recorded", "part.fitted"] as const;
 type HeldWork = Extract<Operation, { kind: (typeof HELD_WORK_KINDS)[number] }>;
 const isHeldWork = (op: Operation): op is HeldWork => (HELD_WORK_KINDS as readonly string[]).includes(op.kind);
+
+/** Kinds of work that change a step's record: those a hold stops, and a photo. Recorded on a stage the supervisor approved, they are flagged. */
+export const STEP_RECORD_KINDS = [...HELD_WORK_KINDS, "photo.queued"] as const;
+
+/** The step an operation adds to the record of, when it does (`STEP_RECORD_KINDS`). */
+export function recordedStep(op: Operation): string | null {
+  return op.kind === "photo.queued" ? op.payload.stepId : heldWorkStep(op);
+}
+
+/**
+ * Work recorded on a step whose stage the supervisor has approved (a correction of a reading,
+ * another tablet's reading of the same spot, a part, a bolt, a photo, the step done again): the
+ * approved record is no longer the record, so it is kept and flagged, and the stage goes back to
+ * the review queue and the handover gate until the supervisor accepts it, as a withdrawal does.
+ */
+function afterApprovalFlags(op: Operation, job: WorkOrderFacts): string[] {
+  const stepId = recordedStep(op);
+  const step = stepId === null ? undefined : job.steps.get(stepId);
+  if (!step || !job.approvedStages?.has(approvedStageKey(step.jobProcedureId, step.stageKey))) return [];
+  return [
+    `Recorded on step “${step.title}” after the supervisor approved its stage: the approved record has changed, so the stage is checked again.`,
+  ];
+}
 
 /** The step an operation records work on, when it is work a hold stops (./holds.ts). */
 function heldWorkStep(op: Operation): string | null {
@@ -392,14 +416,12 @@ function withdrawalFlags(op: Operation, job: WorkOrderFacts, state: MergeState):
   if (op.kind !== "entry.withdrawn") return [];
   const entry = state.entries.get(op.payload.operationId);
   if (!entry) return [];
-  if (entry.kind === "stage.signed-off") {
-    return entry.decided
-      ? [
-          "This stage sign-off had already been decided on by a supervisor when it was withdrawn: the stage needs a new sign-off and review.",
-        ]
-      : [];
-  }
   const flags: string[] = [];
+  if (entry.kind === "stage.signed-off" && entry.decided) {
+    flags.push(
+      "This stage sign-off had already been decided on by a supervisor when it was withdrawn: the stage needs a new sign-off and review.",
+    );
+  }
   const step = entry.stepId ? job.steps.get(entry.stepId) : undefined;
   if (step && job.approvedStages?.has(approvedStageKey(step.jobProcedureId, step.stageKey))) {
     flags.push(

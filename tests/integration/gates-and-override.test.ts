@@ -1,6 +1,8 @@
+import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { POST as moveRoute } from "@/app/api/office/work-orders/[id]/status/route";
 import { decideOnSignOff } from "@/db/review/decide";
+import { countReviewQueue } from "@/db/review/queue";
 import { loadOpenItems } from "@/db/records/open-items";
 import { moveWorkOrder } from "@/db/shop/work-orders";
 import { Refusal } from "@/lib/errors";
@@ -227,17 +229,18 @@ describe("the gates on ready and handed over (real PostgreSQL)", () => {
     const withdraw = job.tablet.make("entry.withdrawn", { operationId: done.id, reason: "Cover came off again for a leak" });
     const redo = job.tablet.complete(job.steps["fit-cover"]);
     const r = await sync(db, job.users.mech, job.tablet, [withdraw, redo]);
-    expect(r.flagged.map((f) => f.id)).toEqual([withdraw.id]);
+    // both change the approved record: the withdrawal and the step done again are kept and flagged
+    expect(r.flagged.map((f) => f.id)).toEqual([withdraw.id, redo.id]);
     expect(r.flagged[0].reason).toMatch(/^Withdrawn from step “Fit the cover” after the supervisor approved its stage/);
+    expect(r.flagged[1].reason).toMatch(/^Recorded on step “Fit the cover” after the supervisor approved its stage/);
     const items = (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!;
-    expect(items).toEqual([
-      expect.objectContaining({
-        kind: "flagged_not_accepted",
-        stage: expect.objectContaining({ key: "check" }),
-        step: { id: job.steps["fit-cover"], title: "Fit the cover" },
-      }),
-    ]);
-    expect((await refusedMove(job)).issues).toHaveLength(1);
+    const onCover = expect.objectContaining({
+      kind: "flagged_not_accepted",
+      stage: expect.objectContaining({ key: "check" }),
+      step: { id: job.steps["fit-cover"], title: "Fit the cover" },
+    });
+    expect(items).toEqual([onCover, onCover]);
+    expect((await refusedMove(job)).issues).toHaveLength(2);
     expect(await statusOf(job)).toBe("on_dyno");
 
     // the supervisor looks at the stage again and accepts the withdrawal in writing: nothing is open
@@ -252,10 +255,43 @@ describe("the gates on ready and handed over (real PostgreSQL)", () => {
       db,
       job.users.sup,
       check.id,
-      approve([{ operationId: withdraw.id, justification: "Leak fixed and cover refitted; checked it myself" }], standing.id),
+      approve(
+        [
+          { operationId: withdraw.id, justification: "Leak fixed and cover refitted; checked it myself" },
+          { operationId: redo.id, justification: "Cover refitted with a new gasket; torque checked" },
+        ],
+        standing.id,
+      ),
     );
     expect(ok.ok).toBe(true);
     expect(await loadOpenItems(db, job.fx.shopId, job.workOrderId)).toEqual([]);
+  });
+
+  it("a reading recorded on a stage after the supervisor approved it (in tolerance, from another tablet) goes back to review and holds the gate", async () => {
+    const job = await closeOutJob(db);
+    await finishEverything(db, job);
+    expect(await loadOpenItems(db, job.fx.shopId, job.workOrderId)).toEqual([]);
+    const queued = await countReviewQueue(db, job.fx.shopId);
+    const second = new Tablet(`second-${randomUUID().slice(0, 8)}`, job.users.mech.id, job.workOrderId);
+    const again = second.read(job.steps["measure-gap"], job.specId, 0, 0.16);
+    const r = await sync(db, job.users.mech, second, [again]);
+    expect(r.flagged.map((f) => f.id)).toEqual([again.id]);
+    expect(r.flagged[0].reason).toMatch(/^Recorded on step “Measure the gap” after the supervisor approved its stage/);
+    expect((await loadOpenItems(db, job.fx.shopId, job.workOrderId))!.map((i) => i.kind)).toEqual(["flagged_not_accepted"]);
+    expect(await countReviewQueue(db, job.fx.shopId)).toBe(queued + 1);
+    expect((await refusedMove(job)).issues).toHaveLength(1);
+    expect(await statusOf(job)).toBe("on_dyno");
+  });
+
+  it("withdrawing a flagged sign-off nobody decided on keeps its flag in front of the supervisor", async () => {
+    const job = await closeOutJob(db);
+    // a tablet whose clock is 10 minutes ahead: its sign-off is kept and flagged
+    const fast = new Tablet("fast-tablet-3", job.users.mech.id, job.workOrderId, () => Date.now() + 10 * 60_000);
+    const signOff = fast.make("stage.signed-off", job.stages.close);
+    expect((await sync(db, job.users.mech, fast, [signOff])).flagged.map((f) => f.id)).toEqual([signOff.id]);
+    const withdraw = fast.make("entry.withdrawn", { operationId: signOff.id, reason: "Signed off on the wrong tablet" });
+    const r = await sync(db, job.users.mech, fast, [withdraw]);
+    expect(r.flagged.find((f) => f.id === withdraw.id)?.reason).toMatch(/had been flagged for the supervisor and not yet accepted/);
   });
 
   it("withdrawing a flagged entry nobody accepted keeps it in front of the supervisor", async () => {
