@@ -11,6 +11,17 @@ import type { Database } from "../schema";
 // intent is then tied to. A pending or paid deposit is reused, so a double click pays once.
 export async function openDeposit(db: Kysely<Database>, user: { id: string; shopId: string; customerId: string | null }, quoteId: string) {
   return db.transaction().execute(async (trx) => {
+    // the job's row first, then its quote, as everywhere (lockQuoteWithOwner): the other order could
+    // deadlock with the customer's approval of the same quote
+    const owner = await trx.selectFrom("quotes").select("work_order_id").where("id", "=", quoteId).executeTakeFirst();
+    if (!owner) throw new Refusal("This quote is not yours.", 403);
+    // the job's status under its own lock: a cancel at this moment is seen, or waits for this
+    const job = await trx
+      .selectFrom("work_orders")
+      .select("status")
+      .where("id", "=", owner.work_order_id)
+      .forShare()
+      .executeTakeFirstOrThrow();
     const q = await trx
       .selectFrom("quotes as q")
       .innerJoin("work_orders as w", "w.id", "q.work_order_id")
@@ -29,8 +40,6 @@ export async function openDeposit(db: Kysely<Database>, user: { id: string; shop
       .forUpdate("q")
       .executeTakeFirst();
     if (!q || q.shopId !== user.shopId || q.customerId !== user.customerId) throw new Refusal("This quote is not yours.", 403);
-    // the job's status under its own lock: a cancel at this moment is seen, or waits for this
-    const job = await trx.selectFrom("work_orders").select("status").where("id", "=", q.workOrderId).forShare().executeTakeFirstOrThrow();
     if (isClosed(job.status))
       throw new Refusal(
         `This job is ${STATUS_LABELS[job.status].toLowerCase()}: no deposit is taken on it. Ask the workshop if you think that is wrong.`,

@@ -4,6 +4,7 @@ import type { Refusal } from "@/lib/errors";
 import { POST as addResource } from "@/app/api/office/resources/route";
 import { POST as makeBike } from "@/app/api/office/bikes/route";
 import { POST as makeUser } from "@/app/api/office/users/route";
+import { openDeposit } from "@/db/office/deposits";
 import { issueBill } from "@/db/office/final-bill";
 import { recordTuneVersion } from "@/db/records/tunes";
 import { createBike } from "@/db/shop/bikes";
@@ -227,5 +228,31 @@ it("a revised quote sent while the customer approves the one sent: one of the tw
         ? { job: "quoted", quotes: ["v1 superseded", "v2 sent"] }
         : { job: "approved", quotes: ["v1 approved", "v2 draft"] },
     );
+  }
+});
+
+it("paying the deposit while the same quote is approved again (two tabs): each is answered, neither deadlocks", async () => {
+  const fx = await createShopFixture(db);
+  const cust = { id: fx.users.customer.id, shopId: fx.shopId, customerId: fx.customerId };
+  for (let i = 0; i < AT_ONCE; i++) {
+    const bike = await createBike(db, fx.shopId, { customerId: fx.customerId, make: "Ostrava", model: `S${i}` });
+    const wo = await bookIn(db, fx.shopId, fx.users.office.id, { bikeId: bike.id, title: "Rebuild", complaint: "Tired", odometerKm: 100 });
+    await moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "inspected");
+    await saveQuoteDraft(db, fx.shopId, fx.users.office.id, wo.id, {
+      lines: [{ kind: "labour", description: "Rebuild", quantityHundredths: 100, unitPriceMinor: 10_000 }],
+      depositMinor: 2_000,
+    });
+    const { quoteId } = await sendQuote(db, fx.shopId, fx.users.office.id, wo.id);
+    await approveQuoteAsCustomer(db, cust, quoteId);
+    // the quote is approved: a second approval (another tab) is refused in words; the deposit opens
+    const results = await Promise.allSettled([
+      approveQuoteAsCustomer(db, cust, quoteId),
+      openDeposit(db, cust, quoteId),
+      approveQuoteAsCustomer(db, cust, quoteId),
+      openDeposit(db, cust, quoteId),
+    ]);
+    for (const r of results) if (r.status === "rejected") expect((r.reason as Refusal).status, String(r.reason)).toBe(409);
+    expect(results[1].status).toBe("fulfilled");
+    expect(await db.selectFrom("deposits").select("id").where("work_order_id", "=", wo.id).execute()).toHaveLength(1);
   }
 });
