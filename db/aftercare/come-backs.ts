@@ -3,10 +3,12 @@ import { sql, type Kysely, type Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { ComeBackFindingInput, OpenComeBackInput } from "@/lib/aftercare/come-backs";
 import { Refusal } from "@/lib/errors";
+import { formatDay } from "@/lib/format/dates";
 import { CLOSED_STATUSES, STATUS_LABELS } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import { loadHandoverReport } from "../records/handover-report";
 import type { Database } from "../schema";
+import { shopTimeZone } from "../shop/settings";
 import { bookInWith } from "../shop/work-orders";
 
 // Come-backs: a handed-over bike back with a fault, booked in as a work order of its own and
@@ -14,7 +16,8 @@ import { bookInWith } from "../shop/work-orders";
 
 type Trx = Transaction<Database>;
 
-const dateOf = (d: Date) => d.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
+/** A day as the shop's calendar reads it ("3 Dec 2026"). */
+const dateOf = async (db: Kysely<Database>, shopId: string, d: Date) => formatDay(d, await shopTimeZone(db, shopId));
 
 /** The come-back still open (its work order not handed over or cancelled) for an original work order, if any. */
 async function openComeBackOf(db: Kysely<Database> | Trx, originalId: string) {
@@ -87,7 +90,7 @@ export async function openComeBack(db: Kysely<Database>, user: SessionUser, inpu
     const open = await openComeBackOf(trx, orig.id);
     if (open)
       throw new Refusal(
-        `Come-back #${open.number} for job #${orig.number} is still open (opened ${dateOf(open.openedAt)} by ${open.openedBy}): carry on with that one.`,
+        `Come-back #${open.number} for job #${orig.number} is still open (opened ${await dateOf(trx, user.shopId, open.openedAt)} by ${open.openedBy}): carry on with that one.`,
         409,
         [{ path: "originalWorkOrderId", message: `come-back #${open.number} is still open` }],
       );
@@ -216,7 +219,7 @@ export async function recordComeBackFinding(db: Kysely<Database>, user: SessionU
     const replaces = input.replacesId ?? null;
     if (current && replaces !== current.id)
       throw new Refusal(
-        `A finding is already on record (by ${current.name}, ${dateOf(current.at)}); a new one replaces it: reload the page and record it again.`,
+        `A finding is already on record (by ${current.name}, ${await dateOf(trx, user.shopId, current.at)}); a new one replaces it: reload the page and record it again.`,
         409,
         [{ path: "replacesId", message: "name the finding on record" }],
       );

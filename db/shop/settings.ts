@@ -10,3 +10,9 @@ export async function shopSettings(db: Kysely<Database>, shopId: string) {
     .where("id", "=", shopId)
     .executeTakeFirstOrThrow();
 }
+
+/** The shop's time zone (IANA name), for dates said in the shop's own calendar. */
+export async function shopTimeZone(db: Kysely<Database>, shopId: string): Promise<string> {
+  const s = await db.selectFrom("shops").select("time_zone as timeZone").where("id", "=", shopId).executeTakeFirstOrThrow();
+  return s.timeZone;
+}

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { formatDay } from "../format/dates";
 import { safeText } from "../safe-values";
 
 // Come-backs: a handed-over bike back with a fault. Our own words for what the office finds.
@@ -51,10 +52,13 @@ export const comeBackFindingSchema = z
 export type ComeBackFindingInput = z.infer<typeof comeBackFindingSchema>;
 
 /** What the bench says about a scanned bike whose last job was handed over. */
-export function handedOverMessage(h: { number: number; tagCode: string; handedOverOn: string | null; canOpenComeBack: boolean }): string {
-  const on = h.handedOverOn
-    ? ` on ${new Date(h.handedOverOn).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" })}`
-    : "";
+export function handedOverMessage(
+  h: { number: number; tagCode: string; handedOverOn: string | null; canOpenComeBack: boolean },
+  /** The calendar the day is said in; the device's own when absent. */
+  timeZone?: string,
+): string {
+  // said on the tablet, whose clock keeps the shop's time
+  const on = h.handedOverOn ? ` on ${formatDay(h.handedOverOn, timeZone)}` : "";
   const head = `Bike ${h.tagCode} was handed over${on} (job #${h.number}) and has no open job.`;
   if (h.canOpenComeBack) return `${head} If it is back with a fault, open a come-back linked to job #${h.number}.`;
   return `${head} If it is back with a fault, ask the office or a supervisor to open a come-back.`;

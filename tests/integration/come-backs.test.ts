@@ -120,15 +120,23 @@ describe("opening a come-back", () => {
     );
     expect(await workOrderCount(notYet.fx.shopId)).toBe(before);
 
+    // the shop keeps a calendar whose day differs from UTC's now (UTC+14 from 10:00 UTC, UTC-11 before 11:00)
+    const dayIn = (timeZone: string) =>
+      new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone }).format(new Date());
+    const zone = ["Pacific/Kiritimati", "Pacific/Pago_Pago"].find((z) => dayIn(z) !== dayIn("UTC"))!;
+    await db.updateTable("shops").set({ time_zone: zone }).where("id", "=", job.fx.shopId).execute();
     const first = await open(job.users.office, report(job));
     expect(first.status).toBe(201);
     const { number } = (await first.json()) as { number: number };
     const count = await workOrderCount(job.fx.shopId);
     const second = await open(job.users.sup, report(job));
     expect(second.status).toBe(409);
-    expect((await second.json()).error).toMatch(
+    const refusal = (await second.json()).error as string;
+    expect(refusal).toMatch(
       new RegExp(`^Come-back #${number} for job #2 is still open \\(opened .+ by office .+\\): carry on with that one\\.$`),
     );
+    // opened today as the shop's calendar reads it (not UTC's day)
+    expect(refusal).toContain(`(opened ${dayIn(zone)} by office`);
     expect(await workOrderCount(job.fx.shopId)).toBe(count);
     expect(await db.selectFrom("come_backs").select("id").where("original_work_order_id", "=", job.workOrderId).execute()).toHaveLength(1);
   });

@@ -81,6 +81,10 @@ describe("come-back input", () => {
     expect(handedOverMessage({ ...h, canOpenComeBack: true })).toBe(
       "Bike GSW-1040 was handed over on 14 Nov 2026 (job #1040) and has no open job. If it is back with a fault, open a come-back linked to job #1040.",
     );
+    // a handover late in the evening in a shop west of Greenwich is that shop's day, not the next day in UTC
+    const evening = { number: 7, tagCode: "GSW-0007", handedOverOn: "2026-11-15T02:30:00Z", canOpenComeBack: true };
+    expect(handedOverMessage(evening, "America/Denver")).toMatch(/^Bike GSW-0007 was handed over on 14 Nov 2026 /);
+    expect(handedOverMessage(evening, "Europe/London")).toMatch(/^Bike GSW-0007 was handed over on 15 Nov 2026 /);
   });
 });
 
