@@ -34,6 +34,10 @@ export async function handlePaymentWebhook(
   }
   const obj = event.data?.object as Partial<Stripe.PaymentIntent> | undefined;
   const metadata = obj?.metadata ?? {};
+  // a refund comes as the charge: its payment intent, and how much of it has gone back in all
+  const charge = event.data?.object as Partial<Stripe.Charge> | undefined;
+  const isCharge = charge?.object === "charge";
+  const chargeIntent = isCharge && typeof charge.payment_intent === "string" ? charge.payment_intent : null;
   // The receipt is queued in the payment's own transaction (so a failure to queue it undoes the
   // payment's record, and the provider's retry does both), and handed to the queue after it commits.
   const receipts: string[] = [];
@@ -42,10 +46,11 @@ export async function handlePaymentWebhook(
     {
       id: event.id,
       type: event.type,
-      paymentIntentId: obj?.object === "payment_intent" ? (obj.id ?? null) : null,
+      paymentIntentId: obj?.object === "payment_intent" ? (obj.id ?? null) : chargeIntent,
       amount: typeof obj?.amount === "number" ? obj.amount : null,
       currency: typeof obj?.currency === "string" ? obj.currency : null,
       named: { depositId: metadata.deposit_id ?? null, balancePaymentId: metadata.balance_payment_id ?? null },
+      amountRefunded: isCharge && typeof charge.amount_refunded === "number" ? charge.amount_refunded : null,
     },
     async (trx, paid) => {
       if (opts.sendMail === false) return;
@@ -71,6 +76,8 @@ export async function handlePaymentWebhook(
   }
   if (outcome.kind === "ignored") return { status: 200, body: { received: true, outcome: `ignored: ${outcome.reason}` } };
   if (outcome.kind === "failed") return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} payment failed` } };
+  if (outcome.kind === "refunded")
+    return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} ${outcome.whole ? "refunded" : "partly refunded"}` } };
   // One receipt e-mail per payment: only the event that paid it sends one; a later, different
   // event about the same payment (a second succeeded event, a resend under a new id) does not.
   if (!outcome.newlyPaid) return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} already paid` } };

@@ -97,6 +97,7 @@ type PaymentOutcome =
       newlyPaid: boolean;
     }
   | { kind: "failed"; paymentFor: PaymentFor; paymentId: string }
+  | { kind: "refunded"; paymentFor: PaymentFor; paymentId: string; refundedMinor: number; whole: boolean }
   | { kind: "replayed" }
   | { kind: "ignored"; reason: string };
 
@@ -156,6 +157,42 @@ async function payableOf(trx: Transaction<Database>, paymentIntentId: string, na
   return null;
 }
 
+/**
+ * A refund made at the provider: how much of the payment went back in all is kept on the row, and a
+ * payment refunded in full is 'refunded' (it no longer counts as paid: not for the move into build,
+ * not on the bill). Only a paid payment can be refunded; the currency must match and the amount is
+ * at most what was paid.
+ */
+async function applyRefund(
+  trx: Transaction<Database>,
+  dep: Payable,
+  event: { id: string; currency: string | null; amountRefunded?: number | null },
+  audit: (action: string, outcome: "accepted" | "refused", detail: Record<string, unknown>, reason?: string) => Promise<unknown>,
+): Promise<PaymentOutcome> {
+  const refunded = event.amountRefunded;
+  const fits =
+    typeof refunded === "number" &&
+    Number.isSafeInteger(refunded) &&
+    refunded > 0 &&
+    refunded <= dep.amount_minor &&
+    (event.currency ?? "").toUpperCase() === dep.currency.toUpperCase();
+  if (!fits || (dep.status !== "paid" && dep.status !== "refunded")) {
+    const reason = !fits ? "refund amount or currency does not match" : `the ${dep.paymentFor} is ${dep.status}, not paid`;
+    await audit("refunded", "refused", { eventId: event.id, amountRefunded: refunded ?? null }, reason);
+    return { kind: "ignored", reason };
+  }
+  const whole = refunded === dep.amount_minor;
+  const set = { refunded_minor: refunded, ...(whole ? { status: "refunded" as const } : {}) };
+  if (dep.paymentFor === "deposit") await trx.updateTable("deposits").set(set).where("id", "=", dep.id).execute();
+  else await trx.updateTable("balance_payments").set(set).where("id", "=", dep.id).execute();
+  await audit(whole ? "refunded" : "partly-refunded", "accepted", {
+    eventId: event.id,
+    refundedMinor: refunded,
+    amountMinor: dep.amount_minor,
+  });
+  return { kind: "refunded", paymentFor: dep.paymentFor, paymentId: dep.id, refundedMinor: refunded, whole };
+}
+
 async function setPaymentStatus(trx: Transaction<Database>, p: Payable, status: "paid" | "failed") {
   const set = status === "paid" ? { status, paid_at: new Date() } : { status };
   if (p.paymentFor === "deposit") await trx.updateTable("deposits").set(set).where("id", "=", p.id).execute();
@@ -175,6 +212,8 @@ export async function applyPaymentEvent(
     currency: string | null;
     /** What the payment's metadata names it for (used when the intent is not yet tied to its row). */
     named?: PaymentNamed;
+    /** A refund (charge.refunded): how much of the payment has gone back in all, minor units. */
+    amountRefunded?: number | null;
   },
   /** Run in the same transaction when this event is the one that paid: the receipt is queued with the payment, or neither is kept. */
   onNewlyPaid?: (trx: Transaction<Database>, paid: Extract<PaymentOutcome, { kind: "paid" }>) => Promise<void>,
@@ -182,7 +221,8 @@ export async function applyPaymentEvent(
   return db.transaction().execute(async (trx) => {
     const seen = await trx.selectFrom("payment_events").select("event_id").where("event_id", "=", event.id).executeTakeFirst();
     if (seen) return { kind: "replayed" } as const;
-    const used = event.type === "payment_intent.succeeded" || event.type === "payment_intent.payment_failed";
+    const used =
+      event.type === "payment_intent.succeeded" || event.type === "payment_intent.payment_failed" || event.type === "charge.refunded";
     if (!used || !event.paymentIntentId) return { kind: "ignored", reason: `event type ${event.type} is not used` } as const;
     const dep = await payableOf(trx, event.paymentIntentId, event.named);
     if (!dep) return { kind: "ignored", reason: "no deposit or balance payment for this payment" } as const;
@@ -215,6 +255,12 @@ export async function applyPaymentEvent(
         await audit("failed", "accepted", { eventId: event.id });
       }
       return { kind: "failed", paymentFor: what, paymentId: dep.id } as const;
+    }
+    if (event.type === "charge.refunded") return applyRefund(trx, dep, event, audit);
+    if (dep.status === "refunded") {
+      // money given back stays given back: a late or resent success does not make it paid again
+      await audit("paid", "refused", { eventId: event.id }, "the payment was refunded");
+      return { kind: "ignored", reason: `the ${what} was refunded` } as const;
     }
     if (event.amount !== dep.amount_minor || (event.currency ?? "").toUpperCase() !== dep.currency.toUpperCase()) {
       await audit("paid", "refused", { eventId: event.id }, "amount or currency does not match");

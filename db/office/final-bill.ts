@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely, Transaction } from "kysely";
+import { sql, type Kysely, type Transaction } from "kysely";
 import { minutesToHundredths } from "@/lib/clock/hours";
 import { Refusal } from "@/lib/errors";
 import { mayIssueBill } from "@/lib/office/extra-work";
@@ -54,7 +54,8 @@ export async function billInputOf(db: Db, shopId: string, workOrderId: string) {
       .execute(),
     db
       .selectFrom("deposits")
-      .select((eb) => eb.fn.coalesce(eb.fn.sum<number>("amount_minor"), eb.lit(0)).as("s"))
+      // what is still held of each paid deposit (a part refunded at the provider is not taken off twice)
+      .select((eb) => eb.fn.coalesce(eb.fn.sum<number>(sql<number>`amount_minor - refunded_minor`), eb.lit(0)).as("s"))
       .where("work_order_id", "=", workOrderId)
       .where("status", "=", "paid")
       .executeTakeFirstOrThrow(),

@@ -100,6 +100,8 @@ interface BalancePaymentsTable {
   status: DepositStatus;
   created_at: DefaultTimestamp;
   paid_at: Timestamp | null;
+  /** How much of it the provider gave back (migration 190); all of it: status 'refunded'. */
+  refunded_minor: Generated<number>;
 }
 
 export interface ExtraWorkTables {

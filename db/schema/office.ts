@@ -57,6 +57,8 @@ interface DepositsTable {
   status: DepositStatus;
   created_at: DefaultTimestamp;
   paid_at: Timestamp | null;
+  /** How much of it the provider gave back (migration 190); all of it: status 'refunded'. */
+  refunded_minor: Generated<number>;
 }
 
 interface PaymentEventsTable {

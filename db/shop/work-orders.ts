@@ -50,7 +50,7 @@ function depositColumns(eb: ExpressionBuilder<Database & { w: Database["work_ord
       .as("depositDueMinor"),
     eb
       .selectFrom("deposits as d")
-      .select((sub) => sub.fn.coalesce(sub.fn.sum<number>("d.amount_minor"), sub.lit(0)).as("paid"))
+      .select((sub) => sub.fn.coalesce(sub.fn.sum<number>(sql<number>`d.amount_minor - d.refunded_minor`), sub.lit(0)).as("paid"))
       .where("d.quote_id", "=", approved)
       .where("d.status", "=", "paid")
       .as("depositPaidMinor"),
@@ -211,7 +211,8 @@ async function transitionFacts(trx: Trx, workOrderId: string) {
   const paid = quote
     ? await trx
         .selectFrom("deposits")
-        .select((eb) => eb.fn.coalesce(eb.fn.sum<number>("amount_minor"), eb.lit(0)).as("s"))
+        // what is still held of each paid deposit: a part refunded at the provider is not paid
+        .select((eb) => eb.fn.coalesce(eb.fn.sum<number>(sql<number>`amount_minor - refunded_minor`), eb.lit(0)).as("s"))
         .where("quote_id", "=", quote.id)
         .where("status", "=", "paid")
         .executeTakeFirstOrThrow()

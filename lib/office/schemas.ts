@@ -136,7 +136,7 @@ export type QuoteLineKind = (typeof QUOTE_LINE_KINDS)[number];
 /** A quote is drafted, sent to the customer, approved by them, or replaced by a newer version. */
 export type QuoteStatus = "draft" | "sent" | "approved" | "superseded";
 /** A deposit waits for the payment service, is paid, or failed. */
-export type DepositStatus = "pending" | "paid" | "failed";
+export type DepositStatus = "pending" | "paid" | "failed" | "refunded";
 
 const quoteLineSchema = z.object({
   kind: z.enum(QUOTE_LINE_KINDS, "choose part or labour"),

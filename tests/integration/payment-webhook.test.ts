@@ -348,3 +348,70 @@ describe("starting a payment", () => {
     }
   });
 });
+
+describe("a refund made at the payment provider", () => {
+  const refundedEvent = (pi: string, amountRefunded: number, currency = "gbp") =>
+    JSON.stringify({
+      id: `evt_test_${Math.random().toString(36).slice(2)}`,
+      object: "event",
+      type: "charge.refunded",
+      created: Math.floor(Date.now() / 1000),
+      data: {
+        object: {
+          id: `ch_${Math.random().toString(36).slice(2)}`,
+          object: "charge",
+          payment_intent: pi,
+          amount: 5000,
+          amount_refunded: amountRefunded,
+          currency,
+          refunded: amountRefunded === 5000,
+        },
+      },
+    });
+  const post = (body: string) => handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
+  const row = async (id: string) =>
+    db.selectFrom("deposits").select(["status", "refunded_minor"]).where("id", "=", id).executeTakeFirstOrThrow();
+
+  it("in part is kept on the deposit; in full makes it refunded, so it no longer lets the job into build, and a late success does not undo it", async () => {
+    const pi = `pi_refund_${Math.random().toString(36).slice(2)}`;
+    const { fx, wo, deposit } = await workOrderWithPendingDeposit(pi);
+    expect((await post(succeededEvent(pi))).body.outcome).toBe("deposit paid");
+
+    // a refund for a currency or amount that is not this payment's changes nothing
+    expect((await post(refundedEvent(pi, 9000))).body.outcome).toMatch(/^ignored: refund amount or currency does not match/);
+    expect((await post(refundedEvent(pi, 1000, "eur"))).body.outcome).toMatch(/^ignored/);
+    expect(await row(deposit.id)).toEqual({ status: "paid", refunded_minor: 0 });
+
+    expect((await post(refundedEvent(pi, 1500))).body.outcome).toBe("deposit partly refunded");
+    expect(await row(deposit.id)).toEqual({ status: "paid", refunded_minor: 1500 });
+
+    expect((await post(refundedEvent(pi, 5000))).body.outcome).toBe("deposit refunded");
+    expect(await row(deposit.id)).toEqual({ status: "refunded", refunded_minor: 5000 });
+
+    // the deposit no longer counts as paid: the job cannot go into build on it
+    await expect(moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "in_build")).rejects.toThrow(/deposit/i);
+    // a success sent again under a new event id does not make it paid again
+    expect((await post(succeededEvent(pi))).body.outcome).toBe("ignored: the deposit was refunded");
+    expect((await row(deposit.id)).status).toBe("refunded");
+    const audit = await db
+      .selectFrom("audit_log")
+      .select(["action", "outcome"])
+      .where("entity_id", "=", deposit.id)
+      .where("action", "like", "deposit.%refunded")
+      .orderBy("id")
+      .execute();
+    expect(audit).toEqual([
+      { action: "deposit.refunded", outcome: "refused" },
+      { action: "deposit.refunded", outcome: "refused" },
+      { action: "deposit.partly-refunded", outcome: "accepted" },
+      { action: "deposit.refunded", outcome: "accepted" },
+    ]);
+  });
+
+  it("of a payment never paid changes nothing", async () => {
+    const pi = `pi_refund_${Math.random().toString(36).slice(2)}`;
+    const { deposit } = await workOrderWithPendingDeposit(pi);
+    expect((await post(refundedEvent(pi, 5000))).body.outcome).toBe("ignored: the deposit is pending, not paid");
+    expect(await row(deposit.id)).toEqual({ status: "pending", refunded_minor: 0 });
+  });
+});

@@ -1,5 +1,5 @@
 // Where a customer's payment stands (a deposit or a bill's balance), in colour, mark and words:
-// declined (nothing taken, try again), sent and waiting for the payment service, or paid.
+// declined (nothing taken, try again), sent and waiting for the payment service, paid, or refunded.
 export function PaymentStatus({
   status,
   sent,
@@ -23,6 +23,12 @@ export function PaymentStatus({
     return (
       <p role="status" className="text-lg font-bold text-warn" data-testid={testId}>
         … Payment sent; waiting for the payment service to confirm.
+      </p>
+    );
+  if (status === "refunded")
+    return (
+      <p role="status" className="text-lg font-bold text-warn" data-testid={testId}>
+        ↩ The payment was refunded in full by the workshop.
       </p>
     );
   if (status === "paid")
