@@ -2,6 +2,7 @@ import "server-only";
 import { emailContext, latestTransitionTo } from "@/db/office/emails";
 import { overridesOf } from "@/db/records/status-overrides";
 import { openItemLine } from "@/lib/work-orders/open-items";
+import { isClosed, STATUS_LABELS } from "@/lib/work-orders/status";
 import { formatMinor } from "@/lib/money/quote-totals";
 import { ANSWER_LINK_DAYS } from "@/lib/office/extra-work";
 import { queueMails } from "@/db/mail/outbox";
@@ -69,7 +70,10 @@ export async function mailDepositReceived(
       kind: "deposit_received",
       cause: `deposit:${depositId}`,
       subject: `Deposit received for work order ${c.number}`,
-      text: `Hello ${c.customerName},\n\nThank you: we have received your deposit of ${formatMinor(amountMinor, c.currency)} for the ${c.make} ${c.model} (${c.tagCode}). Work can start.\n\n${c.shopName}`,
+      // a payment confirmed after the job was closed (cancelled while the card was being charged): the money came, the work does not start
+      text: isClosed(c.status)
+        ? `Hello ${c.customerName},\n\nWe have received your deposit of ${formatMinor(amountMinor, c.currency)} for the ${c.make} ${c.model} (${c.tagCode}), but work order ${c.number} had already been closed (${STATUS_LABELS[c.status].toLowerCase()}): no work starts on it. We will be in touch to give the deposit back.\n\n${c.shopName}`
+        : `Hello ${c.customerName},\n\nThank you: we have received your deposit of ${formatMinor(amountMinor, c.currency)} for the ${c.make} ${c.model} (${c.tagCode}). Work can start.\n\n${c.shopName}`,
     }),
     opts,
   );

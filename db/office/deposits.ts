@@ -269,7 +269,15 @@ export async function applyPaymentEvent(
     const newlyPaid = dep.status !== "paid";
     if (newlyPaid) {
       await setPaymentStatus(trx, dep, "paid");
-      await audit("paid", "accepted", { eventId: event.id, paymentIntentId: event.paymentIntentId });
+      // the money was taken; a job closed meanwhile (cancelled while the card was charged) starts no work on it
+      const job = await trx.selectFrom("work_orders").select("status").where("id", "=", dep.work_order_id).executeTakeFirstOrThrow();
+      const closed = isClosed(job.status);
+      await audit(
+        "paid",
+        "accepted",
+        { eventId: event.id, paymentIntentId: event.paymentIntentId, ...(closed ? { jobStatus: job.status } : {}) },
+        closed ? `paid after the job was closed (${STATUS_LABELS[job.status].toLowerCase()}): to be given back` : undefined,
+      );
     }
     // newlyPaid: this event is the one that paid it (the row is locked, so of two events about one
     // payment arriving together exactly one sees it unpaid): only then is the customer e-mailed.

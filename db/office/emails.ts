@@ -38,6 +38,7 @@ export async function emailContext(db: Kysely<Database>, shopId: string, workOrd
     .select([
       "w.number",
       "w.title",
+      "w.status",
       "b.make",
       "b.model",
       "b.tag_code as tagCode",

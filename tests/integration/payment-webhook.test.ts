@@ -415,3 +415,30 @@ describe("a refund made at the payment provider", () => {
     expect(await row(deposit.id)).toEqual({ status: "pending", refunded_minor: 0 });
   });
 });
+
+describe("a deposit confirmed after its job was closed", () => {
+  it("is recorded as paid (the money came) and audited to be given back; the receipt says no work starts", async () => {
+    const pi = `pi_closed_${Math.random().toString(36).slice(2)}`;
+    const { fx, wo, deposit } = await workOrderWithPendingDeposit(pi);
+    // the office cancels the job while the customer's card is being charged
+    await moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "cancelled");
+    const body = succeededEvent(pi);
+    expect((await handlePaymentWebhook(db, body, sign(body), { secret: SECRET })).body.outcome).toBe("deposit paid");
+    expect(await depositStatus(deposit.id)).toBe("paid");
+    const audit = await db
+      .selectFrom("audit_log")
+      .select(["outcome", "reason"])
+      .where("entity_id", "=", deposit.id)
+      .where("action", "=", "deposit.paid")
+      .executeTakeFirstOrThrow();
+    expect(audit).toEqual({ outcome: "accepted", reason: "paid after the job was closed (cancelled): to be given back" });
+    const mail = await db
+      .selectFrom("mail_outbox")
+      .select("body")
+      .where("work_order_id", "=", wo.id)
+      .where("kind", "=", "deposit_received")
+      .executeTakeFirstOrThrow();
+    expect(mail.body).toContain("had already been closed (cancelled): no work starts on it. We will be in touch to give the deposit back.");
+    expect(mail.body).not.toContain("Work can start");
+  });
+});
