@@ -157,6 +157,19 @@ async function payableOf(trx: Transaction<Database>, paymentIntentId: string, na
   return null;
 }
 
+/** Another payment of the same bill is paid or under way (the bill holds one open payment at a time). */
+async function billPaidOtherwise(trx: Transaction<Database>, balancePaymentId: string): Promise<boolean> {
+  const other = await trx
+    .selectFrom("balance_payments as me")
+    .innerJoin("balance_payments as o", "o.invoice_id", "me.invoice_id")
+    .select("o.id")
+    .where("me.id", "=", balancePaymentId)
+    .whereRef("o.id", "!=", "me.id")
+    .where("o.status", "in", ["pending", "paid"])
+    .executeTakeFirst();
+  return other !== undefined;
+}
+
 /**
  * A refund made at the provider: how much of the payment went back in all is kept on the row, and a
  * payment refunded in full is 'refunded' (it no longer counts as paid: not for the move into build,
@@ -265,6 +278,18 @@ export async function applyPaymentEvent(
     if (event.amount !== dep.amount_minor || (event.currency ?? "").toUpperCase() !== dep.currency.toUpperCase()) {
       await audit("paid", "refused", { eventId: event.id }, "amount or currency does not match");
       return { kind: "ignored", reason: `amount or currency does not match the ${what}` } as const;
+    }
+    if (dep.paymentFor === "balance" && dep.status !== "paid" && (await billPaidOtherwise(trx, dep.id))) {
+      // a card that failed and then went through after all, when the bill had been paid (or was being
+      // paid) another way: the bill keeps one payment; this one is answered (not retried for ever) and
+      // left on the audit log for the money to be given back
+      await audit(
+        "paid",
+        "refused",
+        { eventId: event.id, paymentIntentId: event.paymentIntentId },
+        "taken after the bill was paid by another payment: to be given back",
+      );
+      return { kind: "ignored", reason: "the bill is paid already by another payment" } as const;
     }
     const newlyPaid = dep.status !== "paid";
     if (newlyPaid) {

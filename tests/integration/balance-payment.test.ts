@@ -85,6 +85,41 @@ describe("the balance of a bill through the signed webhook", () => {
     await expect(openBalancePayment(db, customer, bill.id)).rejects.toThrow("The balance is already paid.");
   });
 
+  it("a card that failed and then succeeds after the balance was paid another way is answered, not retried for ever, and flagged to give back", async () => {
+    const { bill } = await billedJob();
+    const customer = { shopId: fx.shopId, customerId: fx.customerId };
+    const first = (await openBalancePayment(db, customer, bill.id)).payment;
+    const pi1 = `pi_bal_first_${Date.now()}`;
+    await attachBalanceIntent(db, first.id, pi1);
+    const failed = JSON.stringify({
+      id: `evt_bal_${Math.random().toString(36).slice(2)}`,
+      object: "event",
+      type: "payment_intent.payment_failed",
+      created: Math.floor(Date.now() / 1000),
+      data: { object: { id: pi1, object: "payment_intent", amount: 84000, currency: "gbp", status: "requires_payment_method" } },
+    });
+    await handlePaymentWebhook(db, failed, sign(failed), { secret: SECRET, sendMail: false });
+    expect(await statusOf(first.id)).toBe("failed");
+    // the customer pays again with another card: paid
+    const second = (await openBalancePayment(db, customer, bill.id)).payment;
+    const pi2 = `pi_bal_second_${Date.now()}`;
+    await attachBalanceIntent(db, second.id, pi2);
+    const ok = event(pi2, 84000);
+    expect((await handlePaymentWebhook(db, ok, sign(ok), { secret: SECRET, sendMail: false })).body.outcome).toBe("balance paid");
+    // then the first card's payment goes through after all: the bill is paid already
+    const late = event(pi1, 84000);
+    const answer = await handlePaymentWebhook(db, late, sign(late), { secret: SECRET, sendMail: false });
+    expect(answer).toEqual({ status: 200, body: { received: true, outcome: "ignored: the bill is paid already by another payment" } });
+    expect([await statusOf(first.id), await statusOf(second.id)]).toEqual(["failed", "paid"]);
+    const audit = await db
+      .selectFrom("audit_log")
+      .select(["outcome", "reason"])
+      .where("entity_id", "=", first.id)
+      .where("action", "=", "balance.paid")
+      .executeTakeFirstOrThrow();
+    expect(audit).toEqual({ outcome: "refused", reason: "taken after the bill was paid by another payment: to be given back" });
+  });
+
   it("is not the business of another customer", async () => {
     const { bill } = await billedJob();
     const other = await createShopFixture(db);
