@@ -268,10 +268,13 @@ export function photosOfStep(db: BenchDb, jobId: string, stepId: string) {
     .toArray();
 }
 
-/** Entries the server does not have yet (waiting, refused, being discarded; a held one it has) and photos whose bytes it does not have. */
+/** Outbox states the server has not taken (a held entry it has): handed over at a session's end, named before a sign-out. */
+export const UNTAKEN_STATES = ["waiting", "refused", "discarding"] as const;
+
+/** Entries the server does not have yet (`UNTAKEN_STATES`) and photos whose bytes it does not have. */
 export async function unsentCount(db: BenchDb): Promise<number> {
   const [entries, photos] = await Promise.all([
-    db.outbox.where("state").anyOf("waiting", "refused", "discarding").count(),
+    db.outbox.where("state").anyOf(UNTAKEN_STATES).count(),
     db.photos.where("uploaded").equals(0).count(),
   ]);
   return entries + photos;

@@ -9,9 +9,14 @@ import { storeFailureMessage } from "./not-saved";
 export function notSavedText(e: unknown): string {
   const store = storeFailureMessage(e);
   if (store) return store;
-  if (e && typeof e === "object" && "issues" in e) {
-    const issues = issuesOf(e as Parameters<typeof issuesOf>[0]);
-    if (issues.length) return `Not saved: ${issues.map((i) => i.message).join(" ")}`;
-  }
+  const checks = checksSaid(e);
+  if (checks) return `Not saved: ${checks}`;
   return "Not saved: something went wrong on the tablet. Record it again; if it keeps failing, reload the bench.";
+}
+
+/** A refusal by an entry's own checks (a zod error), its problems in workshop words; null for any other error. */
+export function checksSaid(e: unknown): string | null {
+  if (!e || typeof e !== "object" || !("issues" in e)) return null;
+  const issues = issuesOf(e as Parameters<typeof issuesOf>[0]);
+  return issues.length ? issues.map((i) => i.message).join(" ") : null;
 }

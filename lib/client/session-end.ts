@@ -13,7 +13,7 @@
  */
 import { SESSION_STATE_HEADER } from "@/lib/auth/session-lifetime";
 import type { BenchDb } from "./bench-db";
-import { dropBenchStore } from "./bench-store";
+import { dropBenchStore, UNTAKEN_STATES } from "./bench-store";
 import { clearUserCaches } from "./worker-caches";
 
 export type SessionCheck = "open" | "ended" | "signed-out" | "someone-else" | "unknown";
@@ -46,9 +46,6 @@ export async function nameThisTablet(deviceId: string, fetchFn: typeof fetch = f
   }).catch(() => undefined);
 }
 
-/** Outbox states the server has not taken: handed over rather than dropped with the store. */
-const UNTAKEN = ["waiting", "refused", "discarding"] as const;
-
 /** Rounds of hand-over in one go: work recorded while one is on its way goes in the next. */
 const MAX_HANDOVER_ROUNDS = 5;
 
@@ -63,7 +60,7 @@ export async function letGoOfTablet(db: BenchDb, deviceId: string, fetchFn: type
   const handed = new Set<string>();
   for (let round = 0; ; round++) {
     // Sent and held entries are with the server already; everything else is only here.
-    const entries = (await db.outbox.where("state").anyOf(UNTAKEN).sortBy("stamp")).filter((e) => !handed.has(`entry:${e.id}`));
+    const entries = (await db.outbox.where("state").anyOf(UNTAKEN_STATES).sortBy("stamp")).filter((e) => !handed.has(`entry:${e.id}`));
     const photos = (await db.photos.where("uploaded").equals(0).toArray()).filter((p) => !handed.has(`photo:${p.id}`));
     if (!entries.length && !photos.length) break;
     if (round >= MAX_HANDOVER_ROUNDS) return "kept";

@@ -3,7 +3,7 @@
 import { useEffect, useState } from "react";
 import { REPEAT_TAP_WINDOW_MS } from "@/lib/bench/tap-guard";
 import { storeFailureMessage } from "@/lib/client/not-saved";
-import { issuesOf } from "@/lib/zod-issues";
+import { checksSaid } from "@/lib/client/not-saved-words";
 import { BigButton } from "./big-button";
 
 /** True once `ms` have passed since the caller appeared: a confirm that shows up under a finger cannot be hit by the same tap. */
@@ -18,13 +18,7 @@ export function useSettled(ms = REPEAT_TAP_WINDOW_MS): boolean {
 
 /** A refusal's message in workshop words, whether zod's or another error's. */
 export function messageOf(e: unknown): string {
-  const store = storeFailureMessage(e);
-  if (store) return store;
-  if (e && typeof e === "object" && "issues" in e) {
-    const issues = issuesOf(e as Parameters<typeof issuesOf>[0]);
-    if (issues.length) return issues.map((i) => i.message).join(" ");
-  }
-  return e instanceof Error ? e.message : String(e);
+  return storeFailureMessage(e) ?? checksSaid(e) ?? (e instanceof Error ? e.message : String(e));
 }
 
 /**
