@@ -5,7 +5,7 @@ import { endSessions } from "@/db/auth/sessions";
 import { holdAddressForSignIn, recordSignInAttempt } from "@/db/auth/sign-in-waits";
 import type { Db } from "@/db/setup/client";
 import { lockPasswordOf, setPasswordHash } from "@/db/shop/users";
-import { bucketKey, waitMessage } from "@/lib/auth/sign-in-throttle";
+import { signInKeys, waitMessage } from "@/lib/auth/sign-in-throttle";
 import { Refusal } from "@/lib/errors";
 import { waitBeforeTrying } from "./sign-in";
 
@@ -29,11 +29,7 @@ export async function changeOwnPassword(
     const user = await lockPasswordOf(trx, who.userId);
     if (!user || !user.active)
       return { ok: false as const, shopId: user?.shop_id ?? null, reason: "account turned off", message: "Your account is turned off." };
-    const keys = {
-      pair: bucketKey("pair", { email: user.email, address: client.address }),
-      address: bucketKey("address", { address: client.address }),
-      account: bucketKey("account", { email: user.email }),
-    };
+    const keys = signInKeys(user.email, client.address);
     const wait = await waitBeforeTrying(trx, keys);
     if (wait > 0) return { ok: false as const, shopId: user.shop_id, reason: `waiting ${wait} s`, message: waitMessage(wait) };
     if (!(await bcrypt.compare(input.current, user.password_hash))) {

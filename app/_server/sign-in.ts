@@ -6,7 +6,7 @@ import { bucketStates, holdAddressForSignIn, recordSignInAttempt } from "@/db/au
 import type { Db } from "@/db/setup/client";
 import { findUserForSignIn } from "@/db/shop/users";
 import { isRole, type Role } from "@/lib/auth/roles";
-import { bucketKey, SIGN_IN_WAITS, waitLeft, waitMessage, type WaitRule } from "@/lib/auth/sign-in-throttle";
+import { signInKeys, SIGN_IN_WAITS, waitLeft, waitMessage, type WaitRule } from "@/lib/auth/sign-in-throttle";
 
 // One sign-in attempt with e-mail and password, with the waits of lib/auth/sign-in-throttle.ts.
 // Every attempt — success, wrong password, unknown e-mail, turned-off account, refused for a
@@ -45,11 +45,7 @@ export async function signInWithPassword(
 ): Promise<SignedIn> {
   const { email, password } = input;
   const { address } = client;
-  const keys = {
-    pair: bucketKey("pair", { email, address }),
-    address: bucketKey("address", { address }),
-    account: bucketKey("account", { email }),
-  };
+  const keys = signInKeys(email, address);
   // The account bucket only ever slows: a pause before anything else, never a refusal.
   const account = (await bucketStates(db, [keys.account])).get(keys.account);
   if (account && account.failures >= SIGN_IN_WAITS.account.free) await (opts.pause ?? sleep)(SIGN_IN_WAITS.account.pauseMs);

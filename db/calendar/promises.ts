@@ -6,6 +6,7 @@ import { Refusal } from "@/lib/errors";
 import { STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
+import { shopTimeZone } from "../shop/settings";
 
 // The day the office promised the bike back. Each change is a new record (who, when); the newest
 // counts. A job is late when that day has passed and the bike is not yet ready or handed over.
@@ -83,8 +84,7 @@ export interface LateJob {
 
 /** Jobs whose promised day has passed (shop's today) and are not yet ready, most late first. */
 export async function listLateJobs(db: Kysely<Database>, shopId: string): Promise<LateJob[]> {
-  const shop = await db.selectFrom("shops").select("time_zone as timeZone").where("id", "=", shopId).executeTakeFirstOrThrow();
-  const today = dayIn(shop.timeZone);
+  const today = dayIn(await shopTimeZone(db, shopId));
   return db
     .with("latest", () => latestPromises(db, shopId))
     .selectFrom("latest as p")

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely, Transaction } from "kysely";
+import { sql, type Kysely, type Transaction } from "kysely";
 import type { DepositStatus } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
 import { isUuid } from "@/lib/ids";
@@ -188,16 +188,14 @@ async function applyRefund(
     Number.isSafeInteger(refunded) &&
     refunded > 0 &&
     refunded <= dep.amount_minor &&
-    (event.currency ?? "").toUpperCase() === dep.currency.toUpperCase();
+    sameCurrency(event.currency, dep);
   if (!fits || (dep.status !== "paid" && dep.status !== "refunded")) {
     const reason = !fits ? "refund amount or currency does not match" : `the ${dep.paymentFor} is ${dep.status}, not paid`;
     await audit("refunded", "refused", { eventId: event.id, amountRefunded: refunded ?? null }, reason);
     return { kind: "ignored", reason };
   }
   const whole = refunded === dep.amount_minor;
-  const set = { refunded_minor: refunded, ...(whole ? { status: "refunded" as const } : {}) };
-  if (dep.paymentFor === "deposit") await trx.updateTable("deposits").set(set).where("id", "=", dep.id).execute();
-  else await trx.updateTable("balance_payments").set(set).where("id", "=", dep.id).execute();
+  await updatePayable(trx, dep, { refunded_minor: refunded, ...(whole ? { status: "refunded" as const } : {}) });
   await audit(whole ? "refunded" : "partly-refunded", "accepted", {
     eventId: event.id,
     refundedMinor: refunded,
@@ -206,11 +204,26 @@ async function applyRefund(
   return { kind: "refunded", paymentFor: dep.paymentFor, paymentId: dep.id, refundedMinor: refunded, whole };
 }
 
-async function setPaymentStatus(trx: Transaction<Database>, p: Payable, status: "paid" | "failed") {
-  const set = status === "paid" ? { status, paid_at: new Date() } : { status };
+/** Writes a deposit's or a balance payment's row, whichever the payment is. */
+async function updatePayable(
+  trx: Transaction<Database>,
+  p: Payable,
+  set: { status?: DepositStatus; paid_at?: Date; refunded_minor?: number },
+): Promise<void> {
   if (p.paymentFor === "deposit") await trx.updateTable("deposits").set(set).where("id", "=", p.id).execute();
   else await trx.updateTable("balance_payments").set(set).where("id", "=", p.id).execute();
 }
+
+async function setPaymentStatus(trx: Transaction<Database>, p: Payable, status: "paid" | "failed") {
+  await updatePayable(trx, p, status === "paid" ? { status, paid_at: new Date() } : { status });
+}
+
+/** The event's currency is the payment's (the provider writes it in lower case). */
+const sameCurrency = (eventCurrency: string | null, p: Payable) => (eventCurrency ?? "").toUpperCase() === p.currency.toUpperCase();
+
+/** What is still held of paid deposits, summed: each one's amount less what was refunded of it. */
+export const heldOfDeposits = (table: "deposits" | "d" = "deposits") =>
+  sql<number>`coalesce(sum(${sql.ref(`${table}.amount_minor`)} - ${sql.ref(`${table}.refunded_minor`)}), 0)`;
 
 // Applies a verified payment event exactly once, to the deposit or the bill's balance payment it
 // is about. A second delivery of the same event id is "replayed" (and changes nothing). Amount and
@@ -275,7 +288,7 @@ export async function applyPaymentEvent(
       await audit("paid", "refused", { eventId: event.id }, "the payment was refunded");
       return { kind: "ignored", reason: `the ${what} was refunded` } as const;
     }
-    if (event.amount !== dep.amount_minor || (event.currency ?? "").toUpperCase() !== dep.currency.toUpperCase()) {
+    if (event.amount !== dep.amount_minor || !sameCurrency(event.currency, dep)) {
       await audit("paid", "refused", { eventId: event.id }, "amount or currency does not match");
       return { kind: "ignored", reason: `amount or currency does not match the ${what}` } as const;
     }

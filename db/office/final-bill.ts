@@ -1,5 +1,5 @@
 import "server-only";
-import { sql, type Kysely, type Transaction } from "kysely";
+import type { Kysely, Transaction } from "kysely";
 import { minutesToHundredths } from "@/lib/clock/hours";
 import { Refusal } from "@/lib/errors";
 import { mayIssueBill } from "@/lib/office/extra-work";
@@ -8,6 +8,7 @@ import { BillTooLarge, buildBill, type BillChoices, type BillInput, type BillSou
 import { appendAudit } from "../audit/append";
 import { lockWorkOrder } from "../shop/work-orders";
 import { hoursOfJob } from "../bench/clocks";
+import { heldOfDeposits } from "./deposits";
 import { supplementsOf } from "./supplements";
 import type { Database } from "../schema";
 import { holdKeys } from "../setup/key-locks";
@@ -55,7 +56,7 @@ export async function billInputOf(db: Db, shopId: string, workOrderId: string) {
     db
       .selectFrom("deposits")
       // what is still held of each paid deposit (a part refunded at the provider is not taken off twice)
-      .select((eb) => eb.fn.coalesce(eb.fn.sum<number>(sql<number>`amount_minor - refunded_minor`), eb.lit(0)).as("s"))
+      .select(heldOfDeposits().as("s"))
       .where("work_order_id", "=", workOrderId)
       .where("status", "=", "paid")
       .executeTakeFirstOrThrow(),

@@ -5,6 +5,7 @@ import { intakeSchema, type IntakeInput } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
 import { checkTransition, isGatedMove, type OverrideRequest } from "@/lib/work-orders/transition-rules";
 import { openItemLine, openItemsSummary } from "@/lib/work-orders/open-items";
+import { heldOfDeposits } from "../office/deposits";
 import type { FieldIssue } from "@/lib/errors";
 import { CLOSED_STATUSES, isClosed, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit, type AuditEntry } from "../audit/append";
@@ -50,7 +51,7 @@ function depositColumns(eb: ExpressionBuilder<Database & { w: Database["work_ord
       .as("depositDueMinor"),
     eb
       .selectFrom("deposits as d")
-      .select((sub) => sub.fn.coalesce(sub.fn.sum<number>(sql<number>`d.amount_minor - d.refunded_minor`), sub.lit(0)).as("paid"))
+      .select(heldOfDeposits("d").as("paid"))
       .where("d.quote_id", "=", approved)
       .where("d.status", "=", "paid")
       .as("depositPaidMinor"),
@@ -212,7 +213,7 @@ async function transitionFacts(trx: Trx, workOrderId: string) {
     ? await trx
         .selectFrom("deposits")
         // what is still held of each paid deposit: a part refunded at the provider is not paid
-        .select((eb) => eb.fn.coalesce(eb.fn.sum<number>(sql<number>`amount_minor - refunded_minor`), eb.lit(0)).as("s"))
+        .select(heldOfDeposits().as("s"))
         .where("quote_id", "=", quote.id)
         .where("status", "=", "paid")
         .executeTakeFirstOrThrow()

@@ -8,6 +8,7 @@ import { deliverySchema, type DeliveryLine } from "@/lib/stock/input";
 import { plainCode } from "@/lib/sync/parts";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
+import { shopTimeZone } from "../shop/settings";
 
 // Receiving a delivery: every line becomes a lot on the shelf with its batch or serial number, and
 // a "received" movement. All lines are saved or none: a bad line (a serial number already on file,
@@ -33,7 +34,7 @@ async function serialsOnFile(trx: Tx, shopId: string, lines: readonly DeliveryLi
       });
     else seen.set(key, w.i);
   }
-  const { timeZone } = await trx.selectFrom("shops").select("time_zone as timeZone").where("id", "=", shopId).executeTakeFirstOrThrow();
+  const timeZone = await shopTimeZone(trx, shopId);
   const [lots, fitted] = await Promise.all([
     trx
       .selectFrom("stock_lots as l")

@@ -42,6 +42,15 @@ export function bucketKey(kind: BucketKind, parts: { email?: string; address?: s
   return `account:${parts.email}`;
 }
 
+/** The three buckets a password tried for `email` from `address` counts in. */
+export function signInKeys(email: string, address: string): { pair: string; address: string; account: string } {
+  return {
+    pair: bucketKey("pair", { email, address }),
+    address: bucketKey("address", { address }),
+    account: bucketKey("account", { email }),
+  };
+}
+
 export function parseBucketKey(key: string): { kind: BucketKind; email: string | null; address: string | null } | null {
   const m = /^(pair|address|account):(.*)$/.exec(key);
   if (!m) return null;
