@@ -157,9 +157,10 @@ export async function mergeBatch(
       ...malformed.flatMap((m) => (m.workOrderId ? [m.workOrderId] : [])),
     ]);
     // the stages' standing approvals are read by the rules on withdrawals and on work recorded after an approval
-    const readsApprovals = [...ordered, ...filed.map((h) => h.op)].some((o) => o.kind === "entry.withdrawn" || recordedStep(o) !== null);
+    const toDecide = [...ordered, ...filed.map((h) => h.op)];
+    const readsApprovals = toDecide.some((o) => o.kind === "entry.withdrawn" || recordedStep(o) !== null);
     const jobs = await loadWorkOrderFacts(trx, actor.shopId, [...jobIds], { approvals: readsApprovals });
-    const state = await loadMergeState(trx, [...ordered, ...filed.map((h) => h.op)]);
+    const state = await loadMergeState(trx, toDecide);
 
     const kept: KeptOperation[] = [];
     const applied: string[] = [];

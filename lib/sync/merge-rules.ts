@@ -315,12 +315,17 @@ export function recordedStep(op: Operation): string | null {
  * the review queue and the handover gate until the supervisor accepts it, as a withdrawal does.
  */
 function afterApprovalFlags(op: Operation, job: WorkOrderFacts): string[] {
-  const stepId = recordedStep(op);
-  const step = stepId === null ? undefined : job.steps.get(stepId);
-  if (!step || !job.approvedStages?.has(approvedStageKey(step.jobProcedureId, step.stageKey))) return [];
+  const step = stepOfApprovedStage(job, recordedStep(op));
+  if (!step) return [];
   return [
     `Recorded on step “${step.title}” after the supervisor approved its stage: the approved record has changed, so the stage is checked again.`,
   ];
+}
+
+/** The step, when it is on the job and its stage's standing decision is an approval. */
+function stepOfApprovedStage(job: WorkOrderFacts, stepId: string | null | undefined): StepFacts | undefined {
+  const step = stepId ? job.steps.get(stepId) : undefined;
+  return step && job.approvedStages?.has(approvedStageKey(step.jobProcedureId, step.stageKey)) ? step : undefined;
 }
 
 /** The step an operation records work on, when it is work a hold stops (./holds.ts). */
@@ -422,8 +427,8 @@ function withdrawalFlags(op: Operation, job: WorkOrderFacts, state: MergeState):
       "This stage sign-off had already been decided on by a supervisor when it was withdrawn: the stage needs a new sign-off and review.",
     );
   }
-  const step = entry.stepId ? job.steps.get(entry.stepId) : undefined;
-  if (step && job.approvedStages?.has(approvedStageKey(step.jobProcedureId, step.stageKey))) {
+  const step = stepOfApprovedStage(job, entry.stepId);
+  if (step) {
     flags.push(
       `Withdrawn from step “${step.title}” after the supervisor approved its stage: the approved record has changed, so the stage is checked again.`,
     );
