@@ -32,6 +32,7 @@ export async function readMultipart(req: Request, limits: MultipartLimits): Prom
     throw new Refusal(`The form is ${declared} bytes; the limit is ${limits.maxBytes} bytes.${hint}`, 413);
   if (!req.body) throw new Refusal("The form could not be read: send it again.", 400);
   const headers = Object.fromEntries(req.headers);
+  const fieldBytes = limits.maxFieldBytes ?? 64 * 1024;
   let parser: busboy.Busboy;
   try {
     parser = busboy({
@@ -42,7 +43,7 @@ export async function readMultipart(req: Request, limits: MultipartLimits): Prom
         fileSize: limits.maxFileBytes,
         files: limits.maxFiles,
         fields: limits.maxFields ?? 50,
-        fieldSize: limits.maxFieldBytes ?? 64 * 1024,
+        fieldSize: fieldBytes,
         parts: limits.maxFiles + (limits.maxFields ?? 50),
       },
     });
@@ -69,7 +70,7 @@ export async function readMultipart(req: Request, limits: MultipartLimits): Prom
     parser.on("field", (name, value, info) => {
       if (info.valueTruncated)
         fail(
-          new Refusal(`A text in the form is longer than ${Math.round((limits.maxFieldBytes ?? 64 * 1024) / 1024)} kB: shorten it.`, 413, [
+          new Refusal(`A text in the form is longer than ${Math.round(fieldBytes / 1024)} kB: shorten it.`, 413, [
             { path: name, message: "too long" },
           ]),
         );
