@@ -5,7 +5,15 @@ import type { DecisionInput } from "@/lib/review/decision-input";
 import { checkDecision, type DecisionCheck } from "@/lib/review/decision-rules";
 import { isClosed } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
-import { latestDecisionOn, latestSignOffOfStage, signOffInShop, stageFlaggedEntries, stageOutOfTolerance, stageSteps } from "./stage";
+import {
+  latestDecisionOn,
+  latestSignOffOfStage,
+  signOffInShop,
+  stageFlaggedEntries,
+  stageOutOfTolerance,
+  stageSteps,
+  stageWorkSince,
+} from "./stage";
 import type { Database } from "../schema";
 
 type DecideResult =
@@ -28,6 +36,8 @@ type DecideResult =
  * cannot shift underneath): the decision row (append-only), the written acceptances of
  * out-of-tolerance readings, and the audit entry. A refusal saves nothing but its audit entry.
  * A send-back reaches the mechanic's tablet through the sync change feed (db/sync/changes.ts).
+ * With `input.seenUpTo` (the route requires it), work on the stage received after the record the
+ * supervisor's screen showed refuses the decision: nothing is approved or sent back unseen.
  */
 export async function decideOnSignOff(
   db: Kysely<Database>,
@@ -41,12 +51,13 @@ export async function decideOnSignOff(
     const so = await signOffInShop(trx, user.shopId, signOffId);
     if (!so) return { ok: false, status: 404, reason: "No such sign-off in this shop.", issues: [] };
 
-    const [latestSignOffId, latestDecision, steps, outOfTolerance, flagged] = await Promise.all([
+    const [latestSignOffId, latestDecision, steps, outOfTolerance, flagged, arrivedSinceSeen] = await Promise.all([
       latestSignOffOfStage(trx, so.jobProcedureId, so.stageKey),
       latestDecisionOn(trx, so.id),
       stageSteps(trx, so.templateVersionId, so.stageKey),
       stageOutOfTolerance(trx, so.workOrderId, so.templateVersionId, so.stageKey),
       stageFlaggedEntries(trx, user.shopId, so),
+      input.seenUpTo === undefined ? [] : stageWorkSince(trx, so, input.seenUpTo),
     ]);
     const check: DecisionCheck = checkDecision(
       {
@@ -58,6 +69,7 @@ export async function decideOnSignOff(
         stageSteps: steps,
         outOfTolerance: outOfTolerance.map((o) => ({ readingId: o.readingId, description: o.description, accepted: o.accepted })),
         flagged: flagged.map((x) => ({ operationId: x.operationId, description: x.description, accepted: x.acceptance !== null })),
+        arrivedSinceSeen,
       },
       input,
     );

@@ -18,6 +18,8 @@ export interface SignOffReview extends StageReview {
   };
   /** The decision standing now (the newest on this sign-off), for the "expectedDecisionId" guard. */
   standingDecisionId: string | null;
+  /** The job's place in the change sequence this review shows (its newest operation), sent back with the decision as `seenUpTo`. */
+  seenUpTo: string;
   mayDecide: boolean;
   /** Why the signed-in user may not decide, when they may not. */
   whyNot: string | null;
@@ -55,7 +57,11 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
   if (!snapshot) return null;
 
   const [receipts, names, acceptances, signOffs, decisions] = await Promise.all([
-    db.selectFrom("operations").select(["id", "received_at", "device_id"]).where("work_order_id", "=", so.workOrderId).execute(),
+    db
+      .selectFrom("operations")
+      .select(["id", "received_at", "device_id", sql<string>`seq::text`.as("seq")])
+      .where("work_order_id", "=", so.workOrderId)
+      .execute(),
     db.selectFrom("users").select(["id", "name"]).where("shop_id", "=", user.shopId).execute(),
     db
       .selectFrom("reading_acceptances as a")
@@ -165,6 +171,7 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
       bike: { make: snapshot.bike.make, model: snapshot.bike.model, tagCode: snapshot.bike.tagCode },
     },
     standingDecisionId: standing?.id ?? null,
+    seenUpTo: receipts.reduce((max, r) => (BigInt(r.seq) > BigInt(max) ? r.seq : max), "0"),
     mayDecide: whyNot === null,
     whyNot,
     flagged: entries.map((e) => ({

@@ -65,12 +65,12 @@ export async function flaggedEntriesOf(
 }
 
 /**
- * What placing these entries on their stages needs, per work order: the steps of its pinned
+ * What placing these entries (flagged ones, or any of the job's) on their stages needs, per work order: the steps of its pinned
  * procedures by stage, its timers' steps, and the operations the entries name (followed a few links).
  */
 export async function placeLookups(
   db: Kysely<Database>,
-  entries: ReadonlyMap<string, readonly FlaggedEntry[]>,
+  entries: ReadonlyMap<string, ReadonlyArray<Pick<FlaggedEntry, "payload">>>,
 ): Promise<Map<string, PlaceLookup>> {
   const jobs = [...entries.keys()];
   const out = new Map<string, PlaceLookup>();

@@ -180,3 +180,40 @@ export async function stageFlaggedEntries(
   }
   return out;
 }
+
+/** The job's place in the change sequence now: its newest operation's seq ("0" before any), as text. */
+export async function jobSeenUpTo(db: Db, workOrderId: string): Promise<string> {
+  const r = await db
+    .selectFrom("operations")
+    .select(sql<string>`coalesce(max(seq), 0)::text`.as("seq"))
+    .where("work_order_id", "=", workOrderId)
+    .executeTakeFirstOrThrow();
+  return r.seq;
+}
+
+/**
+ * Work recorded on the stage after `seenUpTo` (the record a supervisor's review screen showed),
+ * described in workshop words: a decision made on a screen without it is refused. Operations of a
+ * shop are written under its sync lock, so their order in the sequence is their order of commit.
+ */
+export async function stageWorkSince(
+  db: Db,
+  so: { workOrderId: string; jobProcedureId: string; stageKey: string },
+  seenUpTo: string,
+): Promise<string[]> {
+  const since = await db
+    .selectFrom("operations")
+    .select(["id", "kind", "payload"])
+    .where("work_order_id", "=", so.workOrderId)
+    .where("seq", ">", seenUpTo)
+    .orderBy("seq")
+    .execute();
+  if (since.length === 0) return [];
+  const lookup = (await placeLookups(db as Kysely<Database>, new Map([[so.workOrderId, since]]))).get(so.workOrderId)!;
+  return since
+    .filter((o) => {
+      const stage = placeOfEntry(o, lookup).stage;
+      return stage?.jobProcedureId === so.jobProcedureId && stage.stageKey === so.stageKey;
+    })
+    .map((o) => [entryKindLabel(o.kind), entryDetail(o.kind, o.payload)].filter(Boolean).join(" "));
+}

@@ -28,6 +28,15 @@ const flagAcceptanceInputSchema = z.object({
 const common = {
   /** The decision the supervisor saw as the latest on this sign-off (null: none). Guards against two people deciding at once. */
   expectedDecisionId: z.uuid("not a decision id").nullable(),
+  /**
+   * The job's place in the change sequence the supervisor's screen showed (`seenUpTo` of the review):
+   * work on the stage received after it was not seen, so the decision is refused until it is.
+   * The decision route requires it; code deciding without a screen (tests, the year's data) leaves it out.
+   */
+  seenUpTo: z
+    .string("reload the review: it does not say which record it showed")
+    .regex(/^\d{1,18}$/, "reload the review: it does not say which record it showed")
+    .optional(),
   acceptances: z.array(acceptanceInputSchema).max(200, "At most 200 acceptances at once.").default([]),
   /** Written acceptances of flagged entries (lib/review/flagged-work.ts): every one of the stage's is needed to approve. */
   flagAcceptances: z.array(flagAcceptanceInputSchema).max(500, "At most 500 flagged entries at once.").default([]),
@@ -52,5 +61,11 @@ export const decisionInputSchema = z.discriminatedUnion(
 );
 
 export type DecisionInput = z.output<typeof decisionInputSchema>;
+
+/** What the decision route takes: a decision that says which record the supervisor's screen showed. */
+export const decisionRequestSchema = decisionInputSchema.refine((d) => d.seenUpTo !== undefined, {
+  path: ["seenUpTo"],
+  error: "Reload the review and decide again: this decision does not say which record you saw.",
+});
 /** What a supervisor decided on a sign-off. */
 export type ReviewDecision = DecisionInput["decision"];

@@ -20,6 +20,8 @@ export interface DecisionFacts {
   outOfTolerance: ReadonlyArray<{ readingId: string; description: string; accepted: boolean }>;
   /** Flagged entries of the stage (and those on no stage of the job), with whether each is accepted. */
   flagged: ReadonlyArray<{ operationId: string; description: string; accepted: boolean }>;
+  /** Work on the stage received after the record the supervisor's screen showed (`seenUpTo`), described. */
+  arrivedSinceSeen?: ReadonlyArray<string>;
 }
 
 export type DecisionCheck =
@@ -46,6 +48,17 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
   }
   if (f.latestDecisionId !== input.expectedDecisionId) {
     return refuse(409, "Someone else decided on this sign-off while you were looking at it. Reload to see their decision.");
+  }
+  const unseen = f.arrivedSinceSeen ?? [];
+  if (unseen.length) {
+    const what =
+      unseen.length === 1
+        ? `1 new entry (${unseen[0]})`
+        : `${unseen.length} new entries (${unseen.slice(0, 3).join("; ")}${unseen.length > 3 ? "; …" : ""})`;
+    return refuse(
+      409,
+      `While you had this review open, ${what} arrived on "${f.signOff.stageTitle}". Reload to see ${unseen.length === 1 ? "it" : "them"} before you decide.`,
+    );
   }
   if (f.job.closed && input.decision === "sent_back") {
     return refuse(409, `Work order #${f.job.number} is closed: nothing on it can be reopened.`);

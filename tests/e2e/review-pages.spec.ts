@@ -131,10 +131,17 @@ test("bad input to the review routes gets a clear answer naming the problem, nev
   const post = (data: unknown) =>
     page.request.post(`/api/review/sign-offs/${signOffId}/decisions`, { data: data as object, headers: fromOurPage });
 
-  const noReason = await post({ decision: "sent_back", expectedDecisionId: null, reason: "", reopenStepIds: [] });
+  const noReason = await post({ decision: "sent_back", expectedDecisionId: null, seenUpTo: "1", reason: "", reopenStepIds: [] });
   expect(noReason.status()).toBe(400);
   const issues = (await noReason.json()).issues as Array<{ path: string; message: string }>;
   expect(issues.map((i) => i.path).sort()).toEqual(["reason", "reopenStepIds"]);
+
+  // a decision that does not say which record the screen showed is not taken
+  const unsaid = await post({ decision: "approved", expectedDecisionId: null });
+  expect(unsaid.status()).toBe(400);
+  expect((await unsaid.json()).issues).toEqual([
+    { path: "seenUpTo", message: "Reload the review and decide again: this decision does not say which record you saw." },
+  ]);
 
   const odd = await post({ decision: "maybe" });
   expect(odd.status()).toBe(400);

@@ -363,6 +363,64 @@ describe("review decisions on synced sign-offs", () => {
     expect(rows.map((r) => r.decision)).toEqual(["approved", "sent_back"]);
   });
 
+  it("work on the stage that arrives while the review is open refuses a decision made on the older screen (409) until it is reloaded", async () => {
+    const { fx, specs, stepIds, users, stage } = await reviewSetup(db);
+    const tablet = new Tablet("bay-1", users.mech.id, fx.workOrderId);
+    const { ops, signOff } = measureStageWork(tablet, specs, stepIds, stage);
+    await sync(db, users.mech, tablet, ops);
+    const screen = await loadSignOffReview(db, users.sup, signOff.id);
+    if (!screen) throw new Error("no review");
+    const seenOps = await db
+      .selectFrom("operations")
+      .select(sql<string>`max(seq)::text`.as("seq"))
+      .where("work_order_id", "=", fx.workOrderId)
+      .executeTakeFirstOrThrow();
+    expect(screen.seenUpTo).toBe(seenOps.seq);
+    const onScreen = (decision: "approved" | "sent_back", seenUpTo: string) =>
+      decisionInputSchema.parse(
+        decision === "approved"
+          ? { decision, expectedDecisionId: null, seenUpTo }
+          : { decision, expectedDecisionId: null, seenUpTo, reason: "Read the ring gap again", reopenStepIds: [stepIds[2]] },
+      );
+
+    // Work on another stage of the job (the bolts of the bottom end) does not touch what is under review.
+    // (The same mechanic on a second tablet: work kept without a flag, which a supervisor would
+    // otherwise approve unseen.)
+    const second = new Tablet("bay-2", users.mech.id, fx.workOrderId);
+    await sync(db, users.mech, second, [second.complete(fx.stepByKey["rod-bolts"].id)]);
+    // A correction of cylinder 2's ring gap on the stage under review arrives while the screen is open.
+    const ringGap = Object.values(specs).find((s) => s.key === "top-ring-gap")!;
+    const original = ops.find((o) => o.kind === "measurement.recorded" && o.payload.specId === ringGap.id && o.payload.readingIndex === 1)!;
+    const correction = second.read(ringGap.stepId, ringGap.id, 1, "0.43", { supersedesId: original.id });
+    await sync(db, users.mech, second, [correction]);
+    expect(await db.selectFrom("operations").select("flagged").where("id", "=", correction.id).executeTakeFirstOrThrow()).toEqual({
+      flagged: false,
+    });
+
+    for (const decision of ["approved", "sent_back"] as const) {
+      const stale = await decideOnSignOff(db, users.sup, signOff.id, onScreen(decision, screen.seenUpTo));
+      expect(stale).toMatchObject({
+        ok: false,
+        status: 409,
+        reason:
+          'While you had this review open, 1 new entry (Reading 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
+      });
+    }
+    expect(await db.selectFrom("review_decisions").select("id").where("sign_off_id", "=", signOff.id).execute()).toEqual([]);
+    expect((await audits(fx.workOrderId, "review.approve")).map((a) => a.outcome)).toEqual(["refused"]);
+    expect((await queue(fx.shopId)).total).toBe(1);
+
+    // Reloaded, the screen shows the correction and the decision goes through.
+    const reloaded = await loadSignOffReview(db, users.sup, signOff.id);
+    if (!reloaded) throw new Error("no review");
+    expect(BigInt(reloaded.seenUpTo)).toBeGreaterThan(BigInt(screen.seenUpTo));
+    const ringGapStep = reloaded.steps.find((s) => s.id === ringGap.stepId)!;
+    expect(JSON.stringify(ringGapStep)).toContain("0.43");
+    const approved = await decideOnSignOff(db, users.sup, signOff.id, onScreen("approved", reloaded.seenUpTo));
+    expect(approved).toMatchObject({ ok: true });
+    expect((await queue(fx.shopId)).total).toBe(0);
+  });
+
   it("filters and sorts the queue on the server: by job, bike, mechanic and readings out of tolerance", async () => {
     const { fx, specs, stepIds, users, stage } = await reviewSetup(db);
     const t1 = new Tablet("bay-1", users.mech.id, fx.workOrderId);

@@ -15,7 +15,16 @@ type Choice = "approved" | "sent_back";
 // Approve (every reading out of tolerance and every flagged entry let stand with a written reason)
 // or send back (a reason and the steps to reopen). Checked here with the server's own schema; the server's refusals are
 // shown beside the field they name.
-export function DecisionPanel({ review, onDecided }: { review: SignOffReview; onDecided: (message: string) => void }) {
+export function DecisionPanel({
+  review,
+  onDecided,
+  onReload,
+}: {
+  review: SignOffReview;
+  onDecided: (message: string) => void;
+  /** Fetches the record again (after a refusal because it changed), keeping what was typed here. */
+  onReload: () => void;
+}) {
   const open = review.outOfTolerance.filter((o) => !o.acceptance);
   const openFlags = review.flagged.filter((f) => !f.acceptance);
   const [choice, setChoice] = useState<Choice | null>(null);
@@ -48,9 +57,10 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
     const flagAcceptances = openFlags
       .filter((f) => letStand[f.operationId])
       .map((f) => ({ operationId: f.operationId, justification: why[f.operationId] ?? "" }));
+    const seen = { expectedDecisionId: review.standingDecisionId, seenUpTo: review.seenUpTo };
     return choice === "sent_back"
-      ? { decision: choice, expectedDecisionId: review.standingDecisionId, reason, reopenStepIds: steps, acceptances, flagAcceptances }
-      : { decision: "approved" as const, expectedDecisionId: review.standingDecisionId, acceptances, flagAcceptances };
+      ? { decision: choice, ...seen, reason, reopenStepIds: steps, acceptances, flagAcceptances }
+      : { decision: "approved" as const, ...seen, acceptances, flagAcceptances };
   }
 
   function submit() {
@@ -227,6 +237,19 @@ export function DecisionPanel({ review, onDecided }: { review: SignOffReview; on
 
       <div className="mt-4 flex flex-col gap-3">
         {serverError && <FormMessage error={serverError} />}
+        {mutation.error instanceof ApiError && mutation.error.status === 409 && (
+          <button
+            type="button"
+            className={`${buttonClass} min-h-target text-xl`}
+            data-testid="reload-record"
+            onClick={() => {
+              mutation.reset();
+              onReload();
+            }}
+          >
+            Reload the record (what you typed stays)
+          </button>
+        )}
         <button type="button" className={`${buttonClass} min-h-target text-xl`} disabled={!choice || mutation.isPending} onClick={submit}>
           {choice === "sent_back"
             ? "Send back to the bench"

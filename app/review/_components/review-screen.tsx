@@ -177,6 +177,7 @@ export function ReviewScreen({ signOffId, canCloseClocks = false }: { signOffId:
             setChanging(false);
             void client.invalidateQueries({ queryKey: key });
           }}
+          onReload={() => void client.invalidateQueries({ queryKey: key })}
         />
       )}
       <HoursPanel jobId={r.job.id} canClose={canCloseClocks} />

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { decisionInputSchema } from "@/lib/review/decision-input";
+import { decisionInputSchema, decisionRequestSchema } from "@/lib/review/decision-input";
 import { checkDecision, type DecisionFacts } from "@/lib/review/decision-rules";
 
 const ids = {
@@ -55,6 +55,25 @@ describe("checkDecision", () => {
       ok: true,
       reopenStepIds: [],
     });
+  });
+
+  it("decides only on the record the screen showed: work on the stage that arrived since refuses approving and sending back alike", () => {
+    const unseen = ["Reading 0.43 mm (a correction)", "Step done", "Photo", "Torque bolt 3"];
+    const both = [approve([{ readingId: ids.r1, justification: why }]), sendBack([ids.s2])];
+    for (const decision of both) {
+      expect(checkDecision(facts({ arrivedSinceSeen: unseen.slice(0, 1) }), decision)).toEqual({
+        ok: false,
+        status: 409,
+        reason:
+          'While you had this review open, 1 new entry (Reading 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
+        issues: [],
+      });
+      expect(checkDecision(facts({ arrivedSinceSeen: unseen }), decision)).toMatchObject({
+        status: 409,
+        reason: expect.stringContaining("4 new entries (Reading 0.43 mm (a correction); Step done; Photo; …) arrived"),
+      });
+      expect(checkDecision(facts({ arrivedSinceSeen: [] }), decision)).toMatchObject({ ok: true });
+    }
   });
 
   it("approves only when every reading out of tolerance is let stand with a reason", () => {
@@ -179,6 +198,26 @@ describe("flagged entries of the stage (any kind the sync flagged)", () => {
         flagAcceptances: [{ operationId: op1, justification: "ok" }],
       }).error?.issues[0].message,
     ).toBe("Write at least 10 characters: why may this flagged entry stand?");
+  });
+});
+
+describe("decisionRequestSchema (what the decision route takes)", () => {
+  it("requires the record the screen showed, in words a supervisor acts on", () => {
+    expect(decisionRequestSchema.safeParse({ decision: "approved", expectedDecisionId: null }).error?.issues).toEqual([
+      expect.objectContaining({
+        path: ["seenUpTo"],
+        message: "Reload the review and decide again: this decision does not say which record you saw.",
+      }),
+    ]);
+    expect(
+      decisionRequestSchema.safeParse({ decision: "approved", expectedDecisionId: null, seenUpTo: "-1" }).error?.issues[0],
+    ).toMatchObject({
+      path: ["seenUpTo"],
+      message: "reload the review: it does not say which record it showed",
+    });
+    expect(decisionRequestSchema.parse({ decision: "approved", expectedDecisionId: null, seenUpTo: "4812" })).toMatchObject({
+      seenUpTo: "4812",
+    });
   });
 });
 
