@@ -32,6 +32,7 @@ import * as m160 from "./2026_12_08_160_quote_money_bigint";
 import * as m170 from "./2026_12_09_170_stock_returned";
 import * as m180 from "./2026_12_09_180_session_end_password_set";
 import * as m190 from "./2026_12_10_190_payment_refunds";
+import * as m200 from "./2026_12_11_200_handover_settlements";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -70,4 +71,5 @@ export const migrations: Record<string, Migration> = {
   "2026_12_09_170_stock_returned": m170,
   "2026_12_09_180_session_end_password_set": m180,
   "2026_12_10_190_payment_refunds": m190,
+  "2026_12_11_200_handover_settlements": m200,
 };

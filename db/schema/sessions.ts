@@ -42,8 +42,29 @@ interface OutboxHandoversTable {
   received_at: DefaultTimestamp;
 }
 
+/** Which jobs a hand-over's entries were recorded on, and how many each (migration 200). */
+interface OutboxHandoverJobsTable {
+  handover_id: string;
+  work_order_id: string;
+  shop_id: string;
+  entry_count: number;
+}
+
+/** The office's written settlement of a hand-over's entries on one job: it closes that open item (migration 200). */
+interface OutboxHandoverSettlementsTable {
+  id: Generated<string>;
+  handover_id: string;
+  work_order_id: string;
+  shop_id: string;
+  note: string;
+  settled_by: string;
+  settled_at: DefaultTimestamp;
+}
+
 export interface SessionTables {
   sessions: SessionsTable;
   sign_in_waits_cleared: SignInWaitsClearedTable;
   outbox_handovers: OutboxHandoversTable;
+  outbox_handover_jobs: OutboxHandoverJobsTable;
+  outbox_handover_settlements: OutboxHandoverSettlementsTable;
 }

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { safeText } from "@/lib/safe-values";
 import { DEVICE_ID_PATTERN } from "@/lib/sync/hlc";
 import { SYNC_LIMITS } from "@/lib/sync/operations";
 
@@ -34,3 +35,17 @@ export const outboxHandoverSchema = z
   })
   .strict();
 export type OutboxHandover = z.output<typeof outboxHandoverSchema>;
+
+/** The office settling a hand-over's entries on one job: what was re-entered on the record, or why nothing needs to be. */
+export const handoverSettlementSchema = z
+  .object({
+    workOrderId: z.uuid("Choose a job of this hand-over."),
+    note: safeText({
+      label: "Note",
+      max: 2000,
+      min: 10,
+      multiline: true,
+      tooShort: "Write at least 10 characters: what was re-entered on the record, or why nothing needs to be.",
+    }),
+  })
+  .strict();

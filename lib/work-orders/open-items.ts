@@ -11,7 +11,9 @@
  *   - a current reading out of tolerance with no written acceptance;
  *   - a flagged entry with no written acceptance (one received after the stage was approved
  *     included: it puts the stage back in the review queue).
- * A work order with no procedure pinned has one open item: there is no record to review.
+ * And, for the job as a whole: work a tablet handed over unsent when its session was ended
+ * (db/auth/outbox-handovers.ts), until the office settles it with a written note.
+ * A work order with no procedure pinned has one open item (and those): there is no record to review.
  */
 import { readingLabelOf } from "@/lib/review/stage-review";
 import { entryDetail, entryKindLabel, placeOfEntry, type FlaggedEntry, type PlaceLookup } from "@/lib/review/flagged-work";
@@ -25,6 +27,7 @@ export const OPEN_ITEM_KINDS = [
   "sign_off_not_decided",
   "reading_not_accepted",
   "flagged_not_accepted",
+  "handover_not_settled",
 ] as const;
 export type OpenItemKind = (typeof OPEN_ITEM_KINDS)[number];
 
@@ -40,6 +43,15 @@ export interface OpenItem {
   signOffId: string | null;
 }
 
+/** Work a tablet handed over unsent when its session was ended, on this job, not settled by the office yet. */
+export interface HandedOverWork {
+  handoverId: string;
+  entryCount: number;
+  /** Who recorded it (the session's person). */
+  by: string;
+  deviceId: string;
+}
+
 export interface OpenItemFacts {
   /** The work order's stages as the bench and the office see them (no tablet work on top). */
   stages: readonly StageView[];
@@ -50,11 +62,24 @@ export interface OpenItemFacts {
   lookup: PlaceLookup;
   /** Sign-off id → whether an approving decision stands on it (the latest decision on it is an approval). */
   approvedSignOffs: ReadonlySet<string>;
+  /** Hand-overs of unsent work on this job the office has not settled. */
+  handedOver?: readonly HandedOverWork[];
 }
 
 const stageKeyOf = (jobProcedureId: string, key: string) => `${jobProcedureId}|${key}`;
 
 export function openItems(f: OpenItemFacts): OpenItem[] {
+  const handedOver = (f.handedOver ?? []).map((h): OpenItem => ({
+    key: `handover_not_settled:${h.handoverId}`,
+    kind: "handover_not_settled",
+    stage: null,
+    step: null,
+    reason:
+      `${h.entryCount === 1 ? "1 entry" : `${h.entryCount} entries`} recorded by ${h.by} on tablet ${h.deviceId} ` +
+      `${h.entryCount === 1 ? "was" : "were"} handed over unsent when the session was ended: re-enter what belongs on the record, ` +
+      "then settle the hand-over with a note on the Sign-ins page.",
+    signOffId: null,
+  }));
   if (f.stages.length === 0) {
     return [
       {
@@ -65,6 +90,7 @@ export function openItems(f: OpenItemFacts): OpenItem[] {
         reason: "No procedure is pinned on this work order: there is no build record to review.",
         signOffId: null,
       },
+      ...handedOver,
     ];
   }
   const items: OpenItem[] = [];
@@ -154,7 +180,7 @@ export function openItems(f: OpenItemFacts): OpenItem[] {
     }
     items.push(...(flaggedByStage.get(stageKeyOf(stage.jobProcedureId, stage.key)) ?? []));
   }
-  return [...items, ...onNoStage];
+  return [...items, ...onNoStage, ...handedOver];
 }
 
 function stageOf(s: StageView): NonNullable<OpenItem["stage"]> {
@@ -169,6 +195,7 @@ const COUNT_WORDS: Record<OpenItemKind, [string, string]> = {
   sign_off_not_decided: ["sign-off not approved", "sign-offs not approved"],
   reading_not_accepted: ["reading out of tolerance not let stand", "readings out of tolerance not let stand"],
   flagged_not_accepted: ["flagged entry not accepted", "flagged entries not accepted"],
+  handover_not_settled: ["hand-over of unsent work not settled", "hand-overs of unsent work not settled"],
 };
 
 /** "3 steps not done, 1 sign-off not approved": the open items counted by kind, in the order of OPEN_ITEM_KINDS. */

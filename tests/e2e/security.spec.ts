@@ -153,17 +153,18 @@ test("the office ends a tablet's sessions: the tablet hands its unsent work over
   await expect
     .poll(async () => (await query("SELECT id FROM sessions WHERE device_id = $1 AND ended_at IS NULL", [deviceId])).length)
     .toBe(1);
-  // one entry of work not sent yet (the network was down), written as the bench writes it
+  // one entry of work not sent yet (the network was down), written as the bench writes it, on demo job #1071
   const entryId = crypto.randomUUID();
+  const [{ id: jobId }] = await query<{ id: string }>("SELECT id FROM work_orders WHERE number = 1071");
   await page.evaluate(
-    ({ name, entryId }) =>
+    ({ name, entryId, jobId }) =>
       new Promise<void>((resolve, reject) => {
         const open = indexedDB.open(name);
         open.onsuccess = () => {
           const tx = open.result.transaction("outbox", "readwrite");
           tx.objectStore("outbox").put({
             id: entryId,
-            workOrderId: "00000000-0000-4000-8000-000000000000",
+            workOrderId: jobId,
             stamp: "000000000000001-000000-tab-x",
             op: { kind: "step.completed", id: entryId },
             state: "waiting",
@@ -177,7 +178,7 @@ test("the office ends a tablet's sessions: the tablet hands its unsent work over
         };
         open.onerror = () => reject(open.error);
       }),
-    { name: `benchtag-bench-${userId}`, entryId },
+    { name: `benchtag-bench-${userId}`, entryId, jobId },
   );
   const old = await cookieHeader(tablet);
 
@@ -214,6 +215,27 @@ test("the office ends a tablet's sessions: the tablet hands its unsent work over
   const stranger = await request.newContext({ baseURL: APP, extraHTTPHeaders: fromOurPage });
   expect((await stranger.post("/api/bench/outbox-handover", { data: { deviceId, entries: [], photosLeft: [] } })).status()).toBe(401);
   await Promise.all([replay.dispose(), stranger.dispose(), tablet.close()]);
+
+  // The job it names keeps an open item until the office settles the hand-over with a note.
+  const openItems = async () =>
+    ((await (await office.request.get(`/api/office/work-orders/${jobId}`)).json()) as { openItems: Array<{ kind: string }> }).openItems;
+  expect((await openItems()).filter((i) => i.kind === "handover_not_settled")).toHaveLength(1);
+  await office.goto("/office/users");
+  const handover = office.getByTestId("handover").filter({ hasText: deviceId! });
+  const line = handover.getByTestId("handover-job").filter({ hasText: "Job #1071" });
+  await expect(line).toContainText("1 entry — ◷ not settled");
+  await line.getByRole("button", { name: "Settle the hand-over on job #1071" }).click();
+  const note = line.getByLabel("What was done with this work on job #1071?");
+  await note.fill("ok");
+  await line.getByRole("button", { name: "Settle it" }).click();
+  await expect(line.getByTestId(/^error-settle-/)).toHaveText(
+    "✖ Write at least 10 characters: what was re-entered on the record, or why nothing needs to be.",
+  );
+  await note.fill("Priya re-entered the step at the bench after signing in again.");
+  await line.getByRole("button", { name: "Settle it" }).click();
+  await expect(line).toContainText("✔ settled by Maren");
+  await expect(line).toContainText("“Priya re-entered the step at the bench after signing in again.”");
+  expect((await openItems()).filter((i) => i.kind === "handover_not_settled")).toEqual([]);
 });
 
 const BOUNDARY = "----benchtag-e2e";

@@ -1,6 +1,9 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
+import { POST as settleRoute } from "@/app/api/office/outbox-handovers/[id]/settlements/route";
 import { POST as moveRoute } from "@/app/api/office/work-orders/[id]/status/route";
+import { listOutboxHandovers, recordOutboxHandover } from "@/db/auth/outbox-handovers";
+import { startSession } from "@/db/auth/sessions";
 import { decideOnSignOff } from "@/db/review/decide";
 import { countReviewQueue } from "@/db/review/queue";
 import { loadOpenItems } from "@/db/records/open-items";
@@ -306,6 +309,82 @@ describe("the gates on ready and handed over (real PostgreSQL)", () => {
     expect(r.flagged.find((f) => f.id === withdraw.id)!.reason).toMatch(/had been flagged for the supervisor and not yet accepted/);
     const items = (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!;
     expect(items.filter((i) => i.kind === "flagged_not_accepted").map((i) => i.key)).toEqual([`flagged_not_accepted:${withdraw.id}`]);
+  });
+
+  it("work a tablet handed over when its session was ended holds the job's gates until the office settles it with a note", async () => {
+    const job = await closeOutJob(db);
+    const other = await closeOutJob(db);
+    await finishEverything(db, job);
+    const sessionId = await startSession(db, job.fx.users.mechanic, { address: "127.0.0.1", userAgent: "handover-gate" });
+    const entry = (workOrderId: unknown) => ({
+      id: randomUUID(),
+      workOrderId,
+      stamp: "x",
+      op: { kind: "step.completed" },
+      state: "queued",
+    });
+    const made = await recordOutboxHandover(db, {
+      shopId: job.fx.shopId,
+      userId: job.users.mech.id,
+      sessionId,
+      deviceId: "bay-3",
+      // two entries on this job; one on another shop's job, one naming none, one odd: they hold nothing
+      entries: [entry(job.workOrderId), entry(job.workOrderId.toUpperCase()), entry(other.workOrderId), entry(undefined), entry(42)],
+      photosLeft: [],
+    });
+    const reason =
+      "2 entries recorded by " +
+      job.fx.users.mechanic.name +
+      " on tablet bay-3 were handed over unsent when the session was ended: re-enter what belongs on the record, then settle the hand-over with a note on the Sign-ins page.";
+    expect(await loadOpenItems(db, job.fx.shopId, job.workOrderId)).toEqual([
+      { key: `handover_not_settled:${made.id}`, kind: "handover_not_settled", stage: null, step: null, reason, signOffId: null },
+    ]);
+    expect(await loadOpenItems(db, other.fx.shopId, other.workOrderId)).not.toContainEqual(
+      expect.objectContaining({ kind: "handover_not_settled" }),
+    );
+    const refused = await refusedMove(job);
+    expect(refused.message).toMatch(/\(1 hand-over of unsent work not settled\)/);
+    expect(refused.issues.map((i) => i.message)).toEqual([reason]);
+
+    const settle = (user: SessionUser, body: unknown, id = made.id) =>
+      settleRoute.handle(
+        appRequest(`/api/office/outbox-handovers/${id}/settlements`, {
+          method: "POST",
+          headers: { "content-type": "application/json" },
+          body: JSON.stringify(body),
+        }),
+        { user, db, params: { id } },
+      );
+    const short = await settle(job.users.office, { workOrderId: job.workOrderId, note: "done" });
+    expect(short.status).toBe(400);
+    expect((await short.json()).issues).toEqual([
+      { path: "note", message: "Write at least 10 characters: what was re-entered on the record, or why nothing needs to be." },
+    ]);
+    expect((await settle(job.users.office, { workOrderId: other.workOrderId, note: "Nothing of this job here." })).status).toBe(404);
+    const note = "Both steps re-entered by Tomas at the bench on 4 Dec; photos retaken.";
+    expect((await settle(job.users.office, { workOrderId: job.workOrderId, note })).status).toBe(201);
+    const again = await settle(job.users.office, { workOrderId: job.workOrderId, note });
+    expect(again.status).toBe(409);
+    expect((await again.json()).error).toMatch(/settled already/);
+
+    expect(await loadOpenItems(db, job.fx.shopId, job.workOrderId)).toEqual([]);
+    await moveWorkOrder(db, job.fx.shopId, job.users.office.id, job.workOrderId, "ready");
+    expect(await statusOf(job)).toBe("ready");
+    const [listed] = await listOutboxHandovers(db, job.fx.shopId);
+    expect(listed.jobs).toEqual([
+      expect.objectContaining({ workOrderId: job.workOrderId, entryCount: 2, note, settledBy: job.fx.users.office.name }),
+    ]);
+    const audit = await db
+      .selectFrom("audit_log")
+      .select(["outcome", "actor_id"])
+      .where("action", "=", "outbox.settled")
+      .where("work_order_id", "=", job.workOrderId)
+      .orderBy("id")
+      .execute();
+    expect(audit).toEqual([
+      { outcome: "accepted", actor_id: job.users.office.id },
+      { outcome: "refused", actor_id: job.users.office.id },
+    ]);
   });
 
   it("a job with no procedure pinned has nothing to review: the gate says so", async () => {

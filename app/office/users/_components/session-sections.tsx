@@ -4,6 +4,7 @@ import type { listOutboxHandovers } from "@/db/auth/outbox-handovers";
 import type { listOpenSessions } from "@/db/auth/sessions";
 import type { BucketKind } from "@/lib/auth/sign-in-throttle";
 import { PostButton } from "./post-button";
+import { SettleHandover } from "./settle-handover";
 
 type Sessions = Awaited<ReturnType<typeof listOpenSessions>>;
 type Handovers = Awaited<ReturnType<typeof listOutboxHandovers>>;
@@ -125,14 +126,35 @@ export function HandedOver({ handovers }: { handovers: Handovers }) {
   return (
     <section className="mt-8" data-testid="handovers">
       <h2 className="text-2xl font-bold">Work handed over by tablets</h2>
-      <ul className="mt-2 flex flex-col gap-2 text-lg">
+      <p className="mt-1 text-lg text-steel-700">
+        Work handed over is not on the job&apos;s record. Each job it names cannot be marked ready or handed over until you settle it:
+        re-enter what belongs on the record, then write what you did.
+      </p>
+      <ul className="mt-2 flex flex-col gap-4 text-lg">
         {handovers.map((h) => (
-          <li key={h.id}>
+          <li key={h.id} data-testid="handover">
             {formatDayTime(h.receivedAt)} — {h.userName} on <span className="font-mono">{h.deviceId}</span>: {h.entryCount} entries not sent
             —{" "}
             <a className="font-bold underline" href={`/api/office/outbox-handovers/${h.id}`}>
               download
             </a>
+            {h.jobs.length > 0 && (
+              <ul className="ml-6 mt-1 flex flex-col gap-2">
+                {h.jobs.map((j) => (
+                  <li key={j.workOrderId} data-testid="handover-job">
+                    Job #{j.number}: {j.entryCount === 1 ? "1 entry" : `${j.entryCount} entries`} —{" "}
+                    {j.settledAt ? (
+                      <span>
+                        ✔ settled by {j.settledBy} {formatDayTime(j.settledAt)}: “{j.note}”
+                      </span>
+                    ) : (
+                      <span className="font-bold">◷ not settled: the job&apos;s gates wait</span>
+                    )}
+                    {!j.settledAt && <SettleHandover handoverId={h.id} workOrderId={j.workOrderId} number={j.number} />}
+                  </li>
+                ))}
+              </ul>
+            )}
           </li>
         ))}
       </ul>
