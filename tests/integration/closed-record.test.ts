@@ -9,6 +9,7 @@ import { handOver } from "@/db/office/invoices";
 import { addPartFitted } from "@/db/office/parts";
 import { importDynoRun } from "@/db/records/dyno-import";
 import { loadOpenItems } from "@/db/records/open-items";
+import { loadSignOffReview } from "@/db/review/detail";
 import { countReviewQueue, pageReviewQueue } from "@/db/review/queue";
 import { addNote, assignMechanic, moveWorkOrder } from "@/db/shop/work-orders";
 import { queueQuerySchema } from "@/lib/review/list-queries";
@@ -59,12 +60,13 @@ async function handOverNow(job: CloseOutJob, reason = "Customer needs the bike b
   });
 }
 
-const decide = (job: CloseOutJob, signOffId: string, body: unknown, user: SessionUser = job.users.sup) =>
+/** A decision as the review screen sends it: with the record it showed (`seenUpTo`, read now). */
+const decide = async (job: CloseOutJob, signOffId: string, body: object, user: SessionUser = job.users.sup) =>
   decideRoute.handle(
     appRequest(`/api/review/sign-offs/${signOffId}/decisions`, {
       method: "POST",
       headers: { "content-type": "application/json" },
-      body: JSON.stringify(body),
+      body: JSON.stringify({ seenUpTo: (await loadSignOffReview(db, user, signOffId))!.seenUpTo, ...body }),
     }),
     { user, db, params: { id: signOffId } },
   );
