@@ -1,6 +1,13 @@
 import "server-only";
 import { createHash } from "node:crypto";
-import { acceptedBasis, handoverOf, insertReportRevision, reportRevision, withReportLock } from "@/db/records/report-revisions";
+import {
+  acceptedBasis,
+  handoverOf,
+  insertReportRevision,
+  lateEntriesAwaiting,
+  reportRevision,
+  withReportLock,
+} from "@/db/records/report-revisions";
 import type { Db } from "@/db/setup/client";
 import { Refusal } from "@/lib/errors";
 import { revisionChanges } from "@/lib/report/revision-changes";
@@ -51,7 +58,7 @@ export async function storeHandoverCopy(trx: Db, shopId: string, workOrderId: st
 /**
  * Brings a handed-over job's stored copies up to date: when an accepted change has come in since
  * the latest copy and the report now prints differently, a new revision is stored, listing what
- * changed. A job handed over before copies were kept gets its revision 1 now. Returns the new
+ * changed; not while entries received after the handover wait for the supervisor's acceptance. A job handed over before copies were kept gets its revision 1 now. Returns the new
  * revision's number, or null when nothing was stored. Safe to call from anywhere, any number of
  * times (one copy is made at a time per job).
  */
@@ -66,6 +73,10 @@ export async function reviseStoredReport(db: Db, shopId: string, workOrderId: st
       return (await storeCopy(trx, { shopId, workOrderId, revision: 1, handedOverAt, changes: [note], madeBy })).revision;
     }
     if (latest.basis === (await acceptedBasis(trx, workOrderId))) return null;
+    // A revision prints the record as accepted: while work received after the handover waits for
+    // the supervisor, it would print that work as the record, so the revision waits with it (the
+    // acceptance is itself an accepted change: the revision is made then, with every change since).
+    if ((await lateEntriesAwaiting(trx, workOrderId, new Date(handedOverAt))) > 0) return null;
     const changes = revisionChanges(latest.lines, (await currentReportLines(trx, shopId, workOrderId)) ?? []);
     if (changes.length === 0) return null;
     return (await storeCopy(trx, { shopId, workOrderId, revision: latest.revision + 1, handedOverAt, changes, madeBy })).revision;

@@ -97,6 +97,28 @@ export async function acceptedBasis(db: Db, workOrderId: string): Promise<string
   return `decisions ${b.decisions} up to ${b.last_decision ?? "none"}; withdrawn runs ${b.withdrawn}`;
 }
 
+/**
+ * Entries of the job received after `since` (its handover) that were flagged and that no supervisor
+ * has accepted yet (a withdrawn one no longer counts; its withdrawal does): work a revision of the
+ * report must not print as the record. Every bench entry on a closed job is flagged.
+ */
+export async function lateEntriesAwaiting(db: Db, workOrderId: string, since: Date): Promise<number> {
+  const r = await db
+    .selectFrom("operations as o")
+    .select((eb) => eb.fn.countAll<string>().as("n"))
+    .where("o.work_order_id", "=", workOrderId)
+    .where("o.flagged", "=", true)
+    .where("o.received_at", ">", since)
+    .where(({ not, exists, selectFrom }) =>
+      not(exists(selectFrom("flag_acceptances as a").select("a.id").whereRef("a.operation_id", "=", "o.id"))),
+    )
+    .where(({ not, exists, selectFrom }) =>
+      not(exists(selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "o.id"))),
+    )
+    .executeTakeFirstOrThrow();
+  return Number(r.n);
+}
+
 /** The work order's status and when it was handed over (its last move to handed over), for the shop. */
 export async function handoverOf(db: Db, shopId: string, workOrderId: string) {
   return db

@@ -225,6 +225,80 @@ describe("the frozen report (real PostgreSQL, s3rver)", () => {
   });
 });
 
+describe("a revision prints the record as accepted (real PostgreSQL)", () => {
+  it("while late work on one stage waits for the supervisor, accepting late work on another makes no revision; accepting the rest makes it, with both", async () => {
+    const job = await closeOutJob(db);
+    const [checkSignOff, closeSignOff] = await finishEverything(db, job);
+    await handOverNow(job);
+    const revisions = async () =>
+      (
+        await db
+          .selectFrom("report_revisions")
+          .select("revision")
+          .where("work_order_id", "=", job.workOrderId)
+          .orderBy("revision")
+          .execute()
+      ).map((r) => r.revision);
+    expect(await revisions()).toEqual([1]);
+
+    // after handover: a correction of the left gap on the check stage, and the seal step done again on the close stage
+    const left = await db
+      .selectFrom("current_measurements")
+      .select("id")
+      .where("work_order_id", "=", job.workOrderId)
+      .where("reading_index", "=", 0)
+      .executeTakeFirstOrThrow();
+    const fix = job.tablet.read(job.steps["measure-gap"], job.specId, 0, 0.19, { supersedesId: left.id });
+    const reseal = job.tablet.complete(job.steps.seal);
+    expect((await sync(db, job.users.mech, job.tablet, [fix, reseal])).flagged.map((f) => f.id).sort()).toEqual([fix.id, reseal.id].sort());
+
+    // the supervisor accepts the reseal only: an accepted change, but the correction still waits, so no revision
+    const standing = async (signOffId: string) =>
+      (
+        await db
+          .selectFrom("review_decisions")
+          .select("id")
+          .where("sign_off_id", "=", signOffId)
+          .orderBy("change_seq", "desc")
+          .executeTakeFirstOrThrow()
+      ).id;
+    const closeOk = await decide(job, closeSignOff, {
+      decision: "approved",
+      expectedDecisionId: await standing(closeSignOff),
+      flagAcceptances: [{ operationId: reseal.id, justification: "Seal checked again after the customer asked; fine" }],
+    });
+    expect(closeOk.status).toBe(201);
+    expect((await closeOk.json()).reportRevision).toBeNull();
+    await download(job, customer(job));
+    expect(await revisions()).toEqual([1]);
+    const served = await download(job, customer(job));
+    expect(served.res.headers.get("x-report-revision")).toBe("1");
+    expect(await pdfText(served.bytes)).not.toContain("0.19");
+
+    // the correction accepted too: revision 2, with both changes and the corrected gap
+    const checkOk = await decide(job, checkSignOff, {
+      decision: "approved",
+      expectedDecisionId: await standing(checkSignOff),
+      flagAcceptances: [{ operationId: fix.id, justification: "Remeasured with the new feeler set; 0.19 mm is right" }],
+    });
+    expect(checkOk.status).toBe(201);
+    expect((await checkOk.json()).reportRevision).toBe(2);
+    const rev2 = await db
+      .selectFrom("report_revisions")
+      .select("changes")
+      .where("work_order_id", "=", job.workOrderId)
+      .where("revision", "=", 2)
+      .executeTakeFirstOrThrow();
+    expect(rev2.changes).toEqual(
+      expect.arrayContaining([
+        expect.stringMatching(/^Changed: Measurements: Cover gap, Left: 0\.15 mm .* → 0\.19 mm/),
+        expect.stringMatching(/^Added: Flagged entries: Step done.*Seal and label.*Seal checked again/),
+      ]),
+    );
+    expect(await revisions()).toEqual([1, 2]);
+  });
+});
+
 describe("a closed record stays closed (real PostgreSQL)", () => {
   const run = (label: string) => ({
     label,
