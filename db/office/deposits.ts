@@ -47,11 +47,14 @@ export async function openDeposit(db: Kysely<Database>, user: { id: string; shop
       );
     if (q.status !== "approved") throw new Refusal("Approve the quote before paying the deposit.", 409);
     if (q.depositMinor <= 0) throw new Refusal("No deposit is asked for this quote.", 409);
+    // a paid one first: a card that failed and went through later may have paid while a new try waits
     const existing = await trx
       .selectFrom("deposits")
       .selectAll()
       .where("quote_id", "=", quoteId)
       .where("status", "in", ["pending", "paid"])
+      .orderBy(sql`status = 'paid'`, "desc")
+      .orderBy("created_at", "desc")
       .executeTakeFirst();
     if (existing?.status === "paid") throw new Refusal("The deposit is already paid.", 409);
     const deposit =
@@ -155,6 +158,23 @@ async function payableOf(trx: Transaction<Database>, paymentIntentId: string, na
     if (b) return { paymentFor: "balance", ...b, amount_minor: Number(b.amount_minor) };
   }
   return null;
+}
+
+/**
+ * Another deposit of the same quote is paid. The quote is locked first, so of two payments of one
+ * quote confirmed at once, the second sees the first.
+ */
+async function quoteDepositPaidOtherwise(trx: Transaction<Database>, depositId: string): Promise<boolean> {
+  const me = await trx.selectFrom("deposits").select("quote_id").where("id", "=", depositId).executeTakeFirstOrThrow();
+  await trx.selectFrom("quotes").select("id").where("id", "=", me.quote_id).forUpdate().execute();
+  const other = await trx
+    .selectFrom("deposits")
+    .select("id")
+    .where("quote_id", "=", me.quote_id)
+    .where("id", "!=", depositId)
+    .where("status", "=", "paid")
+    .executeTakeFirst();
+  return other !== undefined;
 }
 
 /** Another payment of the same bill is paid or under way (the bill holds one open payment at a time). */
@@ -303,6 +323,18 @@ export async function applyPaymentEvent(
         "taken after the bill was paid by another payment: to be given back",
       );
       return { kind: "ignored", reason: "the bill is paid already by another payment" } as const;
+    }
+    if (dep.paymentFor === "deposit" && dep.status !== "paid" && (await quoteDepositPaidOtherwise(trx, dep.id))) {
+      // a card that failed and went through later, when the deposit had been paid by a new try (or
+      // the other way round): the quote keeps one paid deposit, so the job and the bill count it
+      // once; this one is answered and left on the audit log for the money to be given back
+      await audit(
+        "paid",
+        "refused",
+        { eventId: event.id, paymentIntentId: event.paymentIntentId },
+        "taken after the deposit was paid by another payment: to be given back",
+      );
+      return { kind: "ignored", reason: "the deposit is paid already by another payment" } as const;
     }
     const newlyPaid = dep.status !== "paid";
     if (newlyPaid) {

@@ -442,3 +442,67 @@ describe("a deposit confirmed after its job was closed", () => {
     expect(mail.body).not.toContain("Work can start");
   });
 });
+
+describe("a card that failed and went through later, beside a new try", () => {
+  const post = (body: string) => handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
+  const failedEvent = (pi: string) =>
+    JSON.stringify({
+      id: `evt_test_${Math.random().toString(36).slice(2)}`,
+      object: "event",
+      type: "payment_intent.payment_failed",
+      created: Math.floor(Date.now() / 1000),
+      data: { object: { id: pi, object: "payment_intent", amount: 5000, currency: "gbp", status: "requires_payment_method" } },
+    });
+  const statuses = async (quoteId: string) =>
+    (await db.selectFrom("deposits").select(["id", "status"]).where("quote_id", "=", quoteId).orderBy("created_at").execute()).map(
+      (d) => d.status,
+    );
+  const givenBack = async (depositId: string) =>
+    db
+      .selectFrom("audit_log")
+      .select(["outcome", "reason"])
+      .where("entity_id", "=", depositId)
+      .where("action", "=", "deposit.paid")
+      .execute();
+  const tryAgain = async (cust: Parameters<typeof openDeposit>[1], quoteId: string) => {
+    const pi = `pi_retry_${Math.random().toString(36).slice(2)}`;
+    const { deposit } = await openDeposit(db, cust, quoteId);
+    await attachPaymentIntent(db, deposit.id, pi);
+    return { pi, deposit };
+  };
+
+  it("the new try paid first: the late success is answered, not counted, and left on the audit log to be given back", async () => {
+    const first = `pi_first_${Math.random().toString(36).slice(2)}`;
+    const { deposit, quoteId, cust } = await workOrderWithPendingDeposit(first);
+    expect((await post(failedEvent(first))).body.outcome).toMatch(/failed/);
+    const retry = await tryAgain(cust, quoteId);
+    expect(retry.deposit.id).not.toBe(deposit.id);
+    expect((await post(succeededEvent(retry.pi))).body.outcome).toBe("deposit paid");
+
+    const late = await post(succeededEvent(first));
+    expect([late.status, late.body.outcome]).toEqual([200, "ignored: the deposit is paid already by another payment"]);
+    expect(await statuses(quoteId)).toEqual(["failed", "paid"]);
+    expect(await givenBack(deposit.id)).toEqual([
+      { outcome: "refused", reason: "taken after the deposit was paid by another payment: to be given back" },
+    ]);
+    await expect(openDeposit(db, cust, quoteId)).rejects.toThrow("The deposit is already paid.");
+  });
+
+  it("the late success came first: it counts, a new payment is not offered, and the new try's success is the one given back", async () => {
+    const first = `pi_first_${Math.random().toString(36).slice(2)}`;
+    const { deposit, quoteId, cust } = await workOrderWithPendingDeposit(first);
+    expect((await post(failedEvent(first))).body.outcome).toMatch(/failed/);
+    const retry = await tryAgain(cust, quoteId);
+
+    expect((await post(succeededEvent(first))).body.outcome).toBe("deposit paid");
+    expect(await statuses(quoteId)).toEqual(["paid", "pending"]);
+    // the customer's page asks to pay again: the deposit is paid, whatever try is still open
+    await expect(openDeposit(db, cust, quoteId)).rejects.toThrow("The deposit is already paid.");
+    expect((await post(succeededEvent(retry.pi))).body.outcome).toBe("ignored: the deposit is paid already by another payment");
+    expect(await statuses(quoteId)).toEqual(["paid", "pending"]);
+    expect(await givenBack(retry.deposit.id)).toEqual([
+      { outcome: "refused", reason: "taken after the deposit was paid by another payment: to be given back" },
+    ]);
+    expect(await givenBack(deposit.id)).toEqual([{ outcome: "accepted", reason: null }]);
+  });
+});
