@@ -20,6 +20,8 @@ export interface StageOutOfTolerance {
   min: string;
   max: string;
   accepted: boolean;
+  /** Who recorded the reading (nobody lets their own reading stand). */
+  recordedBy: string;
 }
 
 /** The sign-off, its job and stage title, when it belongs to the shop; undefined otherwise. */
@@ -89,9 +91,10 @@ export async function stageOutOfTolerance(
     min: string;
     max: string;
     accepted: boolean;
+    recorded_by: string;
   }>`
     SELECT cm.id, cm.step_id, ts.title AS step_title, ms.label, ms.reading_labels, cm.reading_index, cm.value::text AS value,
-      cm.unit, cm.verdict, ms.min::text AS min, ms.max::text AS max,
+      cm.unit, cm.verdict, ms.min::text AS min, ms.max::text AS max, cm.recorded_by,
       EXISTS (SELECT 1 FROM reading_acceptances a WHERE a.measurement_id = cm.id) AS accepted
     FROM current_measurements cm
     JOIN template_steps ts ON ts.id = cm.step_id
@@ -111,6 +114,7 @@ export async function stageOutOfTolerance(
     min: x.min,
     max: x.max,
     accepted: x.accepted,
+    recordedBy: x.recorded_by,
   }));
 }
 
@@ -179,16 +183,6 @@ export async function stageFlaggedEntries(
     });
   }
   return out;
-}
-
-/** The job's place in the change sequence now: its newest operation's seq ("0" before any), as text. */
-export async function jobSeenUpTo(db: Db, workOrderId: string): Promise<string> {
-  const r = await db
-    .selectFrom("operations")
-    .select(sql<string>`coalesce(max(seq), 0)::text`.as("seq"))
-    .where("work_order_id", "=", workOrderId)
-    .executeTakeFirstOrThrow();
-  return r.seq;
 }
 
 /**

@@ -17,9 +17,9 @@ export interface DecisionFacts {
   latestDecisionId: string | null;
   stageSteps: ReadonlyArray<{ id: string; title: string }>;
   /** Current readings of the stage's steps that are out of tolerance. */
-  outOfTolerance: ReadonlyArray<{ readingId: string; description: string; accepted: boolean }>;
-  /** Flagged entries of the stage (and those on no stage of the job), with whether each is accepted. */
-  flagged: ReadonlyArray<{ operationId: string; description: string; accepted: boolean }>;
+  outOfTolerance: ReadonlyArray<{ readingId: string; description: string; accepted: boolean; recordedBy?: string }>;
+  /** Flagged entries of the stage (and those on no stage of the job), with whether each is accepted, and who recorded each. */
+  flagged: ReadonlyArray<{ operationId: string; description: string; accepted: boolean; authorId?: string }>;
   /** Work on the stage received after the record the supervisor's screen showed (`seenUpTo`), described. */
   arrivedSinceSeen?: ReadonlyArray<string>;
 }
@@ -74,6 +74,11 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
     else if (o.accepted) issues.push({ path: `acceptances.${i}.readingId`, message: `${o.description} was already accepted.` });
     else if (acceptedNow.has(a.readingId))
       issues.push({ path: `acceptances.${i}.readingId`, message: `${o.description} is listed twice.` });
+    else if (o.recordedBy === f.actor.id)
+      issues.push({
+        path: `acceptances.${i}.readingId`,
+        message: `You recorded ${o.description} yourself: another supervisor or the office must let it stand.`,
+      });
     acceptedNow.add(a.readingId);
   });
 
@@ -85,6 +90,11 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
     else if (x.accepted) issues.push({ path: `flagAcceptances.${i}.operationId`, message: `${x.description} was already accepted.` });
     else if (flagAcceptedNow.has(a.operationId))
       issues.push({ path: `flagAcceptances.${i}.operationId`, message: `${x.description} is listed twice.` });
+    else if (x.authorId === f.actor.id)
+      issues.push({
+        path: `flagAcceptances.${i}.operationId`,
+        message: `You recorded ${x.description} yourself: another supervisor or the office must accept it.`,
+      });
     flagAcceptedNow.add(a.operationId);
   });
 

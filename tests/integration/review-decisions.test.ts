@@ -303,6 +303,45 @@ describe("review decisions on synced sign-offs", () => {
     expect(office).toMatchObject({ ok: true });
   });
 
+  it("a supervisor who recorded a reading out of tolerance on the stage may not let it stand; the office may", async () => {
+    const { fx, specs, stepIds, users, stage } = await reviewSetup(db);
+    const tablet = new Tablet("bay-1", users.mech.id, fx.workOrderId);
+    // the supervisor reads cylinder 2's ring gap on their own tablet (0.5 mm: out of tolerance); the mechanic does the rest and signs off
+    const ringGap = Object.values(specs).find((s) => s.key === "top-ring-gap")!;
+    const lead = new Tablet("lead-tab", users.sup.id, fx.workOrderId);
+    const supReading = lead.read(ringGap.stepId, ringGap.id, 1, 0.5);
+    await sync(db, users.sup, lead, [supReading]);
+    const { ops, signOff } = measureStageWork(tablet, specs, stepIds, stage);
+    await sync(
+      db,
+      users.mech,
+      tablet,
+      ops.filter((o) => !(o.kind === "measurement.recorded" && o.payload.specId === ringGap.id && o.payload.readingIndex === 1)),
+    );
+    const review = await loadSignOffReview(db, users.sup, signOff.id);
+    expect(review?.outOfTolerance.map((o) => o.readingId)).toEqual([supReading.id]);
+    const letStand = decisionInputSchema.parse({
+      decision: "approved",
+      expectedDecisionId: null,
+      acceptances: [{ readingId: supReading.id, justification: "Ring maker allows 0.50 mm for this bore size" }],
+    });
+    const own = await decideOnSignOff(db, users.sup, signOff.id, letStand);
+    expect(own).toMatchObject({
+      ok: false,
+      status: 422,
+      issues: [
+        {
+          path: "acceptances.0.readingId",
+          message: expect.stringMatching(
+            /^You recorded Top ring gap, Cyl 2: 0\.5 mm .* yourself: another supervisor or the office must let it stand\.$/,
+          ),
+        },
+      ],
+    });
+    expect(await db.selectFrom("reading_acceptances").select("id").where("measurement_id", "=", supReading.id).execute()).toEqual([]);
+    expect(await decideOnSignOff(db, users.office, signOff.id, letStand)).toMatchObject({ ok: true, decision: "approved" });
+  });
+
   it("mechanics and customers may not decide (403), another shop gets 404, and a stale view cannot overwrite a decision (409)", async () => {
     const { fx, specs, stepIds, users, stage } = await reviewSetup(db);
     const other = await reviewSetup(db);

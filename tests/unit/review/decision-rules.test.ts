@@ -5,6 +5,7 @@ import { checkDecision, type DecisionFacts } from "@/lib/review/decision-rules";
 const ids = {
   sup: "00000000-0000-4000-8000-000000000001",
   mech: "00000000-0000-4000-8000-000000000002",
+  mech2: "00000000-0000-4000-8000-000000000003",
   so: "00000000-0000-4000-8000-0000000000a1",
   s1: "00000000-0000-4000-8000-0000000000b1",
   s2: "00000000-0000-4000-8000-0000000000b2",
@@ -74,6 +75,46 @@ describe("checkDecision", () => {
       });
       expect(checkDecision(facts({ arrivedSinceSeen: [] }), decision)).toMatchObject({ ok: true });
     }
+  });
+
+  it("nobody lets their own work stand: a reading or a flagged entry the deciding supervisor recorded needs another's acceptance", () => {
+    const mine = facts({
+      outOfTolerance: [{ readingId: ids.r1, description: "Top ring gap, Cyl 2: 0.5 mm (high)", accepted: false, recordedBy: ids.sup }],
+      flagged: [{ operationId: ids.d1, description: "Torque bolt (bolt 3)", accepted: false, authorId: ids.sup }],
+    });
+    const r = checkDecision(
+      mine,
+      input({
+        decision: "approved",
+        expectedDecisionId: null,
+        acceptances: [{ readingId: ids.r1, justification: why }],
+        flagAcceptances: [{ operationId: ids.d1, justification: "Bolt re-torqued with the second wrench" }],
+      }),
+    );
+    expect(r).toMatchObject({ ok: false, status: 422 });
+    expect(r.ok ? [] : r.issues).toEqual([
+      {
+        path: "acceptances.0.readingId",
+        message: "You recorded Top ring gap, Cyl 2: 0.5 mm (high) yourself: another supervisor or the office must let it stand.",
+      },
+      {
+        path: "flagAcceptances.0.operationId",
+        message: "You recorded Torque bolt (bolt 3) yourself: another supervisor or the office must accept it.",
+      },
+    ]);
+    // another supervisor may; and sending the step back stays open to the one who recorded it
+    expect(
+      checkDecision(
+        { ...mine, actor: { id: ids.mech2, role: "supervisor" } },
+        input({
+          decision: "approved",
+          expectedDecisionId: null,
+          acceptances: [{ readingId: ids.r1, justification: why }],
+          flagAcceptances: [{ operationId: ids.d1, justification: "Bolt re-torqued with the second wrench" }],
+        }),
+      ),
+    ).toEqual({ ok: true, reopenStepIds: [] });
+    expect(checkDecision(mine, sendBack([ids.s2]))).toEqual({ ok: true, reopenStepIds: [ids.s2] });
   });
 
   it("approves only when every reading out of tolerance is let stand with a reason", () => {
