@@ -78,6 +78,11 @@ export async function handlePaymentWebhook(
   if (outcome.kind === "failed") return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} payment failed` } };
   if (outcome.kind === "refunded")
     return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} ${outcome.whole ? "refunded" : "partly refunded"}` } };
+  if (outcome.kind === "given-back")
+    return {
+      status: 200,
+      body: { received: true, outcome: `${outcome.paymentFor} ${outcome.whole ? "given back" : "partly given back"}` },
+    };
   // One receipt e-mail per payment: only the event that paid it sends one; a later, different
   // event about the same payment (a second succeeded event, a resend under a new id) does not.
   if (!outcome.newlyPaid) return { status: 200, body: { received: true, outcome: `${outcome.paymentFor} already paid` } };

@@ -8,12 +8,20 @@ import { LateJobs } from "./_components/late-jobs";
 import { UnansweredMessages } from "./_components/unanswered-messages";
 import { unansweredThreads } from "@/db/customer-contact/messages";
 import { WorkOrdersTable } from "./_components/work-orders-table";
+import { MoneyToGiveBack } from "./_components/money-to-give-back";
+import { openGiveBacks } from "@/db/office/give-backs";
+import { shopTimeZone } from "@/db/shop/settings";
 
 export const metadata: Metadata = { title: "Work orders" };
 
 export default async function OfficePage() {
   const user = await requirePageArea("office");
-  const [late, unanswered] = await Promise.all([listLateJobs(db(), user.shopId), unansweredThreads(db(), user.shopId)]);
+  const [late, unanswered, giveBacks, timeZone] = await Promise.all([
+    listLateJobs(db(), user.shopId),
+    unansweredThreads(db(), user.shopId),
+    openGiveBacks(db(), user.shopId),
+    shopTimeZone(db(), user.shopId),
+  ]);
   return (
     <AppFrame user={user} current="/office">
       <div className="flex flex-wrap items-center gap-4">
@@ -26,6 +34,7 @@ export default async function OfficePage() {
         </Link>
       </div>
       <UnansweredMessages threads={unanswered} />
+      <MoneyToGiveBack rows={giveBacks} timeZone={timeZone} />
       <LateJobs jobs={late} />
       <WorkOrdersTable />
     </AppFrame>

@@ -5,6 +5,7 @@ import { Refusal } from "@/lib/errors";
 import { isUuid } from "@/lib/ids";
 import { isClosed, STATUS_LABELS } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
+import { applyGivenBack, recordGiveBack } from "./give-backs";
 import type { Database } from "../schema";
 
 // Starts a deposit for the customer's approved quote: a pending row the payment provider's
@@ -101,6 +102,8 @@ type PaymentOutcome =
     }
   | { kind: "failed"; paymentFor: PaymentFor; paymentId: string }
   | { kind: "refunded"; paymentFor: PaymentFor; paymentId: string; refundedMinor: number; whole: boolean }
+  /** A refund of money taken to be given back (db/office/give-backs.ts), on a payment that does not count. */
+  | { kind: "given-back"; paymentFor: PaymentFor; paymentId: string; refundedMinor: number; whole: boolean }
   | { kind: "replayed" }
   | { kind: "ignored"; reason: string };
 
@@ -294,6 +297,17 @@ export async function applyPaymentEvent(
           detail,
         },
       ]);
+    const toGiveBack = (reason: string) =>
+      recordGiveBack(trx, {
+        shopId: dep.shop_id,
+        workOrderId: dep.work_order_id,
+        paymentFor: what,
+        paymentId: dep.id,
+        paymentIntentId: event.paymentIntentId!,
+        amountMinor: dep.amount_minor,
+        currency: dep.currency,
+        reason,
+      });
     if (event.type === "payment_intent.payment_failed") {
       // a declined card: it can be paid again (a new row and payment intent)
       if (dep.status === "pending") {
@@ -302,7 +316,21 @@ export async function applyPaymentEvent(
       }
       return { kind: "failed", paymentFor: what, paymentId: dep.id } as const;
     }
-    if (event.type === "charge.refunded") return applyRefund(trx, dep, event, audit);
+    if (event.type === "charge.refunded") {
+      // money taken to be given back: the refund is kept on its row; a payment that counts is refunded as well
+      const givenBack = await applyGivenBack(trx, event.paymentIntentId, {
+        amountRefunded: event.amountRefunded,
+        currency: event.currency,
+      });
+      if (givenBack && dep.status !== "paid") {
+        await audit(givenBack.whole ? "given-back" : "partly-given-back", "accepted", {
+          eventId: event.id,
+          refundedMinor: givenBack.givenBackMinor,
+        });
+        return { kind: "given-back", paymentFor: what, paymentId: dep.id, refundedMinor: givenBack.givenBackMinor, whole: givenBack.whole };
+      }
+      return applyRefund(trx, dep, event, audit);
+    }
     if (dep.status === "refunded") {
       // money given back stays given back: a late or resent success does not make it paid again
       await audit("paid", "refused", { eventId: event.id }, "the payment was refunded");
@@ -322,6 +350,7 @@ export async function applyPaymentEvent(
         { eventId: event.id, paymentIntentId: event.paymentIntentId },
         "taken after the bill was paid by another payment: to be given back",
       );
+      await toGiveBack("Taken after the bill was paid by another payment.");
       return { kind: "ignored", reason: "the bill is paid already by another payment" } as const;
     }
     if (dep.paymentFor === "deposit" && dep.status !== "paid" && (await quoteDepositPaidOtherwise(trx, dep.id))) {
@@ -334,6 +363,7 @@ export async function applyPaymentEvent(
         { eventId: event.id, paymentIntentId: event.paymentIntentId },
         "taken after the deposit was paid by another payment: to be given back",
       );
+      await toGiveBack("Taken after the deposit was paid by another payment.");
       return { kind: "ignored", reason: "the deposit is paid already by another payment" } as const;
     }
     const newlyPaid = dep.status !== "paid";
@@ -348,6 +378,7 @@ export async function applyPaymentEvent(
         { eventId: event.id, paymentIntentId: event.paymentIntentId, ...(closed ? { jobStatus: job.status } : {}) },
         closed ? `paid after the job was closed (${STATUS_LABELS[job.status].toLowerCase()}): to be given back` : undefined,
       );
+      if (closed) await toGiveBack(`Paid after the job was closed (${STATUS_LABELS[job.status].toLowerCase()}).`);
     }
     // newlyPaid: this event is the one that paid it (the row is locked, so of two events about one
     // payment arriving together exactly one sees it unpaid): only then is the customer e-mailed.

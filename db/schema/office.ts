@@ -61,6 +61,22 @@ interface DepositsTable {
   refunded_minor: Generated<number>;
 }
 
+/** Money the provider took that the shop must give back, until the provider reports the refund (migration 210). */
+interface MoneyToGiveBackTable {
+  id: Generated<string>;
+  shop_id: string;
+  work_order_id: string;
+  payment_for: "deposit" | "balance";
+  payment_id: string;
+  payment_intent_id: string;
+  amount_minor: number;
+  currency: string;
+  reason: string;
+  recorded_at: DefaultTimestamp;
+  given_back_minor: Generated<number>;
+  given_back_at: Timestamp | null;
+}
+
 interface PaymentEventsTable {
   event_id: string;
   type: string;
@@ -105,6 +121,7 @@ export interface OfficeTables {
   quote_lines: QuoteLinesTable;
   deposits: DepositsTable;
   payment_events: PaymentEventsTable;
+  money_to_give_back: MoneyToGiveBackTable;
   outbound_emails: OutboundEmailsTable;
   invoices: InvoicesTable;
 }

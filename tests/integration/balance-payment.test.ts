@@ -1,3 +1,4 @@
+import { openGiveBacks } from "@/db/office/give-backs";
 import Stripe from "stripe";
 import { beforeAll, describe, expect, it } from "vitest";
 import { handlePaymentWebhook } from "@/app/_server/payment-webhook";
@@ -118,6 +119,9 @@ describe("the balance of a bill through the signed webhook", () => {
       .where("action", "=", "balance.paid")
       .executeTakeFirstOrThrow();
     expect(audit).toEqual({ outcome: "refused", reason: "taken after the bill was paid by another payment: to be given back" });
+    expect((await openGiveBacks(db, fx.shopId)).filter((g) => g.paymentIntentId === pi1)).toEqual([
+      expect.objectContaining({ paymentFor: "balance", amountMinor: 84000, reason: "Taken after the bill was paid by another payment." }),
+    ]);
   });
 
   it("is not the business of another customer", async () => {

@@ -6,6 +6,7 @@ import { handlePaymentWebhook } from "@/app/_server/payment-webhook";
 import { paymentsClient, startDepositPayment } from "@/app/_server/payments";
 import { createBike } from "@/db/shop/bikes";
 import { applyPaymentEvent, attachPaymentIntent, openDeposit } from "@/db/office/deposits";
+import { openGiveBacks } from "@/db/office/give-backs";
 import { approveQuoteAsCustomer, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
 import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { createShopFixture } from "./support/shop-fixture";
@@ -349,25 +350,26 @@ describe("starting a payment", () => {
   });
 });
 
-describe("a refund made at the payment provider", () => {
-  const refundedEvent = (pi: string, amountRefunded: number, currency = "gbp") =>
-    JSON.stringify({
-      id: `evt_test_${Math.random().toString(36).slice(2)}`,
-      object: "event",
-      type: "charge.refunded",
-      created: Math.floor(Date.now() / 1000),
-      data: {
-        object: {
-          id: `ch_${Math.random().toString(36).slice(2)}`,
-          object: "charge",
-          payment_intent: pi,
-          amount: 5000,
-          amount_refunded: amountRefunded,
-          currency,
-          refunded: amountRefunded === 5000,
-        },
+const refundedEvent = (pi: string, amountRefunded: number, currency = "gbp") =>
+  JSON.stringify({
+    id: `evt_test_${Math.random().toString(36).slice(2)}`,
+    object: "event",
+    type: "charge.refunded",
+    created: Math.floor(Date.now() / 1000),
+    data: {
+      object: {
+        id: `ch_${Math.random().toString(36).slice(2)}`,
+        object: "charge",
+        payment_intent: pi,
+        amount: 5000,
+        amount_refunded: amountRefunded,
+        currency,
+        refunded: amountRefunded === 5000,
       },
-    });
+    },
+  });
+
+describe("a refund made at the payment provider", () => {
   const post = (body: string) => handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
   const row = async (id: string) =>
     db.selectFrom("deposits").select(["status", "refunded_minor"]).where("id", "=", id).executeTakeFirstOrThrow();
@@ -440,6 +442,21 @@ describe("a deposit confirmed after its job was closed", () => {
       .executeTakeFirstOrThrow();
     expect(mail.body).toContain("had already been closed (cancelled): no work starts on it. We will be in touch to give the deposit back.");
     expect(mail.body).not.toContain("Work can start");
+    // listed for the office until the provider reports the refund; then the deposit is refunded too
+    expect(await openGiveBacks(db, fx.shopId)).toEqual([
+      expect.objectContaining({
+        paymentIntentId: pi,
+        amountMinor: 5000,
+        givenBackMinor: 0,
+        reason: "Paid after the job was closed (cancelled).",
+      }),
+    ]);
+    const refund = refundedEvent(pi, 5000);
+    expect((await handlePaymentWebhook(db, refund, sign(refund), { secret: SECRET, sendMail: false })).body.outcome).toBe(
+      "deposit refunded",
+    );
+    expect(await depositStatus(deposit.id)).toBe("refunded");
+    expect(await openGiveBacks(db, fx.shopId)).toEqual([]);
   });
 });
 
@@ -473,7 +490,7 @@ describe("a card that failed and went through later, beside a new try", () => {
 
   it("the new try paid first: the late success is answered, not counted, and left on the audit log to be given back", async () => {
     const first = `pi_first_${Math.random().toString(36).slice(2)}`;
-    const { deposit, quoteId, cust } = await workOrderWithPendingDeposit(first);
+    const { fx, deposit, quoteId, cust } = await workOrderWithPendingDeposit(first);
     expect((await post(failedEvent(first))).body.outcome).toMatch(/failed/);
     const retry = await tryAgain(cust, quoteId);
     expect(retry.deposit.id).not.toBe(deposit.id);
@@ -486,6 +503,20 @@ describe("a card that failed and went through later, beside a new try", () => {
       { outcome: "refused", reason: "taken after the deposit was paid by another payment: to be given back" },
     ]);
     await expect(openDeposit(db, cust, quoteId)).rejects.toThrow("The deposit is already paid.");
+
+    // the office sees it to give back; a part refunded at the provider is kept, in full it leaves the list
+    expect(await openGiveBacks(db, fx.shopId)).toEqual([
+      expect.objectContaining({ paymentIntentId: first, paymentFor: "deposit", amountMinor: 5000, currency: "GBP", givenBackMinor: 0 }),
+    ]);
+    expect((await post(succeededEvent(first))).body.outcome).toMatch(/^ignored/); // resent: still one line
+    expect(await openGiveBacks(db, fx.shopId)).toHaveLength(1);
+    expect((await post(refundedEvent(first, 9000))).body.outcome).toMatch(/^ignored/); // more than was taken
+    expect((await post(refundedEvent(first, 2000))).body.outcome).toBe("deposit partly given back");
+    expect(await openGiveBacks(db, fx.shopId)).toEqual([expect.objectContaining({ givenBackMinor: 2000 })]);
+    expect((await post(refundedEvent(first, 5000))).body.outcome).toBe("deposit given back");
+    expect(await openGiveBacks(db, fx.shopId)).toEqual([]);
+    // the deposits as they were: the one that counts is still paid
+    expect(await statuses(quoteId)).toEqual(["failed", "paid"]);
   });
 
   it("the late success came first: it counts, a new payment is not offered, and the new try's success is the one given back", async () => {

@@ -1,0 +1,89 @@
+import "server-only";
+import type { Kysely, Transaction } from "kysely";
+import type { Database } from "../schema";
+
+// Money the payment provider took that the shop must give back (migration 210): written by the
+// payment webhook where it answers a payment it does not count, or counts one on a closed job;
+// listed for the office until the provider reports the refund. Benchtag records refunds; the
+// office makes them in the provider's dashboard.
+
+export interface GiveBack {
+  shopId: string;
+  workOrderId: string;
+  paymentFor: "deposit" | "balance";
+  paymentId: string;
+  paymentIntentId: string;
+  amountMinor: number;
+  currency: string;
+  reason: string;
+}
+
+/** Records money to give back (once per payment intent: a resent event adds nothing). */
+export async function recordGiveBack(trx: Transaction<Database>, g: GiveBack): Promise<void> {
+  await trx
+    .insertInto("money_to_give_back")
+    .values({
+      shop_id: g.shopId,
+      work_order_id: g.workOrderId,
+      payment_for: g.paymentFor,
+      payment_id: g.paymentId,
+      payment_intent_id: g.paymentIntentId,
+      amount_minor: g.amountMinor,
+      currency: g.currency,
+      reason: g.reason,
+    })
+    .onConflict((oc) => oc.column("payment_intent_id").doNothing())
+    .execute();
+}
+
+/**
+ * A refund the provider reports on a payment intent that has money to give back: how much went
+ * back in all is kept, and in full it is given back. Returns the row's state after, or null when
+ * the intent has none, or the refund does not fit it (another currency, more than was taken).
+ */
+export async function applyGivenBack(
+  trx: Transaction<Database>,
+  paymentIntentId: string,
+  refund: { amountRefunded: number | null | undefined; currency: string | null },
+): Promise<{ id: string; givenBackMinor: number; whole: boolean } | null> {
+  const row = await trx
+    .selectFrom("money_to_give_back")
+    .select(["id", "amount_minor", "currency", "given_back_at"])
+    .where("payment_intent_id", "=", paymentIntentId)
+    .forUpdate()
+    .executeTakeFirst();
+  const refunded = refund.amountRefunded;
+  if (!row || typeof refunded !== "number" || !Number.isInteger(refunded) || refunded <= 0 || refunded > row.amount_minor) return null;
+  if ((refund.currency ?? "").toUpperCase() !== row.currency.toUpperCase()) return null;
+  const whole = refunded === row.amount_minor;
+  await trx
+    .updateTable("money_to_give_back")
+    .set({ given_back_minor: refunded, given_back_at: whole ? (row.given_back_at ?? new Date()) : null })
+    .where("id", "=", row.id)
+    .execute();
+  return { id: row.id, givenBackMinor: refunded, whole };
+}
+
+/** The shop's money still to give back (not refunded in full yet), oldest first, with the job. */
+export async function openGiveBacks(db: Kysely<Database>, shopId: string) {
+  return db
+    .selectFrom("money_to_give_back as g")
+    .innerJoin("work_orders as w", "w.id", "g.work_order_id")
+    .select([
+      "g.id",
+      "g.work_order_id as workOrderId",
+      "w.number",
+      "g.payment_for as paymentFor",
+      "g.payment_intent_id as paymentIntentId",
+      "g.amount_minor as amountMinor",
+      "g.given_back_minor as givenBackMinor",
+      "g.currency",
+      "g.reason",
+      "g.recorded_at as recordedAt",
+    ])
+    .where("g.shop_id", "=", shopId)
+    .where("g.given_back_at", "is", null)
+    .orderBy("g.recorded_at")
+    .limit(200)
+    .execute();
+}
