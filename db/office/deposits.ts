@@ -404,6 +404,7 @@ export const DEPOSIT_COLUMNS = [
   "currency",
   "paid_at as paidAt",
   "payment_intent_id as paymentIntentId",
+  "refunded_minor as refundedMinor",
 ] as const;
 
 export async function depositForCustomer(db: Kysely<Database>, user: { shopId: string; customerId: string | null }, depositId: string) {

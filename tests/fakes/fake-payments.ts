@@ -2,6 +2,8 @@
 //   POST /v1/payment_intents            create (amount, currency, description, metadata[…]); Idempotency-Key honoured
 //   GET  /v1/payment_intents/:id        retrieve
 //   POST /v1/payment_intents/:id/confirm  with payment_method; "pm_card_chargeDeclined" fails, any other succeeds
+//   POST /v1/refunds                    payment_intent (succeeded), amount (default: what is left): charge.refunded
+//                                       (the shop's refund in the provider's dashboard)
 //   POST /v1/webhook_endpoints          register a URL to receive events (deduplicated by URL)
 //   GET  /v1/events                     events sent so far, newest first
 //   GET  /_fake/deliveries              every webhook delivery with the app's answer (for tests)
@@ -145,6 +147,29 @@ async function handle(req: http.IncomingMessage, res: http.ServerResponse) {
       setTimeout(() => void emit(pi.status === "succeeded" ? "payment_intent.succeeded" : "payment_intent.payment_failed", { ...pi }), 50);
       return;
     }
+  }
+  if (req.method === "POST" && url.pathname === "/v1/refunds") {
+    const pi = typeof body.payment_intent === "string" ? intents.get(body.payment_intent) : undefined;
+    if (!pi) return fail(res, 404, `No such payment_intent: '${String(body.payment_intent)}'`, "payment_intent");
+    if (pi.status !== "succeeded") return fail(res, 400, "This PaymentIntent has not succeeded: there is nothing to refund.");
+    const already = Number(pi.amount_refunded ?? 0);
+    const amount = body.amount === undefined ? Number(pi.amount) - already : Number(body.amount);
+    if (!Number.isInteger(amount) || amount < 1 || already + amount > Number(pi.amount))
+      return fail(res, 400, "amount must be a positive integer no more than what is left to refund", "amount");
+    pi.amount_refunded = already + amount;
+    const refund = { id: newId("re"), object: "refund", amount, currency: pi.currency, payment_intent: pi.id, status: "succeeded" };
+    remember(200, refund);
+    const charge = {
+      id: newId("ch"),
+      object: "charge",
+      payment_intent: pi.id,
+      amount: pi.amount,
+      amount_refunded: pi.amount_refunded,
+      currency: pi.currency,
+      refunded: pi.amount_refunded === pi.amount,
+    };
+    setTimeout(() => void emit("charge.refunded", charge), 50);
+    return;
   }
   if (req.method === "POST" && url.pathname === "/v1/webhook_endpoints") {
     if (typeof body.url !== "string" || !/^https?:\/\//.test(body.url)) return fail(res, 400, "url must be an http(s) address", "url");

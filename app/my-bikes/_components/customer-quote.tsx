@@ -15,7 +15,7 @@ const qty = (h: number) => (h % 100 === 0 ? String(h / 100) : (h / 100).toFixed(
 export function CustomerQuote({ quote }: { quote: CustomerQuoteView }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ error?: string; ok?: string }>({});
-  const open = quote.deposits.find((d) => d.status === "pending" || d.status === "paid");
+  const open = quote.deposits.find((d) => d.status === "paid") ?? quote.deposits.find((d) => d.status === "pending");
   const [depositId, setDepositId] = useState<string | null>(open?.id ?? null);
   const c = quote.currency;
 

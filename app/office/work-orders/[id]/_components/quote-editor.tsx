@@ -302,6 +302,9 @@ function QuoteLines({ q }: { q: Quote }) {
 function QuoteSummary({ q }: { q: Quote }) {
   const paid = q.deposits.filter((d) => d.status === "paid").reduce((a, d) => a + d.amountMinor, 0);
   const pending = q.deposits.some((d) => d.status === "pending");
+  // given back at the provider: in part on a paid deposit, or in full (the deposit no longer counts)
+  const refunded = q.deposits.filter((d) => d.status === "paid" || d.status === "refunded").reduce((a, d) => a + d.refundedMinor, 0);
+  const wholeRefund = paid === 0 && q.deposits.some((d) => d.status === "refunded");
   return (
     <li className="flex flex-wrap items-center gap-3 text-lg" data-testid="quote-version">
       <span className="font-bold">v{q.version}</span>
@@ -313,10 +316,12 @@ function QuoteSummary({ q }: { q: Quote }) {
           className={`rounded border-2 px-2 font-bold ${paid >= q.depositMinor ? "border-pass text-pass" : "border-warn text-warn"}`}
         >
           {paid >= q.depositMinor
-            ? `✔ Deposit ${formatMinor(paid, q.currency)} paid`
-            : pending
-              ? `… Deposit ${formatMinor(q.depositMinor, q.currency)} pending`
-              : `○ Deposit ${formatMinor(q.depositMinor, q.currency)} not paid`}
+            ? `✔ Deposit ${formatMinor(paid, q.currency)} paid${refunded > 0 ? `, ${formatMinor(refunded, q.currency)} of it refunded` : ""}`
+            : wholeRefund && !pending
+              ? `↩ Deposit ${formatMinor(refunded, q.currency)} refunded: not paid now`
+              : pending
+                ? `… Deposit ${formatMinor(q.depositMinor, q.currency)} pending`
+                : `○ Deposit ${formatMinor(q.depositMinor, q.currency)} not paid`}
         </span>
       )}
     </li>
