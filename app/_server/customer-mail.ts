@@ -127,8 +127,11 @@ async function overrideNotice(db: Db, shopId: string, workOrderId: string): Prom
     .join("");
 }
 
-/** The build report PDF is made when the e-mail is sent (attachment "handover_report"). */
-export async function mailBikeReady(db: Db, shopId: string, workOrderId: string) {
+/**
+ * "Ready to collect", with the build report stored when the job passed the gate attached
+ * (`reportKey`: storeReadyCopy, made in the move's own transaction).
+ */
+export async function mailBikeReady(db: Db, shopId: string, workOrderId: string, reportKey: string) {
   const moved = await latestTransitionTo(db, workOrderId, "ready");
   const notice = await overrideNotice(db, shopId, workOrderId);
   return queueForCustomer(db, shopId, workOrderId, (c) => ({
@@ -138,6 +141,6 @@ export async function mailBikeReady(db: Db, shopId: string, workOrderId: string)
     text: notice
       ? `Hello ${c.customerName},\n\nYour ${c.make} ${c.model} (${c.tagCode}) is ready to collect.\n\n${notice}The build report is attached.\n\n${c.shopName}`
       : `Hello ${c.customerName},\n\nThe work on your ${c.make} ${c.model} (${c.tagCode}) is done and the bike is ready to collect. The build report is attached.\n\n${c.shopName}`,
-    attachment: "handover_report",
+    attachment: { kind: "stored_report", key: reportKey },
   }));
 }

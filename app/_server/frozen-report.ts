@@ -50,6 +50,19 @@ async function storeCopy(
   return { revision: c.revision, sha256, byteSize: pdf.length };
 }
 
+/**
+ * The build report as the record stood when the job passed the gate to "ready": rendered inside the
+ * move's own transaction (under the shop's sync lock, where the gate read the record) and stored;
+ * the "ready to collect" e-mail attaches these bytes, whatever the bench sends before it goes out.
+ * Returns the object's key. A failed upload rolls the move back.
+ */
+export async function storeReadyCopy(trx: Db, shopId: string, workOrderId: string): Promise<string> {
+  const { pdf } = await renderBuildReport(trx, shopId, workOrderId);
+  const key = `reports/${shopId}/${workOrderId}/ready-${Date.now()}-${sha256Hex(pdf)}.pdf`;
+  await putObject(key, pdf, "application/pdf");
+  return key;
+}
+
 /** Stores revision 1, inside the handover's own transaction (after the move, so it prints "Handed over"). */
 export async function storeHandoverCopy(trx: Db, shopId: string, workOrderId: string, madeBy: string) {
   return storeCopy(trx, { shopId, workOrderId, revision: 1, handedOverAt: new Date(), changes: [], madeBy });

@@ -3,6 +3,7 @@ import nodemailer from "nodemailer";
 import { claimMail, finishMail, queueMails, type QueuedMail } from "@/db/mail/outbox";
 import { recordEmail } from "@/db/office/emails";
 import { bikeReadyAttachment } from "./bike-ready-attachment";
+import { getObject } from "./object-store";
 import { INVITATION_KIND, withInvitationLink } from "./invitation-link";
 import { officeConfig } from "./office-config";
 import { appBoss } from "./queue/boss";
@@ -47,12 +48,19 @@ export async function deliverQueuedMail(db: Db, mailId: string, final: boolean):
   const transport = nodemailer.createTransport(cfg.SMTP_URL);
   const log = { shopId: m.shopId, workOrderId: m.workOrderId, kind: m.kind, recipient: m.to, subject: m.subject };
   try {
+    // the report as stored when the job passed its gate; an e-mail queued before copies were stored makes it now
+    const report =
+      m.attachment === "stored_report" && m.attachmentKey
+        ? Buffer.from((await getObject(m.attachmentKey)).body)
+        : m.attachment === "handover_report" && m.workOrderId
+          ? await bikeReadyAttachment(db, m.shopId, m.workOrderId)
+          : null;
     const attachments =
-      m.attachment === "handover_report" && m.workOrderId
+      report && m.workOrderId
         ? [
             {
               filename: `work-order-${await workOrderNumber(db, m.workOrderId)}-handover.pdf`,
-              content: await bikeReadyAttachment(db, m.shopId, m.workOrderId),
+              content: report,
               contentType: "application/pdf",
             },
           ]

@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { Database } from "../schema";
+import type { MailAttachment } from "../schema/mail";
 
 // The e-mail outbox (table mail_outbox). A row is stored by the request that causes the e-mail;
 // a queue worker claims it, sends it and marks it. The claim is one UPDATE on the row, so two
@@ -17,7 +18,8 @@ export interface QueuedMail {
   to: string;
   subject: string;
   text: string;
-  attachment?: "handover_report" | null;
+  /** A stored PDF (`attachmentKey`, its object key) attached when sent. */
+  attachment?: { kind: "stored_report"; key: string } | null;
 }
 
 /** Stores the e-mails; answers the ids of those newly queued (one already queued for the cause is left as it is). */
@@ -34,7 +36,8 @@ export async function queueMails(db: Kysely<Database>, mails: QueuedMail[]): Pro
         recipient: m.to,
         subject: m.subject,
         body: m.text,
-        attachment: m.attachment ?? null,
+        attachment: m.attachment?.kind ?? null,
+        attachment_key: m.attachment?.key ?? null,
       })),
     )
     .onConflict((oc) => oc.constraint("mail_outbox_once").doNothing())
@@ -52,7 +55,8 @@ export interface ClaimedMail {
   to: string;
   subject: string;
   text: string;
-  attachment: "handover_report" | null;
+  attachment: MailAttachment | null;
+  attachmentKey: string | null;
   attempts: number;
 }
 
@@ -67,13 +71,14 @@ export async function claimMail(db: Kysely<Database>, id: string): Promise<Claim
     recipient: string;
     subject: string;
     body: string;
-    attachment: "handover_report" | null;
+    attachment: MailAttachment | null;
+    attachment_key: string | null;
     attempts: number;
   }>`
     UPDATE mail_outbox SET state = 'sending', attempts = attempts + 1, claimed_at = now()
     WHERE id = ${id}
       AND (state = 'queued' OR (state = 'sending' AND claimed_at < now() - make_interval(secs => ${CLAIM_STALE_MS / 1000})))
-    RETURNING id, shop_id, cause, work_order_id, kind, recipient, subject, body, attachment, attempts
+    RETURNING id, shop_id, cause, work_order_id, kind, recipient, subject, body, attachment, attachment_key, attempts
   `.execute(db);
   const m = r.rows[0];
   if (!m) return null;
@@ -87,6 +92,7 @@ export async function claimMail(db: Kysely<Database>, id: string): Promise<Claim
     subject: m.subject,
     text: m.body,
     attachment: m.attachment,
+    attachmentKey: m.attachment_key,
     attempts: m.attempts,
   };
 }

@@ -34,6 +34,7 @@ import * as m180 from "./2026_12_09_180_session_end_password_set";
 import * as m190 from "./2026_12_10_190_payment_refunds";
 import * as m200 from "./2026_12_11_200_handover_settlements";
 import * as m210 from "./2026_12_11_210_money_to_give_back";
+import * as m220 from "./2026_12_11_220_mail_stored_attachment";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -74,4 +75,5 @@ export const migrations: Record<string, Migration> = {
   "2026_12_10_190_payment_refunds": m190,
   "2026_12_11_200_handover_settlements": m200,
   "2026_12_11_210_money_to_give_back": m210,
+  "2026_12_11_220_mail_stored_attachment": m220,
 };

@@ -4,6 +4,7 @@ import type { DefaultTimestamp, Timestamp } from "./columns";
 // Table types for the e-mail outbox (migration 2026_12_04_060_mail_outbox).
 
 export type MailState = "queued" | "sending" | "sent" | "failed";
+export type MailAttachment = "handover_report" | "stored_report";
 
 interface MailOutboxTable {
   id: Generated<string>;
@@ -14,7 +15,9 @@ interface MailOutboxTable {
   recipient: string;
   subject: string;
   body: string;
-  attachment: "handover_report" | null;
+  /** 'handover_report': made when sent (e-mails queued before migration 220); 'stored_report': the stored PDF at `attachment_key`. */
+  attachment: MailAttachment | null;
+  attachment_key: string | null;
   state: Generated<MailState>;
   attempts: Generated<number>;
   last_error: string | null;

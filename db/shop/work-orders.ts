@@ -402,6 +402,30 @@ export async function moveWorkOrder(
   return { from: result.from, to, overrideId: result.overrideId };
 }
 
+/**
+ * A move and what must be made in its own transaction (the "ready" e-mail's copy of the report):
+ * both or neither. A refusal is audited after the transaction, as moveWorkOrder does on its own.
+ */
+export async function moveAndMake<R>(
+  db: Kysely<Database>,
+  shopId: string,
+  userId: string,
+  workOrderId: string,
+  to: WorkOrderStatus,
+  opts: { note?: string; override?: OverrideRequest | null },
+  make: (trx: Trx) => Promise<R>,
+): Promise<{ from: WorkOrderStatus; to: WorkOrderStatus; overrideId: string | null; made: R }> {
+  try {
+    return await db.transaction().execute(async (trx) => {
+      const moved = await moveWorkOrder(trx, shopId, userId, workOrderId, to, opts);
+      return { ...moved, made: await make(trx) };
+    });
+  } catch (e) {
+    if (e instanceof MoveRefusal) await appendAudit(db, e.audit);
+    throw e;
+  }
+}
+
 export async function assignMechanic(db: Kysely<Database>, shopId: string, userId: string, workOrderId: string, mechanicId: string | null) {
   if (mechanicId) {
     const m = await db

@@ -487,6 +487,18 @@ describe("the office's override (real PostgreSQL, through the route)", () => {
     expect(ready.text).toContain("Please note: your bike was released for collection with work on its record not finished or not checked");
     expect(ready.text).toContain(REASON);
     expect(ready.text).toContain("- Close up › Seal and label: Not done yet.");
+    // the build report attached is the copy stored in the move's own transaction
+    expect(ready.attachments?.map((a) => a.contentType)).toEqual(["application/pdf"]);
+    const queued = await db
+      .selectFrom("mail_outbox")
+      .select(["attachment", "attachment_key"])
+      .where("work_order_id", "=", job.workOrderId)
+      .where("kind", "=", "bike_ready")
+      .executeTakeFirstOrThrow();
+    expect(queued).toEqual({
+      attachment: "stored_report",
+      attachment_key: expect.stringMatching(new RegExp(`^reports/${job.fx.shopId}/${job.workOrderId}/ready-\\d+-[0-9a-f]{64}\\.pdf$`)),
+    });
 
     // a replay of the plain move to handed over: the override for "ready" is no permit for it
     const replay = await postMove(job, job.users.office, { to: "handed_over" });

@@ -1,3 +1,4 @@
+import { storeReadyCopy } from "@/app/_server/frozen-report";
 import { randomUUID } from "node:crypto";
 import { PDFParse } from "pdf-parse";
 import { beforeAll, describe, expect, it } from "vitest";
@@ -32,7 +33,7 @@ describe("customer e-mails through the queue and SMTP (maildev)", () => {
     expect(logged).toEqual([{ kind: "quote_ready", recipient: email, error: null }]);
   });
 
-  it("attaches the handover build report PDF to the bike-ready mail", async () => {
+  it("attaches the build report PDF stored when the job passed its gate to the bike-ready mail, not one made when it is sent", async () => {
     const fx = await createShopFixture(db);
     await db
       .insertInto("parts_fitted")
@@ -47,7 +48,21 @@ describe("customer e-mails through the queue and SMTP (maildev)", () => {
       })
       .execute();
     const { email } = await db.selectFrom("customers").select("email").where("id", "=", fx.customerId).executeTakeFirstOrThrow();
-    expect(await mailBikeReady(db, fx.shopId, fx.workOrderId)).toEqual({ ok: true, queued: true });
+    // stored as the record stands when the job passes its gate; a part recorded after that is not in the e-mail's copy
+    const key = await storeReadyCopy(db, fx.shopId, fx.workOrderId);
+    await db
+      .insertInto("parts_fitted")
+      .values({
+        shop_id: fx.shopId,
+        work_order_id: fx.workOrderId,
+        part_number: "LATE-99",
+        batch: "B-99",
+        step_id: null,
+        serial: null,
+        fitted_by: null,
+      })
+      .execute();
+    expect(await mailBikeReady(db, fx.shopId, fx.workOrderId, key)).toEqual({ ok: true, queued: true });
     const [m] = await mailTo(ports.mailWeb, email!);
     expect(m.attachments).toHaveLength(1);
     expect(m.attachments![0].contentType).toBe("application/pdf");
@@ -60,6 +75,17 @@ describe("customer e-mails through the queue and SMTP (maildev)", () => {
     expect(text).toContain("work order #1");
     expect(text).toContain("PST-76");
     expect(text).toContain("B-77");
+    expect(text).not.toContain("LATE-99");
+    const stored = Buffer.from((await getObject(key)).body);
+    expect(
+      Buffer.from(
+        await (
+          await fetch(
+            `http://127.0.0.1:${ports.mailWeb}/api/email/${m.id}/attachment/${m.attachments![0].generatedFileName ?? m.attachments![0].fileName}`,
+          )
+        ).arrayBuffer(),
+      ),
+    ).toEqual(stored);
   });
 });
 
