@@ -1,3 +1,4 @@
+import { EXTRA_WORK_CAUSE_PREFIX, EXTRA_WORK_KIND, EXTRA_WORK_LINK_PLACEHOLDER } from "./extra-work-link";
 import "server-only";
 import { emailContext, latestTransitionTo } from "@/db/office/emails";
 import { overridesOf } from "@/db/records/status-overrides";
@@ -101,14 +102,17 @@ export async function mailBalanceReceived(
   );
 }
 
-/** Extra work found on the bike: what it is, what it costs, and the one-time link to answer each line. */
-export async function mailExtraWork(db: Db, shopId: string, workOrderId: string, supplementId: string, token: string, totalMinor: number) {
+/**
+ * Extra work found on the bike: what it is, what it costs, and the one-time link to answer each
+ * line (made by the queue worker as it sends the e-mail: ./extra-work-link.ts).
+ */
+export async function mailExtraWork(db: Db, shopId: string, workOrderId: string, supplementId: string, totalMinor: number) {
   const base = officeConfig().NEXTAUTH_URL;
   return queueForCustomer(db, shopId, workOrderId, (c) => ({
-    kind: "extra_work",
-    cause: `supplement:${supplementId}`,
+    kind: EXTRA_WORK_KIND,
+    cause: `${EXTRA_WORK_CAUSE_PREFIX}${supplementId}`,
     subject: `Extra work found on your ${c.make} ${c.model} (work order ${c.number})`,
-    text: `Hello ${c.customerName},\n\nWhile working on your ${c.make} ${c.model} (${c.tagCode}) we found something that needs more work: ${formatMinor(totalMinor, c.currency)} before tax. Please approve or decline each line — nothing is done without your yes.\n\nAnswer here (this link works once, for ${ANSWER_LINK_DAYS} days): ${base}/extra-work/${token}\nOr sign in and answer on your page: ${base}/my-bikes\n\n${c.shopName}`,
+    text: `Hello ${c.customerName},\n\nWhile working on your ${c.make} ${c.model} (${c.tagCode}) we found something that needs more work: ${formatMinor(totalMinor, c.currency)} before tax. Please approve or decline each line — nothing is done without your yes.\n\nAnswer here (this link works once, for ${ANSWER_LINK_DAYS} days): ${EXTRA_WORK_LINK_PLACEHOLDER}\nOr sign in and answer on your page: ${base}/my-bikes\n\n${c.shopName}`,
   }));
 }
 

@@ -4,6 +4,7 @@ import { claimMail, finishMail, queueMails, type QueuedMail } from "@/db/mail/ou
 import { recordEmail } from "@/db/office/emails";
 import { bikeReadyAttachment } from "./bike-ready-attachment";
 import { getObject } from "./object-store";
+import { EXTRA_WORK_KIND, withExtraWorkLink } from "./extra-work-link";
 import { INVITATION_KIND, withInvitationLink } from "./invitation-link";
 import { officeConfig } from "./office-config";
 import { appBoss } from "./queue/boss";
@@ -65,7 +66,12 @@ export async function deliverQueuedMail(db: Db, mailId: string, final: boolean):
             },
           ]
         : undefined;
-    const text = m.kind === INVITATION_KIND ? await withInvitationLink(db, m.cause, m.text) : m.text;
+    const text =
+      m.kind === INVITATION_KIND
+        ? await withInvitationLink(db, m.cause, m.text)
+        : m.kind === EXTRA_WORK_KIND
+          ? await withExtraWorkLink(db, m.cause, m.text)
+          : m.text;
     const info = await transport.sendMail({ from: cfg.MAIL_FROM, to: m.to, subject: m.subject, text, attachments });
     await finishMail(db, m.id, { sent: true, messageId: info.messageId ?? null });
     await recordEmail(db, { ...log, messageId: info.messageId ?? null, error: null });

@@ -85,22 +85,39 @@ export async function writeSupplement(db: Kysely<Database>, shopId: string, user
         .insertInto("supplement_photos")
         .values([...new Set(s.photoIds)].map((a) => ({ supplement_id: sup.id, attachment_id: a })))
         .execute();
-    const token = randomBytes(32).toString("base64url");
-    await trx
-      .insertInto("supplement_links")
-      .values({
-        shop_id: shopId,
-        supplement_id: sup.id,
-        customer_id: wo.customerId,
-        token_sha256: tokenHash(token),
-        expires_at: new Date(Date.now() + ANSWER_LINK_DAYS * 86_400_000),
-      })
-      .execute();
     await appendAudit(trx, [
       { shopId, actorId: userId, action: "supplement.write", entity: "supplement", entityId: sup.id, workOrderId, outcome: "accepted" },
     ]);
-    return { supplementId: sup.id, number: sup.number, token };
+    return { supplementId: sup.id, number: sup.number };
   });
+}
+
+/**
+ * The one-time answer link of a supplement, made by the queue worker as it sends the e-mail (the
+ * outbox holds only a placeholder, never a working link): 32 random bytes, of which the database
+ * keeps the SHA-256; it works for ANSWER_LINK_DAYS from now, for the bike's owner. A send tried
+ * again makes a new link (the one of a send that failed was never delivered).
+ */
+export async function makeSupplementLink(db: Kysely<Database>, supplementId: string): Promise<string> {
+  const sup = await db
+    .selectFrom("supplements as s")
+    .innerJoin("work_orders as w", "w.id", "s.work_order_id")
+    .innerJoin("bikes as b", "b.id", "w.bike_id")
+    .select(["s.shop_id as shopId", "b.customer_id as customerId"])
+    .where("s.id", "=", supplementId)
+    .executeTakeFirstOrThrow();
+  const token = randomBytes(32).toString("base64url");
+  await db
+    .insertInto("supplement_links")
+    .values({
+      shop_id: sup.shopId,
+      supplement_id: supplementId,
+      customer_id: sup.customerId,
+      token_sha256: tokenHash(token),
+      expires_at: new Date(Date.now() + ANSWER_LINK_DAYS * 86_400_000),
+    })
+    .execute();
+  return token;
 }
 
 type Answerer = { userId: string; linkId: null } | { userId: null; linkId: string };

@@ -72,6 +72,13 @@ test("extra work round trip: written, one line declined and one approved, billed
     .map((m) => /\/extra-work\/([A-Za-z0-9_-]{43})/.exec(m.text ?? ""))
     .find((m) => m && onFile.has(createHash("sha256").update(m[1]).digest("hex")))?.[0];
   expect(link).toBeTruthy();
+  // the outbox never held a working link: the queue worker made it as it sent the e-mail
+  const outbox = await query<{ body: string }>(
+    "SELECT o.body FROM mail_outbox o JOIN work_orders w ON w.id = o.work_order_id WHERE o.kind = 'extra_work' AND w.number = 1073",
+  );
+  expect(outbox.length).toBeGreaterThan(0);
+  for (const o of outbox)
+    expect([o.body.includes("[[extra-work-link]]"), /\/extra-work\/[A-Za-z0-9_-]{43}/.test(o.body)]).toEqual([true, false]);
 
   // the customer, signed in, declines the part and approves the labour
   const customer = await (await browser.newContext({ viewport: { width: 768, height: 1024 } })).newPage();

@@ -2,7 +2,7 @@ import { sql } from "kysely";
 import { beforeAll, describe, expect, it } from "vitest";
 import { issueBill, issuedBillOf } from "@/db/office/final-bill";
 import { approveQuoteAsCustomer, declineQuoteAsCustomer, quoteWithLines, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
-import { answerAsCustomer, answerByLink, linkState, supplementsOf, writeSupplement } from "@/db/office/supplements";
+import { answerAsCustomer, answerByLink, linkState, makeSupplementLink, supplementsOf, writeSupplement } from "@/db/office/supplements";
 import { createBike } from "@/db/shop/bikes";
 import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { supplementSchema } from "@/lib/office/extra-work-schemas";
@@ -40,15 +40,18 @@ const TWO_LINES = {
   ],
 };
 
+/** Written by the office, and its link made as the queue worker makes it when it sends the e-mail. */
 async function written(jobId: string) {
   const w = await writeSupplement(db, fx.shopId, fx.users.office.id, jobId, TWO_LINES);
+  // nothing that answers is stored before the e-mail goes out
+  expect(await db.selectFrom("supplement_links").select("id").where("supplement_id", "=", w.supplementId).execute()).toEqual([]);
   const lines = await db
     .selectFrom("supplement_lines")
     .select("id")
     .where("supplement_id", "=", w.supplementId)
     .orderBy("position")
     .execute();
-  return { ...w, lineIds: lines.map((l) => l.id) };
+  return { ...w, token: await makeSupplementLink(db, w.supplementId), lineIds: lines.map((l) => l.id) };
 }
 const answers = (ids: string[]) => ({
   decisions: [

@@ -11,7 +11,7 @@ export const POST = route(
     const id = idParam(params.id);
     const written = await writeSupplement(db, user.shopId, user.id, id, body);
     const total = body.lines.reduce((s, l) => s + amountFor(l.quantityHundredths, l.unitPriceMinor), 0);
-    const mail = await mailExtraWork(db, user.shopId, id, written.supplementId, written.token, total);
+    const mail = await mailExtraWork(db, user.shopId, id, written.supplementId, total);
     return { supplementId: written.supplementId, number: written.number, mail };
   },
 );
