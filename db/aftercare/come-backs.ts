@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely, type Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { ComeBackFindingInput, OpenComeBackInput } from "@/lib/aftercare/come-backs";
@@ -300,7 +301,7 @@ export async function comeBacksByBatch(db: Kysely<Database>, shopId: string) {
       FROM parts_fitted p
       JOIN work_orders o ON o.id = p.work_order_id
       WHERE p.shop_id = ${shopId} AND p.batch IS NOT NULL
-        AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = p.operation_id)
+        AND ${notWithdrawn("p.operation_id")}
     )
     SELECT min(f.part_number) AS "partNumber", min(f.description) AS description, min(f.batch) AS batch,
       array_agg(DISTINCT w.number::text) FILTER (WHERE c.id IS NOT NULL) AS "comeBacks",

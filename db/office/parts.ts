@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "../records/withdrawn";
 import type { Kysely } from "kysely";
 import { partFittedSchema } from "@/lib/office/schemas";
 import { Refusal } from "@/lib/errors";
@@ -91,7 +92,7 @@ export async function bikesWithPart(
       .where("p.shop_id", "=", shopId)
       .where((eb) => eb(eb.fn("lower", [`p.${field}`]), "=", code.trim().toLowerCase()))
       // a fit withdrawn at the bench was recorded by mistake: the bike did not get the part
-      .where((eb) => eb.not(eb.exists(eb.selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "p.operation_id"))))
+      .where(notWithdrawn("p.operation_id"))
       .orderBy("b.tag_code")
       .orderBy("p.fitted_at")
       .execute()

@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "./withdrawn";
 import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
@@ -164,7 +165,7 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
             .whereRef("tr.torque_spec_id", "=", "ts.id")
             .where("tr.work_order_id", "=", workOrderId)
             // a withdrawn bolt does not count: it must be done again
-            .where(sql<boolean>`NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = tr.id)`)
+            .where(notWithdrawn("tr.id"))
             .as("recorded"),
         ])
         .where("ts.step_id", "in", stepIds)
@@ -182,9 +183,7 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
       "so.device_time as signedAt",
     ])
     .where("so.work_order_id", "=", workOrderId)
-    .where(({ not, exists, selectFrom }) =>
-      not(exists(selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "so.id"))),
-    )
+    .where(notWithdrawn("so.id"))
     .orderBy("so.device_time")
     .execute();
   const decisions = signOffs.length

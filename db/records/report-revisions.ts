@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "./withdrawn";
 import { sql, type Kysely, type Transaction } from "kysely";
 import type { Database } from "../schema";
 
@@ -112,9 +113,7 @@ export async function lateEntriesAwaiting(db: Db, workOrderId: string, since: Da
     .where(({ not, exists, selectFrom }) =>
       not(exists(selectFrom("flag_acceptances as a").select("a.id").whereRef("a.operation_id", "=", "o.id"))),
     )
-    .where(({ not, exists, selectFrom }) =>
-      not(exists(selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "o.id"))),
-    )
+    .where(notWithdrawn("o.id"))
     .executeTakeFirstOrThrow();
   return Number(r.n);
 }

@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely } from "kysely";
 import { idsNamedIn, placeOfEntry, type FlaggedEntry, type PlaceLookup, type StageRef } from "@/lib/review/flagged-work";
 import type { Database } from "../schema";
@@ -37,9 +38,7 @@ export async function flaggedEntriesOf(
     .where("o.shop_id", "=", shopId)
     .where("o.flagged", "=", true)
     // a withdrawn entry stops counting: it is listed with the withdrawn entries, with who and why
-    .where(({ not, exists, selectFrom }) =>
-      not(exists(selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "o.id"))),
-    );
+    .where(notWithdrawn("o.id"));
   if (workOrderIds !== "all") q = q.where("o.work_order_id", "in", workOrderIds);
   if (opts.onlyOpen) q = q.where("a.id", "is", null);
   const rows = await q.orderBy("o.seq").execute();

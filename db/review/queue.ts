@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely } from "kysely";
 import type { QueueQuery } from "@/lib/review/list-queries";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
@@ -65,7 +66,7 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
       JOIN work_orders w ON w.id = s.work_order_id
       WHERE w.shop_id = ${shopId}::uuid
         -- a withdrawn sign-off waits for nobody: the stage waits for a new one
-        AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = s.id)
+        AND ${notWithdrawn("s.id")}
       ORDER BY s.job_procedure_id, s.stage_key, o.seq DESC`;
   const flagged = openFlagStages
     .map((k) => [k.slice(0, k.indexOf("|")), k.slice(k.indexOf("|") + 1)])
@@ -82,7 +83,7 @@ function latest(shopId: string, openFlagStages: readonly string[], source: Queue
       CROSS JOIN LATERAL (
         SELECT s.id FROM sign_offs s JOIN operations o ON o.id = s.id
         WHERE s.job_procedure_id = f.job_procedure_id AND s.stage_key = f.stage_key
-          AND NOT EXISTS (SELECT 1 FROM withdrawals x WHERE x.operation_id = s.id)
+          AND ${notWithdrawn("s.id")}
         ORDER BY o.seq DESC LIMIT 1
       ) newest
       WHERE NOT EXISTS (SELECT 1 FROM review_waiting rw WHERE rw.job_procedure_id = f.job_procedure_id AND rw.stage_key = f.stage_key)`;

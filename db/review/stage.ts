@@ -1,4 +1,5 @@
 import "server-only";
+import { isWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { readingLabelOf } from "@/lib/review/stage-review";
 import { entryDetail, entryKindLabel, placeOfEntry, type FlaggedEntry } from "@/lib/review/flagged-work";
@@ -53,7 +54,7 @@ export async function signOffInShop(db: Db, shopId: string, signOffId: string) {
           .whereRef("ts.stage_key", "=", "s.stage_key")
           .limit(1)
           .as("stageTitle"),
-      (eb) => eb.exists(eb.selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "s.id")).as("withdrawn"),
+      isWithdrawn("s.id").as("withdrawn"),
     ])
     .where("s.id", "=", signOffId)
     .where("w.shop_id", "=", shopId)

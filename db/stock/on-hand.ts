@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely } from "kysely";
 import type { Database } from "../schema";
 import { outstandingReservations } from "./balances";
@@ -167,7 +168,7 @@ export async function stockShortfalls(db: Kysely<Database>, shopId: string): Pro
       .where("m.shop_id", "=", shopId)
       .where("m.short", ">", 0)
       // a fit withdrawn at the bench was a mistake: nothing was short
-      .where((eb) => eb.not(eb.exists(eb.selectFrom("withdrawals as x").select("x.id").whereRef("x.operation_id", "=", "p.operation_id"))))
+      .where(notWithdrawn("p.operation_id"))
       .orderBy("m.recorded_at", "desc")
       .limit(200)
       .execute()

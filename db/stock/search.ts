@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely } from "kysely";
 import { plainCode } from "@/lib/sync/parts";
 import type { Database } from "../schema";
@@ -49,11 +50,11 @@ export async function searchStockByCode(db: Kysely<Database>, shopId: string, co
       FROM parts_fitted p
       WHERE p.shop_id = ${shopId}::uuid
         AND ((p.batch IS NOT NULL AND lower(p.batch) = ${lower}) OR (p.serial IS NOT NULL AND lower(p.serial) = ${lower}))
-        AND NOT EXISTS (SELECT 1 FROM withdrawals w WHERE w.operation_id = p.operation_id)
+        AND ${notWithdrawn("p.operation_id")}
       UNION
       SELECT p.id, p.fitted_at, p.part_number, p.description, p.batch, p.serial, p.quantity, p.supplier, p.work_order_id
       FROM moves JOIN parts_fitted p ON p.id = moves.part_fitted_id
-      WHERE moves.kind = 'drawn' AND NOT EXISTS (SELECT 1 FROM withdrawals w WHERE w.operation_id = p.operation_id)
+      WHERE moves.kind = 'drawn' AND ${notWithdrawn("p.operation_id")}
     ),
     events AS (
       SELECT m.kind AS event, m.at, m.part_number, m.description, m.batch, m.serial, m.quantity, m.location, m.supplier, m.work_order_id

@@ -1,4 +1,5 @@
 import "server-only";
+import { notWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely, type Transaction } from "kysely";
 import type {
   HoldFacts,
@@ -223,8 +224,6 @@ export async function loadMergeState(db: Db, ops: readonly Operation[]): Promise
     }
   }
   const none = Promise.resolve([]);
-  const notWithdrawn = (column: "t.id" | "o.id") =>
-    sql<boolean>`NOT EXISTS (SELECT 1 FROM withdrawals w WHERE w.operation_id = ${sql.ref(column)})`;
   const stopJobIds = new Set(ops.filter((o) => o.kind === "timer.stopped" || o.kind === "timer.cancelled").map((o) => o.workOrderId));
   const [readings, timers, attachments, parts, serials, bolts, entries, clock, stepWork] = await Promise.all([
     readingIds.size
