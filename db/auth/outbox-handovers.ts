@@ -123,7 +123,8 @@ export async function settleHandover(
   handoverId: string,
   input: { workOrderId: string; note: string },
 ): Promise<{ id: string }> {
-  const audit = (on: Kysely<Database>, outcome: "accepted" | "refused", reason?: string) =>
+  // a job the hand-over does not hold may not be this shop's: it is named in the detail only
+  const audit = (on: Kysely<Database>, outcome: "accepted" | "refused", reason?: string, jobKnown = true) =>
     appendAudit(on, [
       {
         shopId: user.shopId,
@@ -131,10 +132,10 @@ export async function settleHandover(
         action: "outbox.settled",
         entity: "outbox_handover",
         entityId: handoverId,
-        workOrderId: input.workOrderId,
+        workOrderId: jobKnown ? input.workOrderId : null,
         outcome,
         reason,
-        detail: { note: input.note },
+        detail: { note: input.note, ...(jobKnown ? {} : { workOrderId: input.workOrderId }) },
       },
     ]);
   const r = await db.transaction().execute(async (trx) => {
@@ -150,7 +151,7 @@ export async function settleHandover(
       .where("j.work_order_id", "=", input.workOrderId)
       .where("j.shop_id", "=", user.shopId)
       .executeTakeFirst();
-    if (!job) throw new Refusal("This hand-over has no entries on that job.", 404);
+    if (!job) return { noSuchJob: true } as const;
     if (job.settledId) return { settledAlready: job.number } as const;
     const made = await trx
       .insertInto("outbox_handover_settlements")
@@ -160,6 +161,10 @@ export async function settleHandover(
     await audit(trx, "accepted");
     return made;
   });
+  if ("noSuchJob" in r) {
+    await audit(db, "refused", "no entries on that job in this hand-over", false);
+    throw new Refusal("This hand-over has no entries on that job.", 404);
+  }
   if ("settledAlready" in r) {
     await audit(db, "refused", "settled already");
     throw new Refusal(`The handed-over work on job #${r.settledAlready} is settled already.`, 409);

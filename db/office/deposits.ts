@@ -351,6 +351,7 @@ export async function applyPaymentEvent(
         "taken after the bill was paid by another payment: to be given back",
       );
       await toGiveBack("Taken after the bill was paid by another payment.");
+      if (dep.status === "pending") await setPaymentStatus(trx, dep, "failed");
       return { kind: "ignored", reason: "the bill is paid already by another payment" } as const;
     }
     if (dep.paymentFor === "deposit" && dep.status !== "paid" && (await quoteDepositPaidOtherwise(trx, dep.id))) {
@@ -364,6 +365,8 @@ export async function applyPaymentEvent(
         "taken after the deposit was paid by another payment: to be given back",
       );
       await toGiveBack("Taken after the deposit was paid by another payment.");
+      // an open try is closed: were the deposit that counts given back later, a new payment is a new row
+      if (dep.status === "pending") await setPaymentStatus(trx, dep, "failed");
       return { kind: "ignored", reason: "the deposit is paid already by another payment" } as const;
     }
     const newlyPaid = dep.status !== "paid";

@@ -53,15 +53,19 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
     .where("w.shop_id", "=", user.shopId)
     .executeTakeFirst();
   if (!so) return null;
+  // Read before the record: everything up to it is in the snapshot read next (a shop's operations
+  // commit in their order, under its sync lock), so the screen shows at least what it says it saw;
+  // at worst a decision is refused for work the screen did show.
+  const seen = await db
+    .selectFrom("operations")
+    .select(sql<string>`coalesce(max(seq), 0)::text`.as("seq"))
+    .where("work_order_id", "=", so.workOrderId)
+    .executeTakeFirstOrThrow();
   const snapshot = await getJobSnapshot(db, user, so.workOrderId);
   if (!snapshot) return null;
 
   const [receipts, names, acceptances, signOffs, decisions] = await Promise.all([
-    db
-      .selectFrom("operations")
-      .select(["id", "received_at", "device_id", sql<string>`seq::text`.as("seq")])
-      .where("work_order_id", "=", so.workOrderId)
-      .execute(),
+    db.selectFrom("operations").select(["id", "received_at", "device_id"]).where("work_order_id", "=", so.workOrderId).execute(),
     db.selectFrom("users").select(["id", "name"]).where("shop_id", "=", user.shopId).execute(),
     db
       .selectFrom("reading_acceptances as a")
@@ -171,7 +175,7 @@ export async function loadSignOffReview(db: Kysely<Database>, user: SessionUser,
       bike: { make: snapshot.bike.make, model: snapshot.bike.model, tagCode: snapshot.bike.tagCode },
     },
     standingDecisionId: standing?.id ?? null,
-    seenUpTo: receipts.reduce((max, r) => (BigInt(r.seq) > BigInt(max) ? r.seq : max), "0"),
+    seenUpTo: seen.seq,
     mayDecide: whyNot === null,
     whyNot,
     flagged: entries.map((e) => ({

@@ -34,8 +34,8 @@ const common = {
    * The decision route requires it; code deciding without a screen (tests, the year's data) leaves it out.
    */
   seenUpTo: z
-    .string("reload the review: it does not say which record it showed")
-    .regex(/^\d{1,18}$/, "reload the review: it does not say which record it showed")
+    .string("Reload the review and decide again: this decision does not say which record you saw.")
+    .regex(/^\d{1,18}$/, "Reload the review and decide again: this decision does not say which record you saw.")
     .optional(),
   acceptances: z.array(acceptanceInputSchema).max(200, "At most 200 acceptances at once.").default([]),
   /** Written acceptances of flagged entries (lib/review/flagged-work.ts): every one of the stage's is needed to approve. */

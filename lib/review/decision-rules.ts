@@ -55,10 +55,9 @@ export function checkDecision(f: DecisionFacts, input: DecisionInput): DecisionC
       unseen.length === 1
         ? `1 new entry (${unseen[0]})`
         : `${unseen.length} new entries (${unseen.slice(0, 3).join("; ")}${unseen.length > 3 ? "; …" : ""})`;
-    return refuse(
-      409,
-      `While you had this review open, ${what} arrived on "${f.signOff.stageTitle}". Reload to see ${unseen.length === 1 ? "it" : "them"} before you decide.`,
-    );
+    const message = `While you had this review open, ${what} arrived on "${f.signOff.stageTitle}". Reload to see ${unseen.length === 1 ? "it" : "them"} before you decide.`;
+    // named "seenUpTo": the review screen offers to reload the record, keeping what was typed
+    return refuse(409, message, [{ path: "seenUpTo", message }]);
   }
   if (f.job.closed && input.decision === "sent_back") {
     return refuse(409, `Work order #${f.job.number} is closed: nothing on it can be reopened.`);

@@ -385,6 +385,19 @@ describe("the gates on ready and handed over (real PostgreSQL)", () => {
       { outcome: "accepted", actor_id: job.users.office.id },
       { outcome: "refused", actor_id: job.users.office.id },
     ]);
+    // the settlement naming a job the hand-over does not hold is on the log too
+    const wrongJob = await db
+      .selectFrom("audit_log")
+      .select(["outcome", "reason", "shop_id", "work_order_id"])
+      .where("action", "=", "outbox.settled")
+      .where("entity_id", "=", made.id)
+      .where("outcome", "=", "refused")
+      .where("reason", "=", "no entries on that job in this hand-over")
+      .execute();
+    // (the other shop's job is named in the detail only, never tied to this shop's log entry)
+    expect(wrongJob).toEqual([
+      { outcome: "refused", reason: "no entries on that job in this hand-over", shop_id: job.fx.shopId, work_order_id: null },
+    ]);
   });
 
   it("a job with no procedure pinned has nothing to review: the gate says so", async () => {

@@ -1,4 +1,5 @@
 import http from "node:http";
+import type { Kysely } from "kysely";
 import type { AddressInfo } from "node:net";
 import Stripe from "stripe";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -7,6 +8,7 @@ import { paymentsClient, startDepositPayment } from "@/app/_server/payments";
 import { createBike } from "@/db/shop/bikes";
 import { applyPaymentEvent, attachPaymentIntent, openDeposit } from "@/db/office/deposits";
 import { openGiveBacks } from "@/db/office/give-backs";
+import { backfillGiveBacks } from "@/db/migrations/2026_12_11_210_money_to_give_back";
 import { approveQuoteAsCustomer, saveQuoteDraft, sendQuote } from "@/db/office/quotes";
 import { bookIn, moveWorkOrder } from "@/db/shop/work-orders";
 import { createShopFixture } from "./support/shop-fixture";
@@ -530,10 +532,66 @@ describe("a card that failed and went through later, beside a new try", () => {
     // the customer's page asks to pay again: the deposit is paid, whatever try is still open
     await expect(openDeposit(db, cust, quoteId)).rejects.toThrow("The deposit is already paid.");
     expect((await post(succeededEvent(retry.pi))).body.outcome).toBe("ignored: the deposit is paid already by another payment");
-    expect(await statuses(quoteId)).toEqual(["paid", "pending"]);
+    // the try that was given back is closed: it is never offered again
+    expect(await statuses(quoteId)).toEqual(["paid", "failed"]);
     expect(await givenBack(retry.deposit.id)).toEqual([
       { outcome: "refused", reason: "taken after the deposit was paid by another payment: to be given back" },
     ]);
     expect(await givenBack(deposit.id)).toEqual([{ outcome: "accepted", reason: null }]);
+  });
+});
+
+describe("money to give back already on the audit log (migration 210's backfill)", () => {
+  const post = (body: string) => handlePaymentWebhook(db, body, sign(body), { secret: SECRET, sendMail: false });
+
+  it("lists it with what went back already: refunded in full is not listed as open, a part refunded shows", async () => {
+    // a deposit paid on a cancelled job and refunded in full since, as the payment's row keeps it
+    const closedPi = `pi_backfill_closed_${Math.random().toString(36).slice(2)}`;
+    const closed = await workOrderWithPendingDeposit(closedPi);
+    await moveWorkOrder(db, closed.fx.shopId, closed.fx.users.office.id, closed.wo.id, "cancelled");
+    expect((await post(succeededEvent(closedPi))).body.outcome).toBe("deposit paid");
+    expect((await post(refundedEvent(closedPi, 5000))).body.outcome).toBe("deposit refunded");
+    // a late success refused before the list existed, with a refund of 20.00 the old code refused ("not paid")
+    const latePi = `pi_backfill_late_${Math.random().toString(36).slice(2)}`;
+    const late = await workOrderWithPendingDeposit(latePi);
+    await db.updateTable("deposits").set({ status: "failed" }).where("id", "=", late.deposit.id).execute();
+    const oldAudit = (action: string, outcome: "accepted" | "refused", reason: string, detail: object) =>
+      db
+        .insertInto("audit_log")
+        .values({
+          shop_id: late.fx.shopId,
+          actor_id: null,
+          action,
+          entity: "deposit",
+          entity_id: late.deposit.id,
+          work_order_id: late.wo.id,
+          outcome,
+          reason,
+          detail: JSON.stringify(detail),
+        })
+        .execute();
+    await oldAudit("deposit.paid", "refused", "taken after the deposit was paid by another payment: to be given back", {
+      paymentIntentId: latePi,
+    });
+    await oldAudit("deposit.refunded", "refused", "the deposit is failed, not paid", { amountRefunded: 2000 });
+
+    await db.deleteFrom("money_to_give_back").where("payment_intent_id", "in", [closedPi, latePi]).execute();
+    await backfillGiveBacks(db as unknown as Kysely<unknown>);
+    await backfillGiveBacks(db as unknown as Kysely<unknown>); // twice: nothing more
+    const rows = await db
+      .selectFrom("money_to_give_back")
+      .select(["payment_intent_id", "given_back_minor", "reason"])
+      .select((eb) => eb("given_back_at", "is not", null).as("done"))
+      .where("payment_intent_id", "in", [closedPi, latePi])
+      .orderBy("payment_intent_id")
+      .execute();
+    expect(rows).toEqual([
+      { payment_intent_id: closedPi, given_back_minor: 5000, reason: "Paid after the job was closed.", done: true },
+      { payment_intent_id: latePi, given_back_minor: 2000, reason: "Taken after the deposit was paid by another payment.", done: false },
+    ]);
+    expect((await openGiveBacks(db, closed.fx.shopId)).map((g) => g.paymentIntentId)).not.toContain(closedPi);
+    expect((await openGiveBacks(db, late.fx.shopId)).filter((g) => g.paymentIntentId === latePi)).toEqual([
+      expect.objectContaining({ givenBackMinor: 2000 }),
+    ]);
   });
 });

@@ -237,7 +237,7 @@ export function DecisionPanel({
 
       <div className="mt-4 flex flex-col gap-3">
         {serverError && <FormMessage error={serverError} />}
-        {mutation.error instanceof ApiError && mutation.error.status === 409 && (
+        {mutation.error instanceof ApiError && mutation.error.issues.some((i) => i.path === "seenUpTo") && (
           <button
             type="button"
             className={`${buttonClass} min-h-target text-xl`}

@@ -67,7 +67,13 @@ describe("checkDecision", () => {
         status: 409,
         reason:
           'While you had this review open, 1 new entry (Reading 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
-        issues: [],
+        issues: [
+          {
+            path: "seenUpTo",
+            message:
+              'While you had this review open, 1 new entry (Reading 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
+          },
+        ],
       });
       expect(checkDecision(facts({ arrivedSinceSeen: unseen }), decision)).toMatchObject({
         status: 409,
@@ -254,7 +260,7 @@ describe("decisionRequestSchema (what the decision route takes)", () => {
       decisionRequestSchema.safeParse({ decision: "approved", expectedDecisionId: null, seenUpTo: "-1" }).error?.issues[0],
     ).toMatchObject({
       path: ["seenUpTo"],
-      message: "reload the review: it does not say which record it showed",
+      message: "Reload the review and decide again: this decision does not say which record you saw.",
     });
     expect(decisionRequestSchema.parse({ decision: "approved", expectedDecisionId: null, seenUpTo: "4812" })).toMatchObject({
       seenUpTo: "4812",
