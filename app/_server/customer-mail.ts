@@ -1,5 +1,5 @@
-import { EXTRA_WORK_CAUSE_PREFIX, EXTRA_WORK_KIND, EXTRA_WORK_LINK_PLACEHOLDER } from "./extra-work-link";
 import "server-only";
+import { EXTRA_WORK_CAUSE_PREFIX, EXTRA_WORK_KIND, EXTRA_WORK_LINK_PLACEHOLDER } from "./extra-work-link";
 import { emailContext, latestTransitionTo } from "@/db/office/emails";
 import { overridesOf } from "@/db/records/status-overrides";
 import { openItemLine } from "@/lib/work-orders/open-items";

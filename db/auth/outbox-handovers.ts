@@ -66,28 +66,33 @@ export async function recordOutboxHandover(
       })
       .returning("id")
       .executeTakeFirstOrThrow();
-    const perJob = entriesPerJob(h.entries);
-    const jobs = perJob.size
-      ? await trx
-          .selectFrom("work_orders")
-          .select("id")
-          .where("shop_id", "=", h.shopId)
-          .where("id", "in", [...perJob.keys()])
-          .execute()
+    const entries = perJob(h.entries);
+    const photos = perJob(h.photosLeft);
+    const named = [...new Set([...entries.keys(), ...photos.keys()])];
+    const jobs = named.length
+      ? await trx.selectFrom("work_orders").select("id").where("shop_id", "=", h.shopId).where("id", "in", named).execute()
       : [];
     if (jobs.length)
       await trx
         .insertInto("outbox_handover_jobs")
-        .values(jobs.map((j) => ({ handover_id: made.id, work_order_id: j.id, shop_id: h.shopId, entry_count: perJob.get(j.id)! })))
+        .values(
+          jobs.map((j) => ({
+            handover_id: made.id,
+            work_order_id: j.id,
+            shop_id: h.shopId,
+            entry_count: entries.get(j.id) ?? 0,
+            photo_count: photos.get(j.id) ?? 0,
+          })),
+        )
         .execute();
     return made;
   });
 }
 
-/** How many of the handed-over entries name each job (by the tablet's `workOrderId`; an entry naming none holds none). */
-function entriesPerJob(entries: unknown[]): Map<string, number> {
+/** How many of the handed-over entries (or photos) name each job (by the tablet's `workOrderId`; one naming none holds none). */
+function perJob(items: unknown[]): Map<string, number> {
   const out = new Map<string, number>();
-  for (const e of entries) {
+  for (const e of items) {
     const id = typeof e === "object" && e !== null ? (e as { workOrderId?: unknown }).workOrderId : undefined;
     if (typeof id === "string" && isUuid(id)) out.set(id.toLowerCase(), (out.get(id.toLowerCase()) ?? 0) + 1);
   }
@@ -103,7 +108,13 @@ export async function unsettledHandoversOf(db: Kysely<Database>, shopId: string,
     .leftJoin("outbox_handover_settlements as s", (join) =>
       join.onRef("s.handover_id", "=", "j.handover_id").onRef("s.work_order_id", "=", "j.work_order_id"),
     )
-    .select(["j.handover_id as handoverId", "j.entry_count as entryCount", "u.name as by", "h.device_id as deviceId"])
+    .select([
+      "j.handover_id as handoverId",
+      "j.entry_count as entryCount",
+      "j.photo_count as photoCount",
+      "u.name as by",
+      "h.device_id as deviceId",
+    ])
     .where("j.work_order_id", "=", workOrderId)
     .where("j.shop_id", "=", shopId)
     .where("s.id", "is", null)
@@ -194,6 +205,7 @@ export async function listOutboxHandovers(db: Kysely<Database>, shopId: string) 
           "j.work_order_id as workOrderId",
           "w.number",
           "j.entry_count as entryCount",
+          "j.photo_count as photoCount",
           "s.note",
           "s.settled_at as settledAt",
           "u.name as settledBy",

@@ -1,7 +1,8 @@
 import { sql, type Kysely } from "kysely";
 
 // Work a tablet handed over when its session was ended (outbox_handovers) holds the jobs it was
-// recorded on: `outbox_handover_jobs` says which jobs and how many entries each (written with the
+// recorded on: `outbox_handover_jobs` says which jobs and how many entries (and photos whose
+// bytes were never uploaded) each (written with the
 // hand-over, and here for those already kept), and each stays an open item of the job (the gates
 // to "ready" and "handed over") until the office settles it with a written note
 // (`outbox_handover_settlements`: what was re-entered, or why nothing needs to be). Both append-only.
@@ -12,7 +13,9 @@ export async function up(db: Kysely<unknown>): Promise<void> {
       handover_id uuid NOT NULL REFERENCES outbox_handovers(id),
       work_order_id uuid NOT NULL REFERENCES work_orders(id),
       shop_id uuid NOT NULL REFERENCES shops(id),
-      entry_count integer NOT NULL CHECK (entry_count > 0),
+      entry_count integer NOT NULL CHECK (entry_count >= 0),
+      photo_count integer NOT NULL DEFAULT 0 CHECK (photo_count >= 0),
+      CHECK (entry_count + photo_count > 0),
       PRIMARY KEY (handover_id, work_order_id)
     );
     CREATE INDEX outbox_handover_jobs_work_order_idx ON outbox_handover_jobs (work_order_id);

@@ -48,6 +48,8 @@ interface OutboxHandoverJobsTable {
   work_order_id: string;
   shop_id: string;
   entry_count: number;
+  /** Photos of the job whose bytes never reached the server. */
+  photo_count: Generated<number>;
 }
 
 /** The office's written settlement of a hand-over's entries on one job: it closes that open item (migration 200). */

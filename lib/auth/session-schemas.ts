@@ -26,6 +26,8 @@ export const outboxHandoverSchema = z
       .array(
         z.object({
           id: z.string().max(64),
+          /** The job it was taken on (tablets before this field: none; such a photo holds no job). */
+          workOrderId: z.string().max(64).optional(),
           stepId: z.string().max(64),
           byteSize: z.number().int().nonnegative(),
           caption: z.string().max(400),

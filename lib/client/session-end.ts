@@ -79,7 +79,13 @@ export async function letGoOfTablet(db: BenchDb, deviceId: string, fetchFn: type
           ...(e.reason ? { reason: e.reason } : {}),
           ...(e.discardReason ? { discardReason: e.discardReason } : {}),
         })),
-        photosLeft: photos.map((p) => ({ id: p.id, stepId: p.stepId, byteSize: p.byteSize, caption: p.caption.slice(0, 400) })),
+        photosLeft: photos.map((p) => ({
+          id: p.id,
+          workOrderId: p.workOrderId,
+          stepId: p.stepId,
+          byteSize: p.byteSize,
+          caption: p.caption.slice(0, 400),
+        })),
       }),
       signal: AbortSignal.timeout(60_000),
     }).catch(() => null);

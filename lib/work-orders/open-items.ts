@@ -47,6 +47,8 @@ export interface OpenItem {
 export interface HandedOverWork {
   handoverId: string;
   entryCount: number;
+  /** Photos taken on the job whose bytes never reached the server. */
+  photoCount?: number;
   /** Who recorded it (the session's person). */
   by: string;
   deviceId: string;
@@ -75,8 +77,8 @@ export function openItems(f: OpenItemFacts): OpenItem[] {
     stage: null,
     step: null,
     reason:
-      `${h.entryCount === 1 ? "1 entry" : `${h.entryCount} entries`} recorded by ${h.by} on tablet ${h.deviceId} ` +
-      `${h.entryCount === 1 ? "was" : "were"} handed over unsent when the session was ended: re-enter what belongs on the record, ` +
+      `${handedOverWhat(h)} recorded by ${h.by} on tablet ${h.deviceId} ` +
+      `${h.entryCount + (h.photoCount ?? 0) === 1 ? "was" : "were"} handed over unsent when the session was ended: re-enter what belongs on the record, ` +
       "then settle the hand-over with a note on the Sign-ins page.",
     signOffId: null,
   }));
@@ -181,6 +183,16 @@ export function openItems(f: OpenItemFacts): OpenItem[] {
     items.push(...(flaggedByStage.get(stageKeyOf(stage.jobProcedureId, stage.key)) ?? []));
   }
   return [...items, ...onNoStage, ...handedOver];
+}
+
+/** "2 entries", "1 photo not uploaded", "2 entries and 1 photo not uploaded". */
+export function handedOverWhat(h: { entryCount: number; photoCount?: number }): string {
+  const photos = h.photoCount ?? 0;
+  const parts = [
+    h.entryCount > 0 ? (h.entryCount === 1 ? "1 entry" : `${h.entryCount} entries`) : "",
+    photos > 0 ? `${photos === 1 ? "1 photo" : `${photos} photos`} not uploaded` : "",
+  ].filter(Boolean);
+  return parts.join(" and ");
 }
 
 function stageOf(s: StageView): NonNullable<OpenItem["stage"]> {

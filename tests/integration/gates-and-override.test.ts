@@ -330,10 +330,14 @@ describe("the gates on ready and handed over (real PostgreSQL)", () => {
       deviceId: "bay-3",
       // two entries on this job; one on another shop's job, one naming none, one odd: they hold nothing
       entries: [entry(job.workOrderId), entry(job.workOrderId.toUpperCase()), entry(other.workOrderId), entry(undefined), entry(42)],
-      photosLeft: [],
+      // a photo of the job whose bytes never went up holds it too; one naming no job holds nothing
+      photosLeft: [
+        { id: randomUUID(), workOrderId: job.workOrderId, stepId: job.steps["fit-cover"], byteSize: 1200, caption: "cover seated" },
+        { id: randomUUID(), stepId: job.steps["fit-cover"], byteSize: 900, caption: "from an older tablet" },
+      ],
     });
     const reason =
-      "2 entries recorded by " +
+      "2 entries and 1 photo not uploaded recorded by " +
       job.fx.users.mechanic.name +
       " on tablet bay-3 were handed over unsent when the session was ended: re-enter what belongs on the record, then settle the hand-over with a note on the Sign-ins page.";
     expect(await loadOpenItems(db, job.fx.shopId, job.workOrderId)).toEqual([
@@ -372,7 +376,7 @@ describe("the gates on ready and handed over (real PostgreSQL)", () => {
     expect(await statusOf(job)).toBe("ready");
     const [listed] = await listOutboxHandovers(db, job.fx.shopId);
     expect(listed.jobs).toEqual([
-      expect.objectContaining({ workOrderId: job.workOrderId, entryCount: 2, note, settledBy: job.fx.users.office.name }),
+      expect.objectContaining({ workOrderId: job.workOrderId, entryCount: 2, photoCount: 1, note, settledBy: job.fx.users.office.name }),
     ]);
     const audit = await db
       .selectFrom("audit_log")

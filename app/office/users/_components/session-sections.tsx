@@ -1,5 +1,6 @@
 import type { SignInWaitRow } from "@/app/_server/sign-in-waits";
 import { formatDayTime } from "@/lib/format/dates";
+import { handedOverWhat } from "@/lib/work-orders/open-items";
 import type { listOutboxHandovers } from "@/db/auth/outbox-handovers";
 import type { listOpenSessions } from "@/db/auth/sessions";
 import type { BucketKind } from "@/lib/auth/sign-in-throttle";
@@ -142,7 +143,7 @@ export function HandedOver({ handovers }: { handovers: Handovers }) {
               <ul className="ml-6 mt-1 flex flex-col gap-2">
                 {h.jobs.map((j) => (
                   <li key={j.workOrderId} data-testid="handover-job">
-                    Job #{j.number}: {j.entryCount === 1 ? "1 entry" : `${j.entryCount} entries`} —{" "}
+                    Job #{j.number}: {handedOverWhat(j)} —{" "}
                     {j.settledAt ? (
                       <span>
                         ✔ settled by {j.settledBy} {formatDayTime(j.settledAt)}: “{j.note}”
