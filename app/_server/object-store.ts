@@ -4,6 +4,13 @@ import { officeConfig } from "./office-config";
 
 // Photos and documents in S3-compatible object storage (s3rver locally).
 let cached: { key: string; client: S3Client } | undefined;
+/**
+ * Longest wait for one call to object storage. Some are made inside a transaction that holds the
+ * shop's sync lock (the report copy stored at "ready" and at handover): a store that stalls must
+ * fail that move, not hold every tablet's sync behind it.
+ */
+const STORE_CALL_MS = 60_000;
+const bounded = () => ({ abortSignal: AbortSignal.timeout(STORE_CALL_MS) });
 const bucketsReady = new Set<string>();
 
 function client(): { s3: S3Client; bucket: string } {
@@ -26,9 +33,9 @@ function client(): { s3: S3Client; bucket: string } {
 async function ensureBucket(s3: S3Client, bucket: string) {
   if (bucketsReady.has(bucket)) return;
   try {
-    await s3.send(new HeadBucketCommand({ Bucket: bucket }));
+    await s3.send(new HeadBucketCommand({ Bucket: bucket }), bounded());
   } catch {
-    await s3.send(new CreateBucketCommand({ Bucket: bucket }));
+    await s3.send(new CreateBucketCommand({ Bucket: bucket }), bounded());
   }
   bucketsReady.add(bucket);
 }
@@ -36,11 +43,11 @@ async function ensureBucket(s3: S3Client, bucket: string) {
 export async function putObject(objectKey: string, body: Buffer, contentType: string): Promise<void> {
   const { s3, bucket } = client();
   await ensureBucket(s3, bucket);
-  await s3.send(new PutObjectCommand({ Bucket: bucket, Key: objectKey, Body: body, ContentType: contentType }));
+  await s3.send(new PutObjectCommand({ Bucket: bucket, Key: objectKey, Body: body, ContentType: contentType }), bounded());
 }
 
 export async function getObject(objectKey: string): Promise<{ body: Uint8Array; contentType: string }> {
   const { s3, bucket } = client();
-  const r = await s3.send(new GetObjectCommand({ Bucket: bucket, Key: objectKey }));
+  const r = await s3.send(new GetObjectCommand({ Bucket: bucket, Key: objectKey }), bounded());
   return { body: await r.Body!.transformToByteArray(), contentType: r.ContentType ?? "application/octet-stream" };
 }
