@@ -99,15 +99,19 @@ function perJob(items: unknown[]): Map<string, number> {
   return out;
 }
 
-/** A job's hand-overs the office has not settled yet (each an open item of the job), oldest first. */
-export async function unsettledHandoversOf(db: Kysely<Database>, shopId: string, workOrderId: string): Promise<HandedOverWork[]> {
-  const rows = await db
+/** The jobs hand-overs name ("j"), each with its settlement ("s") when the office has made it. */
+const jobsWithSettlement = (db: Kysely<Database>) =>
+  db
     .selectFrom("outbox_handover_jobs as j")
-    .innerJoin("outbox_handovers as h", "h.id", "j.handover_id")
-    .innerJoin("users as u", "u.id", "h.user_id")
     .leftJoin("outbox_handover_settlements as s", (join) =>
       join.onRef("s.handover_id", "=", "j.handover_id").onRef("s.work_order_id", "=", "j.work_order_id"),
-    )
+    );
+
+/** A job's hand-overs the office has not settled yet (each an open item of the job), oldest first. */
+export async function unsettledHandoversOf(db: Kysely<Database>, shopId: string, workOrderId: string): Promise<HandedOverWork[]> {
+  const rows = await jobsWithSettlement(db)
+    .innerJoin("outbox_handovers as h", "h.id", "j.handover_id")
+    .innerJoin("users as u", "u.id", "h.user_id")
     .select([
       "j.handover_id as handoverId",
       "j.entry_count as entryCount",
@@ -151,12 +155,8 @@ export async function settleHandover(
     ]);
   const r = await db.transaction().execute(async (trx) => {
     await sql`SELECT benchtag_lock_shop_sync(${user.shopId}::uuid)`.execute(trx);
-    const job = await trx
-      .selectFrom("outbox_handover_jobs as j")
+    const job = await jobsWithSettlement(trx)
       .innerJoin("work_orders as w", "w.id", "j.work_order_id")
-      .leftJoin("outbox_handover_settlements as s", (join) =>
-        join.onRef("s.handover_id", "=", "j.handover_id").onRef("s.work_order_id", "=", "j.work_order_id"),
-      )
       .select(["w.number", "s.id as settledId"])
       .where("j.handover_id", "=", handoverId)
       .where("j.work_order_id", "=", input.workOrderId)
@@ -193,12 +193,8 @@ export async function listOutboxHandovers(db: Kysely<Database>, shopId: string) 
     .limit(50)
     .execute();
   const jobs = handovers.length
-    ? await db
-        .selectFrom("outbox_handover_jobs as j")
+    ? await jobsWithSettlement(db)
         .innerJoin("work_orders as w", "w.id", "j.work_order_id")
-        .leftJoin("outbox_handover_settlements as s", (join) =>
-          join.onRef("s.handover_id", "=", "j.handover_id").onRef("s.work_order_id", "=", "j.work_order_id"),
-        )
         .leftJoin("users as u", "u.id", "s.settled_by")
         .select([
           "j.handover_id as handoverId",

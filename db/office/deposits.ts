@@ -180,6 +180,10 @@ async function quoteDepositPaidOtherwise(trx: Transaction<Database>, depositId: 
   return other !== undefined;
 }
 
+/** The bill or the quote's deposit this payment is for is paid by another payment (a bill: or one is under way). */
+const paidOtherwise = (trx: Transaction<Database>, p: Payable) =>
+  p.paymentFor === "balance" ? billPaidOtherwise(trx, p.id) : quoteDepositPaidOtherwise(trx, p.id);
+
 /** Another payment of the same bill is paid or under way (the bill holds one open payment at a time). */
 async function billPaidOtherwise(trx: Transaction<Database>, balancePaymentId: string): Promise<boolean> {
   const other = await trx
@@ -340,34 +344,22 @@ export async function applyPaymentEvent(
       await audit("paid", "refused", { eventId: event.id }, "amount or currency does not match");
       return { kind: "ignored", reason: `amount or currency does not match the ${what}` } as const;
     }
-    if (dep.paymentFor === "balance" && dep.status !== "paid" && (await billPaidOtherwise(trx, dep.id))) {
-      // a card that failed and then went through after all, when the bill had been paid (or was being
-      // paid) another way: the bill keeps one payment; this one is answered (not retried for ever) and
-      // left on the audit log for the money to be given back
+    if (dep.status !== "paid" && (await paidOtherwise(trx, dep))) {
+      // a card that failed and then went through after all, when the bill or the quote's deposit had
+      // been paid (a bill: or was being paid) by another payment: one payment counts, so the job and
+      // the bill count it once; this one is answered (not retried for ever), closed if it was still
+      // open (were the one that counts given back later, a new payment is a new row), and listed
+      // for the money to be given back
+      const thing = what === "balance" ? "bill" : "deposit";
       await audit(
         "paid",
         "refused",
         { eventId: event.id, paymentIntentId: event.paymentIntentId },
-        "taken after the bill was paid by another payment: to be given back",
+        `taken after the ${thing} was paid by another payment: to be given back`,
       );
-      await toGiveBack("Taken after the bill was paid by another payment.");
+      await toGiveBack(`Taken after the ${thing} was paid by another payment.`);
       if (dep.status === "pending") await setPaymentStatus(trx, dep, "failed");
-      return { kind: "ignored", reason: "the bill is paid already by another payment" } as const;
-    }
-    if (dep.paymentFor === "deposit" && dep.status !== "paid" && (await quoteDepositPaidOtherwise(trx, dep.id))) {
-      // a card that failed and went through later, when the deposit had been paid by a new try (or
-      // the other way round): the quote keeps one paid deposit, so the job and the bill count it
-      // once; this one is answered and left on the audit log for the money to be given back
-      await audit(
-        "paid",
-        "refused",
-        { eventId: event.id, paymentIntentId: event.paymentIntentId },
-        "taken after the deposit was paid by another payment: to be given back",
-      );
-      await toGiveBack("Taken after the deposit was paid by another payment.");
-      // an open try is closed: were the deposit that counts given back later, a new payment is a new row
-      if (dep.status === "pending") await setPaymentStatus(trx, dep, "failed");
-      return { kind: "ignored", reason: "the deposit is paid already by another payment" } as const;
+      return { kind: "ignored", reason: `the ${thing} is paid already by another payment` } as const;
     }
     const newlyPaid = dep.status !== "paid";
     if (newlyPaid) {

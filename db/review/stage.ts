@@ -2,7 +2,7 @@ import "server-only";
 import { isWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { readingLabelOf } from "@/lib/review/stage-review";
-import { entryDetail, entryKindLabel, placeOfEntry, type FlaggedEntry } from "@/lib/review/flagged-work";
+import { entryDetail, entryKindLabel, isStage, placeOfEntry, type FlaggedEntry } from "@/lib/review/flagged-work";
 import { flaggedEntriesOf, placeLookups } from "./flagged-work";
 import type { Database } from "../schema";
 
@@ -172,7 +172,7 @@ export async function stageFlaggedEntries(
   const out: StageFlaggedEntry[] = [];
   for (const e of entries.get(so.workOrderId) ?? []) {
     const place = placeOfEntry(e, lookup);
-    const here = place.stage?.jobProcedureId === so.jobProcedureId && place.stage.stageKey === so.stageKey;
+    const here = isStage(place.stage, so);
     if (!here && place.stage) continue;
     const detail = entryDetail(e.kind, e.payload);
     const step = place.stepId ? titles.get(place.stepId) : undefined;
@@ -206,9 +206,6 @@ export async function stageWorkSince(
   if (since.length === 0) return [];
   const lookup = (await placeLookups(db as Kysely<Database>, new Map([[so.workOrderId, since]]))).get(so.workOrderId)!;
   return since
-    .filter((o) => {
-      const stage = placeOfEntry(o, lookup).stage;
-      return stage?.jobProcedureId === so.jobProcedureId && stage.stageKey === so.stageKey;
-    })
+    .filter((o) => isStage(placeOfEntry(o, lookup).stage, so))
     .map((o) => [entryKindLabel(o.kind), entryDetail(o.kind, o.payload)].filter(Boolean).join(" "));
 }

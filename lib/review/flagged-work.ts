@@ -18,6 +18,10 @@ export interface StageRef {
   stageKey: string;
 }
 
+/** The place found for an entry is this stage. */
+export const isStage = (place: StageRef | null | undefined, stage: StageRef): boolean =>
+  place?.jobProcedureId === stage.jobProcedureId && place.stageKey === stage.stageKey;
+
 /** One flagged entry as the database holds it. */
 export interface FlaggedEntry {
   operationId: string;

@@ -60,6 +60,26 @@ async function handOverNow(job: CloseOutJob, reason = "Customer needs the bike b
   });
 }
 
+/** The current reading of the left cover gap (the first reading of the check stage). */
+const leftGapReading = (job: CloseOutJob) =>
+  db
+    .selectFrom("current_measurements")
+    .select("id")
+    .where("work_order_id", "=", job.workOrderId)
+    .where("reading_index", "=", 0)
+    .executeTakeFirstOrThrow();
+
+/** The decision standing on a sign-off (its newest). */
+const standingDecision = async (signOffId: string) =>
+  (
+    await db
+      .selectFrom("review_decisions")
+      .select("id")
+      .where("sign_off_id", "=", signOffId)
+      .orderBy("change_seq", "desc")
+      .executeTakeFirstOrThrow()
+  ).id;
+
 /** A decision as the review screen sends it: with the record it showed (`seenUpTo`, read now). */
 const decide = async (job: CloseOutJob, signOffId: string, body: object, user: SessionUser = job.users.sup) =>
   decideRoute.handle(
@@ -160,12 +180,7 @@ describe("the frozen report (real PostgreSQL, s3rver)", () => {
     const r1 = await download(job, customer(job), 1);
 
     // a correction of the left reading arrives from a tablet after handover: kept, flagged
-    const left = await db
-      .selectFrom("current_measurements")
-      .select("id")
-      .where("work_order_id", "=", job.workOrderId)
-      .where("reading_index", "=", 0)
-      .executeTakeFirstOrThrow();
+    const left = await leftGapReading(job);
     const fix = job.tablet.read(job.steps["measure-gap"], job.specId, 0, 0.17, { supersedesId: left.id });
     expect((await sync(db, job.users.mech, job.tablet, [fix])).flagged.map((f) => f.id)).toEqual([fix.id]);
 
@@ -182,13 +197,13 @@ describe("the frozen report (real PostgreSQL, s3rver)", () => {
     expect(items!.map((i) => i.kind)).toEqual(["flagged_not_accepted"]);
 
     // approving again without accepting the entry is refused; with it, revision 2
-    const standing = await db.selectFrom("review_decisions").select("id").where("sign_off_id", "=", checkSignOff).executeTakeFirstOrThrow();
-    const refused = await decide(job, checkSignOff, { decision: "approved", expectedDecisionId: standing.id });
+    const standing = await standingDecision(checkSignOff);
+    const refused = await decide(job, checkSignOff, { decision: "approved", expectedDecisionId: standing });
     expect(refused.status).toBe(422);
     expect(await db.selectFrom("report_revisions").select("id").where("work_order_id", "=", job.workOrderId).execute()).toHaveLength(1);
     const ok = await decide(job, checkSignOff, {
       decision: "approved",
-      expectedDecisionId: standing.id,
+      expectedDecisionId: standing,
       flagAcceptances: [{ operationId: fix.id, justification: "Remeasured with the new feeler set; 0.17 mm is right" }],
     });
     expect(ok.status).toBe(201);
@@ -242,43 +257,28 @@ describe("a revision prints the record as accepted (real PostgreSQL)", () => {
     expect(await revisions()).toEqual([1]);
 
     // after handover: a correction of the left gap on the check stage, and the seal step done again on the close stage
-    const left = await db
-      .selectFrom("current_measurements")
-      .select("id")
-      .where("work_order_id", "=", job.workOrderId)
-      .where("reading_index", "=", 0)
-      .executeTakeFirstOrThrow();
+    const left = await leftGapReading(job);
     const fix = job.tablet.read(job.steps["measure-gap"], job.specId, 0, 0.19, { supersedesId: left.id });
     const reseal = job.tablet.complete(job.steps.seal);
     expect((await sync(db, job.users.mech, job.tablet, [fix, reseal])).flagged.map((f) => f.id).sort()).toEqual([fix.id, reseal.id].sort());
 
     // the supervisor accepts the reseal only: an accepted change, but the correction still waits, so no revision
-    const standing = async (signOffId: string) =>
-      (
-        await db
-          .selectFrom("review_decisions")
-          .select("id")
-          .where("sign_off_id", "=", signOffId)
-          .orderBy("change_seq", "desc")
-          .executeTakeFirstOrThrow()
-      ).id;
     const closeOk = await decide(job, closeSignOff, {
       decision: "approved",
-      expectedDecisionId: await standing(closeSignOff),
+      expectedDecisionId: await standingDecision(closeSignOff),
       flagAcceptances: [{ operationId: reseal.id, justification: "Seal checked again after the customer asked; fine" }],
     });
     expect(closeOk.status).toBe(201);
     expect((await closeOk.json()).reportRevision).toBeNull();
-    await download(job, customer(job));
-    expect(await revisions()).toEqual([1]);
     const served = await download(job, customer(job));
     expect(served.res.headers.get("x-report-revision")).toBe("1");
+    expect(await revisions()).toEqual([1]);
     expect(await pdfText(served.bytes)).not.toContain("0.19");
 
     // the correction accepted too: revision 2, with both changes and the corrected gap
     const checkOk = await decide(job, checkSignOff, {
       decision: "approved",
-      expectedDecisionId: await standing(checkSignOff),
+      expectedDecisionId: await standingDecision(checkSignOff),
       flagAcceptances: [{ operationId: fix.id, justification: "Remeasured with the new feeler set; 0.19 mm is right" }],
     });
     expect(checkOk.status).toBe(201);
