@@ -247,7 +247,7 @@ function draw(doc: Pdf, d: HandoverReportData, revision: RevisionHeading | null)
       [
         { header: "Entry", width: 0.36 },
         { header: "Why it was flagged", width: 0.32 },
-        { header: "Supervisor", width: 0.32 },
+        { header: "Accepted", width: 0.32 },
       ],
       flaggedRows(d),
     );

@@ -35,6 +35,7 @@ import * as m190 from "./2026_12_10_190_payment_refunds";
 import * as m200 from "./2026_12_11_200_handover_settlements";
 import * as m210 from "./2026_12_11_210_money_to_give_back";
 import * as m220 from "./2026_12_11_220_mail_stored_attachment";
+import * as m230 from "./2026_12_12_230_flag_acceptance_on_its_own";
 
 // Every migration, by name (run in name order by Kysely's Migrator). Add new files here.
 // A static list works the same under tsx, vitest and the Next server, where a folder scan of
@@ -76,4 +77,5 @@ export const migrations: Record<string, Migration> = {
   "2026_12_11_200_handover_settlements": m200,
   "2026_12_11_210_money_to_give_back": m210,
   "2026_12_11_220_mail_stored_attachment": m220,
+  "2026_12_12_230_flag_acceptance_on_its_own": m230,
 };

@@ -214,7 +214,14 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
       stepTitle: stepId ? (stepTitle.get(stepId) ?? null) : null,
       by: names.get(e.authorId) ?? "—",
       flagReason: e.flagReason,
-      acceptance: e.acceptance ? { by: names.get(e.acceptance.acceptedBy) ?? "—", justification: e.acceptance.justification } : null,
+      acceptance: e.acceptance
+        ? {
+            by: names.get(e.acceptance.acceptedBy) ?? "—",
+            justification: e.acceptance.justification,
+            // accepted on its own: a closed job's entry no sign-off could carry (db/review/entry-acceptance.ts)
+            onItsOwn: e.acceptance.decisionId === null,
+          }
+        : null,
     };
   });
 

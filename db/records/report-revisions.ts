@@ -84,18 +84,22 @@ export async function reportRevision(db: Db, shopId: string, workOrderId: string
 
 /**
  * What the accepted record of a handed-over job rests on, as one comparable text: the review
- * decisions on its sign-offs (with the flag and reading acceptances made with them) and its
- * withdrawn dyno runs. A stored copy keeps it; when it differs later, an accepted change has come in.
+ * decisions on its sign-offs (with the flag and reading acceptances made with them), its
+ * withdrawn dyno runs and its flagged entries accepted on their own. A stored copy keeps it; when it differs later, an accepted change has come in.
  */
 export async function acceptedBasis(db: Db, workOrderId: string): Promise<string> {
-  const r = await sql<{ decisions: number; last_decision: string | null; withdrawn: number }>`
+  const r = await sql<{ decisions: number; last_decision: string | null; withdrawn: number; on_own: number }>`
     SELECT
       (SELECT count(*)::int FROM review_decisions d JOIN sign_offs s ON s.id = d.sign_off_id WHERE s.work_order_id = ${workOrderId}::uuid) AS decisions,
       (SELECT max(d.change_seq)::text FROM review_decisions d JOIN sign_offs s ON s.id = d.sign_off_id WHERE s.work_order_id = ${workOrderId}::uuid) AS last_decision,
-      (SELECT count(*)::int FROM dyno_runs r WHERE r.work_order_id = ${workOrderId}::uuid AND r.withdrawn_at IS NOT NULL) AS withdrawn
+      (SELECT count(*)::int FROM dyno_runs r WHERE r.work_order_id = ${workOrderId}::uuid AND r.withdrawn_at IS NOT NULL) AS withdrawn,
+      (SELECT count(*)::int FROM flag_acceptances a JOIN operations o ON o.id = a.operation_id
+        WHERE o.work_order_id = ${workOrderId}::uuid AND a.decision_id IS NULL) AS on_own
   `.execute(db);
   const b = r.rows[0];
-  return `decisions ${b.decisions} up to ${b.last_decision ?? "none"}; withdrawn runs ${b.withdrawn}`;
+  // entries accepted on their own (db/review/entry-acceptance.ts) count only once there are some: older bases stay as stored
+  const onOwn = b.on_own > 0 ? `; entries accepted on their own ${b.on_own}` : "";
+  return `decisions ${b.decisions} up to ${b.last_decision ?? "none"}; withdrawn runs ${b.withdrawn}${onOwn}`;
 }
 
 /**

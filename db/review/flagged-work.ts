@@ -54,7 +54,7 @@ export async function flaggedEntriesOf(
       deviceTime: iso(r.device_time),
       receivedAt: iso(r.received_at),
       acceptance:
-        r.decision_id && r.justification && r.accepted_by && r.accepted_at
+        r.justification && r.accepted_by && r.accepted_at
           ? { decisionId: r.decision_id, justification: r.justification, acceptedBy: r.accepted_by, acceptedAt: iso(r.accepted_at) }
           : null,
     };

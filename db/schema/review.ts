@@ -32,7 +32,8 @@ interface FlagAcceptancesTable {
   id: Generated<string>;
   shop_id: string;
   operation_id: string;
-  decision_id: string;
+  /** The decision it was made with; null when accepted on its own (a closed job's entry with no sign-off to decide on). */
+  decision_id: string | null;
   justification: string;
   accepted_by: string;
   accepted_at: DefaultTimestamp;

@@ -25,6 +25,9 @@ const flagAcceptanceInputSchema = z.object({
     .max(2000, "Keep it under 2000 characters."),
 });
 
+/** What accepting one flagged entry on its own takes (a closed job's entry no sign-off can carry: db/review/entry-acceptance.ts). */
+export const entryAcceptanceSchema = flagAcceptanceInputSchema.pick({ justification: true });
+
 const common = {
   /** The decision the supervisor saw as the latest on this sign-off (null: none). Guards against two people deciding at once. */
   expectedDecisionId: z.uuid("not a decision id").nullable(),

@@ -34,7 +34,7 @@ export interface FlaggedEntry {
   deviceTime: string;
   receivedAt: string;
   /** The supervisor's written acceptance, once made. */
-  acceptance: { decisionId: string; justification: string; acceptedBy: string; acceptedAt: string } | null;
+  acceptance: { decisionId: string | null; justification: string; acceptedBy: string; acceptedAt: string } | null;
 }
 
 /** What finding an entry's stage may look up. */

@@ -109,7 +109,7 @@ export function openItems(f: OpenItemFacts): OpenItem[] {
     const stage = place.stage ? stageInfo.get(stageKeyOf(place.stage.jobProcedureId, place.stage.stageKey)) : undefined;
     const detail = entryDetail(e.kind, e.payload);
     const item: OpenItem = {
-      key: `flagged_not_accepted:${e.operationId}`,
+      key: `${FLAGGED_PREFIX}${e.operationId}`,
       kind: "flagged_not_accepted",
       stage: stage ? stageOf(stage) : null,
       step: place.stepId && stepTitles.has(place.stepId) ? { id: place.stepId, title: stepTitles.get(place.stepId)! } : null,
@@ -217,6 +217,18 @@ export function openItemsSummary(items: readonly OpenItem[]): string {
     .filter(([, n]) => n > 0)
     .map(([k, n]) => `${n} ${COUNT_WORDS[k][n === 1 ? 0 : 1]}`)
     .join(", ");
+}
+
+const FLAGGED_PREFIX = "flagged_not_accepted:";
+
+/**
+ * The flagged entry an open item is about, when it is accepted on its own rather than with a
+ * review decision: on a closed job, with no sign-off that can carry it (its stage's withdrawn or
+ * never made). Null for every other item: those are settled on the review screen or at the bench.
+ */
+export function entryAcceptedOnItsOwn(item: Pick<OpenItem, "key" | "kind" | "signOffId">, jobClosed: boolean): string | null {
+  if (item.kind !== "flagged_not_accepted" || item.signOffId || !jobClosed || !item.key.startsWith(FLAGGED_PREFIX)) return null;
+  return item.key.slice(FLAGGED_PREFIX.length);
 }
 
 /** One line per item, as the report and the e-mail print it: "Bottom end › Main bearings: Not done yet." */

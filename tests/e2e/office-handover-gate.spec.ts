@@ -1,9 +1,11 @@
-import { createHash } from "node:crypto";
+import { createHash, randomUUID } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import { expect, test, type Download } from "@playwright/test";
 import { PDFParse } from "pdf-parse";
-import { signIn } from "./support/demo-users";
+import { formatStamp } from "@/lib/sync/hlc";
+import { demoUser, signIn } from "./support/demo-users";
 import { query } from "./support/e2e-db";
+import { fromOurPage } from "./support/same-origin";
 
 // The gates at the end of a job, in the browser: the demo job #1010 (Felix Amadi's Halden, in review
 // with nothing done on the bench) cannot go to Ready: the office sees the checklist of what is open,
@@ -118,4 +120,57 @@ test("the office cannot hand over an unfinished job without a written reason; th
   expect(sha256(customerBytes)).toBe(stored.sha256);
   const [latest] = await Promise.all([customer.waitForEvent("download"), card.getByTestId("my-build-report").click()]);
   expect(sha256(await bytesOf(latest))).toBe(stored.sha256);
+
+  // A tablet that was offline sends a step done on #1010 after the handover: kept and flagged. Its
+  // stage was never signed off, so no review can carry it: the office accepts it on the job's page,
+  // in writing, and the stored report gets revision 2.
+  const mechanic = await (await browser.newContext()).newPage();
+  await signIn(mechanic, "mechanic");
+  const [ids] = await query<{ job: string; step: string; author: string }>(
+    `SELECT w.id AS job, s.id AS step, u.id AS author FROM work_orders w
+       JOIN job_procedures jp ON jp.work_order_id = w.id JOIN template_steps s ON s.template_version_id = jp.template_version_id
+       JOIN users u ON u.email = $1 WHERE w.number = 1010 ORDER BY jp.position, s.stage_position, s.position LIMIT 1`,
+    [demoUser("mechanic").email],
+  );
+  const now = Date.now();
+  const late = randomUUID();
+  const synced = await mechanic.request.post("/api/sync", {
+    headers: fromOurPage,
+    data: {
+      deviceId: "tab-offline-e2e",
+      cursor: null,
+      operations: [
+        {
+          id: late,
+          kind: "step.completed",
+          workOrderId: ids.job,
+          authorId: ids.author,
+          deviceId: "tab-offline-e2e",
+          deviceTime: new Date(now).toISOString(),
+          stamp: formatStamp({ wallMs: now, counter: 0, deviceId: "tab-offline-e2e" }),
+          payload: { stepId: ids.step },
+        },
+      ],
+    },
+  });
+  expect((await synced.json()).flagged.map((f: { id: string }) => f.id)).toEqual([late]);
+
+  await office.reload();
+  const acceptForm = office.getByTestId("open-item").filter({ hasText: "flagged and not accepted" }).getByTestId("entry-acceptance-form");
+  await expect(acceptForm).toBeVisible();
+  await acceptForm.getByLabel("Why may it stand?").fill("done");
+  await acceptForm.getByRole("button", { name: "Accept this entry" }).click();
+  await expect(acceptForm.getByTestId("form-error")).toBeVisible();
+  await acceptForm.getByLabel("Why may it stand?").fill("Step finished at the counter before collection; checked it");
+  await acceptForm.getByRole("button", { name: "Accept this entry" }).click();
+  await expect(office.getByTestId("open-items").getByTestId("form-ok")).toContainText(
+    "Entry accepted. The build report is now revision 2.",
+  );
+  await expect(office.getByTestId("open-item").filter({ hasText: "flagged and not accepted" })).toHaveCount(0);
+  await expect(office.getByTestId("report-copy")).toHaveCount(2);
+  const [accepted] = await query<{ decision_id: string | null; justification: string }>(
+    "SELECT decision_id, justification FROM flag_acceptances WHERE operation_id = $1",
+    [late],
+  );
+  expect(accepted).toEqual({ decision_id: null, justification: "Step finished at the counter before collection; checked it" });
 });

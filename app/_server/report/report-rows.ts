@@ -164,7 +164,11 @@ export const flaggedRows = (d: HandoverReportData): string[][] =>
   d.flagged.map((f) => [
     [f.what, f.stepTitle ? `at ${f.stepTitle}` : ""].filter(Boolean).join(", ") + `, by ${f.by}`,
     f.flagReason,
-    f.acceptance ? `Accepted by ${f.acceptance.by}: ${f.acceptance.justification}` : "not accepted yet",
+    f.acceptance
+      ? f.acceptance.onItsOwn
+        ? `Accepted by ${f.acceptance.by} on its own, with no sign-off to review: ${f.acceptance.justification}`
+        : `Accepted by ${f.acceptance.by}: ${f.acceptance.justification}`
+      : "not accepted yet",
   ]);
 
 /** What is open on the record now (lib/work-orders/open-items.ts), one line each. */

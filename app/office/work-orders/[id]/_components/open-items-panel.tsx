@@ -1,16 +1,20 @@
 "use client";
 
 import Link from "next/link";
+import { useState } from "react";
+import { FormMessage } from "@/app/ui/form-field";
 import { formatDayTime } from "@/lib/format/dates";
-import { openItemLine, openItemsSummary } from "@/lib/work-orders/open-items";
-import { STATUS_LABELS } from "@/lib/work-orders/status";
+import { entryAcceptedOnItsOwn, openItemLine, openItemsSummary } from "@/lib/work-orders/open-items";
+import { isClosed, STATUS_LABELS } from "@/lib/work-orders/status";
+import { EntryAcceptanceForm } from "./entry-acceptance-form";
 import type { WorkOrderData } from "./types";
 
 type Item = WorkOrderData["openItems"][number];
 
 // What a person can do about an item: the supervisor's review screen, or the build progress
 // (the bench's part) further down this page.
-function ItemLink({ item }: { item: Item }) {
+function ItemLink({ item, closed }: { item: Item; closed: boolean }) {
+  if (entryAcceptedOnItsOwn(item, closed)) return null;
   if (item.signOffId)
     return (
       <Link href={`/review/${item.signOffId}`} className="underline" data-testid="open-item-link">
@@ -30,8 +34,10 @@ function ItemLink({ item }: { item: Item }) {
  */
 export function OpenItemsPanel({ data, highlight }: { data: WorkOrderData; highlight: boolean }) {
   const items = data.openItems;
-  const closed = data.workOrder.status === "handed_over" || data.workOrder.status === "cancelled";
-  if (items.length === 0 && data.overrides.length === 0 && closed) return null;
+  const closed = isClosed(data.workOrder.status);
+  // what an acceptance made here did (its form goes with the item it settled)
+  const [accepted, setAccepted] = useState<string | null>(null);
+  if (items.length === 0 && data.overrides.length === 0 && closed && !accepted) return null;
   return (
     <section
       id="open-items"
@@ -42,6 +48,11 @@ export function OpenItemsPanel({ data, highlight }: { data: WorkOrderData; highl
       <h2 id="open-items-heading" className="text-2xl font-bold">
         Still open on the record
       </h2>
+      {accepted && (
+        <div className="mt-1">
+          <FormMessage ok={accepted} />
+        </div>
+      )}
       {items.length === 0 ? (
         <p className="mt-1 text-lg text-pass" data-testid="open-items-none">
           <span aria-hidden="true">✔</span> Nothing open: every stage is signed off and approved, every flagged entry accepted.
@@ -67,7 +78,14 @@ export function OpenItemsPanel({ data, highlight }: { data: WorkOrderData; highl
                   )}
                   <span className="block">{i.reason}</span>
                 </span>
-                <ItemLink item={i} />
+                <ItemLink item={i} closed={closed} />
+                {entryAcceptedOnItsOwn(i, closed) && (
+                  <EntryAcceptanceForm
+                    workOrderId={data.workOrder.id}
+                    operationId={entryAcceptedOnItsOwn(i, closed)!}
+                    onAccepted={setAccepted}
+                  />
+                )}
               </li>
             ))}
           </ul>
