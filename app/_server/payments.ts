@@ -109,3 +109,27 @@ export function signatureTime(header: string): number | null {
     .find(([k]) => k === "t")?.[1];
   return t && /^\d{1,12}$/.test(t) ? Number(t) : null;
 }
+
+/**
+ * Asks the provider to give back `amountMinor` of a payment. The key makes it once only: the same
+ * key (the give-back and how much has gone back so far) asks nothing twice, however often the
+ * office presses. The provider reports the refund by webhook (charge.refunded). Its refusal, or no
+ * answer, is said in workshop words; nothing is recorded as given back until the provider says so.
+ */
+export async function askRefund(
+  paymentIntentId: string,
+  amountMinor: number,
+  idempotencyKey: string,
+): Promise<{ id: string; status: string | null }> {
+  try {
+    const refund = await paymentsClient().refunds.create({ payment_intent: paymentIntentId, amount: amountMinor }, { idempotencyKey });
+    return { id: refund.id, status: refund.status };
+  } catch (e) {
+    console.error("[payments] the payment service refused a refund", e);
+    const said = e instanceof Stripe.errors.StripeInvalidRequestError ? ` It said: ${e.message}` : "";
+    throw new Refusal(
+      `The payment service did not give the money back, so nothing changed here.${said} Try again later, or refund it in the provider's dashboard.`,
+      409,
+    );
+  }
+}

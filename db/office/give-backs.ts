@@ -1,11 +1,13 @@
 import "server-only";
 import type { Kysely, Transaction } from "kysely";
+import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
 
 // Money the payment provider took that the shop must give back (migration 210): written by the
 // payment webhook where it answers a payment it does not count, or counts one on a closed job;
-// listed for the office until the provider reports the refund. Benchtag records refunds; the
-// office makes them in the provider's dashboard.
+// listed for the office until the provider reports the refund. The office asks the provider for
+// the refund from the list (app/api/office/give-backs/[id]/refund) or makes it in the provider's
+// dashboard; either way the row is given back when the provider reports it.
 
 export interface GiveBack {
   shopId: string;
@@ -86,4 +88,51 @@ export async function openGiveBacks(db: Kysely<Database>, shopId: string) {
     .orderBy("g.recorded_at")
     .limit(200)
     .execute();
+}
+
+/** One row of money to give back, in the shop (null when there is none). */
+export async function giveBackInShop(db: Kysely<Database>, shopId: string, id: string) {
+  return db
+    .selectFrom("money_to_give_back")
+    .select([
+      "id",
+      "work_order_id as workOrderId",
+      "payment_intent_id as paymentIntentId",
+      "amount_minor as amountMinor",
+      "given_back_minor as givenBackMinor",
+      "given_back_at as givenBackAt",
+      "currency",
+    ])
+    .where("id", "=", id)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst();
+}
+
+/** The office's request to the provider for a refund, on the audit log: asked, or refused with the provider's words. */
+export async function auditRefundAsked(
+  db: Kysely<Database>,
+  a: {
+    shopId: string;
+    actorId: string;
+    giveBackId: string;
+    workOrderId: string;
+    paymentIntentId: string;
+    amountMinor: number;
+    currency: string;
+  },
+  outcome: { refundId: string } | { refused: string },
+): Promise<void> {
+  await appendAudit(db, [
+    {
+      shopId: a.shopId,
+      actorId: a.actorId,
+      action: "payment.refund-asked",
+      entity: "money_to_give_back",
+      entityId: a.giveBackId,
+      workOrderId: a.workOrderId,
+      outcome: "refundId" in outcome ? "accepted" : "refused",
+      reason: "refused" in outcome ? outcome.refused : null,
+      detail: { paymentIntentId: a.paymentIntentId, amountMinor: a.amountMinor, currency: a.currency, ...outcome },
+    },
+  ]);
 }
