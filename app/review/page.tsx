@@ -1,8 +1,11 @@
 import type { Metadata } from "next";
 import { db } from "@/db/setup/client";
+import { entriesToAcceptOnTheirOwn } from "@/db/review/entry-acceptance";
 import { signersOfShop } from "@/db/review/queue";
+import { canReach } from "@/lib/auth/roles";
 import { requirePageArea } from "../_server/session";
 import { AppFrame } from "../ui/app-frame";
+import { LateEntries } from "./_components/late-entries";
 import { ReviewQueue } from "./_components/review-queue";
 import { RunningClocks } from "./_components/running-clocks";
 
@@ -10,7 +13,7 @@ export const metadata: Metadata = { title: "Review" };
 
 export default async function ReviewPage() {
   const user = await requirePageArea("review");
-  const people = await signersOfShop(db(), user.shopId);
+  const [people, late] = await Promise.all([signersOfShop(db(), user.shopId), entriesToAcceptOnTheirOwn(db(), user.shopId)]);
   return (
     <AppFrame user={user} current="/review">
       <h1 className="text-3xl font-bold">Sign-offs waiting for review</h1>
@@ -18,6 +21,7 @@ export default async function ReviewPage() {
         Each stage a mechanic has signed off, newest first, until someone approves it or sends it back.
       </p>
       <ReviewQueue people={people.map((p) => ({ id: p.id, name: p.name }))} />
+      <LateEntries jobs={late} officeLinks={canReach(user.role, "office")} />
       <RunningClocks canClose={user.role === "supervisor"} />
     </AppFrame>
   );

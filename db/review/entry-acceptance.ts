@@ -2,9 +2,11 @@ import "server-only";
 import { sql, type Kysely } from "kysely";
 import { canReach } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
+import { entryAcceptedOnItsOwn, type OpenItem } from "@/lib/work-orders/open-items";
+import { CLOSED_STATUSES, isClosed, type WorkOrderStatus } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import { loadOpenItems } from "../records/open-items";
+import { notWithdrawn } from "../records/withdrawn";
 import type { Database } from "../schema";
 
 type Result =
@@ -115,4 +117,41 @@ export async function acceptEntryOnItsOwn(
     ]);
     return { ok: true, acceptanceId: row.id, closedJob: true };
   });
+}
+
+/**
+ * The shop's closed jobs with flagged entries no sign-off can carry, each with those entries as
+ * open items (for the supervisor's review page; the office sees them on the job's page). Read from
+ * the flagged entries nobody accepted on closed jobs, at most `limit` jobs, newest number first.
+ */
+export async function entriesToAcceptOnTheirOwn(
+  db: Kysely<Database>,
+  shopId: string,
+  limit = 20,
+): Promise<Array<{ workOrderId: string; number: number; title: string; items: OpenItem[] }>> {
+  const jobs = await db
+    .selectFrom("work_orders as w")
+    .select(["w.id", "w.number", "w.title"])
+    .where("w.shop_id", "=", shopId)
+    .where("w.status", "in", CLOSED_STATUSES)
+    .where(({ exists, selectFrom }) =>
+      exists(
+        selectFrom("operations as o")
+          .select("o.id")
+          .whereRef("o.work_order_id", "=", "w.id")
+          .where("o.shop_id", "=", shopId)
+          .where("o.flagged", "=", true)
+          .where((eb) => eb.not(eb.exists(eb.selectFrom("flag_acceptances as a").select("a.id").whereRef("a.operation_id", "=", "o.id"))))
+          .where(notWithdrawn("o.id")),
+      ),
+    )
+    .orderBy("w.number", "desc")
+    .limit(limit)
+    .execute();
+  const out = [];
+  for (const j of jobs) {
+    const items = ((await loadOpenItems(db, shopId, j.id)) ?? []).filter((i) => entryAcceptedOnItsOwn(i, true));
+    if (items.length) out.push({ workOrderId: j.id, number: j.number, title: j.title, items });
+  }
+  return out;
 }

@@ -121,46 +121,59 @@ test("the office cannot hand over an unfinished job without a written reason; th
   const [latest] = await Promise.all([customer.waitForEvent("download"), card.getByTestId("my-build-report").click()]);
   expect(sha256(await bytesOf(latest))).toBe(stored.sha256);
 
-  // A tablet that was offline sends a step done on #1010 after the handover: kept and flagged. Its
-  // stage was never signed off, so no review can carry it: the office accepts it on the job's page,
-  // in writing, and the stored report gets revision 2.
+  // A tablet that was offline sends two steps done on #1010 after the handover: kept and flagged.
+  // Their stage was never signed off, so no review can carry them: the supervisor accepts one on
+  // the review page, the office the other on the job's page, each in writing; the last acceptance
+  // makes revision 2 of the stored report.
   const mechanic = await (await browser.newContext()).newPage();
   await signIn(mechanic, "mechanic");
-  const [ids] = await query<{ job: string; step: string; author: string }>(
-    `SELECT w.id AS job, s.id AS step, u.id AS author FROM work_orders w
+  const steps = await query<{ job: string; step: string; title: string; author: string }>(
+    `SELECT w.id AS job, s.id AS step, s.title, u.id AS author FROM work_orders w
        JOIN job_procedures jp ON jp.work_order_id = w.id JOIN template_steps s ON s.template_version_id = jp.template_version_id
-       JOIN users u ON u.email = $1 WHERE w.number = 1010 ORDER BY jp.position, s.stage_position, s.position LIMIT 1`,
+       JOIN users u ON u.email = $1 WHERE w.number = 1010 ORDER BY jp.position, s.stage_position, s.position LIMIT 2`,
     [demoUser("mechanic").email],
   );
   const now = Date.now();
-  const late = randomUUID();
+  const late = steps.map(() => randomUUID());
   const synced = await mechanic.request.post("/api/sync", {
     headers: fromOurPage,
     data: {
       deviceId: "tab-offline-e2e",
       cursor: null,
-      operations: [
-        {
-          id: late,
-          kind: "step.completed",
-          workOrderId: ids.job,
-          authorId: ids.author,
-          deviceId: "tab-offline-e2e",
-          deviceTime: new Date(now).toISOString(),
-          stamp: formatStamp({ wallMs: now, counter: 0, deviceId: "tab-offline-e2e" }),
-          payload: { stepId: ids.step },
-        },
-      ],
+      operations: steps.map((s, i) => ({
+        id: late[i],
+        kind: "step.completed",
+        workOrderId: s.job,
+        authorId: s.author,
+        deviceId: "tab-offline-e2e",
+        deviceTime: new Date(now).toISOString(),
+        stamp: formatStamp({ wallMs: now, counter: i, deviceId: "tab-offline-e2e" }),
+        payload: { stepId: s.step },
+      })),
     },
   });
-  expect((await synced.json()).flagged.map((f: { id: string }) => f.id)).toEqual([late]);
+  expect((await synced.json()).flagged.map((f: { id: string }) => f.id)).toEqual(late);
 
+  // the supervisor: both are listed under the job on the review page; a short reason is refused, a real one accepts the first
+  const supervisor = await (await browser.newContext()).newPage();
+  await signIn(supervisor, "supervisor");
+  await supervisor.goto("/review");
+  const lateJob = supervisor.getByTestId("late-entries-job").filter({ hasText: "#1010" });
+  await expect(lateJob.getByTestId("late-entry")).toHaveCount(2);
+  const first = lateJob.getByTestId("late-entry").filter({ hasText: steps[0].title });
+  await first.getByLabel("Why may it stand?").fill("done");
+  await first.getByRole("button", { name: "Accept this entry" }).click();
+  await expect(first.getByTestId("form-error")).toBeVisible();
+  await first.getByLabel("Why may it stand?").fill("Checked on the bike at collection; the step was done");
+  await first.getByRole("button", { name: "Accept this entry" }).click();
+  // one still waits: no revision yet
+  await expect(supervisor.getByTestId("late-entries").getByTestId("form-ok")).toContainText("#1010: Entry accepted.");
+  await expect(lateJob.getByTestId("late-entry")).toHaveCount(1);
+
+  // the office: the other one, on the job's open items
   await office.reload();
   const acceptForm = office.getByTestId("open-item").filter({ hasText: "flagged and not accepted" }).getByTestId("entry-acceptance-form");
-  await expect(acceptForm).toBeVisible();
-  await acceptForm.getByLabel("Why may it stand?").fill("done");
-  await acceptForm.getByRole("button", { name: "Accept this entry" }).click();
-  await expect(acceptForm.getByTestId("form-error")).toBeVisible();
+  await expect(acceptForm).toHaveCount(1);
   await acceptForm.getByLabel("Why may it stand?").fill("Step finished at the counter before collection; checked it");
   await acceptForm.getByRole("button", { name: "Accept this entry" }).click();
   await expect(office.getByTestId("open-items").getByTestId("form-ok")).toContainText(
@@ -168,9 +181,15 @@ test("the office cannot hand over an unfinished job without a written reason; th
   );
   await expect(office.getByTestId("open-item").filter({ hasText: "flagged and not accepted" })).toHaveCount(0);
   await expect(office.getByTestId("report-copy")).toHaveCount(2);
-  const [accepted] = await query<{ decision_id: string | null; justification: string }>(
-    "SELECT decision_id, justification FROM flag_acceptances WHERE operation_id = $1",
+  const accepted = await query<{ decision_id: string | null; justification: string; email: string }>(
+    `SELECT a.decision_id, a.justification, u.email FROM flag_acceptances a JOIN users u ON u.id = a.accepted_by
+      WHERE a.operation_id = ANY($1::uuid[]) ORDER BY a.accepted_at`,
     [late],
   );
-  expect(accepted).toEqual({ decision_id: null, justification: "Step finished at the counter before collection; checked it" });
+  expect(accepted).toEqual([
+    { decision_id: null, justification: "Checked on the bike at collection; the step was done", email: demoUser("supervisor").email },
+    { decision_id: null, justification: "Step finished at the counter before collection; checked it", email: demoUser("office").email },
+  ]);
+  await supervisor.reload();
+  await expect(supervisor.getByTestId("late-entries")).toHaveCount(0);
 });

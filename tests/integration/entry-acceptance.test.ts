@@ -4,6 +4,7 @@ import { storeHandoverCopy } from "@/app/_server/frozen-report";
 import { handOver } from "@/db/office/invoices";
 import { loadOpenItems } from "@/db/records/open-items";
 import { decideOnSignOff } from "@/db/review/decide";
+import { entriesToAcceptOnTheirOwn } from "@/db/review/entry-acceptance";
 import { moveWorkOrder } from "@/db/shop/work-orders";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { Tablet } from "../bench/sync-ops";
@@ -94,6 +95,15 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
     expect((await sync(db, job.users.mech, job.tablet, [fix])).flagged.map((f) => f.id)).toEqual([fix.id]);
     const item = (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!.find((i) => i.key === `flagged_not_accepted:${fix.id}`);
     expect(item).toMatchObject({ signOffId: null, stage: { key: "check" } });
+    // listed for the supervisor's review page, under its job
+    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId)).toEqual([
+      {
+        workOrderId: job.workOrderId,
+        number: 2,
+        title: "Close-out job",
+        items: [expect.objectContaining({ key: `flagged_not_accepted:${fix.id}` })],
+      },
+    ]);
 
     // in workshop words: too short a reason; the mechanic's role may not accept
     const short = await accept(job, fix.id, { justification: "ok" }, job.users.office);
@@ -126,6 +136,7 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
       justification: "Remeasured at collection with the customer present",
     });
     expect((await loadOpenItems(db, job.fx.shopId, job.workOrderId))!.map((i) => i.key)).not.toContain(`flagged_not_accepted:${fix.id}`);
+    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId)).toEqual([]);
     expect(await auditOf(job.workOrderId)).toEqual([["accepted", null]]);
 
     // once only: a second acceptance is refused, and audited
@@ -168,6 +179,7 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
     // the close stage is signed off and approved: its late entry goes back to that sign-off's review
     const reseal = job.tablet.complete(job.steps.seal);
     await sync(db, job.users.mech, job.tablet, [reseal]);
+    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId)).toEqual([]); // in the review queue instead
     const viaReview = await accept(job, reseal.id, { justification: "Seal checked again at collection" }, job.users.office);
     expect(viaReview.status).toBe(409);
     expect((await viaReview.json()).error).toMatch(/decision on the sign-off of “Close up”/);
@@ -186,5 +198,16 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
     );
     expect(await auditOf(job.workOrderId)).toEqual([["refused", expect.stringMatching(/decision on the sign-off of “Close up”/)]]);
     expect(await auditOf(open.workOrderId)).toEqual([["refused", expect.stringMatching(/still open/)]]);
+  });
+
+  it("on a cancelled job an entry is accepted on its own too, and no report revision is made (a cancelled job has no report)", async () => {
+    const job = await closeOutJob(db, { status: "cancelled" });
+    const w = stageWork(job, "check");
+    expect((await sync(db, job.users.mech, job.tablet, [w.ops[0]])).flagged.map((f) => f.id)).toEqual([w.ops[0].id]);
+    const ok = await accept(job, w.ops[0].id, { justification: "Measured before the customer cancelled; keep it" }, job.users.sup);
+    expect(ok.status).toBe(201);
+    expect((await ok.json()).reportRevision).toBeNull();
+    expect(await revisions(job)).toEqual([]);
+    expect(await auditOf(job.workOrderId)).toEqual([["accepted", null]]);
   });
 });

@@ -2,11 +2,12 @@
 
 import Link from "next/link";
 import { useState } from "react";
+import { EntryAcceptanceForm } from "@/app/ui/entry-acceptance-form";
 import { FormMessage } from "@/app/ui/form-field";
+import { useQueryClient } from "@tanstack/react-query";
 import { formatDayTime } from "@/lib/format/dates";
 import { entryAcceptedOnItsOwn, openItemLine, openItemsSummary } from "@/lib/work-orders/open-items";
 import { isClosed, STATUS_LABELS } from "@/lib/work-orders/status";
-import { EntryAcceptanceForm } from "./entry-acceptance-form";
 import type { WorkOrderData } from "./types";
 
 type Item = WorkOrderData["openItems"][number];
@@ -37,6 +38,11 @@ export function OpenItemsPanel({ data, highlight }: { data: WorkOrderData; highl
   const closed = isClosed(data.workOrder.status);
   // what an acceptance made here did (its form goes with the item it settled)
   const [accepted, setAccepted] = useState<string | null>(null);
+  const qc = useQueryClient();
+  const onAccepted = (message: string) => {
+    setAccepted(message);
+    void qc.invalidateQueries({ queryKey: ["work-order", data.workOrder.id] });
+  };
   if (items.length === 0 && data.overrides.length === 0 && closed && !accepted) return null;
   return (
     <section
@@ -83,7 +89,7 @@ export function OpenItemsPanel({ data, highlight }: { data: WorkOrderData; highl
                   <EntryAcceptanceForm
                     workOrderId={data.workOrder.id}
                     operationId={entryAcceptedOnItsOwn(i, closed)!}
-                    onAccepted={setAccepted}
+                    onAccepted={onAccepted}
                   />
                 )}
               </li>

@@ -1,6 +1,6 @@
 "use client";
 
-import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation } from "@tanstack/react-query";
 import { useState, type FormEvent } from "react";
 import { api, ApiError, fieldErrors } from "@/app/ui/api-client";
 import { Field, FormMessage, inputClass, quietButtonClass } from "@/app/ui/form-field";
@@ -11,6 +11,7 @@ import { issuesOf } from "@/lib/zod-issues";
  * Accepting, in writing, a flagged entry of a closed job that no sign-off can carry (its stage's
  * sign-off withdrawn or never made): otherwise it stays open and the stored build report gets no
  * new revision. The server checks it may be accepted this way (db/review/entry-acceptance.ts).
+ * On the office's work order page and the supervisor's review page.
  */
 export function EntryAcceptanceForm({
   workOrderId,
@@ -19,10 +20,9 @@ export function EntryAcceptanceForm({
 }: {
   workOrderId: string;
   operationId: string;
-  /** What the acceptance did, in words: shown by the panel, since this form goes with the item it settles. */
+  /** What the acceptance did, in words: shown by the page (this form goes with the item it settles), which reads the record again. */
   onAccepted: (message: string) => void;
 }) {
-  const qc = useQueryClient();
   const [error, setError] = useState<string | undefined>();
   const [message, setMessage] = useState<{ error?: string }>({});
   const accept = useMutation({
@@ -32,7 +32,6 @@ export function EntryAcceptanceForm({
       }),
     onSuccess: (r) => {
       onAccepted(r.reportRevision ? `Entry accepted. The build report is now revision ${r.reportRevision}.` : "Entry accepted.");
-      void qc.invalidateQueries({ queryKey: ["work-order", workOrderId] });
     },
     onError: (e) => {
       if (e instanceof ApiError) setError(fieldErrors(e.issues).justification);
