@@ -4,7 +4,7 @@ import { sql, type Kysely } from "kysely";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { countingRuns } from "@/lib/dyno/run-withdrawal";
 import type { WorkOrderStatus } from "@/lib/work-orders/status";
-import { entryDetail, entryKindLabel, placeOfEntry } from "@/lib/review/flagged-work";
+import { describeEntry, placeOfEntry } from "@/lib/review/flagged-work";
 import { buildWorkOrderView } from "@/lib/work-order-record";
 import { getJobSnapshot } from "../bench/jobs";
 import { flaggedEntriesOf, placeLookups } from "../review/flagged-work";
@@ -210,7 +210,7 @@ export async function loadHandoverReport(db: Kysely<Database>, shopId: string, w
   const flagged = (flaggedByJob.get(workOrderId) ?? []).map((e) => {
     const stepId = lookup ? placeOfEntry(e, lookup).stepId : null;
     return {
-      what: [entryKindLabel(e.kind), entryDetail(e.kind, e.payload)].filter(Boolean).join(": "),
+      what: describeEntry(e.kind, e.payload),
       stepTitle: stepId ? (stepTitle.get(stepId) ?? null) : null,
       by: names.get(e.authorId) ?? "—",
       flagReason: e.flagReason,

@@ -2,7 +2,7 @@ import "server-only";
 import { isWithdrawn } from "../records/withdrawn";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { readingLabelOf } from "@/lib/review/stage-review";
-import { entryDetail, entryKindLabel, isStage, placeOfEntry, type FlaggedEntry } from "@/lib/review/flagged-work";
+import { describeEntry, isStage, placeOfEntry, type FlaggedEntry } from "@/lib/review/flagged-work";
 import { flaggedEntriesOf, placeLookups } from "./flagged-work";
 import type { Database } from "../schema";
 
@@ -174,13 +174,12 @@ export async function stageFlaggedEntries(
     const place = placeOfEntry(e, lookup);
     const here = isStage(place.stage, so);
     if (!here && place.stage) continue;
-    const detail = entryDetail(e.kind, e.payload);
     const step = place.stepId ? titles.get(place.stepId) : undefined;
     out.push({
       ...e,
       stepId: place.stepId,
       onNoStage: !place.stage,
-      description: `${entryKindLabel(e.kind)}${detail ? ` (${detail})` : ""}${step ? ` at “${step}”` : ""}`,
+      description: `${describeEntry(e.kind, e.payload)}${step ? ` at “${step}”` : ""}`,
     });
   }
   return out;
@@ -205,7 +204,5 @@ export async function stageWorkSince(
     .execute();
   if (since.length === 0) return [];
   const lookup = (await placeLookups(db as Kysely<Database>, new Map([[so.workOrderId, since]]))).get(so.workOrderId)!;
-  return since
-    .filter((o) => isStage(placeOfEntry(o, lookup).stage, so))
-    .map((o) => [entryKindLabel(o.kind), entryDetail(o.kind, o.payload)].filter(Boolean).join(" "));
+  return since.filter((o) => isStage(placeOfEntry(o, lookup).stage, so)).map((o) => describeEntry(o.kind, o.payload));
 }

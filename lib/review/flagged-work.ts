@@ -105,6 +105,16 @@ export function entryKindLabel(kind: string): string {
   return KIND_WORDS[kind] ?? "Bench entry";
 }
 
+/**
+ * One entry in workshop words, the same wherever it is named — the review's flagged list, a
+ * decision refused for work not seen, the build report: "Reading: 0.43 mm (a correction)",
+ * "Torque bolt: pass 1, bolt 3", "Step done". (The open items keep their own older wording, since
+ * the stored report prints them and a change of words would show as a change in its next revision.)
+ */
+export function describeEntry(kind: string, payload: unknown): string {
+  return [entryKindLabel(kind), entryDetail(kind, payload)].filter(Boolean).join(": ");
+}
+
 /** A short account of what the entry recorded, from its payload, for the known kinds; "" otherwise. */
 export function entryDetail(kind: string, payload: unknown): string {
   const p = isRecord(payload) ? payload : {};

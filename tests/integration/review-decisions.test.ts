@@ -442,7 +442,7 @@ describe("review decisions on synced sign-offs", () => {
         ok: false,
         status: 409,
         reason:
-          'While you had this review open, 1 new entry (Reading 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
+          'While you had this review open, 1 new entry (Reading: 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
       });
     }
     expect(await db.selectFrom("review_decisions").select("id").where("sign_off_id", "=", signOff.id).execute()).toEqual([]);

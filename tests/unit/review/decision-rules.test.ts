@@ -59,25 +59,25 @@ describe("checkDecision", () => {
   });
 
   it("decides only on the record the screen showed: work on the stage that arrived since refuses approving and sending back alike", () => {
-    const unseen = ["Reading 0.43 mm (a correction)", "Step done", "Photo", "Torque bolt 3"];
+    const unseen = ["Reading: 0.43 mm (a correction)", "Step done", "Photo", "Torque bolt 3"];
     const both = [approve([{ readingId: ids.r1, justification: why }]), sendBack([ids.s2])];
     for (const decision of both) {
       expect(checkDecision(facts({ arrivedSinceSeen: unseen.slice(0, 1) }), decision)).toEqual({
         ok: false,
         status: 409,
         reason:
-          'While you had this review open, 1 new entry (Reading 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
+          'While you had this review open, 1 new entry (Reading: 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
         issues: [
           {
             path: "seenUpTo",
             message:
-              'While you had this review open, 1 new entry (Reading 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
+              'While you had this review open, 1 new entry (Reading: 0.43 mm (a correction)) arrived on "Measure before assembly". Reload to see it before you decide.',
           },
         ],
       });
       expect(checkDecision(facts({ arrivedSinceSeen: unseen }), decision)).toMatchObject({
         status: 409,
-        reason: expect.stringContaining("4 new entries (Reading 0.43 mm (a correction); Step done; Photo; …) arrived"),
+        reason: expect.stringContaining("4 new entries (Reading: 0.43 mm (a correction); Step done; Photo; …) arrived"),
       });
       expect(checkDecision(facts({ arrivedSinceSeen: [] }), decision)).toMatchObject({ ok: true });
     }
@@ -86,7 +86,7 @@ describe("checkDecision", () => {
   it("nobody lets their own work stand: a reading or a flagged entry the deciding supervisor recorded needs another's acceptance", () => {
     const mine = facts({
       outOfTolerance: [{ readingId: ids.r1, description: "Top ring gap, Cyl 2: 0.5 mm (high)", accepted: false, recordedBy: ids.sup }],
-      flagged: [{ operationId: ids.d1, description: "Torque bolt (bolt 3)", accepted: false, authorId: ids.sup }],
+      flagged: [{ operationId: ids.d1, description: "Torque bolt: pass 1, bolt 3", accepted: false, authorId: ids.sup }],
     });
     const r = checkDecision(
       mine,
@@ -105,7 +105,7 @@ describe("checkDecision", () => {
       },
       {
         path: "flagAcceptances.0.operationId",
-        message: "You recorded Torque bolt (bolt 3) yourself: another supervisor or the office must accept it.",
+        message: "You recorded Torque bolt: pass 1, bolt 3 yourself: another supervisor or the office must accept it.",
       },
     ]);
     // another supervisor may; and sending the step back stays open to the one who recorded it
@@ -184,7 +184,7 @@ describe("flagged entries of the stage (any kind the sync flagged)", () => {
     outOfTolerance: [],
     flagged: [
       { operationId: op1, description: "Step done at “Bore”", accepted: false },
-      { operationId: op2, description: "Reading (76.02 mm)", accepted: true },
+      { operationId: op2, description: "Reading: 76.02 mm", accepted: true },
     ],
   });
   const approveWith = (flagAcceptances: unknown[]) => input({ decision: "approved", expectedDecisionId: null, flagAcceptances });
@@ -212,7 +212,7 @@ describe("flagged entries of the stage (any kind the sync flagged)", () => {
       ),
     ).toMatchObject({
       ok: false,
-      issues: [{ path: "flagAcceptances.1.operationId", message: "Reading (76.02 mm) was already accepted." }],
+      issues: [{ path: "flagAcceptances.1.operationId", message: "Reading: 76.02 mm was already accepted." }],
     });
     expect(
       checkDecision(
