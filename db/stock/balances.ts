@@ -9,6 +9,15 @@ import type { Database } from "../schema";
 
 type Db = Kysely<Database> | Transaction<Database>;
 
+/**
+ * Locks these lots' rows until the transaction ends, in id order (two transactions locking some of
+ * the same lots never wait on each other in a circle). Every writer of a lot's balance takes it first.
+ */
+export async function lockLots(trx: Transaction<Database>, lotIds: readonly string[]): Promise<void> {
+  const ids = [...new Set(lotIds)].sort();
+  if (ids.length) await trx.selectFrom("stock_lots").select("id").where("id", "in", ids).orderBy("id").forUpdate().execute();
+}
+
 /** Outstanding reservations per lot and work order: lot id → (work order id → quantity). */
 export async function outstandingReservations(db: Db, lotIds: readonly string[]): Promise<Map<string, Map<string, number>>> {
   const out = new Map<string, Map<string, number>>();
@@ -37,16 +46,26 @@ export async function lockedLots(
   if (!where.itemIds.length) return [];
   const lots = await trx
     .selectFrom("stock_lots")
-    .select(["id", "item_id as itemId", "location", "on_hand as onHand", "reserved", "batch_key as batchKey", "serial_key as serialKey"])
+    .select([
+      "id",
+      "item_id as itemId",
+      "location",
+      "on_hand as onHand",
+      "reserved",
+      "batch_key as batchKey",
+      "serial_key as serialKey",
+      "received_at as receivedAt",
+    ])
     .where("shop_id", "=", where.shopId)
     .where("item_id", "in", [...where.itemIds])
-    .orderBy("received_at")
+    // locked in id order, as lockLots locks (no two writers wait on each other in a circle); oldest first below
     .orderBy("id")
     .forUpdate()
     .execute();
+  lots.sort((a, b) => a.receivedAt.getTime() - b.receivedAt.getTime() || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   const held = await outstandingReservations(
     trx,
     lots.map((l) => l.id),
   );
-  return lots.map((l) => ({ ...l, reservedFor: held.get(l.id) ?? new Map() }));
+  return lots.map(({ receivedAt: _receivedAt, ...l }) => ({ ...l, reservedFor: held.get(l.id) ?? new Map() }));
 }

@@ -4,7 +4,7 @@ import { planDraw, stockFlagReason, type DrawPlan } from "@/lib/stock/draw";
 import type { OperationOf } from "@/lib/sync/operations";
 import { plainCode } from "@/lib/sync/parts";
 import type { Database } from "../schema";
-import { lockedLots } from "./balances";
+import { lockedLots, lockLots } from "./balances";
 
 // Parts fitted at the bench draw from stock, in the merge's transaction. A fit is never refused or
 // lost for stock: it is recorded, the draw stops at zero (the lots' CHECK (on_hand >= 0) would
@@ -138,7 +138,10 @@ export async function returnWithdrawnDraws(trx: Tx, shopId: string, withdrawals:
     perLot.set(d.lot_id!, t);
   }
   const rows = [...perLot].sort(([a], [b]) => (a < b ? -1 : 1)).map(([id, t]) => ({ id, ...t }));
-  await sql`SELECT id FROM stock_lots WHERE id = ANY(${rows.map((r) => r.id)}::uuid[]) ORDER BY id FOR UPDATE`.execute(trx);
+  await lockLots(
+    trx,
+    rows.map((r) => r.id),
+  );
   await sql`
     UPDATE stock_lots l SET on_hand = l.on_hand + x.back, reserved = l.reserved + x.aside
     FROM json_to_recordset(${JSON.stringify(rows)}::json) AS x(id uuid, back int, aside int)

@@ -7,7 +7,7 @@ import type { ReservationInput } from "@/lib/stock/input";
 import { isClosed, STATUS_LABELS } from "@/lib/work-orders/status";
 import { appendAudit } from "../audit/append";
 import type { Database } from "../schema";
-import { outstandingReservations } from "./balances";
+import { lockLots, outstandingReservations } from "./balances";
 
 // Putting stock aside for a job, and letting it go again. A reservation is a movement; letting it
 // go is a second movement pointing at it, with a reason. The lot's `reserved` balance changes in
@@ -94,7 +94,7 @@ export async function releaseReservation(db: Kysely<Database>, user: SessionUser
       .executeTakeFirst();
     if (!res) throw new Refusal("No such reservation in this shop.", 404);
     // The lot's lock first: fits and other releases of this lot wait.
-    await trx.selectFrom("stock_lots").select("id").where("id", "=", res.lot_id!).forUpdate().execute();
+    await lockLots(trx, [res.lot_id!]);
     const already = await trx.selectFrom("stock_movements").select("id").where("releases_id", "=", res.id).executeTakeFirst();
     if (already) throw new Refusal("This reservation was already let go.", 409);
     const outstanding = (await outstandingReservations(trx, [res.lot_id!])).get(res.lot_id!)?.get(res.work_order_id!) ?? 0;
@@ -135,7 +135,7 @@ export async function releaseReservationsOfClosedJob(
     .execute();
   if (!open.length) return 0;
   const lotIds = [...new Set(open.map((r) => r.lot_id!))].sort();
-  await trx.selectFrom("stock_lots").select("id").where("id", "in", lotIds).orderBy("id").forUpdate().execute();
+  await lockLots(trx, lotIds);
   const held = await outstandingReservations(trx, lotIds);
   let released = 0;
   for (const res of open) {

@@ -1,5 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { sql } from "kysely";
+import { lockedLots } from "@/db/stock/balances";
 import { describe, expect, it } from "vitest";
 import { POST as deliveriesRoute } from "@/app/api/office/stock/deliveries/route";
 import { POST as officePartsRoute } from "@/app/api/office/work-orders/[id]/parts/route";
@@ -151,6 +152,20 @@ describe("receiving a delivery", () => {
     });
     expect(res.status).toBe(422);
     expect(res.body.error).toBe(`Serial number GS-0099 of part GS-PST-7600 is already on file: fitted on work order #${1}.`);
+  });
+});
+
+describe("lots are drawn oldest first, locked in one order", () => {
+  it("lockedLots gives the item's lots in the order they were received, whatever their ids", async () => {
+    const { fx, office } = await setup();
+    const received: string[] = [];
+    // six deliveries of the same part: their random ids are almost surely not in the order received
+    for (let i = 0; i < 6; i++)
+      received.push((await receive(office, { supplier: "Harbour Pistons", lines: [rodBolts({ batch: `L-${i}` })] })).body.lots![0]);
+    const [{ item_id }] = await db.selectFrom("stock_lots").select("item_id").where("id", "=", received[0]).execute();
+    const lots = await db.transaction().execute((trx) => lockedLots(trx, { shopId: fx.shopId, itemIds: [item_id] }));
+    expect(lots.map((l) => l.id)).toEqual(received);
+    expect(lots[0]).not.toHaveProperty("receivedAt");
   });
 });
 
