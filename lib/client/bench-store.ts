@@ -11,7 +11,7 @@
  *    mechanic sends it again or discards it with a reason and the server has written that down.
  */
 import Dexie from "dexie";
-import { createClock, MAX_CLOCK_AHEAD_MS, receive, tick, type HlcState } from "@/lib/sync/hlc";
+import { createClock, receive, tick, type HlcState } from "@/lib/sync/hlc";
 import { compareCursors, isAtLeast, laterCursor } from "@/lib/sync/cursor";
 import { operationSchema, type Operation, type OperationKind, type PHOTO_CONTENT_TYPES } from "@/lib/sync/operations";
 import type { BenchJobSummary, JobSnapshot } from "@/lib/sync/snapshot";
@@ -189,8 +189,7 @@ export interface SyncAnswer {
  * Keeps what a sync answer said, in one transaction, before any job copy is fetched: stored
  * operations become "sent" (they stay on screen), refused ones keep the reason, every touched job
  * the tablet holds (or has sent work for) wants a copy at least as new as the answer, the clock
- * takes in the stamps seen (and starts again from the wall time if it was left pinned ahead with
- * nothing of it unsent), and the cursor moves on.
+ * takes in the stamps seen, and the cursor moves on.
  */
 export async function keepSyncAnswer(db: BenchDb, answer: SyncAnswer, now = Date.now()): Promise<void> {
   await db.transaction("rw", [db.jobs, db.outbox, db.wanted, db.meta], async () => {
@@ -230,17 +229,9 @@ export async function keepSyncAnswer(db: BenchDb, answer: SyncAnswer, now = Date
     }
 
     let clock = await readMeta<HlcState>(db, META.clock, createClock(answer.deviceId));
-    // A tablet clock that ran ahead and was put right leaves this clock pinned ahead (it never goes
-    // back), and the server would flag every later entry "ahead of the server clock" until real
-    // time caught up. Once the server holds everything this tablet stamped, no stamp of it is left
-    // to sort against a new one here: the clock starts again from the wall time (and the changes
-    // from elsewhere, taken in below), and what it stamped before stays on the server as it was.
-    if (clock.wallMs > now + MAX_CLOCK_AHEAD_MS && (await db.outbox.where("state").anyOf(UNTAKEN_STATES).count()) === 0) {
-      clock = createClock(clock.deviceId);
-    }
     for (const s of answer.remoteStamps) {
       try {
-        clock = receive(clock, s, now, { maxAheadMs: MAX_CLOCK_AHEAD_MS }).state;
+        clock = receive(clock, s, now, { maxAheadMs: 5 * 60_000 }).state;
       } catch {
         // a stamp from a tablet with a wrong clock: do not drag ours forward
       }

@@ -68,9 +68,6 @@ function checkWall(name: string, ms: number): number {
   return ms;
 }
 
-/** How far ahead of the server clock a stamp may be before the merge flags it (and a tablet takes no remote stamp further ahead of its own). */
-export const MAX_CLOCK_AHEAD_MS = 5 * 60_000;
-
 /** A new clock for a device. It has seen nothing yet: the first `tick` takes the wall time. */
 export function createClock(deviceId: string): HlcState {
   if (!DEVICE_ID_PATTERN.test(deviceId)) {

@@ -6,7 +6,7 @@
 import { canReach, type Role } from "@/lib/auth/roles";
 import { sameMeasurementKind, type MeasurementUnit } from "@/lib/calc/units";
 import { isClosed, isOpenForBenchWork, STATUS_LABELS, type WorkOrderStatus } from "@/lib/work-orders/status";
-import { compareStamps, MAX_CLOCK_AHEAD_MS, parseStamp } from "./hlc";
+import { compareStamps, parseStamp } from "./hlc";
 import { clockAuthority, clockFlags, clockProblem, noteClock, type ClockState } from "./clocks";
 import { describeHold, holdAt, runningAt, type HoldTimer } from "./holds";
 import type { Operation } from "./operations";
@@ -14,7 +14,7 @@ import { partSerialOnWorkOrder, repeatedSerialReason, type SerialOnFile } from "
 import { withdrawalRefusal, type EntryFacts, type TargetLookup } from "./withdrawals";
 
 /** A stamp further ahead of the server's clock than this is kept but flagged (the tablet's clock is likely wrong). */
-export { MAX_CLOCK_AHEAD_MS };
+export const MAX_CLOCK_AHEAD_MS = 5 * 60_000;
 
 export interface Actor {
   id: string;

@@ -10,14 +10,12 @@ import {
   missedCopyCursor,
   olderCopies,
   photosOfStep,
-  recordOperation,
   recordPhoto,
   storeJobCopy,
   trimSentPhotos,
   waitingOperations,
   workOnTop,
 } from "@/lib/client/bench-store";
-import { parseStamp } from "@/lib/sync/hlc";
 import { author, bolt, freshDb } from "../support/tablet-db";
 import { ids, jobSnapshot } from "../support/job-snapshot";
 
@@ -211,52 +209,5 @@ describe("a step's photos on this tablet", () => {
     await recordPhoto(db, author, randomUUID(), { stepId: ids.stepBore, blob, contentType: "image/png" });
     const shown = await photosOfStep(db, ids.job, ids.stepBore);
     expect(shown.map((p) => p.id)).toEqual([here.kind === "photo.queued" ? here.payload.attachmentId : ""]);
-  });
-});
-
-describe("a tablet clock that ran ahead and was put right", () => {
-  const HOUR = 3600_000;
-  const now = Date.parse("2026-12-04T09:00:00Z");
-  const wallOf = (stamp: string) => parseStamp(stamp).wallMs;
-  const confirm = (db: BenchDb, b: number, at: number) =>
-    recordOperation(
-      db,
-      author,
-      ids.job,
-      "torque.bolt-confirmed",
-      { stepId: ids.stepBolts, torqueSpecId: ids.rodSpec, passIndex: 1, bolt: b },
-      at,
-    );
-  const answer = (stored: string[]) => ({ deviceId: "tab-1", stored, refused: [], touchedJobs: [ids.job], cursor: "20", remoteStamps: [] });
-
-  it("stamps from the wall time again once the server holds everything it stamped ahead", async () => {
-    const db = freshDb();
-    const ahead = await confirm(db, 1, now + 30 * 24 * HOUR); // the tablet's date was a month out
-    // the date is put right; a bolt before the sync still sorts after the one stamped ahead
-    const before = await confirm(db, 2, now);
-    expect(wallOf(before.stamp)).toBe(wallOf(ahead.stamp));
-    expect(before.stamp > ahead.stamp).toBe(true);
-
-    await keepSyncAnswer(db, answer([ahead.id, before.id]), now + 1000);
-    const after = await confirm(db, 3, now + 2000);
-    expect(wallOf(after.stamp)).toBe(now + 2000);
-  });
-
-  it("stays pinned while anything it stamped is still on the tablet: nothing of it may sort wrongly", async () => {
-    const db = freshDb();
-    const ahead = await confirm(db, 1, now + 30 * 24 * HOUR);
-    const waiting = await confirm(db, 2, now);
-    await keepSyncAnswer(db, answer([ahead.id]), now + 1000); // the second bolt did not go
-    const next = await confirm(db, 3, now + 2000);
-    expect(next.stamp > waiting.stamp).toBe(true);
-    expect(wallOf(next.stamp)).toBe(wallOf(ahead.stamp));
-  });
-
-  it("a clock only a little ahead (within what the server takes) is left as it is", async () => {
-    const db = freshDb();
-    const ahead = await confirm(db, 1, now + 2 * 60_000);
-    await keepSyncAnswer(db, answer([ahead.id]), now);
-    const next = await confirm(db, 2, now + 1000);
-    expect(next.stamp > ahead.stamp).toBe(true);
   });
 });
