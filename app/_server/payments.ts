@@ -126,9 +126,16 @@ export async function askRefund(
     return { id: refund.id, status: refund.status };
   } catch (e) {
     console.error("[payments] the payment service refused a refund", e);
-    const said = e instanceof Stripe.errors.StripeInvalidRequestError ? ` It said: ${e.message}` : "";
+    // a plain refusal (nothing to refund, already refunded, too much): the provider's own words
+    if (e instanceof Stripe.errors.StripeInvalidRequestError) {
+      throw new Refusal(
+        `The payment service did not give the money back. It said: ${e.message} If it says the payment is refunded already, the line goes when its report arrives.`,
+        409,
+      );
+    }
+    // no clear answer (no connection, a time-out, the same request still running): the refund may have been made
     throw new Refusal(
-      `The payment service did not give the money back, so nothing changed here.${said} Try again later, or refund it in the provider's dashboard.`,
+      "The payment service gave no clear answer, so the money may or may not have gone back. The line goes when the provider reports a refund; check the provider's dashboard before asking again.",
       409,
     );
   }

@@ -115,6 +115,8 @@ interface Payable {
   amount_minor: number;
   currency: string;
   status: DepositStatus;
+  /** How much of it the provider has given back in all (minor units). */
+  refunded_minor: number;
 }
 
 /** The row a payment was started for, as the payment's metadata names it (set when it was created). */
@@ -130,7 +132,7 @@ export interface PaymentNamed {
  * its row (the event comes the moment the payment is confirmed), and that report is the only one.
  */
 async function payableOf(trx: Transaction<Database>, paymentIntentId: string, named: PaymentNamed = {}): Promise<Payable | null> {
-  const cols = ["id", "shop_id", "work_order_id", "amount_minor", "currency", "status"] as const;
+  const cols = ["id", "shop_id", "work_order_id", "amount_minor", "currency", "status", "refunded_minor"] as const;
   const dep = await trx.selectFrom("deposits").select(cols).where("payment_intent_id", "=", paymentIntentId).forUpdate().executeTakeFirst();
   if (dep) return { paymentFor: "deposit", ...dep };
   const bal = await trx
@@ -139,7 +141,7 @@ async function payableOf(trx: Transaction<Database>, paymentIntentId: string, na
     .where("payment_intent_id", "=", paymentIntentId)
     .forUpdate()
     .executeTakeFirst();
-  if (bal) return { paymentFor: "balance", ...bal, amount_minor: Number(bal.amount_minor) };
+  if (bal) return { paymentFor: "balance", ...bal, amount_minor: Number(bal.amount_minor), refunded_minor: Number(bal.refunded_minor) };
   if (named.depositId && isUuid(named.depositId)) {
     const d = await trx
       .updateTable("deposits")
@@ -158,7 +160,7 @@ async function payableOf(trx: Transaction<Database>, paymentIntentId: string, na
       .where("payment_intent_id", "is", null)
       .returning(cols)
       .executeTakeFirst();
-    if (b) return { paymentFor: "balance", ...b, amount_minor: Number(b.amount_minor) };
+    if (b) return { paymentFor: "balance", ...b, amount_minor: Number(b.amount_minor), refunded_minor: Number(b.refunded_minor) };
   }
   return null;
 }
@@ -220,6 +222,11 @@ async function applyRefund(
     const reason = !fits ? "refund amount or currency does not match" : `the ${dep.paymentFor} is ${dep.status}, not paid`;
     await audit("refunded", "refused", { eventId: event.id, amountRefunded: refunded ?? null }, reason);
     return { kind: "ignored", reason };
+  }
+  // the provider's figure is the total so far, and its events may come out of order: an earlier, smaller total changes nothing
+  if (refunded <= Number(dep.refunded_minor)) {
+    await audit("refunded", "refused", { eventId: event.id, amountRefunded: refunded }, "an earlier refund total than the one on record");
+    return { kind: "ignored", reason: "an earlier refund total than the one on record" };
   }
   const whole = refunded === dep.amount_minor;
   await updatePayable(trx, dep, { refunded_minor: refunded, ...(whole ? { status: "refunded" as const } : {}) });

@@ -50,13 +50,15 @@ export async function applyGivenBack(
 ): Promise<{ id: string; givenBackMinor: number; whole: boolean } | null> {
   const row = await trx
     .selectFrom("money_to_give_back")
-    .select(["id", "amount_minor", "currency", "given_back_at"])
+    .select(["id", "amount_minor", "currency", "given_back_minor", "given_back_at"])
     .where("payment_intent_id", "=", paymentIntentId)
     .forUpdate()
     .executeTakeFirst();
   const refunded = refund.amountRefunded;
   if (!row || typeof refunded !== "number" || !Number.isInteger(refunded) || refunded <= 0 || refunded > row.amount_minor) return null;
   if ((refund.currency ?? "").toUpperCase() !== row.currency.toUpperCase()) return null;
+  // the provider's figure is the total so far, and its events may come out of order: an earlier, smaller total changes nothing
+  if (refunded <= Number(row.given_back_minor)) return null;
   const whole = refunded === row.amount_minor;
   await trx
     .updateTable("money_to_give_back")

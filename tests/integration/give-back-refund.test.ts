@@ -107,7 +107,9 @@ describe("giving money back through the payment provider (real PostgreSQL, fake 
     await paymentsClient().refunds.create({ payment_intent: g.intentId });
     const refused = await ask(g.id, job.users.office);
     expect(refused.status).toBe(409);
-    expect((await refused.json()).error).toMatch(/^The payment service did not give the money back, so nothing changed here\. It said: /);
+    expect((await refused.json()).error).toMatch(
+      /^The payment service did not give the money back\. It said: .*If it says the payment is refunded already/,
+    );
     const [audited] = await db
       .selectFrom("audit_log")
       .select(["outcome", "reason"])
@@ -128,5 +130,21 @@ describe("giving money back through the payment provider (real PostgreSQL, fake 
     expect(await refundedAtProvider(theirs.intentId)).toBe(0);
     expect((await ask(theirs.id, other.users.mech)).status).toBe(403);
     expect(await refundedAtProvider(theirs.intentId)).toBe(0);
+  });
+
+  it("no answer from the provider: the office is told the money may have gone back, not that nothing changed", async () => {
+    const job = await closeOutJob(db);
+    const g = await moneyToGiveBack(job);
+    const base = process.env.STRIPE_API_BASE;
+    process.env.STRIPE_API_BASE = "http://127.0.0.1:9"; // nothing listens there
+    try {
+      const r = await ask(g.id, job.users.office);
+      expect(r.status).toBe(409);
+      expect((await r.json()).error).toMatch(/^The payment service gave no clear answer, so the money may or may not have gone back\./);
+    } finally {
+      process.env.STRIPE_API_BASE = base;
+    }
+    expect(await refundedAtProvider(g.intentId)).toBe(0);
+    expect((await openGiveBacks(db, job.fx.shopId)).map((x) => x.id)).toContain(g.id);
   });
 });

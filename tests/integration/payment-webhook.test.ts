@@ -391,6 +391,9 @@ describe("a refund made at the payment provider", () => {
 
     expect((await post(refundedEvent(pi, 5000))).body.outcome).toBe("deposit refunded");
     expect(await row(deposit.id)).toEqual({ status: "refunded", refunded_minor: 5000 });
+    // the provider's events out of order: the earlier total of 1500 arriving late changes nothing
+    expect((await post(refundedEvent(pi, 1500))).body.outcome).toBe("ignored: an earlier refund total than the one on record");
+    expect(await row(deposit.id)).toEqual({ status: "refunded", refunded_minor: 5000 });
 
     // the deposit no longer counts as paid: the job cannot go into build on it
     await expect(moveWorkOrder(db, fx.shopId, fx.users.office.id, wo.id, "in_build")).rejects.toThrow(/deposit/i);
@@ -409,6 +412,7 @@ describe("a refund made at the payment provider", () => {
       { action: "deposit.refunded", outcome: "refused" },
       { action: "deposit.partly-refunded", outcome: "accepted" },
       { action: "deposit.refunded", outcome: "accepted" },
+      { action: "deposit.refunded", outcome: "refused" }, // the earlier total, delivered late
     ]);
   });
 
@@ -516,6 +520,9 @@ describe("a card that failed and went through later, beside a new try", () => {
     expect((await post(refundedEvent(first, 2000))).body.outcome).toBe("deposit partly given back");
     expect(await openGiveBacks(db, fx.shopId)).toEqual([expect.objectContaining({ givenBackMinor: 2000 })]);
     expect((await post(refundedEvent(first, 5000))).body.outcome).toBe("deposit given back");
+    expect(await openGiveBacks(db, fx.shopId)).toEqual([]);
+    // an earlier total delivered late does not bring the line back
+    expect((await post(refundedEvent(first, 2000))).body.outcome).toMatch(/^ignored/);
     expect(await openGiveBacks(db, fx.shopId)).toEqual([]);
     // the deposits as they were: the one that counts is still paid
     expect(await statuses(quoteId)).toEqual(["failed", "paid"]);
