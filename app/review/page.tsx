@@ -13,7 +13,7 @@ export const metadata: Metadata = { title: "Review" };
 
 export default async function ReviewPage() {
   const user = await requirePageArea("review");
-  const [people, late] = await Promise.all([signersOfShop(db(), user.shopId), entriesToAcceptOnTheirOwn(db(), user.shopId)]);
+  const [people, late] = await Promise.all([signersOfShop(db(), user.shopId), entriesToAcceptOnTheirOwn(db(), user.shopId, user.id)]);
   return (
     <AppFrame user={user} current="/review">
       <h1 className="text-3xl font-bold">Sign-offs waiting for review</h1>

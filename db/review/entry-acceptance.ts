@@ -121,15 +121,18 @@ export async function acceptEntryOnItsOwn(
 
 /**
  * The shop's closed jobs with flagged entries no sign-off can carry, each with those entries as
- * open items (for the supervisor's review page; the office sees them on the job's page). Read from
- * the flagged entries nobody accepted on closed jobs, at most `limit` jobs, newest number first.
+ * open items, for the review page (the office also sees them on the job's page). Entries `viewerId`
+ * recorded are left out: someone else accepts them. Only jobs where a stage has no standing
+ * sign-off (its latest withdrawn, or none) can hold such an entry, so only those are read in full;
+ * a job whose every stage is signed off costs one index probe. At most `limit` jobs, newest first.
  */
 export async function entriesToAcceptOnTheirOwn(
   db: Kysely<Database>,
   shopId: string,
+  viewerId: string,
   limit = 20,
 ): Promise<Array<{ workOrderId: string; number: number; title: string; items: OpenItem[] }>> {
-  const jobs = await db
+  const candidates = await db
     .selectFrom("work_orders as w")
     .select(["w.id", "w.number", "w.title"])
     .where("w.shop_id", "=", shopId)
@@ -141,17 +144,54 @@ export async function entriesToAcceptOnTheirOwn(
           .whereRef("o.work_order_id", "=", "w.id")
           .where("o.shop_id", "=", shopId)
           .where("o.flagged", "=", true)
+          .where("o.author_id", "<>", viewerId)
           .where((eb) => eb.not(eb.exists(eb.selectFrom("flag_acceptances as a").select("a.id").whereRef("a.operation_id", "=", "o.id"))))
           .where(notWithdrawn("o.id")),
       ),
     )
+    // a stage with no standing sign-off, or no procedure at all
+    .where(
+      sql<boolean>`(
+        NOT EXISTS (SELECT 1 FROM job_procedures jp0 WHERE jp0.work_order_id = w.id)
+        OR EXISTS (
+          SELECT 1 FROM job_procedures jp
+          JOIN (SELECT DISTINCT template_version_id, stage_key FROM template_steps) st ON st.template_version_id = jp.template_version_id
+          WHERE jp.work_order_id = w.id
+            AND NOT EXISTS (
+              SELECT 1 FROM (
+                SELECT s.id FROM sign_offs s JOIN operations so ON so.id = s.id
+                WHERE s.job_procedure_id = jp.id AND s.stage_key = st.stage_key
+                ORDER BY so.seq DESC LIMIT 1
+              ) latest
+              WHERE ${notWithdrawn("latest.id")}
+            )
+        )
+      )`,
+    )
     .orderBy("w.number", "desc")
     .limit(limit)
     .execute();
-  const out = [];
-  for (const j of jobs) {
-    const items = ((await loadOpenItems(db, shopId, j.id)) ?? []).filter((i) => entryAcceptedOnItsOwn(i, true));
-    if (items.length) out.push({ workOrderId: j.id, number: j.number, title: j.title, items });
-  }
-  return out;
+  const loaded = await Promise.all(
+    candidates.map(async (j) => {
+      const [items, authors] = await Promise.all([
+        loadOpenItems(db, shopId, j.id),
+        db
+          .selectFrom("operations")
+          .select("id")
+          .where("work_order_id", "=", j.id)
+          .where("flagged", "=", true)
+          .where("author_id", "=", viewerId)
+          .execute(),
+      ]);
+      const own = new Set(authors.map((a) => a.id));
+      const mine = (i: OpenItem) => own.has(entryAcceptedOnItsOwn(i, true) ?? "");
+      return {
+        workOrderId: j.id,
+        number: j.number,
+        title: j.title,
+        items: (items ?? []).filter((i) => entryAcceptedOnItsOwn(i, true) && !mine(i)),
+      };
+    }),
+  );
+  return loaded.filter((j) => j.items.length > 0);
 }

@@ -96,7 +96,7 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
     const item = (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!.find((i) => i.key === `flagged_not_accepted:${fix.id}`);
     expect(item).toMatchObject({ signOffId: null, stage: { key: "check" } });
     // listed for the supervisor's review page, under its job
-    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId)).toEqual([
+    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId, job.users.sup.id)).toEqual([
       {
         workOrderId: job.workOrderId,
         number: 2,
@@ -136,7 +136,7 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
       justification: "Remeasured at collection with the customer present",
     });
     expect((await loadOpenItems(db, job.fx.shopId, job.workOrderId))!.map((i) => i.key)).not.toContain(`flagged_not_accepted:${fix.id}`);
-    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId)).toEqual([]);
+    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId, job.users.sup.id)).toEqual([]);
     expect(await auditOf(job.workOrderId)).toEqual([["accepted", null]]);
 
     // once only: a second acceptance is refused, and audited
@@ -163,6 +163,11 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
     const redo = supTablet.complete(job.steps["fit-cover"]);
     expect((await sync(db, job.users.sup, supTablet, [redo])).flagged.map((f) => f.id)).toEqual([redo.id]);
 
+    // the review page lists it for the office, not for the supervisor who recorded it
+    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId, job.users.sup.id)).toEqual([]);
+    expect((await entriesToAcceptOnTheirOwn(db, job.fx.shopId, job.users.office.id)).map((j) => j.items.map((i) => i.key))).toEqual([
+      [`flagged_not_accepted:${redo.id}`],
+    ]);
     const own = await accept(job, redo.id, { justification: "Refitted the cover at the counter" }, job.users.sup);
     expect(own.status).toBe(422);
     expect((await own.json()).error).toMatch(/You recorded this entry yourself/);
@@ -179,7 +184,7 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
     // the close stage is signed off and approved: its late entry goes back to that sign-off's review
     const reseal = job.tablet.complete(job.steps.seal);
     await sync(db, job.users.mech, job.tablet, [reseal]);
-    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId)).toEqual([]); // in the review queue instead
+    expect(await entriesToAcceptOnTheirOwn(db, job.fx.shopId, job.users.sup.id)).toEqual([]); // in the review queue instead
     const viaReview = await accept(job, reseal.id, { justification: "Seal checked again at collection" }, job.users.office);
     expect(viaReview.status).toBe(409);
     expect((await viaReview.json()).error).toMatch(/decision on the sign-off of “Close up”/);

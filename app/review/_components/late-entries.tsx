@@ -16,8 +16,9 @@ export interface LateEntriesJob {
 
 /**
  * Flagged entries of closed jobs that no sign-off can carry (their stage's sign-off withdrawn or
- * never made): they are not in the queue above, since there is no sign-off to decide on, and they
- * hold back the stored report's revisions until someone who did not record them accepts them.
+ * never made): they are not in the queue above, since there is no sign-off to decide on. On a job
+ * handed over they hold back the stored report's revisions until someone who did not record them
+ * accepts them. The viewer's own entries are not listed (someone else accepts those).
  */
 export function LateEntries({ jobs, officeLinks }: { jobs: LateEntriesJob[]; officeLinks: boolean }) {
   const router = useRouter();
@@ -33,8 +34,8 @@ export function LateEntries({ jobs, officeLinks }: { jobs: LateEntriesJob[]; off
         <span aria-hidden="true">⚠ </span>Late entries with no sign-off to review
       </h2>
       <p className="mt-1 text-lg">
-        Work that reached the shop after these jobs closed, on stages with no sign-off to decide on. Each one waits for a written acceptance
-        before the job&apos;s stored build report can be revised.
+        Flagged work on closed jobs (handed over or cancelled), on stages with no sign-off to decide on. Each one stays open until someone
+        who did not record it accepts it in writing; on a job handed over, the stored build report is revised only then.
       </p>
       {accepted && (
         <div className="mt-2">
