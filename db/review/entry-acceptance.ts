@@ -50,8 +50,8 @@ export async function acceptEntryOnItsOwn(
       .where("shop_id", "=", user.shopId)
       .executeTakeFirst();
 
-    const refuse = async (status: 404 | 409 | 422, reason: string, issues: Array<{ path: string; message: string }> = []) => {
-      await appendAudit(trx, [
+    const audit = (outcome: "accepted" | "refused", reason: string | null, detail: Record<string, unknown>) =>
+      appendAudit(trx, [
         {
           shopId: user.shopId,
           actorId: user.id,
@@ -60,11 +60,13 @@ export async function acceptEntryOnItsOwn(
           entity: "operation",
           entityId: entry ? operationId : null,
           workOrderId,
-          outcome: "refused",
+          outcome,
           reason,
-          detail: { operationId, justification, issues },
+          detail: { operationId, justification, ...detail },
         },
       ]);
+    const refuse = async (status: 404 | 409 | 422, reason: string, issues: Array<{ path: string; message: string }> = []) => {
+      await audit("refused", reason, { issues });
       return { ok: false as const, status, reason, issues };
     };
 
@@ -102,19 +104,7 @@ export async function acceptEntryOnItsOwn(
       .values({ shop_id: user.shopId, operation_id: operationId, decision_id: null, justification, accepted_by: user.id })
       .returning("id")
       .executeTakeFirstOrThrow();
-    await appendAudit(trx, [
-      {
-        shopId: user.shopId,
-        actorId: user.id,
-        deviceId,
-        action: "review.accept-entry",
-        entity: "operation",
-        entityId: operationId,
-        workOrderId,
-        outcome: "accepted",
-        detail: { operationId, justification, entry: item.reason, stage: item.stage?.title ?? null, step: item.step?.title ?? null },
-      },
-    ]);
+    await audit("accepted", null, { entry: item.reason, stage: item.stage?.title ?? null, step: item.step?.title ?? null });
     return { ok: true, acceptanceId: row.id, closedJob: true };
   });
 }
@@ -171,27 +161,34 @@ export async function entriesToAcceptOnTheirOwn(
     .orderBy("w.number", "desc")
     .limit(limit)
     .execute();
+  if (candidates.length === 0) return [];
+  // the viewer's own flagged entries on these jobs, read once: someone else accepts those
+  const own = new Set(
+    (
+      await db
+        .selectFrom("operations")
+        .select("id")
+        .where(
+          "work_order_id",
+          "in",
+          candidates.map((j) => j.id),
+        )
+        .where("flagged", "=", true)
+        .where("author_id", "=", viewerId)
+        .execute()
+    ).map((o) => o.id),
+  );
+  const listed = (i: OpenItem) => {
+    const entryId = entryAcceptedOnItsOwn(i, true);
+    return entryId !== null && !own.has(entryId);
+  };
   const loaded = await Promise.all(
-    candidates.map(async (j) => {
-      const [items, authors] = await Promise.all([
-        loadOpenItems(db, shopId, j.id),
-        db
-          .selectFrom("operations")
-          .select("id")
-          .where("work_order_id", "=", j.id)
-          .where("flagged", "=", true)
-          .where("author_id", "=", viewerId)
-          .execute(),
-      ]);
-      const own = new Set(authors.map((a) => a.id));
-      const mine = (i: OpenItem) => own.has(entryAcceptedOnItsOwn(i, true) ?? "");
-      return {
-        workOrderId: j.id,
-        number: j.number,
-        title: j.title,
-        items: (items ?? []).filter((i) => entryAcceptedOnItsOwn(i, true) && !mine(i)),
-      };
-    }),
+    candidates.map(async (j) => ({
+      workOrderId: j.id,
+      number: j.number,
+      title: j.title,
+      items: ((await loadOpenItems(db, shopId, j.id)) ?? []).filter(listed),
+    })),
   );
   return loaded.filter((j) => j.items.length > 0);
 }

@@ -4,17 +4,15 @@ import { POST as decideRoute } from "@/app/api/review/sign-offs/[id]/decisions/r
 import { GET as reportRoute } from "@/app/api/jobs/[id]/build-report/route";
 import { POST as withdrawRoute } from "@/app/api/jobs/[id]/dyno-runs/[runId]/withdraw/route";
 import { getObject } from "@/app/_server/object-store";
-import { storeHandoverCopy } from "@/app/_server/frozen-report";
-import { handOver } from "@/db/office/invoices";
 import { addPartFitted } from "@/db/office/parts";
 import { importDynoRun } from "@/db/records/dyno-import";
 import { loadOpenItems } from "@/db/records/open-items";
 import { loadSignOffReview } from "@/db/review/detail";
 import { countReviewQueue, pageReviewQueue } from "@/db/review/queue";
-import { addNote, assignMechanic, moveWorkOrder } from "@/db/shop/work-orders";
+import { addNote, assignMechanic } from "@/db/shop/work-orders";
 import { queueQuerySchema } from "@/lib/review/list-queries";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { closeOutJob, finishEverything, stageWork, type CloseOutJob } from "./support/close-out";
+import { closeOutJob, finishEverything, handOverByOverride, stageWork, type CloseOutJob } from "./support/close-out";
 import { useFakes } from "./support/fakes";
 import { pdfText } from "./support/pdf-text";
 import { sync } from "./support/review-bench";
@@ -44,21 +42,7 @@ async function download(job: CloseOutJob, user: SessionUser, revision?: number) 
   return { res, bytes: new Uint8Array(await res.arrayBuffer()) };
 }
 
-async function overrideKeys(job: CloseOutJob) {
-  return (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!.map((i) => i.key);
-}
-
-/** Ready then handed over, each with the office's override when items are open. */
-async function handOverNow(job: CloseOutJob, reason = "Customer needs the bike back for a race weekend") {
-  const keys = await overrideKeys(job);
-  const override = keys.length ? { reason, openItemKeys: keys } : null;
-  await moveWorkOrder(db, job.fx.shopId, job.users.office.id, job.workOrderId, "ready", { override });
-  const again = await overrideKeys(job);
-  return handOver(db, job.fx.shopId, job.users.office.id, job.workOrderId, {
-    override: again.length ? { reason, openItemKeys: again } : null,
-    storeReport: (trx) => storeHandoverCopy(trx, job.fx.shopId, job.workOrderId, job.users.office.id),
-  });
-}
+const handOverNow = (job: CloseOutJob, reason?: string) => handOverByOverride(db, job, reason);
 
 /** The current reading of the left cover gap (the first reading of the check stage). */
 const leftGapReading = (job: CloseOutJob) =>

@@ -1,14 +1,11 @@
 import { describe, expect, it } from "vitest";
 import { POST as acceptRoute } from "@/app/api/jobs/[id]/flagged-entries/[entryId]/acceptance/route";
-import { storeHandoverCopy } from "@/app/_server/frozen-report";
-import { handOver } from "@/db/office/invoices";
 import { loadOpenItems } from "@/db/records/open-items";
 import { decideOnSignOff } from "@/db/review/decide";
 import { entriesToAcceptOnTheirOwn } from "@/db/review/entry-acceptance";
-import { moveWorkOrder } from "@/db/shop/work-orders";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { Tablet } from "../bench/sync-ops";
-import { closeOutJob, stageWork, type CloseOutJob } from "./support/close-out";
+import { closeOutJob, handOverByOverride, stageWork, type CloseOutJob } from "./support/close-out";
 import { useFakes } from "./support/fakes";
 import { sync } from "./support/review-bench";
 import { appRequest } from "./support/route-calls";
@@ -49,19 +46,8 @@ const auditOf = async (workOrderId: string) =>
   ).map((a) => [a.outcome, a.reason]);
 
 /** Ready then handed over with the office's written override of what is open. */
-async function handOverByOverride(job: CloseOutJob) {
-  const reason = "Customer collects today; the check stage is signed off on paper";
-  for (const to of ["ready", "handed_over"] as const) {
-    const keys = (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!.map((i) => i.key);
-    const override = keys.length ? { reason, openItemKeys: keys } : null;
-    if (to === "ready") await moveWorkOrder(db, job.fx.shopId, job.users.office.id, job.workOrderId, "ready", { override });
-    else
-      await handOver(db, job.fx.shopId, job.users.office.id, job.workOrderId, {
-        override,
-        storeReport: (trx) => storeHandoverCopy(trx, job.fx.shopId, job.workOrderId, job.users.office.id),
-      });
-  }
-}
+const handOverWithOverride = (job: CloseOutJob) =>
+  handOverByOverride(db, job, "Customer collects today; the check stage is signed off on paper");
 
 /** The check stage worked but never signed off; the close stage signed off and approved; handed over by override. */
 async function closedWithUnsignedStage() {
@@ -82,7 +68,7 @@ async function closedWithUnsignedStage() {
     flagAcceptances: [],
   });
   expect(d.ok).toBe(true);
-  await handOverByOverride(job);
+  await handOverWithOverride(job);
   expect(await revisions(job)).toEqual([1]);
   const left = check.ops[0];
   return { job, left, closeSignOff: close.signOff.id };
@@ -156,7 +142,7 @@ describe("accepting a closed job's flagged entry that no sign-off can carry (rea
     await sync(db, job.users.mech, job.tablet, [
       job.tablet.make("entry.withdrawn", { operationId: check.signOff.id, reason: "Signed off too early" }),
     ]);
-    await handOverByOverride(job);
+    await handOverWithOverride(job);
 
     // the supervisor completes the cover step again at the counter, on their own tablet
     const supTablet = new Tablet("tablet-sup-counter", job.users.sup.id, job.workOrderId);

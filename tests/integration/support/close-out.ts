@@ -1,7 +1,11 @@
 import { randomUUID } from "node:crypto";
 import type { Kysely } from "kysely";
+import { storeHandoverCopy } from "@/app/_server/frozen-report";
+import { handOver } from "@/db/office/invoices";
+import { loadOpenItems } from "@/db/records/open-items";
 import { decideOnSignOff } from "@/db/review/decide";
 import type { Database } from "@/db/schema";
+import { moveWorkOrder } from "@/db/shop/work-orders";
 import { createTemplateVersion } from "@/db/templates/versions";
 import type { TemplateDocumentInput } from "@/lib/procedures/template-schema";
 import type { Operation } from "@/lib/sync/operations";
@@ -137,4 +141,21 @@ export async function finishEverything(db: Kysely<Database>, job: CloseOutJob) {
     signOffs.push(w.signOff.id);
   }
   return signOffs;
+}
+
+/** Ready then handed over, each with the office's written override when items are open; the handover stores the report (revision 1). */
+export async function handOverByOverride(
+  db: Kysely<Database>,
+  job: CloseOutJob,
+  reason = "Customer needs the bike back for a race weekend",
+) {
+  const overrideOf = async () => {
+    const keys = (await loadOpenItems(db, job.fx.shopId, job.workOrderId))!.map((i) => i.key);
+    return keys.length ? { reason, openItemKeys: keys } : null;
+  };
+  await moveWorkOrder(db, job.fx.shopId, job.users.office.id, job.workOrderId, "ready", { override: await overrideOf() });
+  return handOver(db, job.fx.shopId, job.users.office.id, job.workOrderId, {
+    override: await overrideOf(),
+    storeReport: (trx) => storeHandoverCopy(trx, job.fx.shopId, job.workOrderId, job.users.office.id),
+  });
 }
