@@ -9,6 +9,7 @@ export default await serwist({
   // The default patterns, plus the fonts shipped in fonts/ (next/font/local puts them in static/media),
   // so the bench reads the same offline.
   globPatterns: [...generateGlobPatterns(".next/"), ".next/static/media/*.woff2"],
-  // Only the bench's own chunks (sw/bench-precache.mjs): the office's pages are never opened offline.
+  // Only the bench's own chunks (sw/bench-precache.mjs): the office's pages are never opened offline;
+  // the app icons are kept at run time, not precached.
   manifestTransforms: [onlyBenchChunks(".next")],
 });

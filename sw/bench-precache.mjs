@@ -40,13 +40,17 @@ export function benchChunkSet(distDir = ".next") {
   return found;
 }
 
-/** A serwist manifest transform: chunks outside the bench's set are not precached; other entries stay. */
+/** Precache entries the bench does not need offline: the app icons (public/icons/) serve installing the app and the tab's icon; the worker keeps them at run time once fetched (sw/sw.ts). */
+const NOT_FOR_OFFLINE = /^(?:public\/|\/)?icons\//;
+
+/** A serwist manifest transform: chunks outside the bench's set and the app icons are not precached; other entries stay. */
 export function onlyBenchChunks(distDir = ".next") {
   return (entries) => {
     const keep = benchChunkSet(distDir);
     const prefix = `${distDir.replace(/\/$/, "")}/`;
     const manifest = entries.filter((e) => {
       const file = e.url.startsWith(prefix) ? e.url.slice(prefix.length) : e.url;
+      if (NOT_FOR_OFFLINE.test(file)) return false;
       return !file.startsWith("static/chunks/") || keep.has(file);
     });
     return { manifest, warnings: [] };

@@ -22,7 +22,7 @@ interface PrecacheFigures {
   afterPaintJsGzip: number;
   /** The precache by part, raw bytes: boot scripts, the QR scanner's chunk, the bench's other scripts, styles. */
   parts: { boot: number; scanner: number; bench: number; styles: number };
-  /** Every entry of the worker's precache list (scripts, styles, fonts, icons, the offline page), raw bytes, and how many. */
+  /** Every entry of the worker's precache list (scripts, styles, fonts, the offline page), raw bytes, and how many. */
   listBytes: number;
   listEntries: number;
 }
@@ -95,7 +95,7 @@ export function print(f: PrecacheFigures | null): void {
   const kb = (n: number) => `${(n / 1024).toFixed(0)} kB`;
   const mb = (n: number) => `${(n / 1e6).toFixed(2)} MB`;
   console.log(
-    `The worker's whole precache list: ${f.listEntries} entries, ${mb(f.listBytes)} (scripts, styles, fonts, icons, the offline page), ` +
+    `The worker's whole precache list: ${f.listEntries} entries, ${mb(f.listBytes)} (scripts, styles, fonts, the offline page), ` +
       `${((100 * f.listBytes) / PRECACHE_WHEN_FILED).toFixed(0)} % of the ${mb(PRECACHE_WHEN_FILED)} precached when issue 17 was filed (target at most 40 %)`,
   );
   console.log(
@@ -104,7 +104,7 @@ export function print(f: PrecacheFigures | null): void {
   );
   console.log(
     `  of which: React and the Next.js runtime ${kb(f.parts.boot)}, the QR scanner ${kb(f.parts.scanner)}, ` +
-      `the bench's own scripts ${kb(f.parts.bench)} (its code, dexie, zod, react-query), styles ${kb(f.parts.styles)}`,
+      `the bench's own scripts ${kb(f.parts.bench)} (its code, dexie, zod), styles ${kb(f.parts.styles)}`,
   );
   console.log(`Bench first-load scripts, gzipped: ${kb(f.firstLoadJsGzip)} (target at most 150 kB)`);
   console.log(

@@ -1,6 +1,5 @@
 "use client";
 
-import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { useEffect, useMemo, useState } from "react";
 import { benchDb } from "@/lib/client/bench-db";
 import { unsentCount } from "@/lib/client/bench-store";
@@ -21,15 +20,6 @@ import { useBenchSync } from "./use-bench-sync";
 import { useSessionWatch } from "./use-session-watch";
 
 export function BenchApp({ user }: { user: BenchUser }) {
-  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { retry: false } } }));
-  return (
-    <QueryClientProvider client={client}>
-      <BenchRoot user={user} />
-    </QueryClientProvider>
-  );
-}
-
-function BenchRoot({ user }: { user: BenchUser }) {
   const db = useMemo(() => benchDb(user.id), [user.id]);
   // Rendered only in the browser (bench-boot.tsx loads this module after the first paint), so the
   // device id kept in localStorage is read at once: the first render is already the live bench.

@@ -1,8 +1,8 @@
 "use client";
 
 import { liveQuery } from "dexie";
-import { onlineManager } from "@tanstack/react-query";
 import { useEffect, useState, useSyncExternalStore } from "react";
+import { subscribeOnline } from "@/lib/client/sync-schedule";
 
 /** The value of an IndexedDB query, kept current as the tables change (dexie liveQuery). */
 export function useLive<T>(query: () => Promise<T>, deps: unknown[], initial: T): T {
@@ -25,11 +25,11 @@ export function useNow(ms = 1000): number {
   return now;
 }
 
-/** The network state as react-query's onlineManager has it (it follows the browser: lib/client/online-state.ts). */
+/** The browser's network state, as its online and offline events tell it. */
 export function useOnline(): boolean {
   return useSyncExternalStore(
-    (onChange) => onlineManager.subscribe(onChange),
-    () => onlineManager.isOnline(),
+    subscribeOnline,
+    () => navigator.onLine,
     () => true,
   );
 }
