@@ -2,7 +2,8 @@
  * When the bench syncs: at start, every `everyMs`, when the network comes back, when the tablet's
  * screen is shown again, and when asked (a save, Sync now); never while the browser says it is
  * offline. `run` is the single-flight sync runner (./single-flight.ts), so triggers that arrive
- * during a run never start a second one alongside it. `onBusy` hears whether a run is going.
+ * during a run never start a second one alongside it; a poll or the screen shown during a run adds
+ * nothing. `onBusy` hears whether a run is going.
  * The browser's events come in through `env`, so the schedule is tested without a browser.
  */
 export interface SyncScheduleEnv {
@@ -36,7 +37,12 @@ export function syncSchedule(
     // a failed run is not an error of the schedule: the outbox keeps the work and the next trigger tries again
     run().then(settle, settle);
   };
-  const unsubscribe = [env.onOnline(now), env.onShown(now), env.every(opts.everyMs, now)];
+  // The poll and the screen coming back are no news: while a run is going they add nothing. A save
+  // or Sync now (`now`) and the network's return ask for one more run after the current one.
+  const unlessRunning = () => {
+    if (waiting === 0) now();
+  };
+  const unsubscribe = [env.onOnline(now), env.onShown(unlessRunning), env.every(opts.everyMs, unlessRunning)];
   now();
   return {
     now,

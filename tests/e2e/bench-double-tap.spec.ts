@@ -2,12 +2,12 @@ import { expect, test, type Page } from "@playwright/test";
 import { query } from "./support/e2e-db";
 import { typeTag, waitForServiceWorker, waitForSynced } from "./support/bench-pad";
 import { signIn } from "./support/demo-users";
-import { openStep, typeIn } from "./support/review-bench";
+import { acknowledgeCautions, openStep, readOpenSpots, typeIn } from "./support/review-bench";
 
 // A tap records what it shows, once: a double tap (two presses straight after each other) on "Save reading" or
 // "Step done" records one entry, as on the torque confirm (bench-screen-truth.spec.ts). Demo job
 // #1074 (tag GSW-1074, bottom end, kept for trying by hand; no other test records on it), step 2
-// (piston-to-wall clearance, two readings).
+// (piston-to-wall clearance, two readings); step 1 (the bore) for "Step done" then at once "All steps".
 
 async function doubleTap(page: Page, name: string, scope = page.locator("body")) {
   const button = scope.getByRole("button", { name });
@@ -56,4 +56,30 @@ test("a double tap on Save reading records one reading, and on Step done one com
   await expect(page.getByTestId("waiting-count")).toHaveText("Nothing waiting to send");
   const after = await recorded();
   expect(after).toEqual({ readings: before.readings + 2, done: before.done + 1 });
+});
+
+test("Step done then at once All steps: the step is recorded and the tablet stays on All steps, not pulled on to the next step", async ({
+  page,
+}) => {
+  await signIn(page, "mechanic");
+  await waitForServiceWorker(page);
+  await waitForSynced(page);
+  await typeTag(page, "GSW-1074");
+  await page.getByRole("button", { name: "Open this bike's job" }).click();
+  await expect(page.getByRole("heading", { name: "Oxmoor Vane 650" })).toBeVisible();
+  await openStep(page, 1);
+  await acknowledgeCautions(page);
+  await readOpenSpots(page, { "Cylinder 1 bore": "76.005" });
+  const jobHash = new URL(page.url()).hash.replace(/\/step\/\d+$/, "");
+  // both taps in one go: "All steps" lands while "Step done" is still being written to the tablet's store
+  await page.evaluate(() => {
+    const button = (name: string) => [...document.querySelectorAll("button")].find((b) => b.textContent?.trim() === name)!;
+    button("Step done").click();
+    button("All steps").click();
+  });
+  await expect(page.getByRole("button", { name: /Bore gauge cylinder 1/ })).toContainText("Done");
+  await page.waitForTimeout(1000); // the save has long finished: nothing moves the screen any more
+  expect(new URL(page.url()).hash).toBe(jobHash);
+  await expect(page.getByText(/^Step \d+ of \d+$/)).toHaveCount(0);
+  await waitForSynced(page);
 });

@@ -49,8 +49,12 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
   const lastCompletion = sv.completions.at(-1);
 
   async function complete() {
+    const here = window.location.hash;
     await recordOperation(db, author, jobId, "step.completed", { stepId: sv.step.id });
     syncNow();
+    // The save takes a moment (IndexedDB may be busy with a sync): a mechanic who has tapped
+    // "All steps" or another step meanwhile stays where they went, not pulled on to the next step.
+    if (window.location.hash !== here) return;
     if (hasNext) move(1);
     else go({ screen: "job", jobId });
   }

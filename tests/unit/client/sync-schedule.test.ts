@@ -41,9 +41,10 @@ describe("the bench's sync schedule", () => {
     let runs = 0;
     syncSchedule(async () => void runs++, { everyMs: 20_000, env, onBusy: () => undefined });
     expect(runs).toBe(1);
-    fire("tick");
-    fire("online");
-    fire("shown");
+    for (const what of ["tick", "online", "shown"] as const) {
+      await settle(); // the run before it has ended
+      fire(what);
+    }
     await settle();
     expect(runs).toBe(4);
   });
@@ -78,6 +79,30 @@ describe("the bench's sync schedule", () => {
     runs.ends[1]();
     await settle();
     expect(busy).toEqual([true, false]);
+  });
+
+  it("a poll or the screen shown during a run adds nothing; a save or the network's return asks for one more run", async () => {
+    const { env, fire } = fakeEnv();
+    const runs = manualRuns();
+    const flight = singleFlight(runs.task);
+    const s = syncSchedule(() => flight.run(), { everyMs: 20_000, env, onBusy: () => undefined });
+    fire("tick");
+    fire("shown");
+    await settle();
+    runs.ends[0]();
+    await settle();
+    expect(runs.started()).toBe(1); // nothing queued behind the first run
+    fire("tick");
+    await settle();
+    expect(runs.started()).toBe(2);
+    s.now();
+    fire("online");
+    runs.ends[1]();
+    await settle();
+    expect(runs.started()).toBe(3); // one more after it, for both
+    runs.ends[2]();
+    await settle();
+    expect(runs.started()).toBe(3);
   });
 
   it("a failed run ends the busy state and the next trigger runs again", async () => {
