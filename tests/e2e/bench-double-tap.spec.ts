@@ -83,3 +83,20 @@ test("Step done then at once All steps: the step is recorded and the tablet stay
   await expect(page.getByText(/^Step \d+ of \d+$/)).toHaveCount(0);
   await waitForSynced(page);
 });
+
+test("Open this bike's job then at once Scan a bike's tag: the tablet stays on the scan screen when the look-up ends", async ({ page }) => {
+  await signIn(page, "mechanic");
+  await waitForServiceWorker(page);
+  await waitForSynced(page);
+  await typeTag(page, "GSW-1074");
+  // both taps in one go: "Scan" lands while the tag is still being looked up in the tablet's store
+  await page.evaluate(() => {
+    const button = (name: string) => [...document.querySelectorAll("button")].find((b) => b.textContent?.trim() === name)!;
+    button("Open this bike's job").click();
+    button("Scan a bike's tag").click();
+  });
+  await expect(page).toHaveURL(/#\/scan$/);
+  await page.waitForTimeout(1000); // the look-up has long finished: nothing moves the screen any more
+  await expect(page).toHaveURL(/#\/scan$/);
+  await expect(page.getByRole("heading", { name: "Oxmoor Vane 650" })).toHaveCount(0);
+});

@@ -41,6 +41,19 @@ export function go(r: BenchRoute): void {
   window.location.hash = routeHref(r);
 }
 
+/** The screen now, to hand to `goFrom` when an action that ends by moving on begins. */
+export function currentScreen(): string {
+  return window.location.hash;
+}
+
+/**
+ * Goes to `r` only while the screen is still `from` (`currentScreen()` when the action began): a
+ * save or a tag lookup that finishes after the mechanic has moved on never pulls them back.
+ */
+export function goFrom(from: string, r: BenchRoute): void {
+  if (window.location.hash === from) go(r);
+}
+
 export function useHashRoute(): BenchRoute {
   const [route, setRoute] = useState<BenchRoute>({ screen: "home" });
   useEffect(() => {

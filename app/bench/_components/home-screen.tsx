@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import { useBench } from "./bench-context";
-import { go } from "./hash-route";
+import { currentScreen, go, goFrom } from "./hash-route";
 import { ComeBackOffer } from "./come-back-offer";
 import { HomeView, type HomeJob } from "./home-view";
 import { lookUpTag } from "./tag-lookup";
@@ -35,9 +35,10 @@ export function HomeScreen() {
     setBusy(true);
     setMessage(null);
     setComeBackFrom(null);
+    const from = currentScreen();
     try {
       const r = await lookUpTag(db, code);
-      if (r.ok) go({ screen: "job", jobId: r.jobId });
+      if (r.ok) goFrom(from, { screen: "job", jobId: r.jobId });
       else {
         setMessage(r.message);
         setComeBackFrom(r.comeBackFrom ?? null);

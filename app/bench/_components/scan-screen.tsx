@@ -4,7 +4,7 @@ import { useEffect, useRef, useState } from "react";
 import { useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { ComeBackOffer } from "./come-back-offer";
-import { go } from "./hash-route";
+import { currentScreen, go, goFrom } from "./hash-route";
 import { lookUpTag } from "./tag-lookup";
 
 const READER_ID = "tag-reader";
@@ -38,8 +38,9 @@ export function ScanScreen() {
             done.current = true;
             setMessage(`Read tag ${text}`);
             await scanner?.stop().catch(() => undefined);
+            const from = currentScreen();
             const r = await lookUpTag(db, text);
-            if (r.ok) go({ screen: "job", jobId: r.jobId });
+            if (r.ok) goFrom(from, { screen: "job", jobId: r.jobId });
             else {
               setFailed(true);
               setMessage(r.message);

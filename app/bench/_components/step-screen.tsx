@@ -5,7 +5,7 @@ import { recordOperation } from "@/lib/client/bench-store";
 import { useAuthor, useBench } from "./bench-context";
 import { BigButton } from "./big-button";
 import { Cautions } from "./cautions";
-import { go } from "./hash-route";
+import { currentScreen, go, goFrom } from "./hash-route";
 import { useJob } from "./job-data";
 import { MeasurementPanel } from "./measurement-panel";
 import { PartsFittedPanel } from "./parts-fitted-panel";
@@ -49,14 +49,12 @@ export function StepScreen({ jobId, stepIndex }: { jobId: string; stepIndex: num
   const lastCompletion = sv.completions.at(-1);
 
   async function complete() {
-    const here = window.location.hash;
+    const from = currentScreen();
     await recordOperation(db, author, jobId, "step.completed", { stepId: sv.step.id });
     syncNow();
     // The save takes a moment (IndexedDB may be busy with a sync): a mechanic who has tapped
     // "All steps" or another step meanwhile stays where they went, not pulled on to the next step.
-    if (window.location.hash !== here) return;
-    if (hasNext) move(1);
-    else go({ screen: "job", jobId });
+    goFrom(from, hasNext ? { screen: "step", jobId, stepIndex: sv.index + 1 } : { screen: "job", jobId });
   }
 
   // The side buttons run the full height of the screen at both edges, within a thumb's reach.
