@@ -1,29 +1,9 @@
-// Runs once when the server starts, before it serves anything: a production start with missing or
-// default secrets, or a public address that is not https, is refused with the reasons
-// (lib/setup/production-settings.ts). Then the queue worker starts in this process (e-mails,
-// sign-off notices; app/_server/queue/) unless BENCHTAG_QUEUE_WORKER=off, for a shop that runs
-// it as a process of its own (`npm run worker`).
-import { isProductionStart, productionSettingProblems, refusedStartMessage } from "@/lib/setup/production-settings";
-
+// Runs once when the server starts, before it serves anything: the start checks and the queue
+// worker (app/_server/server-start.ts). They use Node.js alone, so they are imported only in the
+// Node.js runtime's branch, which the build leaves out of the Edge runtime's copy of this file.
 export async function register(): Promise<void> {
-  if (process.env.NEXT_RUNTIME !== "nodejs") return;
-  if (isProductionStart(process.env)) {
-    const problems = productionSettingProblems(process.env);
-    if (problems.length) {
-      console.error(refusedStartMessage(problems));
-      process.exit(1);
-    }
+  if (process.env.NEXT_RUNTIME === "nodejs") {
+    const { startServer } = await import("@/app/_server/server-start");
+    await startServer();
   }
-  if (process.env.BENCHTAG_QUEUE_WORKER === "off") return;
-  const [{ db }, { startQueueWorker }] = await Promise.all([import("@/db/setup/client"), import("@/app/_server/queue/worker")]);
-  // A database that does not answer yet must not stop the app from serving: the worker is tried again.
-  const start = (attempt: number): void => {
-    startQueueWorker(db())
-      .then(() => console.log("[queue] worker started"))
-      .catch((e) => {
-        console.error(`[queue] worker did not start (try ${attempt}); trying again in 30 s`, e);
-        setTimeout(() => start(attempt + 1), 30_000).unref();
-      });
-  };
-  start(1);
 }
