@@ -36,9 +36,10 @@ export function ScanScreen() {
           async (text) => {
             if (done.current) return;
             done.current = true;
+            // the screen the tag was read on: stopping the camera takes a moment, and the mechanic may move on meanwhile
+            const from = currentScreen();
             setMessage(`Read tag ${text}`);
             await scanner?.stop().catch(() => undefined);
-            const from = currentScreen();
             const r = await lookUpTag(db, text);
             if (r.ok) goFrom(from, { screen: "job", jobId: r.jobId });
             else {
